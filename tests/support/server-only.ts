@@ -1,0 +1,2 @@
+// Vitest runs outside Next; the "server-only" guard has nothing to guard there.
+export {};
