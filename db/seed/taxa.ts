@@ -1,6 +1,6 @@
 /**
  * Ecotone demo seed: species list for the demo survey event at the fictional
- * "Millbrook Reserve" (grassland meadow, alder woodland edge, millpond wetland
+ * Harrowmere Vale reserve (grassland meadow, alder woodland edge, millpond wetland
  * margin, beech woodland) somewhere in temperate Europe.
  *
  * This is the demo's INVENTED survey content: the species are real and common in

@@ -1,0 +1,5 @@
+import { z } from "zod";
+
+// No parameters are needed; unknown ones are refused so typos are noticed.
+export const healthQuery = z.object({}).strict();
+export type HealthQuery = z.infer<typeof healthQuery>;

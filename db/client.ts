@@ -1,0 +1,20 @@
+import "server-only";
+import { drizzle, type NodePgDatabase } from "drizzle-orm/node-postgres";
+import { Pool } from "pg";
+import { env } from "@/lib/env";
+import * as schema from "./schema";
+
+export type Db = NodePgDatabase<typeof schema>;
+
+// One pool per process, kept on globalThis so Next's development reloads reuse it.
+const globalForDb = globalThis as unknown as { ecotonePool?: Pool; ecotoneDb?: Db };
+
+export function getDb(): Db {
+  if (!globalForDb.ecotoneDb) {
+    const pool = new Pool({ connectionString: env().DATABASE_URL, max: env().DATABASE_POOL_MAX });
+    pool.on("error", (err) => console.error("[db] idle client error", err.message));
+    globalForDb.ecotonePool = pool;
+    globalForDb.ecotoneDb = drizzle(pool, { schema });
+  }
+  return globalForDb.ecotoneDb;
+}

@@ -1,0 +1,91 @@
+import "server-only";
+import { and, asc, count, eq, ne, sql } from "drizzle-orm";
+import { getDb } from "../client";
+import { eventSpecies, events, organisations, taxa, zones } from "../schema";
+
+export type EventSummary = {
+  id: string;
+  slug: string;
+  name: string;
+  status: "draft" | "open" | "closed";
+  startsAt: Date;
+  endsAt: Date;
+  timeZone: string;
+  organisationName: string;
+  zoneCount: number;
+  speciesCount: number;
+};
+
+/** Events that are not drafts, newest first, for the home page. */
+export async function listPublicEvents(): Promise<EventSummary[]> {
+  const db = getDb();
+  const zoneCount = db.$with("zone_count").as(
+    db.select({ eventId: zones.eventId, n: count().as("n") }).from(zones).groupBy(zones.eventId),
+  );
+  const speciesCount = db.$with("species_count").as(
+    db.select({ eventId: eventSpecies.eventId, n: count().as("n") }).from(eventSpecies).groupBy(eventSpecies.eventId),
+  );
+  const rows = await db
+    .with(zoneCount, speciesCount)
+    .select({
+      id: events.id, slug: events.slug, name: events.name, status: events.status,
+      startsAt: events.startsAt, endsAt: events.endsAt, timeZone: events.timeZone,
+      organisationName: organisations.name,
+      zoneCount: sql<number>`coalesce(${zoneCount.n}, 0)::int`,
+      speciesCount: sql<number>`coalesce(${speciesCount.n}, 0)::int`,
+    })
+    .from(events)
+    .innerJoin(organisations, eq(organisations.id, events.organisationId))
+    .leftJoin(zoneCount, eq(zoneCount.eventId, events.id))
+    .leftJoin(speciesCount, eq(speciesCount.eventId, events.id))
+    .where(ne(events.status, "draft"))
+    .orderBy(sql`${events.startsAt} DESC`);
+  return rows;
+}
+
+export type EventDetail = Awaited<ReturnType<typeof getPublicEventBySlug>>;
+
+export async function getPublicEventBySlug(slug: string) {
+  const [row] = await getDb()
+    .select({
+      id: events.id, slug: events.slug, name: events.name, description: events.description,
+      status: events.status, startsAt: events.startsAt, endsAt: events.endsAt, timeZone: events.timeZone,
+      languages: events.languages, organisationName: organisations.name,
+    })
+    .from(events)
+    .innerJoin(organisations, eq(organisations.id, events.organisationId))
+    .where(and(eq(events.slug, slug), ne(events.status, "draft")))
+    .limit(1);
+  return row ?? null;
+}
+
+export async function listZones(eventId: string) {
+  return getDb()
+    .select({
+      id: zones.id, name: zones.name, habitat: zones.habitat, description: zones.description,
+      // Area on the spheroid, in hectares.
+      areaHa: sql<number>`round((ST_Area(${zones.geom}::geography) / 10000)::numeric, 1)::float8`,
+    })
+    .from(zones)
+    .where(eq(zones.eventId, eventId))
+    .orderBy(asc(zones.name));
+}
+
+export async function speciesListSummary(eventId: string) {
+  const rows = await getDb()
+    .select({
+      group: taxa.taxonGroup,
+      total: count(),
+      sensitive: sql<number>`count(*) FILTER (WHERE ${taxa.sensitivity} <> 'open')::int`,
+    })
+    .from(eventSpecies)
+    .innerJoin(taxa, eq(taxa.id, eventSpecies.taxonId))
+    .where(eq(eventSpecies.eventId, eventId))
+    .groupBy(taxa.taxonGroup)
+    .orderBy(asc(taxa.taxonGroup));
+  return {
+    byGroup: rows.map((r) => ({ group: r.group, count: Number(r.total) })),
+    total: rows.reduce((s, r) => s + Number(r.total), 0),
+    sensitive: rows.reduce((s, r) => s + Number(r.sensitive), 0),
+  };
+}

@@ -1,0 +1,69 @@
+// The demo scenario of design.md: invented people, places and records. Demo only.
+import type { SeedTaxon } from "./taxa";
+
+export const DEMO_ORG = { slug: "friends-of-harrowmere-vale", name: "Friends of Harrowmere Vale" };
+
+export const DEMO_EVENT = {
+  slug: "harrowmere-vale-midsummer-count",
+  name: "Harrowmere Vale Midsummer Count",
+  description:
+    "Forty-eight hours to find every species we can across the vale's meadow, woodland and millpond. " +
+    "Records from all four zones help us compare the woodland and wetland edges with the interiors.",
+  timeZone: "Europe/London",
+  // 48 hours from 06:00 local time (BST, UTC+1) on 20 June 2026.
+  startsAt: new Date("2026-06-20T05:00:00Z"),
+  endsAt: new Date("2026-06-22T05:00:00Z"),
+  languages: ["en", "es", "fr"],
+};
+
+type Ring = [number, number][];
+const rect = (w: number, s: number, e: number, n: number): Ring => [[w, s], [e, s], [e, n], [w, n], [w, s]];
+
+// A fictional reserve; coordinates are [longitude, latitude] (GeoJSON order, WGS84).
+export const DEMO_AREA: Ring = [
+  [-1.8200, 52.1000], [-1.8040, 52.1000], [-1.8000, 52.1020], [-1.8000, 52.1100],
+  [-1.8100, 52.1102], [-1.8200, 52.1100], [-1.8200, 52.1000],
+];
+
+export type DemoZone = {
+  key: string; name: string; habitat: "interior" | "edge"; description: string;
+  ring: Ring; box: [number, number, number, number]; pools: SeedTaxon["habitat"][];
+};
+
+// Edge zones draw from both neighbouring habitats, as edges do.
+export const DEMO_ZONES: DemoZone[] = [
+  { key: "meadow", name: "Harrowmere Meadow", habitat: "interior", description: "Grassland interior: unimproved hay meadow.",
+    box: [-1.8195, 52.1035, -1.8110, 52.1095], ring: rect(-1.8195, 52.1035, -1.8110, 52.1095), pools: ["grassland", "any"] },
+  { key: "alder", name: "Alder Fringe", habitat: "edge", description: "Woodland edge: alder and hazel where the meadow meets the wood.",
+    box: [-1.8110, 52.1035, -1.8085, 52.1095], ring: rect(-1.8110, 52.1035, -1.8085, 52.1095), pools: ["woodland", "grassland", "any"] },
+  { key: "beech", name: "Beechwood Heart", habitat: "interior", description: "Woodland interior: closed-canopy beech.",
+    box: [-1.8085, 52.1035, -1.8005, 52.1095], ring: rect(-1.8085, 52.1035, -1.8005, 52.1095), pools: ["woodland", "any"] },
+  { key: "millpond", name: "Millpond Margin", habitat: "edge", description: "Wetland edge: reedbed and wet grassland around the old millpond.",
+    box: [-1.8150, 52.1005, -1.8050, 52.1035], ring: rect(-1.8150, 52.1005, -1.8050, 52.1035), pools: ["wetland", "grassland", "any"] },
+];
+
+export type DemoPerson = {
+  key: string; name: string; email: string; locale: "en" | "es" | "fr";
+  role: "organiser" | "coordinator" | "volunteer"; groups?: ("birds")[];
+};
+
+export const DEMO_PEOPLE: DemoPerson[] = [
+  { key: "organiser", name: "Maren Oakley", email: "organiser@example.org", locale: "en", role: "organiser" },
+  { key: "coord-all", name: "Tomás Ferreira", email: "coordinator@example.org", locale: "es", role: "coordinator" },
+  { key: "coord-birds", name: "Hélène Marchand", email: "birds@example.org", locale: "fr", role: "coordinator", groups: ["birds"] },
+  { key: "vol-1", name: "Priya Nandakumar", email: "volunteer1@example.org", locale: "en", role: "volunteer" },
+  { key: "vol-2", name: "Owen Pritchard", email: "volunteer2@example.org", locale: "en", role: "volunteer" },
+  { key: "vol-3", name: "Lucía Robles", email: "volunteer3@example.org", locale: "es", role: "volunteer" },
+  { key: "vol-4", name: "Bastien Lefèvre", email: "volunteer4@example.org", locale: "fr", role: "volunteer" },
+  { key: "vol-5", name: "Ada Whitlock", email: "volunteer5@example.org", locale: "en", role: "volunteer" },
+  { key: "vol-6", name: "Jonah Greaves", email: "volunteer6@example.org", locale: "en", role: "volunteer" },
+];
+
+export const DEMO_PASSWORD = "harrowmere-demo";
+
+export const REJECT_REASONS = ["misidentified", "duplicate", "outside_event", "insufficient_evidence"] as const;
+export const RETURN_QUESTIONS = [
+  "Could you add a photo of the underside of the leaves? It would separate this from a close relative.",
+  "Was this a sighting or a call only? Please say in the notes.",
+  "The count looks high for this spot. Did you count the same flock twice?",
+];

@@ -1,0 +1,173 @@
+import { eq, sql } from "drizzle-orm";
+import type { NodePgDatabase } from "drizzle-orm/node-postgres";
+import * as s from "../schema";
+import { DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, type DemoZone } from "./demo-scenario";
+import { demoId, seededRandom } from "./random";
+import { SEED_TAXA, type SeedTaxon } from "./taxa";
+
+type Db = NodePgDatabase<typeof s>;
+
+const polygonSql = (ring: [number, number][]) =>
+  sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify({ type: "Polygon", coordinates: [ring] })}), 4326)`;
+const pointSql = (lon: number, lat: number) => sql`ST_SetSRID(ST_MakePoint(${lon}, ${lat}), 4326)`;
+
+export type SeedSummary = { taxa: number; people: number; sessions: number; sightings: number; reviews: number; byState: Record<string, number> };
+
+/**
+ * Seeds the demo scenario. Deterministic (fixed PRNG seed, ids derived from names) and
+ * idempotent: a second run finds every row and adds nothing.
+ */
+export async function seedDemo(db: Db, options: { passwordHash?: string } = {}): Promise<SeedSummary> {
+  return db.transaction(async (tx) => {
+    const rand = seededRandom(20260620);
+    const pick = <T,>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)]!;
+
+    // Organisation, people and roles.
+    const orgId = demoId("org");
+    await tx.insert(s.organisations).values({ id: orgId, ...DEMO_ORG }).onConflictDoNothing();
+    const people = new Map<string, string>();
+    for (const p of DEMO_PEOPLE) {
+      const id = demoId(`user:${p.key}`);
+      people.set(p.key, id);
+      await tx.insert(s.users)
+        .values({ id, name: p.name, email: p.email, locale: p.locale, emailVerified: new Date("2026-05-01T00:00:00Z"), passwordHash: options.passwordHash ?? null })
+        .onConflictDoNothing();
+    }
+    await tx.insert(s.organisationMembers).values({ organisationId: orgId, userId: people.get("organiser")!, role: "organiser" }).onConflictDoNothing();
+
+    // Event, area and zones.
+    const eventId = demoId("event:midsummer");
+    await tx.insert(s.events).values({
+      id: eventId, organisationId: orgId, slug: DEMO_EVENT.slug, name: DEMO_EVENT.name, description: DEMO_EVENT.description,
+      status: "closed", startsAt: DEMO_EVENT.startsAt, endsAt: DEMO_EVENT.endsAt, timeZone: DEMO_EVENT.timeZone,
+      languages: DEMO_EVENT.languages, area: polygonSql(DEMO_AREA), joinCode: "HARROW-MIDSUMMER", accuracyLimitM: 50,
+    }).onConflictDoNothing();
+    for (const p of DEMO_PEOPLE) {
+      await tx.insert(s.eventMembers)
+        .values({ eventId, userId: people.get(p.key)!, role: p.role, taxonGroups: p.groups ?? [] })
+        .onConflictDoNothing();
+    }
+    const zoneIds = new Map<string, string>();
+    for (const z of DEMO_ZONES) {
+      const id = demoId(`zone:${z.key}`);
+      zoneIds.set(z.key, id);
+      await tx.insert(s.zones).values({ id, eventId, name: z.name, habitat: z.habitat, description: z.description, geom: polygonSql(z.ring) }).onConflictDoNothing();
+    }
+
+    // Taxa, names in three languages, and the event's species list.
+    const taxonIds = new Map<string, string>();
+    for (const t of SEED_TAXA) {
+      const id = demoId(`taxon:${t.scientificName}`);
+      taxonIds.set(t.scientificName, id);
+      await tx.insert(s.taxa).values({ id, scientificName: t.scientificName, rank: t.rank, taxonGroup: t.group, sensitivity: t.sensitivity }).onConflictDoNothing();
+      await tx.insert(s.taxonNames)
+        .values((["en", "es", "fr"] as const).map((locale) => ({ taxonId: id, locale, name: t.names[locale] })))
+        .onConflictDoNothing();
+      await tx.insert(s.eventSpecies).values({ eventId, taxonId: id }).onConflictDoNothing();
+    }
+
+    // Count sessions and sightings over the two days.
+    const volunteers = DEMO_PEOPLE.filter((p) => p.role === "volunteer");
+    const poolFor = (z: DemoZone) => SEED_TAXA.filter((t) => z.pools.includes(t.habitat));
+    const sessionRows: (typeof s.countSessions.$inferInsert)[] = [];
+    const sightingRows: (typeof s.sightings.$inferInsert)[] = [];
+    const kinds = ["timed_count", "walk", "plot_search"] as const;
+    const countFor = (t: SeedTaxon) => {
+      const base = t.group === "vascular_plants" ? 12 : t.group === "insects" ? 6 : t.group === "birds" ? 4 : 2;
+      return 1 + Math.floor(rand() * rand() * base * t.abundance);
+    };
+    const pointIn = (z: DemoZone) => {
+      const [w, so, e, n] = z.box;
+      return { lon: w + (e - w) * (0.05 + 0.9 * rand()), lat: so + (n - so) * (0.05 + 0.9 * rand()) };
+    };
+
+    for (let day = 0; day < 2; day++) {
+      for (const v of volunteers) {
+        const sessionsToday = 2 + Math.floor(rand() * 3);
+        for (let k = 0; k < sessionsToday; k++) {
+          const zone = pick(DEMO_ZONES);
+          const kind = pick(kinds);
+          const key = `session:${v.key}:${day}:${k}`;
+          const startMs = DEMO_EVENT.startsAt.getTime() + day * 86_400_000 + (1 + k * 3 + rand() * 2) * 3_600_000;
+          const minutes = kind === "walk" ? 45 + Math.floor(rand() * 45) : kind === "timed_count" ? 20 : 30;
+          const complete = kind !== "walk" || rand() < 0.6;
+          const sessionId = demoId(key);
+          sessionRows.push({
+            id: sessionId, eventId, userId: people.get(v.key)!, zoneId: zoneIds.get(zone.key)!, kind,
+            startedAt: new Date(startMs), endedAt: new Date(startMs + minutes * 60_000), allSpeciesNoted: complete,
+            distanceM: kind === "walk" ? Math.round(600 + rand() * 1400) : null,
+          });
+          const pool = poolFor(zone);
+          const weighted = pool.flatMap((t) => Array.from({ length: t.abundance * t.abundance }, () => t));
+          const found = new Set<SeedTaxon>();
+          const target = 4 + Math.floor(rand() * 10);
+          for (let tries = 0; found.size < target && tries < 200; tries++) found.add(pick(weighted));
+          let i = 0;
+          for (const taxon of found) {
+            const at = pointIn(zone);
+            sightingRows.push({
+              id: demoId(`${key}:sighting:${i}`), eventId, userId: people.get(v.key)!, sessionId,
+              taxonId: taxonIds.get(taxon.scientificName)!, count: countFor(taxon), countIsEstimate: rand() < 0.1,
+              observedAt: new Date(startMs + Math.floor(rand() * minutes) * 60_000),
+              location: pointSql(at.lon, at.lat) as unknown as string, accuracyM: Math.round(4 + rand() * 30),
+              zoneId: zoneIds.get(zone.key)!,
+            });
+            i++;
+          }
+        }
+        // One incidental record a day, outside any session, and now and then an unidentified one.
+        const zone = pick(DEMO_ZONES);
+        const at = pointIn(zone);
+        const unidentified = day === 1 && rand() < 0.5;
+        sightingRows.push({
+          id: demoId(`incidental:${v.key}:${day}`), eventId, userId: people.get(v.key)!,
+          taxonId: unidentified ? null : taxonIds.get(pick(poolFor(zone)).scientificName)!,
+          description: unidentified ? "Small brown moth, pale cross-band on forewing; flew before I could photograph it." : "",
+          count: 1, observedAt: new Date(DEMO_EVENT.startsAt.getTime() + day * 86_400_000 + 14 * 3_600_000 + rand() * 3_600_000),
+          location: pointSql(at.lon, at.lat) as unknown as string, accuracyM: Math.round(8 + rand() * 20), zoneId: zoneIds.get(zone.key)!,
+        });
+      }
+    }
+
+    if (sessionRows.length) await tx.insert(s.countSessions).values(sessionRows).onConflictDoNothing();
+    for (let i = 0; i < sightingRows.length; i += 200) {
+      await tx.insert(s.sightings).values(sightingRows.slice(i, i + 200)).onConflictDoNothing();
+    }
+
+    // Review decisions: every state appears. Only sightings still pending and never
+    // reviewed are decided, so a re-run leaves the history as it was.
+    const reviewed = await tx.select({ id: s.reviews.sightingId }).from(s.reviews)
+      .innerJoin(s.sightings, eq(s.sightings.id, s.reviews.sightingId)).where(eq(s.sightings.eventId, eventId)).limit(1);
+    if (reviewed.length === 0) {
+      const groupOf = new Map(SEED_TAXA.map((t) => [taxonIds.get(t.scientificName)!, t.group]));
+      const reviewRows: (typeof s.reviews.$inferInsert)[] = [];
+      for (const row of sightingRows) {
+        const r = rand();
+        const group = row.taxonId ? groupOf.get(row.taxonId) : undefined;
+        const reviewer = people.get(group === "birds" ? "coord-birds" : "coord-all")!;
+        const decidedAt = new Date(row.observedAt.getTime() + (2 + rand() * 30) * 3_600_000);
+        const toState: (typeof s.reviewState.enumValues)[number] = !row.taxonId ? (r < 0.5 ? "returned" : "pending")
+          : r < 0.68 ? "approved" : r < 0.86 ? "pending" : r < 0.93 ? "rejected" : "returned";
+        if (toState === "pending") continue;
+        const base = { sightingId: row.id, reviewerId: reviewer, decidedAt, fromState: "pending" as const, toState };
+        if (toState === "rejected") reviewRows.push({ ...base, reason: pick(REJECT_REASONS) });
+        else if (toState === "returned") reviewRows.push({ ...base, message: row.taxonId ? pick(RETURN_QUESTIONS) : "Can you describe the hindwing colour? That would narrow it down a lot." });
+        else reviewRows.push(base);
+        await tx.update(s.sightings).set({ reviewState: toState, version: 2, updatedAt: decidedAt }).where(eq(s.sightings.id, row.id));
+      }
+      for (let i = 0; i < reviewRows.length; i += 200) await tx.insert(s.reviews).values(reviewRows.slice(i, i + 200));
+    }
+
+    const [counts] = await tx.execute<{ sessions: number; sightings: number; reviews: number }>(sql`
+      SELECT (SELECT count(*) FROM count_sessions WHERE event_id = ${eventId})::int AS sessions,
+             (SELECT count(*) FROM sightings WHERE event_id = ${eventId})::int AS sightings,
+             (SELECT count(*) FROM reviews r JOIN sightings x ON x.id = r.sighting_id WHERE x.event_id = ${eventId})::int AS reviews`).then((r) => r.rows);
+    const states = await tx.execute<{ state: string; n: number }>(sql`
+      SELECT review_state AS state, count(*)::int AS n FROM sightings WHERE event_id = ${eventId} GROUP BY 1`);
+    return {
+      taxa: SEED_TAXA.length, people: DEMO_PEOPLE.length,
+      sessions: counts!.sessions, sightings: counts!.sightings, reviews: counts!.reviews,
+      byState: Object.fromEntries(states.rows.map((r) => [r.state, r.n])),
+    };
+  });
+}

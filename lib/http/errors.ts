@@ -1,0 +1,116 @@
+import { createTranslator } from "next-intl";
+import { z } from "zod";
+import en from "@/messages/en.json";
+import es from "@/messages/es.json";
+import fr from "@/messages/fr.json";
+import { isLocale, routing, type Locale } from "@/lib/i18n/routing";
+
+// One error type for every route handler (conventions, habit 5): a code maps to an
+// HTTP status and a translated message a person can act on.
+export const errorStatus = {
+  bad_request: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  method_not_allowed: 405,
+  conflict: 409,
+  unprocessable: 422,
+  rate_limited: 429,
+  unavailable: 503,
+  internal: 500,
+} as const;
+export type ErrorCode = keyof typeof errorStatus;
+
+export type FieldProblem = { field: string; message: string };
+
+export class ApiError extends Error {
+  constructor(
+    readonly code: ErrorCode,
+    readonly fields: FieldProblem[] = [],
+    readonly values: Record<string, string | number> = {},
+  ) {
+    super(code);
+    this.name = "ApiError";
+  }
+}
+
+const catalogues = { en, es, fr } as const;
+
+/** The person's language for an API answer: our locale cookie, then Accept-Language. */
+export function requestLocale(request: Request): Locale {
+  const cookie = request.headers.get("cookie")?.match(/(?:^|;\s*)NEXT_LOCALE=([a-z]{2})/)?.[1];
+  if (cookie && isLocale(cookie)) return cookie;
+  const accepted = request.headers.get("accept-language") ?? "";
+  for (const part of accepted.split(",")) {
+    const tag = part.trim().slice(0, 2).toLowerCase();
+    if (isLocale(tag)) return tag;
+  }
+  return routing.defaultLocale;
+}
+
+export function apiTranslator(locale: Locale) {
+  return createTranslator({ locale, messages: catalogues[locale], namespace: "ApiErrors" });
+}
+
+/** Field problems from a zod error, in the person's language, naming the field. */
+export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProblem[] {
+  const t = apiTranslator(locale);
+  return error.issues.map((issue) => {
+    const field = issue.path.length ? issue.path.join(".") : "(body)";
+    let message: string;
+    switch (issue.code) {
+      case "invalid_type":
+        message = issue.input === undefined ? t("field.required") : t("field.wrongType", { expected: String(issue.expected) });
+        break;
+      case "too_small":
+        message = t("field.tooSmall", { minimum: String(issue.minimum) });
+        break;
+      case "too_big":
+        message = t("field.tooBig", { maximum: String(issue.maximum) });
+        break;
+      case "unrecognized_keys":
+        message = t("field.unknownKeys", { keys: issue.keys.join(", ") });
+        break;
+      case "invalid_value":
+        message = t("field.notAllowed", { allowed: issue.values.map(String).join(", ") });
+        break;
+      default:
+        message = t("field.invalid");
+    }
+    return { field, message };
+  });
+}
+
+export function errorResponse(error: ApiError, locale: Locale): Response {
+  const t = apiTranslator(locale);
+  return Response.json(
+    { error: { code: error.code, message: t(`code.${error.code}`, error.values), fields: error.fields } },
+    { status: errorStatus[error.code], headers: { "Cache-Control": "no-store" } },
+  );
+}
+
+/**
+ * Wraps a route handler: ApiErrors become their JSON answer; anything else is logged
+ * and answered with a plain 500 that shows no internals.
+ */
+export function handle<Ctx>(fn: (request: Request, ctx: Ctx) => Promise<Response>) {
+  return async (request: Request, ctx: Ctx): Promise<Response> => {
+    const locale = requestLocale(request);
+    try {
+      return await fn(request, ctx);
+    } catch (err) {
+      if (err instanceof ApiError) return errorResponse(err, locale);
+      if (err instanceof z.ZodError) return errorResponse(new ApiError("bad_request", zodFieldProblems(err, locale)), locale);
+      console.error("[api] unhandled error", request.method, new URL(request.url).pathname, err);
+      return errorResponse(new ApiError("internal"), locale);
+    }
+  };
+}
+
+/** Parses URL query parameters with a strict zod schema (unknown parameters are refused). */
+export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.infer<T> {
+  const params = Object.fromEntries(new URL(request.url).searchParams);
+  const parsed = schema.safeParse(params);
+  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, requestLocale(request)));
+  return parsed.data;
+}

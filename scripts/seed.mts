@@ -1,0 +1,16 @@
+// Seeds the demo scenario into DATABASE_URL (or the URL given as the first argument).
+import { drizzle } from "drizzle-orm/node-postgres";
+import { Pool } from "pg";
+import * as schema from "../db/schema";
+import { seedDemo } from "../db/seed/demo";
+import { env } from "../lib/env";
+
+const url = process.argv[2] ?? env().DATABASE_URL;
+const pool = new Pool({ connectionString: url, max: 2 });
+try {
+  const summary = await seedDemo(drizzle(pool, { schema }));
+  console.log(`[ecotone] demo seeded: ${summary.people} people, ${summary.taxa} taxa, ${summary.sessions} count sessions, ` +
+    `${summary.sightings} sightings (${Object.entries(summary.byState).map(([k, v]) => `${v} ${k}`).join(", ")}), ${summary.reviews} review decisions`);
+} finally {
+  await pool.end();
+}

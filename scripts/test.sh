@@ -1,0 +1,24 @@
+#!/usr/bin/env bash
+# One command from a fresh Debian 12 machine to every test: Debian packages (PostgreSQL,
+# PostGIS, Chromium), npm packages, PostgreSQL on loopback, then the type check, unit and
+# integration tests (Vitest, on a fresh database), the production build and the browser
+# tests (Playwright driving Debian's Chromium, on another fresh database).
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+cd "$ROOT"
+
+ensure_system_packages chromium
+ensure_node_modules
+bash scripts/pg.sh start
+
+log "Type check"
+npx tsc --noEmit
+
+log "Unit and integration tests"
+npx vitest run
+
+log "Production build"
+npx next build >"$ROOT/.data/build-test.log" 2>&1 || { tail -40 "$ROOT/.data/build-test.log" >&2; die "next build failed"; }
+
+log "Browser tests"
+DATABASE_URL="$(bash scripts/pg.sh url ecotone_e2e)" npx playwright test
+log "All tests passed"
