@@ -14,7 +14,7 @@ log "Type check"
 npx tsc --noEmit
 
 log "Unit and integration tests"
-npx vitest run
+DATABASE_URL="$(bash scripts/pg.sh url ecotone_test)" npx vitest run
 
 log "Production build"
 npx next build >"$ROOT/.data/build-test.log" 2>&1 || { tail -40 "$ROOT/.data/build-test.log" >&2; die "next build failed"; }

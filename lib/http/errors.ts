@@ -56,7 +56,9 @@ export function apiTranslator(locale: Locale) {
 export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProblem[] {
   const t = apiTranslator(locale);
   return error.issues.map((issue) => {
-    const field = issue.path.length ? issue.path.join(".") : "(body)";
+    const at = issue.path.map(String);
+    // An unknown key is named as the field itself, so the caller sees which one to drop.
+    const field = issue.code === "unrecognized_keys" ? [...at, issue.keys.join(",")].join(".") : at.length ? at.join(".") : "(body)";
     let message: string;
     switch (issue.code) {
       case "invalid_type":
