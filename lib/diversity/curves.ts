@@ -1,0 +1,249 @@
+// Rarefaction, accumulation and extrapolation curves. Within the sample: Hurlbert (1971)
+// and Mao Tau / the exact accumulator (Colwell, Mao & Chang 2004), with vegan's
+// conditional standard errors and the unconditional variance of Colwell et al. (2004,
+// 2012). Beyond the sample: the Chao1/Chao2-based predictor of Shen, Chao & Lin (2003)
+// with a delta-method variance (Colwell et al. 2012), and coverage (Chao & Jost 2012).
+
+import { lnChooseRatio } from "./combinatorics";
+import { Dual, deltaVariance } from "./dual";
+import { sampleCoverage } from "./abundance";
+import type { IncidenceData } from "./incidence";
+import type { FrequencyProfile } from "./profile";
+import { chaoRichness, undetectedChao, Z95 } from "./richness";
+
+/** Probabilities below e^−80 are treated as 0 (their total stays below 1e−25). */
+const LOG_CUTOFF = -80;
+
+export type CurveKind = "rarefied" | "observed" | "extrapolated";
+
+export type CurvePoint = {
+  /** Individuals (abundance curve) or sampling units (incidence curve). */
+  size: number;
+  kind: CurveKind;
+  richness: number;
+  /** Unconditional se: Colwell et al. (2012) (abundance), Colwell et al. (2004) (incidence); delta method beyond the sample. */
+  se: number;
+  lower: number;
+  upper: number;
+  coverage: number;
+  /** Within the sample only: vegan `rarefy` se (Heck et al. 1975) or vegan `specaccum` sd; null beyond it. */
+  seConditional: number | null;
+};
+
+/** ln C(N−k, m)/C(N, m) for every class, ascending k; −Infinity once below the cutoff. */
+function absenceLogs(p: FrequencyProfile, m: number): Float64Array {
+  const out = new Float64Array(p.values.length).fill(-Infinity);
+  for (let i = 0; i < p.values.length; i++) {
+    const l = lnChooseRatio(p.size, p.values[i] as number, m);
+    if (l < LOG_CUTOFF) break;
+    out[i] = l;
+  }
+  return out;
+}
+
+type Interpolated = { richness: number; varUnconditional: number; coverage: number; logs: Float64Array };
+
+/** Expected richness, unconditional variance and coverage at effort m ≤ N. */
+function interpolate(p: FrequencyProfile, m: number, shat: number): Interpolated {
+  const N = p.size;
+  const logs = absenceLogs(p, m);
+  let richness = 0;
+  let sq = 0;
+  let missed = 0;
+  for (let i = 0; i < logs.length; i++) {
+    const f = p.freqs[i] as number;
+    const l = logs[i] as number;
+    const a = Math.exp(l);
+    const seen = -Math.expm1(l);
+    richness += f * seen; // Hurlbert (1971); Colwell, Mao & Chang (2004)
+    sq += f * seen * seen;
+    missed += f * (p.values[i] as number) * a;
+  }
+  const varUnconditional = shat > 0 ? Math.max(sq - (richness * richness) / shat, 0) : 0; // Colwell et al. (2012)
+  let coverage: number;
+  if (m >= N) coverage = sampleCoverage(p);
+  else coverage = 1 - (missed / p.total) * (N / (N - m)); // Chao & Jost (2012): C(N−k,m)/C(N−1,m) = α_k N/(N−m)
+  return { richness, varUnconditional, coverage, logs };
+}
+
+/**
+ * Heck, van Belle & Simberloff (1975) variance of rarefied richness, conditional on the
+ * sample, summed over pairs of distinct count values: each pair term is
+ * α_a α_b · expm1(ℓ(a+b) − ℓ(a) − ℓ(b)), which avoids cancelling β against α_a α_b.
+ */
+function heckVariance(p: FrequencyProfile, m: number, logs: Float64Array): number {
+  const N = p.size;
+  const K = logs.length;
+  let last = -1;
+  let v = 0;
+  for (let i = 0; i < K; i++) {
+    const l = logs[i] as number;
+    if (l === -Infinity) break;
+    last = i;
+    const a = Math.exp(l);
+    v += (p.freqs[i] as number) * a * (1 - a);
+  }
+  if (last < 0) return Math.max(v, 0);
+  const maxSum = 2 * (p.values[last] as number);
+  const pairLog = new Float64Array(maxSum + 1).fill(NaN);
+  let pairs = 0;
+  for (let i = 0; i <= last; i++) {
+    const li = logs[i] as number;
+    const vi = p.values[i] as number;
+    const fi = p.freqs[i] as number;
+    for (let j = i; j <= last; j++) {
+      const lj = logs[j] as number;
+      if (li + lj < LOG_CUTOFF) break;
+      const w = i === j ? (fi * (fi - 1)) / 2 : fi * (p.freqs[j] as number);
+      if (w === 0) continue;
+      const s = vi + (p.values[j] as number);
+      let ls = pairLog[s] as number;
+      if (Number.isNaN(ls)) {
+        ls = lnChooseRatio(N, s, m);
+        pairLog[s] = ls;
+      }
+      pairs += w * Math.exp(li + lj) * Math.expm1(ls - li - lj);
+    }
+  }
+  return Math.max(v + 2 * pairs, 0);
+}
+
+/**
+ * vegan `specaccum(method = "exact")` sd (conditioned = TRUE):
+ * sd² = Σ V_i + 2 Σ_{i<j} r_ij sqrt(V_i V_j), V_i = α_i(1−α_i), r_ij the Pearson correlation
+ * of the incidence columns. With u_i = sqrt(V_i/(Y_i(T−Y_i))), 2Σ_{i<j} r_ij sqrt(V_iV_j) =
+ * T(Σ_t G_t² − Σ_i Y_i u_i²) − (Σ_i Y_i u_i)² + Σ_i Y_i² u_i², G_t = Σ_{i in unit t} u_i:
+ * one pass over the detections instead of a species × species matrix.
+ */
+function veganAccumulationVariance(d: IncidenceData, logs: Float64Array): number {
+  const p = d.profile;
+  const T = d.units;
+  const K = logs.length;
+  const u = new Float64Array(K);
+  let sumV = 0;
+  let yu2 = 0;
+  let yu = 0;
+  let y2u2 = 0;
+  let any = false;
+  for (let c = 0; c < K; c++) {
+    const a = Math.exp(logs[c] as number);
+    const V = a * (1 - a);
+    const y = p.values[c] as number;
+    const q = p.freqs[c] as number;
+    sumV += q * V;
+    const uc = y < T && V > 0 ? Math.sqrt(V / (y * (T - y))) : 0;
+    u[c] = uc;
+    if (uc > 0) any = true;
+    yu2 += q * y * uc * uc;
+    yu += q * y * uc;
+    y2u2 += q * y * y * uc * uc;
+  }
+  if (!any) return Math.max(sumV, 0);
+  let g2 = 0;
+  const { rowStart, nzClass } = d;
+  for (let t = 0; t < T; t++) {
+    let g = 0;
+    const end = rowStart[t + 1] as number;
+    for (let j = rowStart[t] as number; j < end; j++) g += u[nzClass[j] as number] as number;
+    g2 += g * g;
+  }
+  return Math.max(sumV + T * (g2 - yu2) - yu * yu + y2u2, 0);
+}
+
+type Extrapolated = { richness: number; variance: number; coverage: number };
+
+/**
+ * S(N + m*) = S_obs + f̂0[1 − Â^{m*}] (Shen, Chao & Lin 2003; Chao et al. 2014), f̂0 the
+ * Chao-group undetected richness; variance by the delta method over (f1, f2) with the
+ * other classes lumped (Colwell et al. 2012), Ŝ = Chao1/Chao2; coverage
+ * 1 − (f1/N)Â^{m*+1} (Chao & Jost 2012). Flat, with zero variance, when f̂0 = 0.
+ */
+function extrapolate(p: FrequencyProfile, mStar: number): Extrapolated {
+  const S = p.observed;
+  const N = p.size;
+  const f0 = undetectedChao(p);
+  if (!(f0 > 0) || N <= 1) return { richness: S, variance: 0, coverage: sampleCoverage(p) };
+  const A = (N - 1) / N;
+  const f1 = Dual.variable(p.f1, 0, 2);
+  const f2 = Dual.variable(p.f2, 1, 2);
+  const rest = S - p.f1 - p.f2;
+  const f0d = p.f2 > 0 ? f1.mul(f1).mul(A).div(f2.mul(2)) : f1.mul(f1.sub(1)).mul(A).div(f2.add(1).mul(2));
+  const nf0 = f0d.mul(N);
+  const ratio = nf0.div(nf0.add(f1)); // Â
+  const sObs = f1.add(f2).add(rest);
+  const s = sObs.add(f0d.mul(ratio.pow(mStar).mul(-1).add(1)));
+  const shat = S + f0;
+  const variance = deltaVariance([s.g[0] as number, s.g[1] as number, 1], [p.f1, p.f2, rest], shat);
+  const coverage = p.total > 0 ? 1 - (p.f1 / p.total) * Math.pow(ratio.v, mStar + 1) : 0;
+  return { richness: s.v, variance, coverage };
+}
+
+function point(size: number, kind: CurveKind, richness: number, variance: number, coverage: number, seConditional: number | null): CurvePoint {
+  const se = Math.sqrt(Math.max(variance, 0));
+  return { size, kind, richness, se, lower: Math.max(0, richness - Z95 * se), upper: richness + Z95 * se, coverage, seConditional };
+}
+
+/** Richness, unconditional 95% band and coverage at any effort (interpolated or extrapolated). */
+export function curvePoint(p: FrequencyProfile, size: number, conditional?: (m: number, logs: Float64Array) => number): CurvePoint {
+  const N = p.size;
+  if (N === 0) return point(size, size === 0 ? "observed" : "extrapolated", 0, 0, 0, size === 0 ? 0 : null);
+  if (size <= N) {
+    const shat = chaoRichness(p).estimate;
+    const r = interpolate(p, size, shat);
+    const cond = conditional ? Math.sqrt(conditional(size, r.logs)) : null;
+    return point(size, size === N ? "observed" : "rarefied", r.richness, r.varUnconditional, r.coverage, cond);
+  }
+  const e = extrapolate(p, size - N);
+  return point(size, "extrapolated", e.richness, e.variance, e.coverage, null);
+}
+
+/**
+ * Efforts for a curve of about `points` points from 1 to `endpoint` (default 2N), always
+ * including N itself, as integers.
+ */
+export function curveSizes(N: number, points: number, endpoint = 2 * N): number[] {
+  if (N === 0) return [0];
+  const set = new Set<number>([N]);
+  const k = Math.max(2, Math.floor(points));
+  for (let i = 0; i < k; i++) set.add(Math.max(1, Math.round(1 + ((endpoint - 1) * i) / (k - 1))));
+  return [...set].sort((a, b) => a - b);
+}
+
+export function abundanceCurveFromProfile(p: FrequencyProfile, sizes: readonly number[]): CurvePoint[] {
+  return sizes.map((m) => curvePoint(p, m, (mm, logs) => heckVariance(p, mm, logs)));
+}
+
+export function incidenceCurveFromData(d: IncidenceData, sizes: readonly number[]): CurvePoint[] {
+  return sizes.map((t) => curvePoint(d.profile, t, (_tt, logs) => veganAccumulationVariance(d, logs)));
+}
+
+/** vegan `rarefy(x, sample, se = TRUE)`: Hurlbert (1971) richness and Heck et al. (1975) se; S_obs, se 0 beyond n. */
+export function rarefyProfile(p: FrequencyProfile, sizes: readonly number[]): { size: number; richness: number; se: number }[] {
+  return sizes.map((m) => {
+    if (m >= p.size) return { size: m, richness: p.observed, se: 0 };
+    const logs = absenceLogs(p, m);
+    let richness = 0;
+    for (let i = 0; i < logs.length; i++) richness += (p.freqs[i] as number) * -Math.expm1(logs[i] as number);
+    return { size: m, richness, se: Math.sqrt(heckVariance(p, m, logs)) };
+  });
+}
+
+/**
+ * Mao Tau / vegan `specaccum(method = "exact")` richness and its default (conditional) sd;
+ * lower/upper: τ ± z·σ with σ² = Σ_j (1 − α_jt)² Q_j − τ²/Ŝ, Ŝ = Chao2 (Colwell, Mao & Chang 2004).
+ */
+export function accumulateData(d: IncidenceData, at: readonly number[]): { units: number; richness: number; sd: number; lower: number; upper: number }[] {
+  const p = d.profile;
+  const shat = chaoRichness(p).estimate;
+  return at.map((t) => {
+    const r = interpolate(p, t, shat);
+    const se = Math.sqrt(r.varUnconditional);
+    return {
+      units: t,
+      richness: r.richness,
+      sd: Math.sqrt(veganAccumulationVariance(d, r.logs)),
+      lower: Math.max(0, r.richness - Z95 * se),
+      upper: r.richness + Z95 * se,
+    };
+  });
+}
