@@ -74,12 +74,21 @@ export function lnChoose(n: number, k: number): number {
 /**
  * ln[ C(N−k, m) / C(N, m) ]: the log probability that a class of k items is entirely
  * missed by a draw of m out of N without replacement (Hurlbert 1971). −Infinity when
- * N − k < m. Written as ln[(N−m)!/(N−m−k)!] − ln[N!/(N−k)!], two terms of size k·ln N.
+ * N − k < m. The ratio is symmetric in k and m: ln[(N−m)!/(N−m−k)!] − ln[N!/(N−k)!].
  */
 export function lnChooseRatio(N: number, k: number, m: number): number {
   if (k <= 0 || m <= 0) return 0;
   if (N - k < m) return -Infinity;
-  return lnFactorialRatio(N - m, N - m - k) - lnFactorialRatio(N, N - k);
+  const small = Math.min(k, m);
+  const large = Math.max(k, m);
+  if (small <= 8) {
+    // Σ_{j<small} log1p(−large/(N−j)): symmetric in k and m, no cancellation at all.
+    let s = 0;
+    for (let j = 0; j < small; j++) s += Math.log1p(-large / (N - j));
+    return s;
+  }
+  // Both forms are exact; the one whose terms have size min(k, m)·ln N cancels least.
+  return lnFactorialRatio(N - large, N - large - small) - lnFactorialRatio(N, N - small);
 }
 
 /**
