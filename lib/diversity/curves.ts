@@ -61,8 +61,9 @@ function interpolate(p: FrequencyProfile, m: number, shat: number): Interpolated
   }
   const varUnconditional = shat > 0 ? Math.max(sq - (richness * richness) / shat, 0) : 0; // Colwell et al. (2012)
   let coverage: number;
-  if (m >= N) coverage = sampleCoverage(p);
-  else coverage = 1 - (missed / p.total) * (N / (N - m)); // Chao & Jost (2012): C(N−k,m)/C(N−1,m) = α_k N/(N−m)
+  if (p.total <= 0) coverage = 0;
+  else if (m >= N) coverage = sampleCoverage(p);
+  else coverage = Math.min(1, Math.max(0, 1 - (missed / p.total) * (N / (N - m)))); // Chao & Jost (2012): C(N−k,m)/C(N−1,m) = α_k N/(N−m); clamped against rounding
   return { richness, varUnconditional, coverage, logs };
 }
 

@@ -23,10 +23,14 @@ export function logNormalInterval(observed: number, estimate: number, variance: 
   return { estimate, se, lower: observed + unseen / k, upper: observed + unseen * k };
 }
 
-/** Normal 95% interval estimate ± z·se, floored at `floor` (the observed richness). */
+/**
+ * Normal 95% interval estimate ± z·se, its lower end raised to `floor` (the observed
+ * richness) but never above the estimate itself (jack2 can fall below S_obs).
+ */
 export function normalInterval(floor: number, estimate: number, variance: number): Estimate {
   const se = Math.sqrt(Math.max(variance, 0));
-  return { estimate, se, lower: Math.max(floor, estimate - Z95 * se), upper: estimate + Z95 * se };
+  const lower = Math.min(estimate, Math.max(floor, estimate - Z95 * se));
+  return { estimate, se, lower, upper: estimate + Z95 * se };
 }
 
 /**
