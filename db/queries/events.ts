@@ -20,10 +20,10 @@ export type EventSummary = {
 export async function listPublicEvents(): Promise<EventSummary[]> {
   const db = getDb();
   const zoneCount = db.$with("zone_count").as(
-    db.select({ eventId: zones.eventId, n: count().as("n") }).from(zones).groupBy(zones.eventId),
+    db.select({ eventId: zones.eventId, zones: count().as("zone_n") }).from(zones).groupBy(zones.eventId),
   );
   const speciesCount = db.$with("species_count").as(
-    db.select({ eventId: eventSpecies.eventId, n: count().as("n") }).from(eventSpecies).groupBy(eventSpecies.eventId),
+    db.select({ eventId: eventSpecies.eventId, species: count().as("species_n") }).from(eventSpecies).groupBy(eventSpecies.eventId),
   );
   const rows = await db
     .with(zoneCount, speciesCount)
@@ -31,8 +31,8 @@ export async function listPublicEvents(): Promise<EventSummary[]> {
       id: events.id, slug: events.slug, name: events.name, status: events.status,
       startsAt: events.startsAt, endsAt: events.endsAt, timeZone: events.timeZone,
       organisationName: organisations.name,
-      zoneCount: sql<number>`coalesce(${zoneCount.n}, 0)::int`,
-      speciesCount: sql<number>`coalesce(${speciesCount.n}, 0)::int`,
+      zoneCount: sql<number>`coalesce(${zoneCount.zones}, 0)::int`,
+      speciesCount: sql<number>`coalesce(${speciesCount.species}, 0)::int`,
     })
     .from(events)
     .innerJoin(organisations, eq(organisations.id, events.organisationId))
