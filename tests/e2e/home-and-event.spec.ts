@@ -38,7 +38,7 @@ test("the event page shows dates in the event's time zone, the zones and the fie
   for (const zone of ["Alder Fringe", "Beechwood Heart", "Harrowmere Meadow", "Millpond Margin"]) {
     await expect(page.getByRole("heading", { level: 3, name: zone })).toBeVisible();
   }
-  await expect(page.getByText(/2 species on the list are sensitive/)).toBeVisible();
+  await expect(page.getByText(/3 species on the list are sensitive/)).toBeVisible();
 });
 
 test("the French event page shows the caution in French", async ({ page }) => {
