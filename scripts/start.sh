@@ -18,7 +18,7 @@ npx tsx scripts/seed.mts
 log "Building the app (next build)"
 npx next build >"$ROOT/.data/build.log" 2>&1 || { tail -40 "$ROOT/.data/build.log" >&2; die "next build failed (full log in .data/build.log)"; }
 
-if curl -fsS -o /dev/null "http://127.0.0.1:3000/api/health" 2>/dev/null; then
+if (exec 3<>/dev/tcp/127.0.0.1/3000) 2>/dev/null; then
   die "Something already answers on port 3000. Stop it (or the earlier Ecotone server) and run this again."
 fi
 log "Ecotone is starting on http://localhost:3000  (stop with Ctrl-C; PostgreSQL keeps running: npm run db:stop)"
