@@ -31,6 +31,9 @@ start() {
   if is_running; then
     log "PostgreSQL already running on 127.0.0.1:$PG_PORT"
   else
+    if (exec 3<>"/dev/tcp/127.0.0.1/$PG_PORT") 2>/dev/null; then
+      die "Port $PG_PORT on 127.0.0.1 is taken by another program (perhaps another checkout's PostgreSQL). Stop it, or choose another port: ECOTONE_PG_PORT=54331 npm start"
+    fi
     [ "$(id -u)" -eq 0 ] && { touch "$ROOT/.data/pg.log"; chown postgres:postgres "$ROOT/.data/pg.log"; }
     pg_user_run "$PG_BIN/pg_ctl" -D "$PG_DATA" -l "$ROOT/.data/pg.log" -w -t 60 \
       -o "-c listen_addresses=127.0.0.1 -p $PG_PORT -c unix_socket_directories='' -c max_connections=200 -c fsync=on" start >/dev/null \
