@@ -24,7 +24,7 @@ export class DiversityInputError extends Error {
   }
 }
 
-function describe(value: unknown, path: string): DiversityInputError {
+export function describe(value: unknown, path: string): DiversityInputError {
   if (typeof value !== "number") {
     return new DiversityInputError("not-a-number", path, `expected a non-negative integer, got ${typeof value}`);
   }
@@ -38,7 +38,7 @@ function describe(value: unknown, path: string): DiversityInputError {
   return new DiversityInputError("too-large", path, `value ${value} exceeds ${Number.MAX_SAFE_INTEGER}`);
 }
 
-function isCount(v: unknown): v is number {
+export function isCount(v: unknown): v is number {
   return typeof v === "number" && Number.isInteger(v) && v >= 0 && v <= Number.MAX_SAFE_INTEGER;
 }
 

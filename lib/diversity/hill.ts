@@ -4,7 +4,7 @@
 // estimated assemblage of Chao et al. (2014, Appendix), so results are reproducible.
 
 import { harmonicDifference, logSeriesTail } from "./combinatorics";
-import { buildProfile, type FrequencyProfile } from "./profile";
+import type { FrequencyProfile } from "./profile";
 import { multinomial, Rng } from "./random";
 import { chaoRichness, undetectedChao, Z95 } from "./richness";
 
@@ -52,12 +52,31 @@ export function chaoShannonEntropy(p: FrequencyProfile): number {
     const x = p.values[i] ?? 0;
     if (x <= n - 1) h += ((p.freqs[i] ?? 0) * x * harmonicDifference(x, n)) / n;
   }
-  const { f1, f2 } = p;
-  if (f1 > 0) {
-    const A = f2 > 0 ? (2 * f2) / ((n - 1) * f1 + 2 * f2) : 2 / ((n - 1) * (f1 - 1) + 2);
-    h += (f1 / n) * logSeriesTail(n, A);
+  return h + undetectedEntropy(n, p.f1, p.f2);
+}
+
+/** Second term of the Chao, Wang & Jost (2013) estimator: (f1/n)(1−A)^{1−n}[−ln A − Σ_{r<n}(1−A)^r/r]. */
+function undetectedEntropy(n: number, f1: number, f2: number): number {
+  if (f1 <= 0) return 0;
+  const A = f2 > 0 ? (2 * f2) / ((n - 1) * f1 + 2 * f2) : 2 / ((n - 1) * (f1 - 1) + 2);
+  return (f1 / n) * logSeriesTail(n, A);
+}
+
+/** Asymptotic q = 1 and q = 2 Hill numbers straight from one replicate's counts (no sorting). */
+function replicateHill(x: Float64Array, n: number): [number, number] {
+  let h = 0;
+  let f1 = 0;
+  let f2 = 0;
+  let sxx = 0;
+  for (let i = 0; i < x.length; i++) {
+    const v = x[i] as number;
+    if (v === 0) continue;
+    if (v === 1) f1++;
+    else if (v === 2) f2++;
+    if (v <= n - 1) h += (v * harmonicDifference(v, n)) / n;
+    sxx += v * (v - 1);
   }
-  return h;
+  return [Math.exp(h + undetectedEntropy(n, f1, f2)), sxx > 0 ? (n * (n - 1)) / sxx : Infinity];
 }
 
 /**
@@ -139,10 +158,8 @@ export function hillNumbers(p: FrequencyProfile, coverage: number, options: Boot
     const b1: number[] = [];
     const b2: number[] = [];
     for (let b = 0; b < replicates; b++) {
-      const x = multinomial(rng, n, probs);
-      const bp = buildProfile("abundance", x, n);
-      b1.push(Math.exp(chaoShannonEntropy(bp)));
-      const d2 = asymptoticSimpson(bp);
+      const [d1, d2] = replicateHill(multinomial(rng, n, probs), n);
+      b1.push(d1);
       if (Number.isFinite(d2)) b2.push(d2);
     }
     se1 = sampleSd(b1);

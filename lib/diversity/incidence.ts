@@ -3,7 +3,7 @@
 
 import { coverageEstimator, sampleCoverage } from "./abundance";
 import { deltaVariance } from "./dual";
-import { checkUnits } from "./errors";
+import { checkUnits, describe, isCount } from "./errors";
 import { buildProfile, rareFrequencies, type FrequencyProfile } from "./profile";
 import { chaoRichness, logNormalInterval, normalInterval, ZERO_ESTIMATE, type Estimate } from "./richness";
 
@@ -37,24 +37,28 @@ export type IncidenceStats = {
 
 /** Validates the unit × species matrix and summarizes it. */
 export function incidenceData(units: readonly (readonly number[])[]): IncidenceData {
-  const width = checkUnits(units, "units");
+  if (!Array.isArray(units)) checkUnits(units, "units"); // throws with the right message
   const T = units.length;
+  const width = T > 0 && Array.isArray(units[0]) ? (units[0] as readonly number[]).length : 0;
   const y = new Float64Array(width);
   const rowStart = new Int32Array(T + 1);
   let cols = new Int32Array(Math.max(16, T * 8));
   let nnz = 0;
+  // One pass validates and collects detections; zero cells (most of them) cost one comparison.
   for (let t = 0; t < T; t++) {
     const row = units[t] as readonly number[];
+    if (!Array.isArray(row) || row.length !== width) checkUnits(units, "units"); // throws: names the bad row
     for (let s = 0; s < width; s++) {
-      if ((row[s] as number) > 0) {
-        if (nnz === cols.length) {
-          const grown = new Int32Array(cols.length * 2);
-          grown.set(cols);
-          cols = grown;
-        }
-        cols[nnz++] = s;
-        y[s] = (y[s] as number) + 1;
+      const v = row[s];
+      if (v === 0) continue;
+      if (!isCount(v)) throw describe(v, `units[${t}][${s}]`);
+      if (nnz === cols.length) {
+        const grown = new Int32Array(cols.length * 2);
+        grown.set(cols);
+        cols = grown;
       }
+      cols[nnz++] = s;
+      y[s] = (y[s] as number) + 1;
     }
     rowStart[t + 1] = nnz;
   }
