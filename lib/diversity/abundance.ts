@@ -121,8 +121,8 @@ export function classicIndices(p: FrequencyProfile): { shannon: number; simpson:
   const d = simpsonConcentration(p);
   return {
     shannon,
-    simpson: 1 - d,
-    inverseSimpson: 1 / d,
+    simpson: 1 - d, // Gini–Simpson (Simpson 1949)
+    inverseSimpson: 1 / d, // Hill number of order 2 (Hill 1973)
     evenness: p.observed > 1 ? shannon / Math.log(p.observed) : 0, // Pielou (1966); undefined for one species, reported as 0
   };
 }

@@ -110,7 +110,7 @@ function heckVariance(p: FrequencyProfile, m: number, logs: Float64Array): numbe
 }
 
 /**
- * vegan `specaccum(method = "exact")` sd (conditioned = TRUE):
+ * vegan `specaccum(method = "exact")` sd (conditioned = TRUE; J. Oksanen, unpublished, per the vegan vignette):
  * sd² = Σ V_i + 2 Σ_{i<j} r_ij sqrt(V_i V_j), V_i = α_i(1−α_i), r_ij the Pearson correlation
  * of the incidence columns. With u_i = sqrt(V_i/(Y_i(T−Y_i))), 2Σ_{i<j} r_ij sqrt(V_iV_j) =
  * T(Σ_t G_t² − Σ_i Y_i u_i²) − (Σ_i Y_i u_i)² + Σ_i Y_i² u_i², G_t = Σ_{i in unit t} u_i:

@@ -15,7 +15,7 @@ export type BootstrapOptions = { replicates?: number; seed?: number };
 export const HILL_BOOTSTRAP_REPLICATES = 200;
 export const HILL_BOOTSTRAP_SEED = 20140101;
 
-/** Observed Shannon entropy −Σ p ln p (natural log), p = X/n. */
+/** Observed Shannon entropy −Σ p ln p (Shannon 1948), natural log, p = X/n. */
 export function shannonEntropy(p: FrequencyProfile): number {
   const n = p.total;
   if (n <= 0) return 0;
