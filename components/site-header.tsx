@@ -1,20 +1,34 @@
 import { getTranslations } from "next-intl/server";
+import { getSessionUser } from "@/lib/auth/guard";
 import { Link } from "@/lib/i18n/navigation";
 import { EcotoneMark } from "./ecotone-mark";
 import { LocaleSwitcher } from "./locale-switcher";
+import { SignOutButton } from "./sign-out-button";
 
 export async function SiteHeader() {
-  const t = await getTranslations("Common");
+  const [t, tNav, user] = await Promise.all([getTranslations("Common"), getTranslations("Nav"), getSessionUser()]);
+  const link = "inline-flex min-h-touch items-center rounded-md px-2 font-semibold underline-offset-4 hover:underline";
   return (
     <header className="border-b-4 border-heath-400 bg-reed-800 text-paper">
-      <div className="mx-auto flex max-w-5xl items-center justify-between gap-3 px-4 py-2">
+      <div className="mx-auto flex max-w-5xl flex-wrap items-center justify-between gap-x-3 gap-y-1 px-4 py-2">
         <Link href="/" className="flex min-h-touch items-center gap-2 text-lg font-bold tracking-tight">
           <EcotoneMark />
           <span>{t("appName")}</span>
         </Link>
-        <div className="[&_select]:border-paper [&_select]:bg-reed-800 [&_select]:text-paper">
-          <LocaleSwitcher />
-        </div>
+        <nav aria-label={tNav("menu")} className="flex flex-wrap items-center gap-1">
+          <Link href="/" className={link}>{tNav("events")}</Link>
+          {user ? (
+            <>
+              <Link href="/account" className={link} title={user.email}>{tNav("account")}</Link>
+              <SignOutButton />
+            </>
+          ) : (
+            <Link href="/sign-in" className={link}>{tNav("signIn")}</Link>
+          )}
+          <div className="[&_select]:border-paper [&_select]:bg-reed-800 [&_select]:text-paper">
+            <LocaleSwitcher />
+          </div>
+        </nav>
       </div>
     </header>
   );

@@ -292,3 +292,45 @@ export const reports = pgTable("reports", {
   check("reports_hash_hex", sql`${t.inputHash} ~ '^[0-9a-f]{64}$'`),
 ]);
 
+
+// ---------------------------------------------------------------- invitations, rate limits, membership log
+// An invitation (by an organiser) or a join request (through an event's join code) waits
+// here until the person signs in with that address; then it becomes an event membership.
+export const invitations = pgTable("invitations", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
+  email: text("email").notNull(),
+  name: text("name"),
+  role: eventRole("role").notNull(),
+  taxonGroups: taxonGroup("taxon_groups").array().notNull().default(sql`ARRAY[]::taxon_group[]`),
+  invitedBy: uuid("invited_by").references(() => users.id, { onDelete: "set null" }), // null: self-service join
+  createdAt: createdAt(),
+  acceptedAt: timestamp("accepted_at", { withTimezone: true, mode: "date" }),
+  revokedAt: timestamp("revoked_at", { withTimezone: true, mode: "date" }),
+}, (t) => [
+  index("invitations_email_idx").on(sql`lower(${t.email})`),
+  index("invitations_event_idx").on(t.eventId),
+]);
+
+// Sign-in tries, for the per-address and per-IP limits. Old rows are pruned as new ones arrive.
+export const signInAttempts = pgTable("sign_in_attempts", {
+  id: bigserial("id", { mode: "number" }).primaryKey(),
+  key: text("key").notNull(), // "email:<address>" or "ip:<address>"
+  at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+}, (t) => [index("sign_in_attempts_key_at_idx").on(t.key, t.at)]);
+
+export const membershipAction = pgEnum("membership_action", ["invited", "joined", "role_changed", "removed", "invitation_revoked"]);
+
+// Every change to who holds which role in an event (append-only, like reviews).
+export const membershipLog = pgTable("membership_log", {
+  id: bigserial("id", { mode: "number" }).primaryKey(),
+  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
+  subjectEmail: text("subject_email").notNull(),
+  subjectUserId: uuid("subject_user_id").references(() => users.id, { onDelete: "set null" }),
+  actorId: uuid("actor_id").references(() => users.id, { onDelete: "set null" }),
+  action: membershipAction("action").notNull(),
+  fromRole: eventRole("from_role"),
+  toRole: eventRole("to_role"),
+  taxonGroups: taxonGroup("taxon_groups").array(),
+  at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+}, (t) => [index("membership_log_event_idx").on(t.eventId, t.at)]);

@@ -1,9 +1,6 @@
-import { createTranslator } from "next-intl";
 import { z } from "zod";
-import en from "@/messages/en.json";
-import es from "@/messages/es.json";
-import fr from "@/messages/fr.json";
 import { isLocale, routing, type Locale } from "@/lib/i18n/routing";
+import { translator } from "@/lib/i18n/translator";
 
 // One error type for every route handler (conventions, habit 5): a code maps to an
 // HTTP status and a translated message a person can act on.
@@ -34,8 +31,6 @@ export class ApiError extends Error {
   }
 }
 
-const catalogues = { en, es, fr } as const;
-
 /** The person's language for an API answer: our locale cookie, then Accept-Language. */
 export function requestLocale(request: Request): Locale {
   const cookie = request.headers.get("cookie")?.match(/(?:^|;\s*)NEXT_LOCALE=([a-z]{2})/)?.[1];
@@ -49,7 +44,7 @@ export function requestLocale(request: Request): Locale {
 }
 
 export function apiTranslator(locale: Locale) {
-  return createTranslator({ locale, messages: catalogues[locale], namespace: "ApiErrors" });
+  return translator(locale, "ApiErrors");
 }
 
 /** Field problems from a zod error, in the person's language, naming the field. */

@@ -1,0 +1,44 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useTranslations } from "next-intl";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { setPasswordInput, type SetPasswordInput } from "@/app/api/account/password/schema";
+import { buttonClass, Field, inputClass } from "@/components/ui/field";
+
+type RuleKey = "tooShort" | "tooLong" | "sameAsEmail" | "tooCommon";
+
+export function PasswordForm() {
+  const t = useTranslations("Account");
+  const [saved, setSaved] = useState(false);
+  const form = useForm<SetPasswordInput>({ resolver: zodResolver(setPasswordInput) });
+  const error = form.formState.errors.password;
+
+  const submit = form.handleSubmit(async (values) => {
+    setSaved(false);
+    const res = await fetch("/api/account/password", { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify(values) });
+    if (res.ok) {
+      setSaved(true);
+      form.reset();
+      return;
+    }
+    const body = await res.json().catch(() => null);
+    form.setError("password", { message: body?.error?.fields?.[0]?.message ?? body?.error?.message ?? "" });
+  });
+
+  // Client-side problems carry a rule key; the server's come already translated.
+  const message = error?.message && ["tooShort", "tooLong", "sameAsEmail", "tooCommon"].includes(error.message)
+    ? t(`passwordRules.${error.message as RuleKey}`)
+    : error?.message;
+
+  return (
+    <form onSubmit={submit} noValidate className="max-w-md space-y-3">
+      <Field id="new-password" label={t("newPassword")} hint={t("passwordHint")} error={message}>
+        <input id="new-password" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(error)} aria-describedby="new-password-hint" {...form.register("password")} />
+      </Field>
+      <button type="submit" className={buttonClass} disabled={form.formState.isSubmitting}>{t("save")}</button>
+      {saved ? <p role="status" className="font-semibold text-reed-700">✓ {t("saved")}</p> : null}
+    </form>
+  );
+}

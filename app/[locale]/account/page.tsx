@@ -1,0 +1,46 @@
+import { getTranslations, setRequestLocale } from "next-intl/server";
+import { rolesOf } from "@/db/queries/auth";
+import { requirePageUser } from "@/lib/auth/page";
+import { Link } from "@/lib/i18n/navigation";
+import type { Locale } from "@/lib/i18n/routing";
+import { PasswordForm } from "./_components/password-form";
+
+export const dynamic = "force-dynamic";
+
+export default async function AccountPage({ params }: { params: Promise<{ locale: Locale }> }) {
+  const { locale } = await params;
+  setRequestLocale(locale);
+  const user = await requirePageUser(locale, "/account");
+  const [t, tRole, tGroup, roles] = await Promise.all([
+    getTranslations("Account"), getTranslations("Role"), getTranslations("TaxonGroup"), rolesOf(user.id),
+  ]);
+  type Group = Parameters<typeof tGroup>[0];
+  return (
+    <div className="space-y-8">
+      <header>
+        <h1 className="text-3xl font-bold text-reed-900">{t("title")}</h1>
+        <p className="text-ink-soft">{t("details", { email: user.email })}</p>
+      </header>
+      <section aria-labelledby="roles-title" className="space-y-2">
+        <h2 id="roles-title" className="text-2xl font-bold text-reed-900">{t("rolesTitle")}</h2>
+        {roles.length === 0 ? <p>{t("noRoles")}</p> : (
+          <ul className="space-y-2">
+            {roles.map((r) => (
+              <li key={r.eventId} className="rounded-lg border border-reed-200 bg-white/70 p-3">
+                <Link href={`/events/${r.eventSlug}`} className="font-semibold text-reed-800 underline">
+                  {t("roleIn", { role: tRole(r.role), event: r.eventName })}
+                </Link>
+                {r.taxonGroups.length ? <span className="block text-sm text-ink-soft">{t("groupsLimit", { groups: r.taxonGroups.map((g) => tGroup(g as Group)).join(", ") })}</span> : null}
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+      <section aria-labelledby="password-title" className="space-y-2">
+        <h2 id="password-title" className="text-2xl font-bold text-reed-900">{t("passwordTitle")}</h2>
+        <p>{user.hasPassword ? t("passwordHasOne") : t("passwordNone")}</p>
+        <PasswordForm />
+      </section>
+    </div>
+  );
+}

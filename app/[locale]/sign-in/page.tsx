@@ -1,0 +1,31 @@
+import { getTranslations, setRequestLocale } from "next-intl/server";
+import { env } from "@/lib/env";
+import type { Locale } from "@/lib/i18n/routing";
+import { SignInForms } from "./_components/sign-in-forms";
+
+type Props = { params: Promise<{ locale: Locale }>; searchParams: Promise<{ callbackUrl?: string; error?: string }> };
+
+/** Only paths on this site are followed after sign-in. */
+function safeCallback(locale: Locale, raw: string | undefined): string {
+  if (raw) {
+    try {
+      const u = new URL(raw, env().APP_URL);
+      if (u.origin === new URL(env().APP_URL).origin) return u.pathname + u.search;
+    } catch {}
+  }
+  return `/${locale}/account`;
+}
+
+export default async function SignInPage({ params, searchParams }: Props) {
+  const { locale } = await params;
+  setRequestLocale(locale);
+  const { callbackUrl, error } = await searchParams;
+  const t = await getTranslations("SignIn");
+  return (
+    <div className="mx-auto max-w-3xl space-y-4">
+      <h1 className="text-3xl font-bold text-reed-900">{t("title")}</h1>
+      <p className="text-lg text-ink-soft">{t("intro")}</p>
+      <SignInForms callbackUrl={safeCallback(locale, callbackUrl)} initialError={error ?? null} />
+    </div>
+  );
+}

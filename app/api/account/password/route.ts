@@ -1,0 +1,20 @@
+import { setPasswordHash } from "@/db/queries/auth";
+import { requireUser } from "@/lib/auth/guard";
+import { hashPassword, passwordProblems } from "@/lib/auth/password";
+import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { translator } from "@/lib/i18n/translator";
+import { parseJson } from "@/lib/http/body";
+import { setPasswordInput } from "./schema";
+
+// Any signed-in person sets or changes their own password.
+export const PUT = handle(async (request) => {
+  const user = await requireUser();
+  const { password } = await parseJson(request, setPasswordInput);
+  const problems = passwordProblems(password, user.email);
+  if (problems.length) {
+    const t = translator(requestLocale(request), "Account");
+    throw new ApiError("unprocessable", problems.map((p) => ({ field: "password", message: t(`passwordRules.${p}`) })));
+  }
+  await setPasswordHash(user.id, await hashPassword(password));
+  return Response.json({ ok: true });
+});

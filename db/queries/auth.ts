@@ -1,0 +1,112 @@
+import "server-only";
+import { and, eq, gte, inArray, isNull, lt, sql } from "drizzle-orm";
+import { getDb } from "../client";
+import { eventMembers, events, invitations, membershipLog, organisationMembers, signInAttempts, users } from "../schema";
+
+export async function findUserByEmail(email: string) {
+  const [row] = await getDb().select().from(users).where(sql`lower(${users.email}) = lower(${email})`).limit(1);
+  return row ?? null;
+}
+
+export async function findUserById(id: string) {
+  const [row] = await getDb().select({ id: users.id, name: users.name, email: users.email, locale: users.locale, isAdmin: users.isAdmin, hasPassword: sql<boolean>`${users.passwordHash} IS NOT NULL` })
+    .from(users).where(eq(users.id, id)).limit(1);
+  return row ?? null;
+}
+
+export async function setPasswordHash(userId: string, hash: string): Promise<void> {
+  await getDb().update(users).set({ passwordHash: hash }).where(eq(users.id, userId));
+}
+
+export async function setUserLocale(userId: string, locale: string): Promise<void> {
+  await getDb().update(users).set({ locale }).where(eq(users.id, userId));
+}
+
+export type EventAccess = {
+  eventId: string;
+  organisationId: string;
+  role: "organiser" | "coordinator" | "volunteer" | null;
+  taxonGroups: string[];
+  isOrganisationOrganiser: boolean;
+};
+
+/** What one person may do in one event: their event role, and whether they organise its organisation. */
+export async function eventAccess(userId: string, eventId: string): Promise<EventAccess | null> {
+  const [row] = await getDb()
+    .select({
+      eventId: events.id, organisationId: events.organisationId,
+      role: eventMembers.role, taxonGroups: eventMembers.taxonGroups, orgRole: organisationMembers.role,
+    })
+    .from(events)
+    .leftJoin(eventMembers, and(eq(eventMembers.eventId, events.id), eq(eventMembers.userId, userId)))
+    .leftJoin(organisationMembers, and(eq(organisationMembers.organisationId, events.organisationId), eq(organisationMembers.userId, userId)))
+    .where(eq(events.id, eventId))
+    .limit(1);
+  if (!row) return null;
+  return {
+    eventId: row.eventId, organisationId: row.organisationId, role: row.role ?? null,
+    taxonGroups: row.taxonGroups ?? [], isOrganisationOrganiser: row.orgRole === "organiser",
+  };
+}
+
+export async function isOrganisationOrganiser(userId: string, organisationId: string): Promise<boolean> {
+  const [row] = await getDb().select({ role: organisationMembers.role }).from(organisationMembers)
+    .where(and(eq(organisationMembers.organisationId, organisationId), eq(organisationMembers.userId, userId))).limit(1);
+  return row?.role === "organiser";
+}
+
+export async function hasPendingInvitation(email: string): Promise<boolean> {
+  const [row] = await getDb().select({ id: invitations.id }).from(invitations)
+    .where(and(sql`lower(${invitations.email}) = lower(${email})`, isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+    .limit(1);
+  return Boolean(row);
+}
+
+/**
+ * Turns every open invitation for this address into an event membership, in one
+ * transaction, and logs each. An existing role is changed only by an organiser's
+ * invitation, never by a self-service join (a coordinator stays a coordinator).
+ */
+export async function acceptPendingInvitations(userId: string, email: string): Promise<number> {
+  return getDb().transaction(async (tx) => {
+    const open = await tx.select().from(invitations)
+      .where(and(sql`lower(${invitations.email}) = lower(${email})`, isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+      .for("update");
+    for (const inv of open) {
+      const [current] = await tx.select().from(eventMembers)
+        .where(and(eq(eventMembers.eventId, inv.eventId), eq(eventMembers.userId, userId))).limit(1);
+      const selfService = inv.invitedBy === null;
+      if (!current) {
+        await tx.insert(eventMembers).values({ eventId: inv.eventId, userId, role: inv.role, taxonGroups: inv.taxonGroups });
+        await tx.insert(membershipLog).values({ eventId: inv.eventId, subjectEmail: email, subjectUserId: userId, actorId: inv.invitedBy, action: "joined", toRole: inv.role, taxonGroups: inv.taxonGroups });
+      } else if (!selfService && (current.role !== inv.role || current.taxonGroups.join() !== inv.taxonGroups.join())) {
+        await tx.update(eventMembers).set({ role: inv.role, taxonGroups: inv.taxonGroups })
+          .where(and(eq(eventMembers.eventId, inv.eventId), eq(eventMembers.userId, userId)));
+        await tx.insert(membershipLog).values({ eventId: inv.eventId, subjectEmail: email, subjectUserId: userId, actorId: inv.invitedBy, action: "role_changed", fromRole: current.role, toRole: inv.role, taxonGroups: inv.taxonGroups });
+      }
+      await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, inv.id));
+    }
+    return open.length;
+  });
+}
+
+export async function countRecentAttempts(key: string, since: Date): Promise<number> {
+  const [row] = await getDb().select({ n: sql<number>`count(*)::int` }).from(signInAttempts)
+    .where(and(eq(signInAttempts.key, key), gte(signInAttempts.at, since)));
+  return row?.n ?? 0;
+}
+
+export async function recordAttempts(keys: string[], pruneBefore: Date): Promise<void> {
+  const db = getDb();
+  await db.insert(signInAttempts).values(keys.map((key) => ({ key })));
+  await db.delete(signInAttempts).where(and(inArray(signInAttempts.key, keys), lt(signInAttempts.at, pruneBefore)));
+}
+
+/** Every event role a person holds, with the event's name, for their account page. */
+export async function rolesOf(userId: string) {
+  return getDb()
+    .select({ eventId: events.id, eventName: events.name, eventSlug: events.slug, role: eventMembers.role, taxonGroups: eventMembers.taxonGroups })
+    .from(eventMembers).innerJoin(events, eq(events.id, eventMembers.eventId))
+    .where(eq(eventMembers.userId, userId))
+    .orderBy(events.name);
+}

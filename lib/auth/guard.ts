@@ -1,0 +1,64 @@
+import "server-only";
+import { getServerSession } from "next-auth";
+import { eventAccess, findUserById, isOrganisationOrganiser, type EventAccess } from "@/db/queries/auth";
+import { ApiError } from "@/lib/http/errors";
+import { authOptions } from "./options";
+
+// The one authorisation helper (conventions, habit 4). Every route handler and every
+// signed-in page goes through these; 401 without a session, 403 with the wrong role.
+
+export type SessionUser = NonNullable<Awaited<ReturnType<typeof findUserById>>>;
+export type EventRole = "organiser" | "coordinator" | "volunteer";
+
+const rank: Record<EventRole, number> = { volunteer: 1, coordinator: 2, organiser: 3 };
+
+export async function getSessionUser(): Promise<SessionUser | null> {
+  const session = await getServerSession(authOptions());
+  const id = (session?.user as { id?: string } | undefined)?.id;
+  if (!id) return null;
+  return findUserById(id);
+}
+
+export async function requireUser(): Promise<SessionUser> {
+  const user = await getSessionUser();
+  if (!user) throw new ApiError("unauthenticated");
+  return user;
+}
+
+export async function requireAdmin(): Promise<SessionUser> {
+  const user = await requireUser();
+  if (!user.isAdmin) throw new ApiError("forbidden");
+  return user;
+}
+
+export type EventPermit = { user: SessionUser; access: EventAccess; role: EventRole | "admin"; taxonGroups: string[] };
+
+/** The person's effective role in the event: admin, organiser (of the event's organisation, or by event role), then their event role. */
+export function effectiveRole(user: Pick<SessionUser, "isAdmin">, access: EventAccess): EventRole | "admin" | null {
+  if (user.isAdmin) return "admin";
+  if (access.isOrganisationOrganiser || access.role === "organiser") return "organiser";
+  return access.role;
+}
+
+/**
+ * Allows the call when the person holds `minimum` or a higher role in the event
+ * (organiser > coordinator > volunteer; site admins pass). An unknown event is a 404
+ * for members and non-members alike.
+ */
+export async function requireEventRole(eventId: string, minimum: EventRole): Promise<EventPermit> {
+  const user = await requireUser();
+  if (!/^[0-9a-f-]{36}$/i.test(eventId)) throw new ApiError("not_found");
+  const access = await eventAccess(user.id, eventId);
+  if (!access) throw new ApiError("not_found");
+  const role = effectiveRole(user, access);
+  if (!role || (role !== "admin" && rank[role] < rank[minimum])) throw new ApiError("forbidden");
+  // Only coordinators carry taxon-group limits; organisers and admins see everything.
+  return { user, access, role, taxonGroups: role === "coordinator" ? access.taxonGroups : [] };
+}
+
+export async function requireOrganisationOrganiser(organisationId: string): Promise<SessionUser> {
+  const user = await requireUser();
+  if (user.isAdmin) return user;
+  if (!/^[0-9a-f-]{36}$/i.test(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId))) throw new ApiError("forbidden");
+  return user;
+}

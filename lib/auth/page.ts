@@ -1,0 +1,25 @@
+import "server-only";
+import { redirect } from "@/lib/i18n/navigation";
+import type { Locale } from "@/lib/i18n/routing";
+import { ApiError } from "@/lib/http/errors";
+import { getSessionUser, requireEventRole, type EventRole, type SessionUser } from "./guard";
+
+// Page-side faces of the one guard: no session sends the person to sign in and back;
+// the wrong role shows the localised "not allowed" page (thrown as an ApiError that
+// the page renders through forbidden()).
+
+export async function requirePageUser(locale: Locale, returnTo: string): Promise<SessionUser> {
+  const user = await getSessionUser();
+  if (!user) redirect({ href: { pathname: "/sign-in", query: { callbackUrl: `/${locale}${returnTo}` } }, locale });
+  return user!;
+}
+
+export async function requirePageEventRole(locale: Locale, eventId: string, minimum: EventRole, returnTo: string) {
+  await requirePageUser(locale, returnTo);
+  try {
+    return await requireEventRole(eventId, minimum);
+  } catch (err) {
+    if (err instanceof ApiError && (err.code === "forbidden" || err.code === "not_found")) return null;
+    throw err;
+  }
+}
