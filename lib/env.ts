@@ -29,6 +29,8 @@ export function env(): Env {
       throw new Error(`Invalid environment configuration: ${fields}`);
     }
     cached = parsed.data;
+    // next-auth 4 reads NEXTAUTH_URL itself to build its links; keep it equal to APP_URL.
+    process.env.NEXTAUTH_URL ??= cached.APP_URL;
   }
   return cached;
 }

@@ -3,6 +3,7 @@
 # PostGIS, Chromium), npm packages, PostgreSQL on loopback, then the type check, unit and
 # integration tests (Vitest, on a fresh database), the production build and the browser
 # tests (Playwright driving Debian's Chromium, on another fresh database).
+# ECOTONE_TEST_SUFFIX, E2E_PORT and E2E_SMTP_PORT let two checkouts test side by side.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$ROOT"
 
@@ -14,11 +15,11 @@ log "Type check"
 npx tsc --noEmit
 
 log "Unit and integration tests"
-DATABASE_URL="$(bash scripts/pg.sh url ecotone_test)" npx vitest run
+DATABASE_URL="$(bash scripts/pg.sh url "ecotone_test${ECOTONE_TEST_SUFFIX:-}")" npx vitest run
 
 log "Production build"
 npx next build >"$ROOT/.data/build-test.log" 2>&1 || { tail -40 "$ROOT/.data/build-test.log" >&2; die "next build failed"; }
 
 log "Browser tests"
-DATABASE_URL="$(bash scripts/pg.sh url ecotone_e2e)" npx playwright test
+DATABASE_URL="$(bash scripts/pg.sh url "ecotone_e2e${ECOTONE_TEST_SUFFIX:-}")" npx playwright test
 log "All tests passed"
