@@ -15,6 +15,16 @@ export APP_URL="${APP_URL:-http://localhost:3000}"
 npx tsx scripts/migrate.mts
 npx tsx scripts/seed.mts
 
+# The demo's e-mail: maildev catches every mail on 127.0.0.1:1025 and shows it at :1080.
+if ! (exec 3<>/dev/tcp/127.0.0.1/1025) 2>/dev/null; then
+  mkdir -p "$ROOT/.data/mail"
+  setsid node node_modules/maildev/bin/maildev --ip 127.0.0.1 --web-ip 127.0.0.1 -s 1025 -w 1080 \
+    --mail-directory "$ROOT/.data/mail" >"$ROOT/.data/maildev.log" 2>&1 < /dev/null &
+  echo $! >"$ROOT/.data/maildev.pid"
+  for _ in $(seq 1 50); do (exec 3<>/dev/tcp/127.0.0.1/1025) 2>/dev/null && break; sleep 0.2; done
+fi
+export SMTP_HOST=127.0.0.1 SMTP_PORT=1025 MAIL_INBOX_URL="http://localhost:1080"
+
 log "Building the app (next build)"
 npx next build >"$ROOT/.data/build.log" 2>&1 || { tail -40 "$ROOT/.data/build.log" >&2; die "next build failed (full log in .data/build.log)"; }
 
@@ -22,5 +32,6 @@ if (exec 3<>/dev/tcp/127.0.0.1/3000) 2>/dev/null; then
   die "Something already answers on port 3000. Stop it (or the earlier Ecotone server) and run this again."
 fi
 log "Ecotone is starting on http://localhost:3000  (stop with Ctrl-C; PostgreSQL keeps running: npm run db:stop)"
-log "Demo sign-in addresses are listed in README.md"
+log "Demo e-mail inbox (sign-in links, invitations): http://localhost:1080"
+log "Demo sign-in addresses are listed in README.md (password: harrowmere-demo)"
 exec node_modules/.bin/next start -H 127.0.0.1 -p 3000

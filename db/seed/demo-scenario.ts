@@ -67,3 +67,25 @@ export const RETURN_QUESTIONS = [
   "Was this a sighting or a call only? Please say in the notes.",
   "The count looks high for this spot. Did you count the same flock twice?",
 ];
+
+// A second, invented event that is open now: the field log's demo, and the "member of
+// another event" in the role tests.
+export const SECOND_ORG = { slug: "kestrel-moor-naturalists", name: "Kestrel Moor Naturalists" };
+export const SECOND_EVENT = {
+  slug: "kestrel-moor-winter-count",
+  name: "Kestrel Moor Winter Count",
+  description: "A fortnight of winter recording on the moor's heath and its gorse-scrub margin.",
+  timeZone: "Europe/London",
+  startsAt: new Date("2026-11-28T08:00:00Z"),
+  endsAt: new Date("2026-12-13T17:00:00Z"),
+  languages: ["en", "es", "fr"],
+};
+export const SECOND_AREA: Ring = [[-2.1000, 53.3000], [-2.0900, 53.3000], [-2.0900, 53.3060], [-2.1000, 53.3060], [-2.1000, 53.3000]];
+export const SECOND_ZONES = [
+  { key: "crest", name: "Heather Crest", habitat: "interior" as const, description: "Heath interior: open heather on the ridge.", ring: rect(-2.1000, 53.3030, -2.0900, 53.3060) },
+  { key: "gorse", name: "Gorse Margin", habitat: "edge" as const, description: "Heath edge: gorse scrub where the heath meets rough pasture.", ring: rect(-2.1000, 53.3000, -2.0900, 53.3030) },
+];
+export const SECOND_PEOPLE: DemoPerson[] = [
+  { key: "moor-organiser", name: "Idris Bevan", email: "moor-organiser@example.org", locale: "en", role: "organiser" },
+  { key: "moor-volunteer", name: "Carmen Solís", email: "moor-volunteer@example.org", locale: "es", role: "volunteer" },
+];

@@ -1,7 +1,10 @@
 import { eq, sql } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as s from "../schema";
-import { DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, type DemoZone } from "./demo-scenario";
+import {
+  DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
+  SECOND_PEOPLE, SECOND_ZONES, type DemoZone,
+} from "./demo-scenario";
 import { demoId, seededRandom } from "./random";
 import { SEED_TAXA, type SeedTaxon } from "./taxa";
 
@@ -157,6 +160,30 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
       }
       for (let i = 0; i < reviewRows.length; i += 200) await tx.insert(s.reviews).values(reviewRows.slice(i, i + 200));
     }
+
+    // The second event, open now; volunteer1 records at both events.
+    const org2 = demoId("org:second");
+    await tx.insert(s.organisations).values({ id: org2, ...SECOND_ORG }).onConflictDoNothing();
+    const event2 = demoId("event:second");
+    await tx.insert(s.events).values({
+      id: event2, organisationId: org2, slug: SECOND_EVENT.slug, name: SECOND_EVENT.name, description: SECOND_EVENT.description,
+      status: "open", startsAt: SECOND_EVENT.startsAt, endsAt: SECOND_EVENT.endsAt, timeZone: SECOND_EVENT.timeZone,
+      languages: SECOND_EVENT.languages, area: polygonSql(SECOND_AREA), joinCode: "KESTREL-WINTER", accuracyLimitM: 100,
+    }).onConflictDoNothing();
+    for (const z of SECOND_ZONES) {
+      await tx.insert(s.zones).values({ id: demoId(`zone:${z.key}`), eventId: event2, name: z.name, habitat: z.habitat, description: z.description, geom: polygonSql(z.ring) }).onConflictDoNothing();
+    }
+    for (const p of SECOND_PEOPLE) {
+      const id = demoId(`user:${p.key}`);
+      await tx.insert(s.users)
+        .values({ id, name: p.name, email: p.email, locale: p.locale, emailVerified: new Date("2026-11-01T00:00:00Z"), passwordHash: options.passwordHash ?? null })
+        .onConflictDoNothing();
+      if (p.role === "organiser") await tx.insert(s.organisationMembers).values({ organisationId: org2, userId: id, role: "organiser" }).onConflictDoNothing();
+      else await tx.insert(s.eventMembers).values({ eventId: event2, userId: id, role: p.role }).onConflictDoNothing();
+    }
+    await tx.insert(s.eventMembers).values({ eventId: event2, userId: people.get("vol-1")!, role: "volunteer" }).onConflictDoNothing();
+    const winter = SEED_TAXA.filter((t) => t.group === "birds" || t.group === "fungi" || t.group === "mammals" || (t.group === "vascular_plants" && t.habitat !== "wetland"));
+    await tx.insert(s.eventSpecies).values(winter.map((t) => ({ eventId: event2, taxonId: taxonIds.get(t.scientificName)! }))).onConflictDoNothing();
 
     const [counts] = await tx.execute<{ sessions: number; sightings: number; reviews: number }>(sql`
       SELECT (SELECT count(*) FROM count_sessions WHERE event_id = ${eventId})::int AS sessions,

@@ -1,0 +1,38 @@
+// Every route handler, with who may call it. The role-matrix browser test walks this
+// table with every kind of person; tests/unit/route-table.test.ts fails when a handler
+// exists in app/api that is missing here. Add a row with every new handler.
+
+export type Who = "anonymous" | "volunteer" | "coordinator" | "birdsCoordinator" | "organiser" | "outsider";
+export const EVERYONE: Who[] = ["anonymous", "volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
+export const SIGNED_IN: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
+export const EVENT_MEMBERS: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser"];
+export const COORDINATORS: Who[] = ["coordinator", "birdsCoordinator", "organiser"];
+export const ORGANISERS: Who[] = ["organiser"];
+
+/** Ids of the demo rows the paths need, read from the seeded database by the test. */
+export type Ids = { eventId: string; organisationId: string; sightingId: string; birdSightingId: string; volunteerId: string };
+
+export type RouteCase = {
+  file: string; // app/api/.../route.ts
+  method: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
+  path: (ids: Ids) => string;
+  body?: (ids: Ids) => unknown;
+  allowed: Who[];
+  note?: string;
+};
+
+export const ROUTES: RouteCase[] = [
+  { file: "app/api/health/route.ts", method: "GET", path: () => "/api/health", allowed: EVERYONE, note: "public: load balancers poll it" },
+  { file: "app/api/health/route.ts", method: "POST", path: () => "/api/health", allowed: EVERYONE, note: "405 for everyone" },
+  { file: "app/api/health/route.ts", method: "PUT", path: () => "/api/health", allowed: EVERYONE, note: "405 for everyone" },
+  { file: "app/api/health/route.ts", method: "PATCH", path: () => "/api/health", allowed: EVERYONE, note: "405 for everyone" },
+  { file: "app/api/health/route.ts", method: "DELETE", path: () => "/api/health", allowed: EVERYONE, note: "405 for everyone" },
+  { file: "app/api/[...path]/route.ts", method: "GET", path: () => "/api/no-such-thing", allowed: EVERYONE, note: "404 for everyone" },
+  { file: "app/api/[...path]/route.ts", method: "POST", path: () => "/api/no-such-thing", allowed: EVERYONE, note: "404 for everyone" },
+  { file: "app/api/[...path]/route.ts", method: "PUT", path: () => "/api/no-such-thing", allowed: EVERYONE, note: "404 for everyone" },
+  { file: "app/api/[...path]/route.ts", method: "PATCH", path: () => "/api/no-such-thing", allowed: EVERYONE, note: "404 for everyone" },
+  { file: "app/api/[...path]/route.ts", method: "DELETE", path: () => "/api/no-such-thing", allowed: EVERYONE, note: "404 for everyone" },
+  { file: "app/api/auth/[...nextauth]/route.ts", method: "GET", path: () => "/api/auth/providers", allowed: EVERYONE, note: "public: how a session starts" },
+  { file: "app/api/auth/[...nextauth]/route.ts", method: "POST", path: () => "/api/auth/_log", allowed: EVERYONE, note: "public: how a session starts" },
+  { file: "app/api/account/password/route.ts", method: "PUT", path: () => "/api/account/password", body: () => ({ password: "short" }), allowed: SIGNED_IN },
+];
