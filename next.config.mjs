@@ -8,6 +8,10 @@ const nextConfig = {
   poweredByHeader: false,
   serverExternalPackages: ["pg"],
   async headers() {
+    // HSTS only where the app is served over HTTPS (production behind TLS).
+    const hsts = (process.env.APP_URL ?? "").startsWith("https://")
+      ? [{ key: "Strict-Transport-Security", value: "max-age=63072000; includeSubDomains" }]
+      : [];
     return [
       {
         source: "/:path*",
@@ -16,6 +20,8 @@ const nextConfig = {
           { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
           { key: "X-Frame-Options", value: "DENY" },
           { key: "Permissions-Policy", value: "camera=(self), geolocation=(self), microphone=()" },
+          { key: "Cross-Origin-Opener-Policy", value: "same-origin" },
+          ...hsts,
         ],
       },
     ];

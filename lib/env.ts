@@ -15,6 +15,8 @@ const schema = z.object({
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().default("Ecotone <no-reply@ecotone.example.org>"),
   MAIL_INBOX_URL: z.string().url().optional(),
+  // Origins besides our own that pages may load images from and send data to (the photo store).
+  CSP_EXTRA_ORIGINS: z.string().default("").transform((v) => v.split(/[\s,]+/).filter(Boolean)),
 });
 
 export type Env = z.infer<typeof schema>;
