@@ -26,7 +26,7 @@ export default defineConfig({
         test: {
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
-          env: { DATABASE_URL: testDatabase },
+          env: { DATABASE_URL: testDatabase, SMTP_HOST: "127.0.0.1", SMTP_PORT: process.env.TEST_SMTP_PORT ?? "2725", APP_URL: "http://localhost:3000" },
           globalSetup: ["./tests/support/global-setup.ts"],
           fileParallelism: false,
           testTimeout: 30_000,

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { env } from "@/lib/env";
 import { isLocale, routing, type Locale } from "@/lib/i18n/routing";
 import { translator } from "@/lib/i18n/translator";
 
@@ -94,6 +95,7 @@ export function handle<Ctx>(fn: (request: Request, ctx: Ctx) => Promise<Response
   return async (request: Request, ctx: Ctx): Promise<Response> => {
     const locale = requestLocale(request);
     try {
+      assertSameOrigin(request);
       return await fn(request, ctx);
     } catch (err) {
       if (err instanceof ApiError) return errorResponse(err, locale);
@@ -102,6 +104,26 @@ export function handle<Ctx>(fn: (request: Request, ctx: Ctx) => Promise<Response
       return errorResponse(new ApiError("internal"), locale);
     }
   };
+}
+
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/**
+ * State-changing calls must come from our own pages: a browser always sends Origin on
+ * them, and Sec-Fetch-Site where it knows. A cross-site request is refused before any
+ * handler code runs (on top of SameSite cookies). Calls with neither header are not
+ * from a browser and are judged by the session check as usual.
+ */
+export function assertSameOrigin(request: Request): void {
+  if (SAFE_METHODS.has(request.method)) return;
+  const origin = request.headers.get("origin");
+  const site = request.headers.get("sec-fetch-site");
+  if (site === "cross-site") throw new ApiError("forbidden");
+  if (!origin) return;
+  const allowed = new Set([new URL(request.url).origin, new URL(env().APP_URL).origin]);
+  const host = request.headers.get("host");
+  if (host) allowed.add(`${new URL(request.url).protocol}//${host}`);
+  if (!allowed.has(origin)) throw new ApiError("forbidden");
 }
 
 /** Parses URL query parameters with a strict zod schema (unknown parameters are refused). */

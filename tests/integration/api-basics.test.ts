@@ -39,3 +39,17 @@ describe("unknown /api addresses", () => {
     expect((await res.json()).error).toMatchObject({ code: "not_found", message: "Rien n'existe à cette adresse." });
   });
 });
+
+describe("same-origin check on state-changing calls", () => {
+  it("refuses a POST from another site before the handler runs", async () => {
+    const res = await healthPost(new Request("http://localhost:3000/api/health", { method: "POST", headers: { origin: "https://evil.example" } }), noCtx);
+    expect(res.status).toBe(403);
+    const res2 = await healthPost(new Request("http://localhost:3000/api/health", { method: "POST", headers: { "sec-fetch-site": "cross-site" } }), noCtx);
+    expect(res2.status).toBe(403);
+  });
+
+  it("lets the same origin through to the handler (here: 405, the handler's own answer)", async () => {
+    const res = await healthPost(new Request("http://localhost:3000/api/health", { method: "POST", headers: { origin: "http://localhost:3000" } }), noCtx);
+    expect(res.status).toBe(405);
+  });
+});
