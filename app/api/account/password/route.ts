@@ -4,11 +4,13 @@ import { hashPassword, passwordProblems } from "@/lib/auth/password";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
 import { translator } from "@/lib/i18n/translator";
 import { parseJson } from "@/lib/http/body";
+import { limitWrites } from "@/lib/http/rate-limit";
 import { setPasswordInput } from "./schema";
 
 // Any signed-in person sets or changes their own password.
 export const PUT = handle(async (request) => {
   const user = await requireUser();
+  limitWrites(`password:${user.id}`, 10, 15 * 60_000);
   const { password } = await parseJson(request, setPasswordInput);
   const problems = passwordProblems(password, user.email);
   if (problems.length) {
