@@ -3,7 +3,7 @@ import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as s from "../schema";
 import {
   DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
-  SECOND_PEOPLE, SECOND_ZONES, type DemoZone,
+  SECOND_PEOPLE, SECOND_ZONES, type DemoPerson, type DemoZone,
 } from "./demo-scenario";
 import { demoId, seededRandom } from "./random";
 import { SEED_TAXA, type SeedTaxon } from "./taxa";
@@ -29,13 +29,15 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
     const orgId = demoId("org");
     await tx.insert(s.organisations).values({ id: orgId, ...DEMO_ORG }).onConflictDoNothing();
     const people = new Map<string, string>();
-    for (const p of DEMO_PEOPLE) {
+    const addPerson = async (p: DemoPerson) => {
       const id = demoId(`user:${p.key}`);
       people.set(p.key, id);
       await tx.insert(s.users)
         .values({ id, name: p.name, email: p.email, locale: p.locale, emailVerified: new Date("2026-05-01T00:00:00Z"), passwordHash: options.passwordHash ?? null })
         .onConflictDoNothing();
-    }
+      return id;
+    };
+    for (const p of DEMO_PEOPLE) await addPerson(p);
     await tx.insert(s.organisationMembers).values({ organisationId: orgId, userId: people.get("organiser")!, role: "organiser" }).onConflictDoNothing();
 
     // Event, area and zones.
@@ -174,10 +176,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
       await tx.insert(s.zones).values({ id: demoId(`zone:${z.key}`), eventId: event2, name: z.name, habitat: z.habitat, description: z.description, geom: polygonSql(z.ring) }).onConflictDoNothing();
     }
     for (const p of SECOND_PEOPLE) {
-      const id = demoId(`user:${p.key}`);
-      await tx.insert(s.users)
-        .values({ id, name: p.name, email: p.email, locale: p.locale, emailVerified: new Date("2026-11-01T00:00:00Z"), passwordHash: options.passwordHash ?? null })
-        .onConflictDoNothing();
+      const id = await addPerson(p);
       if (p.role === "organiser") await tx.insert(s.organisationMembers).values({ organisationId: org2, userId: id, role: "organiser" }).onConflictDoNothing();
       else await tx.insert(s.eventMembers).values({ eventId: event2, userId: id, role: p.role }).onConflictDoNothing();
     }
