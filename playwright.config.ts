@@ -27,7 +27,7 @@ export default defineConfig({
     { name: "desktop", use: { ...devices["Desktop Chrome"], channel: undefined } },
   ],
   webServer: {
-    command: `node_modules/.bin/tsx tests/e2e/prepare-db.mts && exec node_modules/.bin/next start -H 127.0.0.1 -p ${PORT}`,
+    command: `node_modules/.bin/tsx --conditions=react-server tests/e2e/prepare-db.mts && exec node_modules/.bin/next start -H 127.0.0.1 -p ${PORT}`,
     url: `${baseURL}/api/health`,
     reuseExistingServer: false,
     timeout: 120_000,

@@ -13,7 +13,8 @@ bash scripts/pg.sh ensure-db ecotone
 export DATABASE_URL="$(bash scripts/pg.sh url ecotone)"
 export APP_URL="${APP_URL:-http://localhost:3000}"
 npx tsx scripts/migrate.mts
-npx tsx scripts/seed.mts
+# The data layer is marked "server-only"; scripts that use it run under the react-server condition.
+npx tsx --conditions=react-server scripts/seed.mts
 
 # The demo's e-mail: maildev catches every mail on 127.0.0.1:1025 and shows it at :1080.
 if ! (exec 3<>/dev/tcp/127.0.0.1/1025) 2>/dev/null; then

@@ -5,7 +5,9 @@ import {
   DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
   SECOND_PEOPLE, SECOND_ZONES, type DemoPerson, type DemoZone,
 } from "./demo-scenario";
+import { refreshCheckMarks } from "../queries/check-marks";
 import { demoId, seededRandom } from "./random";
+import { seedReviewCases } from "./review-cases";
 import { SEED_TAXA, type SeedTaxon } from "./taxa";
 
 type Db = NodePgDatabase<typeof s>;
@@ -162,6 +164,13 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
       }
       for (let i = 0; i < reviewRows.length; i += 200) await tx.insert(s.reviews).values(reviewRows.slice(i, i + 200));
     }
+
+    // Pending sightings crafted for the review desk (one per check mark, and known sets
+    // for the birds coordinator), then every check mark of the event computed as the
+    // server does when sightings arrive.
+    await seedReviewCases(tx, { eventId, people, zoneIds, taxonIds });
+    const allIds = await tx.select({ id: s.sightings.id }).from(s.sightings).where(eq(s.sightings.eventId, eventId));
+    await refreshCheckMarks(tx, allIds.map((r) => r.id));
 
     // The second event, open now; volunteer1 records at both events.
     const org2 = demoId("org:second");

@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import * as schema from "@/db/schema";
 import { seedDemo } from "@/db/seed/demo";
 import { DEMO_EVENT } from "@/db/seed/demo-scenario";
+import { REVIEW_CASES, reviewCaseId } from "@/db/seed/review-cases";
 import { db } from "./helpers";
 
 describe("demo scenario seed", () => {
@@ -22,7 +23,8 @@ describe("demo scenario seed", () => {
     const { rows } = await db().execute<{ zones: string[]; taxa: number; named: number; sensitive: number }>(sql`
       SELECT (SELECT array_agg(z.name || ':' || z.habitat ORDER BY z.name) FROM zones z JOIN events e ON e.id = z.event_id WHERE e.slug = ${DEMO_EVENT.slug}) AS zones,
              (SELECT count(*) FROM event_species es JOIN events e ON e.id = es.event_id WHERE e.slug = ${DEMO_EVENT.slug})::int AS taxa,
-             (SELECT count(*) FROM (SELECT taxon_id FROM taxon_names GROUP BY taxon_id HAVING count(DISTINCT locale) = 3) x)::int AS named,
+             (SELECT count(*) FROM (SELECT n.taxon_id FROM taxon_names n JOIN event_species es ON es.taxon_id = n.taxon_id JOIN events e ON e.id = es.event_id
+                WHERE e.slug = ${DEMO_EVENT.slug} GROUP BY n.taxon_id HAVING count(DISTINCT locale) = 3) x)::int AS named,
              (SELECT count(*) FROM taxa WHERE sensitivity = 'restricted')::int AS sensitive`);
     expect(rows[0]).toEqual({
       zones: ["Alder Fringe:edge", "Beechwood Heart:interior", "Harrowmere Meadow:interior", "Millpond Margin:edge"],
@@ -30,14 +32,15 @@ describe("demo scenario seed", () => {
     });
   });
 
-  it("places every sighting inside its zone and inside the event area, within the event's 48 hours", async () => {
+  it("places every sighting inside its zone and inside the event area, within the event's 48 hours (but the crafted review cases)", async () => {
+    const crafted = REVIEW_CASES.map((c) => reviewCaseId(c.key));
     const { rows } = await db().execute<{ outside_zone: number; outside_area: number; outside_time: number; zones_outside_area: number }>(sql`
       SELECT count(*) FILTER (WHERE NOT ST_Within(s.location, z.geom))::int AS outside_zone,
              count(*) FILTER (WHERE NOT ST_Within(s.location, e.area))::int AS outside_area,
              count(*) FILTER (WHERE s.observed_at NOT BETWEEN e.starts_at AND e.ends_at)::int AS outside_time,
              (SELECT count(*) FROM zones z2 WHERE z2.event_id = e.id AND NOT ST_Within(z2.geom, e.area))::int AS zones_outside_area
       FROM sightings s JOIN zones z ON z.id = s.zone_id JOIN events e ON e.id = s.event_id
-      WHERE e.slug = ${DEMO_EVENT.slug} GROUP BY e.id`);
+      WHERE e.slug = ${DEMO_EVENT.slug} AND NOT s.id = ANY(${`{${crafted.join(",")}}`}::uuid[]) GROUP BY e.id`);
     expect(rows[0]).toEqual({ outside_zone: 0, outside_area: 0, outside_time: 0, zones_outside_area: 0 });
   });
 
@@ -48,5 +51,17 @@ describe("demo scenario seed", () => {
       JOIN events e ON e.id = s.event_id
       WHERE e.slug = ${DEMO_EVENT.slug} AND s.review_state <> coalesce(last.to_state, 'pending')`);
     expect(rows[0]!.n).toBe(0);
+  });
+
+  it("has a pending crafted sighting raising each check mark, and unmarked sightings too", async () => {
+    const { rows } = await db().execute<{ mark: string; n: number }>(sql`
+      SELECT m.mark::text AS mark, count(*)::int AS n FROM sightings s JOIN events e ON e.id = s.event_id
+      CROSS JOIN LATERAL unnest(s.check_marks) AS m(mark)
+      WHERE e.slug = ${DEMO_EVENT.slug} AND s.review_state = 'pending' GROUP BY 1`);
+    const byMark = Object.fromEntries(rows.map((r) => [r.mark, r.n]));
+    for (const mark of schema.checkMark.enumValues) expect(byMark[mark], mark).toBeGreaterThan(0);
+    const clean = await db().execute<{ n: number }>(sql`
+      SELECT count(*)::int AS n FROM sightings s JOIN events e ON e.id = s.event_id WHERE e.slug = ${DEMO_EVENT.slug} AND cardinality(s.check_marks) = 0`);
+    expect(clean.rows[0]!.n).toBeGreaterThan(200);
   });
 });
