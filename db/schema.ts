@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
 import {
-  bigserial, boolean, check, customType, index, integer, jsonb, pgEnum, pgTable,
+  bigint, bigserial, boolean, check, customType, index, integer, jsonb, pgEnum, pgTable,
   primaryKey, real, smallint, text, timestamp, uniqueIndex, uuid, varchar,
 } from "drizzle-orm/pg-core";
 
@@ -220,6 +220,9 @@ export const sightings = pgTable("sightings", {
   check("sightings_location_wgs84", sql`ST_X(${t.location}) BETWEEN -180 AND 180 AND ST_Y(${t.location}) BETWEEN -90 AND 90`),
   check("sightings_identified_or_described", sql`${t.taxonId} IS NOT NULL OR length(btrim(${t.description})) > 0`),
   index("sightings_queue_idx").on(t.eventId, t.reviewState, t.createdAt, t.id),
+  // The review queue, newest or oldest observed first, with and without a state filter.
+  index("sightings_queue_observed_idx").on(t.eventId, t.reviewState, t.observedAt, t.id),
+  index("sightings_queue_all_observed_idx").on(t.eventId, t.observedAt, t.id),
   index("sightings_results_idx").on(t.eventId, t.reviewState, t.taxonId),
   index("sightings_session_idx").on(t.sessionId),
   index("sightings_user_idx").on(t.userId, t.observedAt),
@@ -334,3 +337,15 @@ export const membershipLog = pgTable("membership_log", {
   taxonGroups: taxonGroup("taxon_groups").array(),
   at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
 }, (t) => [index("membership_log_event_idx").on(t.eventId, t.at)]);
+
+// ---------------------------------------------------------------- review digests
+// One row per review decision that the volunteer should hear about, written in the same
+// transaction as the decision. The mail worker gathers a volunteer's waiting rows into one
+// digest (at most one per volunteer per hour) and links them to its outbox mail, so a
+// failed send never loses a decision: the mail stays in the outbox and is retried.
+export const reviewNotices = pgTable("review_notices", {
+  reviewId: bigint("review_id", { mode: "number" }).primaryKey().references(() => reviews.id, { onDelete: "restrict" }),
+  volunteerId: uuid("volunteer_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+  createdAt: createdAt(),
+  digestId: bigint("digest_id", { mode: "number" }).references(() => emailOutbox.id, { onDelete: "set null" }),
+}, (t) => [index("review_notices_waiting_idx").on(t.volunteerId, t.createdAt).where(sql`${t.digestId} IS NULL`)]);

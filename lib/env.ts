@@ -15,6 +15,10 @@ const schema = z.object({
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().default("Ecotone <no-reply@ecotone.example.org>"),
   MAIL_INBOX_URL: z.string().url().optional(),
+  // Review decisions reach a volunteer as one digest mail per this many seconds at most
+  // (design: one digest per volunteer per hour); the mail worker polls every MAIL_WORKER_INTERVAL_MS.
+  REVIEW_DIGEST_DELAY_SECONDS: z.coerce.number().int().min(0).max(7 * 86_400).default(3600),
+  MAIL_WORKER_INTERVAL_MS: z.coerce.number().int().min(200).max(3_600_000).default(30_000),
   // Origins besides our own that pages may load images from and send data to (the photo store).
   CSP_EXTRA_ORIGINS: z.string().default("").transform((v) => v.split(/[\s,]+/).filter(Boolean)),
 });

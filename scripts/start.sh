@@ -26,6 +26,15 @@ if ! (exec 3<>/dev/tcp/127.0.0.1/1025) 2>/dev/null; then
 fi
 export SMTP_HOST=127.0.0.1 SMTP_PORT=1025 MAIL_INBOX_URL="http://localhost:1080"
 
+# The mail worker beside the server: review decisions gathered into one digest per
+# volunteer per hour, and the outbox drained with retries (log in .data/mail-worker.log).
+if [ -f "$ROOT/.data/mail-worker.pid" ] && kill -0 "$(cat "$ROOT/.data/mail-worker.pid")" 2>/dev/null; then
+  log "Mail worker already running (pid $(cat "$ROOT/.data/mail-worker.pid"))"
+else
+  setsid node_modules/.bin/tsx --conditions=react-server scripts/mail-worker.mts >"$ROOT/.data/mail-worker.log" 2>&1 < /dev/null &
+  echo $! >"$ROOT/.data/mail-worker.pid"
+fi
+
 log "Building the app (next build)"
 npx next build >"$ROOT/.data/build.log" 2>&1 || { tail -40 "$ROOT/.data/build.log" >&2; die "next build failed (full log in .data/build.log)"; }
 

@@ -46,7 +46,11 @@ export function effectiveRole(user: Pick<SessionUser, "isAdmin">, access: EventA
  * for members and non-members alike.
  */
 export async function requireEventRole(eventId: string, minimum: EventRole): Promise<EventPermit> {
-  const user = await requireUser();
+  return eventPermitFor(await requireUser(), eventId, minimum);
+}
+
+/** requireEventRole's check for a person already known (a signed-in user, or a test's person). */
+export async function eventPermitFor(user: SessionUser, eventId: string, minimum: EventRole): Promise<EventPermit> {
   if (!/^[0-9a-f-]{36}$/i.test(eventId)) throw new ApiError("not_found");
   const access = await eventAccess(user.id, eventId);
   if (!access) throw new ApiError("not_found");

@@ -1,0 +1,306 @@
+import "server-only";
+import { sql, type SQL } from "drizzle-orm";
+import type { CheckMarkName, QueueFilters, ReviewStateName, TaxonGroupName } from "@/lib/review/filters";
+import { getDb } from "../client";
+import { refreshCheckMarks, type Executor } from "./check-marks";
+
+// The review desk's data: the queue (keyset pagination on observed time and id, so a deep
+// page costs what the first one does), the detail of one sighting, and decisions, each
+// appended to the reviews table with the sighting's state kept in step in one transaction.
+
+/** Who is reviewing where: the event, and the taxon groups they may see (empty: every group). */
+export type ReviewScope = { eventId: string; taxonGroups: string[]; locale: string };
+
+export const QUEUE_PAGE_SIZE = 50;
+export const MAX_BULK = 500;
+
+export type QueueItem = {
+  id: string; reviewState: ReviewStateName; version: number;
+  taxonId: string | null; scientificName: string | null; commonName: string | null; taxonGroup: TaxonGroupName | null; sensitive: boolean;
+  description: string; count: number; countIsEstimate: boolean; observedAt: string;
+  zoneName: string | null; volunteerName: string; checkMarks: CheckMarkName[]; photoCount: number;
+};
+export type QueuePage = { items: QueueItem[]; nextCursor: string | null };
+
+function encodeCursor(observedAt: string, id: string): string {
+  return Buffer.from(`${observedAt}|${id}`, "utf8").toString("base64url");
+}
+
+/** A cursor from a client: null when it is not one of ours. */
+export function decodeCursor(cursor: string): { observedAt: string; id: string } | null {
+  const text = Buffer.from(cursor, "base64url").toString("utf8");
+  const m = text.match(/^(\d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}(?:\.\d{1,6})?[+-]\d{2}(?::\d{2})?)\|([0-9a-f-]{36})$/i);
+  return m ? { observedAt: m[1]!, id: m[2]! } : null;
+}
+
+/** The WHERE clause shared by the queue, the counts and bulk approve. */
+function filterSql(scope: ReviewScope, f: Omit<QueueFilters, "order">, opts: { withState: boolean }): SQL {
+  const parts: SQL[] = [sql`s.event_id = ${scope.eventId}`];
+  if (scope.taxonGroups.length) parts.push(sql`t.taxon_group::text = ANY(${`{${scope.taxonGroups.join(",")}}`}::text[])`);
+  if (opts.withState && f.state) parts.push(sql`s.review_state = ${f.state}`);
+  if (f.zone === "none") parts.push(sql`s.zone_id IS NULL`);
+  else if (f.zone) parts.push(sql`s.zone_id = ${f.zone}`);
+  if (f.group) parts.push(sql`t.taxon_group = ${f.group}`);
+  if (f.marks?.length) parts.push(sql`s.check_marks @> ${`{${f.marks.join(",")}}`}::check_mark[]`);
+  if (f.volunteer) parts.push(sql`s.user_id = ${f.volunteer}`);
+  if (f.from) parts.push(sql`s.observed_at >= (${f.from}::date::timestamp AT TIME ZONE e.time_zone)`);
+  if (f.to) parts.push(sql`s.observed_at < ((${f.to}::date + 1)::timestamp AT TIME ZONE e.time_zone)`);
+  if (f.photo === "yes") parts.push(sql`EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id)`);
+  if (f.photo === "no") parts.push(sql`NOT EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id)`);
+  return sql.join(parts, sql` AND `);
+}
+
+/** FROM clause: a coordinator limited to groups never sees unidentified records (their group is unknown). */
+function fromSql(scope: ReviewScope): SQL {
+  return sql`sightings s JOIN events e ON e.id = s.event_id ${scope.taxonGroups.length ? sql`JOIN` : sql`LEFT JOIN`} taxa t ON t.id = s.taxon_id`;
+}
+
+export async function reviewQueue(scope: ReviewScope, f: QueueFilters, cursor: string | null, limit = QUEUE_PAGE_SIZE, db: Executor = getDb()): Promise<QueuePage> {
+  const after = cursor ? decodeCursor(cursor) : null;
+  const desc = f.order === "newest";
+  const keyset = after
+    ? desc ? sql`AND (s.observed_at, s.id) < (${after.observedAt}::timestamptz, ${after.id}::uuid)`
+      : sql`AND (s.observed_at, s.id) > (${after.observedAt}::timestamptz, ${after.id}::uuid)`
+    : sql``;
+  const order = desc ? sql`s.observed_at DESC, s.id DESC` : sql`s.observed_at ASC, s.id ASC`;
+  const { rows } = await db.execute<QueueItem & { cursorAt: string }>(sql`
+    SELECT s.id, s.review_state AS "reviewState", s.version, s.taxon_id AS "taxonId",
+      t.scientific_name AS "scientificName", t.taxon_group AS "taxonGroup", coalesce(t.sensitivity <> 'open', false) AS sensitive,
+      (SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en'))
+         FROM taxon_names n WHERE n.taxon_id = s.taxon_id) AS "commonName",
+      s.description, s.count, s.count_is_estimate AS "countIsEstimate",
+      to_char(s.observed_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') AS "observedAt", s.observed_at::text AS "cursorAt",
+      z.name AS "zoneName", coalesce(u.name, u.email) AS "volunteerName", s.check_marks::text[] AS "checkMarks",
+      (SELECT count(*)::int FROM photos p WHERE p.sighting_id = s.id) AS "photoCount"
+    FROM ${fromSql(scope)}
+    JOIN users u ON u.id = s.user_id
+    LEFT JOIN zones z ON z.id = s.zone_id
+    WHERE ${filterSql(scope, f, { withState: true })} ${keyset}
+    ORDER BY ${order}
+    LIMIT ${limit + 1}`);
+  const more = rows.length > limit;
+  const items = rows.slice(0, limit);
+  const last = items[items.length - 1];
+  return {
+    items: items.map(({ cursorAt: _c, ...item }) => item),
+    nextCursor: more && last ? encodeCursor(last.cursorAt, last.id) : null,
+  };
+}
+
+/** How many sightings in each review state match the filters (the state filter aside). */
+export async function queueCounts(scope: ReviewScope, f: QueueFilters, db: Executor = getDb()): Promise<Record<ReviewStateName, number>> {
+  const { rows } = await db.execute<{ state: ReviewStateName; n: number }>(sql`
+    SELECT s.review_state AS state, count(*)::int AS n FROM ${fromSql(scope)}
+    WHERE ${filterSql(scope, f, { withState: false })} GROUP BY 1`);
+  const counts: Record<ReviewStateName, number> = { pending: 0, approved: 0, rejected: 0, returned: 0 };
+  for (const r of rows) counts[r.state] = r.n;
+  return counts;
+}
+
+/** Filter choices for the desk: zones, the event's volunteers with records, and the groups in scope. */
+export async function queueChoices(scope: ReviewScope) {
+  const db = getDb();
+  const [zones, volunteers] = await Promise.all([
+    db.execute<{ id: string; name: string }>(sql`SELECT id, name FROM zones WHERE event_id = ${scope.eventId} ORDER BY name`),
+    db.execute<{ id: string; name: string }>(sql`
+      SELECT u.id, coalesce(u.name, u.email) AS name FROM users u
+      WHERE EXISTS (SELECT 1 FROM sightings s WHERE s.event_id = ${scope.eventId} AND s.user_id = u.id) ORDER BY 2`),
+  ]);
+  return { zones: zones.rows, volunteers: volunteers.rows };
+}
+
+export type ReviewEvent = { id: string; slug: string; name: string; timeZone: string; startsAt: Date; endsAt: Date; accuracyLimitM: number };
+
+export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | null> {
+  const { rows } = await getDb().execute<ReviewEvent>(sql`
+    SELECT id, slug, name, time_zone AS "timeZone", starts_at AS "startsAt", ends_at AS "endsAt", accuracy_limit_m AS "accuracyLimitM"
+    FROM events WHERE slug = ${slug}`);
+  const row = rows[0];
+  return row ? { ...row, startsAt: new Date(row.startsAt), endsAt: new Date(row.endsAt) } : null;
+}
+
+/** Where a sighting is and which group it belongs to, to check a reviewer's scope before showing or deciding it. */
+async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
+  const { rows } = await db.execute<{
+    id: string; eventId: string; userId: string; reviewState: ReviewStateName; version: number; taxonId: string | null; taxonGroup: string | null;
+  }>(sql`
+    SELECT s.id, s.event_id AS "eventId", s.user_id AS "userId", s.review_state AS "reviewState", s.version,
+      s.taxon_id AS "taxonId", t.taxon_group::text AS "taxonGroup"
+    FROM sightings s LEFT JOIN taxa t ON t.id = s.taxon_id WHERE s.id = ${sightingId}
+    ${lock ? sql`FOR UPDATE OF s` : sql``}`);
+  return rows[0] ?? null;
+}
+
+export type ScopeCheck = "ok" | "not_found" | "forbidden";
+
+function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: string | null } | null): ScopeCheck {
+  if (!place || place.eventId !== scope.eventId) return "not_found";
+  if (scope.taxonGroups.length && !(place.taxonGroup && scope.taxonGroups.includes(place.taxonGroup))) return "forbidden";
+  return "ok";
+}
+
+export async function sightingDetail(scope: ReviewScope, sightingId: string) {
+  const db = getDb();
+  const check = inScope(scope, await sightingPlace(db, sightingId, false));
+  if (check !== "ok") return { check } as const;
+  const name = (col: SQL) => sql`(SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = ${col})`;
+  const [main, photos, history, nearby, map] = await Promise.all([
+    db.execute<{
+      id: string; reviewState: ReviewStateName; version: number; taxonId: string | null; scientificName: string | null; commonName: string | null;
+      taxonGroup: string | null; sensitivity: string | null; description: string; count: number; countIsEstimate: boolean; observedAt: string;
+      receivedAt: string; lon: number; lat: number; accuracyM: number; zoneId: string | null; zoneName: string | null; notes: string;
+      volunteerId: string; volunteerName: string; checkMarks: CheckMarkName[];
+      sessionId: string | null; sessionKind: string | null; sessionStartedAt: string | null; sessionEndedAt: string | null;
+      sessionAllSpecies: boolean | null; sessionZoneName: string | null; sessionSightings: number | null;
+    }>(sql`
+      SELECT s.id, s.review_state AS "reviewState", s.version, s.taxon_id AS "taxonId", t.scientific_name AS "scientificName",
+        ${name(sql`s.taxon_id`)} AS "commonName", t.taxon_group AS "taxonGroup", t.sensitivity::text AS sensitivity,
+        s.description, s.count, s.count_is_estimate AS "countIsEstimate", s.observed_at AS "observedAt", s.created_at AS "receivedAt",
+        ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m AS "accuracyM", s.zone_id AS "zoneId", z.name AS "zoneName", s.notes,
+        s.user_id AS "volunteerId", coalesce(u.name, u.email) AS "volunteerName", s.check_marks::text[] AS "checkMarks",
+        c.id AS "sessionId", c.kind::text AS "sessionKind", c.started_at AS "sessionStartedAt", c.ended_at AS "sessionEndedAt",
+        c.all_species_noted AS "sessionAllSpecies", cz.name AS "sessionZoneName",
+        (SELECT count(*)::int FROM sightings x WHERE x.session_id = c.id) AS "sessionSightings"
+      FROM sightings s JOIN users u ON u.id = s.user_id
+      LEFT JOIN taxa t ON t.id = s.taxon_id LEFT JOIN zones z ON z.id = s.zone_id
+      LEFT JOIN count_sessions c ON c.id = s.session_id LEFT JOIN zones cz ON cz.id = c.zone_id
+      WHERE s.id = ${sightingId}`),
+    db.execute<{ id: string; contentType: string; sizeBytes: number; width: number | null; height: number | null }>(sql`
+      SELECT id, content_type AS "contentType", size_bytes AS "sizeBytes", width, height FROM photos WHERE sighting_id = ${sightingId} ORDER BY created_at, id`),
+    db.execute<{
+      id: number; decidedAt: string; reviewerName: string; fromState: ReviewStateName; toState: ReviewStateName;
+      fromTaxon: string | null; toTaxon: string | null; reason: string; message: string;
+    }>(sql`
+      SELECT r.id::int AS id, r.decided_at AS "decidedAt", coalesce(u.name, u.email) AS "reviewerName", r.from_state AS "fromState", r.to_state AS "toState",
+        (SELECT coalesce(${name(sql`ft.id`)} || ' (' || ft.scientific_name || ')', ft.scientific_name) FROM taxa ft WHERE ft.id = r.from_taxon_id) AS "fromTaxon",
+        (SELECT coalesce(${name(sql`tt.id`)} || ' (' || tt.scientific_name || ')', tt.scientific_name) FROM taxa tt WHERE tt.id = r.to_taxon_id) AS "toTaxon",
+        r.reason, r.message
+      FROM reviews r JOIN users u ON u.id = r.reviewer_id WHERE r.sighting_id = ${sightingId} ORDER BY r.decided_at, r.id`),
+    // The volunteer's other records within two hours either side, to judge duplicates and context.
+    db.execute<{ id: string; observedAt: string; commonName: string | null; scientificName: string | null; count: number; reviewState: ReviewStateName; distanceM: number }>(sql`
+      SELECT o.id, o.observed_at AS "observedAt", ${name(sql`o.taxon_id`)} AS "commonName", ot.scientific_name AS "scientificName", o.count,
+        o.review_state AS "reviewState", round(ST_Distance(o.location::geography, s.location::geography))::int AS "distanceM"
+      FROM sightings s JOIN sightings o ON o.user_id = s.user_id AND o.event_id = s.event_id AND o.id <> s.id
+        AND o.observed_at BETWEEN s.observed_at - interval '2 hours' AND s.observed_at + interval '2 hours'
+      LEFT JOIN taxa ot ON ot.id = o.taxon_id
+      WHERE s.id = ${sightingId} ORDER BY o.observed_at LIMIT 30`),
+    db.execute<{ area: string | null; zones: { id: string; name: string; geometry: string }[] | null }>(sql`
+      SELECT ST_AsGeoJSON(e.area, 6) AS area,
+        (SELECT json_agg(json_build_object('id', z.id, 'name', z.name, 'geometry', ST_AsGeoJSON(z.geom, 6)) ORDER BY z.name) FROM zones z WHERE z.event_id = e.id) AS zones
+      FROM events e WHERE e.id = ${scope.eventId}`),
+  ]);
+  const m = map.rows[0];
+  return {
+    check: "ok" as const,
+    sighting: main.rows[0]!,
+    photos: photos.rows,
+    history: history.rows,
+    nearby: nearby.rows,
+    map: {
+      area: m?.area ? (JSON.parse(m.area) as GeoJsonPolygon) : null,
+      zones: (m?.zones ?? []).map((z) => ({ id: z.id, name: z.name, geometry: JSON.parse(z.geometry) as GeoJsonPolygon })),
+    },
+  };
+}
+export type GeoJsonPolygon = { type: "Polygon"; coordinates: [number, number][][] };
+export type SightingDetail = Extract<Awaited<ReturnType<typeof sightingDetail>>, { check: "ok" }>;
+
+export type Decision =
+  | { action: "approve"; version: number; message?: string }
+  | { action: "reject"; version: number; reason: string; message?: string }
+  | { action: "return"; version: number; message: string }
+  | { action: "reidentify"; version: number; taxonId: string; message?: string };
+
+export type DecisionResult =
+  | { outcome: "ok"; sighting: { id: string; reviewState: ReviewStateName; version: number; taxonId: string | null }; reviewId: number }
+  | { outcome: "not_found" | "forbidden" }
+  | { outcome: "conflict"; current: { reviewState: ReviewStateName; version: number } }
+  | { outcome: "unchanged" }
+  | { outcome: "bad_taxon"; why: "unknown" | "out_of_scope" | "same" };
+
+const TO_STATE = { approve: "approved", reject: "rejected", return: "returned" } as const;
+
+/**
+ * One decision on one sighting, in one transaction: the row is locked, its version
+ * compared with the one the reviewer saw (a mismatch is a conflict, never an overwrite),
+ * the decision appended to reviews, the sighting's state, taxon and version moved in step,
+ * a notice queued for the volunteer's digest, and the check marks recomputed.
+ */
+export async function decide(scope: ReviewScope, reviewerId: string, sightingId: string, d: Decision): Promise<DecisionResult> {
+  return getDb().transaction(async (tx) => {
+    const place = await sightingPlace(tx, sightingId, true);
+    const check = inScope(scope, place);
+    if (check !== "ok") return { outcome: check };
+    const p = place!;
+    if (p.version !== d.version) return { outcome: "conflict", current: { reviewState: p.reviewState, version: p.version } };
+    let toState: ReviewStateName = p.reviewState;
+    let toTaxon = p.taxonId;
+    if (d.action === "reidentify") {
+      if (d.taxonId === p.taxonId) return { outcome: "bad_taxon", why: "same" };
+      const { rows } = await tx.execute<{ group: string }>(sql`SELECT taxon_group::text AS group FROM taxa WHERE id = ${d.taxonId}`);
+      if (!rows[0]) return { outcome: "bad_taxon", why: "unknown" };
+      if (scope.taxonGroups.length && !scope.taxonGroups.includes(rows[0].group)) return { outcome: "bad_taxon", why: "out_of_scope" };
+      toTaxon = d.taxonId;
+    } else {
+      toState = TO_STATE[d.action];
+      if (toState === p.reviewState) return { outcome: "unchanged" };
+    }
+    const reason = d.action === "reject" ? d.reason : "";
+    const message = d.message?.trim() ?? "";
+    const { rows: updated } = await tx.execute<{ version: number }>(sql`
+      UPDATE sightings SET review_state = ${toState}, taxon_id = ${toTaxon}, version = version + 1, updated_at = now()
+      WHERE id = ${sightingId} RETURNING version`);
+    const { rows: review } = await tx.execute<{ id: number }>(sql`
+      INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
+      VALUES (${sightingId}, ${reviewerId}, ${p.reviewState}, ${toState}, ${p.taxonId}, ${toTaxon}, ${reason}, ${message})
+      RETURNING id::int AS id`);
+    await tx.execute(sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${review[0]!.id}, ${p.userId})`);
+    await refreshCheckMarks(tx, [sightingId]);
+    return { outcome: "ok", reviewId: review[0]!.id, sighting: { id: sightingId, reviewState: toState, version: updated[0]!.version, taxonId: toTaxon } };
+  });
+}
+
+export type BulkResult = { outcome: "ok"; approved: number } | { outcome: "count_changed"; count: number } | { outcome: "too_many"; count: number };
+
+/**
+ * Approves every pending sighting that matches the filters, provided their number is the
+ * one the reviewer confirmed (`expected`): if the set changed meanwhile, nothing is done.
+ */
+export async function bulkApprove(scope: ReviewScope, reviewerId: string, f: QueueFilters, expected: number): Promise<BulkResult> {
+  return getDb().transaction(async (tx) => {
+    const { rows } = await tx.execute<{ id: string; userId: string; taxonId: string | null }>(sql`
+      SELECT s.id, s.user_id AS "userId", s.taxon_id AS "taxonId" FROM ${fromSql(scope)}
+      WHERE ${filterSql(scope, { ...f, state: "pending" }, { withState: true })}
+      ORDER BY s.id LIMIT ${MAX_BULK + 1} FOR UPDATE OF s`);
+    if (rows.length > MAX_BULK) return { outcome: "too_many", count: rows.length };
+    if (rows.length !== expected) return { outcome: "count_changed", count: rows.length };
+    if (!rows.length) return { outcome: "ok", approved: 0 };
+    const ids = rows.map((r) => r.id);
+    const idArray = sql`${`{${ids.join(",")}}`}::uuid[]`;
+    await tx.execute(sql`UPDATE sightings SET review_state = 'approved', version = version + 1, updated_at = now() WHERE id = ANY(${idArray})`);
+    await tx.execute(sql`
+      WITH added AS (
+        INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
+        SELECT s.id, ${reviewerId}, 'pending', 'approved', s.taxon_id, s.taxon_id, '', '' FROM sightings s WHERE s.id = ANY(${idArray})
+        RETURNING id, sighting_id
+      )
+      INSERT INTO review_notices (review_id, volunteer_id)
+      SELECT a.id, s.user_id FROM added a JOIN sightings s ON s.id = a.sighting_id`);
+    await refreshCheckMarks(tx, ids);
+    return { outcome: "ok", approved: ids.length };
+  });
+}
+
+/** Taxa a reviewer may choose when re-identifying: by common or scientific name, within their groups. */
+export async function searchTaxa(scope: ReviewScope, q: string, limit = 12) {
+  const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  const { rows } = await getDb().execute<{ id: string; scientificName: string; commonName: string | null; taxonGroup: string; onList: boolean }>(sql`
+    SELECT t.id, t.scientific_name AS "scientificName", t.taxon_group::text AS "taxonGroup",
+      (SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = t.id) AS "commonName",
+      EXISTS (SELECT 1 FROM event_species es WHERE es.event_id = ${scope.eventId} AND es.taxon_id = t.id) AS "onList"
+    FROM taxa t
+    WHERE (t.scientific_name ILIKE ${like} OR EXISTS (SELECT 1 FROM taxon_names n WHERE n.taxon_id = t.id AND n.name ILIKE ${like}))
+      ${scope.taxonGroups.length ? sql`AND t.taxon_group::text = ANY(${`{${scope.taxonGroups.join(",")}}`}::text[])` : sql``}
+    ORDER BY "onList" DESC, t.scientific_name LIMIT ${limit}`);
+  return rows;
+}
