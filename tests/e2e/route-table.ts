@@ -35,4 +35,13 @@ export const ROUTES: RouteCase[] = [
   { file: "app/api/auth/[...nextauth]/route.ts", method: "GET", path: () => "/api/auth/providers", allowed: EVERYONE, note: "public: how a session starts" },
   { file: "app/api/auth/[...nextauth]/route.ts", method: "POST", path: () => "/api/auth/_log", allowed: EVERYONE, note: "public: how a session starts" },
   { file: "app/api/account/password/route.ts", method: "PUT", path: () => "/api/account/password", body: () => ({ password: "short" }), allowed: SIGNED_IN },
+  // Review desk: coordinators and organisers of the event; the birds coordinator is refused other groups' sightings.
+  { file: "app/api/events/[eventId]/review/queue/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/review/queue?state=pending&order=oldest`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/review/sightings/[sightingId]/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}`, allowed: ["coordinator", "organiser"], note: "a non-bird sighting" },
+  { file: "app/api/events/[eventId]/review/sightings/[sightingId]/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/review/sightings/${i.birdSightingId}`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/review/sightings/[sightingId]/decisions/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}/decisions`,
+    body: () => ({ action: "approve", version: 999_999 }), allowed: ["coordinator", "organiser"], note: "a stale version: 409 for those allowed, so nothing changes" },
+  { file: "app/api/events/[eventId]/review/bulk-approve/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/review/bulk-approve`,
+    body: () => ({ filters: { from: "2020-01-01", to: "2020-01-01" }, expectedCount: 1 }), allowed: COORDINATORS, note: "matches nothing: 409 for those allowed" },
+  { file: "app/api/events/[eventId]/review/taxa/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/review/taxa?q=robin`, allowed: COORDINATORS },
 ];
