@@ -11,8 +11,8 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
   const { locale } = await params;
   setRequestLocale(locale);
   const user = await requirePageUser(locale, "/account");
-  const [t, tRole, tGroup, roles] = await Promise.all([
-    getTranslations("Account"), getTranslations("Role"), getTranslations("TaxonGroup"), rolesOf(user.id),
+  const [t, tRole, tGroup, tDesk, roles] = await Promise.all([
+    getTranslations("Account"), getTranslations("Role"), getTranslations("TaxonGroup"), getTranslations("ReviewDesk"), rolesOf(user.id),
   ]);
   type Group = Parameters<typeof tGroup>[0];
   return (
@@ -31,6 +31,9 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
                   {t("roleIn", { role: tRole(r.role), event: r.eventName })}
                 </Link>
                 {r.taxonGroups.length ? <span className="block text-sm text-ink-soft">{t("groupsLimit", { groups: r.taxonGroups.map((g) => tGroup(g as Group)).join(", ") })}</span> : null}
+                {r.role !== "volunteer" ? (
+                  <Link href={`/events/${r.eventSlug}/review`} className="mt-1 inline-flex min-h-touch items-center font-semibold text-reed-800 underline">{tDesk("openDesk")}</Link>
+                ) : null}
               </li>
             ))}
           </ul>
