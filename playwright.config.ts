@@ -27,10 +27,14 @@ export default defineConfig({
     { name: "desktop", use: { ...devices["Desktop Chrome"], channel: undefined } },
   ],
   webServer: {
-    command: `node_modules/.bin/tsx --conditions=react-server tests/e2e/prepare-db.mts && exec node_modules/.bin/next start -H 127.0.0.1 -p ${PORT}`,
+    // The mail worker runs beside the server (as scripts/start.sh runs it), in the same
+    // process group, so Playwright stops both; its digest window is seconds here, not an hour.
+    command: `node_modules/.bin/tsx --require ./scripts/no-server-only.cjs tests/e2e/prepare-db.mts && ` +
+      `(node_modules/.bin/tsx --require ./scripts/no-server-only.cjs scripts/mail-worker.mts &) && exec node_modules/.bin/next start -H 127.0.0.1 -p ${PORT}`,
     url: `${baseURL}/api/health`,
     reuseExistingServer: false,
     timeout: 120_000,
-    env: { DATABASE_URL, APP_URL: baseURL, NEXT_TELEMETRY_DISABLED: "1", SMTP_HOST: "127.0.0.1", SMTP_PORT: String(SMTP_PORT), AUTH_SECRET: "e2e-secret-for-browser-tests-only" },
+    env: { DATABASE_URL, APP_URL: baseURL, NEXT_TELEMETRY_DISABLED: "1", SMTP_HOST: "127.0.0.1", SMTP_PORT: String(SMTP_PORT), AUTH_SECRET: "e2e-secret-for-browser-tests-only",
+      REVIEW_DIGEST_DELAY_SECONDS: "4", MAIL_WORKER_INTERVAL_MS: "500" },
   },
 });

@@ -1,7 +1,7 @@
 // The mail worker: gathers review decisions into digests and drains the e-mail outbox,
 // every MAIL_WORKER_INTERVAL_MS, until stopped (SIGINT/SIGTERM). Started by scripts/start.sh;
 // can run on its own machine, several at once (claims use SKIP LOCKED).
-//   npx tsx --conditions=react-server scripts/mail-worker.mts [--once]
+//   npx tsx --require ./scripts/no-server-only.cjs scripts/mail-worker.mts [--once]
 import { composeDigests } from "../db/queries/review-digest";
 import { env } from "../lib/env";
 import { drainOutbox } from "../lib/mail/outbox";

@@ -13,8 +13,8 @@ bash scripts/pg.sh ensure-db ecotone
 export DATABASE_URL="$(bash scripts/pg.sh url ecotone)"
 export APP_URL="${APP_URL:-http://localhost:3000}"
 npx tsx scripts/migrate.mts
-# The data layer is marked "server-only"; scripts that use it run under the react-server condition.
-npx tsx --conditions=react-server scripts/seed.mts
+# The data layer is marked "server-only"; scripts that use it preload scripts/no-server-only.cjs.
+npx tsx --require ./scripts/no-server-only.cjs scripts/seed.mts
 
 # The demo's e-mail: maildev catches every mail on 127.0.0.1:1025 and shows it at :1080.
 if ! (exec 3<>/dev/tcp/127.0.0.1/1025) 2>/dev/null; then
@@ -31,7 +31,7 @@ export SMTP_HOST=127.0.0.1 SMTP_PORT=1025 MAIL_INBOX_URL="http://localhost:1080"
 if [ -f "$ROOT/.data/mail-worker.pid" ] && kill -0 "$(cat "$ROOT/.data/mail-worker.pid")" 2>/dev/null; then
   log "Mail worker already running (pid $(cat "$ROOT/.data/mail-worker.pid"))"
 else
-  setsid node_modules/.bin/tsx --conditions=react-server scripts/mail-worker.mts >"$ROOT/.data/mail-worker.log" 2>&1 < /dev/null &
+  setsid node_modules/.bin/tsx --require ./scripts/no-server-only.cjs scripts/mail-worker.mts >"$ROOT/.data/mail-worker.log" 2>&1 < /dev/null &
   echo $! >"$ROOT/.data/mail-worker.pid"
 fi
 

@@ -1,0 +1,109 @@
+import { Client } from "pg";
+import { demoId } from "../../db/seed/random";
+import { E2E_DB_URL } from "./demo-ids";
+import { DEMO, expect, signInWithPassword, test } from "./support";
+
+// The birds coordinator at the review desk, by keyboard as far as it goes: only bird
+// sightings; the "outside the event area" mark as a filter; approve, reject with a reason,
+// return with a question; bulk approve of a filtered set of ten; the volunteers' digests.
+const caseId = (key: string) => demoId(`review-case:${key}`);
+
+test("a coordinator limited to birds decides the queue by keyboard and the volunteers get their digests", async ({ page, mail }) => {
+  test.setTimeout(120_000);
+  await signInWithPassword(page, DEMO.birdsCoordinator);
+  await page.getByRole("link", { name: "Open the review desk" }).click();
+  await expect(page.getByRole("heading", { level: 1, name: "Review desk" })).toBeVisible();
+  await expect(page.getByText("You review these taxon groups only: Birds.")).toBeVisible();
+  await expect(page.getByText("Times are shown in the event's time zone (Europe/London).")).toBeVisible();
+  // The keys are documented on screen.
+  const keys = page.getByRole("complementary", { name: "Keyboard" });
+  for (const k of ["next sighting", "approve", "reject with a reason", "return with a question", "re-identify"]) await expect(keys).toContainText(k);
+
+  const queue = page.getByRole("table", { name: "Queue" });
+  const rows = queue.getByRole("row").filter({ has: page.getByRole("cell") });
+  await expect(rows.first()).toBeVisible();
+  const shown = await rows.count();
+  expect(shown).toBeGreaterThan(10);
+  for (let i = 0; i < shown; i++) await expect(rows.nth(i)).toContainText("Birds");
+  await expect(queue).not.toContainText("Vascular plants");
+
+  // Filter by the mark: three pending bird sightings outside the area (the nettle outside it is not a bird).
+  await page.getByLabel("Check mark").selectOption({ label: "Outside the event area" });
+  await expect(rows).toHaveCount(3);
+  await expect(queue).not.toContainText("Common nettle");
+  for (let i = 0; i < 3; i++) await expect(rows.nth(i)).toContainText("Outside the event area");
+  await page.getByRole("heading", { level: 1, name: "Review desk" }).click(); // leave the select, as a keyboard user would with Tab
+
+  // Approve the first by keyboard: J selects, A approves.
+  await page.keyboard.press("j");
+  await expect(rows.first()).toHaveAttribute("aria-selected", "true");
+  await expect(page.getByRole("heading", { level: 2, name: /Common chaffinch/ })).toBeVisible();
+  await expect(page.getByRole("img", { name: "Map of the event area and zones with this sighting" })).toBeVisible();
+  await page.keyboard.press("a");
+  await expect(page.getByRole("status")).toHaveText("Saved: Approve.");
+  await expect(rows).toHaveCount(2);
+
+  // Reject the next with a reason: R opens the form with the reason list focused.
+  await expect(page.getByRole("heading", { level: 2, name: /Common blackbird/ })).toBeVisible();
+  await page.keyboard.press("r");
+  await expect(page.getByLabel("Reason")).toBeFocused();
+  await page.getByLabel("Reason").selectOption({ label: "Outside the event (place or time)" });
+  await page.getByLabel("Note to the volunteer (optional)").fill("The lane is outside the reserve boundary.");
+  await page.getByRole("button", { name: "Save decision" }).click();
+  await expect(page.getByRole("status")).toHaveText("Saved: Reject.");
+  await expect(rows).toHaveCount(1);
+
+  // Return the last with a question: Q opens the question box.
+  await expect(page.getByRole("heading", { level: 2, name: /European robin/ })).toBeVisible();
+  await page.getByRole("heading", { level: 1, name: "Review desk" }).click();
+  await page.keyboard.press("q");
+  const question = "Were you standing inside the reserve when you heard it?";
+  await expect(page.getByLabel("Question to the volunteer")).toBeFocused();
+  await page.keyboard.type(question);
+  await page.getByRole("button", { name: "Save decision" }).click();
+  await expect(page.getByRole("status")).toHaveText("Saved: Return with a question.");
+  await expect(page.getByText("No sightings match these filters.")).toBeVisible();
+
+  // Bulk approve a filtered set of ten, after a confirmation that says how many.
+  await page.getByLabel("Check mark").selectOption({ label: "Poor location accuracy" });
+  await expect(rows).toHaveCount(10);
+  await page.getByRole("button", { name: /Approve all pending that match/ }).click();
+  const confirm = page.getByRole("alertdialog");
+  await expect(confirm).toContainText("Approve 10 pending sightings that match these filters?");
+  await confirm.getByRole("button", { name: "Yes, approve 10" }).click();
+  await expect(page.getByRole("status")).toHaveText("10 sightings approved.");
+  await expect(page.getByText("No sightings match these filters.")).toBeVisible();
+
+  // What was stored: each decision in the history, the question in reviews.message.
+  const db = new Client({ connectionString: E2E_DB_URL });
+  await db.connect();
+  try {
+    const { rows: decided } = await db.query<{ id: string; state: string; to_state: string; reason: string; message: string; reviewer: string }>(`
+      SELECT s.id, s.review_state AS state, r.to_state, r.reason, r.message, u.email AS reviewer
+      FROM sightings s JOIN reviews r ON r.sighting_id = s.id JOIN users u ON u.id = r.reviewer_id WHERE s.id = ANY($1::uuid[])`,
+      [[caseId("outside-area:1"), caseId("outside-area:2"), caseId("outside-area:3")]]);
+    const by = Object.fromEntries(decided.map((d) => [d.id, d]));
+    expect(by[caseId("outside-area:3")]).toMatchObject({ state: "approved", to_state: "approved", reviewer: DEMO.birdsCoordinator });
+    expect(by[caseId("outside-area:2")]).toMatchObject({ state: "rejected", reason: "outside_event", message: "The lane is outside the reserve boundary." });
+    expect(by[caseId("outside-area:1")]).toMatchObject({ state: "returned", message: question });
+    const bulk = await db.query<{ n: number }>(`SELECT count(*)::int AS n FROM sightings WHERE id = ANY($1::uuid[]) AND review_state = 'approved'`,
+      [Array.from({ length: 10 }, (_, i) => caseId(`poor-accuracy:${i + 1}`))]);
+    expect(bulk.rows[0]!.n).toBe(10);
+    const plant = await db.query<{ review_state: string }>(`SELECT review_state FROM sightings WHERE id = $1`, [caseId("poor-accuracy:plant")]);
+    expect(plant.rows[0]!.review_state).toBe("pending");
+  } finally {
+    await db.end();
+  }
+
+  // The digests, one per volunteer, in each volunteer's language.
+  const ten = await mail.waitFor("volunteer6@example.org", (m) => /Approved:/.test(m.text), 45_000);
+  expect(ten.text.match(/^- Approved:/gm)?.length).toBe(10);
+  expect(ten.subject).toBe("10 review decisions on your sightings");
+  const returned = await mail.waitFor("volunteer1@example.org", (m) => m.text.includes(question), 45_000);
+  expect(returned.text).toMatch(/Returned with a question: European robin \(Erithacus rubecula\)/);
+  const rejected = await mail.waitFor("volunteer2@example.org", (m) => /Not accepted/.test(m.text), 45_000);
+  expect(rejected.text).toMatch(/Not accepted: Common blackbird \(Turdus merula\) ×2, .*Reason: Outside the event \(place or time\)/);
+  expect(rejected.text).toContain("Coordinator's note: The lane is outside the reserve boundary.");
+  const approved = await mail.waitFor("volunteer3@example.org", (m) => /Aprobada/.test(m.text), 45_000); // Lucía reads Spanish
+  expect(approved.text).toMatch(/Aprobada: .*Fringilla coelebs/);
+});
