@@ -6,10 +6,10 @@ import { MarkChips, StateBadge } from "./badges";
 import type { DetailResponse } from "./desk-api";
 import { ZoneMap } from "./zone-map";
 
-type Props = { detail: DetailResponse; timeZone: string };
+type Props = { detail: DetailResponse; timeZone: string; eventId: string };
 
 // What a reviewer needs to judge one sighting. Times in the event's time zone (said above).
-export function DetailPane({ detail, timeZone }: Props) {
+export function DetailPane({ detail, timeZone, eventId }: Props) {
   const t = useTranslations("ReviewDesk.detail");
   const tKind = useTranslations("ReviewDesk.sessionKinds");
   const tQueue = useTranslations("ReviewDesk.queue");
@@ -69,8 +69,18 @@ export function DetailPane({ detail, timeZone }: Props) {
       <section aria-labelledby="photos-title">
         <h3 id="photos-title" className="font-bold text-reed-900">{t("photos")}</h3>
         {detail.photos.length ? (
-          <ul className="list-disc pl-5 text-sm">
-            {detail.photos.map((p) => <li key={p.id}>{t("photoLine", { type: p.contentType, kb: Math.round(p.sizeBytes / 1024) })}</li>)}
+          <ul className="flex flex-wrap gap-2 text-sm">
+            {detail.photos.map((p) => (
+              <li key={p.id}>
+                {/* The photo handler (GET /api/events/[eventId]/photos/[photoId]?size=thumb|full) checks the
+                    reviewer's right and redirects to a short-lived link; full size only on demand. */}
+                <a href={`/api/events/${eventId}/photos/${p.id}?size=full`} target="_blank" rel="noopener" className="block underline">
+                  <img src={`/api/events/${eventId}/photos/${p.id}?size=thumb`} alt={t("photoLine", { type: p.contentType, kb: Math.round(p.sizeBytes / 1024) })}
+                    loading="lazy" className="h-24 w-24 rounded border border-reed-200 object-cover" />
+                  <span className="sr-only">{t("photoFull")}</span>
+                </a>
+              </li>
+            ))}
           </ul>
         ) : <p className="text-sm">{t("noPhotos")}</p>}
       </section>

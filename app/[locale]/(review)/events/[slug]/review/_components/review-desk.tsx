@@ -250,7 +250,7 @@ export function ReviewDesk(props: Props) {
                 key={current.id} item={current} mode={mode} setMode={setMode} reasons={props.reasons} eventId={eventId}
                 busy={busy} onDecide={(body) => void decide(current, body)}
               />
-              {detail.data && detail.data.sighting.id === current.id ? <DetailPane detail={detail.data} timeZone={timeZone} /> : <p>{t("detail.loading")}</p>}
+              {detail.data && detail.data.sighting.id === current.id ? <DetailPane detail={detail.data} timeZone={timeZone} eventId={eventId} /> : <p>{t("detail.loading")}</p>}
             </>
           ) : <p>{t("detail.noneSelected")}</p>}
         </section>
