@@ -223,6 +223,7 @@ export const sightings = pgTable("sightings", {
   // The review queue, newest or oldest observed first, with and without a state filter.
   index("sightings_queue_observed_idx").on(t.eventId, t.reviewState, t.observedAt, t.id),
   index("sightings_queue_all_observed_idx").on(t.eventId, t.observedAt, t.id),
+  index("sightings_duplicate_idx").on(t.eventId, t.userId, t.taxonId, t.observedAt), // the "possible duplicate" check mark
   index("sightings_results_idx").on(t.eventId, t.reviewState, t.taxonId),
   index("sightings_session_idx").on(t.sessionId),
   index("sightings_user_idx").on(t.userId, t.observedAt),

@@ -42,6 +42,7 @@ if (exec 3<>/dev/tcp/127.0.0.1/3000) 2>/dev/null; then
   die "Something already answers on port 3000. Stop it (or the earlier Ecotone server) and run this again."
 fi
 log "Ecotone is starting on http://localhost:3000  (stop with Ctrl-C; PostgreSQL keeps running: npm run db:stop)"
-log "Demo e-mail inbox (sign-in links, invitations): http://localhost:1080"
+log "Demo e-mail inbox (sign-in links, invitations, review digests): http://localhost:1080"
+log "Mail worker: .data/mail-worker.log (stop it with: kill \$(cat .data/mail-worker.pid))"
 log "Demo sign-in addresses are listed in README.md (password: harrowmere-demo)"
 exec node_modules/.bin/next start -H 127.0.0.1 -p 3000

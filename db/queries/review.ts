@@ -36,7 +36,7 @@ export function decodeCursor(cursor: string): { observedAt: string; id: string }
 /** The WHERE clause shared by the queue, the counts and bulk approve. */
 function filterSql(scope: ReviewScope, f: Omit<QueueFilters, "order">, opts: { withState: boolean }): SQL {
   const parts: SQL[] = [sql`s.event_id = ${scope.eventId}`];
-  if (scope.taxonGroups.length) parts.push(sql`t.taxon_group::text = ANY(${`{${scope.taxonGroups.join(",")}}`}::text[])`);
+  if (scope.taxonGroups.length) parts.push(sql`t.taxon_group = ANY(${`{${scope.taxonGroups.join(",")}}`}::taxon_group[])`);
   if (opts.withState && f.state) parts.push(sql`s.review_state = ${f.state}`);
   if (f.zone === "none") parts.push(sql`s.zone_id IS NULL`);
   else if (f.zone) parts.push(sql`s.zone_id = ${f.zone}`);
@@ -300,7 +300,7 @@ export async function searchTaxa(scope: ReviewScope, q: string, limit = 12) {
       EXISTS (SELECT 1 FROM event_species es WHERE es.event_id = ${scope.eventId} AND es.taxon_id = t.id) AS "onList"
     FROM taxa t
     WHERE (t.scientific_name ILIKE ${like} OR EXISTS (SELECT 1 FROM taxon_names n WHERE n.taxon_id = t.id AND n.name ILIKE ${like}))
-      ${scope.taxonGroups.length ? sql`AND t.taxon_group::text = ANY(${`{${scope.taxonGroups.join(",")}}`}::text[])` : sql``}
+      ${scope.taxonGroups.length ? sql`AND t.taxon_group = ANY(${`{${scope.taxonGroups.join(",")}}`}::taxon_group[])` : sql``}
     ORDER BY "onList" DESC, t.scientific_name LIMIT ${limit}`);
   return rows;
 }

@@ -39,6 +39,19 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   await expect(rows.first()).toHaveAttribute("aria-selected", "true");
   await expect(page.getByRole("heading", { level: 2, name: /Common chaffinch/ })).toBeVisible();
   await expect(page.getByRole("img", { name: "Map of the event area and zones with this sighting" })).toBeVisible();
+
+  // Meanwhile the sighting changes under the coordinator (another session moved its version):
+  // the optimistic approval is refused with the conflict message and rolled back.
+  const admin = new Client({ connectionString: E2E_DB_URL });
+  await admin.connect();
+  await admin.query("UPDATE sightings SET version = version + 1 WHERE id = $1", [caseId("outside-area:3")]);
+  await admin.end();
+  await page.keyboard.press("a");
+  await expect(page.getByRole("status")).toContainText("Not saved, shown as it was: Someone else decided this sighting first: it is now Pending (version 2).");
+  await expect(rows).toHaveCount(3);
+  await expect(rows.first()).toHaveAttribute("aria-selected", "true");
+  // The desk reloaded the sighting; the second try goes through.
+  await expect(page.getByText("Version 2", { exact: true })).toBeVisible();
   await page.keyboard.press("a");
   await expect(page.getByRole("status")).toHaveText("Saved: Approve.");
   await expect(rows).toHaveCount(2);

@@ -71,6 +71,9 @@ export function ReviewDesk(props: Props) {
 
   const decide = useCallback(async (item: QueueItem, body: DecisionBody) => {
     const toState: ReviewStateName = body.action === "reidentify" ? item.reviewState : TO_STATE[body.action];
+    // The version the coordinator is looking at: the detail pane may be fresher than the list.
+    const shown = detail.data?.sighting.id === item.id ? detail.data.sighting.version : 0;
+    const seenVersion = Math.max(item.version, shown);
     const leaves = Boolean(filters.state && filters.state !== toState);
     const label = t(`actions.${body.action}`);
     const before = queue.data;
@@ -85,12 +88,15 @@ export function ReviewDesk(props: Props) {
     if (!leaves) setSelected((i) => Math.min(i + 1, items.length - 1));
     try {
       await queue.mutate(async () => {
-        await postJson(`${base}/sightings/${item.id}/decisions`, { ...body, version: item.version }, t("errors.network"));
+        await postJson(`${base}/sightings/${item.id}/decisions`, { ...body, version: seenVersion }, t("errors.network"));
         return undefined;
       }, { optimisticData: optimistic, rollbackOnError: true, populateCache: false, revalidate: true });
       setStatus({ text: t("actions.saved", { decision: label }) });
     } catch (err) {
+      // Rolled back to what was shown; then reloaded, so a second try uses the current version.
       setStatus({ text: t("actions.refused", { message: err instanceof DeskError ? err.message : t("errors.network") }), bad: true });
+      if (!leaves) setSelected((i) => Math.max(i - 1, 0));
+      void queue.mutate();
     } finally {
       setBusy(false);
       void detail.mutate();
