@@ -89,6 +89,8 @@ try {
   const markFirst = await time(() => reviewQueue(all, queueFilters.parse({ state: "pending", marks: "poor_accuracy" }), null, QUEUE_PAGE_SIZE, db));
   const counts = await time(() => queueCounts(all, pendingNewest, db));
 
+  const batch = ids.slice(0, 100);
+  const marks100 = await time(() => refreshCheckMarks(db, batch));
   const target = "< 100 ms";
   const row = (figure: string, ms: number, t = target, limit = 100): BenchRow => ({ part: "queue", figure, value: `${ms.toFixed(1)} ms`, target: t, met: ms < limit });
   const rows: BenchRow[] = [
@@ -99,6 +101,8 @@ try {
     row(`first page for a coordinator limited to birds`, birdsFirst),
     row(`first page filtered by a check mark (poor accuracy)`, markFirst),
     row(`counts per state (whole event)`, counts, "< 250 ms", 250),
+    row(`check marks recomputed for a sync batch of 100 sightings`, marks100, "< 500 ms", 500),
+    { part: "queue", figure: `check marks for all ${total} sightings, in chunks of 5,000 (set-up)`, value: `${marksS.toFixed(1)} s` },
   ];
   for (const r of rows) console.log(`  ${r.figure}: ${r.value}`);
   reportRows(rows);

@@ -62,23 +62,30 @@ async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
     WITH given AS (
       SELECT s.* FROM sightings s WHERE s.id = ANY(${idArray})
     ),
+    -- LATERAL: one index lookup (sightings_duplicate_idx) per given record, never a join over the event.
     partners AS (
-      SELECT o.id FROM given g
-      JOIN sightings o ON o.user_id = g.user_id AND o.event_id = g.event_id AND o.taxon_id = g.taxon_id AND o.id <> g.id
-        AND o.observed_at BETWEEN g.observed_at - make_interval(mins => ${DUPLICATE_MINUTES}) AND g.observed_at + make_interval(mins => ${DUPLICATE_MINUTES})
-        AND ST_DWithin(o.location::geography, g.location::geography, ${DUPLICATE_METRES})
+      SELECT p.id FROM given g
+      CROSS JOIN LATERAL (
+        SELECT o.id FROM sightings o
+        WHERE o.event_id = g.event_id AND o.user_id = g.user_id AND o.taxon_id = g.taxon_id AND o.id <> g.id
+          AND o.observed_at BETWEEN g.observed_at - make_interval(mins => ${DUPLICATE_MINUTES}) AND g.observed_at + make_interval(mins => ${DUPLICATE_MINUTES})
+          AND ST_DWithin(o.location::geography, g.location::geography, ${DUPLICATE_METRES})
+      ) p
     ),
     target AS (
-      SELECT s.* FROM sightings s WHERE s.id IN (SELECT id FROM given UNION SELECT id FROM partners)
+      SELECT s.* FROM (SELECT id FROM given UNION SELECT id FROM partners) ids JOIN sightings s ON s.id = ids.id
     ),
+    -- Per taxon present in this batch, through sightings_results_idx (event, state, taxon).
     taxon_stats AS (
-      SELECT o.event_id, o.taxon_id, count(*) AS n,
-        percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,
-        percentile_cont(0.75) WITHIN GROUP (ORDER BY ln(o.count)) AS q3
-      FROM sightings o
-      WHERE (o.event_id, o.taxon_id) IN (SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL)
-        AND o.review_state <> 'rejected'
-      GROUP BY o.event_id, o.taxon_id
+      SELECT k.event_id, k.taxon_id, x.n, x.q1, x.q3
+      FROM (SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL) k
+      CROSS JOIN LATERAL (
+        SELECT count(*) AS n,
+          percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,
+          percentile_cont(0.75) WITHIN GROUP (ORDER BY ln(o.count)) AS q3
+        FROM sightings o
+        WHERE o.event_id = k.event_id AND o.taxon_id = k.taxon_id AND o.review_state IN ('pending', 'approved', 'returned')
+      ) x
     ),
     computed AS (
       SELECT s.id, array_remove(ARRAY[
