@@ -51,7 +51,7 @@ export async function requireEventRole(eventId: string, minimum: EventRole): Pro
 
 /** requireEventRole's check for a person already known (a signed-in user, or a test's person). */
 export async function eventPermitFor(user: SessionUser, eventId: string, minimum: EventRole): Promise<EventPermit> {
-  if (!/^[0-9a-f-]{36}$/i.test(eventId)) throw new ApiError("not_found");
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(eventId)) throw new ApiError("not_found"); // never a malformed uuid to PostgreSQL
   const access = await eventAccess(user.id, eventId);
   if (!access) throw new ApiError("not_found");
   const role = effectiveRole(user, access);

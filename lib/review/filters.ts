@@ -11,7 +11,8 @@ export type ReviewStateName = (typeof REVIEW_STATES)[number];
 export type CheckMarkName = (typeof CHECK_MARKS)[number];
 export type TaxonGroupName = (typeof TAXON_GROUPS)[number];
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/).refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), "invalid date");
+// A calendar day between 1900 and 2099 that exists (no 30 February).
+const isoDate = z.string().regex(/^(19|20)\d{2}-\d{2}-\d{2}$/).refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), "invalid date");
 
 export const queueFilters = z.object({
   state: z.enum(REVIEW_STATES).optional(),

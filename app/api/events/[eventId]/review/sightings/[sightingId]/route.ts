@@ -1,6 +1,6 @@
 import { sightingDetail } from "@/db/queries/review";
 import { ApiError, handle } from "@/lib/http/errors";
-import { requireReviewPermit } from "@/lib/review/permit";
+import { requireReviewPermit, UUID } from "@/lib/review/permit";
 
 export const dynamic = "force-dynamic";
 
@@ -9,7 +9,7 @@ export const dynamic = "force-dynamic";
 export const GET = handle(async (request, ctx: { params: Promise<{ eventId: string; sightingId: string }> }) => {
   const { eventId, sightingId } = await ctx.params;
   const { scope } = await requireReviewPermit(eventId, request);
-  if (!/^[0-9a-f-]{36}$/i.test(sightingId)) throw new ApiError("not_found");
+  if (!UUID.test(sightingId)) throw new ApiError("not_found");
   const detail = await sightingDetail(scope, sightingId);
   if (detail.check !== "ok") throw new ApiError(detail.check);
   const { check: _c, ...body } = detail;

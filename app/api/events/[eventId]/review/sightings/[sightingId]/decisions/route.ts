@@ -3,7 +3,7 @@ import { parseJson } from "@/lib/http/body";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
 import { limitWrites } from "@/lib/http/rate-limit";
 import { translator } from "@/lib/i18n/translator";
-import { requireReviewPermit } from "@/lib/review/permit";
+import { requireReviewPermit, UUID } from "@/lib/review/permit";
 import { decisionInput } from "./schema";
 
 // A coordinator's decision on one sighting. A stale version (someone decided first) is a 409
@@ -12,7 +12,7 @@ export const POST = handle(async (request, ctx: { params: Promise<{ eventId: str
   const { eventId, sightingId } = await ctx.params;
   const { user, scope } = await requireReviewPermit(eventId, request);
   limitWrites(`review:${user.id}`, 240);
-  if (!/^[0-9a-f-]{36}$/i.test(sightingId)) throw new ApiError("not_found");
+  if (!UUID.test(sightingId)) throw new ApiError("not_found");
   const input = await parseJson(request, decisionInput);
   const t = translator(requestLocale(request), "ReviewDesk");
   const result = await decide(scope, user.id, sightingId, input);
