@@ -34,13 +34,13 @@ try {
   const eventId = event!.id;
 
   let t0 = performance.now();
-  // Generated records spread over the event's 48 hours, its four zones, every taxon on the
+  // Generated records (counts mostly 1-4, one in ten 6-30) spread over the event's 48 hours, its four zones, every taxon on the
   // list and the six volunteers; a quarter decided (state set directly, no history: the
   // queue reads only the current state).
   await db.execute(sql`
     INSERT INTO sightings (id, event_id, user_id, taxon_id, count, observed_at, location, accuracy_m, zone_id, review_state, created_at)
     SELECT gen_random_uuid(), ${eventId}, v.ids[1 + (i % array_length(v.ids, 1))], t.ids[1 + ((i * 7919) % array_length(t.ids, 1))],
-      1 + (i % 9), e.starts_at + ((i::float8 / ${N}) * (e.ends_at - e.starts_at)),
+      CASE WHEN i % 10 = 0 THEN 6 + (i % 25) ELSE 1 + (i % 4) END, e.starts_at + ((i::float8 / ${N}) * (e.ends_at - e.starts_at)),
       ST_SetSRID(ST_MakePoint(-1.8190 + (i % 97) * 0.00018, 52.1010 + (i % 89) * 0.0001), 4326), 5 + (i % 40),
       z.ids[1 + (i % array_length(z.ids, 1))],
       (ARRAY['pending','pending','pending','approved','approved','rejected','returned','pending']::review_state[])[1 + (i % 8)],

@@ -33,6 +33,7 @@ export const HIGH_COUNT_FLOOR = 5;
 export const DUPLICATE_MINUTES = 10;
 export const DUPLICATE_METRES = 50;
 /** Counts above these are marked when a taxon has too few records at the event for quartiles (common practice). */
+// Every threshold is above HIGH_COUNT_FLOOR (a unit test checks), so counts at or below the floor need no statistics.
 export const GROUP_THRESHOLDS = {
   birds: 50, vascular_plants: 200, insects: 100, fungi: 50, mammals: 10, amphibians_reptiles: 30, molluscs: 50, other: 50,
 } as const;
@@ -75,10 +76,12 @@ async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
     target AS (
       SELECT s.* FROM (SELECT id FROM given UNION SELECT id FROM partners) ids JOIN sightings s ON s.id = ids.id
     ),
-    -- Per taxon present in this batch, through sightings_results_idx (event, state, taxon).
+    -- Per taxon in this batch, through sightings_results_idx (event, state, taxon); only for
+    -- taxa with a record above the floor, since no count at or below it is ever marked
+    -- (every group threshold is above the floor too).
     taxon_stats AS (
       SELECT k.event_id, k.taxon_id, x.n, x.q1, x.q3
-      FROM (SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL) k
+      FROM (SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL AND count > ${HIGH_COUNT_FLOOR}) k
       CROSS JOIN LATERAL (
         SELECT count(*) AS n,
           percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,

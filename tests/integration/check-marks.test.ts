@@ -1,6 +1,6 @@
 import { eq, inArray } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
-import { GROUP_THRESHOLDS, refreshCheckMarks } from "@/db/queries/check-marks";
+import { GROUP_THRESHOLDS, HIGH_COUNT_FLOOR, refreshCheckMarks } from "@/db/queries/check-marks";
 import * as s from "@/db/schema";
 import { db, makeFixture, pointSql, sightingValues } from "./helpers";
 
@@ -34,6 +34,10 @@ beforeAll(async () => {
 });
 
 describe("automatic check marks", () => {
+  it("keeps every per-group threshold above the floor, so small counts need no statistics", () => {
+    for (const n of Object.values(GROUP_THRESHOLDS)) expect(n).toBeGreaterThan(HIGH_COUNT_FLOOR);
+  });
+
   it("leaves a clean sighting unmarked", async () => {
     expect(await marksOf(await store({ observedAt: new Date("2026-06-20T06:00:00Z") }))).toEqual([]);
   });
