@@ -2,6 +2,7 @@ import "server-only";
 import { and, eq } from "drizzle-orm";
 import { getDb } from "../client";
 import { photos, sightings, taxa } from "../schema";
+import { refreshCheckMarks } from "./check-marks";
 
 // Photos of sightings: the rows the photo handlers read and write. The pictures themselves
 // live in the S3 photo store (lib/storage/s3.ts), under photos.storage_key.
@@ -27,8 +28,11 @@ export async function findPhoto(photoId: string): Promise<PhotoRow | null> {
   return row ? { ...row.photo, sighting: row.sighting } : null;
 }
 
-/** Inserts the photo row; false when a row with this id already existed. */
+/** Inserts the photo row (and refreshes the sighting's check marks: "photo missing"); false when a row with this id already existed. */
 export async function insertPhoto(row: typeof photos.$inferInsert): Promise<boolean> {
-  const inserted = await getDb().insert(photos).values(row).onConflictDoNothing({ target: photos.id }).returning({ id: photos.id });
-  return inserted.length === 1;
+  return getDb().transaction(async (tx) => {
+    const inserted = await tx.insert(photos).values(row).onConflictDoNothing({ target: photos.id }).returning({ id: photos.id });
+    if (inserted.length) await refreshCheckMarks(tx, [row.sightingId]);
+    return inserted.length === 1;
+  });
 }

@@ -48,6 +48,9 @@ describe("a sighting's photo", () => {
     expect(await confirmPhoto(me(), declared.id)).toMatchObject({ outcome: "created", width: 64, height: 48 });
     const [row] = await db().select().from(s.photos).where(eq(s.photos.id, declared.id));
     expect(row).toMatchObject({ sightingId, contentType: "image/jpeg", width: 64, height: 48 });
+    // The sighting's check marks follow: an off-list record with a photo is no longer "photo missing".
+    const [sighting] = await db().select({ marks: s.sightings.checkMarks }).from(s.sightings).where(eq(s.sightings.id, sightingId));
+    expect(sighting!.marks).toEqual(["not_on_list"]);
 
     // What is stored is read back through a presigned GET, as the review desk will.
     const full = Buffer.from(await (await fetch(await photoLink({ ...me(), role: "volunteer", taxonGroups: [] }, declared.id, "full"))).arrayBuffer());
