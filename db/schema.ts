@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
 import {
-  bigserial, boolean, check, customType, index, integer, jsonb, pgEnum, pgTable,
+  bigint, bigserial, boolean, check, customType, index, integer, jsonb, pgEnum, pgTable,
   primaryKey, real, smallint, text, timestamp, uniqueIndex, uuid, varchar,
 } from "drizzle-orm/pg-core";
 
@@ -334,3 +334,24 @@ export const membershipLog = pgTable("membership_log", {
   taxonGroups: taxonGroup("taxon_groups").array(),
   at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
 }, (t) => [index("membership_log_event_idx").on(t.eventId, t.at)]);
+
+// ---------------------------------------------------------------- results aggregates (issue 7)
+// Kept in step with approved sightings by statement-level triggers (migration 0007), so
+// the results page reads a few thousand aggregate rows instead of grouping every sighting.
+// zone_key is the zone, or the nil UUID for a sighting outside every zone.
+export const resultTaxonCounts = pgTable("result_taxon_counts", {
+  eventId: uuid("event_id").notNull(),
+  zoneKey: uuid("zone_key").notNull(),
+  taxonId: uuid("taxon_id").notNull(),
+  individuals: bigint("individuals", { mode: "number" }).notNull(),
+  sightings: integer("sightings").notNull(),
+}, (t) => [primaryKey({ columns: [t.eventId, t.zoneKey, t.taxonId] })]);
+
+// Presence of a taxon in a count session (approved sightings only); whether the session
+// counts as a complete incidence sample, and its zone, are read from count_sessions.
+export const resultSessionTaxa = pgTable("result_session_taxa", {
+  eventId: uuid("event_id").notNull(),
+  sessionId: uuid("session_id").notNull(),
+  taxonId: uuid("taxon_id").notNull(),
+  sightings: integer("sightings").notNull(),
+}, (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.taxonId] })]);
