@@ -6,6 +6,7 @@ import {
   SECOND_PEOPLE, SECOND_ZONES, type DemoPerson, type DemoZone,
 } from "./demo-scenario";
 import { demoId, seededRandom } from "./random";
+import { SENSITIVE_DEMO_RECORDS } from "./sensitive";
 import { SEED_TAXA, type SeedTaxon } from "./taxa";
 
 type Db = NodePgDatabase<typeof s>;
@@ -161,6 +162,23 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
         await tx.update(s.sightings).set({ reviewState: toState, version: 2, updatedAt: decidedAt }).where(eq(s.sightings.id, row.id));
       }
       for (let i = 0; i < reviewRows.length; i += 200) await tx.insert(s.reviews).values(reviewRows.slice(i, i + 200));
+    }
+
+    // Approved records of the sensitive taxa, outside sessions (db/seed/sensitive.ts).
+    for (const r of SENSITIVE_DEMO_RECORDS) {
+      const id = demoId(`sensitive:${r.key}`);
+      const observedAt = new Date(DEMO_EVENT.startsAt.getTime() + r.hour * 3_600_000);
+      const inserted = await tx.insert(s.sightings).values({
+        id, eventId, userId: people.get(r.volunteer)!, taxonId: taxonIds.get(r.scientificName)!, count: r.count,
+        observedAt, location: pointSql(r.lon, r.lat) as unknown as string, accuracyM: 10, zoneId: zoneIds.get(r.zone)!,
+        reviewState: "approved", version: 2, checkMarks: ["sensitive_taxon"],
+      }).onConflictDoNothing().returning({ id: s.sightings.id });
+      if (inserted.length) {
+        await tx.insert(s.reviews).values({
+          sightingId: id, reviewerId: people.get("coord-all")!, decidedAt: new Date(observedAt.getTime() + 3 * 3_600_000),
+          fromState: "pending", toState: "approved",
+        });
+      }
     }
 
     // The second event, open now; volunteer1 records at both events.
