@@ -35,4 +35,10 @@ export const ROUTES: RouteCase[] = [
   { file: "app/api/auth/[...nextauth]/route.ts", method: "GET", path: () => "/api/auth/providers", allowed: EVERYONE, note: "public: how a session starts" },
   { file: "app/api/auth/[...nextauth]/route.ts", method: "POST", path: () => "/api/auth/_log", allowed: EVERYONE, note: "public: how a session starts" },
   { file: "app/api/account/password/route.ts", method: "PUT", path: () => "/api/account/password", body: () => ({ password: "short" }), allowed: SIGNED_IN },
+  { file: "app/api/events/[eventId]/results/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/results`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/live/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/live`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/reports/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/reports`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/reports/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/reports`, allowed: ORGANISERS, note: "publishes a new report version" },
+  { file: "app/api/events/[eventId]/reports/[version]/check/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/reports/1/check`, allowed: COORDINATORS, note: "404 when no version 1 yet" },
+  { file: "app/api/reports/[reportId]/[file]/route.ts", method: "GET", path: () => "/api/reports/00000000-0000-0000-0000-000000000000/species.csv", allowed: EVERYONE, note: "public: published report downloads (404 for an unknown report)" },
 ];
