@@ -23,7 +23,7 @@ CREATE OR REPLACE FUNCTION ecotone_results_sync() RETURNS trigger
 LANGUAGE plpgsql AS $$
 DECLARE
   plus text := 'SELECT event_id, coalesce(zone_id, ''00000000-0000-0000-0000-000000000000''::uuid) AS zone_key, session_id, taxon_id, count::bigint AS individuals, 1 AS sightings FROM ecotone_new WHERE review_state = ''approved'' AND taxon_id IS NOT NULL';
-  minus text := 'SELECT event_id, coalesce(zone_id, ''00000000-0000-0000-0000-000000000000''::uuid), session_id, taxon_id, -count::bigint, -1 FROM ecotone_old WHERE review_state = ''approved'' AND taxon_id IS NOT NULL';
+  minus text := 'SELECT event_id, coalesce(zone_id, ''00000000-0000-0000-0000-000000000000''::uuid) AS zone_key, session_id, taxon_id, -count::bigint AS individuals, -1 AS sightings FROM ecotone_old WHERE review_state = ''approved'' AND taxon_id IS NOT NULL';
   delta text;
 BEGIN
   -- The transition tables that exist depend on the operation, so the delta is built as text.
