@@ -1,9 +1,9 @@
-import { getFormatter, getTranslations } from "next-intl/server";
+import { getFormatter, getLocale, getTranslations } from "next-intl/server";
 import type { Comparison } from "@/lib/results/compute";
 
 /** Zones at equal effort (sample size and coverage), with plain-language sentences and the caution beside them. */
 export async function ZoneComparison({ comparison }: { comparison: Comparison | null }) {
-  const [t, tHabitat, format] = await Promise.all([getTranslations("Results"), getTranslations("Habitat"), getFormatter()]);
+  const [t, tHabitat, format, locale] = await Promise.all([getTranslations("Results"), getTranslations("Habitat"), getFormatter(), getLocale()]);
   type Habitat = Parameters<typeof tHabitat>[0];
   const n = (v: number) => (Number.isFinite(v) ? format.number(v, { maximumFractionDigits: 1 }) : t("undefinedValue"));
   return (
@@ -35,7 +35,9 @@ export async function ZoneComparison({ comparison }: { comparison: Comparison | 
             {comparison.sentences.map((s) => {
               const a = comparison.zones.find((z) => z.id === s.a)!;
               const b = comparison.zones.find((z) => z.id === s.b)!;
-              const values = { a: a.name, aHabitat: tHabitat(a.habitat as Habitat), b: b.name, bHabitat: tHabitat(b.habitat as Habitat) };
+              // Mid-sentence, the habitat word is written in lower case ("Alder Fringe (edge)").
+              const lower = (h: string) => tHabitat(h as Habitat).toLocaleLowerCase(locale);
+              const values = { a: a.name, aHabitat: lower(a.habitat), b: b.name, bHabitat: lower(b.habitat) };
               return (
                 <li key={`${s.a}-${s.b}`}>
                   {t(`comparison.sentence.${s.verdict}`, values)} {t(s.overlap ? "comparison.overlap" : "comparison.noOverlap")}
