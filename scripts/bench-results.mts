@@ -62,7 +62,7 @@ async function seed(): Promise<string> {
   const db = getDb();
   const t0 = Date.now();
   await db.execute(sql`INSERT INTO organisations (slug, name) VALUES ('bench', 'Bench Trust')`);
-  await db.execute(sql`INSERT INTO users (email, name) SELECT 'bench' || g || '@example.org', 'Bench ' || g FROM generate_series(1, ${VOLUNTEERS}) g`);
+  await db.execute(sql`INSERT INTO users (email, name) SELECT 'bench' || g || '@example.org', 'Bench ' || g FROM generate_series(1, ${VOLUNTEERS}::int) g`);
   const [ev] = (await db.execute<{ id: string }>(sql`
     INSERT INTO events (organisation_id, slug, name, status, starts_at, ends_at, time_zone)
     SELECT id, 'bench-million', 'Bench million', 'open', '2026-04-01T00:00:00Z', '2026-10-01T00:00:00Z', 'Europe/London' FROM organisations RETURNING id`)).rows;
@@ -72,14 +72,14 @@ async function seed(): Promise<string> {
     SELECT ${id}, 'Zone ' || g, (ARRAY['interior','edge','interior','edge'])[g]::habitat_kind,
       ST_SetSRID(ST_MakeEnvelope(-1.82 + g * 0.005, 52.10, -1.815 + g * 0.005, 52.11), 4326) FROM generate_series(1, 4) g`);
   await db.execute(sql`
-    INSERT INTO taxa (scientific_name, taxon_group) SELECT 'Benchus species' || g, 'insects' FROM generate_series(1, ${TAXA}) g`);
+    INSERT INTO taxa (scientific_name, taxon_group) SELECT 'Benchus species' || g, 'insects' FROM generate_series(1, ${TAXA}::int) g`);
   // Sessions: 25 sightings each, four in five "all species noted", spread over the zones and volunteers.
   await db.execute(sql`
     INSERT INTO count_sessions (id, event_id, user_id, zone_id, kind, started_at, ended_at, all_species_noted)
-    SELECT gen_random_uuid(), ${id}, (SELECT id FROM users ORDER BY email OFFSET (g % ${VOLUNTEERS}) LIMIT 1),
+    SELECT gen_random_uuid(), ${id}, (SELECT id FROM users ORDER BY email OFFSET (g % ${VOLUNTEERS}::int) LIMIT 1),
       (SELECT id FROM zones WHERE event_id = ${id} ORDER BY name OFFSET (g % 4) LIMIT 1), 'timed_count',
       '2026-04-01T06:00:00Z'::timestamptz + g * interval '6 minutes', '2026-04-01T06:20:00Z'::timestamptz + g * interval '6 minutes', g % 5 <> 0
-    FROM generate_series(0, ${SIGHTINGS / PER_SESSION - 1}) g`);
+    FROM generate_series(0, ${SIGHTINGS / PER_SESSION - 1}::int) g`);
   await db.execute(sql`CREATE TEMP TABLE bench_sessions AS SELECT row_number() OVER (ORDER BY started_at) - 1 AS k, id, user_id, zone_id, started_at FROM count_sessions`);
   await db.execute(sql`CREATE TEMP TABLE bench_taxa AS SELECT row_number() OVER (ORDER BY scientific_name) - 1 AS k, id FROM taxa`);
   // Sightings in batches of 100,000: a skewed (cubed uniform) choice of taxon, 70% approved.
@@ -89,9 +89,9 @@ async function seed(): Promise<string> {
       SELECT gen_random_uuid(), ${id}, s.user_id, s.id, t.id, 1 + floor(random() * random() * 12)::int, s.started_at + random() * interval '20 minutes',
         ST_SetSRID(ST_MakePoint(-1.82 + random() * 0.02, 52.10 + random() * 0.01), 4326), 10, s.zone_id,
         (CASE WHEN random() < 0.7 THEN 'approved' WHEN random() < 0.6 THEN 'pending' ELSE 'rejected' END)::review_state
-      FROM generate_series(${start}, ${start + 99_999}) g
-      JOIN bench_sessions s ON s.k = g / ${PER_SESSION}
-      JOIN bench_taxa t ON t.k = floor(${TAXA} * power(random(), 3))::int`);
+      FROM (SELECT g, floor(${TAXA}::int * power(random(), 3))::int AS tk FROM generate_series(${start}::int, ${start + 99_999}::int) g OFFSET 0) x
+      JOIN bench_sessions s ON s.k = x.g / ${PER_SESSION}::int
+      JOIN bench_taxa t ON t.k = x.tk`);
     process.stdout.write(`  ${(start + 100_000).toLocaleString("en")} sightings (${Math.round((Date.now() - t0) / 1000)} s)\n`);
   }
   await db.execute(sql`ANALYZE`);

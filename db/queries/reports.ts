@@ -66,10 +66,13 @@ export async function listReports(eventId: string): Promise<ReportSummary[]> {
   return r.rows.map((x) => ({ ...x, publishedAt: new Date(x.publishedAt), superseded: x.version < latest }));
 }
 
-export async function getReport(eventId: string, version: number): Promise<(ReportRow & { inputRecords: InputRecord[]; latestVersion: number }) | null> {
-  const r = await getDb().execute<ReportRow & { inputRecords: InputRecord[]; latestVersion: number }>(sql`
+/** One version; its input records (large for a big event) only when asked for. */
+export async function getReport(eventId: string, version: number, options: { withInputs?: boolean } = {}): Promise<(ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }) | null> {
+  const inputs = options.withInputs ? sql`input_records` : sql`'[]'::jsonb`;
+  const r = await getDb().execute<ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }>(sql`
     SELECT id, event_id AS "eventId", version, published_at AS "publishedAt", published_by AS "publishedBy",
-      engine_version AS "engineVersion", input_hash AS "inputHash", input_records AS "inputRecords", results,
+      engine_version AS "engineVersion", input_hash AS "inputHash", ${inputs} AS "inputRecords",
+      jsonb_array_length(input_records) AS "inputCount", results,
       method_notes AS "methodNotes", changes,
       (SELECT max(version) FROM reports x WHERE x.event_id = reports.event_id)::int AS "latestVersion"
     FROM reports WHERE event_id = ${eventId} AND version = ${version}`);
@@ -77,11 +80,11 @@ export async function getReport(eventId: string, version: number): Promise<(Repo
   return row ? { ...row, publishedAt: new Date(row.publishedAt) } : null;
 }
 
-export async function getReportById(id: string) {
+export async function getReportById(id: string, options: { withInputs?: boolean } = {}) {
   if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
   const r = await getDb().execute<{ eventId: string; version: number }>(sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`);
   const row = r.rows[0];
-  return row ? getReport(row.eventId, row.version) : null;
+  return row ? getReport(row.eventId, row.version, options) : null;
 }
 
 /** Credits: how many volunteers and coordinators took part (never who). */
@@ -94,7 +97,7 @@ export async function eventCredits(eventId: string): Promise<{ volunteers: numbe
 
 /** Re-computes a report from its recorded inputs alone and compares every number. */
 export async function checkReport(eventId: string, version: number): Promise<{ same: boolean; hashSame: boolean; recomputed: Results } | null> {
-  const report = await getReport(eventId, version);
+  const report = await getReport(eventId, version, { withInputs: true });
   if (!report) return null;
   const zones = report.results.zones.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat }));
   const meta = new Map(report.results.species.map((s) => [s.id, { id: s.id, scientificName: s.scientificName, rank: s.rank, group: s.group, sensitivity: s.sensitivity, names: s.names }]));

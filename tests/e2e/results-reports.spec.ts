@@ -83,6 +83,7 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(anon.getByRole("heading", { name: "Zonas con igual esfuerzo" })).toBeVisible();
   await expect(anon.getByRole("figure", { name: "Rarefacción y extrapolación por individuos" })).toBeVisible();
   await expect(anon.getByText(/Organizado por .+ voluntarios y \d+ coordinadores/)).toBeVisible();
+  await anon.getByRole("link", { name: "Recalcular este informe a partir de sus entradas registradas" }).click();
   await expect(anon.getByTestId("recompute")).toContainText("✓");
   const observedV1 = await anon.getByTestId("headline-observed").textContent();
   const html = await anon.content();
@@ -115,6 +116,7 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await anon.goto(`/es/events/${SLUG}/reports/${v1}`);
   await expect(anon.getByTestId("superseded")).toBeVisible();
   await expect(anon.getByTestId("headline-observed")).toHaveText(observedV1!);
+  await anon.goto(`/es/events/${SLUG}/reports/${v1}?check=1`);
   await expect(anon.getByTestId("recompute")).toContainText("✓");
   expect(await resultsDigest(v1)).toBe(v1Digest);
   await visitor.close();

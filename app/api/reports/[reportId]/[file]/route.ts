@@ -15,7 +15,7 @@ const FILES = ["species.csv", "darwin-core-archive.zip", "sightings.geojson"] as
 export const GET = handle(async (request, { params }: Ctx) => {
   const { reportId, file } = await params;
   if (!(FILES as readonly string[]).includes(file)) throw new ApiError("not_found");
-  const report = await getReportById(reportId);
+  const report = await getReportById(reportId, { withInputs: file !== "species.csv" });
   if (!report) throw new ApiError("not_found");
   const locale = requestLocale(request);
   const [event] = (await getDb().execute<{ name: string; slug: string; organisation: string }>(sql`

@@ -12,7 +12,7 @@ import type { ReportChanges } from "@/lib/results/records";
 // Public by design: anyone may read a published report, without signing in.
 export const dynamic = "force-dynamic";
 
-type Props = { params: Promise<{ locale: Locale; slug: string; version: string }> };
+type Props = { params: Promise<{ locale: Locale; slug: string; version: string }>; searchParams?: Promise<Record<string, string | string[] | undefined>> };
 
 async function load(slug: string, version: string) {
   const v = Number(version);
@@ -30,14 +30,16 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
   return found ? { title: t("title", { event: found.event.name, version: found.report.version }) } : {};
 }
 
-export default async function ReportPage({ params }: Props) {
+export default async function ReportPage({ params, searchParams }: Props) {
   const { locale, slug, version } = await params;
+  // The re-computation check reads every input record: run it when asked, not on every view.
+  const wantCheck = (await searchParams)?.check === "1";
   setRequestLocale(locale);
   const found = await load(slug, version);
   if (!found) notFound();
   const { event, report } = found;
   const [t, format, credits, check] = await Promise.all([
-    getTranslations("Report"), getFormatter(), eventCredits(event.id), checkReport(event.id, report.version),
+    getTranslations("Report"), getFormatter(), eventCredits(event.id), wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
   ]);
   const r = report.results;
   const a = r.event.abundance;
@@ -111,8 +113,12 @@ export default async function ReportPage({ params }: Props) {
           {report.methodNotes.map((m) => <li key={m.key}><span className="font-semibold">{m.name}</span>: {m.source}</li>)}
         </ul>
         <p className="text-sm">{t("methods.engine", { engine: report.engineVersion })}</p>
-        <p className="break-all font-mono text-xs">{t("methods.hash", { hash: report.inputHash, records: report.inputRecords.length })}</p>
-        <p data-testid="recompute" className="font-semibold">{check?.same && check.hashSame ? `✓ ${t("methods.checkSame")}` : `✗ ${t("methods.checkDiffers")}`}</p>
+        <p className="break-all font-mono text-xs">{t("methods.hash", { hash: report.inputHash, records: report.inputCount })}</p>
+        {wantCheck ? (
+          <p data-testid="recompute" className="font-semibold">{check?.same && check.hashSame ? `✓ ${t("methods.checkSame")}` : `✗ ${t("methods.checkDiffers")}`}</p>
+        ) : (
+          <p><Link href={`/events/${slug}/reports/${report.version}?check=1`} className="font-semibold text-reed-800 underline">{t("methods.checkLink")}</Link></p>
+        )}
       </section>
 
       <section aria-labelledby="credits-title" className="space-y-1">
