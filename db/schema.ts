@@ -355,3 +355,10 @@ export const resultSessionTaxa = pgTable("result_session_taxa", {
   taxonId: uuid("taxon_id").notNull(),
   sightings: integer("sightings").notNull(),
 }, (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.taxonId] })]);
+
+// One counter per event, raised by the same triggers whenever the event's aggregates
+// change: the results path keys its cache on it (with the sessions, zones and taxa).
+export const resultStamps = pgTable("result_stamps", {
+  eventId: uuid("event_id").primaryKey(),
+  seq: bigint("seq", { mode: "number" }).notNull().default(1),
+});

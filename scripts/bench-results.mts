@@ -23,8 +23,7 @@ if (!process.execArgv.some((a) => a.includes("react-server"))) {
 
 const { sql } = await import("drizzle-orm");
 const { getDb } = await import("../db/client");
-const { loadResultsInput } = await import("../db/queries/results");
-const { computeResults } = await import("../lib/results/compute");
+const { currentResults, forgetResults } = await import("../lib/results/current");
 const { env } = await import("../lib/env");
 const { recreateDatabase } = await import("../tests/support/test-db");
 const { reportRows } = await import("./bench-report");
@@ -49,7 +48,8 @@ async function eventId(): Promise<string | null> {
   try {
     const r = await getDb().execute<{ id: string; n: number }>(sql`
       SELECT e.id, (SELECT count(*) FROM sightings s WHERE s.event_id = e.id)::int AS n FROM events e WHERE e.slug = 'bench-million'`);
-    return r.rows[0]?.n === SIGHTINGS ? r.rows[0].id : null;
+    const current = await getDb().execute<{ t: string | null }>(sql`SELECT to_regclass('result_stamps')::text AS t`);
+    return r.rows[0]?.n === SIGHTINGS && current.rows[0]?.t ? r.rows[0].id : null;
   } catch {
     return null;
   }
@@ -108,22 +108,31 @@ const [facts] = (await db.execute<{ sightings: number; approved: number; pairs: 
 console.log(`event: ${facts!.sightings} sightings, ${facts!.approved} approved, ${facts!.complete} complete count sessions, ${facts!.pairs} (session, taxon) presences`);
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
-const queryMs: number[] = [];
-const computeMs: number[] = [];
-const totalMs: number[] = [];
-let bytes = 0;
-for (let i = 0; i <= runs; i++) {
+// The handler's work: currentResults() then the JSON answer (already serialised with the results).
+async function handlerPath(): Promise<{ ms: number; bytes: number }> {
   const t0 = performance.now();
-  const input = await loadResultsInput(id);
-  const t1 = performance.now();
-  const body = JSON.stringify(computeResults(input));
-  const t2 = performance.now();
-  bytes = body.length;
-  if (i === 0) continue; // warm-up
-  queryMs.push(t1 - t0);
-  computeMs.push(t2 - t1);
-  totalMs.push(t2 - t0);
-  console.log(`run ${i}: queries ${(t1 - t0).toFixed(0)} ms, statistics + JSON ${(t2 - t1).toFixed(0)} ms, total ${(t2 - t0).toFixed(0)} ms`);
+  const { json } = await currentResults(id);
+  return { ms: performance.now() - t0, bytes: json.length };
+}
+const cold: number[] = [];
+const warm: number[] = [];
+const afterChange: number[] = [];
+let bytes = 0;
+forgetResults();
+await handlerPath(); // warm-up of the pool and the JIT
+for (let i = 0; i < runs; i++) {
+  forgetResults();
+  const c = await handlerPath();
+  const w = await handlerPath();
+  cold.push(c.ms);
+  warm.push(w.ms);
+  bytes = c.bytes;
+  // A coordinator approves one more sighting: the next read computes again.
+  await db.execute(sql`UPDATE sightings SET review_state = 'approved' WHERE id = (
+    SELECT id FROM sightings WHERE event_id = ${id} AND review_state = 'pending' ORDER BY id LIMIT 1)`);
+  const a = await handlerPath();
+  afterChange.push(a.ms);
+  console.log(`run ${i + 1}: cold ${c.ms.toFixed(0)} ms, unchanged since last read ${w.ms.toFixed(0)} ms, after one approval ${a.ms.toFixed(0)} ms`);
 }
 const g0 = performance.now();
 await db.execute(sql`SELECT zone_id, taxon_id, sum(count) FROM sightings WHERE event_id = ${id} AND review_state = 'approved' AND taxon_id IS NOT NULL GROUP BY 1, 2`);
@@ -131,10 +140,11 @@ const groupBy = performance.now() - g0;
 console.log(`plain GROUP BY over the approved sightings (replaced by the aggregates): ${groupBy.toFixed(0)} ms; answer ${(bytes / 1024).toFixed(0)} KiB`);
 await closePool();
 
-const total = median(totalMs);
+const w = median(warm);
+const c = median(cold);
 reportRows([
-  { part: "results", figure: `results handler path, ${facts!.sightings.toLocaleString("en")} sightings (median of ${runs})`, value: `${total.toFixed(0)} ms`, target: "< 1000 ms", met: total < 1000 },
-  { part: "results", figure: "of which aggregate queries", value: `${median(queryMs).toFixed(0)} ms` },
-  { part: "results", figure: "of which statistics and JSON (lib/diversity)", value: `${median(computeMs).toFixed(0)} ms` },
-  { part: "results", figure: "plain GROUP BY it replaces (one run)", value: `${groupBy.toFixed(0)} ms` },
+  { part: "results", figure: `results handler path, ${facts!.sightings.toLocaleString("en")} sightings, nothing changed since the last read (median of ${runs})`, value: `${w.toFixed(0)} ms`, target: "< 1000 ms", met: w < 1000 },
+  { part: "results", figure: "results handler path, first read after a change (aggregate queries + lib/diversity)", value: `${c.toFixed(0)} ms`, target: "< 1000 ms", met: c < 1000 },
+  { part: "results", figure: "after one more approval (trigger + recompute)", value: `${median(afterChange).toFixed(0)} ms` },
+  { part: "results", figure: "plain GROUP BY it replaces (one run, counts only)", value: `${groupBy.toFixed(0)} ms` },
 ]);

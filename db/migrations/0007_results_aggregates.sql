@@ -6,6 +6,11 @@ CREATE TABLE "result_session_taxa" (
 	CONSTRAINT "result_session_taxa_event_id_session_id_taxon_id_pk" PRIMARY KEY("event_id","session_id","taxon_id")
 );
 --> statement-breakpoint
+CREATE TABLE "result_stamps" (
+	"event_id" uuid PRIMARY KEY NOT NULL,
+	"seq" bigint DEFAULT 1 NOT NULL
+);
+--> statement-breakpoint
 CREATE TABLE "result_taxon_counts" (
 	"event_id" uuid NOT NULL,
 	"zone_key" uuid NOT NULL,
@@ -36,6 +41,11 @@ BEGIN
         HAVING sum(individuals) <> 0 OR sum(sightings) <> 0 ORDER BY 1, 2, 3
       ON CONFLICT (event_id, zone_key, taxon_id) DO UPDATE
         SET individuals = r.individuals + excluded.individuals, sightings = r.sightings + excluded.sightings
+      RETURNING 1
+    ),
+    stamps AS (
+      INSERT INTO result_stamps AS r (event_id) SELECT DISTINCT event_id FROM d ORDER BY 1
+      ON CONFLICT (event_id) DO UPDATE SET seq = r.seq + 1
       RETURNING 1
     )
     INSERT INTO result_session_taxa AS r (event_id, session_id, taxon_id, sightings)
@@ -73,3 +83,5 @@ INSERT INTO result_taxon_counts (event_id, zone_key, taxon_id, individuals, sigh
 INSERT INTO result_session_taxa (event_id, session_id, taxon_id, sightings)
   SELECT event_id, session_id, taxon_id, count(*)
   FROM sightings WHERE review_state = 'approved' AND taxon_id IS NOT NULL AND session_id IS NOT NULL GROUP BY 1, 2, 3;
+--> statement-breakpoint
+INSERT INTO result_stamps (event_id) SELECT DISTINCT event_id FROM sightings;

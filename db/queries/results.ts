@@ -100,3 +100,22 @@ export async function liveFigures(eventId: string): Promise<LiveFigures> {
   for (const s of states.rows) backlog[s.state as keyof typeof backlog] = s.n;
   return { perHour: hours.rows, activeVolunteers: people.rows[0] ?? { lastHour: 0, today: 0, total: 0 }, backlog };
 }
+
+/**
+ * What the event's results depend on, in one cheap row: the aggregate counter raised by
+ * the triggers, a hash of the count sessions (complete flag and zone), and hashes of the
+ * zones and of the taxa in the results. Equal keys mean equal results.
+ */
+export async function resultsKey(eventId: string): Promise<string> {
+  const r = await getDb().execute<{ k: string }>(sql`
+    SELECT concat_ws('|',
+      (SELECT seq FROM result_stamps WHERE event_id = ${eventId}),
+      (SELECT count(*) || ':' || coalesce(sum(hashtext(id::text || all_species_noted::text || coalesce(zone_id::text, ''))), 0)
+         FROM count_sessions WHERE event_id = ${eventId}),
+      (SELECT md5(string_agg(id::text || name || habitat::text, ',' ORDER BY id)) FROM zones WHERE event_id = ${eventId}),
+      (SELECT md5(string_agg(t.id::text || t.scientific_name || t.rank::text || t.taxon_group::text || t.sensitivity::text
+                   || coalesce((SELECT string_agg(locale || name, ',' ORDER BY locale) FROM taxon_names n WHERE n.taxon_id = t.id), ''), ',' ORDER BY t.id))
+         FROM taxa t WHERE t.id IN (SELECT taxon_id FROM result_taxon_counts WHERE event_id = ${eventId}))
+    ) AS k`);
+  return r.rows[0]!.k;
+}

@@ -11,7 +11,8 @@ import { canonicalJson, computeResults } from "@/lib/results/compute";
 import { DWC_REQUIRED, darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
 import { publishMail } from "@/lib/results/mail";
 import { inputFromRecords, inputHash } from "@/lib/results/records";
-import { taxaMeta } from "@/db/queries/results";
+import { resultsKey, taxaMeta } from "@/db/queries/results";
+import { currentResults } from "@/lib/results/current";
 import { db, makeFixture, refusal, sightingValues } from "./helpers";
 
 let eventId = "";
@@ -73,6 +74,28 @@ describe("results aggregates (migration 0007 triggers)", () => {
     expect(canonicalJson(fromAggregates)).toBe(canonicalJson(fromRecords));
     expect(fromAggregates.totals.species).toBeGreaterThan(20);
     expect(fromAggregates.comparison?.sentences.length).toBeGreaterThan(0);
+  });
+});
+
+describe("current results cache", () => {
+  it("is reused while nothing changed and recomputed after an approval or a session's complete flag changes", async () => {
+    const f = await makeFixture("cache");
+    const [session] = await db().insert(s.countSessions).values({
+      id: crypto.randomUUID(), eventId: f.event.id, userId: f.user.id, zoneId: f.zone.id, kind: "plot_search",
+      startedAt: new Date("2026-06-20T09:00:00Z"), endedAt: new Date("2026-06-20T09:30:00Z"), allSpeciesNoted: false,
+    }).returning();
+    const rows = [sightingValues(f, { count: 3, reviewState: "approved", sessionId: session!.id }), sightingValues(f, { count: 2, sessionId: session!.id })];
+    await db().insert(s.sightings).values(rows);
+    const first = await currentResults(f.event.id);
+    expect(await currentResults(f.event.id)).toBe(first);
+    expect(first.results.totals.individuals).toBe(3);
+    await db().update(s.sightings).set({ reviewState: "approved" }).where(sql`id = ${rows[1]!.id}`);
+    const second = await currentResults(f.event.id);
+    expect(second.results.totals.individuals).toBe(5);
+    const key = await resultsKey(f.event.id);
+    await db().update(s.countSessions).set({ allSpeciesNoted: true }).where(sql`id = ${session!.id}`);
+    expect(await resultsKey(f.event.id)).not.toBe(key);
+    expect((await currentResults(f.event.id)).results.totals.completeSessions).toBe(1);
   });
 });
 

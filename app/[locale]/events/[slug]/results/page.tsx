@@ -3,13 +3,12 @@ import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
 import { getPublicEventBySlug } from "@/db/queries/events";
 import { listReports } from "@/db/queries/reports";
-import { loadResultsInput } from "@/db/queries/results";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
 import { requirePageEventRole } from "@/lib/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
-import { computeResults } from "@/lib/results/compute";
+import { currentResults } from "@/lib/results/current";
 import { PublishButton } from "./_components/publish-button";
 
 export const dynamic = "force-dynamic";
@@ -31,8 +30,7 @@ export default async function ResultsPage({ params }: Props) {
   const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/results`);
   const t = await getTranslations("Results");
   if (!permit) return <p role="alert">{t("notAllowed")}</p>;
-  const [format, input, reports] = await Promise.all([getFormatter(), loadResultsInput(event.id), listReports(event.id)]);
-  const results = computeResults(input);
+  const [format, { results }, reports] = await Promise.all([getFormatter(), currentResults(event.id), listReports(event.id)]);
   const canPublish = permit.role === "organiser" || permit.role === "admin";
   return (
     <article className="space-y-8">

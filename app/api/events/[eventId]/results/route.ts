@@ -1,7 +1,6 @@
-import { loadResultsInput } from "@/db/queries/results";
 import { requireEventRole } from "@/lib/auth/guard";
 import { handle } from "@/lib/http/errors";
-import { computeResults } from "@/lib/results/compute";
+import { currentResults } from "@/lib/results/current";
 
 export const dynamic = "force-dynamic";
 
@@ -11,6 +10,6 @@ type Ctx = { params: Promise<{ eventId: string }> };
 export const GET = handle(async (_request, { params }: Ctx) => {
   const { eventId } = await params;
   await requireEventRole(eventId, "coordinator");
-  const results = computeResults(await loadResultsInput(eventId));
-  return Response.json(results, { headers: { "Cache-Control": "no-store" } });
+  const { json } = await currentResults(eventId);
+  return new Response(json, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
 });
