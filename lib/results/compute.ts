@@ -63,15 +63,13 @@ function block(counts: number[], units: number[][] | null): Block {
   return { abundance: r.abundance, incidence: r.incidence, rarefaction: r.rarefactionCurve, accumulation: r.accumulationCurve };
 }
 
-function unitsFor(sessions: ResultsInput["sessions"], width: number, zoneId?: string): number[][] {
-  const rows: number[][] = [];
-  for (const s of sessions) {
-    if (zoneId !== undefined && s.zoneId !== zoneId) continue;
+/** One 0/1 row per complete session, built once and shared by the event's and its zone's blocks. */
+function unitRows(sessions: ResultsInput["sessions"], width: number): number[][] {
+  return sessions.map((s) => {
     const row = new Array<number>(width).fill(0);
     for (const t of s.taxa) row[t] = 1;
-    rows.push(row);
-  }
-  return rows;
+    return row;
+  });
 }
 
 const atEffort = (p: CurvePoint): AtEffort => ({ richness: p.richness, lower: p.lower, upper: p.upper, size: p.size, kind: p.kind });
@@ -106,8 +104,9 @@ export function computeResults(input: ResultsInput): Results {
     const row = byZone[c.taxon]!;
     row[c.zoneId] = (row[c.zoneId] ?? 0) + c.individuals;
   }
-  const event = block(total, unitsFor(input.sessions, width));
-  const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...block(perZone.get(z.id)!, unitsFor(input.sessions, width, z.id)) }));
+  const rows = unitRows(input.sessions, width);
+  const event = block(total, rows);
+  const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...block(perZone.get(z.id)!, rows.filter((_, i) => input.sessions[i]!.zoneId === z.id)) }));
 
   let comparison: Comparison | null = null;
   const sampled = input.zones.filter((z) => perZone.get(z.id)!.some((v) => v > 0));

@@ -190,7 +190,7 @@ describe("reports", () => {
     expect(badgers.length).toBe(2);
     for (const b of badgers) {
       expect(b.properties.generalised).toBe(true);
-      expect(b.properties.coordinateUncertaintyInMeters).toBeGreaterThanOrEqual(5000);
+      expect(b.properties.coordinateUncertaintyInMeters).toBeGreaterThanOrEqual(6500);
       expect(b.geometry.coordinates).toEqual([-1.85, 52.15]);
     }
     expect(geo.features.some((f) => /Accipiter|Cypripedium/.test(f.properties.scientificName))).toBe(false);
