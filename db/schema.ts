@@ -350,3 +350,30 @@ export const reviewNotices = pgTable("review_notices", {
   createdAt: createdAt(),
   digestId: bigint("digest_id", { mode: "number" }).references(() => emailOutbox.id, { onDelete: "set null" }),
 }, (t) => [index("review_notices_waiting_idx").on(t.volunteerId, t.createdAt).where(sql`${t.digestId} IS NULL`)]);
+// ---------------------------------------------------------------- results aggregates (issue 7)
+// Kept in step with approved sightings by statement-level triggers (migration 0007), so
+// the results page reads a few thousand aggregate rows instead of grouping every sighting.
+// zone_key is the zone, or the nil UUID for a sighting outside every zone.
+export const resultTaxonCounts = pgTable("result_taxon_counts", {
+  eventId: uuid("event_id").notNull(),
+  zoneKey: uuid("zone_key").notNull(),
+  taxonId: uuid("taxon_id").notNull(),
+  individuals: bigint("individuals", { mode: "number" }).notNull(),
+  sightings: integer("sightings").notNull(),
+}, (t) => [primaryKey({ columns: [t.eventId, t.zoneKey, t.taxonId] })]);
+
+// Presence of a taxon in a count session (approved sightings only); whether the session
+// counts as a complete incidence sample, and its zone, are read from count_sessions.
+export const resultSessionTaxa = pgTable("result_session_taxa", {
+  eventId: uuid("event_id").notNull(),
+  sessionId: uuid("session_id").notNull(),
+  taxonId: uuid("taxon_id").notNull(),
+  sightings: integer("sightings").notNull(),
+}, (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.taxonId] })]);
+
+// One counter per event, raised by the same triggers whenever the event's aggregates
+// change: the results path keys its cache on it (with the sessions, zones and taxa).
+export const resultStamps = pgTable("result_stamps", {
+  eventId: uuid("event_id").primaryKey(),
+  seq: bigint("seq", { mode: "number" }).notNull().default(1),
+});

@@ -7,6 +7,7 @@ import {
 } from "./demo-scenario";
 import { refreshCheckMarks } from "../queries/check-marks";
 import { demoId, seededRandom } from "./random";
+import { SENSITIVE_DEMO_RECORDS } from "./sensitive";
 import { seedReviewCases } from "./review-cases";
 import { SEED_TAXA, type SeedTaxon } from "./taxa";
 
@@ -165,6 +166,22 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
       for (let i = 0; i < reviewRows.length; i += 200) await tx.insert(s.reviews).values(reviewRows.slice(i, i + 200));
     }
 
+    // Approved records of the sensitive taxa, outside sessions (db/seed/sensitive.ts).
+    for (const r of SENSITIVE_DEMO_RECORDS) {
+      const id = demoId(`sensitive:${r.key}`);
+      const observedAt = new Date(DEMO_EVENT.startsAt.getTime() + r.hour * 3_600_000);
+      const inserted = await tx.insert(s.sightings).values({
+        id, eventId, userId: people.get(r.volunteer)!, taxonId: taxonIds.get(r.scientificName)!, count: r.count,
+        observedAt, location: pointSql(r.lon, r.lat) as unknown as string, accuracyM: 10, zoneId: zoneIds.get(r.zone)!,
+        reviewState: "approved", version: 2, checkMarks: ["sensitive_taxon"],
+      }).onConflictDoNothing().returning({ id: s.sightings.id });
+      if (inserted.length) {
+        await tx.insert(s.reviews).values({
+          sightingId: id, reviewerId: people.get("coord-all")!, decidedAt: new Date(observedAt.getTime() + 3 * 3_600_000),
+          fromState: "pending", toState: "approved",
+        });
+      }
+    }
     // Pending sightings crafted for the review desk (one per check mark, and known sets
     // for the birds coordinator), then every check mark of the event computed as the
     // server does when sightings arrive.

@@ -59,4 +59,10 @@ export const ROUTES: RouteCase[] = [
   { file: "app/api/events/[eventId]/photos/[photoId]/confirm/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/photos/${i.sightingId}/confirm`, allowed: EVENT_MEMBERS, note: "422 for members: nothing uploaded under that id" },
   { file: "app/api/events/[eventId]/photos/[photoId]/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/photos/${i.sightingId}?size=thumb`, allowed: EVENT_MEMBERS, note: "404 for members: no such photo; author and reviewers see real ones" },
   { file: "app/api/events/[eventId]/sightings/mine/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/sightings/mine`, allowed: EVENT_MEMBERS, note: "only the caller's own sightings" },
+  { file: "app/api/events/[eventId]/results/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/results`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/live/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/live`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/reports/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/reports`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/reports/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/reports`, allowed: ORGANISERS, note: "publishes a new report version" },
+  { file: "app/api/events/[eventId]/reports/[version]/check/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/reports/1/check`, allowed: COORDINATORS, note: "404 when no version 1 yet" },
+  { file: "app/api/reports/[reportId]/[file]/route.ts", method: "GET", path: () => "/api/reports/00000000-0000-0000-0000-000000000000/species.csv", allowed: EVERYONE, note: "public: published report downloads (404 for an unknown report)" },
 ];

@@ -1,0 +1,32 @@
+import { notFound } from "next/navigation";
+import { getTranslations, setRequestLocale } from "next-intl/server";
+import { getPublicEventBySlug } from "@/db/queries/events";
+import { requirePageEventRole } from "@/lib/auth/page";
+import type { Locale } from "@/lib/i18n/routing";
+import { LiveBoard, type LiveLabels } from "./_components/live-board";
+
+export const dynamic = "force-dynamic";
+
+type Props = { params: Promise<{ locale: Locale; slug: string }> };
+
+const KEYS: (keyof LiveLabels)[] = ["perHour", "volunteers", "lastHour", "today", "total", "backlog", "pending", "approved", "rejected", "returned",
+  "completeness", "share", "coverage", "nextTitle", "nextIntro", "zoneLine", "unsampled", "loading", "failed", "updated", "hour", "sightings"];
+
+export default async function LivePage({ params }: Props) {
+  const { locale, slug } = await params;
+  setRequestLocale(locale);
+  const event = await getPublicEventBySlug(slug);
+  if (!event) notFound();
+  const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/live`);
+  const t = await getTranslations("Results");
+  if (!permit) return <p role="alert">{t("notAllowed")}</p>;
+  // Placeholders stay as {name} for the client to fill.
+  const raw = (k: keyof LiveLabels) => t.raw(`live.${k}`) as string;
+  const labels = Object.fromEntries(KEYS.map((k) => [k, raw(k)])) as LiveLabels;
+  return (
+    <article className="space-y-6">
+      <h1 className="text-3xl font-bold text-reed-900">{t("live.title", { event: event.name })}</h1>
+      <LiveBoard eventId={event.id} labels={labels} locale={locale} />
+    </article>
+  );
+}

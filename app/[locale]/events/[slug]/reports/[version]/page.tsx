@@ -1,0 +1,130 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
+import { getPublicEventBySlug } from "@/db/queries/events";
+import { checkReport, eventCredits, getReport } from "@/db/queries/reports";
+import { ResultsBody } from "@/components/results/results-body";
+import { EstimateCaution } from "@/components/results/zone-comparison";
+import { Link } from "@/lib/i18n/navigation";
+import type { Locale } from "@/lib/i18n/routing";
+import type { ReportChanges } from "@/lib/results/records";
+
+// Public by design: anyone may read a published report, without signing in.
+export const dynamic = "force-dynamic";
+
+type Props = { params: Promise<{ locale: Locale; slug: string; version: string }>; searchParams?: Promise<Record<string, string | string[] | undefined>> };
+
+async function load(slug: string, version: string) {
+  const v = Number(version);
+  if (!Number.isInteger(v) || v < 1 || v > 1_000_000) return null;
+  const event = await getPublicEventBySlug(slug);
+  if (!event) return null;
+  const report = await getReport(event.id, v);
+  return report ? { event, report } : null;
+}
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  const { slug, version } = await params;
+  const found = await load(slug, version);
+  const t = await getTranslations("Report");
+  return found ? { title: t("title", { event: found.event.name, version: found.report.version }) } : {};
+}
+
+export default async function ReportPage({ params, searchParams }: Props) {
+  const { locale, slug, version } = await params;
+  // The re-computation check reads every input record: run it when asked, not on every view.
+  const wantCheck = (await searchParams)?.check === "1";
+  setRequestLocale(locale);
+  const found = await load(slug, version);
+  if (!found) notFound();
+  const { event, report } = found;
+  const [t, format, credits, check] = await Promise.all([
+    getTranslations("Report"), getFormatter(), eventCredits(event.id), wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
+  ]);
+  const r = report.results;
+  const a = r.event.abundance;
+  const n = (v: number, d = 1) => (Number.isFinite(v) ? format.number(v, { maximumFractionDigits: d }) : "–");
+  const changes = report.changes as ReportChanges;
+  const files = [
+    { file: "species.csv", label: t("downloads.csv") },
+    { file: "darwin-core-archive.zip", label: t("downloads.dwca") },
+    { file: "sightings.geojson", label: t("downloads.geojson") },
+  ];
+  return (
+    <article className="space-y-8">
+      <header className="space-y-2">
+        <h1 className="text-3xl font-bold text-reed-900">{t("title", { event: event.name, version: report.version })}</h1>
+        <p className="text-ink-soft">
+          {t("published", { date: format.dateTime(report.publishedAt, { dateStyle: "long", timeStyle: "short", timeZone: event.timeZone }), timeZone: event.timeZone })}
+        </p>
+        {report.version < report.latestVersion ? (
+          <p role="note" className="rounded-lg border-2 border-signal bg-signal-soft p-3 font-semibold" data-testid="superseded">
+            {t("superseded")}{" "}
+            <Link href={`/events/${slug}/reports/${report.latestVersion}`} className="underline">{t("latest", { version: report.latestVersion })}</Link>
+          </p>
+        ) : null}
+      </header>
+
+      {report.version > 1 && changes.previousVersion ? (
+        <section aria-labelledby="changes-title" className="space-y-2" data-testid="changes">
+          <h2 id="changes-title" className="text-2xl font-bold text-reed-900">{t("changes.title", { previous: changes.previousVersion })}</h2>
+          <ul className="list-disc pl-5">
+            <li>{t("changes.records", { added: changes.added, removed: changes.removed, changed: changes.changed })}</li>
+            <li>{t("changes.species", { before: changes.speciesBefore, after: changes.speciesAfter })}</li>
+            <li>{t("changes.individuals", { before: changes.individualsBefore, after: changes.individualsAfter })}</li>
+            {changes.newTaxa.length ? <li>{t("changes.newTaxa", { taxa: changes.newTaxa.join(", ") })}</li> : null}
+            {changes.lostTaxa.length ? <li>{t("changes.lostTaxa", { taxa: changes.lostTaxa.join(", ") })}</li> : null}
+          </ul>
+        </section>
+      ) : null}
+
+      <section aria-labelledby="headline-title" className="space-y-2">
+        <h2 id="headline-title" className="text-2xl font-bold text-reed-900">{t("headline.title")}</h2>
+        <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+          <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t("headline.observed")}</dt><dd className="text-2xl font-bold" data-testid="headline-observed">{a.observed}</dd></div>
+          <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t("headline.chao1")}</dt><dd className="text-2xl font-bold">{n(a.chao1.estimate)}</dd><dd className="text-sm">{t("headline.interval", { lower: n(a.chao1.lower), upper: n(a.chao1.upper) })}</dd></div>
+          <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t("headline.coverage")}</dt><dd className="text-2xl font-bold">{format.number(a.coverage, { style: "percent", maximumFractionDigits: 1 })}</dd></div>
+          <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t("headline.hill1")}</dt><dd className="text-2xl font-bold">{n(a.hill.q1.estimate)}</dd><dd className="text-sm">{t("headline.interval", { lower: n(a.hill.q1.lower), upper: n(a.hill.q1.upper) })}</dd></div>
+        </dl>
+      </section>
+
+      <EstimateCaution />
+      <aside className="rounded-lg border-2 border-heath-500 bg-heath-50 p-3">
+        <p className="font-bold text-heath-900">{t("sensitive.title")}</p>
+        <p>{t("sensitive.body")}</p>
+      </aside>
+
+      <section aria-labelledby="downloads-title" className="space-y-2">
+        <h2 id="downloads-title" className="text-2xl font-bold text-reed-900">{t("downloads.title")}</h2>
+        <ul className="flex flex-wrap gap-3">
+          {files.map((f) => (
+            <li key={f.file}>
+              <a href={`/api/reports/${report.id}/${f.file}`} download className="inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800">{f.label}</a>
+            </li>
+          ))}
+        </ul>
+      </section>
+
+      <ResultsBody results={r} showSensitivity />
+
+      <section aria-labelledby="method-title" className="space-y-2">
+        <h2 id="method-title" className="text-2xl font-bold text-reed-900">{t("methods.title")}</h2>
+        <ul className="list-disc pl-5 text-sm">
+          {report.methodNotes.map((m) => <li key={m.key}><span className="font-semibold">{m.name}</span>: {m.source}</li>)}
+        </ul>
+        <p className="text-sm">{t("methods.engine", { engine: report.engineVersion })}</p>
+        <p className="break-all font-mono text-xs">{t("methods.hash", { hash: report.inputHash, records: report.inputCount })}</p>
+        {wantCheck ? (
+          <p data-testid="recompute" className="font-semibold">{check?.same && check.hashSame ? `✓ ${t("methods.checkSame")}` : `✗ ${t("methods.checkDiffers")}`}</p>
+        ) : (
+          <p><Link href={`/events/${slug}/reports/${report.version}?check=1`} className="font-semibold text-reed-800 underline">{t("methods.checkLink")}</Link></p>
+        )}
+      </section>
+
+      <section aria-labelledby="credits-title" className="space-y-1">
+        <h2 id="credits-title" className="text-2xl font-bold text-reed-900">{t("credits.title")}</h2>
+        <p>{t("credits.body", { organisation: event.organisationName, volunteers: credits.volunteers, coordinators: credits.coordinators })}</p>
+      </section>
+    </article>
+  );
+}

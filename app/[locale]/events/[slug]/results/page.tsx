@@ -1,0 +1,66 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
+import { getPublicEventBySlug } from "@/db/queries/events";
+import { listReports } from "@/db/queries/reports";
+import { ResultsBody } from "@/components/results/results-body";
+import { EstimateCaution } from "@/components/results/zone-comparison";
+import { requirePageEventRole } from "@/lib/auth/page";
+import { Link } from "@/lib/i18n/navigation";
+import type { Locale } from "@/lib/i18n/routing";
+import { currentResults } from "@/lib/results/current";
+import { PublishButton } from "./_components/publish-button";
+
+export const dynamic = "force-dynamic";
+
+type Props = { params: Promise<{ locale: Locale; slug: string }> };
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  const { slug } = await params;
+  const t = await getTranslations("Results");
+  const event = await getPublicEventBySlug(slug);
+  return event ? { title: t("title", { event: event.name }) } : {};
+}
+
+export default async function ResultsPage({ params }: Props) {
+  const { locale, slug } = await params;
+  setRequestLocale(locale);
+  const event = await getPublicEventBySlug(slug);
+  if (!event) notFound();
+  const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/results`);
+  const t = await getTranslations("Results");
+  if (!permit) return <p role="alert">{t("notAllowed")}</p>;
+  const [format, { results }, reports] = await Promise.all([getFormatter(), currentResults(event.id), listReports(event.id)]);
+  const canPublish = permit.role === "organiser" || permit.role === "admin";
+  return (
+    <article className="space-y-8">
+      <header className="space-y-2">
+        <h1 className="text-3xl font-bold text-reed-900">{t("title", { event: event.name })}</h1>
+        <p className="max-w-prose text-ink-soft">{t("intro", { species: results.totals.species, individuals: results.totals.individuals, sessions: results.totals.completeSessions })}</p>
+        <p><Link href={`/events/${slug}/live`} className="font-semibold text-reed-800 underline">{t("live.link")}</Link></p>
+      </header>
+      <EstimateCaution />
+      <ResultsBody results={results} showSensitivity />
+
+      <section aria-labelledby="reports-title" className="space-y-3">
+        <h2 id="reports-title" className="text-2xl font-bold text-reed-900">{t("reports.title")}</h2>
+        <p className="max-w-prose">{t("reports.intro")}</p>
+        {canPublish ? (
+          <PublishButton eventId={event.id} label={t("reports.publish")} busyLabel={t("reports.publishing")} doneLabel={t("reports.published", { version: "{version}" })} failedLabel={t("reports.failed")} />
+        ) : null}
+        {reports.length === 0 ? <p>{t("reports.none")}</p> : (
+          <ul className="space-y-2">
+            {reports.map((r) => (
+              <li key={r.id} className="rounded-lg border border-reed-200 bg-white/70 p-3">
+                <Link href={`/events/${slug}/reports/${r.version}`} className="font-semibold text-reed-800 underline">{t("reports.version", { version: r.version })}</Link>
+                {" · "}{format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
+                {r.superseded ? <span className="ml-2 text-ink-soft">({t("reports.superseded")})</span> : null}
+                <span className="block font-mono text-xs text-ink-soft">sha256 {r.inputHash}</span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+    </article>
+  );
+}

@@ -1,0 +1,25 @@
+import { listReports, publishReport } from "@/db/queries/reports";
+import { requireEventRole } from "@/lib/auth/guard";
+import { handle } from "@/lib/http/errors";
+import { limitWrites } from "@/lib/http/rate-limit";
+import { publishMail } from "@/lib/results/mail";
+
+export const dynamic = "force-dynamic";
+
+type Ctx = { params: Promise<{ eventId: string }> };
+
+/** Report versions of the event, newest first (organisers and coordinators). */
+export const GET = handle(async (_request, { params }: Ctx) => {
+  const { eventId } = await params;
+  await requireEventRole(eventId, "coordinator");
+  return Response.json({ reports: await listReports(eventId) }, { headers: { "Cache-Control": "no-store" } });
+});
+
+/** "Publish": freezes the current results into the next report version (organisers). */
+export const POST = handle(async (_request, { params }: Ctx) => {
+  const { eventId } = await params;
+  const { user } = await requireEventRole(eventId, "organiser");
+  limitWrites(`publish:${user.id}`, 10, 60_000);
+  const report = await publishReport(eventId, user.id, publishMail);
+  return Response.json(report, { status: 201 });
+});

@@ -1,0 +1,15 @@
+import { requireEventRole } from "@/lib/auth/guard";
+import { handle } from "@/lib/http/errors";
+import { currentResults } from "@/lib/results/current";
+
+export const dynamic = "force-dynamic";
+
+type Ctx = { params: Promise<{ eventId: string }> };
+
+/** The event's current results (organisers and coordinators): aggregates in PostgreSQL, statistics in lib/diversity. */
+export const GET = handle(async (_request, { params }: Ctx) => {
+  const { eventId } = await params;
+  await requireEventRole(eventId, "coordinator");
+  const { json } = await currentResults(eventId);
+  return new Response(json, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
+});

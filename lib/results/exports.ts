@@ -1,0 +1,148 @@
+// Public downloads of a report: species list (CSV), Darwin Core Archive (zip), GeoJSON.
+// Sensitive taxa: "generalised" records are moved to the centre of a 0.1° grid cell (about
+// 11 × 7 km here) with the uncertainty widened to cover the cell; "restricted" records are
+// withheld from every located output (design.md: exact locations never reach the public).
+import { strToU8, zipSync } from "fflate";
+import type { Results } from "./compute";
+
+export type PublicOccurrence = {
+  id: string; observedAt: Date; lon: number; lat: number; accuracyM: number;
+  taxonId: string; count: number; sensitivity: "open" | "generalised" | "restricted";
+};
+
+export const GRID_DEGREES = 0.1;
+
+export type Located = {
+  id: string; eventDate: string; scientificName: string; taxonRank: string; vernacularName: string; individualCount: number;
+  lon: number; lat: number; uncertaintyM: number; generalised: boolean;
+};
+
+/** Cell centre and the uncertainty that covers the whole cell (half its diagonal) plus the record's own. */
+export function generalise(lon: number, lat: number, accuracyM: number): { lon: number; lat: number; uncertaintyM: number } {
+  const cLat = Math.round((Math.floor(lat / GRID_DEGREES) + 0.5) * GRID_DEGREES * 1000) / 1000;
+  const cLon = Math.round((Math.floor(lon / GRID_DEGREES) + 0.5) * GRID_DEGREES * 1000) / 1000;
+  // 111.32 km per degree of latitude (common practice, spherical Earth).
+  const dy = GRID_DEGREES * 111_320;
+  const dx = GRID_DEGREES * 111_320 * Math.cos((cLat * Math.PI) / 180);
+  const half = Math.sqrt(dx * dx + dy * dy) / 2;
+  return { lon: cLon, lat: cLat, uncertaintyM: Math.ceil((half + accuracyM) / 100) * 100 };
+}
+
+/** Occurrences safe to publish: restricted ones withheld, generalised ones coarsened. */
+export function publicOccurrences(results: Results, occurrences: readonly PublicOccurrence[], locale: string): { rows: Located[]; withheld: number } {
+  const taxa = new Map(results.species.map((s) => [s.id, s]));
+  let withheld = 0;
+  const rows: Located[] = [];
+  for (const o of occurrences) {
+    if (o.sensitivity === "restricted") {
+      withheld++;
+      continue;
+    }
+    const t = taxa.get(o.taxonId);
+    const g = o.sensitivity === "generalised" ? generalise(o.lon, o.lat, o.accuracyM) : null;
+    rows.push({
+      id: o.id, eventDate: o.observedAt.toISOString(), scientificName: t?.scientificName ?? "", taxonRank: t?.rank ?? "species",
+      vernacularName: t?.names[locale] ?? t?.names.en ?? "", individualCount: o.count,
+      lon: g ? g.lon : o.lon, lat: g ? g.lat : o.lat, uncertaintyM: g ? g.uncertaintyM : o.accuracyM, generalised: Boolean(g),
+    });
+  }
+  return { rows, withheld };
+}
+
+/** RFC 4180 field quoting. */
+function csvField(v: string | number): string {
+  const s = String(v);
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** Species list with counts, whole event and per zone (no locations at all). */
+export function speciesCsv(results: Results, locale: string): string {
+  const header = ["scientificName", "vernacularName", "taxonRank", "taxonGroup", "individualCount", ...results.zones.map((z) => z.name)];
+  const lines = results.species.map((s) => [
+    s.scientificName, s.names[locale] ?? s.names.en ?? "", s.rank, s.group, s.individuals, ...results.zones.map((z) => s.byZone[z.id] ?? 0),
+  ]);
+  return [header, ...lines].map((row) => row.map(csvField).join(",")).join("\r\n") + "\r\n";
+}
+
+/** GeoJSON FeatureCollection (RFC 7946: WGS 84 longitude, latitude; no "crs" member). */
+export function occurrencesGeoJson(rows: readonly Located[]): string {
+  return JSON.stringify({
+    type: "FeatureCollection",
+    features: rows.map((r) => ({
+      type: "Feature",
+      id: r.id,
+      geometry: { type: "Point", coordinates: [r.lon, r.lat] },
+      properties: {
+        occurrenceID: `urn:uuid:${r.id}`, scientificName: r.scientificName, vernacularName: r.vernacularName,
+        individualCount: r.individualCount, eventDate: r.eventDate, coordinateUncertaintyInMeters: r.uncertaintyM, generalised: r.generalised,
+      },
+    })),
+  });
+}
+
+// Darwin Core terms of occurrence.txt, in column order (Darwin Core Text Guide,
+// https://dwc.tdwg.org/text/: a tab-separated core file described by meta.xml; terms from
+// the Darwin Core quick reference, https://dwc.tdwg.org/terms/).
+export const DWC_TERMS = [
+  "occurrenceID", "basisOfRecord", "eventDate", "scientificName", "taxonRank", "vernacularName", "individualCount",
+  "occurrenceStatus", "decimalLatitude", "decimalLongitude", "geodeticDatum", "coordinateUncertaintyInMeters",
+  "identificationVerificationStatus", "dataGeneralizations", "datasetName",
+] as const;
+export const DWC_REQUIRED = ["occurrenceID", "basisOfRecord", "eventDate", "scientificName", "taxonRank", "individualCount", "decimalLatitude", "decimalLongitude", "coordinateUncertaintyInMeters", "identificationVerificationStatus"] as const;
+
+const xml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+const tsv = (s: string | number) => String(s).replace(/[\t\r\n]+/g, " ");
+
+export function occurrenceTxt(rows: readonly Located[], datasetName: string): string {
+  const lines = rows.map((r) => {
+    const v: Record<(typeof DWC_TERMS)[number], string | number> = {
+      occurrenceID: `urn:uuid:${r.id}`, basisOfRecord: "HumanObservation", eventDate: r.eventDate, scientificName: r.scientificName,
+      taxonRank: r.taxonRank, vernacularName: r.vernacularName, individualCount: r.individualCount, occurrenceStatus: "present",
+      decimalLatitude: r.lat, decimalLongitude: r.lon, geodeticDatum: "EPSG:4326", coordinateUncertaintyInMeters: r.uncertaintyM,
+      // Approved by an event coordinator: our review state, in the term's free-text sense.
+      identificationVerificationStatus: "verified by event coordinator",
+      dataGeneralizations: r.generalised ? `Coordinates generalised to the centre of a ${GRID_DEGREES}-degree grid cell (sensitive taxon)` : "",
+      datasetName,
+    };
+    return DWC_TERMS.map((t) => tsv(v[t])).join("\t");
+  });
+  return [DWC_TERMS.join("\t"), ...lines].join("\n") + "\n";
+}
+
+export function metaXml(): string {
+  const fields = DWC_TERMS.map((t, i) => `    <field index="${i}" term="http://rs.tdwg.org/dwc/terms/${t}"/>`).join("\n");
+  return `<?xml version="1.0" encoding="UTF-8"?>
+<archive xmlns="http://rs.tdwg.org/dwc/text/" metadata="eml.xml">
+  <core encoding="UTF-8" fieldsTerminatedBy="\\t" linesTerminatedBy="\\n" fieldsEnclosedBy="" ignoreHeaderLines="1" rowType="http://rs.tdwg.org/dwc/terms/Occurrence">
+    <files>
+      <location>occurrence.txt</location>
+    </files>
+    <id index="0"/>
+${fields}
+  </core>
+</archive>
+`;
+}
+
+/** Dataset metadata in Ecological Metadata Language 2.1.1 (the profile the text guide names). */
+export function emlXml(d: { id: string; title: string; organisation: string; version: number; publishedAt: Date; withheld: number; abstract: string }): string {
+  return `<?xml version="1.0" encoding="UTF-8"?>
+<eml:eml xmlns:eml="eml://ecoinformatics.org/eml-2.1.1" packageId="urn:uuid:${d.id}" system="ecotone" scope="system" xml:lang="en">
+  <dataset>
+    <title>${xml(d.title)} (report version ${d.version})</title>
+    <creator><organizationName>${xml(d.organisation)}</organizationName></creator>
+    <pubDate>${d.publishedAt.toISOString().slice(0, 10)}</pubDate>
+    <abstract><para>${xml(d.abstract)}</para><para>Records of restricted sensitive taxa withheld: ${d.withheld}. Records of generalised sensitive taxa have coordinates moved to the centre of a ${GRID_DEGREES}-degree grid cell.</para></abstract>
+    <contact><organizationName>${xml(d.organisation)}</organizationName></contact>
+  </dataset>
+</eml:eml>
+`;
+}
+
+export function darwinCoreArchive(rows: readonly Located[], meta: Parameters<typeof emlXml>[0]): Uint8Array {
+  return zipSync({
+    "occurrence.txt": strToU8(occurrenceTxt(rows, meta.title)),
+    "meta.xml": strToU8(metaXml()),
+    "eml.xml": strToU8(emlXml(meta)),
+  }, { level: 6, mtime: meta.publishedAt });
+}

@@ -1,0 +1,98 @@
+// The exact input records of a report and what follows from them: the sha256 that a
+// report carries, the ResultsInput they give, and what changed between two versions.
+import { createHash } from "node:crypto";
+import { NO_ZONE, type ResultsInput, type ResultsTaxon } from "./compute";
+
+/**
+ * One approved sighting as results use it:
+ * [sighting id, review state, taxon id, count, zone (NO_ZONE if none),
+ *  complete count session id or null, that session's zone (NO_ZONE if none) or null].
+ */
+export type InputRecord = [string, string, string, number, string, string | null, string | null];
+
+/** sha256 over the records sorted by sighting id, one JSON array per line. */
+export function inputHash(records: readonly InputRecord[]): string {
+  const h = createHash("sha256");
+  for (const r of [...records].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0))) h.update(`${JSON.stringify(r)}\n`);
+  return h.digest("hex");
+}
+
+/**
+ * The results input from the records alone. Taxa are ordered by id and sessions by id,
+ * the same canonical order the aggregate queries use, so both paths give identical numbers.
+ */
+export function inputFromRecords(
+  records: readonly InputRecord[],
+  zones: ResultsInput["zones"],
+  taxaById: ReadonlyMap<string, ResultsTaxon>,
+): ResultsInput {
+  const ids = [...new Set(records.map((r) => r[2]))].sort();
+  const index = new Map(ids.map((id, i) => [id, i]));
+  const taxa = ids.map((id) => {
+    const t = taxaById.get(id);
+    if (!t) throw new Error(`taxon ${id} of an input record is unknown`);
+    return t;
+  });
+  const counts = new Map<string, { zoneId: string; taxon: number; individuals: number }>();
+  const sessions = new Map<string, { zoneId: string; taxa: Set<number> }>();
+  for (const [, , taxonId, count, zoneKey, sessionId, sessionZone] of records) {
+    const taxon = index.get(taxonId)!;
+    const key = `${zoneKey}|${taxon}`;
+    const c = counts.get(key) ?? { zoneId: zoneKey, taxon, individuals: 0 };
+    c.individuals += count;
+    counts.set(key, c);
+    if (sessionId) {
+      const s = sessions.get(sessionId) ?? { zoneId: sessionZone ?? NO_ZONE, taxa: new Set<number>() };
+      s.taxa.add(taxon);
+      sessions.set(sessionId, s);
+    }
+  }
+  return {
+    zones,
+    taxa,
+    counts: [...counts.values()],
+    sessions: [...sessions.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([, s]) => ({ zoneId: s.zoneId, taxa: [...s.taxa].sort((a, b) => a - b) })),
+  };
+}
+
+export type ReportChanges = {
+  previousVersion: number;
+  added: number;
+  removed: number;
+  changed: number;
+  speciesBefore: number;
+  speciesAfter: number;
+  individualsBefore: number;
+  individualsAfter: number;
+  newTaxa: string[];
+  lostTaxa: string[];
+};
+
+/** What a new version changes against the previous one, record by record. */
+export function diffRecords(
+  previousVersion: number,
+  before: readonly InputRecord[],
+  after: readonly InputRecord[],
+  nameOf: (taxonId: string) => string,
+): ReportChanges {
+  const old = new Map(before.map((r) => [r[0], r]));
+  const now = new Map(after.map((r) => [r[0], r]));
+  let added = 0;
+  let changed = 0;
+  for (const [id, r] of now) {
+    const o = old.get(id);
+    if (!o) added++;
+    else if (JSON.stringify(o) !== JSON.stringify(r)) changed++;
+  }
+  const removed = [...old.keys()].filter((id) => !now.has(id)).length;
+  const taxaBefore = new Set(before.map((r) => r[2]));
+  const taxaAfter = new Set(after.map((r) => r[2]));
+  const sum = (rs: readonly InputRecord[]) => rs.reduce((s, r) => s + r[3], 0);
+  return {
+    previousVersion, added, removed, changed,
+    speciesBefore: taxaBefore.size, speciesAfter: taxaAfter.size,
+    individualsBefore: sum(before), individualsAfter: sum(after),
+    newTaxa: [...taxaAfter].filter((t) => !taxaBefore.has(t)).map(nameOf).sort(),
+    lostTaxa: [...taxaBefore].filter((t) => !taxaAfter.has(t)).map(nameOf).sort(),
+  };
+}

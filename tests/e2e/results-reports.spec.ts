@@ -1,0 +1,139 @@
+import { readFileSync } from "node:fs";
+import { Client } from "pg";
+import { unzipSync, strFromU8 } from "fflate";
+import type { Page } from "@playwright/test";
+import { SENSITIVE_DEMO_RECORDS } from "../../db/seed/sensitive";
+import { E2E_DB_URL } from "./demo-ids";
+import { DEMO, expect, signInWithPassword, test } from "./support";
+
+const SLUG = "harrowmere-vale-midsummer-count";
+
+async function withDb<T>(fn: (db: Client) => Promise<T>): Promise<T> {
+  const db = new Client({ connectionString: E2E_DB_URL });
+  await db.connect();
+  try {
+    return await fn(db);
+  } finally {
+    await db.end();
+  }
+}
+
+/**
+ * Setup helper: a coordinator approves one more sighting. The review desk is built on
+ * another branch; until it lands, the decision is written straight to the database the
+ * way the desk records it (state change plus an append-only review row).
+ */
+async function coordinatorApprovesOne(): Promise<string> {
+  return withDb(async (db) => {
+    const { rows } = await db.query<{ id: string; coordinator: string }>(`
+      SELECT s.id, (SELECT id FROM users WHERE email = $1) AS coordinator
+      FROM sightings s JOIN events e ON e.id = s.event_id
+      WHERE e.slug = $2 AND s.review_state = 'pending' AND s.taxon_id IS NOT NULL ORDER BY s.id LIMIT 1`, [DEMO.coordinator, SLUG]);
+    const { id, coordinator } = rows[0]!;
+    await db.query("BEGIN");
+    await db.query("UPDATE sightings SET review_state = 'approved', version = version + 1, updated_at = now() WHERE id = $1", [id]);
+    await db.query("INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state) VALUES ($1, $2, 'pending', 'approved')", [id, coordinator]);
+    await db.query("COMMIT");
+    return id;
+  });
+}
+
+const latestVersion = () => withDb(async (db) => {
+  const { rows } = await db.query<{ v: number }>("SELECT coalesce(max(version), 0)::int AS v FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1", [SLUG]);
+  return rows[0]!.v;
+});
+const resultsDigest = (version: number) => withDb(async (db) => {
+  const { rows } = await db.query<{ h: string }>("SELECT md5(r.results::text || r.input_hash || r.changes::text) AS h FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND r.version = $2", [SLUG, version]);
+  return rows[0]!.h;
+});
+
+async function publish(page: Page, expected: number) {
+  await page.getByRole("button", { name: "Publish a new version" }).click();
+  // Publishing re-computes from every input record and refreshes the page: allow for a loaded machine.
+  await expect(page.getByRole("status").filter({ hasText: `Version ${expected} published.` })).toBeVisible({ timeout: 20_000 });
+  await expect(page.getByRole("link", { name: `Version ${expected}`, exact: true })).toBeVisible({ timeout: 20_000 });
+}
+
+test("organiser publishes results; the public reads the Spanish report and downloads it; version 2 lists the change", async ({ page, browser }) => {
+  test.setTimeout(300_000);
+  await signInWithPassword(page, DEMO.organiser);
+  await page.goto(`/en/events/${SLUG}/results`);
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Results — Harrowmere Vale Midsummer Count");
+  // The curves: rarefaction/extrapolation with a solid and a dashed part, accumulation, rank-abundance, zones overlaid.
+  for (const name of ["Individual-based rarefaction and extrapolation", "Sample-based accumulation (Mao Tau) and extrapolation", "Rank–abundance", "Rarefaction and extrapolation by zone"]) {
+    await expect(page.getByRole("figure", { name })).toBeVisible();
+  }
+  const rarefaction = page.getByRole("figure", { name: "Individual-based rarefaction and extrapolation" });
+  await expect(rarefaction.locator("path.recharts-curve[stroke-dasharray]").first()).toBeAttached();
+  await expect(rarefaction.getByText("observed", { exact: true })).toBeVisible();
+  // The zone comparison, with its sentence and the caution beside it.
+  await expect(page.getByRole("heading", { name: "Zones at equal effort" })).toBeVisible();
+  await expect(page.getByTestId("comparison-sentences").getByRole("listitem").first()).toContainText(/At equal effort, .+ \(edge\) held .+ \(interior\)/);
+  await expect(page.getByRole("complementary", { name: "Reading these estimates" }).first()).toBeVisible();
+  await expect(page.getByRole("row", { name: /Chao1/ }).first()).toBeVisible();
+
+  const v1 = (await latestVersion()) + 1;
+  await publish(page, v1);
+  const v1Digest = await resultsDigest(v1);
+
+  // An anonymous visitor reads version 1 in Spanish and downloads the three files.
+  const visitor = await browser.newContext();
+  const anon = await visitor.newPage();
+  await anon.goto(`/es/events/${SLUG}/reports/${v1}`);
+  await expect(anon.getByRole("heading", { level: 1 })).toContainText(`informe, versión ${v1}`);
+  await expect(anon.getByRole("heading", { name: "Zonas con igual esfuerzo" })).toBeVisible();
+  await expect(anon.getByRole("figure", { name: "Rarefacción y extrapolación por individuos" })).toBeVisible();
+  await expect(anon.getByText(/Organizado por .+ voluntarios y \d+ coordinadores/)).toBeVisible();
+  await expect(anon.getByRole("link", { name: "Recalcular este informe a partir de sus entradas registradas" })).toHaveAttribute("href", /\?check=1$/);
+  const observedV1 = await anon.getByTestId("headline-observed").textContent();
+  const html = await anon.content();
+  const files: Record<string, Buffer> = {};
+  for (const label of ["Lista de especies (CSV)", "Archivo Darwin Core (zip)", "Avistamientos (GeoJSON)"]) {
+    const [download] = await Promise.all([anon.waitForEvent("download"), anon.getByRole("link", { name: label }).click()]);
+    files[label] = readFileSync((await download.path())!);
+  }
+  expect(files["Lista de especies (CSV)"]!.toString("utf8")).toMatch(/^scientificName,vernacularName,taxonRank,taxonGroup,individualCount,/);
+  const zip = unzipSync(new Uint8Array(files["Archivo Darwin Core (zip)"]!));
+  expect(Object.keys(zip).sort()).toEqual(["eml.xml", "meta.xml", "occurrence.txt"]);
+  const geo = JSON.parse(files["Avistamientos (GeoJSON)"]!.toString("utf8")) as { type: string; features: unknown[] };
+  expect(geo.type).toBe("FeatureCollection");
+  expect(geo.features.length).toBeGreaterThan(100);
+  // Not one public byte holds an exact coordinate of a sensitive taxon.
+  const publicText = [html, files["Lista de especies (CSV)"]!.toString("utf8"), files["Avistamientos (GeoJSON)"]!.toString("utf8"), strFromU8(zip["occurrence.txt"]!)].join("\n");
+  for (const r of SENSITIVE_DEMO_RECORDS) {
+    for (const v of [r.lon, r.lat]) expect(new RegExp(`${String(v).replace(".", "\\.")}(?!\\d)`).test(publicText), String(v)).toBe(false);
+  }
+
+  // A coordinator approves one more sighting; the organiser publishes version 2.
+  await coordinatorApprovesOne();
+  await page.reload();
+  await publish(page, v1 + 1);
+  await expect(page.getByRole("link", { name: `Version ${v1 + 1}`, exact: true })).toHaveAttribute("href", `/en/events/${SLUG}/reports/${v1 + 1}`);
+  await page.goto(`/en/events/${SLUG}/reports/${v1 + 1}`);
+  await expect(page.getByTestId("changes")).toContainText(`What changed since version ${v1}`);
+  await expect(page.getByTestId("changes")).toContainText("Input records: 1 added, 0 removed, 0 changed.");
+
+  // Version 1 is still there, marked superseded, its numbers unchanged.
+  await anon.goto(`/es/events/${SLUG}/reports/${v1}`);
+  await expect(anon.getByTestId("superseded")).toBeVisible();
+  await expect(anon.getByTestId("headline-observed")).toHaveText(observedV1!);
+  await anon.goto(`/es/events/${SLUG}/reports/${v1}?check=1`);
+  await expect(anon.getByTestId("recompute")).toContainText("✓ Recalculado a partir de sus entradas registradas", { timeout: 20_000 });
+  expect(await resultsDigest(v1)).toBe(v1Digest);
+  await visitor.close();
+});
+
+test("the live board shows the backlog, completeness and where to look next, polling for updates", async ({ page }) => {
+  await signInWithPassword(page, DEMO.coordinator);
+  await page.goto(`/en/events/${SLUG}/live`);
+  const board = page.getByTestId("live-board");
+  await expect(board).toBeVisible();
+  await expect(board.getByRole("region", { name: "Review backlog" })).toContainText(/Pending: \d+/);
+  await expect(board.getByRole("region", { name: "Completeness so far" })).toContainText(/of about [\d.,]+ species \(Chao1/);
+  await expect(page.getByTestId("where-next").getByRole("listitem")).toHaveCount(4);
+  const before = await board.getByRole("region", { name: "Review backlog" }).textContent();
+  const pendingBefore = Number(/Pending: (\d+)/.exec(before ?? "")![1]);
+  await coordinatorApprovesOne();
+  // The next poll (every 15 s) shows one fewer pending.
+  await expect(board.getByRole("region", { name: "Review backlog" })).toContainText(`Pending: ${pendingBefore - 1}`, { timeout: 25_000 });
+});
