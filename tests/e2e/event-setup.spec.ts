@@ -109,18 +109,18 @@ test("an organiser creates an event, uploads zones and species, invites a coordi
   await coordinator.close();
 
   await page.reload();
-  await expect(page.getByLabel("Role of fungi-expert@example.org")).toHaveValue("coordinator");
+  await expect(page.getByLabel("Role of fungi-expert@example.org", { exact: true })).toHaveValue("coordinator");
   await expect(page.getByText("fungi-expert@example.org joined as coordinator")).toBeVisible();
 
   // Every change of role, and the removal, is logged.
   const member = page.getByRole("form", { name: "Change the role of fungi-expert@example.org" });
-  await member.getByLabel("Role of fungi-expert@example.org").selectOption("volunteer");
+  await member.getByLabel("Role of fungi-expert@example.org", { exact: true }).selectOption("volunteer");
   await member.getByRole("button", { name: "Save role" }).click();
   await expect(page.getByText("fungi-expert@example.org: coordinator → volunteer, by organiser@example.org")).toBeVisible();
   await page.getByRole("button", { name: "Remove fungi-expert@example.org" }).click();
   await page.getByRole("button", { name: "Yes, remove fungi-expert@example.org" }).click();
   await expect(page.getByText("fungi-expert@example.org (volunteer) removed by organiser@example.org")).toBeVisible();
-  await expect(page.getByLabel("Role of fungi-expert@example.org")).toHaveCount(0);
+  await expect(page.getByLabel("Role of fungi-expert@example.org", { exact: true })).toHaveCount(0);
 });
 
 test("a volunteer joins with the event's join link and the mailed sign-in link", async ({ page, browser, mail, baseURL }) => {

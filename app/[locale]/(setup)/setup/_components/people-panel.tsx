@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useFormatter, useTranslations } from "next-intl";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import useSWR from "swr";
 import { EVENT_ROLES, inviteInput, TAXON_GROUP_CODES, type InviteInput } from "@/app/api/events/[eventId]/setup/members/schema";
@@ -45,6 +45,8 @@ function InviteForm({ eventId, locale, onDone }: { eventId: string; locale: stri
     defaultValues: { email: "", name: "", role: "volunteer", taxonGroups: [], locale: locale as InviteInput["locale"] },
   });
   const role = form.watch("role");
+  // Group limits belong to coordinators only: leaving that role clears them.
+  useEffect(() => { if (role !== "coordinator") form.setValue("taxonGroups", []); }, [role, form]);
   const { errors, isSubmitting } = form.formState;
   const submit = form.handleSubmit(async (values) => {
     setSent(null);
@@ -97,6 +99,7 @@ function MemberRow({ eventId, member, onDone }: { eventId: string; member: Membe
   const [problem, setProblem] = useState<string | null>(null);
   const form = useForm<RoleChangeInput>({ resolver: zodResolver(roleChangeInput), defaultValues: { role: member.role, taxonGroups: member.taxonGroups } });
   const role = form.watch("role");
+  useEffect(() => { if (role !== "coordinator") form.setValue("taxonGroups", []); }, [role, form]);
   const url = `/api/events/${eventId}/setup/members/${member.userId}`;
   const who = member.name ? `${member.name} (${member.email})` : member.email;
   const submit = form.handleSubmit(async (values) => {
