@@ -1,7 +1,8 @@
 import { readFileSync } from "node:fs";
 import { sql } from "drizzle-orm";
-import { describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it } from "vitest";
 import { importSpecies, listEventSpecies } from "@/db/queries/setup-species";
+import { seedDemo } from "@/db/seed/demo";
 import * as s from "@/db/schema";
 import { parseSpeciesCsv, problemLines } from "@/lib/species/csv";
 import { db, makeFixture } from "./helpers";
@@ -21,6 +22,12 @@ async function importFile(eventId: string, csv: string, save: boolean) {
   return importSpecies(eventId, parsed.rows, save);
 }
 
+// The example file shares three taxa with the demo's list: seed it first, as on a real
+// site, so that the import meets taxa other events already show.
+beforeAll(async () => {
+  await seedDemo(db() as never);
+});
+
 describe("species-list import", () => {
   it("reports exactly the three bad lines of a file and saves nothing of it", async () => {
     const f = await makeFixture("species-bad");
@@ -33,9 +40,9 @@ describe("species-list import", () => {
 
   it("refuses a whole file when one line contradicts a shared taxon, even with the other lines valid", async () => {
     const f = await makeFixture("species-conflict");
-    await db().insert(s.taxa).values({ scientificName: "Calluna vulgaris", taxonGroup: "vascular_plants" }).onConflictDoNothing();
+    await db().insert(s.taxa).values({ scientificName: "Erica conflicta", taxonGroup: "vascular_plants" }).onConflictDoNothing();
     const before = await counts(f.event.id);
-    const csv = "scientific_name,rank,taxon_group\nNewus fungus,species,fungi\nCalluna vulgaris,species,insects\n";
+    const csv = "scientific_name,rank,taxon_group\nNewus fungus,species,fungi\nErica conflicta,species,insects\n";
     const result = await importFile(f.event.id, csv, true);
     expect(result.saved).toBe(false);
     expect(result.problems).toMatchObject([{ line: 3, column: "taxon_group", code: "groupConflict" }]);
@@ -45,7 +52,11 @@ describe("species-list import", () => {
   it("saves a valid file in one go, and a second import merges without duplicating anything", async () => {
     const f = await makeFixture("species-merge");
     const first = await importFile(f.event.id, fixture("species.csv"), true);
-    expect(first).toMatchObject({ saved: true, problems: [] });
+    expect(first).toMatchObject({ saved: true, problems: [], summary: { newTaxa: 3, addedToList: 6 } });
+    // Amanita muscaria keeps the demo's Spanish name; the file's is not applied.
+    expect("notices" in first && first.notices.filter((n) => n.code === "nameKept").map((n) => [n.line, n.values?.stored])).toEqual([
+      [2, "Falsa oronja"], [3, "Boleto comestible"], [4, "Golden chanterelle"],
+    ]);
     const once = await counts(f.event.id);
     expect(once.listed).toBe(6);
     const second = await importFile(f.event.id, fixture("species.csv"), true);
