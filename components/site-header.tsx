@@ -1,4 +1,5 @@
 import { getTranslations } from "next-intl/server";
+import { organisesAnything } from "@/db/queries/setup";
 import { getSessionUser } from "@/lib/auth/guard";
 import { Link } from "@/lib/i18n/navigation";
 import { EcotoneMark } from "./ecotone-mark";
@@ -7,6 +8,7 @@ import { SignOutButton } from "./sign-out-button";
 
 export async function SiteHeader() {
   const [t, tNav, user] = await Promise.all([getTranslations("Common"), getTranslations("Nav"), getSessionUser()]);
+  const organiser = user ? user.isAdmin || (await organisesAnything(user.id)) : false;
   const link = "inline-flex min-h-touch items-center rounded-md px-2 font-semibold underline-offset-4 hover:underline";
   return (
     <header className="border-b-4 border-heath-400 bg-reed-800 text-paper">
@@ -19,6 +21,7 @@ export async function SiteHeader() {
           <Link href="/" className={link}>{tNav("events")}</Link>
           {user ? (
             <>
+              {organiser ? <Link href="/setup" className={link}>{tNav("setup")}</Link> : null}
               <Link href="/account" className={link} title={user.email}>{tNav("account")}</Link>
               <SignOutButton />
             </>

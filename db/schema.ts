@@ -6,8 +6,10 @@ import {
 
 // PostGIS columns. Geometries are written with ST_GeomFromGeoJSON / ST_MakePoint and read
 // back with ST_AsGeoJSON / ST_X / ST_Y in the queries, so the driver value is kept raw.
-const polygon = customType<{ data: string; driverData: string }>({
-  dataType: () => "geometry(Polygon,4326)",
+// Areas and zones may be a Polygon or a MultiPolygon (an event area in two parts, a zone
+// split by a river); a CHECK on each column keeps any other geometry out.
+const areal = customType<{ data: string; driverData: string }>({
+  dataType: () => "geometry(Geometry,4326)",
 });
 const point = customType<{ data: string; driverData: string }>({
   dataType: () => "geometry(Point,4326)",
@@ -105,7 +107,7 @@ export const events = pgTable("events", {
   endsAt: timestamp("ends_at", { withTimezone: true, mode: "date" }).notNull(),
   timeZone: text("time_zone").notNull(),
   languages: text("languages").array().notNull().default(sql`ARRAY['en']::text[]`),
-  area: polygon("area"),
+  area: areal("area"),
   sessionKinds: sessionKind("session_kinds").array().notNull().default(sql`ARRAY['timed_count','walk','plot_search']::session_kind[]`),
   photoRequiredSensitive: boolean("photo_required_sensitive").notNull().default(true),
   photoRequiredOffList: boolean("photo_required_off_list").notNull().default(true),
@@ -118,6 +120,7 @@ export const events = pgTable("events", {
   check("events_accuracy_limit_positive", sql`${t.accuracyLimitM} > 0`),
   check("events_languages_nonempty", sql`cardinality(${t.languages}) > 0`),
   check("events_area_valid", sql`${t.area} IS NULL OR ST_IsValid(${t.area})`),
+  check("events_area_areal", sql`${t.area} IS NULL OR GeometryType(${t.area}) IN ('POLYGON', 'MULTIPOLYGON')`),
   index("events_organisation_idx").on(t.organisationId),
   index("events_area_gist").using("gist", t.area),
 ]);
@@ -128,11 +131,12 @@ export const zones = pgTable("zones", {
   name: text("name").notNull(),
   habitat: habitatKind("habitat").notNull(),
   description: text("description").notNull().default(""),
-  geom: polygon("geom").notNull(),
+  geom: areal("geom").notNull(),
   createdAt: createdAt(),
 }, (t) => [
   uniqueIndex("zones_event_name_key").on(t.eventId, t.name),
   check("zones_geom_valid", sql`ST_IsValid(${t.geom})`),
+  check("zones_geom_areal", sql`GeometryType(${t.geom}) IN ('POLYGON', 'MULTIPOLYGON')`),
   index("zones_geom_gist").using("gist", t.geom),
 ]);
 

@@ -89,3 +89,25 @@ export const SECOND_PEOPLE: DemoPerson[] = [
   { key: "moor-organiser", name: "Idris Bevan", email: "moor-organiser@example.org", locale: "en", role: "organiser" },
   { key: "moor-volunteer", name: "Carmen Solís", email: "moor-volunteer@example.org", locale: "es", role: "volunteer" },
 ];
+
+// A third invented event, still in preparation (draft), for the event-setup screens: the
+// organiser has people lined up but no zones or species list yet. The role tests aim the
+// setup handlers at it, so their writes never touch the two events above.
+export const SETUP_EVENT = {
+  slug: "harrowmere-vale-autumn-fungus-foray",
+  name: "Harrowmere Vale Autumn Fungus Foray",
+  description: "A weekend looking for fungi in the beechwood and the meadow margins after the first autumn rains.",
+  timeZone: "Europe/London",
+  startsAt: new Date("2027-10-16T08:00:00Z"),
+  endsAt: new Date("2027-10-17T16:00:00Z"),
+  languages: ["en", "es", "fr"],
+  joinCode: "HARROW-AUTUMN",
+  // Demo people (by key) who already hold a role there.
+  members: [
+    { key: "coord-all", role: "coordinator" as const, groups: [] as "birds"[] },
+    { key: "coord-birds", role: "coordinator" as const, groups: ["birds"] as "birds"[] },
+    { key: "vol-2", role: "volunteer" as const, groups: [] as "birds"[] },
+    { key: "vol-5", role: "volunteer" as const, groups: [] as "birds"[] },
+  ],
+  invitation: { email: "autumn-helper@example.org", role: "volunteer" as const },
+};

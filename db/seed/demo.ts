@@ -3,7 +3,7 @@ import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as s from "../schema";
 import {
   DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
-  SECOND_PEOPLE, SECOND_ZONES, type DemoPerson, type DemoZone,
+  SECOND_PEOPLE, SECOND_ZONES, SETUP_EVENT, type DemoPerson, type DemoZone,
 } from "./demo-scenario";
 import { refreshCheckMarks } from "../queries/check-marks";
 import { demoId, seededRandom } from "./random";
@@ -209,6 +209,20 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
     await tx.insert(s.eventMembers).values({ eventId: event2, userId: people.get("vol-1")!, role: "volunteer" }).onConflictDoNothing();
     const winter = SEED_TAXA.filter((t) => t.group === "birds" || t.group === "fungi" || t.group === "mammals" || (t.group === "vascular_plants" && t.habitat !== "wetland"));
     await tx.insert(s.eventSpecies).values(winter.map((t) => ({ eventId: event2, taxonId: taxonIds.get(t.scientificName)! }))).onConflictDoNothing();
+
+    // The third event, in preparation, for the setup screens (appended; see SETUP_EVENT).
+    const event3 = demoId("event:setup");
+    await tx.insert(s.events).values({
+      id: event3, organisationId: orgId, slug: SETUP_EVENT.slug, name: SETUP_EVENT.name, description: SETUP_EVENT.description,
+      status: "draft", startsAt: SETUP_EVENT.startsAt, endsAt: SETUP_EVENT.endsAt, timeZone: SETUP_EVENT.timeZone,
+      languages: SETUP_EVENT.languages, joinCode: SETUP_EVENT.joinCode,
+    }).onConflictDoNothing();
+    for (const m of SETUP_EVENT.members) {
+      await tx.insert(s.eventMembers).values({ eventId: event3, userId: people.get(m.key)!, role: m.role, taxonGroups: m.groups }).onConflictDoNothing();
+    }
+    await tx.insert(s.invitations).values({
+      id: demoId("invitation:setup"), eventId: event3, email: SETUP_EVENT.invitation.email, role: SETUP_EVENT.invitation.role, invitedBy: people.get("organiser")!,
+    }).onConflictDoNothing();
 
     const [counts] = await tx.execute<{ sessions: number; sightings: number; reviews: number }>(sql`
       SELECT (SELECT count(*) FROM count_sessions WHERE event_id = ${eventId})::int AS sessions,

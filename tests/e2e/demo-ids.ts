@@ -12,8 +12,11 @@ export async function demoIds(): Promise<Ids> {
       SELECT e.id AS "eventId", e.organisation_id AS "organisationId",
         (SELECT s.id FROM sightings s JOIN taxa t ON t.id = s.taxon_id WHERE s.event_id = e.id AND t.taxon_group <> 'birds' ORDER BY s.id LIMIT 1) AS "sightingId",
         (SELECT s.id FROM sightings s JOIN taxa t ON t.id = s.taxon_id WHERE s.event_id = e.id AND t.taxon_group = 'birds' ORDER BY s.id LIMIT 1) AS "birdSightingId",
-        (SELECT id FROM users WHERE email = 'volunteer2@example.org') AS "volunteerId"
-      FROM events e WHERE e.slug = 'harrowmere-vale-midsummer-count'`);
+        (SELECT id FROM users WHERE email = 'volunteer2@example.org') AS "volunteerId",
+        x.id AS "setupEventId", x.join_code AS "setupJoinCode",
+        (SELECT id FROM users WHERE email = 'volunteer5@example.org') AS "setupMemberId",
+        (SELECT i.id FROM invitations i WHERE i.event_id = x.id AND i.email = 'autumn-helper@example.org') AS "setupInvitationId"
+      FROM events e, events x WHERE e.slug = 'harrowmere-vale-midsummer-count' AND x.slug = 'harrowmere-vale-autumn-fungus-foray'`);
     return rows[0] as Ids;
   } finally {
     await db.end();

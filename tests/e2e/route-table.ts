@@ -10,7 +10,11 @@ export const COORDINATORS: Who[] = ["coordinator", "birdsCoordinator", "organise
 export const ORGANISERS: Who[] = ["organiser"];
 
 /** Ids of the demo rows the paths need, read from the seeded database by the test. */
-export type Ids = { eventId: string; organisationId: string; sightingId: string; birdSightingId: string; volunteerId: string };
+export type Ids = {
+  eventId: string; organisationId: string; sightingId: string; birdSightingId: string; volunteerId: string;
+  // The draft event of the setup screens, a member there to change, an open invitation, its join code.
+  setupEventId: string; setupMemberId: string; setupInvitationId: string; setupJoinCode: string;
+};
 
 export type RouteCase = {
   file: string; // app/api/.../route.ts
@@ -66,3 +70,39 @@ export const ROUTES: RouteCase[] = [
   { file: "app/api/events/[eventId]/reports/[version]/check/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/reports/1/check`, allowed: COORDINATORS, note: "404 when no version 1 yet" },
   { file: "app/api/reports/[reportId]/[file]/route.ts", method: "GET", path: () => "/api/reports/00000000-0000-0000-0000-000000000000/species.csv", allowed: EVERYONE, note: "public: published report downloads (404 for an unknown report)" },
 ];
+
+// ---------------------------------------------------------------- event setup (issue 4)
+// Aimed at the demo's draft event (SETUP_EVENT in db/seed/demo-scenario.ts), where the
+// demo coordinators and volunteer2 hold roles too, so that the organiser's writes and the
+// fuzz test never change the two demo events other tests read.
+const newEventBody = () => ({
+  name: "Role matrix foray", slug: "role-matrix-foray", description: "", startsLocal: "2027-05-01T08:00", endsLocal: "2027-05-01T18:00",
+  timeZone: "Europe/London", languages: ["en"], sessionKinds: ["walk"], photoRequiredSensitive: true, photoRequiredOffList: false, accuracyLimitM: 50,
+});
+const square = (w: number, s: number, e: number, n: number) => [[[w, s], [e, s], [e, n], [w, n], [w, s]]];
+const zonesBody = () => ({
+  save: false,
+  geojson: {
+    type: "FeatureCollection",
+    features: [
+      { type: "Feature", properties: { kind: "area" }, geometry: { type: "Polygon", coordinates: square(-1.82, 52.10, -1.80, 52.11) } },
+      { type: "Feature", properties: { name: "Beech slope", habitat: "woodland" }, geometry: { type: "Polygon", coordinates: square(-1.815, 52.102, -1.805, 52.108) } },
+    ],
+  },
+});
+ROUTES.push(
+  { file: "app/api/organisations/[organisationId]/events/route.ts", method: "POST", path: (i) => `/api/organisations/${i.organisationId}/events`, body: newEventBody, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/route.ts", method: "GET", path: (i) => `/api/events/${i.setupEventId}/setup`, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/route.ts", method: "PATCH", path: (i) => `/api/events/${i.setupEventId}/setup`, body: () => { const { slug: _slug, ...fields } = newEventBody(); return { ...fields, name: "Harrowmere Vale Autumn Fungus Foray", status: "draft" }; }, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/zones/route.ts", method: "GET", path: (i) => `/api/events/${i.setupEventId}/setup/zones`, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/zones/route.ts", method: "PUT", path: (i) => `/api/events/${i.setupEventId}/setup/zones`, body: zonesBody, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/species/route.ts", method: "GET", path: (i) => `/api/events/${i.setupEventId}/setup/species`, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/species/route.ts", method: "PUT", path: (i) => `/api/events/${i.setupEventId}/setup/species`, body: () => ({ csv: "scientific_name,rank,taxon_group,common_name_en\nAmanita muscaria,species,fungi,Fly agaric\n", save: false }), allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/members/route.ts", method: "GET", path: (i) => `/api/events/${i.setupEventId}/setup/members`, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/members/route.ts", method: "POST", path: (i) => `/api/events/${i.setupEventId}/setup/members`, body: () => ({ email: "matrix-invitee@example.org", name: "", role: "volunteer", taxonGroups: [], locale: "en" }), allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/members/[userId]/route.ts", method: "PATCH", path: (i) => `/api/events/${i.setupEventId}/setup/members/${i.setupMemberId}`, body: () => ({ role: "volunteer", taxonGroups: [] }), allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/members/[userId]/route.ts", method: "DELETE", path: (i) => `/api/events/${i.setupEventId}/setup/members/${i.setupMemberId}`, allowed: ORGANISERS, note: "removes volunteer5 from the draft event" },
+  { file: "app/api/events/[eventId]/setup/invitations/[invitationId]/route.ts", method: "DELETE", path: (i) => `/api/events/${i.setupEventId}/setup/invitations/${i.setupInvitationId}`, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/join-code/route.ts", method: "POST", path: (i) => `/api/events/${i.setupEventId}/setup/join-code`, allowed: ORGANISERS },
+  { file: "app/api/join/route.ts", method: "POST", path: () => "/api/join", body: (i) => ({ code: i.setupJoinCode, locale: "en" }), allowed: EVERYONE, note: "public: a join link; without a session it only mails a sign-in link" },
+);

@@ -1,0 +1,14 @@
+import { setRequestLocale } from "next-intl/server";
+import { env } from "@/lib/env";
+import type { Locale } from "@/lib/i18n/routing";
+import { PeoplePanel } from "../../../_components/people-panel";
+import { setupPermit } from "../../../_components/setup-guard";
+
+export const dynamic = "force-dynamic";
+
+export default async function PeoplePage({ params }: { params: Promise<{ locale: Locale; eventId: string }> }) {
+  const { locale, eventId } = await params;
+  setRequestLocale(locale);
+  if (!(await setupPermit(locale, eventId, "/people"))) return null; // the layout shows why
+  return <PeoplePanel eventId={eventId} locale={locale} joinUrlBase={`${env().APP_URL}/${locale}/join`} />;
+}

@@ -1,0 +1,24 @@
+import { createEvent } from "@/db/queries/setup";
+import { requireOrganisationOrganiser } from "@/lib/auth/guard";
+import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { limitWrites } from "@/lib/http/rate-limit";
+import { translator } from "@/lib/i18n/translator";
+import { eventInstants, parseSetupBody } from "@/lib/setup/api";
+import { createEventInput } from "./schema";
+
+type Ctx = { params: Promise<{ organisationId: string }> };
+
+// An organiser of the organisation creates one of its events, as a draft.
+export const POST = handle<Ctx>(async (request, { params }) => {
+  const { organisationId } = await params;
+  const user = await requireOrganisationOrganiser(organisationId);
+  limitWrites(`setup:${user.id}`);
+  const input = await parseSetupBody(request, createEventInput);
+  const { slug, startsLocal, endsLocal, ...rest } = input;
+  const made = await createEvent(organisationId, slug, { ...rest, ...eventInstants(input) });
+  if (!made) {
+    const t = translator(requestLocale(request), "Setup");
+    throw new ApiError("conflict", [{ field: "slug", message: t("errors.slugTaken") }]);
+  }
+  return Response.json({ id: made.id }, { status: 201 });
+});
