@@ -15,6 +15,8 @@ const schema = z.object({
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().default("Ecotone <no-reply@ecotone.example.org>"),
   MAIL_INBOX_URL: z.string().url().optional(),
+  // Sync batches one person may send per minute (per app process); the ingest benchmark raises it.
+  SYNC_BATCHES_PER_MINUTE: z.coerce.number().int().min(1).default(120),
   // Origins besides our own that pages may load images from and send data to (the photo store).
   CSP_EXTRA_ORIGINS: z.string().default("").transform((v) => v.split(/[\s,]+/).filter(Boolean)),
 });
