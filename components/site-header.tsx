@@ -1,4 +1,4 @@
-import { getTranslations } from "next-intl/server";
+import { getLocale, getTranslations } from "next-intl/server";
 import { getSessionUser } from "@/lib/auth/guard";
 import { Link } from "@/lib/i18n/navigation";
 import { EcotoneMark } from "./ecotone-mark";
@@ -6,7 +6,7 @@ import { LocaleSwitcher } from "./locale-switcher";
 import { SignOutButton } from "./sign-out-button";
 
 export async function SiteHeader() {
-  const [t, tNav, user] = await Promise.all([getTranslations("Common"), getTranslations("Nav"), getSessionUser()]);
+  const [t, tNav, user, locale] = await Promise.all([getTranslations("Common"), getTranslations("Nav"), getSessionUser(), getLocale()]);
   const link = "inline-flex min-h-touch items-center rounded-md px-2 font-semibold underline-offset-4 hover:underline";
   return (
     <header className="border-b-4 border-heath-400 bg-reed-800 text-paper">
@@ -19,6 +19,8 @@ export async function SiteHeader() {
           <Link href="/" className={link}>{tNav("events")}</Link>
           {user ? (
             <>
+              {/* A full page load, so the service worker can answer it without a network. */}
+              <a href={`/${locale}/field`} className={link}>{tNav("fieldLog")}</a>
               <Link href="/account" className={link} title={user.email}>{tNav("account")}</Link>
               <SignOutButton />
             </>

@@ -23,7 +23,7 @@ describe("field outbox", () => {
   it("refuses to queue a record the server would refuse, naming the field", async () => {
     const db = await freshDb();
     await expect(saveSighting(db, EVENT, sighting({ count: 0 }), "Mallard")).rejects.toThrow(InvalidRecord);
-    const err = await saveSighting(db, EVENT, sighting({ latitude: 91 }), "Mallard").catch((e) => e as InvalidRecord);
+    const err = (await saveSighting(db, EVENT, sighting({ latitude: 91 }), "Mallard").catch((e: unknown) => e)) as InvalidRecord;
     expect(err.issues[0]?.field).toBe("latitude");
     expect((await eventRecords(db, EVENT)).sightings).toHaveLength(0);
   });
