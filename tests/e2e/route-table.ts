@@ -36,4 +36,5 @@ export const ROUTES: RouteCase[] = [
   { file: "app/api/auth/[...nextauth]/route.ts", method: "POST", path: () => "/api/auth/_log", allowed: EVERYONE, note: "public: how a session starts" },
   { file: "app/api/account/password/route.ts", method: "PUT", path: () => "/api/account/password", body: () => ({ password: "short" }), allowed: SIGNED_IN },
   { file: "app/api/events/[eventId]/sync/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/sync`, body: () => ({ sessions: [], sightings: [] }), allowed: EVENT_MEMBERS, note: "each member sends their own records" },
+  { file: "app/api/events/[eventId]/pack/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/pack`, allowed: EVENT_MEMBERS, note: "the field log's offline event pack" },
 ];
