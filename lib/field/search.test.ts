@@ -4,11 +4,11 @@ import { buildSpeciesIndex, fold, recordUsage, type Usage } from "./search";
 import type { PackSpecies } from "./types";
 
 const species: PackSpecies[] = SEED_TAXA.map((t, i) => ({
-  taxonId: `00000000-0000-4000-8000-${String(i).padStart(12, "0")}`,
-  scientificName: t.scientificName, taxonGroup: t.group, sensitivity: t.sensitivity ?? "open", onList: true,
+  id: `00000000-0000-4000-8000-${String(i).padStart(12, "0")}`,
+  scientificName: t.scientificName, rank: "species", taxonGroup: t.group, sensitivity: t.sensitivity ?? "open", onList: true,
   names: { en: t.names.en, es: t.names.es, fr: t.names.fr },
 }));
-const idOf = (scientific: string) => species.find((s) => s.scientificName === scientific)!.taxonId;
+const idOf = (scientific: string) => species.find((s) => s.scientificName === scientific)!.id;
 
 describe("offline species search", () => {
   it("folds accents and case", () => {

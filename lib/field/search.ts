@@ -31,9 +31,9 @@ export function usageScore(u: { n: number; last: number } | undefined, now = Dat
 }
 
 export function buildSpeciesIndex(species: PackSpecies[], locale: string): SpeciesIndex {
-  const byId = new Map(species.map((s) => [s.taxonId, s]));
+  const byId = new Map(species.map((s) => [s.id, s]));
   const hit = (s: PackSpecies): SpeciesHit => ({
-    taxonId: s.taxonId, label: speciesLabel(s, locale), scientificName: s.scientificName,
+    taxonId: s.id, label: speciesLabel(s, locale), scientificName: s.scientificName,
     otherNames: Object.entries(s.names).filter(([l]) => l !== locale).map(([, n]) => n),
     onList: s.onList, sensitivity: s.sensitivity, taxonGroup: s.taxonGroup,
   });
@@ -49,7 +49,7 @@ export function buildSpeciesIndex(species: PackSpecies[], locale: string): Speci
       combineWith: "AND",
     },
   });
-  mini.addAll(species.map((s) => ({ id: s.taxonId, common: speciesLabel(s, locale), scientific: s.scientificName, others: Object.entries(s.names).filter(([l]) => l !== locale).map(([, n]) => n).join(" ") })));
+  mini.addAll(species.map((s) => ({ id: s.id, common: speciesLabel(s, locale), scientific: s.scientificName, others: Object.entries(s.names).filter(([l]) => l !== locale).map(([, n]) => n).join(" ") })));
 
   const alphabetical = [...species].sort((a, b) => Number(b.onList) - Number(a.onList) || speciesLabel(a, locale).localeCompare(speciesLabel(b, locale), locale));
 
@@ -59,8 +59,8 @@ export function buildSpeciesIndex(species: PackSpecies[], locale: string): Speci
       const now = Date.now();
       if (!q) {
         // No query: the person's recent and frequent species, then the list A–Z.
-        const used = species.filter((s) => usage[s.taxonId]).sort((a, b) => usageScore(usage[b.taxonId], now) - usageScore(usage[a.taxonId], now));
-        const rest = alphabetical.filter((s) => !usage[s.taxonId]);
+        const used = species.filter((s) => usage[s.id]).sort((a, b) => usageScore(usage[b.id], now) - usageScore(usage[a.id], now));
+        const rest = alphabetical.filter((s) => !usage[s.id]);
         return [...used, ...rest].slice(0, limit).map(hit);
       }
       let results = mini.search(q, { boostDocument: (id) => 1 + usageScore(usage[String(id)], now) / 2 });

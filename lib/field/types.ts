@@ -1,4 +1,5 @@
 import type { SessionRecord, SightingRecord } from "@/app/api/events/[eventId]/sync/schema";
+import type { EventPack as ServerPack, PackSpecies as ServerSpecies } from "@/db/queries/pack";
 
 // What the device keeps in IndexedDB. Every record goes to the outbox first and is sent
 // later; its device state (design.md "Words") says where it is on that way.
@@ -53,37 +54,13 @@ export type LocalPhoto = {
   sentAt?: number;
 };
 
-/** Species as the device knows them from the event pack. */
-export type PackSpecies = {
-  taxonId: string;
-  scientificName: string;
-  taxonGroup: string;
-  sensitivity: "open" | "generalised" | "restricted";
-  onList: boolean;
-  names: Record<string, string>; // locale → common name
-};
+// The event pack as the server sends it (GET /api/events/{id}/pack, db/queries/pack.ts).
 
-export type ZoneFeature = {
-  type: "Feature";
-  id?: string | number;
-  properties: { id: string; name: string; habitat: string } & Record<string, unknown>;
-  geometry: { type: "Polygon"; coordinates: number[][][] } | { type: "MultiPolygon"; coordinates: number[][][][] };
-};
+export type PackSpecies = ServerSpecies;
+export type PolygonGeometry = { type: "Polygon"; coordinates: number[][][] } | { type: "MultiPolygon"; coordinates: number[][][][] };
+export type ZoneFeature = { type: "Feature"; id: string; properties: { name: string; habitat: string; description?: string }; geometry: PolygonGeometry };
 export type ZoneCollection = { type: "FeatureCollection"; features: ZoneFeature[] };
-
-export type PackEvent = {
-  id: string;
-  name: string;
-  status: "draft" | "open" | "closed";
-  startsAt: string;
-  endsAt: string;
-  timeZone: string;
-  languages: string[];
-  sessionKinds: ("timed_count" | "walk" | "plot_search")[];
-  accuracyLimitM: number;
-};
-
-export type EventPack = { event: PackEvent; zones: ZoneCollection; species: PackSpecies[] };
+export type EventPack = Omit<ServerPack, "zones"> & { zones: ZoneCollection };
 export type StoredPack = { eventId: string; etag: string | null; pack: EventPack; fetchedAt: number };
 
 /** One of the person's own sightings as the server has it (GET …/sightings/mine). */

@@ -34,13 +34,15 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   const zones = data.pack?.pack.zones ?? null;
   const index = useMemo(() => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale) : null), [data.pack, locale]);
   const activeSession = data.sessions.find((s) => s.record.endedAt === null) ?? null;
-  const zoneName = (id: string | null) => zones?.features.find((f) => f.properties.id === id)?.properties.name ?? null;
+  const zoneName = (id: string | null) => zones?.features.find((f) => f.id === id)?.properties.name ?? null;
 
   const outboxSessions = data.sessions.filter((s) => s.state !== "sent");
   const outboxSightings = data.sightings.filter((s) => s.state !== "sent").sort((a, b) => b.savedAt - a.savedAt);
   const outboxPhotos = data.photos.filter((p) => p.state !== "sent");
   const sent = data.sightings.filter((s) => s.state === "sent").sort((a, b) => b.savedAt - a.savedAt);
-  const waitingCount = outboxSessions.length + outboxSightings.length + outboxPhotos.length;
+  // A photo travels with its sighting; it counts on its own only once the sighting is sent.
+  const loosePhotos = outboxPhotos.filter((p) => !outboxSightings.some((s) => s.id === p.sightingId));
+  const waitingCount = outboxSessions.length + outboxSightings.length + loosePhotos.length;
   const problem = [...data.sightings, ...data.sessions].find((r) => r.state === "waiting" && r.problem)?.problem;
 
   const saved = async () => {
@@ -108,7 +110,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
             {outboxSightings.map((s) => (
               <SightingRow key={s.id} s={s} zone={zoneName(s.record.zoneId)} when={when(s.record.observedAt)} photos={data.photos.filter((p) => p.sightingId === s.id).length} onEdit={() => setEditing(s)} />
             ))}
-            {outboxPhotos.filter((p) => !outboxSightings.some((s) => s.id === p.sightingId)).map((p) => (
+            {loosePhotos.map((p) => (
               <li key={p.id} className="flex flex-wrap items-center justify-between gap-2 rounded-xl border-2 border-reed-200 bg-white p-3">
                 <span className="font-bold">{t("photoOf", { name: data.sightings.find((s) => s.id === p.sightingId)?.taxonLabel ?? "" })}</span>
                 <DeviceBadge state={p.state} />

@@ -43,6 +43,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     try {
       const report = await syncEvent(db, eventId);
       setSync({ running: false, last: { ...report, at: Date.now() } });
+      if (report.problem === "offline") setOnline(false);
       announceChange();
     } catch {
       setSync((s) => ({ ...s, running: false }));
@@ -62,7 +63,8 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     }
     const open = async () => {
       if (navigator.onLine) {
-        const r = await refreshPack(db, eventId).catch(() => null);
+        // navigator.onLine can say "online" with no way out; a failed fetch is the truth.
+        const r = await refreshPack(db, eventId).then((x) => { setOnline(true); return x; }, () => { setOnline(false); return null; });
         if (r?.changed) setPackVersion((v) => v + 1);
       }
       await runSync();

@@ -45,7 +45,7 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
 
   const start = async () => {
     setError(null);
-    const chosen = zoneId || here?.properties.id || null;
+    const chosen = zoneId || here?.id || null;
     await saveSession(db, eventId, { id: crypto.randomUUID(), zoneId: chosen, kind, startedAt: new Date().toISOString(), endedAt: null, allSpeciesNoted: false, distanceM: null, notes: "" });
     onSaved();
   };
@@ -78,7 +78,7 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
 
   if (session) {
     const minutes = Math.max(0, Math.round((now - Date.parse(session.record.startedAt)) / 60_000));
-    const zone = zones?.features.find((f) => f.properties.id === session.record.zoneId)?.properties.name;
+    const zone = zones?.features.find((f) => f.id === session.record.zoneId)?.properties.name;
     return (
       <section aria-labelledby="session-title" className="space-y-3 rounded-xl border-2 border-reed-700 bg-reed-50 p-4">
         <h2 id="session-title" className="text-xl font-bold text-reed-900">{t("session.running", { kind: t(`sessionKind.${session.record.kind}`) })}</h2>
@@ -127,7 +127,7 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
         <span className="font-bold">{t("zone")}</span>
         <select value={zoneId} onChange={(e) => setZoneId(e.target.value)} className="block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg">
           <option value="">{here ? t("zoneHere", { zone: here.properties.name }) : t("zoneUnknown")}</option>
-          {zones?.features.map((f) => <option key={f.properties.id} value={f.properties.id}>{f.properties.name}</option>)}
+          {zones?.features.map((f) => <option key={f.id} value={f.id}>{f.properties.name}</option>)}
         </select>
       </label>
       {error ? <p role="alert" className="font-semibold text-signal">✕ {error}</p> : null}

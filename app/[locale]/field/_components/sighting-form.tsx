@@ -72,7 +72,7 @@ export function SightingForm({ db, eventId, locale, index, zones, position, sess
   const fix = position.fix;
   const where: Place | null = place ?? (fix ? { ...fix, manual: false } : null);
   const autoZone = where ? zoneAt(zones, where.latitude, where.longitude) : null;
-  const zoneId = zoneChoice || autoZone?.properties.id || null;
+  const zoneId = zoneChoice || autoZone?.id || null;
   const hits: SpeciesHit[] = useMemo(() => (index ? index.search(query, usage, 12) : []), [index, query, usage]);
 
   const addPhotos = async (files: FileList | null) => {
@@ -196,7 +196,7 @@ export function SightingForm({ db, eventId, locale, index, zones, position, sess
           <span className="font-bold">{t("zone")}</span>
           <select value={zoneChoice} onChange={(e) => setZoneChoice(e.target.value)} className={input}>
             <option value="">{autoZone ? t("zoneHere", { zone: autoZone.properties.name }) : t("zoneUnknown")}</option>
-            {zones?.features.map((f) => <option key={f.properties.id} value={f.properties.id}>{f.properties.name}</option>)}
+            {zones?.features.map((f) => <option key={f.id} value={f.id}>{f.properties.name}</option>)}
           </select>
         </label>
       </div>

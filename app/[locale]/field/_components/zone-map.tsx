@@ -41,7 +41,7 @@ export function ZoneMap({ zones, point, onPlace }: { zones: ZoneCollection; poin
         {zones.features.map((f, i) => {
           const polys = f.geometry.type === "Polygon" ? [f.geometry.coordinates] : f.geometry.coordinates;
           return (
-            <g key={f.properties.id}>
+            <g key={f.id}>
               {polys.map((p, j) => <polygon key={j} points={ring(p[0] ?? [])} fill={palette[i % palette.length]} stroke="#153a2a" strokeWidth={1.5} />)}
             </g>
           );
@@ -50,7 +50,7 @@ export function ZoneMap({ zones, point, onPlace }: { zones: ZoneCollection; poin
           const r = (f.geometry.type === "Polygon" ? f.geometry.coordinates[0] : f.geometry.coordinates[0]?.[0]) ?? [];
           const cx = r.reduce((a, [lon]) => a + x(lon!), 0) / Math.max(1, r.length);
           const cy = r.reduce((a, [, lat]) => a + y(lat!), 0) / Math.max(1, r.length);
-          return <text key={`${f.properties.id}-label`} x={cx} y={cy} textAnchor="middle" fontSize="13" fontWeight="700" fill="#0f2a1f">{f.properties.name}</text>;
+          return <text key={`${f.id}-label`} x={cx} y={cy} textAnchor="middle" fontSize="13" fontWeight="700" fill="#0f2a1f">{f.properties.name}</text>;
         })}
         {point ? <circle cx={x(point.longitude)} cy={y(point.latitude)} r={7} fill="#b3261e" stroke="#fff" strokeWidth={2} /> : null}
       </svg>
