@@ -17,6 +17,17 @@ const schema = z.object({
   MAIL_INBOX_URL: z.string().url().optional(),
   // Sync batches one person may send per minute (per app process); the ingest benchmark raises it.
   SYNC_BATCHES_PER_MINUTE: z.coerce.number().int().min(1).default(120),
+  // The photo store, through the S3 API: a local S3 fake in the demo and tests (scripts/s3-fake.mts),
+  // any S3-compatible store in a deployment. S3_PUBLIC_ENDPOINT is where browsers reach it, if not S3_ENDPOINT.
+  S3_ENDPOINT: z.string().url().default("http://127.0.0.1:9000"),
+  S3_PUBLIC_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(3).default("ecotone-photos"),
+  S3_ACCESS_KEY_ID: z.string().min(1).default("S3RVER"),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).default("S3RVER"),
+  S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+  // Largest photo accepted, in bytes (the photos table allows at most 20 MB).
+  PHOTO_MAX_BYTES: z.coerce.number().int().min(1).max(20_000_000).default(15_000_000),
   // Origins besides our own that pages may load images from and send data to (the photo store).
   CSP_EXTRA_ORIGINS: z.string().default("").transform((v) => v.split(/[\s,]+/).filter(Boolean)),
 });

@@ -25,6 +25,20 @@ if ! (exec 3<>/dev/tcp/127.0.0.1/1025) 2>/dev/null; then
 fi
 export SMTP_HOST=127.0.0.1 SMTP_PORT=1025 MAIL_INBOX_URL="http://localhost:1080"
 
+# The photo store: the S3 fake (s3rver) on loopback, through the real S3 API, with files in
+# .data/s3. S3_FAKE_PORT moves it; set S3_ENDPOINT (and keys, lib/env.ts) for a real store instead.
+if [ -z "${S3_ENDPOINT:-}" ]; then
+  S3_FAKE_PORT="${S3_FAKE_PORT:-9000}"
+  if ! (exec 3<>/dev/tcp/127.0.0.1/"$S3_FAKE_PORT") 2>/dev/null; then
+    S3_FAKE_PORT="$S3_FAKE_PORT" APP_URL="$APP_URL" setsid node_modules/.bin/tsx scripts/s3-fake.mts >"$ROOT/.data/s3-fake.log" 2>&1 < /dev/null &
+    echo $! >"$ROOT/.data/s3-fake.pid"
+    for _ in $(seq 1 50); do (exec 3<>/dev/tcp/127.0.0.1/"$S3_FAKE_PORT") 2>/dev/null && break; sleep 0.2; done
+  fi
+  export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT"
+fi
+# Pages may send photos to, and show photos from, the photo store (Content-Security-Policy).
+export CSP_EXTRA_ORIGINS="${CSP_EXTRA_ORIGINS:-$(node -e 'console.log(new URL(process.argv[1]).origin)' "${S3_PUBLIC_ENDPOINT:-$S3_ENDPOINT}")}"
+
 log "Building the app (next build)"
 npx next build >"$ROOT/.data/build.log" 2>&1 || { tail -40 "$ROOT/.data/build.log" >&2; die "next build failed (full log in .data/build.log)"; }
 

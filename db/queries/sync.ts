@@ -10,6 +10,7 @@ import type { Locale } from "@/lib/i18n/routing";
 import { getDb, type Db } from "../client";
 import { countSessions, events, reviews, sightings, taxa, zones } from "../schema";
 import { eventAccess } from "./auth";
+import { refreshCheckMarks } from "./check-marks";
 
 // The server half of the field log's sync (issue 5): each record of a batch is parsed and
 // judged on its own, the good ones are stored in one transaction, and every record gets
@@ -256,8 +257,7 @@ async function storeSightings(tx: Tx, input: IngestInput, good: { index: number;
       acks.push(refuse("sighting", index, rec.id, "store_failed", "(record)"));
     }
   }
-  // Check marks for created and updated sightings belong here: refreshCheckMarks(tx, touched)
-  // from db/queries/check-marks.ts (review desk), once that file exists on main.
-  void touched;
+  // The reviewers' automatic hints, in the same transaction as the records themselves.
+  await refreshCheckMarks(tx, touched);
   return acks;
 }

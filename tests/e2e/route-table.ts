@@ -37,4 +37,8 @@ export const ROUTES: RouteCase[] = [
   { file: "app/api/account/password/route.ts", method: "PUT", path: () => "/api/account/password", body: () => ({ password: "short" }), allowed: SIGNED_IN },
   { file: "app/api/events/[eventId]/sync/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/sync`, body: () => ({ sessions: [], sightings: [] }), allowed: EVENT_MEMBERS, note: "each member sends their own records" },
   { file: "app/api/events/[eventId]/pack/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/pack`, allowed: EVENT_MEMBERS, note: "the field log's offline event pack" },
+  { file: "app/api/events/[eventId]/photos/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/photos`, body: () => ({}), allowed: EVENT_MEMBERS, note: "presigned upload of a photo of one's own sighting" },
+  { file: "app/api/events/[eventId]/photos/[photoId]/confirm/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/photos/${i.sightingId}/confirm`, allowed: EVENT_MEMBERS, note: "422 for members: nothing uploaded under that id" },
+  { file: "app/api/events/[eventId]/photos/[photoId]/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/photos/${i.sightingId}?size=thumb`, allowed: EVENT_MEMBERS, note: "404 for members: no such photo; author and reviewers see real ones" },
+  { file: "app/api/events/[eventId]/sightings/mine/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/sightings/mine`, allowed: EVENT_MEMBERS, note: "only the caller's own sightings" },
 ];

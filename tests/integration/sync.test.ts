@@ -54,6 +54,9 @@ describe("a sync batch", () => {
     // The server decides the zone with PostGIS, whatever the device guessed.
     expect(stored.find((r) => r.id === good1.id)).toMatchObject({ zoneId: f.zone.id, sessionId: sess.id, state: "pending" });
     expect(stored.find((r) => r.id === good2.id)).toMatchObject({ zoneId: wetZone.id });
+    // The reviewers' check marks are computed in the same transaction (the fixture's taxon is not on the species list).
+    const [marked] = await db().select({ marks: s.sightings.checkMarks }).from(s.sightings).where(eq(s.sightings.id, good1.id));
+    expect(marked!.marks).toEqual(["not_on_list", "photo_missing"]);
     expect(await countOf(s.countSessions, f.user.id)).toBe(1);
 
     // The same batch resent (a lost answer): nothing more is stored, each record is "already had".

@@ -1,0 +1,16 @@
+import { requireEventRole } from "@/lib/auth/guard";
+import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { limitWrites } from "@/lib/http/rate-limit";
+import { confirmPhoto } from "@/lib/photos/upload";
+
+type Ctx = { params: Promise<{ eventId: string; photoId: string }> };
+
+// After the upload: the server checks the bytes in the photo store and records the photo.
+export const POST = handle<Ctx>(async (request, { params }) => {
+  const { eventId, photoId } = await params;
+  const permit = await requireEventRole(eventId, "volunteer");
+  limitWrites(`photos:${permit.user.id}`, 240);
+  if (!/^[0-9a-f-]{36}$/i.test(photoId)) throw new ApiError("not_found");
+  const answer = await confirmPhoto({ userId: permit.user.id, eventId, locale: requestLocale(request) }, photoId);
+  return Response.json(answer, { headers: { "Cache-Control": "no-store" } });
+});

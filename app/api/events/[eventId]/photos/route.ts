@@ -1,0 +1,19 @@
+import { requireEventRole } from "@/lib/auth/guard";
+import { parseJson } from "@/lib/http/body";
+import { handle, requestLocale } from "@/lib/http/errors";
+import { limitWrites } from "@/lib/http/rate-limit";
+import { requestPhotoUpload } from "@/lib/photos/upload";
+import { photoUploadInput } from "./schema";
+
+type Ctx = { params: Promise<{ eventId: string }> };
+
+// A member asks to upload a photo of one of their own sightings: a presigned PUT to the
+// photo store, or "already_had" when the server has this photo already.
+export const POST = handle<Ctx>(async (request, { params }) => {
+  const { eventId } = await params;
+  const permit = await requireEventRole(eventId, "volunteer");
+  limitWrites(`photos:${permit.user.id}`, 240);
+  const input = await parseJson(request, photoUploadInput);
+  const answer = await requestPhotoUpload({ userId: permit.user.id, eventId, locale: requestLocale(request) }, input);
+  return Response.json(answer, { headers: { "Cache-Control": "no-store" } });
+});

@@ -1,0 +1,117 @@
+import "server-only";
+import { sql } from "drizzle-orm";
+import type { Db } from "../client";
+
+// Automatic check marks (design.md, "Words"): hints for reviewers, computed here in SQL on
+// the server whenever a sighting arrives or changes, and stored in sightings.check_marks
+// (in the order of the check_mark enum) so that the review queue can filter on them.
+//
+// The rules, each in one place:
+//   outside_area        the point is not inside the event area (no area drawn: never marked)
+//   outside_dates       observed before the event starts or after it ends
+//   high_count          the count is far above what is usual for that taxon at this event:
+//                       with at least HIGH_COUNT_MIN_RECORDS non-rejected records of the taxon
+//                       at the event, above Tukey's "far out" fence Q3 + 3 × IQR (Tukey 1977,
+//                       Exploratory Data Analysis; from memory) taken on ln(count), because
+//                       counts are right-skewed, and never below HIGH_COUNT_FLOOR; with fewer
+//                       records, above a fixed per-group threshold (GROUP_THRESHOLDS). The log
+//                       scale, the floor and the thresholds are common practice, not a
+//                       published standard. Quartiles include the record itself: quartiles
+//                       barely move for one extreme value, which is why they are used.
+//   not_on_list         identified to a taxon that is not on the event's species list
+//   sensitive_taxon     the taxon's sensitivity is generalised or restricted
+//   photo_missing       no photo stored, where the event requires one: for sensitive taxa
+//                       (events.photo_required_sensitive) and for taxa off the species list or
+//                       unidentified records (events.photo_required_off_list)
+//   possible_duplicate  another non-rejected record by the same volunteer of the same taxon at
+//                       the same event within DUPLICATE_MINUTES and DUPLICATE_METRES (common
+//                       practice values); both records of a pair carry the mark
+//   poor_accuracy       location accuracy (metres) worse than the event's limit
+
+export const HIGH_COUNT_MIN_RECORDS = 10;
+export const HIGH_COUNT_FLOOR = 5;
+export const DUPLICATE_MINUTES = 10;
+export const DUPLICATE_METRES = 50;
+/** Counts above these are marked when a taxon has too few records at the event for quartiles (common practice). */
+export const GROUP_THRESHOLDS = {
+  birds: 50, vascular_plants: 200, insects: 100, fungi: 50, mammals: 10, amphibians_reptiles: 30, molluscs: 50, other: 50,
+} as const;
+
+/** The database, or a transaction on it (anything that can run a statement). */
+export type Executor = Pick<Db, "execute">;
+
+const groupThresholdSql = sql.raw(
+  `CASE t.taxon_group ${Object.entries(GROUP_THRESHOLDS).map(([g, n]) => `WHEN '${g}' THEN ${n}`).join(" ")} ELSE 50 END`,
+);
+
+/**
+ * Recomputes the check marks of these sightings (and of records they form a possible
+ * duplicate with, so both of a pair stay in step) and stores them. Call it in the same
+ * transaction that stored or changed the sightings. Rows whose marks do not change are
+ * not written.
+ */
+export async function refreshCheckMarks(tx: Executor, sightingIds: string[]): Promise<void> {
+  const ids = [...new Set(sightingIds)];
+  if (!ids.length) return;
+  for (let i = 0; i < ids.length; i += 2000) await refreshChunk(tx, ids.slice(i, i + 2000));
+}
+
+async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
+  const idArray = sql`ARRAY[${sql.join(ids.map((id) => sql`${id}`), sql`, `)}]::uuid[]`;
+  await tx.execute(sql`
+    WITH given AS (
+      SELECT s.* FROM sightings s WHERE s.id = ANY(${idArray})
+    ),
+    partners AS (
+      SELECT o.id FROM given g
+      JOIN sightings o ON o.user_id = g.user_id AND o.event_id = g.event_id AND o.taxon_id = g.taxon_id AND o.id <> g.id
+        AND o.observed_at BETWEEN g.observed_at - make_interval(mins => ${DUPLICATE_MINUTES}) AND g.observed_at + make_interval(mins => ${DUPLICATE_MINUTES})
+        AND ST_DWithin(o.location::geography, g.location::geography, ${DUPLICATE_METRES})
+    ),
+    target AS (
+      SELECT s.* FROM sightings s WHERE s.id IN (SELECT id FROM given UNION SELECT id FROM partners)
+    ),
+    taxon_stats AS (
+      SELECT o.event_id, o.taxon_id, count(*) AS n,
+        percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,
+        percentile_cont(0.75) WITHIN GROUP (ORDER BY ln(o.count)) AS q3
+      FROM sightings o
+      WHERE (o.event_id, o.taxon_id) IN (SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL)
+        AND o.review_state <> 'rejected'
+      GROUP BY o.event_id, o.taxon_id
+    ),
+    computed AS (
+      SELECT s.id, array_remove(ARRAY[
+        CASE WHEN e.area IS NOT NULL AND NOT ST_Covers(e.area, s.location) THEN 'outside_area'::check_mark END,
+        CASE WHEN s.observed_at < e.starts_at OR s.observed_at > e.ends_at THEN 'outside_dates'::check_mark END,
+        CASE WHEN s.taxon_id IS NOT NULL AND (
+          CASE WHEN coalesce(st.n, 0) >= ${HIGH_COUNT_MIN_RECORDS}
+            THEN s.count > greatest(${HIGH_COUNT_FLOOR}::float8, exp(st.q3 + 3 * (st.q3 - st.q1)))
+            ELSE s.count > ${groupThresholdSql} END
+        ) THEN 'high_count'::check_mark END,
+        CASE WHEN s.taxon_id IS NOT NULL AND NOT on_list.yes THEN 'not_on_list'::check_mark END,
+        CASE WHEN t.sensitivity <> 'open' THEN 'sensitive_taxon'::check_mark END,
+        CASE WHEN NOT has_photo.yes AND (
+          (e.photo_required_sensitive AND t.sensitivity <> 'open')
+          OR (e.photo_required_off_list AND (s.taxon_id IS NULL OR NOT on_list.yes))
+        ) THEN 'photo_missing'::check_mark END,
+        CASE WHEN s.taxon_id IS NOT NULL AND EXISTS (
+          SELECT 1 FROM sightings o
+          WHERE o.user_id = s.user_id AND o.event_id = s.event_id AND o.taxon_id = s.taxon_id AND o.id <> s.id
+            AND o.review_state <> 'rejected'
+            AND o.observed_at BETWEEN s.observed_at - make_interval(mins => ${DUPLICATE_MINUTES}) AND s.observed_at + make_interval(mins => ${DUPLICATE_MINUTES})
+            AND ST_DWithin(o.location::geography, s.location::geography, ${DUPLICATE_METRES})
+        ) THEN 'possible_duplicate'::check_mark END,
+        CASE WHEN s.accuracy_m > e.accuracy_limit_m THEN 'poor_accuracy'::check_mark END
+      ], NULL) AS marks
+      FROM target s
+      JOIN events e ON e.id = s.event_id
+      LEFT JOIN taxa t ON t.id = s.taxon_id
+      LEFT JOIN taxon_stats st ON st.event_id = s.event_id AND st.taxon_id = s.taxon_id
+      CROSS JOIN LATERAL (SELECT EXISTS (SELECT 1 FROM event_species es WHERE es.event_id = s.event_id AND es.taxon_id = s.taxon_id) AS yes) on_list
+      CROSS JOIN LATERAL (SELECT EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id) AS yes) has_photo
+    )
+    UPDATE sightings x SET check_marks = c.marks
+    FROM computed c
+    WHERE x.id = c.id AND x.check_marks IS DISTINCT FROM c.marks`);
+}
