@@ -32,8 +32,12 @@ function getChannel() {
   return channel;
 }
 
+const LOCAL_EVENT = "ecotone-field-changed";
+
+/** Tells this tab (a BroadcastChannel never delivers to its sender) and every other tab. */
 export function announceChange() {
   getChannel()?.postMessage("changed");
+  window.dispatchEvent(new Event(LOCAL_EVENT));
 }
 
 export function onChange(listener: () => void): () => void {
@@ -42,9 +46,11 @@ export function onChange(listener: () => void): () => void {
     if ((e.data as { type?: string } | null)?.type === "ecotone-synced") listener();
   };
   ch?.addEventListener("message", listener);
+  window.addEventListener(LOCAL_EVENT, listener);
   navigator.serviceWorker?.addEventListener("message", onSw);
   return () => {
     ch?.removeEventListener("message", listener);
+    window.removeEventListener(LOCAL_EVENT, listener);
     navigator.serviceWorker?.removeEventListener("message", onSw);
   };
 }

@@ -78,14 +78,18 @@ self.addEventListener("install", (event) => {
   })());
 });
 
+async function notifyPages() {
+  for (const client of await self.clients.matchAll({ type: "window" })) client.postMessage({ type: "ecotone-synced" });
+}
+
 async function syncAll(): Promise<void> {
   const db = await openFieldDb();
   let problem = false;
   for (const eventId of await eventsWithPending(db)) {
-    const report = await syncEvent(db, eventId);
+    const report = await syncEvent(db, eventId, Date.now, () => void notifyPages());
     if (report.problem) problem = true;
   }
-  for (const client of await self.clients.matchAll({ type: "window" })) client.postMessage({ type: "ecotone-synced" });
+  await notifyPages();
   // Failing the event asks the browser to try again later, with its own back-off.
   if (problem) throw new Error("outbox not empty yet");
 }

@@ -37,7 +37,13 @@ async function errorMessage(res: Response): Promise<string> {
 
 const json = { "content-type": "application/json" };
 
-export async function syncEvent(db: FieldDatabase, eventId: string, now: () => number = Date.now): Promise<SyncReport> {
+// A request that hangs must not hold the outbox: give up and try again later.
+const API_TIMEOUT_MS = 60_000;
+const UPLOAD_TIMEOUT_MS = 180_000;
+const timeout = (ms: number) => (typeof AbortSignal.timeout === "function" ? AbortSignal.timeout(ms) : undefined);
+
+/** Sends what is due for one event. `onProgress` runs after each stored batch and photo, so the screen can follow. */
+export async function syncEvent(db: FieldDatabase, eventId: string, now: () => number = Date.now, onProgress?: () => void): Promise<SyncReport> {
   return withLock<SyncReport>({ ran: false, sent: 0, refused: 0, photosSent: 0 }, async () => {
     await resetInFlight(db); // we hold the lock: anything "sending" is left over from a crash
     const report: SyncReport = { ran: true, sent: 0, refused: 0, photosSent: 0 };
@@ -46,7 +52,7 @@ export async function syncEvent(db: FieldDatabase, eventId: string, now: () => n
       if (batch.sessions.length + batch.sightings.length === 0) break;
       let res: Response;
       try {
-        res = await fetch(`/api/events/${eventId}/sync`, { method: "POST", headers: json, body: JSON.stringify(batchBody(batch)), credentials: "same-origin" });
+        res = await fetch(`/api/events/${eventId}/sync`, { method: "POST", headers: json, body: JSON.stringify(batchBody(batch)), credentials: "same-origin", signal: timeout(API_TIMEOUT_MS) });
       } catch {
         await releaseBatch(db, batch, "offline", now());
         report.problem = "offline";
@@ -57,6 +63,7 @@ export async function syncEvent(db: FieldDatabase, eventId: string, now: () => n
         const r = await applyAcks(db, batch, Array.isArray(body?.acks) ? body.acks : [], now());
         report.sent += r.sent;
         report.refused += r.refused;
+        onProgress?.();
         continue;
       }
       const problem = problemFor(res.status);
@@ -68,7 +75,7 @@ export async function syncEvent(db: FieldDatabase, eventId: string, now: () => n
       await refuseBatch(db, batch, await errorMessage(res));
       report.refused += batch.sessions.length + batch.sightings.length;
     }
-    const photos = await sendPhotos(db, eventId, now);
+    const photos = await sendPhotos(db, eventId, now, onProgress);
     report.photosSent = photos.sent;
     if (photos.problem) {
       report.problem = photos.problem;
@@ -80,7 +87,7 @@ export async function syncEvent(db: FieldDatabase, eventId: string, now: () => n
 }
 
 /** Photos go after their sighting is acknowledged: register, PUT the bytes to the presigned URL, confirm. */
-async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number): Promise<{ sent: number; problem?: TransientProblem }> {
+async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number, onProgress?: () => void): Promise<{ sent: number; problem?: TransientProblem }> {
   const photos = (await db.getAllFromIndex("photos", "byEvent", eventId)).filter((p) => p.state === "waiting" && p.nextTryAt <= now());
   let sent = 0;
   for (const photo of photos) {
@@ -92,6 +99,7 @@ async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number)
     if (outcome.ok) {
       sent++;
       await db.put("photos", { ...current, state: "sent", sentAt: now(), attempts: 0, nextTryAt: 0, problem: undefined, reason: undefined });
+      onProgress?.();
     } else if (outcome.refused !== undefined) {
       await db.put("photos", { ...current, state: "failed", reason: outcome.refused, problem: undefined });
     } else {
@@ -112,14 +120,14 @@ async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOu
   };
   try {
     const meta = { id: photo.id, sightingId: photo.sightingId, contentType: photo.contentType, sizeBytes: photo.sizeBytes, sha256: photo.sha256, width: photo.width, height: photo.height };
-    const start = await fetch(`/api/events/${eventId}/photos`, { method: "POST", headers: json, body: JSON.stringify(meta), credentials: "same-origin" });
+    const start = await fetch(`/api/events/${eventId}/photos`, { method: "POST", headers: json, body: JSON.stringify(meta), credentials: "same-origin", signal: timeout(API_TIMEOUT_MS) });
     if (!start.ok) return fail(start);
     const plan = (await start.json()) as { uploadUrl?: string; headers?: Record<string, string>; outcome?: string };
     if (plan.outcome === "already_had") return { ok: true };
     if (!plan.uploadUrl) return { ok: false, problem: "server" };
-    const put = await fetch(plan.uploadUrl, { method: "PUT", headers: plan.headers ?? { "content-type": photo.contentType }, body: photo.blob, credentials: "omit" });
+    const put = await fetch(plan.uploadUrl, { method: "PUT", headers: plan.headers ?? { "content-type": photo.contentType }, body: photo.blob, credentials: "omit", signal: timeout(UPLOAD_TIMEOUT_MS) });
     if (!put.ok) return put.status >= 500 ? { ok: false, problem: "server" } : { ok: false, refused: `HTTP ${put.status}` };
-    const confirm = await fetch(`/api/events/${eventId}/photos/${photo.id}/confirm`, { method: "POST", headers: json, body: "{}", credentials: "same-origin" });
+    const confirm = await fetch(`/api/events/${eventId}/photos/${photo.id}/confirm`, { method: "POST", headers: json, body: "{}", credentials: "same-origin", signal: timeout(UPLOAD_TIMEOUT_MS) });
     if (!confirm.ok) return fail(confirm);
     const done = (await confirm.json().catch(() => ({}))) as { outcome?: string; reason?: string };
     if (done.outcome === "refused") return { ok: false, refused: done.reason ?? "" };

@@ -96,9 +96,10 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   await expect(page.getByText("6 records still on this phone")).toBeVisible();
 
   await context.setOffline(false);
-  await expect(page.getByText("Everything is sent.")).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByRole("list", { name: "Sent" }).getByRole("listitem")).toHaveCount(5, { timeout: 60_000 });
+  // The photo follows its sighting (the server checks its bytes and makes a thumbnail).
+  await expect(page.getByText("Everything is sent.")).toBeVisible({ timeout: 90_000 });
   await expect(page.getByRole("list", { name: "On this phone" })).toHaveCount(0);
-  await expect(page.getByRole("list", { name: "Sent" }).getByRole("listitem")).toHaveCount(5);
   await expect(page.getByRole("list", { name: "Sent" }).getByRole("listitem").first()).toContainText("Awaiting check");
 
   const ids = await page.evaluate(async () => {
@@ -121,6 +122,19 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   expect(stored.sightings).toHaveLength(5);
   expect(stored.total).toBe(before + 5);
   expect(stored.chaffinch).toEqual({ count: 12, count_is_estimate: true, zone: "Heather Crest" });
+
+  // The photo went after its sighting, straight to the photo store (the S3 fake).
+  expect(ids.photos).toHaveLength(1);
+  const photoId = ids.photos[0]!.id;
+  expect(ids.photos[0]!.state).toBe("sent");
+  const photoRows = await db(async (c) => (await c.query(
+    `SELECT p.id::text, p.content_type, t.scientific_name FROM photos p JOIN sightings s ON s.id = p.sighting_id JOIN taxa t ON t.id = s.taxon_id WHERE s.session_id = $1`, [sessionId])).rows);
+  expect(photoRows).toEqual([{ id: photoId, content_type: "image/jpeg", scientific_name: "Falco tinnunculus" }]);
+  const link = await page.request.get(`/api/events/${eventId}/photos/${photoId}?size=full`, { maxRedirects: 0 });
+  expect(link.status()).toBe(302);
+  const stored_photo = await page.request.get(link.headers()["location"]!);
+  expect(stored_photo.status()).toBe(200);
+  expect((await stored_photo.body()).subarray(0, 3)).toEqual(Buffer.from([0xff, 0xd8, 0xff])); // a JPEG
 
   // Offline and online again: nothing new goes out or gets stored.
   await context.setOffline(true);

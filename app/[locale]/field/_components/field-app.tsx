@@ -41,7 +41,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     running.current = true;
     setSync((s) => ({ ...s, running: true }));
     try {
-      const report = await syncEvent(db, eventId);
+      const report = await syncEvent(db, eventId, Date.now, announceChange);
       setSync({ running: false, last: { ...report, at: Date.now() } });
       if (report.problem === "offline") setOnline(false);
       announceChange();
