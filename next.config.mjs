@@ -1,4 +1,5 @@
 import createNextIntlPlugin from "next-intl/plugin";
+import { buildServiceWorker } from "./scripts/build-sw.mjs";
 
 const withNextIntl = createNextIntlPlugin("./lib/i18n/request.ts");
 
@@ -7,6 +8,10 @@ const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
   serverExternalPackages: ["pg"],
+  compiler: {
+    // The field log's service worker is built with the app (scripts/build-sw.mjs).
+    runAfterProductionCompile: async ({ projectDir, distDir }) => buildServiceWorker({ projectDir, distDir }),
+  },
   async headers() {
     // HSTS only where the app is served over HTTPS (production behind TLS).
     const hsts = (process.env.APP_URL ?? "").startsWith("https://")

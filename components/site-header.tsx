@@ -1,4 +1,4 @@
-import { getTranslations } from "next-intl/server";
+import { getLocale, getTranslations } from "next-intl/server";
 import { organisesAnything } from "@/db/queries/setup";
 import { getSessionUser } from "@/lib/auth/guard";
 import { Link } from "@/lib/i18n/navigation";
@@ -7,7 +7,7 @@ import { LocaleSwitcher } from "./locale-switcher";
 import { SignOutButton } from "./sign-out-button";
 
 export async function SiteHeader() {
-  const [t, tNav, user] = await Promise.all([getTranslations("Common"), getTranslations("Nav"), getSessionUser()]);
+  const [t, tNav, user, locale] = await Promise.all([getTranslations("Common"), getTranslations("Nav"), getSessionUser(), getLocale()]);
   const organiser = user ? user.isAdmin || (await organisesAnything(user.id)) : false;
   const link = "inline-flex min-h-touch items-center rounded-md px-2 font-semibold underline-offset-4 hover:underline";
   return (
@@ -22,6 +22,8 @@ export async function SiteHeader() {
           {user ? (
             <>
               {organiser ? <Link href="/setup" className={link}>{tNav("setup")}</Link> : null}
+              {/* A full page load, so the service worker can answer it without a network. */}
+              <a href={`/${locale}/field`} className={link}>{tNav("fieldLog")}</a>
               <Link href="/account" className={link} title={user.email}>{tNav("account")}</Link>
               <SignOutButton />
             </>

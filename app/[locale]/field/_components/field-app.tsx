@@ -1,0 +1,131 @@
+"use client";
+
+import { useTranslations } from "next-intl";
+import { useCallback, useEffect, useRef, useState } from "react";
+import { announceChange, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
+import { openFieldDb, type FieldDatabase } from "@/lib/field/db";
+import { makeDueNow } from "@/lib/field/outbox";
+import { refreshPack, syncEvent, type SyncReport } from "@/lib/field/sync";
+import type { KnownEvent } from "@/lib/field/types";
+import { EventLog } from "./event-log";
+
+const PERIOD_MS = 30_000;
+const LAST_EVENT = "lastEvent";
+
+export type SyncStatus = { running: boolean; last?: SyncReport & { at: number } };
+
+export function FieldApp({ locale, events }: { locale: string; events: KnownEvent[] }) {
+  const t = useTranslations("FieldLog");
+  const [db, setDb] = useState<FieldDatabase | null>(null);
+  const [dbError, setDbError] = useState(false);
+  const [eventId, setEventId] = useState<string | null>(null);
+  const [online, setOnline] = useState(true);
+  const [sync, setSync] = useState<SyncStatus>({ running: false });
+  const [packVersion, setPackVersion] = useState(0);
+  const running = useRef(false);
+
+  useEffect(() => {
+    void registerServiceWorker(locale);
+    setOnline(navigator.onLine);
+    openFieldDb().then(async (d) => {
+      setDb(d);
+      const fromUrl = new URLSearchParams(window.location.search).get("event");
+      const last = (await d.get("meta", LAST_EVENT)) as string | undefined;
+      const pick = [fromUrl, last].find((id) => id && events.some((e) => e.id === id)) ?? (events.length === 1 ? events[0]!.id : null);
+      setEventId(pick ?? null);
+    }, () => setDbError(true));
+  }, [locale, events]);
+
+  const runSync = useCallback(async () => {
+    if (!db || !eventId || running.current || !navigator.onLine) return;
+    running.current = true;
+    setSync((s) => ({ ...s, running: true }));
+    try {
+      const report = await syncEvent(db, eventId, Date.now, announceChange);
+      setSync({ running: false, last: { ...report, at: Date.now() } });
+      if (report.problem === "offline") setOnline(false);
+      announceChange();
+    } catch {
+      setSync((s) => ({ ...s, running: false }));
+    } finally {
+      running.current = false;
+    }
+  }, [db, eventId]);
+
+  // Sync when the app opens, when the network returns, and every half minute while open.
+  useEffect(() => {
+    if (!db || !eventId) return;
+    void db.put("meta", eventId, LAST_EVENT);
+    const url = new URL(window.location.href);
+    if (url.searchParams.get("event") !== eventId) {
+      url.searchParams.set("event", eventId);
+      window.history.replaceState(window.history.state, "", url);
+    }
+    const open = async () => {
+      if (navigator.onLine) {
+        // navigator.onLine can say "online" with no way out; a failed fetch is the truth.
+        const r = await refreshPack(db, eventId).then((x) => { setOnline(true); return x; }, () => { setOnline(false); return null; });
+        if (r?.changed) setPackVersion((v) => v + 1);
+      }
+      await runSync();
+    };
+    void open();
+    const back = () => {
+      setOnline(true);
+      void makeDueNow(db).then(open);
+    };
+    const gone = () => setOnline(false);
+    window.addEventListener("online", back);
+    window.addEventListener("offline", gone);
+    const timer = window.setInterval(() => void runSync(), PERIOD_MS);
+    return () => {
+      window.removeEventListener("online", back);
+      window.removeEventListener("offline", gone);
+      window.clearInterval(timer);
+    };
+  }, [db, eventId, runSync]);
+
+  const afterSave = useCallback(() => {
+    announceChange();
+    void requestBackgroundSync();
+    void runSync();
+  }, [runSync]);
+
+  if (dbError) return <p role="alert" className="rounded-lg border-2 border-signal bg-signal-soft p-4 font-semibold text-signal">{t("noStorage")}</p>;
+  if (!db) return <p className="text-ink-soft">{t("loading")}</p>;
+
+  if (!eventId) {
+    return (
+      <section aria-labelledby="pick-title" className="space-y-3">
+        <h2 id="pick-title" className="text-xl font-bold text-reed-900">{t("pickEvent")}</h2>
+        {events.length === 0 ? <p>{t("noEvents")}</p> : (
+          <ul className="space-y-3">
+            {events.map((e) => (
+              <li key={e.id}>
+                <button type="button" onClick={() => setEventId(e.id)} className="flex min-h-touch w-full flex-col items-start rounded-xl border-2 border-reed-700 bg-white p-4 text-left text-lg font-bold text-reed-900">
+                  {e.name}
+                  <span className="text-base font-normal text-ink-soft">{e.status === "open" ? t("eventOpen") : t("eventClosed")}</span>
+                </button>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+    );
+  }
+
+  const event = events.find((e) => e.id === eventId)!;
+  return (
+    <EventLog
+      key={`${eventId}:${packVersion}`}
+      db={db}
+      event={event}
+      locale={locale}
+      online={online}
+      sync={sync}
+      onSyncNow={() => void makeDueNow(db, eventId).then(runSync)}
+      onSaved={afterSave}
+      onSwitchEvent={events.length > 1 ? () => setEventId(null) : undefined}
+    />
+  );
+}

@@ -1,0 +1,124 @@
+import "fake-indexeddb/auto";
+import { randomUUID } from "node:crypto";
+import { describe, expect, it } from "vitest";
+import type { SightingRecord } from "@/app/api/events/[eventId]/sync/schema";
+import { openFieldDb } from "./db";
+import { applyAcks, eventRecords, InvalidRecord, makeDueNow, releaseBatch, resetInFlight, saveSession, saveSighting, takeBatch } from "./outbox";
+
+// The outbox over IndexedDB (fake-indexeddb: an in-memory implementation of the
+// IndexedDB API, run through the real idb wrapper and our real outbox code).
+const EVENT = "11111111-1111-4111-8111-111111111111";
+
+function sighting(over: Partial<SightingRecord> = {}): SightingRecord {
+  return {
+    id: randomUUID(), sessionId: null, taxonId: randomUUID(), description: "", count: 2, countIsEstimate: false,
+    observedAt: "2026-12-02T10:00:00.000Z", latitude: 53.301, longitude: -2.095, accuracyM: 8, zoneId: null, notes: "", photoIds: [],
+    ...over,
+  };
+}
+
+const freshDb = () => openFieldDb(`test-${randomUUID()}`);
+
+describe("field outbox", () => {
+  it("refuses to queue a record the server would refuse, naming the field", async () => {
+    const db = await freshDb();
+    await expect(saveSighting(db, EVENT, sighting({ count: 0 }), "Mallard")).rejects.toThrow(InvalidRecord);
+    const err = (await saveSighting(db, EVENT, sighting({ latitude: 91 }), "Mallard").catch((e: unknown) => e)) as InvalidRecord;
+    expect(err.issues[0]?.field).toBe("latitude");
+    expect((await eventRecords(db, EVENT)).sightings).toHaveLength(0);
+  });
+
+  it("keeps a saved record waiting, then sending, then sent once acknowledged", async () => {
+    const db = await freshDb();
+    const session = await saveSession(db, EVENT, { id: randomUUID(), zoneId: null, kind: "walk", startedAt: "2026-12-02T09:00:00Z", endedAt: null, allSpeciesNoted: false, distanceM: null, notes: "" });
+    const s = await saveSighting(db, EVENT, sighting({ sessionId: session.id }), "Mallard");
+    expect(s.state).toBe("waiting");
+
+    const batch = await takeBatch(db, EVENT);
+    expect(batch.sessions.map((x) => x.id)).toEqual([session.id]);
+    expect(batch.sightings.map((x) => x.id)).toEqual([s.id]);
+    expect((await db.get("sightings", s.id))?.state).toBe("sending");
+    // A second sender finds nothing to take.
+    const second = await takeBatch(db, EVENT);
+    expect(second.sessions.length + second.sightings.length).toBe(0);
+
+    await applyAcks(db, batch, [
+      { kind: "session", id: session.id, index: 0, outcome: "created" },
+      { kind: "sighting", id: s.id, index: 0, outcome: "created", reviewState: "pending" },
+    ]);
+    expect((await db.get("sessions", session.id))?.state).toBe("sent");
+    const sent = await db.get("sightings", s.id);
+    expect(sent?.state).toBe("sent");
+    expect(sent?.reviewState).toBe("pending");
+    const again = await takeBatch(db, EVENT);
+    expect(again.sightings).toHaveLength(0);
+  });
+
+  it("keeps a refused record visible with its reason, and sends the rest", async () => {
+    const db = await freshDb();
+    const good = await saveSighting(db, EVENT, sighting(), "Mallard", [], 1);
+    const bad = await saveSighting(db, EVENT, sighting(), "Grey heron", [], 2);
+    const batch = await takeBatch(db, EVENT);
+    await applyAcks(db, batch, [
+      { kind: "sighting", id: good.id, index: 0, outcome: "already_had" },
+      { kind: "sighting", id: bad.id, index: 1, outcome: "refused", reason: "This taxon is not known.", field: "taxonId" },
+    ]);
+    expect((await db.get("sightings", good.id))?.state).toBe("sent");
+    const refused = await db.get("sightings", bad.id);
+    expect(refused).toMatchObject({ state: "failed", reason: "This taxon is not known.", field: "taxonId" });
+    // Editing the refused record queues it again.
+    await saveSighting(db, EVENT, { ...refused!.record, taxonId: randomUUID() }, "Grey heron");
+    expect((await db.get("sightings", bad.id))?.state).toBe("waiting");
+  });
+
+  it("sends an edit made while the earlier version was in flight", async () => {
+    const db = await freshDb();
+    const s = await saveSighting(db, EVENT, sighting(), "Mallard");
+    const batch = await takeBatch(db, EVENT);
+    await saveSighting(db, EVENT, { ...s.record, count: 5 }, "Mallard");
+    await applyAcks(db, batch, [{ kind: "sighting", id: s.id, index: 0, outcome: "created" }]);
+    const after = await db.get("sightings", s.id);
+    expect(after?.state).toBe("waiting");
+    expect(after?.record.count).toBe(5);
+    const next = await takeBatch(db, EVENT);
+    expect(next.sightings[0]?.record.count).toBe(5);
+  });
+
+  it("waits longer after each failed try, and goes at once when the network returns", async () => {
+    const db = await freshDb();
+    const s = await saveSighting(db, EVENT, sighting(), "Mallard");
+    const now = 1_000_000;
+    await releaseBatch(db, await takeBatch(db, EVENT, now), "offline", now, () => 1);
+    let r = await db.get("sightings", s.id);
+    expect(r).toMatchObject({ state: "waiting", attempts: 1, problem: "offline", nextTryAt: now + 5_000 });
+    expect((await takeBatch(db, EVENT, now + 1_000)).sightings).toHaveLength(0);
+    await releaseBatch(db, await takeBatch(db, EVENT, now + 5_000), "server", now + 5_000, () => 1);
+    r = await db.get("sightings", s.id);
+    expect(r).toMatchObject({ attempts: 2, nextTryAt: now + 5_000 + 10_000 });
+    await makeDueNow(db, EVENT);
+    expect((await takeBatch(db, EVENT, now + 5_001)).sightings).toHaveLength(1);
+  });
+
+  it("puts records left sending by a crash back in the queue, and treats a missing answer as a failed try", async () => {
+    const db = await freshDb();
+    const a = await saveSighting(db, EVENT, sighting(), "Mallard", [], 1);
+    const b = await saveSighting(db, EVENT, sighting(), "Mallard", [], 2);
+    const batch = await takeBatch(db, EVENT);
+    await applyAcks(db, batch, [{ kind: "sighting", id: a.id, index: 0, outcome: "created" }]);
+    expect((await db.get("sightings", b.id))).toMatchObject({ state: "waiting", attempts: 1 });
+    await makeDueNow(db);
+    await takeBatch(db, EVENT);
+    expect((await db.get("sightings", b.id))?.state).toBe("sending");
+    await resetInFlight(db);
+    expect((await db.get("sightings", b.id))?.state).toBe("waiting");
+    expect((await db.get("sightings", a.id))?.state).toBe("sent");
+  });
+
+  it("ignores an answer whose id does not match the record at that position", async () => {
+    const db = await freshDb();
+    const s = await saveSighting(db, EVENT, sighting(), "Mallard");
+    const batch = await takeBatch(db, EVENT);
+    await applyAcks(db, batch, [{ kind: "sighting", id: randomUUID(), index: 0, outcome: "created" }], 10);
+    expect((await db.get("sightings", s.id))?.state).toBe("waiting");
+  });
+});

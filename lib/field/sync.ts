@@ -1,0 +1,176 @@
+import type { SyncAck } from "@/app/api/events/[eventId]/sync/schema";
+import { backoffDelay } from "./backoff";
+import type { FieldDatabase } from "./db";
+import { applyAcks, batchBody, refuseBatch, releaseBatch, resetInFlight, takeBatch } from "./outbox";
+import type { EventPack, LocalPhoto, MineItem, ReviewState, StoredPack, TransientProblem } from "./types";
+
+// Sending the outbox: one sender at a time per device (Web Locks, shared by the tabs and
+// the service worker), batches of sessions and sightings, then photos of acknowledged
+// sightings, then a fresh list of the person's own records with their review states.
+// Runs in a page and in the service worker (Background Sync): no React, no DOM.
+
+export type SyncReport = { ran: boolean; sent: number; refused: number; photosSent: number; problem?: TransientProblem };
+
+const LOCK = "ecotone-field-sync";
+const MAX_ROUNDS = 20;
+
+type LockManagerLike = { request<T>(name: string, opts: { ifAvailable: boolean }, cb: (lock: unknown) => Promise<T>): Promise<T> };
+
+async function withLock<T>(fallback: T, fn: () => Promise<T>): Promise<T> {
+  const locks = (globalThis.navigator as { locks?: LockManagerLike } | undefined)?.locks;
+  if (!locks) return fn();
+  return locks.request(LOCK, { ifAvailable: true }, async (lock) => (lock ? fn() : fallback));
+}
+
+function problemFor(status: number): TransientProblem | null {
+  if (status === 401) return "signin";
+  if (status === 429) return "busy";
+  if (status >= 500 || status === 408) return "server";
+  return null;
+}
+
+async function errorMessage(res: Response): Promise<string> {
+  const body = (await res.json().catch(() => null)) as { error?: { message?: string; fields?: { field: string; message: string }[] } } | null;
+  const field = body?.error?.fields?.[0];
+  return [body?.error?.message, field ? `${field.field}: ${field.message}` : null].filter(Boolean).join(" — ") || `HTTP ${res.status}`;
+}
+
+const json = { "content-type": "application/json" };
+
+// A request that hangs must not hold the outbox: give up and try again later.
+const API_TIMEOUT_MS = 60_000;
+const UPLOAD_TIMEOUT_MS = 180_000;
+const timeout = (ms: number) => (typeof AbortSignal.timeout === "function" ? AbortSignal.timeout(ms) : undefined);
+
+/** Sends what is due for one event. `onProgress` runs after each stored batch and photo, so the screen can follow. */
+export async function syncEvent(db: FieldDatabase, eventId: string, now: () => number = Date.now, onProgress?: () => void): Promise<SyncReport> {
+  return withLock<SyncReport>({ ran: false, sent: 0, refused: 0, photosSent: 0 }, async () => {
+    await resetInFlight(db); // we hold the lock: anything "sending" is left over from a crash
+    const report: SyncReport = { ran: true, sent: 0, refused: 0, photosSent: 0 };
+    for (let round = 0; round < MAX_ROUNDS; round++) {
+      const batch = await takeBatch(db, eventId, now());
+      if (batch.sessions.length + batch.sightings.length === 0) break;
+      let res: Response;
+      try {
+        res = await fetch(`/api/events/${eventId}/sync`, { method: "POST", headers: json, body: JSON.stringify(batchBody(batch)), credentials: "same-origin", signal: timeout(API_TIMEOUT_MS) });
+      } catch {
+        await releaseBatch(db, batch, "offline", now());
+        report.problem = "offline";
+        return report;
+      }
+      if (res.ok) {
+        const body = (await res.json().catch(() => null)) as { acks?: SyncAck[] } | null;
+        const r = await applyAcks(db, batch, Array.isArray(body?.acks) ? body.acks : [], now());
+        report.sent += r.sent;
+        report.refused += r.refused;
+        onProgress?.();
+        continue;
+      }
+      const problem = problemFor(res.status);
+      if (problem) {
+        await releaseBatch(db, batch, problem, now());
+        report.problem = problem;
+        return report;
+      }
+      await refuseBatch(db, batch, await errorMessage(res));
+      report.refused += batch.sessions.length + batch.sightings.length;
+    }
+    const photos = await sendPhotos(db, eventId, now, onProgress);
+    report.photosSent = photos.sent;
+    if (photos.problem) {
+      report.problem = photos.problem;
+      return report;
+    }
+    await refreshMine(db, eventId).catch(() => undefined);
+    return report;
+  });
+}
+
+/** Photos go after their sighting is acknowledged: register, PUT the bytes to the presigned URL, confirm. */
+async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number, onProgress?: () => void): Promise<{ sent: number; problem?: TransientProblem }> {
+  const photos = (await db.getAllFromIndex("photos", "byEvent", eventId)).filter((p) => p.state === "waiting" && p.nextTryAt <= now());
+  let sent = 0;
+  for (const photo of photos) {
+    const sighting = await db.get("sightings", photo.sightingId);
+    if (!sighting?.sentAt) continue; // the server does not have the sighting yet
+    await db.put("photos", { ...photo, state: "sending" });
+    const outcome = await uploadPhoto(eventId, photo);
+    const current = (await db.get("photos", photo.id)) ?? photo;
+    if (outcome.ok) {
+      sent++;
+      await db.put("photos", { ...current, state: "sent", sentAt: now(), attempts: 0, nextTryAt: 0, problem: undefined, reason: undefined });
+      onProgress?.();
+    } else if (outcome.refused !== undefined) {
+      await db.put("photos", { ...current, state: "failed", reason: outcome.refused, problem: undefined });
+    } else {
+      const attempts = current.attempts + 1;
+      await db.put("photos", { ...current, state: "waiting", attempts, nextTryAt: now() + backoffDelay(attempts), problem: outcome.problem });
+      return { sent, problem: outcome.problem };
+    }
+  }
+  return { sent };
+}
+
+type UploadOutcome = { ok: true } | { ok: false; refused: string; problem?: undefined } | { ok: false; refused?: undefined; problem: TransientProblem };
+
+async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOutcome> {
+  const fail = async (res: Response): Promise<UploadOutcome> => {
+    const problem = problemFor(res.status);
+    return problem ? { ok: false, problem } : { ok: false, refused: await errorMessage(res) };
+  };
+  try {
+    const meta = { id: photo.id, sightingId: photo.sightingId, contentType: photo.contentType, sizeBytes: photo.sizeBytes, sha256: photo.sha256, width: photo.width, height: photo.height };
+    const start = await fetch(`/api/events/${eventId}/photos`, { method: "POST", headers: json, body: JSON.stringify(meta), credentials: "same-origin", signal: timeout(API_TIMEOUT_MS) });
+    if (!start.ok) return fail(start);
+    const plan = (await start.json()) as { uploadUrl?: string; headers?: Record<string, string>; outcome?: string };
+    if (plan.outcome === "already_had") return { ok: true };
+    if (!plan.uploadUrl) return { ok: false, problem: "server" };
+    const put = await fetch(plan.uploadUrl, { method: "PUT", headers: plan.headers ?? { "content-type": photo.contentType }, body: photo.blob, credentials: "omit", signal: timeout(UPLOAD_TIMEOUT_MS) });
+    if (!put.ok) return put.status >= 500 ? { ok: false, problem: "server" } : { ok: false, refused: `HTTP ${put.status}` };
+    const confirm = await fetch(`/api/events/${eventId}/photos/${photo.id}/confirm`, { method: "POST", headers: json, body: "{}", credentials: "same-origin", signal: timeout(UPLOAD_TIMEOUT_MS) });
+    if (!confirm.ok) return fail(confirm);
+    const done = (await confirm.json().catch(() => ({}))) as { outcome?: string; reason?: string };
+    if (done.outcome === "refused") return { ok: false, refused: done.reason ?? "" };
+    return { ok: true };
+  } catch {
+    return { ok: false, problem: "offline" };
+  }
+}
+
+/** The person's own sightings with their review state; returned ones carry the coordinator's question. */
+export async function refreshMine(db: FieldDatabase, eventId: string): Promise<MineItem[] | null> {
+  const res = await fetch(`/api/events/${eventId}/sightings/mine`, { credentials: "same-origin", cache: "no-store" });
+  if (!res.ok) return null;
+  const body = (await res.json()) as { sightings?: unknown[] } | unknown[];
+  const raw = Array.isArray(body) ? body : Array.isArray(body.sightings) ? body.sightings : [];
+  const items: MineItem[] = raw.flatMap((r) => {
+    const x = r as Record<string, unknown>;
+    if (typeof x.id !== "string" || typeof x.reviewState !== "string") return [];
+    const q = x.question ?? (x.returnQuestion as unknown) ?? null;
+    return [{ id: x.id, reviewState: x.reviewState as ReviewState, version: Number(x.version ?? 1), question: typeof q === "string" ? q : null, taxonId: (x.taxonId as string | null) ?? null, count: x.count as number | undefined, observedAt: x.observedAt as string | undefined }];
+  });
+  await db.put("mine", { eventId, fetchedAt: Date.now(), items });
+  const tx = db.transaction("sightings", "readwrite");
+  for (const item of items) {
+    const local = await tx.store.get(item.id);
+    if (!local) continue;
+    // A local edit waiting to go out keeps its own text; the states still update.
+    await tx.store.put({ ...local, reviewState: item.reviewState, serverVersion: item.version, question: item.reviewState === "returned" ? (item.question ?? local.question) : local.record.answer ? local.question : undefined });
+  }
+  await tx.done;
+  return items;
+}
+
+/** Downloads the event pack when it changed (ETag), and keeps it for offline use. */
+export async function refreshPack(db: FieldDatabase, eventId: string): Promise<{ changed: boolean; pack: StoredPack | null }> {
+  const stored = await db.get("packs", eventId);
+  const headers: Record<string, string> = {};
+  if (stored?.etag) headers["if-none-match"] = stored.etag;
+  const res = await fetch(`/api/events/${eventId}/pack`, { headers, credentials: "same-origin", cache: "no-cache" });
+  if (res.status === 304 && stored) return { changed: false, pack: stored };
+  if (!res.ok) return { changed: false, pack: stored ?? null };
+  const pack = (await res.json()) as EventPack;
+  const next: StoredPack = { eventId, etag: res.headers.get("etag"), pack, fetchedAt: Date.now() };
+  await db.put("packs", next);
+  return { changed: true, pack: next };
+}
