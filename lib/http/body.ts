@@ -9,8 +9,7 @@ export const MAX_JSON_BYTES = 1_000_000;
  */
 export async function parseJson<T extends z.ZodType>(request: Request, schema: T, maxBytes = MAX_JSON_BYTES): Promise<z.infer<T>> {
   const locale = requestLocale(request);
-  const text = await request.text();
-  if (text.length > maxBytes) throw new ApiError("bad_request", [{ field: "(body)", message: apiTranslator(locale)("field.tooLarge", { maximum: maxBytes }) }]);
+  const text = await readBody(request, maxBytes, locale);
   let data: unknown;
   try {
     data = JSON.parse(text);
@@ -20,4 +19,37 @@ export async function parseJson<T extends z.ZodType>(request: Request, schema: T
   const parsed = schema.safeParse(data);
   if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, locale));
   return parsed.data;
+}
+
+/**
+ * The body as text, refused as soon as it passes maxBytes (by its Content-Length or while it
+ * streams in), so an oversized body is never held whole in memory. A body cut off by the
+ * client (a phone losing signal mid-upload) is a 400, not a server error: the device never
+ * hears the answer and sends the batch again.
+ */
+async function readBody(request: Request, maxBytes: number, locale: ReturnType<typeof requestLocale>): Promise<string> {
+  const t = apiTranslator(locale);
+  const tooLarge = () => new ApiError("bad_request", [{ field: "(body)", message: t("field.tooLarge", { maximum: maxBytes }) }]);
+  const declared = Number(request.headers.get("content-length") ?? NaN);
+  if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge();
+  if (!request.body) return "";
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  try {
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) break;
+      size += value.byteLength;
+      if (size > maxBytes) {
+        await reader.cancel().catch(() => {});
+        throw tooLarge();
+      }
+      chunks.push(value);
+    }
+  } catch (err) {
+    if (err instanceof ApiError) throw err;
+    throw new ApiError("bad_request", [{ field: "(body)", message: t("field.bodyIncomplete") }]);
+  }
+  return new TextDecoder().decode(Buffer.concat(chunks));
 }
