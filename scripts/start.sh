@@ -32,7 +32,8 @@ if [ -z "${S3_ENDPOINT:-}" ]; then
   if ! (exec 3<>/dev/tcp/127.0.0.1/"$S3_FAKE_PORT") 2>/dev/null; then
     S3_FAKE_PORT="$S3_FAKE_PORT" APP_URL="$APP_URL" setsid node_modules/.bin/tsx scripts/s3-fake.mts >"$ROOT/.data/s3-fake.log" 2>&1 < /dev/null &
     echo $! >"$ROOT/.data/s3-fake.pid"
-    for _ in $(seq 1 50); do (exec 3<>/dev/tcp/127.0.0.1/"$S3_FAKE_PORT") 2>/dev/null && break; sleep 0.2; done
+    for _ in $(seq 1 150); do (exec 3<>/dev/tcp/127.0.0.1/"$S3_FAKE_PORT") 2>/dev/null && break; sleep 0.2; done
+    (exec 3<>/dev/tcp/127.0.0.1/"$S3_FAKE_PORT") 2>/dev/null || die "The S3 fake did not start on port $S3_FAKE_PORT (see .data/s3-fake.log)"
   fi
   export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT"
 fi
