@@ -118,7 +118,9 @@ describe("reports", () => {
     // One more approval, then version 2 says what changed.
     const [pending] = (await db().execute<{ id: string }>(sql`
       SELECT id FROM sightings WHERE event_id = ${eventId} AND review_state = 'pending' AND taxon_id IS NOT NULL ORDER BY id LIMIT 1`)).rows;
+    // Approved as the review desk records it: the state and an append-only review row.
     await db().update(s.sightings).set({ reviewState: "approved" }).where(sql`id = ${pending!.id}`);
+    await db().insert(s.reviews).values({ sightingId: pending!.id, reviewerId: organiserId, fromState: "pending", toState: "approved" });
     const v2 = await publishReport(eventId, organiserId, publishMail);
     expect(v2.version).toBe(v1.version + 1);
     const r2 = await getReport(eventId, v2.version);
