@@ -121,7 +121,7 @@ async function prepareEvent(pg: Client) {
   return { eventId, zoneIds: zones.rows.map((z) => z.id), taxonIds: taxa.rows.map((t) => t.id), users: users.rows };
 }
 
-/** A device's day: one or two count sessions, 50 sightings, one in eight with a photo. */
+/** A device's day: one or two count sessions, 50 sightings, one or two of them with a photo. */
 function makeDevice(n: number, cookie: string, ctx: Awaited<ReturnType<typeof prepareEvent>>): Device {
   const start = Date.now() - 3 * 3_600_000;
   const sessions: Session[] = [];
@@ -147,7 +147,7 @@ function makeDevice(n: number, cookie: string, ctx: Awaited<ReturnType<typeof pr
       accuracyM: 5 + Math.round(random() * 20), zoneId: null, notes: i % 7 ? "" : `device ${n} note ${i}`,
       photoIds: [],
     });
-    if (i % 8 === 3) {
+    if (i === 7 || (n % 10 === 0 && i === 31)) {
       const photo = { id: randomUUID(), sightingId: id, bytes: PNG };
       photos.push(photo);
       sightings[i]!.photoIds = [photo.id];
@@ -165,10 +165,10 @@ async function runDevice(d: Device, eventId: string, tally: Tally) {
     await sleep(backoff + random() * backoff);
     backoff = Math.min(backoff * 2, 2_000);
   };
-  // Sessions and sightings: batches of 10–25 records, sessions first, as the field log does.
+  // Sessions and sightings: batches of 20–50 records, sessions first, as the field log does.
   while (true) {
     const sessions = d.sessions.filter((s) => !d.acked.has(s.id));
-    const size = 10 + Math.floor(random() * 16);
+    const size = 20 + Math.floor(random() * 31);
     const sightings = d.sightings
       .filter((s) => !d.acked.has(s.id) && (!s.sessionId || d.acked.has(s.sessionId) || sessions.some((x) => x.id === s.sessionId)))
       .slice(0, size - sessions.length);
@@ -260,7 +260,7 @@ function startServer(): Promise<ChildProcess> {
 }
 
 test("100 devices sync 5,000 sightings through dropped connections and a server restart, exactly once", async () => {
-  test.setTimeout(540_000);
+  test.setTimeout(720_000);
   PNG = await sharp({ create: { ...PNG_SIZE, channels: 3, background: { r: 60, g: 110, b: 70 } } }).png().toBuffer();
   const pg = new Client({ connectionString: DATABASE_URL });
   await pg.connect();
