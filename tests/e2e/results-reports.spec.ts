@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { Client } from "pg";
 import { unzipSync, strFromU8 } from "fflate";
-import type { Page } from "@playwright/test";
+import type { Browser, Page } from "@playwright/test";
 import { SENSITIVE_DEMO_RECORDS } from "../../db/seed/sensitive";
 import { E2E_DB_URL } from "./demo-ids";
 import { DEMO, expect, signInWithPassword, test } from "./support";
@@ -23,19 +23,22 @@ async function withDb<T>(fn: (db: Client) => Promise<T>): Promise<T> {
  * another branch; until it lands, the decision is written straight to the database the
  * way the desk records it (state change plus an append-only review row).
  */
-async function coordinatorApprovesOne(): Promise<string> {
-  return withDb(async (db) => {
-    const { rows } = await db.query<{ id: string; coordinator: string }>(`
-      SELECT s.id, (SELECT id FROM users WHERE email = $1) AS coordinator
-      FROM sightings s JOIN events e ON e.id = s.event_id
-      WHERE e.slug = $2 AND s.review_state = 'pending' AND s.taxon_id IS NOT NULL ORDER BY s.id LIMIT 1`, [DEMO.coordinator, SLUG]);
-    const { id, coordinator } = rows[0]!;
-    await db.query("BEGIN");
-    await db.query("UPDATE sightings SET review_state = 'approved', version = version + 1, updated_at = now() WHERE id = $1", [id]);
-    await db.query("INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state) VALUES ($1, $2, 'pending', 'approved')", [id, coordinator]);
-    await db.query("COMMIT");
-    return id;
-  });
+/** A coordinator approves one more pending sighting at the review desk, by keyboard. */
+async function coordinatorApprovesOne(browser: Browser): Promise<void> {
+  const context = await browser.newContext();
+  const desk = await context.newPage();
+  await signInWithPassword(desk, DEMO.coordinator);
+  await desk.goto(`/en/events/${SLUG}/review`);
+  // A vascular plant: the birds coordinator's test keeps its own pending birds.
+  await desk.getByLabel("Taxon group").selectOption({ label: "Vascular plants" });
+  const rows = desk.getByRole("table", { name: "Queue" }).getByRole("row").filter({ has: desk.getByRole("cell") });
+  await expect(rows.first()).toContainText("Vascular plants", { timeout: 20_000 });
+  await desk.getByRole("heading", { level: 1, name: "Review desk" }).click();
+  await desk.keyboard.press("j");
+  await expect(rows.first()).toHaveAttribute("aria-selected", "true");
+  await desk.keyboard.press("a");
+  await expect(desk.getByRole("status")).toHaveText("Saved: Approve.", { timeout: 20_000 });
+  await context.close();
 }
 
 const latestVersion = () => withDb(async (db) => {
@@ -105,7 +108,7 @@ test("organiser publishes results; the public reads the Spanish report and downl
   }
 
   // A coordinator approves one more sighting; the organiser publishes version 2.
-  await coordinatorApprovesOne();
+  await coordinatorApprovesOne(browser);
   await page.reload();
   await publish(page, v1 + 1);
   await expect(page.getByRole("link", { name: `Version ${v1 + 1}`, exact: true })).toHaveAttribute("href", `/en/events/${SLUG}/reports/${v1 + 1}`);
@@ -123,7 +126,7 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await visitor.close();
 });
 
-test("the live board shows the backlog, completeness and where to look next, polling for updates", async ({ page }) => {
+test("the live board shows the backlog, completeness and where to look next, polling for updates", async ({ page, browser }) => {
   await signInWithPassword(page, DEMO.coordinator);
   await page.goto(`/en/events/${SLUG}/live`);
   const board = page.getByTestId("live-board");
@@ -133,7 +136,7 @@ test("the live board shows the backlog, completeness and where to look next, pol
   await expect(page.getByTestId("where-next").getByRole("listitem")).toHaveCount(4);
   const before = await board.getByRole("region", { name: "Review backlog" }).textContent();
   const pendingBefore = Number(/Pending: (\d+)/.exec(before ?? "")![1]);
-  await coordinatorApprovesOne();
+  await coordinatorApprovesOne(browser);
   // The next poll (every 15 s) shows one fewer pending.
   await expect(board.getByRole("region", { name: "Review backlog" })).toContainText(`Pending: ${pendingBefore - 1}`, { timeout: 25_000 });
 });
