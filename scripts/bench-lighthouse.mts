@@ -76,6 +76,8 @@ async function audit(url: string, cookie?: string): Promise<Scores> {
     const kib = (type: string) => Math.round((summary.find((i) => i.resourceType === type)?.transferSize ?? 0) / 102.4) / 10;
     const score = (id: string) => Math.round((lhr.categories[id]?.score ?? 0) * 100);
     if (lhr.runtimeError) console.log(`  runtime error: ${lhr.runtimeError.message}`);
+    const metric = (id: string) => `${id} ${lhr.audits[id]?.displayValue ?? "–"}`;
+    console.log(`  ${["first-contentful-paint", "largest-contentful-paint", "total-blocking-time", "cumulative-layout-shift", "server-response-time"].map(metric).join(", ")}`);
     return { performance: score("performance"), accessibility: score("accessibility"), bestPractices: score("best-practices"), scriptKiB: kib("script"), totalKiB: kib("total") };
   } finally {
     await chrome.kill();
