@@ -1,4 +1,4 @@
-import type { SyncAck } from "@/app/api/events/[eventId]/sync/schema";
+import { sightingRecord, type SyncAck } from "@/app/api/events/[eventId]/sync/schema";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import { applyAcks, batchBody, refuseBatch, releaseBatch, resetInFlight, takeBatch } from "./outbox";
@@ -137,6 +137,16 @@ async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOu
   }
 }
 
+/** The fields of a sighting record, out of one row of GET …/sightings/mine. */
+function pickRecord(row: unknown): Record<string, unknown> {
+  const x = (row ?? {}) as Record<string, unknown>;
+  return {
+    id: x.id, sessionId: x.sessionId ?? null, taxonId: x.taxonId ?? null, description: x.description ?? "", count: x.count,
+    countIsEstimate: x.countIsEstimate ?? false, observedAt: x.observedAt, latitude: x.latitude, longitude: x.longitude,
+    accuracyM: x.accuracyM, zoneId: x.zoneId ?? null, notes: x.notes ?? "", photoIds: [],
+  };
+}
+
 /** The person's own sightings with their review state; returned ones carry the coordinator's question. */
 export async function refreshMine(db: FieldDatabase, eventId: string): Promise<MineItem[] | null> {
   const res = await fetch(`/api/events/${eventId}/sightings/mine`, { credentials: "same-origin", cache: "no-store" });
@@ -150,10 +160,27 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
     return [{ id: x.id, reviewState: x.reviewState as ReviewState, version: Number(x.version ?? 1), question: typeof q === "string" ? q : null, taxonId: (x.taxonId as string | null) ?? null, count: x.count as number | undefined, observedAt: x.observedAt as string | undefined }];
   });
   await db.put("mine", { eventId, fetchedAt: Date.now(), items });
+  const stored = await db.get("packs", eventId);
+  const locale = (globalThis.document?.documentElement.lang || globalThis.navigator?.language || "en").slice(0, 2);
   const tx = db.transaction("sightings", "readwrite");
+  const rawById = new Map(raw.map((r) => [(r as { id?: unknown }).id, r]));
   for (const item of items) {
     const local = await tx.store.get(item.id);
-    if (!local) continue;
+    if (!local) {
+      // Sent from another phone, or before this one was cleared: kept as a sent record so
+      // its review state shows, and a returned one can be answered from here.
+      const parsed = sightingRecord.safeParse(pickRecord(rawById.get(item.id)));
+      if (!parsed.success) continue;
+      const species = stored?.pack.species.find((sp) => sp.id === parsed.data.taxonId);
+      const label = species ? (species.names[locale] ?? species.names.en ?? species.scientificName) : ((rawById.get(item.id) as { scientificName?: string }).scientificName ?? parsed.data.description);
+      const at = Date.parse(parsed.data.observedAt);
+      await tx.store.put({
+        kind: "sighting", id: item.id, eventId, state: "sent", rev: 0, attempts: 0, nextTryAt: 0, savedAt: at, sentAt: at,
+        record: parsed.data, taxonLabel: label, reviewState: item.reviewState, serverVersion: item.version,
+        question: item.reviewState === "returned" ? (item.question ?? undefined) : undefined,
+      });
+      continue;
+    }
     // A local edit waiting to go out keeps its own text; the states still update.
     await tx.store.put({ ...local, reviewState: item.reviewState, serverVersion: item.version, question: item.reviewState === "returned" ? (item.question ?? local.question) : local.record.answer ? local.question : undefined });
   }

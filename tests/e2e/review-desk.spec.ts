@@ -8,8 +8,8 @@ import { DEMO, expect, signInWithPassword, test } from "./support";
 // return with a question; bulk approve of a filtered set of ten; the volunteers' digests.
 const caseId = (key: string) => demoId(`review-case:${key}`);
 
-test("a coordinator limited to birds decides the queue by keyboard and the volunteers get their digests", async ({ page, mail }) => {
-  test.setTimeout(120_000);
+test("a coordinator limited to birds decides the queue by keyboard and the volunteers get their digests", async ({ page, mail, browser }) => {
+  test.setTimeout(180_000);
   await signInWithPassword(page, DEMO.birdsCoordinator);
   await page.getByRole("link", { name: "Open the review desk" }).click();
   await expect(page.getByRole("heading", { level: 1, name: "Review desk" })).toBeVisible();
@@ -119,4 +119,20 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   expect(rejected.text).toContain("Coordinator's note: The lane is outside the reserve boundary.");
   const approved = await mail.waitFor("volunteer3@example.org", (m) => /Aprobada/.test(m.text), 45_000); // Lucía reads Spanish
   expect(approved.text).toMatch(/Aprobada: .*Fringilla coelebs/);
+
+  // The volunteer's field log shows the returned sighting with the coordinator's question.
+  const phone = await browser.newContext();
+  const field = await phone.newPage();
+  await signInWithPassword(field, "volunteer1@example.org");
+  await field.goto("/en/field");
+  const pick = field.getByRole("button", { name: /Harrowmere Vale Midsummer Count/ });
+  const heading = field.getByRole("heading", { level: 2, name: "Harrowmere Vale Midsummer Count" });
+  await expect(pick.or(heading)).toBeVisible({ timeout: 20_000 });
+  if (await pick.isVisible()) await pick.click();
+  await expect(heading).toBeVisible();
+  const asked = field.getByRole("listitem").filter({ hasText: question });
+  await expect(asked).toBeVisible({ timeout: 30_000 });
+  await expect(asked).toContainText("Coordinator's question:");
+  await expect(asked).toContainText("European robin");
+  await phone.close();
 });
