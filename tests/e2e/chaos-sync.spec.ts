@@ -94,10 +94,10 @@ function send(method: string, port: number, path: string, body: unknown, headers
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
-/** An open event of its own (so no other test's counts move), 100 volunteers, 30 taxa. */
+/** An organisation and open event of their own (so no other test's counts move), 100 volunteers, 30 taxa. */
 async function prepareEvent(pg: Client) {
-  const org = await pg.query<{ id: string }>("SELECT id FROM organisations ORDER BY created_at LIMIT 1");
   const now = Date.now();
+  const org = await pg.query<{ id: string }>("INSERT INTO organisations (slug, name) VALUES ($1, 'Chaos sync trust') RETURNING id", [`chaos-${now}`]);
   const event = await pg.query<{ id: string }>(
     `INSERT INTO events (organisation_id, slug, name, status, starts_at, ends_at, time_zone, area)
      VALUES ($1, $2, 'Chaos sync count', 'open', $3, $4, 'Europe/London',
