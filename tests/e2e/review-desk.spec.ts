@@ -8,6 +8,16 @@ import { DEMO, expect, signInWithPassword, test } from "./support";
 // return with a question; bulk approve of a filtered set of ten; the volunteers' digests.
 const caseId = (key: string) => demoId(`review-case:${key}`);
 
+async function withE2eDb<T>(fn: (c: Client) => Promise<T>): Promise<T> {
+  const c = new Client({ connectionString: E2E_DB_URL });
+  await c.connect();
+  try {
+    return await fn(c);
+  } finally {
+    await c.end();
+  }
+}
+
 test("a coordinator limited to birds decides the queue by keyboard and the volunteers get their digests", async ({ page, mail, browser }) => {
   test.setTimeout(180_000);
   await signInWithPassword(page, DEMO.birdsCoordinator);
@@ -122,7 +132,8 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   expect(approved.text).toMatch(/Aprobada: .*Fringilla coelebs/);
 
   // The volunteer's field log shows the returned sighting with the coordinator's question.
-  const phone = await browser.newContext();
+  // The phone is set to another time zone: times still read in the event's (Europe/London).
+  const phone = await browser.newContext({ timezoneId: "Pacific/Auckland" });
   const field = await phone.newPage();
   await signInWithPassword(field, "volunteer1@example.org");
   await field.goto("/en/field");
@@ -135,5 +146,10 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   await expect(asked).toBeVisible({ timeout: 30_000 });
   await expect(asked).toContainText("Coordinator's question:");
   await expect(asked).toContainText("European robin");
+  await expect(field.getByText("Times are shown in the event's time zone (Europe/London).")).toBeVisible();
+  const observed = await withE2eDb((c) => c.query<{ at: Date }>("SELECT observed_at AS at FROM sightings WHERE id = $1", [caseId("outside-area:1")]));
+  const londonTime = await field.evaluate((iso) => new Intl.DateTimeFormat("en", { hour: "2-digit", minute: "2-digit", day: "numeric", month: "short", timeZone: "Europe/London" }).format(new Date(iso)),
+    observed.rows[0]!.at.toISOString());
+  await expect(asked).toContainText(londonTime);
   await phone.close();
 });

@@ -68,7 +68,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
     );
   }
 
-  const when = (iso: string) => format.dateTime(new Date(iso), { hour: "2-digit", minute: "2-digit", day: "numeric", month: "short" });
+  // Times in the event's own time zone, as everywhere else in Ecotone (design.md).
+  const when = (iso: string) => format.dateTime(new Date(iso), { hour: "2-digit", minute: "2-digit", day: "numeric", month: "short", timeZone: event.timeZone });
 
   return (
     <div className="space-y-6">
@@ -85,6 +86,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
           {!sync.running && waitingCount > 0 && problem ? <span className="text-heath-900">{t(`problem.${problem}`)}</span> : null}
         </div>
         {!data.pack && data.loaded ? <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900">{online ? t("packLoading") : t("packMissing")}</p> : null}
+        <p className="text-ink-soft">{t("timesIn", { zone: event.timeZone })}</p>
         <p><a href="#safety" className="inline-flex min-h-touch items-center font-semibold text-reed-800 underline">{t("safetyLink")}</a></p>
       </header>
 
