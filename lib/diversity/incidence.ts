@@ -62,6 +62,47 @@ export function incidenceData(units: readonly (readonly number[])[]): IncidenceD
     }
     rowStart[t + 1] = nnz;
   }
+  return summarise(T, y, rowStart, cols);
+}
+
+/**
+ * The same summary from each unit's list of detected species (indices into 0 … width−1):
+ * presence only, so a large unit × species grid never has to be built. A species listed
+ * twice in one unit counts once.
+ */
+export function incidenceDataFromLists(lists: readonly (readonly number[])[], width: number): IncidenceData {
+  if (!Number.isInteger(width) || width < 0) throw describe(width, "width");
+  if (!Array.isArray(lists)) throw describe(lists, "lists");
+  const T = lists.length;
+  const y = new Float64Array(width);
+  const rowStart = new Int32Array(T + 1);
+  const seenIn = new Int32Array(width).fill(-1);
+  let cols = new Int32Array(Math.max(16, T * 8));
+  let nnz = 0;
+  for (let t = 0; t < T; t++) {
+    const list = lists[t];
+    if (!Array.isArray(list)) throw describe(list, `lists[${t}]`);
+    for (let j = 0; j < list.length; j++) {
+      const s = list[j];
+      if (!Number.isInteger(s) || (s as number) < 0 || (s as number) >= width) throw describe(s, `lists[${t}][${j}]`);
+      if (seenIn[s as number] === t) continue;
+      seenIn[s as number] = t;
+      if (nnz === cols.length) {
+        const grown = new Int32Array(cols.length * 2);
+        grown.set(cols);
+        cols = grown;
+      }
+      cols[nnz++] = s as number;
+      y[s as number] = (y[s as number] as number) + 1;
+    }
+    rowStart[t + 1] = nnz;
+  }
+  return summarise(T, y, rowStart, cols);
+}
+
+/** Shared tail of both builders: the incidence profile and the per-unit facts ICE needs. */
+function summarise(T: number, y: Float64Array, rowStart: Int32Array, cols: Int32Array): IncidenceData {
+  const nnz = rowStart[T] as number;
   const profile = buildProfile("incidence", y, T);
   const classOf = new Int32Array(T + 1).fill(-1);
   profile.values.forEach((v, i) => {

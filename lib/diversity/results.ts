@@ -5,7 +5,7 @@ import { abundanceProfile, abundanceStatsFromProfile, type AbundanceStats } from
 import { abundanceCurveFromProfile, curveSizes, incidenceCurveFromData, type CurvePoint } from "./curves";
 import { invalidOption } from "./errors";
 import type { BootstrapOptions } from "./hill";
-import { incidenceData, incidenceStatsFromData, type IncidenceStats } from "./incidence";
+import { incidenceData, incidenceDataFromLists, incidenceStatsFromData, type IncidenceStats } from "./incidence";
 
 export const ENGINE_VERSION = "ecotone-diversity 1.0.0";
 
@@ -14,6 +14,12 @@ export type DiversityInput = {
   counts?: readonly number[];
   /** Sampling units × species counts (a complete count session per row). */
   units?: readonly (readonly number[])[];
+  /**
+   * Instead of `units`: each unit's detected species as indices into `counts` (presence
+   * only). Gives the same incidence statistics without building the unit × species grid,
+   * which at tens of thousands of sessions is most of the work.
+   */
+  unitLists?: readonly (readonly number[])[];
   /** Approximate number of points per curve (default 40; the observed point is always included). */
   curvePoints?: number;
   /** Curves run to this multiple of the sample size or number of units (default 2). */
@@ -38,7 +44,10 @@ export function diversityResults(input: DiversityInput): DiversityResults {
   if (!(factor >= 1 && factor <= 100)) {
     throw invalidOption("extrapolationFactor", `extrapolationFactor must lie between 1 and 100 (got ${factor})`);
   }
-  const inc = input.units !== undefined ? incidenceData(input.units) : null;
+  if (input.units !== undefined && input.unitLists !== undefined) throw invalidOption("unitLists", "give units or unitLists, not both");
+  if (input.unitLists !== undefined && input.counts === undefined) throw invalidOption("counts", "unitLists needs counts (individuals per species)");
+  const inc = input.units !== undefined ? incidenceData(input.units)
+    : input.unitLists !== undefined ? incidenceDataFromLists(input.unitLists, input.counts!.length) : null;
   let counts = input.counts;
   if (counts === undefined) {
     const sums: number[] = [];

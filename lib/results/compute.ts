@@ -58,18 +58,10 @@ export type Results = {
   species: SpeciesRow[];
 };
 
-function block(counts: number[], units: number[][] | null): Block {
-  const r = diversityResults({ counts, units: units && units.length ? units : undefined, curvePoints: CURVE_POINTS });
+/** The engine's results for one block; each complete session goes in as its list of taxa (presence). */
+function block(counts: number[], sessionTaxa: number[][]): Block {
+  const r = diversityResults({ counts, unitLists: sessionTaxa.length ? sessionTaxa : undefined, curvePoints: CURVE_POINTS });
   return { abundance: r.abundance, incidence: r.incidence, rarefaction: r.rarefactionCurve, accumulation: r.accumulationCurve };
-}
-
-/** One 0/1 row per complete session, built once and shared by the event's and its zone's blocks. */
-function unitRows(sessions: ResultsInput["sessions"], width: number): number[][] {
-  return sessions.map((s) => {
-    const row = new Array<number>(width).fill(0);
-    for (const t of s.taxa) row[t] = 1;
-    return row;
-  });
 }
 
 const atEffort = (p: CurvePoint): AtEffort => ({ richness: p.richness, lower: p.lower, upper: p.upper, size: p.size, kind: p.kind });
@@ -104,9 +96,8 @@ export function computeResults(input: ResultsInput): Results {
     const row = byZone[c.taxon]!;
     row[c.zoneId] = (row[c.zoneId] ?? 0) + c.individuals;
   }
-  const rows = unitRows(input.sessions, width);
-  const event = block(total, rows);
-  const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...block(perZone.get(z.id)!, rows.filter((_, i) => input.sessions[i]!.zoneId === z.id)) }));
+  const event = block(total, input.sessions.map((s) => s.taxa));
+  const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...block(perZone.get(z.id)!, input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa)) }));
 
   let comparison: Comparison | null = null;
   const sampled = input.zones.filter((z) => perZone.get(z.id)!.some((v) => v > 0));
