@@ -49,6 +49,9 @@ export default defineConfig({
       env: {
         DATABASE_URL, APP_URL: baseURL, NEXT_TELEMETRY_DISABLED: "1", SMTP_HOST: "127.0.0.1", SMTP_PORT: String(SMTP_PORT), AUTH_SECRET: "e2e-secret-for-browser-tests-only",
         REVIEW_DIGEST_DELAY_SECONDS: "4", MAIL_WORKER_INTERVAL_MS: "500",
+        // Every spec shares this server and 127.0.0.1; the fuzz and role-matrix specs alone
+        // send hundreds of writes as the demo organiser (lib/env.ts WRITE_LIMIT_SCALE).
+        WRITE_LIMIT_SCALE: "50",
         S3_ENDPOINT, S3_BUCKET: "ecotone-photos-e2e", CSP_EXTRA_ORIGINS: S3_ENDPOINT,
       },
     },

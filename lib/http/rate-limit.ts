@@ -1,3 +1,4 @@
+import { env } from "@/lib/env";
 import { ApiError } from "./errors";
 
 // A per-process sliding-window limit for write handlers: a runaway client (a phone stuck
@@ -21,7 +22,7 @@ export function takeToken(key: string, limit: number, windowMs: number, now = Da
   return true;
 }
 
-/** Throws the translated 429 when `key` has used up `limit` calls in the window. */
+/** Throws the translated 429 when `key` has used up `limit` calls in the window (times WRITE_LIMIT_SCALE). */
 export function limitWrites(key: string, limit = 120, windowMs = 60_000): void {
-  if (!takeToken(key, limit, windowMs)) throw new ApiError("rate_limited");
+  if (!takeToken(key, Math.round(limit * env().WRITE_LIMIT_SCALE), windowMs)) throw new ApiError("rate_limited");
 }

@@ -29,10 +29,13 @@ async function coordinatorApprovesOne(browser: Browser): Promise<void> {
   const desk = await context.newPage();
   await signInWithPassword(desk, DEMO.coordinator);
   await desk.goto(`/en/events/${SLUG}/review`);
-  // A vascular plant: the birds coordinator's test keeps its own pending birds.
+  // A vascular plant in Millpond Margin: none of the review desk test's crafted sightings
+  // (birds, a nettle outside the area, a daisy in the meadow) is among them.
   await desk.getByLabel("Taxon group").selectOption({ label: "Vascular plants" });
+  await desk.getByLabel("Zone").selectOption({ label: "Millpond Margin" });
   const rows = desk.getByRole("table", { name: "Queue" }).getByRole("row").filter({ has: desk.getByRole("cell") });
   await expect(rows.first()).toContainText("Vascular plants", { timeout: 20_000 });
+  await expect(rows.first()).toContainText("Millpond Margin");
   await desk.getByRole("heading", { level: 1, name: "Review desk" }).click();
   await desk.keyboard.press("j");
   await expect(rows.first()).toHaveAttribute("aria-selected", "true");
