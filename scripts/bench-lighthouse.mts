@@ -23,7 +23,7 @@ if (!existsSync(path.join(root, ".next/BUILD_ID"))) {
   if (spawnSync("npx", ["next", "build"], { stdio: "inherit", env }).status !== 0) throw new Error("next build failed");
 }
 console.log(`Fresh demo database ${new URL(databaseUrl).pathname.slice(1)} …`);
-if (spawnSync("npx", ["tsx", "tests/e2e/prepare-db.mts"], { stdio: "inherit", env }).status !== 0) throw new Error("database preparation failed");
+if (spawnSync("npx", ["tsx", "--require", "./scripts/no-server-only.cjs", "tests/e2e/prepare-db.mts"], { stdio: "inherit", env }).status !== 0) throw new Error("database preparation failed");
 
 let server: ChildProcess | undefined;
 function stopServer() {
