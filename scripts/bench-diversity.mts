@@ -116,7 +116,7 @@ process.on("exit", () => reportRows(rows));
 if (!withVegan) process.exit(0);
 const probe = spawnSync("Rscript", ["-e", "suppressMessages(library(vegan)); cat(as.character(packageVersion('vegan')))"], { encoding: "utf8" });
 if (probe.status !== 0) {
-  console.log("\nvegan: Rscript or vegan not installed, comparison skipped");
+  console.log("\nvegan: Rscript or vegan not installed, comparison skipped (Debian: apt-get install r-base-core r-cran-vegan)");
   process.exit(0);
 }
 
