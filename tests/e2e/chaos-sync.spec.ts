@@ -9,6 +9,7 @@ import { expect, test } from "@playwright/test";
 import { encode } from "next-auth/jwt";
 import { Client } from "pg";
 import sharp from "sharp";
+import { seededRandom } from "../../db/seed/random";
 import { startS3Fake } from "../../lib/storage/s3-fake";
 import { startChaosProxy, type Fate } from "./chaos-proxy";
 
@@ -47,19 +48,8 @@ type Device = {
   repeats: number;
 };
 
-/** Seeded pseudo-random numbers (mulberry32), so a failing run can be replayed. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 const SEED = Number(process.env.CHAOS_SEED ?? 20261202);
-const random = rng(SEED);
+const random = seededRandom(SEED); // so a failing run can be replayed
 
 /** One HTTP request on its own connection (no keep-alive), with the device's patience. */
 function send(method: string, port: number, path: string, body: unknown, headers: Record<string, string>, timeoutMs: number)

@@ -2,7 +2,7 @@ import path from "node:path";
 import { Client } from "pg";
 import { chromium, type Page } from "@playwright/test";
 import { DEMO, expect, signInWithPassword, test } from "./support";
-import { E2E_DB_URL } from "./demo-ids";
+import { E2E_DB_URL, withE2eDb } from "./demo-ids";
 
 // The field log's whole offline day (issue 5): Chromium with the network cut by the
 // browser context, the real service worker, IndexedDB, the real sync handler and database.
@@ -13,15 +13,6 @@ test.describe.configure({ timeout: 240_000 });
 // Inside the demo's "Heather Crest" zone on Kestrel Moor.
 test.use({ geolocation: { latitude: 53.3045, longitude: -2.095, accuracy: 8 }, permissions: ["geolocation"] });
 
-async function db<T>(fn: (c: Client) => Promise<T>): Promise<T> {
-  const c = new Client({ connectionString: E2E_DB_URL });
-  await c.connect();
-  try {
-    return await fn(c);
-  } finally {
-    await c.end();
-  }
-}
 
 async function openFieldLog(page: Page) {
   await page.goto("/en/field");
@@ -57,8 +48,8 @@ async function addSighting(page: Page, query: string, pick: RegExp, opts: { coun
 
 test("a volunteer's offline session and five sightings survive a reload, are sent once online, and are never stored twice", async ({ page, context }) => {
   await signInWithPassword(page, DEMO.volunteer);
-  const eventId = await db(async (c) => (await c.query(`SELECT id FROM events WHERE slug = 'kestrel-moor-winter-count'`)).rows[0].id as string);
-  const before = await db(async (c) => (await c.query(
+  const eventId = await withE2eDb(async (c) => (await c.query(`SELECT id FROM events WHERE slug = 'kestrel-moor-winter-count'`)).rows[0].id as string);
+  const before = await withE2eDb(async (c) => (await c.query(
     `SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number);
 
   await openFieldLog(page);
@@ -111,7 +102,7 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   const sessionId = ids.sessions[0]!.id;
   const sightingIds = ids.sightings.map((s) => s.id).sort();
 
-  const stored = await db(async (c) => ({
+  const stored = await withE2eDb(async (c) => ({
     sessions: (await c.query(`SELECT id, kind, all_species_noted, distance_m, ended_at IS NOT NULL AS ended, zone_id IS NOT NULL AS zoned FROM count_sessions WHERE id = $1`, [sessionId])).rows,
     sightings: (await c.query(`SELECT id::text FROM sightings WHERE session_id = $1 ORDER BY id`, [sessionId])).rows.map((r) => r.id as string),
     total: (await c.query(`SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number,
@@ -127,7 +118,7 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   expect(ids.photos).toHaveLength(1);
   const photoId = ids.photos[0]!.id;
   expect(ids.photos[0]!.state).toBe("sent");
-  const photoRows = await db(async (c) => (await c.query(
+  const photoRows = await withE2eDb(async (c) => (await c.query(
     `SELECT p.id::text, p.content_type, t.scientific_name FROM photos p JOIN sightings s ON s.id = p.sighting_id JOIN taxa t ON t.id = s.taxon_id WHERE s.session_id = $1`, [sessionId])).rows);
   expect(photoRows).toEqual([{ id: photoId, content_type: "image/jpeg", scientific_name: "Falco tinnunculus" }]);
   const link = await page.request.get(`/api/events/${eventId}/photos/${photoId}?size=full`, { maxRedirects: 0 });
@@ -148,7 +139,7 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   expect(resend.status).toBe(200);
   expect(resend.body.acks).toHaveLength(6);
   expect(new Set(resend.body.acks.map((a: { outcome: string }) => a.outcome))).toEqual(new Set(["already_had"]));
-  const after = await db(async (c) => ({
+  const after = await withE2eDb(async (c) => ({
     total: (await c.query(`SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number,
     sessions: (await c.query(`SELECT count(*)::int AS n FROM count_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number,
   }));

@@ -3,20 +3,11 @@ import { Client } from "pg";
 import { unzipSync, strFromU8 } from "fflate";
 import type { Browser, Page } from "@playwright/test";
 import { SENSITIVE_DEMO_RECORDS } from "../../db/seed/sensitive";
-import { E2E_DB_URL } from "./demo-ids";
+import { E2E_DB_URL, withE2eDb } from "./demo-ids";
 import { DEMO, expect, signInWithPassword, test } from "./support";
 
 const SLUG = "harrowmere-vale-midsummer-count";
 
-async function withDb<T>(fn: (db: Client) => Promise<T>): Promise<T> {
-  const db = new Client({ connectionString: E2E_DB_URL });
-  await db.connect();
-  try {
-    return await fn(db);
-  } finally {
-    await db.end();
-  }
-}
 
 /**
  * Setup helper: a coordinator approves one more sighting. The review desk is built on
@@ -44,11 +35,11 @@ async function coordinatorApprovesOne(browser: Browser): Promise<void> {
   await context.close();
 }
 
-const latestVersion = () => withDb(async (db) => {
+const latestVersion = () => withE2eDb(async (db) => {
   const { rows } = await db.query<{ v: number }>("SELECT coalesce(max(version), 0)::int AS v FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1", [SLUG]);
   return rows[0]!.v;
 });
-const resultsDigest = (version: number) => withDb(async (db) => {
+const resultsDigest = (version: number) => withE2eDb(async (db) => {
   const { rows } = await db.query<{ h: string }>("SELECT md5(r.results::text || r.input_hash || r.changes::text) AS h FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND r.version = $2", [SLUG, version]);
   return rows[0]!.h;
 });

@@ -1,6 +1,6 @@
 import { Client } from "pg";
 import { demoId } from "../../db/seed/random";
-import { E2E_DB_URL } from "./demo-ids";
+import { E2E_DB_URL, withE2eDb } from "./demo-ids";
 import { DEMO, expect, signInWithPassword, test } from "./support";
 
 // The birds coordinator at the review desk, by keyboard as far as it goes: only bird
@@ -8,15 +8,6 @@ import { DEMO, expect, signInWithPassword, test } from "./support";
 // return with a question; bulk approve of a filtered set of ten; the volunteers' digests.
 const caseId = (key: string) => demoId(`review-case:${key}`);
 
-async function withE2eDb<T>(fn: (c: Client) => Promise<T>): Promise<T> {
-  const c = new Client({ connectionString: E2E_DB_URL });
-  await c.connect();
-  try {
-    return await fn(c);
-  } finally {
-    await c.end();
-  }
-}
 
 test("a coordinator limited to birds decides the queue by keyboard and the volunteers get their digests", async ({ page, mail, browser }) => {
   test.setTimeout(180_000);
