@@ -1,6 +1,6 @@
 import { getLocale, getTranslations } from "next-intl/server";
 import { organisesAnything } from "@/db/queries/setup";
-import { getSessionUser } from "@/lib/auth/guard";
+import { getSessionUser } from "@/server/auth/guard";
 import { Link } from "@/lib/i18n/navigation";
 import { EcotoneMark } from "./ecotone-mark";
 import { LocaleSwitcher } from "./locale-switcher";

@@ -32,7 +32,7 @@ const schema = z.object({
   S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
   // Largest photo accepted, in bytes (the photos table allows at most 20 MB).
   PHOTO_MAX_BYTES: z.coerce.number().int().min(1).max(20_000_000).default(15_000_000),
-  // Multiplies every write-handler rate limit (lib/http/rate-limit.ts). 1 in the demo and in
+  // Multiplies every write-handler rate limit (lib/http/write-limit.ts). 1 in the demo and in
   // a deployment; the browser tests raise it because all their specs share one server, one
   // IP address and a handful of demo people, and the fuzz test alone sends hundreds of writes.
   WRITE_LIMIT_SCALE: z.coerce.number().min(1).max(1000).default(1),

@@ -23,7 +23,7 @@ if (!process.execArgv.some((a) => a.includes("react-server"))) {
 
 const { sql } = await import("drizzle-orm");
 const { getDb } = await import("../db/client");
-const { currentResults, forgetResults } = await import("../lib/results/current");
+const { currentResults, forgetResults } = await import("../server/results/current");
 const { env } = await import("../lib/env");
 const { recreateDatabase } = await import("../tests/support/test-db");
 const { reportRows } = await import("./bench-report");

@@ -4,8 +4,8 @@
 //   npx tsx --require ./scripts/no-server-only.cjs scripts/mail-worker.mts [--once]
 import { composeDigests } from "../db/queries/review-digest";
 import { env } from "../lib/env";
-import { drainOutbox } from "../lib/mail/outbox";
-import { renderDigest } from "../lib/review/digest-mail";
+import { drainOutbox } from "../server/mail/queue";
+import { renderDigest } from "../server/review/digest-mail";
 
 const once = process.argv.includes("--once");
 let stopping = false;

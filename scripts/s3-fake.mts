@@ -2,7 +2,7 @@
 // its CORS rule for the app's origin. Used by scripts/start.sh and the browser tests.
 //   S3_FAKE_PORT (default 9000), S3_FAKE_DIR (default .data/s3), S3_BUCKET, APP_URL
 import { mkdirSync } from "node:fs";
-import { startS3Fake } from "../lib/storage/s3-fake";
+import { startS3Fake } from "../server/storage/s3-fake";
 
 const port = Number(process.env.S3_FAKE_PORT ?? 9000);
 const directory = process.env.S3_FAKE_DIR ?? ".data/s3";

@@ -4,7 +4,7 @@ import { Pool } from "pg";
 import * as schema from "../db/schema";
 import { seedDemo } from "../db/seed/demo";
 import { DEMO_PASSWORD } from "../db/seed/demo-scenario";
-import { hashPassword } from "../lib/auth/password";
+import { hashPassword } from "../server/auth/password";
 import { env } from "../lib/env";
 
 const url = process.argv[2] ?? env().DATABASE_URL;

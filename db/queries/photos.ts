@@ -5,7 +5,7 @@ import { photos, sightings, taxa } from "../schema";
 import { refreshCheckMarks } from "./check-marks";
 
 // Photos of sightings: the rows the photo handlers read and write. The pictures themselves
-// live in the S3 photo store (lib/storage/s3.ts), under photos.storage_key.
+// live in the S3 photo store (server/storage/s3.ts), under photos.storage_key.
 
 export type PhotoSighting = { id: string; userId: string; eventId: string; taxonGroup: string | null };
 

@@ -2,7 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { reports } from "../schema";
-import { enqueueMail, type OutboxMail } from "./outbox";
+import { enqueueMail, type OutboxMail } from "./mail-queue";
 import { canonicalJson, computeResults, type Results } from "@/lib/results/compute";
 import { METHOD_NOTES } from "@/lib/results/methods";
 import { diffRecords, inputFromRecords, inputHash, type InputRecord, type ReportChanges } from "@/lib/results/records";

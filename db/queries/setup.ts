@@ -3,7 +3,7 @@ import { randomInt } from "node:crypto";
 import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventMembers, events, invitations, membershipLog, organisationMembers, organisations, users } from "../schema";
-import { enqueueMail, type OutboxMail } from "./outbox";
+import { enqueueMail, type OutboxMail } from "./mail-queue";
 
 type Role = "organiser" | "coordinator" | "volunteer";
 type Group = (typeof eventMembers.$inferSelect)["taxonGroups"][number];

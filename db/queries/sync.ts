@@ -3,7 +3,7 @@ import { and, eq, inArray, sql } from "drizzle-orm";
 import type { z } from "zod";
 import {
   sessionRecord, sightingRecord, type SessionRecord, type SightingRecord, type SyncAck,
-} from "@/app/api/events/[eventId]/sync/schema";
+} from "@/lib/sync/records";
 import { zodFieldProblems } from "@/lib/http/errors";
 import { translator } from "@/lib/i18n/translator";
 import type { Locale } from "@/lib/i18n/routing";

@@ -1,7 +1,7 @@
 import "fake-indexeddb/auto";
 import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import type { SightingRecord } from "@/app/api/events/[eventId]/sync/schema";
+import type { SightingRecord } from "@/lib/sync/records";
 import { openFieldDb } from "./db";
 import { applyAcks, eventRecords, InvalidRecord, makeDueNow, releaseBatch, resetInFlight, saveSession, saveSighting, takeBatch } from "./outbox";
 

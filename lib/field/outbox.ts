@@ -1,4 +1,4 @@
-import { sessionRecord, sightingRecord, MAX_BATCH_RECORDS, type SessionRecord, type SightingRecord, type SyncAck } from "@/app/api/events/[eventId]/sync/schema";
+import { sessionRecord, sightingRecord, MAX_BATCH_RECORDS, type SessionRecord, type SightingRecord, type SyncAck } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import type { LocalPhoto, LocalSession, LocalSighting, TransientProblem } from "./types";

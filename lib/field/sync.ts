@@ -1,4 +1,4 @@
-import { sightingRecord, type SyncAck } from "@/app/api/events/[eventId]/sync/schema";
+import { sightingRecord, type SyncAck } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import { applyAcks, batchBody, refuseBatch, releaseBatch, resetInFlight, takeBatch } from "./outbox";

@@ -1,4 +1,4 @@
-import type { SessionRecord, SightingRecord } from "@/app/api/events/[eventId]/sync/schema";
+import type { SessionRecord, SightingRecord } from "@/lib/sync/records";
 import type { EventPack as ServerPack, PackSpecies as ServerSpecies } from "@/db/queries/pack";
 
 // What the device keeps in IndexedDB. Every record goes to the outbox first and is sent

@@ -10,7 +10,7 @@ import { encode } from "next-auth/jwt";
 import { Client } from "pg";
 import sharp from "sharp";
 import { seededRandom } from "../../db/seed/random";
-import { startS3Fake } from "../../lib/storage/s3-fake";
+import { startS3Fake } from "../../server/storage/s3-fake";
 import { startChaosProxy, type Fate } from "./chaos-proxy";
 
 // Chaos sync (issue 8): 100 simulated devices each send 50 sightings — some inside count

@@ -1,8 +1,8 @@
 import { eq, sql } from "drizzle-orm";
 import { afterAll, describe, expect, it } from "vitest";
-import { enqueueMail } from "@/db/queries/outbox";
+import { enqueueMail } from "@/db/queries/mail-queue";
 import { emailOutbox } from "@/db/schema";
-import { drainOutbox } from "@/lib/mail/outbox";
+import { drainOutbox } from "@/server/mail/queue";
 import { MailCatcher } from "../support/mail-catcher";
 import { db } from "./helpers";
 

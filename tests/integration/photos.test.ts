@@ -3,7 +3,7 @@ import { eq } from "drizzle-orm";
 import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import * as s from "@/db/schema";
-import { confirmPhoto, photoLink, requestPhotoUpload } from "@/lib/photos/upload";
+import { confirmPhoto, photoLink, requestPhotoUpload } from "@/server/photos/upload";
 import { db, makeFixture, sightingValues } from "./helpers";
 
 // Photos through the real S3 protocol against the S3 fake that the test setup started:

@@ -9,10 +9,10 @@ import { DEMO_EVENT } from "@/db/seed/demo-scenario";
 import { SENSITIVE_DEMO_RECORDS } from "@/db/seed/sensitive";
 import { canonicalJson, computeResults } from "@/lib/results/compute";
 import { DWC_REQUIRED, darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
-import { publishMail } from "@/lib/results/mail";
+import { publishMail } from "@/server/results/publish-mail";
 import { inputFromRecords, inputHash } from "@/lib/results/records";
 import { resultsKey, taxaMeta } from "@/db/queries/results";
-import { currentResults } from "@/lib/results/current";
+import { currentResults } from "@/server/results/current";
 import { db, makeFixture, refusal, sightingValues } from "./helpers";
 
 let eventId = "";

@@ -6,9 +6,9 @@ import { bulkApprove, decide, queueCounts, reviewQueue, sightingDetail, type Rev
 import { composeDigests } from "@/db/queries/review-digest";
 import * as s from "@/db/schema";
 import { ApiError, errorStatus } from "@/lib/http/errors";
-import { renderDigest } from "@/lib/review/digest-mail";
+import { renderDigest } from "@/server/review/digest-mail";
 import { queueFilters } from "@/lib/review/filters";
-import { reviewPermitFor } from "@/lib/review/permit";
+import { reviewPermitFor } from "@/server/review/permit";
 import { db, makeFixture, pointSql, refusal, sightingValues } from "./helpers";
 
 // The review desk's data layer and its guard, on the real database: who may review what,

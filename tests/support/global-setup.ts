@@ -1,7 +1,7 @@
 import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { startS3Fake } from "@/lib/storage/s3-fake";
+import { startS3Fake } from "@/server/storage/s3-fake";
 import { recreateDatabase } from "./test-db";
 import type { TestProject } from "vitest/node";
 

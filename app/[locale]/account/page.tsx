@@ -1,6 +1,6 @@
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import { rolesOf } from "@/db/queries/auth";
-import { requirePageUser } from "@/lib/auth/page";
+import { requirePageUser } from "@/server/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { PasswordForm } from "./_components/password-form";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import { fieldLogEvents } from "@/db/queries/field-log";
 import { SafetyNotice } from "@/components/safety-notice";
-import { requirePageUser } from "@/lib/auth/page";
+import { requirePageUser } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
 import { FieldApp } from "./_components/field-app";
 

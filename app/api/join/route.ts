@@ -1,14 +1,14 @@
 import { after } from "next/server";
 import { eventAccess } from "@/db/queries/auth";
 import { eventByJoinCode, inviteToEvent, joinAsVolunteer } from "@/db/queries/setup";
-import { getSessionUser } from "@/lib/auth/guard";
-import { createMagicLink } from "@/lib/auth/magic-link";
-import { invitationMail } from "@/lib/auth/mails";
-import { clientIp } from "@/lib/auth/rate-limit";
+import { getSessionUser } from "@/server/auth/guard";
+import { createMagicLink } from "@/server/auth/magic-link";
+import { invitationMail } from "@/server/auth/mails";
+import { clientIp } from "@/server/auth/sign-in-limit";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { drainOutbox } from "@/lib/mail/outbox";
+import { drainOutbox } from "@/server/mail/queue";
 import { parseSetupBody } from "@/lib/setup/api";
 import { joinInput } from "./schema";
 

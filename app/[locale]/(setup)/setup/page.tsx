@@ -1,7 +1,7 @@
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
 import { organisationsForSetup } from "@/db/queries/setup";
 import { EventStatusBadge } from "@/components/event-status-badge";
-import { requirePageUser } from "@/lib/auth/page";
+import { requirePageUser } from "@/server/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { CreateEventForm } from "./_components/create-event-form";

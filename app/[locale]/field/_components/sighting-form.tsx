@@ -2,7 +2,7 @@
 
 import { useTranslations } from "next-intl";
 import { useEffect, useMemo, useRef, useState } from "react";
-import type { SightingRecord } from "@/app/api/events/[eventId]/sync/schema";
+import type { SightingRecord } from "@/lib/sync/records";
 import type { FieldDatabase } from "@/lib/field/db";
 import { InvalidRecord, saveSighting } from "@/lib/field/outbox";
 import { preparePhoto, type PreparedPhoto } from "@/lib/field/photo";

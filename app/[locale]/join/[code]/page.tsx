@@ -1,7 +1,7 @@
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import { eventByJoinCode } from "@/db/queries/setup";
 import { SafetyNotice } from "@/components/safety-notice";
-import { getSessionUser } from "@/lib/auth/guard";
+import { getSessionUser } from "@/server/auth/guard";
 import type { Locale } from "@/lib/i18n/routing";
 import { JoinForm } from "./_components/join-form";
 

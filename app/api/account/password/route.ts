@@ -1,10 +1,10 @@
 import { setPasswordHash } from "@/db/queries/auth";
-import { requireUser } from "@/lib/auth/guard";
-import { hashPassword, passwordProblems } from "@/lib/auth/password";
+import { requireUser } from "@/server/auth/guard";
+import { hashPassword, passwordProblems } from "@/server/auth/password";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
 import { translator } from "@/lib/i18n/translator";
 import { parseJson } from "@/lib/http/body";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { setPasswordInput } from "./schema";
 
 // Any signed-in person sets or changes their own password.

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { passwordField } from "@/lib/auth/password";
+import { passwordField } from "@/server/auth/password";
 
 export const setPasswordInput = z.object({ password: passwordField }).strict();
 export type SetPasswordInput = z.infer<typeof setPasswordInput>;

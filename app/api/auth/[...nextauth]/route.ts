@@ -1,6 +1,6 @@
 import NextAuth from "next-auth";
-import { authOptions } from "@/lib/auth/options";
-import { clientIp, recordSignInAttempt, signInAllowed } from "@/lib/auth/rate-limit";
+import { authOptions } from "@/server/auth/options";
+import { clientIp, recordSignInAttempt, signInAllowed } from "@/server/auth/sign-in-limit";
 import { env } from "@/lib/env";
 
 type Ctx = { params: Promise<{ nextauth: string[] }> };

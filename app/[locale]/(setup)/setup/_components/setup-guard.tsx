@@ -1,5 +1,5 @@
 import { getTranslations } from "next-intl/server";
-import { requirePageEventRole } from "@/lib/auth/page";
+import { requirePageEventRole } from "@/server/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 

@@ -1,7 +1,7 @@
 import { notFound } from "next/navigation";
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import { getPublicEventBySlug } from "@/db/queries/events";
-import { requirePageEventRole } from "@/lib/auth/page";
+import { requirePageEventRole } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
 import { LiveBoard, type LiveLabels } from "./_components/live-board";
 

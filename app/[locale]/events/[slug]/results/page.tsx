@@ -5,10 +5,10 @@ import { getPublicEventBySlug } from "@/db/queries/events";
 import { listReports } from "@/db/queries/reports";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
-import { requirePageEventRole } from "@/lib/auth/page";
+import { requirePageEventRole } from "@/server/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
-import { currentResults } from "@/lib/results/current";
+import { currentResults } from "@/server/results/current";
 import { PublishButton } from "./_components/publish-button";
 
 export const dynamic = "force-dynamic";

@@ -1,5 +1,5 @@
 import { liveFigures, loadResultsInput } from "@/db/queries/results";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { handle } from "@/lib/http/errors";
 import { completeness } from "@/lib/results/live";
 

@@ -1,5 +1,5 @@
 import { getEventPack } from "@/db/queries/pack";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle } from "@/lib/http/errors";
 import { jsonWithEtag } from "@/lib/http/etag";
 

@@ -1,8 +1,8 @@
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { parseJson } from "@/lib/http/body";
 import { handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
-import { requestPhotoUpload } from "@/lib/photos/upload";
+import { limitWrites } from "@/lib/http/write-limit";
+import { requestPhotoUpload } from "@/server/photos/upload";
 import { photoUploadInput } from "./schema";
 
 type Ctx = { params: Promise<{ eventId: string }> };

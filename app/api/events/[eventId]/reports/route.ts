@@ -1,8 +1,8 @@
 import { listReports, publishReport } from "@/db/queries/reports";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { handle } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
-import { publishMail } from "@/lib/results/mail";
+import { limitWrites } from "@/lib/http/write-limit";
+import { publishMail } from "@/server/results/publish-mail";
 
 export const dynamic = "force-dynamic";
 

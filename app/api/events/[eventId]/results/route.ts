@@ -1,6 +1,6 @@
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { handle } from "@/lib/http/errors";
-import { currentResults } from "@/lib/results/current";
+import { currentResults } from "@/server/results/current";
 
 export const dynamic = "force-dynamic";
 

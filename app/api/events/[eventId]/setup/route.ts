@@ -1,7 +1,7 @@
 import { eventForSetup, updateEvent } from "@/db/queries/setup";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle, parseQuery } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { eventInstants, parseSetupBody } from "@/lib/setup/api";
 import { utcToZonedLocal } from "@/lib/time/zoned";
 import { setupQuery, updateEventInput } from "./schema";

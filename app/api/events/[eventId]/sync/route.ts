@@ -1,10 +1,10 @@
 import { ingestBatch } from "@/db/queries/sync";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { env } from "@/lib/env";
 import { parseJson } from "@/lib/http/body";
 import { handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
-import { syncBatch, type SyncResponse } from "./schema";
+import { limitWrites } from "@/lib/http/write-limit";
+import { syncBatch, type SyncResponse } from "@/lib/sync/records";
 
 type Ctx = { params: Promise<{ eventId: string }> };
 

@@ -1,7 +1,7 @@
 import { createEvent } from "@/db/queries/setup";
-import { requireOrganisationOrganiser } from "@/lib/auth/guard";
+import { requireOrganisationOrganiser } from "@/server/auth/guard";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
 import { eventInstants, parseSetupBody } from "@/lib/setup/api";
 import { createEventInput } from "./schema";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import { queueChoices, reviewEventBySlug } from "@/db/queries/review";
-import { requirePageEventRole } from "@/lib/auth/page";
+import { requirePageEventRole } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
 import { REJECT_REASONS } from "@/lib/review/decisions";
 import { CHECK_MARKS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/review/filters";

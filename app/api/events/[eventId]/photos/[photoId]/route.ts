@@ -1,6 +1,6 @@
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { handle, parseQuery, requestLocale } from "@/lib/http/errors";
-import { photoLink } from "@/lib/photos/upload";
+import { photoLink } from "@/server/photos/upload";
 import { photoGetQuery } from "../schema";
 
 type Ctx = { params: Promise<{ eventId: string; photoId: string }> };

@@ -1,9 +1,9 @@
 import { bulkApprove, MAX_BULK } from "@/db/queries/review";
 import { parseJson } from "@/lib/http/body";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { requireReviewPermit } from "@/lib/review/permit";
+import { requireReviewPermit } from "@/server/review/permit";
 import { bulkApproveInput } from "./schema";
 
 // Approves every pending sighting matching the filters, if their number is still the one confirmed.

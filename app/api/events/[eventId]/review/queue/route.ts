@@ -1,7 +1,7 @@
 import { decodeCursor, queueCounts, reviewQueue } from "@/db/queries/review";
 import { ApiError, handle, parseQuery, requestLocale } from "@/lib/http/errors";
 import { translator } from "@/lib/i18n/translator";
-import { requireReviewPermit } from "@/lib/review/permit";
+import { requireReviewPermit } from "@/server/review/permit";
 import { queueQuery } from "./schema";
 
 export const dynamic = "force-dynamic";

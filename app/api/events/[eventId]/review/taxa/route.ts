@@ -1,6 +1,6 @@
 import { searchTaxa } from "@/db/queries/review";
 import { handle, parseQuery } from "@/lib/http/errors";
-import { requireReviewPermit } from "@/lib/review/permit";
+import { requireReviewPermit } from "@/server/review/permit";
 import { taxaQuery } from "./schema";
 
 export const dynamic = "force-dynamic";

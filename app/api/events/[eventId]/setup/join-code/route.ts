@@ -1,7 +1,7 @@
 import { rotateJoinCode } from "@/db/queries/setup";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { handle } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 
 type Ctx = { params: Promise<{ eventId: string }> };
 

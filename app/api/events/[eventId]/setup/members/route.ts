@@ -1,12 +1,12 @@
 import { after } from "next/server";
 import { eventForSetup, inviteToEvent, membersOf } from "@/db/queries/setup";
-import { requireEventRole } from "@/lib/auth/guard";
-import { createMagicLink } from "@/lib/auth/magic-link";
-import { invitationMail } from "@/lib/auth/mails";
+import { requireEventRole } from "@/server/auth/guard";
+import { createMagicLink } from "@/server/auth/magic-link";
+import { invitationMail } from "@/server/auth/mails";
 import { ApiError, handle, parseQuery, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { drainOutbox } from "@/lib/mail/outbox";
+import { drainOutbox } from "@/server/mail/queue";
 import { parseSetupBody } from "@/lib/setup/api";
 import { setupQuery } from "../schema";
 import { inviteInput } from "./schema";

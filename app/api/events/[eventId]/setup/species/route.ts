@@ -1,7 +1,7 @@
 import { importSpecies, listEventSpecies } from "@/db/queries/setup-species";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { handle, parseQuery, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
 import { csvReport, parseSetupBody, reportResponse } from "@/lib/setup/api";
 import { parseSpeciesCsv } from "@/lib/species/csv";

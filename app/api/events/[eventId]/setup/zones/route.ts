@@ -1,8 +1,8 @@
 import { areaAndZones, uploadAreaAndZones } from "@/db/queries/setup-zones";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { parseAreaAndZones } from "@/lib/geo/geojson";
 import { handle, parseQuery, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { geoReport, parseSetupBody, reportResponse } from "@/lib/setup/api";
 import { setupQuery } from "../schema";
 import { MAX_GEOJSON_BYTES, zonesUploadInput } from "./schema";

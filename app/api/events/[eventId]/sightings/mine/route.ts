@@ -1,5 +1,5 @@
 import { listMySightings } from "@/db/queries/my-sightings";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { handle } from "@/lib/http/errors";
 import { jsonWithEtag } from "@/lib/http/etag";
 

@@ -1,7 +1,7 @@
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
-import { confirmPhoto } from "@/lib/photos/upload";
+import { limitWrites } from "@/lib/http/write-limit";
+import { confirmPhoto } from "@/server/photos/upload";
 
 type Ctx = { params: Promise<{ eventId: string; photoId: string }> };
 

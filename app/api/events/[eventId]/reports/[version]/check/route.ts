@@ -1,5 +1,5 @@
 import { checkReport } from "@/db/queries/reports";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle } from "@/lib/http/errors";
 
 export const dynamic = "force-dynamic";

@@ -1,6 +1,6 @@
 import { sightingDetail } from "@/db/queries/review";
 import { ApiError, handle } from "@/lib/http/errors";
-import { requireReviewPermit, UUID } from "@/lib/review/permit";
+import { requireReviewPermit, UUID } from "@/server/review/permit";
 
 export const dynamic = "force-dynamic";
 

@@ -1,7 +1,7 @@
 import { revokeInvitation } from "@/db/queries/setup";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 
 type Ctx = { params: Promise<{ eventId: string; invitationId: string }> };
 

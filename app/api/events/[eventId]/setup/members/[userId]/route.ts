@@ -1,7 +1,7 @@
 import { changeMemberRole, removeMember } from "@/db/queries/setup";
-import { requireEventRole } from "@/lib/auth/guard";
+import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
 import { parseSetupBody } from "@/lib/setup/api";
 import { roleChangeInput } from "./schema";

@@ -1,9 +1,9 @@
 import { decide } from "@/db/queries/review";
 import { parseJson } from "@/lib/http/body";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/rate-limit";
+import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { requireReviewPermit, UUID } from "@/lib/review/permit";
+import { requireReviewPermit, UUID } from "@/server/review/permit";
 import { decisionInput } from "./schema";
 
 // A coordinator's decision on one sighting. A stale version (someone decided first) is a 409

@@ -1,4 +1,4 @@
-// s3rver 3.7 ships no types; only what lib/storage/s3-fake.ts uses.
+// s3rver 3.7 ships no types; only what server/storage/s3-fake.ts uses.
 declare module "s3rver" {
   type BucketConfig = { name: string; configs: (string | Buffer)[] };
   type Options = { address?: string; port?: number; silent?: boolean; directory?: string; resetOnClose?: boolean; configureBuckets?: BucketConfig[] };

@@ -9,9 +9,9 @@ import { getDb } from "@/db/client";
 import { accounts, sessions, users, verificationTokens } from "@/db/schema";
 import { env } from "@/lib/env";
 import { toLocale } from "@/lib/i18n/translator";
-import { sendMail } from "@/lib/mail/transport";
-import { signInMail } from "./mails";
-import { verifyPassword } from "./password";
+import { sendMail } from "@/server/mail/transport";
+import { signInMail } from "@/server/auth/mails";
+import { verifyPassword } from "@/server/auth/password";
 
 export const MAGIC_LINK_MAX_AGE_S = 24 * 60 * 60;
 

@@ -2,8 +2,8 @@ import "server-only";
 import type { DigestItem, DigestRecipient, RenderedMail } from "@/db/queries/review-digest";
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
-import { escapeHtml } from "@/lib/mail/html";
-import { REJECT_REASONS, type RejectReason } from "./decisions";
+import { escapeHtml } from "@/server/mail/html";
+import { REJECT_REASONS, type RejectReason } from "@/lib/review/decisions";
 
 // The volunteer's digest of review decisions, in their own language, times in each event's
 // time zone (saying so). Every value from people (questions, notes) is escaped in the HTML.

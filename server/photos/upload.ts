@@ -7,8 +7,8 @@ import { env } from "@/lib/env";
 import { ApiError } from "@/lib/http/errors";
 import type { Locale } from "@/lib/i18n/routing";
 import { translator } from "@/lib/i18n/translator";
-import { deleteObject, presignGet, presignPut, readObject, writeObject } from "@/lib/storage/s3";
-import { inspectPhoto, type PhotoType } from "./inspect";
+import { deleteObject, presignGet, presignPut, readObject, writeObject } from "@/server/storage/s3";
+import { inspectPhoto, type PhotoType } from "@/lib/photos/inspect";
 
 // Photos of sightings through the S3 API (issue 5): the device asks for a presigned PUT,
 // uploads the bytes straight to the photo store, then asks the server to confirm. The

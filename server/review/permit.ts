@@ -1,6 +1,6 @@
 import "server-only";
 import type { ReviewScope } from "@/db/queries/review";
-import { eventPermitFor, requireUser, type SessionUser } from "@/lib/auth/guard";
+import { eventPermitFor, requireUser, type SessionUser } from "@/server/auth/guard";
 import { requestLocale } from "@/lib/http/errors";
 import type { Locale } from "@/lib/i18n/routing";
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { ApiError } from "./errors";
-import { limitWrites, takeToken } from "./rate-limit";
+import { ApiError } from "@/lib/http/errors";
+import { limitWrites, takeToken } from "@/lib/http/write-limit";
 
 describe("write rate limit", () => {
   it("allows `limit` calls per window, then refuses until the window has moved on", () => {

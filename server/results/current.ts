@@ -1,6 +1,6 @@
 import "server-only";
 import { loadResultsInput, resultsKey } from "@/db/queries/results";
-import { computeResults, type Results } from "./compute";
+import { computeResults, type Results } from "@/lib/results/compute";
 
 // The event's current results, computed once per change and shared by every reader in
 // this process (the organiser, coordinators polling, the results page). The key comes

@@ -2,7 +2,7 @@ import "server-only";
 import { getServerSession } from "next-auth";
 import { eventAccess, findUserById, isOrganisationOrganiser, type EventAccess } from "@/db/queries/auth";
 import { ApiError } from "@/lib/http/errors";
-import { authOptions } from "./options";
+import { authOptions } from "@/server/auth/options";
 
 // The one authorisation helper (conventions, habit 4). Every route handler and every
 // signed-in page goes through these; 401 without a session, 403 with the wrong role.

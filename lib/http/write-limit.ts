@@ -1,5 +1,5 @@
 import { env } from "@/lib/env";
-import { ApiError } from "./errors";
+import { ApiError } from "@/lib/http/errors";
 
 // A per-process sliding-window limit for write handlers: a runaway client (a phone stuck
 // in a retry loop, a script) is slowed before it reaches the database. Each app instance

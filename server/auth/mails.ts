@@ -1,7 +1,7 @@
 import "server-only";
 import type { Locale } from "@/lib/i18n/routing";
 import { translator } from "@/lib/i18n/translator";
-import { mailHtml } from "@/lib/mail/html";
+import { mailHtml } from "@/server/mail/html";
 
 export function signInMail(locale: Locale, url: string) {
   const t = translator(locale, "Mail");

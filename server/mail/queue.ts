@@ -1,6 +1,6 @@
 import "server-only";
-import { claimDueMails, markMailFailed, markMailSent, requeueStaleMails } from "@/db/queries/outbox";
-import { sendMail } from "./transport";
+import { claimDueMails, markMailFailed, markMailSent, requeueStaleMails } from "@/db/queries/mail-queue";
+import { sendMail } from "@/server/mail/transport";
 
 export const MAX_ATTEMPTS = 8;
 
