@@ -89,3 +89,9 @@ export async function speciesListSummary(eventId: string) {
     sensitive: rows.reduce((s, r) => s + Number(r.sensitive), 0),
   };
 }
+
+/** The id of the event with this slug, whatever its status (drafts too): for pages that check roles next. */
+export async function eventIdBySlug(slug: string): Promise<string | null> {
+  const [row] = await getDb().select({ id: events.id }).from(events).where(eq(events.slug, slug)).limit(1);
+  return row?.id ?? null;
+}

@@ -5,7 +5,7 @@ import { requirePageUser } from "@/server/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { CreateEventForm } from "./_components/create-event-form";
-import { NotAllowed } from "./_components/setup-guard";
+import { SetupNotAllowed as NotAllowed } from "@/components/setup-not-allowed";
 
 export const dynamic = "force-dynamic";
 
@@ -30,7 +30,7 @@ export default async function SetupHome({ params }: { params: Promise<{ locale: 
               {o.events.map((e) => (
                 <li key={e.id} className="flex flex-wrap items-center justify-between gap-2 rounded-lg border border-reed-200 bg-white/70 p-3">
                   <span>
-                    <Link href={`/setup/events/${e.id}`} className="font-semibold text-reed-800 underline">{e.name}</Link>
+                    <Link href={`/events/${e.slug}/setup`} className="font-semibold text-reed-800 underline">{e.name}</Link>
                     <span className="block text-sm text-ink-soft">{format.dateTime(e.startsAt, { dateStyle: "medium", timeZone: e.timeZone })}</span>
                   </span>
                   <EventStatusBadge status={e.status} />

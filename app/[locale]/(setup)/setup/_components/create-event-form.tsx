@@ -7,8 +7,8 @@ import { useForm, type UseFormRegister } from "react-hook-form";
 import { createEventInput, type CreateEventInput } from "@/app/api/organisations/[organisationId]/events/schema";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
 import { useRouter } from "@/lib/i18n/navigation";
-import { applyServerErrors, EventFields, useErrorText } from "./event-fields";
-import { send } from "./fetcher";
+import { applyServerErrors, EventFields, useErrorText } from "@/components/setup/event-fields";
+import { send } from "@/lib/http/client";
 
 const FIELDS = ["name", "slug", "description", "startsLocal", "endsLocal", "timeZone", "languages", "sessionKinds", "accuracyLimitM"];
 
@@ -35,9 +35,9 @@ export function CreateEventForm({ organisations, locale }: { organisations: { id
 
   const submit = form.handleSubmit(async (values) => {
     setProblem(null);
-    const res = await send<{ id: string }>(`/api/organisations/${organisationId}/events`, "POST", values);
+    const res = await send<{ id: string; slug: string }>(`/api/organisations/${organisationId}/events`, "POST", values);
     if (res.ok) {
-      router.push(`/setup/events/${res.body.id}`);
+      router.push(`/events/${res.body.slug}/setup`);
       return;
     }
     const placed = applyServerErrors(form.setError as never, res.body.error?.fields, FIELDS);

@@ -20,5 +20,5 @@ export const POST = handle<Ctx>(async (request, { params }) => {
     const t = translator(requestLocale(request), "Setup");
     throw new ApiError("conflict", [{ field: "slug", message: t("errors.slugTaken") }]);
   }
-  return Response.json({ id: made.id }, { status: 201 });
+  return Response.json({ id: made.id, slug }, { status: 201 });
 });

@@ -8,8 +8,8 @@ import useSWR from "swr";
 import type { CreateEventInput } from "@/app/api/organisations/[organisationId]/events/schema";
 import { updateEventInput, type UpdateEventInput } from "@/app/api/events/[eventId]/setup/schema";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
-import { applyServerErrors, EventFields } from "./event-fields";
-import { fetcher, send } from "./fetcher";
+import { applyServerErrors, EventFields } from "@/components/setup/event-fields";
+import { fetcher, send } from "@/lib/http/client";
 
 type Details = UpdateEventInput & { slug: string; joinCode: string | null };
 const FIELDS = ["name", "description", "startsLocal", "endsLocal", "timeZone", "languages", "sessionKinds", "accuracyLimitM", "status"];

@@ -9,8 +9,8 @@ import { EVENT_ROLES, inviteInput, TAXON_GROUP_CODES, type InviteInput } from "@
 import { roleChangeInput, type RoleChangeInput } from "@/app/api/events/[eventId]/setup/members/[userId]/schema";
 import { buttonClass, Field, inputClass, secondaryButtonClass } from "@/components/ui/field";
 import { locales } from "@/lib/i18n/routing";
-import { applyServerErrors, useErrorText } from "./event-fields";
-import { fetcher, send } from "./fetcher";
+import { applyServerErrors, useErrorText } from "@/components/setup/event-fields";
+import { fetcher, send } from "@/lib/http/client";
 
 type Role = (typeof EVENT_ROLES)[number];
 type Group = (typeof TAXON_GROUP_CODES)[number];

@@ -4,16 +4,17 @@ import { eventForSetup } from "@/db/queries/setup";
 import { EventStatusBadge } from "@/components/event-status-badge";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
-import { NotAllowed, setupPermit } from "../../_components/setup-guard";
+import { SetupNotAllowed as NotAllowed } from "@/components/setup-not-allowed";
+import { setupPermit } from "./_components/setup-guard";
 
-type Props = { children: ReactNode; params: Promise<{ locale: Locale; eventId: string }> };
+type Props = { children: ReactNode; params: Promise<{ locale: Locale; slug: string }> };
 
 export default async function EventSetupLayout({ children, params }: Props) {
-  const { locale, eventId } = await params;
+  const { locale, slug } = await params;
   setRequestLocale(locale);
-  const permit = await setupPermit(locale, eventId, "");
+  const permit = await setupPermit(locale, slug, "");
   if (!permit) return <NotAllowed />;
-  const [t, event] = await Promise.all([getTranslations("Setup"), eventForSetup(eventId)]);
+  const [t, event] = await Promise.all([getTranslations("Setup"), eventForSetup(permit.eventId)]);
   if (!event) return <NotAllowed />;
   const tab = "inline-flex min-h-touch items-center rounded-t-lg border-2 border-b-0 border-reed-300 px-4 font-semibold text-reed-800 hover:bg-reed-50";
   return (
@@ -27,10 +28,10 @@ export default async function EventSetupLayout({ children, params }: Props) {
         {event.status !== "draft" ? <Link href={`/events/${event.slug}`} className="text-sm underline">{t("publicPage")}</Link> : null}
       </header>
       <nav aria-label={t("tabs.label")} className="flex flex-wrap gap-1 border-b-2 border-reed-300">
-        <Link href={`/setup/events/${eventId}`} className={tab}>{t("tabs.details")}</Link>
-        <Link href={`/setup/events/${eventId}/zones`} className={tab}>{t("tabs.zones")}</Link>
-        <Link href={`/setup/events/${eventId}/species`} className={tab}>{t("tabs.species")}</Link>
-        <Link href={`/setup/events/${eventId}/people`} className={tab}>{t("tabs.people")}</Link>
+        <Link href={`/events/${slug}/setup`} className={tab}>{t("tabs.details")}</Link>
+        <Link href={`/events/${slug}/setup/zones`} className={tab}>{t("tabs.zones")}</Link>
+        <Link href={`/events/${slug}/setup/species`} className={tab}>{t("tabs.species")}</Link>
+        <Link href={`/events/${slug}/setup/people`} className={tab}>{t("tabs.people")}</Link>
       </nav>
       {children}
     </div>

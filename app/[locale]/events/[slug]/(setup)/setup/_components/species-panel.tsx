@@ -4,7 +4,7 @@ import { useTranslations } from "next-intl";
 import { useState } from "react";
 import useSWR from "swr";
 import { buttonClass } from "@/components/ui/field";
-import { fetcher, send } from "./fetcher";
+import { fetcher, send } from "@/lib/http/client";
 import { ReportTable, type ReportLine } from "./report-table";
 
 type Species = { id: string; scientificName: string; rank: string; taxonGroup: string; sensitivity: string; names: Record<string, string> };
