@@ -12,6 +12,17 @@ bash scripts/pg.sh start
 bash scripts/pg.sh ensure-db ecotone
 export DATABASE_URL="$(bash scripts/pg.sh url ecotone)"
 export APP_URL="${APP_URL:-http://localhost:3000}"
+# The server runs in production mode, which refuses the demo's default AUTH_SECRET (lib/env.ts):
+# unless one is given, make a random one once and keep it in .data/auth-secret, so that
+# sessions and sign-in links survive a restart.
+if [ -z "${AUTH_SECRET:-}" ]; then
+  mkdir -p "$ROOT/.data"
+  if [ ! -s "$ROOT/.data/auth-secret" ]; then
+    (umask 077 && node -e 'console.log(require("node:crypto").randomBytes(32).toString("base64"))' >"$ROOT/.data/auth-secret")
+  fi
+  AUTH_SECRET="$(cat "$ROOT/.data/auth-secret")"
+  export AUTH_SECRET
+fi
 npx tsx scripts/migrate.mts
 # The data layer is marked "server-only"; scripts that use it preload scripts/no-server-only.cjs.
 npx tsx --require ./scripts/no-server-only.cjs scripts/seed.mts

@@ -10,13 +10,18 @@ function adminUrl(url: string): string {
   return u.toString();
 }
 
-/**
- * Drops and re-creates the database named in `url`, adds PostGIS as the superuser and
- * applies every migration: each test run starts from nothing and never touches the demo.
- */
-export async function recreateDatabase(url: string): Promise<void> {
+function testDatabaseName(url: string): string {
   const name = new URL(url).pathname.slice(1);
-  if (!/^ecotone_(test|e2e)\w*$/.test(name)) throw new Error(`Refusing to recreate "${name}": test databases are named ecotone_test* or ecotone_e2e*`);
+  if (!/^ecotone_(test|e2e)\w*$/.test(name)) throw new Error(`Refusing to recreate or drop "${name}": test databases are named ecotone_test* or ecotone_e2e*`);
+  return name;
+}
+
+/**
+ * Drops and re-creates the database named in `url` and adds PostGIS as the superuser,
+ * without migrations (the migration-upgrade test applies its own).
+ */
+export async function recreateEmptyDatabase(url: string): Promise<void> {
+  const name = testDatabaseName(url);
   const admin = new Client({ connectionString: adminUrl(url) });
   await admin.connect();
   try {
@@ -32,5 +37,25 @@ export async function recreateDatabase(url: string): Promise<void> {
   } finally {
     await ext.end();
   }
+}
+
+/** Drops a test database (ecotone_test* or ecotone_e2e* only). */
+export async function dropDatabase(url: string): Promise<void> {
+  const name = testDatabaseName(url);
+  const admin = new Client({ connectionString: adminUrl(url) });
+  await admin.connect();
+  try {
+    await admin.query(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
+  } finally {
+    await admin.end();
+  }
+}
+
+/**
+ * Drops and re-creates the database named in `url`, adds PostGIS as the superuser and
+ * applies every migration: each test run starts from nothing and never touches the demo.
+ */
+export async function recreateDatabase(url: string): Promise<void> {
+  await recreateEmptyDatabase(url);
   await runMigrations(url);
 }

@@ -1,0 +1,37 @@
+import { describe, expect, it } from "vitest";
+import { loadEnv } from "@/lib/env";
+
+const secret = "q6Qm1aV0o3m0qk4m8V2l7t3x9b5n1c6z0r4e8w2y7u=";
+
+describe("production settings", () => {
+  it("refuses the demo's AUTH_SECRET in production, naming the variable and how to make one", () => {
+    expect(() => loadEnv({ NODE_ENV: "production" })).toThrow(/AUTH_SECRET is the demo's default/);
+    expect(() => loadEnv({ NODE_ENV: "production" })).toThrow(/openssl rand -base64 32/);
+  });
+
+  it("accepts a secret of one's own with the S3 fake on loopback", () => {
+    const e = loadEnv({ NODE_ENV: "production", AUTH_SECRET: secret, S3_ENDPOINT: "http://127.0.0.1:9000" });
+    expect(e.AUTH_SECRET).toBe(secret);
+    expect(e.S3_ACCESS_KEY_ID).toBe("S3RVER");
+  });
+
+  it("refuses the S3 fake's keys for a photo store that is not on loopback", () => {
+    const source = { NODE_ENV: "production", AUTH_SECRET: secret, S3_ENDPOINT: "https://photos.example.org" };
+    expect(() => loadEnv(source)).toThrow(/S3_ACCESS_KEY_ID is the S3 fake's "S3RVER"/);
+    expect(() => loadEnv(source)).toThrow(/S3_SECRET_ACCESS_KEY is the S3 fake's "S3RVER"/);
+    const e = loadEnv({ ...source, S3_ACCESS_KEY_ID: "AKIA-own-key", S3_SECRET_ACCESS_KEY: "own-secret-key" });
+    expect(e.S3_ENDPOINT).toBe("https://photos.example.org");
+  });
+
+  it("names every unsafe setting at once", () => {
+    expect(() => loadEnv({ NODE_ENV: "production", S3_ENDPOINT: "https://photos.example.org" })).toThrow(
+      /AUTH_SECRET[\s\S]*S3_ACCESS_KEY_ID[\s\S]*S3_SECRET_ACCESS_KEY/,
+    );
+  });
+
+  it("leaves the demo defaults alone outside production and while `next build` runs", () => {
+    expect(loadEnv({}).AUTH_SECRET).toBe("ecotone-demo-secret-change-me-in-production");
+    expect(loadEnv({ NODE_ENV: "test" }).NODE_ENV).toBe("test");
+    expect(loadEnv({ NODE_ENV: "production", NEXT_PHASE: "phase-production-build" }).NODE_ENV).toBe("production");
+  });
+});
