@@ -229,6 +229,8 @@ export const sightings = pgTable("sightings", {
   index("sightings_queue_all_observed_idx").on(t.eventId, t.observedAt, t.id),
   index("sightings_duplicate_idx").on(t.eventId, t.userId, t.taxonId, t.observedAt), // the "possible duplicate" check mark
   index("sightings_results_idx").on(t.eventId, t.reviewState, t.taxonId),
+  // Incremental pulls through the API: an event's sightings in order of their last change.
+  index("sightings_modified_idx").on(t.eventId, t.updatedAt, t.id),
   index("sightings_session_idx").on(t.sessionId),
   index("sightings_user_idx").on(t.userId, t.observedAt),
   index("sightings_location_gist").using("gist", t.location),
@@ -381,3 +383,31 @@ export const resultStamps = pgTable("result_stamps", {
   eventId: uuid("event_id").primaryKey(),
   seq: bigint("seq", { mode: "number" }).notNull().default(1),
 });
+
+// ---------------------------------------------------------------- read-only API tokens (issue 19)
+// A token reads one event's data, or every event of one organisation (event_id NULL). Only
+// the SHA-256 of the secret is kept; `prefix` (the first characters of the secret) lets an
+// organiser recognise it in the list. Each call counts in a one-minute window kept on the
+// row itself, so the per-token limit holds across app instances.
+export const apiTokens = pgTable("api_tokens", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  organisationId: uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "cascade" }),
+  eventId: uuid("event_id").references(() => events.id, { onDelete: "cascade" }),
+  name: text("name").notNull(),
+  prefix: varchar("prefix", { length: 16 }).notNull(),
+  tokenHash: varchar("token_hash", { length: 64 }).notNull().unique(),
+  createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: createdAt(),
+  expiresAt: timestamp("expires_at", { withTimezone: true, mode: "date" }).notNull(),
+  revokedAt: timestamp("revoked_at", { withTimezone: true, mode: "date" }),
+  revokedBy: uuid("revoked_by").references(() => users.id, { onDelete: "set null" }),
+  lastUsedAt: timestamp("last_used_at", { withTimezone: true, mode: "date" }),
+  windowStartedAt: timestamp("window_started_at", { withTimezone: true, mode: "date" }),
+  windowCalls: integer("window_calls").notNull().default(0),
+}, (t) => [
+  check("api_tokens_expires_after_created", sql`${t.expiresAt} > ${t.createdAt}`),
+  check("api_tokens_hash_shape", sql`${t.tokenHash} ~ '^[0-9a-f]{64}$'`),
+  check("api_tokens_name_nonempty", sql`length(btrim(${t.name})) > 0`),
+  index("api_tokens_organisation_idx").on(t.organisationId),
+  index("api_tokens_event_idx").on(t.eventId),
+]);
