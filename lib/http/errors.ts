@@ -8,6 +8,7 @@ import { translator } from "@/lib/i18n/translator";
 export const errorStatus = {
   bad_request: 400,
   unauthenticated: 401,
+  api_token_refused: 401,
   forbidden: 403,
   not_found: 404,
   method_not_allowed: 405,

@@ -29,7 +29,11 @@ export function generalise(lon: number, lat: number, accuracyM: number): { lon: 
 }
 
 /** Occurrences safe to publish: restricted ones withheld, generalised ones coarsened. */
-export function publicOccurrences(results: Results, occurrences: readonly PublicOccurrence[], locale: string): { rows: Located[]; withheld: number } {
+export function publicOccurrences(
+  results: { species: readonly Pick<Results["species"][number], "id" | "scientificName" | "rank" | "names">[] },
+  occurrences: readonly PublicOccurrence[],
+  locale: string,
+): { rows: Located[]; withheld: number } {
   const taxa = new Map(results.species.map((s) => [s.id, s]));
   let withheld = 0;
   const rows: Located[] = [];
@@ -50,7 +54,7 @@ export function publicOccurrences(results: Results, occurrences: readonly Public
 }
 
 /** RFC 4180 field quoting. */
-function csvField(v: string | number): string {
+export function csvField(v: string | number): string {
   const s = String(v);
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
@@ -93,17 +97,24 @@ export const DWC_REQUIRED = ["occurrenceID", "basisOfRecord", "eventDate", "scie
 const xml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 const tsv = (s: string | number) => String(s).replace(/[\t\r\n]+/g, " ");
 
+export type DwcRecord = Record<(typeof DWC_TERMS)[number], string | number>;
+
+/** One located occurrence as Darwin Core terms (the archive's occurrence.txt and the API use the same). */
+export function dwcRecord(r: Located, datasetName: string): DwcRecord {
+  return {
+    occurrenceID: `urn:uuid:${r.id}`, basisOfRecord: "HumanObservation", eventDate: r.eventDate, scientificName: r.scientificName,
+    taxonRank: r.taxonRank, vernacularName: r.vernacularName, individualCount: r.individualCount, occurrenceStatus: "present",
+    decimalLatitude: r.lat, decimalLongitude: r.lon, geodeticDatum: "EPSG:4326", coordinateUncertaintyInMeters: r.uncertaintyM,
+    // Approved by an event coordinator: our review state, in the term's free-text sense.
+    identificationVerificationStatus: "verified by event coordinator",
+    dataGeneralizations: r.generalised ? `Coordinates generalised to the centre of a ${GRID_DEGREES}-degree grid cell (sensitive taxon)` : "",
+    datasetName,
+  };
+}
+
 export function occurrenceTxt(rows: readonly Located[], datasetName: string): string {
   const lines = rows.map((r) => {
-    const v: Record<(typeof DWC_TERMS)[number], string | number> = {
-      occurrenceID: `urn:uuid:${r.id}`, basisOfRecord: "HumanObservation", eventDate: r.eventDate, scientificName: r.scientificName,
-      taxonRank: r.taxonRank, vernacularName: r.vernacularName, individualCount: r.individualCount, occurrenceStatus: "present",
-      decimalLatitude: r.lat, decimalLongitude: r.lon, geodeticDatum: "EPSG:4326", coordinateUncertaintyInMeters: r.uncertaintyM,
-      // Approved by an event coordinator: our review state, in the term's free-text sense.
-      identificationVerificationStatus: "verified by event coordinator",
-      dataGeneralizations: r.generalised ? `Coordinates generalised to the centre of a ${GRID_DEGREES}-degree grid cell (sensitive taxon)` : "",
-      datasetName,
-    };
+    const v = dwcRecord(r, datasetName);
     return DWC_TERMS.map((t) => tsv(v[t])).join("\t");
   });
   return [DWC_TERMS.join("\t"), ...lines].join("\n") + "\n";

@@ -1,7 +1,9 @@
 import "server-only";
 import { getServerSession } from "next-auth";
 import { eventAccess, findUserById, isOrganisationOrganiser, type EventAccess } from "@/db/queries/auth";
+import { eventOwner, useApiToken } from "@/db/queries/api-tokens";
 import { ApiError } from "@/lib/http/errors";
+import { hashApiToken } from "@/server/auth/api-token-secret";
 import { authOptions } from "@/server/auth/options";
 
 // The one authorisation helper (conventions, habit 4). Every route handler and every
@@ -65,4 +67,33 @@ export async function requireOrganisationOrganiser(organisationId: string): Prom
   if (user.isAdmin) return user;
   if (!/^[0-9a-f-]{36}$/i.test(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId))) throw new ApiError("forbidden");
   return user;
+}
+
+// ---------------------------------------------------------------- read-only API tokens
+export type ApiTokenPermit = { tokenId: string; organisationId: string; eventId: string | null };
+export type ApiTokenScope = { eventId: string } | "token's own events";
+
+/** Calls per token per minute (common practice for a read API; a full pull of a large event is a few dozen pages). */
+export const API_TOKEN_CALLS_PER_MINUTE = 120;
+
+/**
+ * The token endpoints' check (app/api/v1): "Authorization: Bearer <token>" of a token that
+ * is neither revoked nor expired (401 otherwise), within its per-minute limit (429), and,
+ * for an event's data, an event of the token's own (404 for an unknown event, 403 for an
+ * event of another organisation or, with an event token, another event). Every call is
+ * recorded as the token's last use. Tokens only ever read: the v1 handlers export GET alone.
+ */
+export async function requireApiToken(request: Request, scope: ApiTokenScope): Promise<ApiTokenPermit> {
+  const header = request.headers.get("authorization") ?? "";
+  const secret = /^Bearer\s+([A-Za-z0-9_-]{16,200})\s*$/i.exec(header)?.[1];
+  if (!secret) throw new ApiError("api_token_refused");
+  const use = await useApiToken(hashApiToken(secret), { calls: API_TOKEN_CALLS_PER_MINUTE, windowSeconds: 60 });
+  if (use.outcome === "refused") throw new ApiError("api_token_refused");
+  if (use.outcome === "rate_limited") throw new ApiError("rate_limited");
+  const permit = { tokenId: use.token.id, organisationId: use.token.organisationId, eventId: use.token.eventId };
+  if (scope === "token's own events") return permit;
+  const owner = await eventOwner(scope.eventId);
+  if (!owner) throw new ApiError("not_found");
+  if (owner.organisationId !== permit.organisationId || (permit.eventId && permit.eventId !== scope.eventId)) throw new ApiError("forbidden");
+  return permit;
 }

@@ -1,0 +1,25 @@
+import { listReports } from "@/db/queries/reports";
+import { handle } from "@/lib/http/errors";
+import { requireApiToken } from "@/server/auth/guard";
+import { readOnly } from "../../../read-only";
+import { eventIdParams } from "../../../schema";
+import type { ReportsResponse } from "./schema";
+
+export const dynamic = "force-dynamic";
+
+type Ctx = { params: Promise<{ eventId: string }> };
+
+/** The event's published reports, newest first (who published is not shown). */
+export const GET = handle(async (request, { params }: Ctx) => {
+  const { eventId } = eventIdParams.parse(await params);
+  await requireApiToken(request, { eventId });
+  const body: ReportsResponse = {
+    reports: (await listReports(eventId)).map((r) => ({
+      id: r.id, version: r.version, publishedAt: r.publishedAt.toISOString(), inputHash: r.inputHash, superseded: r.superseded,
+      url: `/api/v1/events/${eventId}/reports/${r.version}`,
+    })),
+  };
+  return Response.json(body, { headers: { "Cache-Control": "no-store" } });
+});
+
+export { readOnly as POST, readOnly as PUT, readOnly as PATCH, readOnly as DELETE };

@@ -1,0 +1,19 @@
+import { handle } from "@/lib/http/errors";
+import { requireApiToken } from "@/server/auth/guard";
+import { currentResults } from "@/server/results/current";
+import { readOnly } from "../../../read-only";
+import { eventIdParams } from "../../../schema";
+
+export const dynamic = "force-dynamic";
+
+type Ctx = { params: Promise<{ eventId: string }> };
+
+/** The event's current results: the same JSON the results page reads (server/results/current.ts). */
+export const GET = handle(async (request, { params }: Ctx) => {
+  const { eventId } = eventIdParams.parse(await params);
+  await requireApiToken(request, { eventId });
+  const { json } = await currentResults(eventId);
+  return new Response(json, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
+});
+
+export { readOnly as POST, readOnly as PUT, readOnly as PATCH, readOnly as DELETE };
