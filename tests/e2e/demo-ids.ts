@@ -26,7 +26,8 @@ export async function demoIds(): Promise<Ids> {
         (SELECT id FROM users WHERE email = 'volunteer2@example.org') AS "volunteerId",
         x.id AS "setupEventId", x.join_code AS "setupJoinCode",
         (SELECT id FROM users WHERE email = 'volunteer5@example.org') AS "setupMemberId",
-        (SELECT i.id FROM invitations i WHERE i.event_id = x.id AND i.email = 'autumn-helper@example.org') AS "setupInvitationId"
+        (SELECT i.id FROM invitations i WHERE i.event_id = x.id AND i.email = 'autumn-helper@example.org') AS "setupInvitationId",
+        (SELECT a.id FROM api_tokens a WHERE a.event_id = x.id AND a.name = 'Role matrix revocable') AS "setupApiTokenId"
       FROM events e, events x WHERE e.slug = 'harrowmere-vale-midsummer-count' AND x.slug = 'harrowmere-vale-autumn-fungus-foray'`);
     return rows[0] as Ids;
   } finally {

@@ -2,8 +2,13 @@
 // table with every kind of person; tests/unit/route-table.test.ts fails when a handler
 // exists in app/api that is missing here. Add a row with every new handler.
 
-export type Who = "anonymous" | "volunteer" | "coordinator" | "birdsCoordinator" | "organiser" | "outsider";
-export const EVERYONE: Who[] = ["anonymous", "volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
+export type Who = "anonymous" | "volunteer" | "coordinator" | "birdsCoordinator" | "organiser" | "outsider" | ApiTokenHolder;
+// Callers of the read-only API (issue 19), without a session: a token of the demo event, one
+// of its whole organisation, one of another event of that organisation, one of another
+// organisation's event (tests/e2e/api-tokens.ts makes them).
+export type ApiTokenHolder = "eventToken" | "organisationToken" | "otherEventToken" | "otherOrganisationToken";
+export const TOKEN_HOLDERS: ApiTokenHolder[] = ["eventToken", "organisationToken", "otherEventToken", "otherOrganisationToken"];
+export const EVERYONE: Who[] = ["anonymous", "volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider", ...TOKEN_HOLDERS];
 export const SIGNED_IN: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
 export const EVENT_MEMBERS: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser"];
 export const COORDINATORS: Who[] = ["coordinator", "birdsCoordinator", "organiser"];
@@ -14,6 +19,8 @@ export type Ids = {
   eventId: string; organisationId: string; sightingId: string; birdSightingId: string; volunteerId: string;
   // The draft event of the setup screens, a member there to change, an open invitation, its join code.
   setupEventId: string; setupMemberId: string; setupInvitationId: string; setupJoinCode: string;
+  // A token of the draft event that the organiser's DELETE revokes (tests/e2e/api-tokens.ts).
+  setupApiTokenId: string;
 };
 
 export type RouteCase = {
@@ -23,6 +30,10 @@ export type RouteCase = {
   body?: (ids: Ids) => unknown;
   allowed: Who[];
   note?: string;
+  /** "token": a read-only API handler; callers without a token get 401 whatever their session. */
+  auth?: "token";
+  /** The one status every caller gets (the 405 of a method a handler refuses). */
+  status?: number;
 };
 
 // A realistic field log batch, so that the fuzz test mutates every field of a record.
@@ -105,4 +116,23 @@ ROUTES.push(
   { file: "app/api/events/[eventId]/setup/invitations/[invitationId]/route.ts", method: "DELETE", path: (i) => `/api/events/${i.setupEventId}/setup/invitations/${i.setupInvitationId}`, allowed: ORGANISERS },
   { file: "app/api/events/[eventId]/setup/join-code/route.ts", method: "POST", path: (i) => `/api/events/${i.setupEventId}/setup/join-code`, allowed: ORGANISERS },
   { file: "app/api/join/route.ts", method: "POST", path: () => "/api/join", body: (i) => ({ code: i.setupJoinCode, locale: "en" }), allowed: EVERYONE, note: "public: a join link; without a session it only mails a sign-in link" },
+);
+
+// ---------------------------------------------------------------- read-only API (issue 19)
+const API_READERS: Who[] = ["eventToken", "organisationToken"]; // of the demo event; other tokens get 403
+const v1 = (file: string, path: (i: Ids) => string, allowed: Who[], note?: string): RouteCase[] => [
+  { file, method: "GET", path, allowed, auth: "token", note },
+  ...(["POST", "PUT", "PATCH", "DELETE"] as const).map((method) => ({ file, method, path, allowed: EVERYONE, status: 405, note: "a token never writes: 405 for everyone" })),
+];
+ROUTES.push(
+  { file: "app/api/openapi.json/route.ts", method: "GET", path: () => "/api/openapi.json", allowed: EVERYONE, note: "public: the API's description" },
+  { file: "app/api/events/[eventId]/setup/api-tokens/route.ts", method: "GET", path: (i) => `/api/events/${i.setupEventId}/setup/api-tokens`, allowed: ORGANISERS },
+  { file: "app/api/events/[eventId]/setup/api-tokens/route.ts", method: "POST", path: (i) => `/api/events/${i.setupEventId}/setup/api-tokens`,
+    body: () => ({ name: "Role matrix reader", scope: "event", expiresInDays: 7 }), allowed: ORGANISERS, note: "answers the new token's secret once" },
+  { file: "app/api/events/[eventId]/setup/api-tokens/[tokenId]/route.ts", method: "DELETE", path: (i) => `/api/events/${i.setupEventId}/setup/api-tokens/${i.setupApiTokenId}`, allowed: ORGANISERS },
+  ...v1("app/api/v1/events/route.ts", () => "/api/v1/events", TOKEN_HOLDERS, "each token lists its own events"),
+  ...v1("app/api/v1/events/[eventId]/sightings/route.ts", (i) => `/api/v1/events/${i.eventId}/sightings?limit=5`, API_READERS),
+  ...v1("app/api/v1/events/[eventId]/results/route.ts", (i) => `/api/v1/events/${i.eventId}/results`, API_READERS),
+  ...v1("app/api/v1/events/[eventId]/reports/route.ts", (i) => `/api/v1/events/${i.eventId}/reports`, API_READERS),
+  ...v1("app/api/v1/events/[eventId]/reports/[version]/route.ts", (i) => `/api/v1/events/${i.eventId}/reports/1`, API_READERS, "404 for readers when no version 1 yet"),
 );

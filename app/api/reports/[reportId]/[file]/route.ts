@@ -2,6 +2,7 @@ import { sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { getReportById, reportOccurrences } from "@/db/queries/reports";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { REPORT_FILES } from "./schema";
 import { darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
 
 // Public by design: a published report and its downloads are for anyone (design.md,
@@ -10,11 +11,10 @@ export const dynamic = "force-dynamic";
 
 type Ctx = { params: Promise<{ reportId: string; file: string }> };
 
-const FILES = ["species.csv", "darwin-core-archive.zip", "sightings.geojson"] as const;
 
 export const GET = handle(async (request, { params }: Ctx) => {
   const { reportId, file } = await params;
-  if (!(FILES as readonly string[]).includes(file)) throw new ApiError("not_found");
+  if (!(REPORT_FILES as readonly string[]).includes(file)) throw new ApiError("not_found");
   const report = await getReportById(reportId, { withInputs: file !== "species.csv" });
   if (!report) throw new ApiError("not_found");
   const locale = requestLocale(request);

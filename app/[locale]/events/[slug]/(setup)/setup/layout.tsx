@@ -32,6 +32,7 @@ export default async function EventSetupLayout({ children, params }: Props) {
         <Link href={`/events/${slug}/setup/zones`} className={tab}>{t("tabs.zones")}</Link>
         <Link href={`/events/${slug}/setup/species`} className={tab}>{t("tabs.species")}</Link>
         <Link href={`/events/${slug}/setup/people`} className={tab}>{t("tabs.people")}</Link>
+        <Link href={`/events/${slug}/setup/api`} className={tab}>{t("tabs.api")}</Link>
       </nav>
       {children}
     </div>
