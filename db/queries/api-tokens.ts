@@ -47,7 +47,10 @@ function summary(row: Record<string, unknown>): ApiTokenSummary {
   const date = (v: unknown) => (v == null ? null : new Date(v as string));
   return {
     ...(row as Omit<ApiTokenSummary, "createdAt" | "expiresAt" | "revokedAt" | "lastUsedAt">),
-    createdAt: date(row.createdAt)!, expiresAt: date(row.expiresAt)!, revokedAt: date(row.revokedAt), lastUsedAt: date(row.lastUsedAt),
+    createdAt: date(row.createdAt)!,
+    expiresAt: date(row.expiresAt)!,
+    revokedAt: date(row.revokedAt),
+    lastUsedAt: date(row.lastUsedAt),
   };
 }
 
@@ -92,8 +95,17 @@ export type TokenUse =
  * Records the last use and counts the call in the token's fixed window, in one UPDATE
  * (so two instances cannot both let the limit's last call through).
  */
-export async function useApiToken(tokenHash: string, limit: { calls: number; windowSeconds: number }): Promise<TokenUse> {
-  const r = await getDb().execute<{ id: string; organisationId: string; eventId: string | null; calls: number; retryAfter: number }>(sql`
+export async function recordApiTokenCall(
+  tokenHash: string,
+  limit: { calls: number; windowSeconds: number },
+): Promise<TokenUse> {
+  const r = await getDb().execute<{
+    id: string;
+    organisationId: string;
+    eventId: string | null;
+    calls: number;
+    retryAfter: number;
+  }>(sql`
     WITH w AS (
       SELECT id, window_started_at IS NULL OR window_started_at <= now() - make_interval(secs => ${limit.windowSeconds}) AS fresh
       FROM api_tokens WHERE token_hash = ${tokenHash} AND revoked_at IS NULL AND expires_at > now()
@@ -112,7 +124,15 @@ export async function useApiToken(tokenHash: string, limit: { calls: number; win
   return { outcome: "ok", token: { id: row.id, organisationId: row.organisationId, eventId: row.eventId } };
 }
 
-export type ApiEvent = { id: string; slug: string; name: string; status: string; startsAt: Date; endsAt: Date; timeZone: string };
+export type ApiEvent = {
+  id: string;
+  slug: string;
+  name: string;
+  status: string;
+  startsAt: Date;
+  endsAt: Date;
+  timeZone: string;
+};
 
 /** Events a token may read: its event, or every event of its organisation. */
 export async function apiEvents(token: { organisationId: string; eventId: string | null }): Promise<ApiEvent[]> {
@@ -161,7 +181,9 @@ export async function approvedSightingsPage(
   const after = options.after
     ? sql`AND (s.updated_at, s.id) > (timestamptz 'epoch' + ${options.after.micros}::bigint * interval '1 microsecond', ${options.after.id}::uuid)`
     : sql``;
-  const r = await getDb().execute<Omit<ApiSighting, "observedAt" | "modifiedAt"> & { observedAt: string; modifiedAt: string }>(sql`
+  const r = await getDb().execute<
+    Omit<ApiSighting, "observedAt" | "modifiedAt"> & { observedAt: string; modifiedAt: string }
+  >(sql`
     SELECT s.id, s.observed_at AS "observedAt", ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m::float8 AS "accuracyM",
       s.taxon_id AS "taxonId", s.count, t.sensitivity::text AS sensitivity, t.scientific_name AS "scientificName", t.rank::text AS rank,
       coalesce((SELECT jsonb_object_agg(n.locale, n.name) FROM taxon_names n WHERE n.taxon_id = t.id), '{}'::jsonb) AS names,
@@ -176,8 +198,15 @@ export async function approvedSightingsPage(
 /** A published report without its input records (which name every sighting). */
 export async function publishedReport(eventId: string, version: number) {
   const r = await getDb().execute<{
-    id: string; version: number; publishedAt: string; engineVersion: string; inputHash: string;
-    results: unknown; methodNotes: unknown; changes: unknown; latestVersion: number;
+    id: string;
+    version: number;
+    publishedAt: string;
+    engineVersion: string;
+    inputHash: string;
+    results: unknown;
+    methodNotes: unknown;
+    changes: unknown;
+    latestVersion: number;
   }>(sql`
     SELECT id, version, published_at AS "publishedAt", engine_version AS "engineVersion", input_hash AS "inputHash",
       results, method_notes AS "methodNotes", changes,

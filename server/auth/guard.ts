@@ -1,7 +1,7 @@
 import "server-only";
 import { getServerSession } from "next-auth";
 import { eventAccess, findUserById, isOrganisationOrganiser, type EventAccess } from "@/db/queries/auth";
-import { eventOwner, useApiToken } from "@/db/queries/api-tokens";
+import { eventOwner, recordApiTokenCall } from "@/db/queries/api-tokens";
 import { ApiError } from "@/lib/http/errors";
 import { hashApiToken } from "@/server/auth/api-token-secret";
 import { authOptions } from "@/server/auth/options";
@@ -87,7 +87,7 @@ export async function requireApiToken(request: Request, scope: ApiTokenScope): P
   const header = request.headers.get("authorization") ?? "";
   const secret = /^Bearer\s+([A-Za-z0-9_-]{16,200})\s*$/i.exec(header)?.[1];
   if (!secret) throw new ApiError("api_token_refused");
-  const use = await useApiToken(hashApiToken(secret), { calls: API_TOKEN_CALLS_PER_MINUTE, windowSeconds: 60 });
+  const use = await recordApiTokenCall(hashApiToken(secret), { calls: API_TOKEN_CALLS_PER_MINUTE, windowSeconds: 60 });
   if (use.outcome === "refused") throw new ApiError("api_token_refused");
   if (use.outcome === "rate_limited") throw new ApiError("rate_limited");
   const permit = { tokenId: use.token.id, organisationId: use.token.organisationId, eventId: use.token.eventId };

@@ -26,7 +26,10 @@ test("an organiser's API token pulls approved sightings until it is revoked", as
   await expect(row).toContainText("Active");
 
   // The script: no session, only the token.
-  const script = await playwright.request.newContext({ baseURL, extraHTTPHeaders: { authorization: `Bearer ${secret}` } });
+  const script = await playwright.request.newContext({
+    baseURL,
+    extraHTTPHeaders: { authorization: `Bearer ${secret}` },
+  });
   const first = await script.get(`/api/v1/events/${eventId}/sightings?limit=20`);
   expect(first.status()).toBe(200);
   const body = await first.json();
@@ -53,12 +56,18 @@ test("an organiser's API token pulls approved sightings until it is revoked", as
   await script.dispose();
 });
 
-test("the API reference page and the OpenAPI document are served by the app itself", async ({ page, request, baseURL }) => {
+test("the API reference page and the OpenAPI document are served by the app itself", async ({
+  page,
+  request,
+  baseURL,
+}) => {
   const doc = await (await request.get("/api/openapi.json")).json();
   expect(doc.openapi).toBe("3.1.0");
   expect(Object.keys(doc.paths)).toContain("/api/v1/events/{eventId}/sightings");
   const outside: string[] = [];
-  page.on("request", (r) => { if (!r.url().startsWith(baseURL!) && !r.url().startsWith("data:")) outside.push(r.url()); });
+  page.on("request", (r) => {
+    if (!r.url().startsWith(baseURL!) && !r.url().startsWith("data:")) outside.push(r.url());
+  });
   await page.goto("/es/api-reference");
   await expect(page.getByRole("heading", { level: 1, name: "Referencia de la API de Ecotone" })).toBeVisible();
   await expect(page.getByRole("heading", { name: "Avistamientos aprobados en Darwin Core" })).toBeVisible();

@@ -19,11 +19,14 @@ const PLAN: Record<ApiTokenHolder | "revocable", { event: string; wholeOrganisat
 
 async function upsert(c: Client, who: string, plan: { event: string; wholeOrganisation?: boolean }): Promise<string> {
   const secret = secretOf(who);
-  const { rows } = await c.query(`
+  const { rows } = await c.query(
+    `
     INSERT INTO api_tokens (organisation_id, event_id, name, prefix, token_hash, expires_at)
     SELECT e.organisation_id, CASE WHEN $2 THEN NULL ELSE e.id END, $3, $4, $5, now() + interval '30 days' FROM events e WHERE e.slug = $1
     ON CONFLICT (token_hash) DO UPDATE SET revoked_at = NULL, revoked_by = NULL, expires_at = now() + interval '30 days', window_calls = 0
-    RETURNING id`, [plan.event, Boolean(plan.wholeOrganisation), `Role matrix ${who}`, secret.slice(0, 12), sha256(secret)]);
+    RETURNING id`,
+    [plan.event, Boolean(plan.wholeOrganisation), `Role matrix ${who}`, secret.slice(0, 12), sha256(secret)],
+  );
   if (!rows[0]) throw new Error(`no event ${plan.event} in the browser tests' database`);
   return rows[0].id as string;
 }

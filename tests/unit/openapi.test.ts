@@ -28,16 +28,30 @@ const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
 
 /** Methods a route file serves: exported handlers, less those bound to a 405 stub (readOnly, notAllowed). */
 function servedMethods(src: string): string[] {
-  const stubbed = new Set([...src.matchAll(/export \{([^}]*)\}/g)].flatMap((m) => [...m[1]!.matchAll(/(readOnly|notAllowed) as (\w+)/g)].map((x) => x[2]!)));
-  return METHODS.filter((m) => new RegExp(`export (const|async function|function) ${m}\\b`).test(src) && !stubbed.has(m));
+  const stubbed = new Set(
+    [...src.matchAll(/export \{([^}]*)\}/g)].flatMap((m) =>
+      [...m[1]!.matchAll(/(readOnly|notAllowed) as (\w+)/g)].map((x) => x[2]!),
+    ),
+  );
+  return METHODS.filter(
+    (m) => new RegExp(`export (const|async function|function) ${m}\\b`).test(src) && !stubbed.has(m),
+  );
 }
 
-const toApiPath = (file: string) => "/" + path.dirname(file).replace(/^app\//, "").replace(/\[([^\]]+)\]/g, "{$1}");
+const toApiPath = (file: string) =>
+  "/" +
+  path
+    .dirname(file)
+    .replace(/^app\//, "")
+    .replace(/\[([^\]]+)\]/g, "{$1}");
 
 describe("OpenAPI document", () => {
   it("is a valid OpenAPI 3.1 document in every language", async () => {
     for (const locale of locales) {
-      const doc = openApiDocument(translator(locale, "ApiReference") as unknown as (key: string) => string, "http://localhost:3000");
+      const doc = openApiDocument(
+        translator(locale, "ApiReference") as unknown as (key: string) => string,
+        "http://localhost:3000",
+      );
       expect(doc.openapi).toBe("3.1.0");
       const result = await validate(structuredClone(doc) as never);
       expect(result.valid, result.valid ? "" : compileErrors(result)).toBe(true);
@@ -52,12 +66,17 @@ describe("OpenAPI document", () => {
       const token = f.startsWith("app/api/v1/");
       const publicByDesign = /Public by design/.test(src) && !NOT_DESCRIBED.includes(f);
       if (token) expect(src, f).toMatch(/requireApiToken\(request, /);
-      if (token || publicByDesign) expected[toApiPath(f)] = servedMethods(src).map((m) => m.toLowerCase()).sort();
+      if (token || publicByDesign)
+        expected[toApiPath(f)] = servedMethods(src)
+          .map((m) => m.toLowerCase())
+          .sort();
     }
     const doc = openApiDocument(english) as { paths: Record<string, Record<string, unknown>> };
     const described = Object.fromEntries(Object.entries(doc.paths).map(([p, ops]) => [p, Object.keys(ops).sort()]));
     expect(described).toEqual(expected);
-    expect(Object.keys(expected)).toEqual(expect.arrayContaining(["/api/v1/events/{eventId}/sightings", "/api/health", "/api/openapi.json"]));
+    expect(Object.keys(expected)).toEqual(
+      expect.arrayContaining(["/api/v1/events/{eventId}/sightings", "/api/health", "/api/openapi.json"]),
+    );
   });
 
   it("marks every token endpoint as needing the bearer token, and no public one", () => {

@@ -19,7 +19,15 @@ type Json = Record<string, unknown>;
 export type Text = (key: string) => string;
 
 export const OPERATION_IDS = [
-  "listEvents", "listSightings", "getResults", "listReports", "getReport", "health", "reportFile", "join", "openapi",
+  "listEvents",
+  "listSightings",
+  "getResults",
+  "listReports",
+  "getReport",
+  "health",
+  "reportFile",
+  "join",
+  "openapi",
 ] as const;
 export type OperationId = (typeof OPERATION_IDS)[number];
 
@@ -34,7 +42,12 @@ function schema(s: z.ZodType, io: "input" | "output" = "output"): Json {
   const fix = (v: unknown): unknown => {
     if (Array.isArray(v)) return v.map(fix);
     if (v && typeof v === "object") {
-      return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, k === "$ref" && typeof x === "string" ? x.replace("#/$defs/", "#/components/schemas/") : fix(x)]));
+      return Object.fromEntries(
+        Object.entries(v).map(([k, x]) => [
+          k,
+          k === "$ref" && typeof x === "string" ? x.replace("#/$defs/", "#/components/schemas/") : fix(x),
+        ]),
+      );
     }
     return v;
   };
@@ -50,22 +63,38 @@ function schema(s: z.ZodType, io: "input" | "output" = "output"): Json {
 
 /** The parameters of one place ("path" or "query") from a strict zod object. */
 function parameters(s: z.ZodType, place: "path" | "query", t: Text): Json[] {
-  const js = z.toJSONSchema(s, { io: "input", unrepresentable: "any" }) as { properties?: Record<string, Json>; required?: string[] };
+  const js = z.toJSONSchema(s, { io: "input", unrepresentable: "any" }) as {
+    properties?: Record<string, Json>;
+    required?: string[];
+  };
   return Object.entries(js.properties ?? {}).map(([name, p]) => {
     const { description: _d, ...rest } = p;
-    return { name, in: place, required: place === "path" || (js.required ?? []).includes(name), description: t(`params.${name}`), schema: rest };
+    return {
+      name,
+      in: place,
+      required: place === "path" || (js.required ?? []).includes(name),
+      description: t(`params.${name}`),
+      schema: rest,
+    };
   });
 }
 
 const json = (s: z.ZodType) => ({ "application/json": { schema: schema(s) } });
 
 function errors(t: Text, codes: number[]): Json {
-  return Object.fromEntries(codes.map((c) => [String(c), { description: t(`responses.${c}`), content: json(errorBody) }]));
+  return Object.fromEntries(
+    codes.map((c) => [String(c), { description: t(`responses.${c}`), content: json(errorBody) }]),
+  );
 }
 
 export function openApiDocument(t: Text, serverUrl?: string): Json {
   for (const k of Object.keys(components)) delete components[k];
-  const op = (id: OperationId, extra: Json): Json => ({ operationId: id, summary: t(`operations.${id}.summary`), description: t(`operations.${id}.description`), ...extra });
+  const op = (id: OperationId, extra: Json): Json => ({
+    operationId: id,
+    summary: t(`operations.${id}.summary`),
+    description: t(`operations.${id}.description`),
+    ...extra,
+  });
   const token = { security: [{ apiToken: [] }], tags: ["token"] };
   const publicOp = { security: [], tags: ["public"] };
   const tokenErrors = (extra: number[] = []) => errors(t, [400, 401, 403, 404, 429, ...extra].sort());
@@ -73,7 +102,13 @@ export function openApiDocument(t: Text, serverUrl?: string): Json {
 
   const paths: Record<string, Json> = {
     "/api/v1/events": {
-      get: op("listEvents", { ...token, responses: { 200: { description: t("responses.200"), content: json(eventsResponse) }, ...errors(t, [401, 429]) } }),
+      get: op("listEvents", {
+        ...token,
+        responses: {
+          200: { description: t("responses.200"), content: json(eventsResponse) },
+          ...errors(t, [401, 429]),
+        },
+      }),
     },
     "/api/v1/events/{eventId}/sightings": {
       get: op("listSightings", {
@@ -84,7 +119,10 @@ export function openApiDocument(t: Text, serverUrl?: string): Json {
             description: t("responses.200"),
             headers: {
               "X-Next-Cursor": { description: t("headers.nextCursor"), schema: { type: "string" } },
-              "X-Modified-Until": { description: t("headers.modifiedUntil"), schema: { type: "string", format: "date-time" } },
+              "X-Modified-Until": {
+                description: t("headers.modifiedUntil"),
+                schema: { type: "string", format: "date-time" },
+              },
               "X-Withheld": { description: t("headers.withheld"), schema: { type: "integer" } },
             },
             content: { ...json(sightingsPage), "text/csv": { schema: { type: "string" } } },
@@ -94,23 +132,40 @@ export function openApiDocument(t: Text, serverUrl?: string): Json {
       }),
     },
     "/api/v1/events/{eventId}/results": {
-      get: op("getResults", { ...token, parameters: eventPath, responses: { 200: { description: t("responses.200"), content: json(resultsResponse) }, ...tokenErrors() } }),
+      get: op("getResults", {
+        ...token,
+        parameters: eventPath,
+        responses: { 200: { description: t("responses.200"), content: json(resultsResponse) }, ...tokenErrors() },
+      }),
     },
     "/api/v1/events/{eventId}/reports": {
-      get: op("listReports", { ...token, parameters: eventPath, responses: { 200: { description: t("responses.200"), content: json(reportsResponse) }, ...tokenErrors() } }),
+      get: op("listReports", {
+        ...token,
+        parameters: eventPath,
+        responses: { 200: { description: t("responses.200"), content: json(reportsResponse) }, ...tokenErrors() },
+      }),
     },
     "/api/v1/events/{eventId}/reports/{version}": {
-      get: op("getReport", { ...token, parameters: parameters(reportParams, "path", t), responses: { 200: { description: t("responses.200"), content: json(reportResponse) }, ...tokenErrors() } }),
+      get: op("getReport", {
+        ...token,
+        parameters: parameters(reportParams, "path", t),
+        responses: { 200: { description: t("responses.200"), content: json(reportResponse) }, ...tokenErrors() },
+      }),
     },
     "/api/health": {
       get: op("health", {
-        ...publicOp, parameters: parameters(healthQuery, "query", t),
-        responses: { 200: { description: t("responses.200"), content: json(healthResponse) }, 503: { description: t("responses.503"), content: json(healthResponse) } },
+        ...publicOp,
+        parameters: parameters(healthQuery, "query", t),
+        responses: {
+          200: { description: t("responses.200"), content: json(healthResponse) },
+          503: { description: t("responses.503"), content: json(healthResponse) },
+        },
       }),
     },
     "/api/reports/{reportId}/{file}": {
       get: op("reportFile", {
-        ...publicOp, parameters: parameters(reportFileParams, "path", t),
+        ...publicOp,
+        parameters: parameters(reportFileParams, "path", t),
         responses: {
           200: {
             description: t("responses.200"),
@@ -129,13 +184,25 @@ export function openApiDocument(t: Text, serverUrl?: string): Json {
         ...publicOp,
         requestBody: { required: true, content: { "application/json": { schema: schema(joinInput, "input") } } },
         responses: {
-          200: { description: t("responses.200"), content: { "application/json": { schema: { type: "object", properties: { ok: { type: "boolean" }, outcome: { type: "string" } } } } } },
+          200: {
+            description: t("responses.200"),
+            content: {
+              "application/json": {
+                schema: { type: "object", properties: { ok: { type: "boolean" }, outcome: { type: "string" } } },
+              },
+            },
+          },
           ...errors(t, [400, 404, 422, 429]),
         },
       }),
     },
     "/api/openapi.json": {
-      get: op("openapi", { ...publicOp, responses: { 200: { description: t("responses.200"), content: { "application/json": { schema: { type: "object" } } } } } }),
+      get: op("openapi", {
+        ...publicOp,
+        responses: {
+          200: { description: t("responses.200"), content: { "application/json": { schema: { type: "object" } } } },
+        },
+      }),
     },
   };
 
@@ -143,7 +210,10 @@ export function openApiDocument(t: Text, serverUrl?: string): Json {
     openapi: "3.1.0",
     info: { title: "Ecotone API", version: "1.0.0", description: `${t("info.description")} ${READ_ONLY_NOTE}` },
     ...(serverUrl ? { servers: [{ url: serverUrl }] } : {}),
-    tags: [{ name: "token", description: t("tags.token") }, { name: "public", description: t("tags.public") }],
+    tags: [
+      { name: "token", description: t("tags.token") },
+      { name: "public", description: t("tags.public") },
+    ],
     paths,
     components: {
       schemas: { ...components },

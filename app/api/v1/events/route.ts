@@ -12,7 +12,12 @@ export const GET = handle(async (request) => {
   const events = await apiEvents(token);
   const body: EventsResponse = {
     scope: token.eventId ? "event" : "organisation",
-    events: events.map((e) => ({ ...e, status: e.status as EventsResponse["events"][number]["status"], startsAt: e.startsAt.toISOString(), endsAt: e.endsAt.toISOString() })),
+    events: events.map((e) => ({
+      ...e,
+      status: e.status as EventsResponse["events"][number]["status"],
+      startsAt: e.startsAt.toISOString(),
+      endsAt: e.endsAt.toISOString(),
+    })),
   };
   return Response.json(body, { headers: { "Cache-Control": "no-store" } });
 });

@@ -18,7 +18,10 @@ export const GET = handle<Ctx>(async (request, { params }) => {
   const { access, role } = await requireEventRole(eventId, "organiser");
   parseQuery(request, setupQuery);
   const canOrganisation = role === "admin" || access.isOrganisationOrganiser;
-  return Response.json({ tokens: await listApiTokens(eventId, canOrganisation), canOrganisation }, { headers: { "Cache-Control": "no-store" } });
+  return Response.json(
+    { tokens: await listApiTokens(eventId, canOrganisation), canOrganisation },
+    { headers: { "Cache-Control": "no-store" } },
+  );
 });
 
 // Makes a token and answers its secret, this once: only its SHA-256 is kept.
@@ -34,8 +37,16 @@ export const POST = handle<Ctx>(async (request, { params }) => {
   const { secret, prefix, hash } = makeApiToken();
   const expiresAt = new Date(Date.now() + input.expiresInDays * 24 * 60 * 60 * 1000);
   const row = await createApiToken({
-    organisationId: access.organisationId, eventId: input.scope === "event" ? eventId : null,
-    name: input.name.trim(), prefix, tokenHash: hash, createdBy: user.id, expiresAt,
+    organisationId: access.organisationId,
+    eventId: input.scope === "event" ? eventId : null,
+    name: input.name.trim(),
+    prefix,
+    tokenHash: hash,
+    createdBy: user.id,
+    expiresAt,
   });
-  return Response.json({ id: row.id, token: secret, prefix, expiresAt: expiresAt.toISOString() }, { status: 201, headers: { "Cache-Control": "no-store" } });
+  return Response.json(
+    { id: row.id, token: secret, prefix, expiresAt: expiresAt.toISOString() },
+    { status: 201, headers: { "Cache-Control": "no-store" } },
+  );
 });

@@ -15,7 +15,11 @@ export const GET = handle(async (request, { params }: Ctx) => {
   await requireApiToken(request, { eventId });
   const body: ReportsResponse = {
     reports: (await listReports(eventId)).map((r) => ({
-      id: r.id, version: r.version, publishedAt: r.publishedAt.toISOString(), inputHash: r.inputHash, superseded: r.superseded,
+      id: r.id,
+      version: r.version,
+      publishedAt: r.publishedAt.toISOString(),
+      inputHash: r.inputHash,
+      superseded: r.superseded,
       url: `/api/v1/events/${eventId}/reports/${r.version}`,
     })),
   };

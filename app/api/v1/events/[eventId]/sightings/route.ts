@@ -16,7 +16,9 @@ function encodeCursor(micros: string, id: string): string {
   return Buffer.from(`${micros}.${id}`, "utf8").toString("base64url");
 }
 function decodeCursor(cursor: string): { micros: string; id: string } | null {
-  const m = /^(\d{1,20})\.([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/.exec(Buffer.from(cursor, "base64url").toString("utf8"));
+  const m = /^(\d{1,20})\.([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/.exec(
+    Buffer.from(cursor, "base64url").toString("utf8"),
+  );
   return m ? { micros: m[1]!, id: m[2]! } : null;
 }
 
@@ -31,8 +33,13 @@ export const GET = handle(async (request, { params }: Ctx) => {
   const q = parseQuery(request, sightingsQuery);
   const locale = requestLocale(request);
   const after = q.cursor ? decodeCursor(q.cursor) : undefined;
-  if (after === null) throw new ApiError("bad_request", [{ field: "cursor", message: apiTranslator(locale)("field.invalid") }]);
-  const rows = await approvedSightingsPage(eventId, { since: q.since ? new Date(q.since) : undefined, after, limit: q.limit + 1 });
+  if (after === null)
+    throw new ApiError("bad_request", [{ field: "cursor", message: apiTranslator(locale)("field.invalid") }]);
+  const rows = await approvedSightingsPage(eventId, {
+    since: q.since ? new Date(q.since) : undefined,
+    after,
+    limit: q.limit + 1,
+  });
   const page = rows.slice(0, q.limit);
   const last = page.at(-1);
   const nextCursor = rows.length > q.limit && last ? encodeCursor(last.modifiedMicros, last.id) : null;
@@ -41,13 +48,20 @@ export const GET = handle(async (request, { params }: Ctx) => {
   const { rows: located, withheld } = publicOccurrences({ species }, page, locale);
   const modified = new Map(page.map((r) => [r.id, r.modifiedAt.toISOString()]));
   // Parsed with the schema the OpenAPI document is made from, so the two cannot drift apart.
-  const records = located.map((r) => dwcOccurrence.parse({ ...dwcRecord(r, event.name), modified: modified.get(r.id)! }));
+  const records = located.map((r) =>
+    dwcOccurrence.parse({ ...dwcRecord(r, event.name), modified: modified.get(r.id)! }),
+  );
   const modifiedUntil = last ? last.modifiedAt.toISOString() : null;
 
   if (q.format === "csv") {
     const header = [...DWC_TERMS, "modified"] as const;
-    const csv = [header.join(","), ...records.map((r) => header.map((t) => csvField(r[t])).join(","))].join("\r\n") + "\r\n";
-    const headers: Record<string, string> = { "Content-Type": "text/csv; charset=utf-8", "Cache-Control": "no-store", "X-Withheld": String(withheld) };
+    const csv =
+      [header.join(","), ...records.map((r) => header.map((t) => csvField(r[t])).join(","))].join("\r\n") + "\r\n";
+    const headers: Record<string, string> = {
+      "Content-Type": "text/csv; charset=utf-8",
+      "Cache-Control": "no-store",
+      "X-Withheld": String(withheld),
+    };
     if (nextCursor) {
       const next = new URL(request.url);
       next.searchParams.set("cursor", nextCursor);
@@ -57,7 +71,13 @@ export const GET = handle(async (request, { params }: Ctx) => {
     if (modifiedUntil) headers["X-Modified-Until"] = modifiedUntil;
     return new Response(csv, { headers });
   }
-  const body: SightingsPage = { event: { id: eventId, name: event.name }, records, withheld, nextCursor, modifiedUntil };
+  const body: SightingsPage = {
+    event: { id: eventId, name: event.name },
+    records,
+    withheld,
+    nextCursor,
+    modifiedUntil,
+  };
   return Response.json(body, { headers: { "Cache-Control": "no-store" } });
 });
 

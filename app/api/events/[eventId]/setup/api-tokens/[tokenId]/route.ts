@@ -13,7 +13,8 @@ export const DELETE = handle<Ctx>(async (_request, { params }) => {
   const { user, access, role } = await requireEventRole(eventId, "organiser");
   limitWrites(`setup:${user.id}`);
   const token = await getApiToken(tokenId);
-  const mine = token && (token.eventId === eventId || (token.eventId === null && token.organisationId === access.organisationId));
+  const mine =
+    token && (token.eventId === eventId || (token.eventId === null && token.organisationId === access.organisationId));
   if (!token || !mine) throw new ApiError("not_found");
   if (token.eventId === null && role !== "admin" && !access.isOrganisationOrganiser) throw new ApiError("forbidden");
   const outcome = await revokeApiToken(token.id, user.id);

@@ -17,10 +17,20 @@ export const GET = handle(async (request, { params }: Ctx) => {
   if (!report) throw new ApiError("not_found");
   const files = `/api/reports/${report.id}`;
   const body: ReportResponse = {
-    id: report.id, version: report.version, publishedAt: report.publishedAt.toISOString(), superseded: report.version < report.latestVersion,
-    engineVersion: report.engineVersion, inputHash: report.inputHash, results: report.results as ReportResponse["results"],
-    methodNotes: report.methodNotes, changes: report.changes,
-    downloads: { speciesCsv: `${files}/species.csv`, darwinCoreArchive: `${files}/darwin-core-archive.zip`, geojson: `${files}/sightings.geojson` },
+    id: report.id,
+    version: report.version,
+    publishedAt: report.publishedAt.toISOString(),
+    superseded: report.version < report.latestVersion,
+    engineVersion: report.engineVersion,
+    inputHash: report.inputHash,
+    results: report.results as ReportResponse["results"],
+    methodNotes: report.methodNotes,
+    changes: report.changes,
+    downloads: {
+      speciesCsv: `${files}/species.csv`,
+      darwinCoreArchive: `${files}/darwin-core-archive.zip`,
+      geojson: `${files}/sightings.geojson`,
+    },
   };
   // A published version never changes, but a token may be revoked: not cached by anyone.
   return Response.json(body, { headers: { "Cache-Control": "no-store" } });
