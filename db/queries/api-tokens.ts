@@ -195,6 +195,20 @@ export async function approvedSightingsPage(
   return r.rows.map((x) => ({ ...x, observedAt: new Date(x.observedAt), modifiedAt: new Date(x.modifiedAt) }));
 }
 
+/**
+ * Sightings of the event changed at or after `since` that are no longer approved but once
+ * were (rejected, returned after approval): an incremental pull must drop them. Oldest change first.
+ */
+export async function withdrawnSince(eventId: string, since: Date, limit: number): Promise<string[]> {
+  const r = await getDb().execute<{ id: string }>(sql`
+    SELECT s.id FROM sightings s
+    WHERE s.event_id = ${eventId} AND s.updated_at >= ${since.toISOString()}::timestamptz AND s.review_state <> 'approved'
+      AND EXISTS (SELECT 1 FROM reviews r WHERE r.sighting_id = s.id AND r.to_state = 'approved')
+    ORDER BY s.updated_at, s.id
+    LIMIT ${limit}`);
+  return r.rows.map((x) => x.id);
+}
+
 /** A published report without its input records (which name every sighting). */
 export async function publishedReport(eventId: string, version: number) {
   const r = await getDb().execute<{

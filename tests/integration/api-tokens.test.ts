@@ -13,6 +13,7 @@ import { GET as reportGet } from "@/app/api/v1/events/[eventId]/reports/[version
 import { GET as openapiGet } from "@/app/api/openapi.json/route";
 import { createApiToken, revokeApiToken, recordApiTokenCall } from "@/db/queries/api-tokens";
 import { publishReport } from "@/db/queries/reports";
+import { decide } from "@/db/queries/review";
 import * as s from "@/db/schema";
 import { DWC_TERMS, generalise } from "@/lib/results/exports";
 import { makeApiToken } from "@/server/auth/api-token-secret";
@@ -162,6 +163,31 @@ describe("read-only API tokens", () => {
       next.records.map((r: { occurrenceID: string; individualCount: number }) => [r.occurrenceID, r.individualCount]),
     ).toContainEqual([`urn:uuid:${approvedOpen[0]}`, 7]);
     expect(next.records.find((r: { modified: string }) => r.modified === "2026-06-21T01:00:00.000Z")).toBeTruthy();
+    expect(next.withdrawn).toEqual([]);
+  });
+
+  it("lists, on an incremental pull, a sighting approved once and rejected since", async () => {
+    const id = approvedOpen[1]!;
+    // Seeded as approved: the desk's approval on record, then a reviewer rejects it.
+    await db()
+      .execute(sql`INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
+      VALUES (${id}, ${f.user.id}, 'pending', 'approved', ${f.taxon.id}, ${f.taxon.id}, '', '')`);
+    const before = new Date().toISOString();
+    const v = (await db().execute<{ version: number }>(sql`SELECT version FROM sightings WHERE id = ${id}`)).rows[0]!
+      .version;
+    const rejected = await decide({ eventId: f.event.id, taxonGroups: [], locale: "en" }, f.user.id, id, {
+      action: "reject",
+      version: v,
+      reason: "misidentified",
+    });
+    expect(rejected.outcome).toBe("ok");
+    const body = await (await sightings(`?since=${encodeURIComponent(before)}`)).json();
+    expect(body.withdrawn).toEqual([`urn:uuid:${id}`]);
+    expect(body.records.map((r: { occurrenceID: string }) => r.occurrenceID)).not.toContain(`urn:uuid:${id}`);
+    const paged = await (
+      await sightings(`?since=${encodeURIComponent(before)}&cursor=${Buffer.from(`0.${id}`).toString("base64url")}`)
+    ).json();
+    expect(paged.withdrawn).toEqual([]);
   });
 
   it("answers CSV with the Darwin Core terms as header, and the next cursor in headers", async () => {

@@ -1,4 +1,4 @@
-import { approvedSightingsPage, eventOwner } from "@/db/queries/api-tokens";
+import { approvedSightingsPage, eventOwner, withdrawnSince } from "@/db/queries/api-tokens";
 import { ApiError, apiTranslator, handle, parseQuery, requestLocale } from "@/lib/http/errors";
 import { csvField, dwcRecord, DWC_TERMS, publicOccurrences } from "@/lib/results/exports";
 import { requireApiToken } from "@/server/auth/guard";
@@ -9,6 +9,10 @@ import { dwcOccurrence, sightingsQuery, type SightingsPage } from "./schema";
 export const dynamic = "force-dynamic";
 
 type Ctx = { params: Promise<{ eventId: string }> };
+
+// Withdrawals listed on an incremental pull's first page; a pull since long ago that
+// would list more should start afresh without since= (an upper bound, common practice).
+const WITHDRAWN_MAX = 10_000;
 
 // The cursor is the last row's change time (microseconds) and id, so a page costs the
 // same at any depth and rows changed during a pull are met again later, never skipped.
@@ -71,10 +75,15 @@ export const GET = handle(async (request, { params }: Ctx) => {
     if (modifiedUntil) headers["X-Modified-Until"] = modifiedUntil;
     return new Response(csv, { headers });
   }
+  const withdrawn =
+    q.since && !q.cursor
+      ? (await withdrawnSince(eventId, new Date(q.since), WITHDRAWN_MAX)).map((id) => `urn:uuid:${id}`)
+      : [];
   const body: SightingsPage = {
     event: { id: eventId, name: event.name },
     records,
     withheld,
+    withdrawn,
     nextCursor,
     modifiedUntil,
   };

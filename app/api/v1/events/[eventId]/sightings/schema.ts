@@ -6,13 +6,10 @@ export const sightingsQuery = z
       .enum(["json", "csv"])
       .default("json")
       .meta({ description: "json (default) or csv (RFC 4180, one header line of Darwin Core terms)." }),
-    since: z.iso
-      .datetime({ offset: true })
-      .optional()
-      .meta({
-        description:
-          "Only sightings changed at or after this time (ISO 8601). For an incremental pull, pass the previous pull's modifiedUntil.",
-      }),
+    since: z.iso.datetime({ offset: true }).optional().meta({
+      description:
+        "Only sightings changed at or after this time (ISO 8601). For an incremental pull, pass the previous pull's modifiedUntil.",
+    }),
     cursor: z
       .string()
       .regex(/^[A-Za-z0-9_-]{1,200}$/)
@@ -63,6 +60,10 @@ export type DwcOccurrence = z.infer<typeof dwcOccurrence>;
 export const sightingsPage = z.object({
   event: z.object({ id: z.uuid(), name: z.string() }),
   records: z.array(dwcOccurrence),
+  withdrawn: z.array(z.string()).meta({
+    description:
+      "With since=, on the first page only (no cursor): occurrenceIDs of sightings approved once but no longer (rejected or returned since), to drop from an earlier pull.",
+  }),
   withheld: z.number().int().meta({ description: "Sightings of restricted taxa on this page, left out." }),
   nextCursor: z.string().nullable().meta({ description: "Pass as cursor for the next page; null on the last page." }),
   modifiedUntil: z.iso
