@@ -12,12 +12,10 @@ export const eventIdParams = z
 export const errorBody = z
   .object({
     error: z.object({
-      code: z
-        .string()
-        .meta({
-          description:
-            "A stable code: bad_request, api_token_refused, forbidden, not_found, method_not_allowed, rate_limited, internal.",
-        }),
+      code: z.string().meta({
+        description:
+          "A stable code: bad_request, api_token_refused, forbidden, not_found, method_not_allowed, rate_limited, internal.",
+      }),
       message: z
         .string()
         .meta({ description: "What went wrong, in the caller's language (Accept-Language: en, es, fr)." }),

@@ -11,8 +11,10 @@ type Ctx = { params: Promise<{ eventId: string }> };
 
 /** The event's published reports, newest first (who published is not shown). */
 export const GET = handle(async (request, { params }: Ctx) => {
-  const { eventId } = eventIdParams.parse(await params);
-  await requireApiToken(request, { eventId });
+  // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
+  const raw = await params;
+  await requireApiToken(request, { eventId: raw.eventId });
+  const { eventId } = eventIdParams.parse(raw);
   const body: ReportsResponse = {
     reports: (await listReports(eventId)).map((r) => ({
       id: r.id,

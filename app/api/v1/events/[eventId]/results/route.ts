@@ -10,8 +10,10 @@ type Ctx = { params: Promise<{ eventId: string }> };
 
 /** The event's current results: the same JSON the results page reads (server/results/current.ts). */
 export const GET = handle(async (request, { params }: Ctx) => {
-  const { eventId } = eventIdParams.parse(await params);
-  await requireApiToken(request, { eventId });
+  // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
+  const raw = await params;
+  await requireApiToken(request, { eventId: raw.eventId });
+  const { eventId } = eventIdParams.parse(raw);
   const { json } = await currentResults(eventId);
   return new Response(json, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
 });

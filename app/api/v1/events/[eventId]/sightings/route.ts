@@ -32,8 +32,10 @@ function decodeCursor(cursor: string): { micros: string; id: string } | null {
  * 0.1° grid, restricted ones left out (and counted in `withheld`).
  */
 export const GET = handle(async (request, { params }: Ctx) => {
-  const { eventId } = eventIdParams.parse(await params);
-  await requireApiToken(request, { eventId });
+  // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
+  const raw = await params;
+  await requireApiToken(request, { eventId: raw.eventId });
+  const { eventId } = eventIdParams.parse(raw);
   const q = parseQuery(request, sightingsQuery);
   const locale = requestLocale(request);
   const after = q.cursor ? decodeCursor(q.cursor) : undefined;
