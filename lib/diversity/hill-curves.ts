@@ -8,23 +8,34 @@ import { curvePoint } from "./curves";
 import { lnChooseRatio } from "./combinatorics";
 import { checkSize, invalidOption } from "./errors";
 import { chaoShannonEntropy, shannonEntropy, simpsonConcentration } from "./hill";
-import { buildProfile, type FrequencyProfile } from "./profile";
-import { binomial, multinomial, Rng } from "./random";
+import { bootstrapSd } from "./bootstrap";
+import type { FrequencyProfile } from "./profile";
 import { deficitRatio, undetectedChao, Z95 } from "./richness";
 
 export type CurvePart = "rarefied" | "observed" | "extrapolated";
-export type HillCurveRow = { size: number; order: number; estimate: number; lower: number; upper: number; coverage: number; part: CurvePart };
+export type HillCurveRow = {
+  size: number;
+  order: number;
+  estimate: number;
+  lower: number;
+  upper: number;
+  coverage: number;
+  part: CurvePart;
+  /** Bootstrap replicates behind the band (0: no band, e.g. fewer than 2 individuals). */
+  replicates: number;
+};
 export type HillCurveOptions = { orders?: readonly number[]; sizes?: readonly number[]; replicates?: number; seed?: number };
 export type HillCoverageRow = { coverage: number; order: number; size: number; estimate: number };
 export type HillCoverageOptions = { orders?: readonly number[]; levels: readonly number[] };
 
 /**
- * Default bootstrap replicates for the curve bands and the diversity profile. Measured by
- * hill-noise.test.ts: rerunning with another seed moves every band limit of the spider
- * 'Girdled' data and of pooled BCI by under 2% at 400 replicates (largest move 1.0%; at
- * 200 replicates it reached 2.3% at the far end of the extrapolated q = 0 curve).
+ * Bootstrap replicates when the caller gives none: drawn in batches of 200 until a rerun
+ * with another seed is expected to move every band limit by under 2% (bootstrap.ts), at
+ * most this many. Small samples need many (spider 'Girdled', n = 168: about 1,000 for the
+ * curves; at a fixed 400 a second seed moved a limit by 2.6%), large ones few (pooled BCI:
+ * 200, moving limits by under 0.3%). hill-noise.test.ts measures the moves.
  */
-export const HILL_CURVE_REPLICATES = 400;
+export const HILL_CURVE_REPLICATES = 2000;
 export const HILL_CURVE_SEED = 20140101;
 /** Points of a default curve (Chao et al. 2014 draw about 40), from 1 to twice the sample. */
 export const HILL_CURVE_POINTS = 40;
@@ -40,13 +51,11 @@ export function checkCurveOrders(orders: readonly number[] | undefined, label: s
   return out;
 }
 
-export function checkReplicates(replicates: number | undefined, fallback: number, label: string): number {
-  const b = replicates ?? fallback;
-  if (!Number.isInteger(b) || b < 0 || b > 100_000) throw invalidOption(label, `replicates must be an integer from 0 to 100000 (got ${String(b)})`);
-  return b;
+export function checkReplicates(replicates: number, label: string): void {
+  if (!Number.isInteger(replicates) || replicates < 0 || replicates > 100_000) throw invalidOption(label, `replicates must be an integer from 0 to 100000 (got ${String(replicates)})`);
 }
 
-function checkSeed(seed: number | undefined, label: string): number {
+export function checkSeed(seed: number | undefined, label: string): number {
   const s = seed ?? HILL_CURVE_SEED;
   if (!Number.isInteger(s)) throw invalidOption(label, `seed must be an integer (got ${String(s)})`);
   return s;
@@ -66,6 +75,7 @@ export function expectedYLogY(N: number, k: number, m: number): number {
   const lo = Math.max(0, m - (N - k));
   const hi = Math.min(k, m);
   if (lo === hi) return lo > 1 ? lo * Math.log(lo) : 0;
+  if ((m * k) / N >= YLOGY_SERIES_FROM) return expectedYLogYSeries(N, k, m);
   let mode = Math.floor(((m + 1) * (k + 1)) / (N + 2));
   mode = Math.min(hi, Math.max(lo, mode));
   const g = (y: number): number => (y > 1 ? y * Math.log(y) : 0);
@@ -88,10 +98,29 @@ export function expectedYLogY(N: number, k: number, m: number): number {
   return sum / mass;
 }
 
+/** Mean from which E[Y ln Y] is taken from its moment series instead of summed (checked in hill-curves.test.ts). */
+export const YLOGY_SERIES_FROM = 1000;
+
+/**
+ * E[Y ln Y] by the Taylor series of g(y) = y ln y around the mean μ (g″ = 1/y, g‴ = −1/y², …):
+ * μ ln μ + σ²/(2μ) − μ₃/(6μ²) + μ₄/(12μ³) − μ₅/(20μ⁴) + μ₆/(30μ⁵), with the hypergeometric
+ * σ² = mk(N−k)(N−m)/(N²(N−1)) and μ₃ = σ²(N−2k)(N−2m)/(N(N−2)) (Johnson, Kemp & Kotz 2005,
+ * from memory) and the normal-order μ₄ ≈ 3σ⁴, μ₅ ≈ 10σ²μ₃, μ₆ ≈ 15σ⁶; the error is of order
+ * 1/μ², below 1e−6 for μ ≥ 1000, where the sum would take about 17·sqrt(μ) terms per class.
+ */
+function expectedYLogYSeries(N: number, k: number, m: number): number {
+  const mu = (m * k) / N;
+  const v = (m * k * (N - k) * (N - m)) / (N * N * (N - 1));
+  const m3 = N > 2 ? (v * (N - 2 * k) * (N - 2 * m)) / (N * (N - 2)) : 0;
+  const mu2 = mu * mu;
+  return mu * Math.log(mu) + v / (2 * mu) - m3 / (6 * mu2) + (3 * v * v) / (12 * mu2 * mu) - (10 * v * m3) / (20 * mu2 * mu2) + (15 * v * v * v) / (30 * mu2 * mu2 * mu);
+}
+
 /** Hill number of order q at integer effort m < N, by rarefaction (Chao et al. 2014, eqs for f̂_k(m)). */
 function rarefied(p: FrequencyProfile, q: number, m: number): number {
   const N = p.size;
   if (m <= 0) return 0;
+  if (m === 1 && p.kind === "abundance") return 1; // one individual is one species, whatever q (exact, not 0.999…)
   if (q === 2) return secondOrderAt(p, m);
   if (q === 0) {
     let s = 0;
@@ -180,49 +209,6 @@ function hillAt(p: FrequencyProfile, q: number, m: number, cache: Map<string, nu
   return extrapolated(p, q, m - N, cache);
 }
 
-/**
- * Species probabilities of the estimated assemblage (Chao et al. 2014, Appendix): detected
- * species (k/N)[1 − λ̂(1 − k/N)^N], λ̂ = a/Σ_i (k_i/N)(1 − k_i/N)^N, a = (f1/N)·Â, plus ⌈f̂0⌉
- * undetected species of probability a/⌈f̂0⌉ each. N = n (abundance: a multinomial draw) or T
- * (incidence: detection probabilities per unit, each species drawn as a binomial over T units).
- */
-export function estimatedAssemblage(p: FrequencyProfile): Float64Array {
-  const N = p.size;
-  const f0 = undetectedChao(p);
-  const unseen = f0 > 0 ? Math.ceil(f0) : 0;
-  const a = (p.f1 / N) * deficitRatio(p);
-  let b = 0;
-  for (let i = 0; i < p.values.length; i++) {
-    const r = (p.values[i] as number) / N;
-    b += (p.freqs[i] as number) * r * Math.exp(N * Math.log1p(-r));
-  }
-  const lambda = unseen > 0 && b > 0 ? a / b : 0;
-  const probs = new Float64Array(p.observed + unseen);
-  let j = 0;
-  for (let i = 0; i < p.values.length; i++) {
-    const r = (p.values[i] as number) / N;
-    const pr = r * (1 - lambda * Math.exp(N * Math.log1p(-r)));
-    for (let c = 0; c < (p.freqs[i] as number); c++) probs[j++] = pr;
-  }
-  for (let u = 0; u < unseen; u++) probs[j++] = a / unseen;
-  return probs;
-}
-
-/** One bootstrap sample from the estimated assemblage, as a frequency profile. */
-export function bootstrapProfile(p: FrequencyProfile, probs: Float64Array, rng: Rng): FrequencyProfile {
-  const N = p.size;
-  if (p.kind === "abundance") return buildProfile("abundance", multinomial(rng, N, probs), N);
-  const y = new Float64Array(probs.length);
-  for (let i = 0; i < probs.length; i++) y[i] = binomial(rng, N, Math.min(1, Math.max(0, probs[i] as number)));
-  return buildProfile("incidence", y, N);
-}
-
-function sd(sum: number, sumSq: number, count: number): number {
-  if (count < 2) return 0;
-  const mean = sum / count;
-  return Math.sqrt(Math.max(0, (sumSq - count * mean * mean) / (count - 1)));
-}
-
 function partOf(m: number, N: number): CurvePart {
   return m < N ? "rarefied" : m === N ? "observed" : "extrapolated";
 }
@@ -245,7 +231,7 @@ function defaultSizes(N: number): number[] {
  */
 export function hillCurveFromProfile(p: FrequencyProfile, options: HillCurveOptions, label: string): HillCurveRow[] {
   const orders = checkCurveOrders(options.orders, `${label}.orders`);
-  const replicates = checkReplicates(options.replicates, HILL_CURVE_REPLICATES, `${label}.replicates`);
+  if (options.replicates !== undefined) checkReplicates(options.replicates, `${label}.replicates`);
   const seed = checkSeed(options.seed, `${label}.seed`);
   const N = p.size;
   let sizes: number[];
@@ -261,39 +247,28 @@ export function hillCurveFromProfile(p: FrequencyProfile, options: HillCurveOpti
   const cache = new Map<string, number>();
   const est = orders.map((q) => sizes.map((m) => (p.total > 0 ? hillAt(p, q, m, cache) : 0)));
   const coverage = sizes.map((m) => Math.min(1, Math.max(0, curvePoint(p, m).coverage)));
-  const sums = orders.map(() => new Float64Array(sizes.length));
-  const sumSqs = orders.map(() => new Float64Array(sizes.length));
-  let used = 0;
-  if (replicates >= 2 && N >= 2 && p.observed > 0) {
-    const probs = estimatedAssemblage(p);
-    const rng = new Rng(seed);
-    for (let b = 0; b < replicates; b++) {
-      const boot = bootstrapProfile(p, probs, rng);
-      const bc = new Map<string, number>();
-      orders.forEach((q, oi) => {
-        sizes.forEach((m, si) => {
-          const v = boot.total > 0 ? hillAt(boot, q, m, bc) : 0;
-          const su = sums[oi] as Float64Array;
-          const sq = sumSqs[oi] as Float64Array;
-          su[si] = (su[si] as number) + v;
-          sq[si] = (sq[si] as number) + v * v;
-        });
-      });
-      used++;
-    }
-  }
+  const observedByOrder = orders.map((q) => (p.total > 0 ? observedHill(p, q) : 0));
+  const floorOf = (oi: number, si: number): number => {
+    const m = sizes[si] as number;
+    const e = (est[oi] as number[])[si] as number;
+    let f = m >= 1 && p.total > 0 ? Math.min(1, e) : 0;
+    if (m > N) f = Math.max(f, Math.min(observedByOrder[oi] as number, e));
+    return f;
+  };
+  const flatEst = est.flat();
+  const floors = orders.flatMap((_, oi) => sizes.map((__, si) => floorOf(oi, si)));
+  const boot = bootstrapSd(p, seed, options.replicates, HILL_CURVE_REPLICATES, flatEst, floors, (b, out) => {
+    const bc = new Map<string, number>();
+    let c = 0;
+    for (const q of orders) for (const m of sizes) out[c++] = b.total > 0 ? hillAt(b, q, m, bc) : 0;
+  });
   const rows: HillCurveRow[] = [];
   orders.forEach((q, oi) => {
-    const observed = p.total > 0 ? observedHill(p, q) : 0;
     sizes.forEach((m, si) => {
       const e = (est[oi] as number[])[si] as number;
-      const s = sd((sums[oi] as Float64Array)[si] as number, (sumSqs[oi] as Float64Array)[si] as number, used);
-      const part = partOf(m, N);
-      let lower = e - Z95 * s;
-      if (m >= 1 && p.total > 0) lower = Math.max(lower, Math.min(1, e));
-      if (part === "extrapolated") lower = Math.max(lower, Math.min(observed, e));
-      lower = Math.min(Math.max(lower, 0), e);
-      rows.push({ size: m, order: q, estimate: e, lower, upper: e + Z95 * s, coverage: coverage[si] as number, part });
+      const s = boot.sd[oi * sizes.length + si] as number;
+      const lower = Math.min(Math.max(e - Z95 * s, floorOf(oi, si), 0), e);
+      rows.push({ size: m, order: q, estimate: e, lower, upper: e + Z95 * s, coverage: coverage[si] as number, part: partOf(m, N), replicates: boot.replicates });
     });
   });
   return rows;

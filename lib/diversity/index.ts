@@ -24,6 +24,7 @@ export { HILL_BOOTSTRAP_REPLICATES, HILL_BOOTSTRAP_SEED } from "./hill";
 export { HILL_CURVE_REPLICATES, HILL_CURVE_SEED, HILL_CURVE_POINTS } from "./hill-curves";
 export type { CurvePart, HillCurveRow, HillCurveOptions, HillCoverageRow, HillCoverageOptions } from "./hill-curves";
 export type { HillProfileRow, HillProfileOptions } from "./hill-profile";
+export { HILL_PROFILE_REPLICATES } from "./hill-profile";
 export type { IntervalMethod } from "./richness";
 export { zoneSimilarity, zoneSimilarityIncidence, hillBeta, type ZoneSimilarity, type HillBeta } from "./similarity";
 
