@@ -58,17 +58,21 @@ function chaoSimilarity(x: ArrayLike<number>, y: ArrayLike<number>, effortA: num
     const a = x[i] as number;
     const b = y[i] as number;
     if (!(a > 0 && b > 0)) continue;
-    uTilde += a / n;
-    vTilde += b / m;
+    uTilde += a; // sums of whole counts, divided once below: exactly 1 when every species is shared
+    vTilde += b;
     if (a === 1) {
       f1plus++;
-      vSingletonA += b / m;
+      vSingletonA += b;
     } else if (a === 2) f2plus++;
     if (b === 1) {
       fplus1++;
-      uSingletonB += a / n;
+      uSingletonB += a;
     } else if (b === 2) fplus2++;
   }
+  uTilde /= n;
+  vTilde /= m;
+  uSingletonB /= n;
+  vSingletonA /= m;
   const uHat = Math.min(1, uTilde + ((effortB - 1) / effortB) * (fplus1 / (2 * Math.max(fplus2, 1))) * uSingletonB);
   const vHat = Math.min(1, vTilde + ((effortA - 1) / effortA) * (f1plus / (2 * Math.max(f2plus, 1))) * vSingletonA);
   const union = shared + onlyA + onlyB;
