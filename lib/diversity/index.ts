@@ -4,6 +4,8 @@ import { abundanceProfile } from "./abundance";
 import { abundanceCurveFromProfile, accumulateData, curveSizes, incidenceCurveFromData, rarefyProfile, type CurvePoint } from "./curves";
 import { checkSize, invalidOption } from "./errors";
 import { incidenceData } from "./incidence";
+import { hillAtCoverageFromProfile, hillCurveFromProfile, type HillCoverageOptions, type HillCoverageRow, type HillCurveOptions, type HillCurveRow } from "./hill-curves";
+import { hillProfileFromProfile, type HillProfileOptions, type HillProfileRow } from "./hill-profile";
 
 export type { Estimate } from "./richness";
 export type { AbundanceStats } from "./abundance";
@@ -19,6 +21,12 @@ export { compareZones } from "./compare";
 export { diversityResults, ENGINE_VERSION } from "./results";
 export { DiversityInputError, type DiversityInputErrorCode } from "./errors";
 export { HILL_BOOTSTRAP_REPLICATES, HILL_BOOTSTRAP_SEED } from "./hill";
+export { HILL_CURVE_REPLICATES, HILL_CURVE_SEED, HILL_CURVE_POINTS } from "./hill-curves";
+export type { CurvePart, HillCurveRow, HillCurveOptions, HillCoverageRow, HillCoverageOptions } from "./hill-curves";
+export type { HillProfileRow, HillProfileOptions } from "./hill-profile";
+export { HILL_PROFILE_REPLICATES } from "./hill-profile";
+export type { IntervalMethod } from "./richness";
+export { zoneSimilarity, zoneSimilarityIncidence, hillBeta, type ZoneSimilarity, type HillBeta } from "./similarity";
 
 function checkSizes(sizes: readonly number[], label: string): void {
   if (!Array.isArray(sizes)) throw invalidOption(label, "expected an array of sizes");
@@ -79,4 +87,39 @@ export function abundanceCurve(counts: readonly number[], options: CurveOptions 
 export function incidenceCurve(units: readonly (readonly number[])[], options: CurveOptions = {}): CurvePoint[] {
   const d = incidenceData(units);
   return incidenceCurveFromData(d, resolveSizes(d.units, options, "options"));
+}
+
+/**
+ * Size-based rarefaction/extrapolation of Hill numbers q = 0, 1, 2 for abundance data
+ * (Chao et al. 2014), sizes up to twice the sample, with seeded bootstrap 95% bands
+ * (default HILL_CURVE_REPLICATES replicates, seed HILL_CURVE_SEED). `coverage` is the
+ * sample coverage at each size (Chao & Jost 2012): the sample-completeness curve.
+ */
+export function hillCurve(counts: readonly number[], options: HillCurveOptions = {}): HillCurveRow[] {
+  return hillCurveFromProfile(abundanceProfile(counts), options, "options");
+}
+
+/** The same for incidence data: complete sessions as rows (empty rows count as units); size = number of units. */
+export function hillCurveIncidence(units: readonly (readonly number[])[], options: HillCurveOptions = {}): HillCurveRow[] {
+  return hillCurveFromProfile(incidenceData(units).profile, options, "options");
+}
+
+/** Hill numbers at given sample-coverage levels (Chao & Jost 2012); size fractional where interpolated. */
+export function hillAtCoverage(counts: readonly number[], options: HillCoverageOptions): HillCoverageRow[] {
+  return hillAtCoverageFromProfile(abundanceProfile(counts), options, "options");
+}
+
+/** The same for incidence data (size = number of units). */
+export function hillAtCoverageIncidence(units: readonly (readonly number[])[], options: HillCoverageOptions): HillCoverageRow[] {
+  return hillAtCoverageFromProfile(incidenceData(units).profile, options, "options");
+}
+
+/** Asymptotic diversity profile over orders in [0, 2] with bootstrap se and 95% intervals (see hill-profile.ts for each q's estimator). */
+export function hillProfile(counts: readonly number[], options: HillProfileOptions): HillProfileRow[] {
+  return hillProfileFromProfile(abundanceProfile(counts), options, "options");
+}
+
+/** The same for incidence data, orders 0, 1 and 2 only. */
+export function hillProfileIncidence(units: readonly (readonly number[])[], options: HillProfileOptions): HillProfileRow[] {
+  return hillProfileFromProfile(incidenceData(units).profile, options, "options");
 }
