@@ -1,19 +1,12 @@
 import "server-only";
 import { and, desc, eq, sql } from "drizzle-orm";
+import type { MySighting } from "@/lib/sync/mine";
 import { getDb } from "../client";
 import { photos, reviews, sightings, taxa } from "../schema";
 
 // A volunteer's own sightings at one event with their review state (the field log's "sent"
-// list): for returned ones the coordinator's question, for rejected ones the reason.
-export type MySighting = {
-  id: string; version: number; reviewState: "pending" | "approved" | "rejected" | "returned";
-  taxonId: string | null; scientificName: string | null; description: string; count: number; countIsEstimate: boolean;
-  observedAt: string; latitude: number; longitude: number; accuracyM: number; zoneId: string | null; sessionId: string | null;
-  notes: string; photoIds: string[];
-  question: string | null; // the latest message of a decision to 'returned', while the sighting is returned
-  rejectionReason: string | null; // the reason of the latest decision to 'rejected', while it is rejected
-  updatedAt: string;
-};
+// list): for returned ones the coordinator's question, for rejected ones the reason. The
+// row shape is the sync contract's (lib/sync/mine.ts).
 
 const latest = (state: "returned" | "rejected", column: typeof reviews.message | typeof reviews.reason) => sql<string | null>`(
   SELECT r.${sql.identifier(column.name)} FROM ${reviews} r WHERE r.sighting_id = ${sightings.id} AND r.to_state = ${state}

@@ -3,7 +3,7 @@ import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import type { SightingRecord } from "@/lib/sync/records";
 import { openFieldDb } from "./db";
-import { applyAcks, eventRecords, InvalidRecord, makeDueNow, releaseBatch, resetInFlight, saveSession, saveSighting, takeBatch } from "./outbox";
+import { applyAcks, eventRecords, InvalidRecord, makeDueNow, refuseBatch, releaseBatch, resetInFlight, saveSession, saveSighting, takeBatch } from "./outbox";
 
 // The outbox over IndexedDB (fake-indexeddb: an in-memory implementation of the
 // IndexedDB API, run through the real idb wrapper and our real outbox code).
@@ -120,5 +120,31 @@ describe("field outbox", () => {
     const batch = await takeBatch(db, EVENT);
     await applyAcks(db, batch, [{ kind: "sighting", id: randomUUID(), index: 0, outcome: "created" }], 10);
     expect((await db.get("sightings", s.id))?.state).toBe("waiting");
+  });
+
+  it("shows the server's reason on every record of a batch refused whole, but keeps an edit made meanwhile waiting", async () => {
+    const db = await freshDb();
+    const session = await saveSession(db, EVENT, { id: randomUUID(), zoneId: null, kind: "walk", startedAt: "2026-12-02T09:00:00Z", endedAt: null, allSpeciesNoted: false, distanceM: null, notes: "" });
+    const a = await saveSighting(db, EVENT, sighting(), "Mallard", [], 1);
+    const b = await saveSighting(db, EVENT, sighting(), "Mallard", [], 2);
+    const batch = await takeBatch(db, EVENT);
+    await saveSighting(db, EVENT, { ...b.record, count: 7 }, "Mallard");
+    await refuseBatch(db, batch, "You are not allowed to do this.");
+    expect(await db.get("sessions", session.id)).toMatchObject({ state: "failed", reason: "You are not allowed to do this." });
+    expect(await db.get("sightings", a.id)).toMatchObject({ state: "failed", reason: "You are not allowed to do this.", sendingRev: undefined });
+    expect(await db.get("sightings", b.id)).toMatchObject({ state: "waiting", record: { count: 7 } });
+  });
+
+  it("counts what the server stored and refused, and updates the review state it tells", async () => {
+    const db = await freshDb();
+    const a = await saveSighting(db, EVENT, sighting(), "Mallard", [], 1);
+    const b = await saveSighting(db, EVENT, sighting(), "Mallard", [], 2);
+    const batch = await takeBatch(db, EVENT);
+    const counts = await applyAcks(db, batch, [
+      { kind: "sighting", id: b.id, index: 1, outcome: "refused", reason: "No.", field: "id" },
+      { kind: "sighting", id: a.id, index: 0, outcome: "already_had", reviewState: "approved" },
+    ]);
+    expect(counts).toEqual({ sent: 1, refused: 1 });
+    expect(await db.get("sightings", a.id)).toMatchObject({ state: "sent", reviewState: "approved" });
   });
 });

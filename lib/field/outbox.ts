@@ -1,4 +1,5 @@
-import { sessionRecord, sightingRecord, MAX_BATCH_RECORDS, type SessionRecord, type SightingRecord, type SyncAck } from "@/lib/sync/records";
+import type { SyncAck } from "@/lib/sync/acks";
+import { sessionRecord, sightingRecord, MAX_BATCH_RECORDS, type SessionRecord, type SightingRecord } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import type { LocalPhoto, LocalSession, LocalSighting, TransientProblem } from "./types";
@@ -82,83 +83,88 @@ export function batchBody(batch: Batch): { sessions: SessionRecord[]; sightings:
 
 const STORED = new Set(["created", "already_had", "updated"]);
 
+type Taken = LocalSession | LocalSighting;
+
+/**
+ * The one way a batch's records change after it went out: each record of the batch is read
+ * again (it may have been edited meanwhile) and `next` says what it becomes, or null to
+ * leave it as it is. One transaction for the whole batch.
+ */
+async function settleBatch(db: FieldDatabase, batch: Batch, next: (current: Taken, taken: Taken) => Taken | null) {
+  const tx = db.transaction(["sessions", "sightings"], "readwrite");
+  for (const taken of [...batch.sessions, ...batch.sightings]) {
+    const store = tx.objectStore(taken.kind === "session" ? "sessions" : "sightings") as unknown as { get(id: string): Promise<Taken | undefined>; put(v: Taken): Promise<unknown> };
+    const current = await store.get(taken.id);
+    const changed = current ? next(current, taken) : null;
+    if (changed) await store.put(changed);
+  }
+  await tx.done;
+}
+
+/** A record still in flight goes back to waiting, to be tried again after a back-off. */
+function tryLater<T extends Taken>(current: T, problem: TransientProblem, now: number, random?: () => number): T | null {
+  if (current.state !== "sending") return null; // edited meanwhile: it already waits, as the edit
+  const attempts = current.attempts + 1;
+  return { ...current, state: "waiting", sendingRev: undefined, attempts, nextTryAt: now + backoffDelay(attempts, random), problem };
+}
+
 /**
  * Applies the server's answer. Only acknowledged records leave the outbox (as "sent"); a
  * refused one is "failed" with its reason; a record edited while its batch was in flight
  * goes back to "waiting" so the edit is sent too; a record without an answer waits again.
  */
 export async function applyAcks(db: FieldDatabase, batch: Batch, acks: SyncAck[], now = Date.now()): Promise<{ sent: number; refused: number }> {
-  const tx = db.transaction(["sessions", "sightings"], "readwrite");
+  const answers = new Map<string, SyncAck>();
+  for (const ack of acks) {
+    const taken = (ack.kind === "session" ? batch.sessions : batch.sightings)[ack.index];
+    const key = `${ack.kind}:${taken?.id}`;
+    if (taken && (ack.id === null || ack.id === taken.id) && !answers.has(key)) answers.set(key, ack);
+  }
   let sent = 0;
   let refused = 0;
-  const answered = new Set<string>();
-  for (const ack of acks) {
-    const list = ack.kind === "session" ? batch.sessions : batch.sightings;
-    const taken = list[ack.index];
-    if (!taken || (ack.id !== null && ack.id !== taken.id)) continue;
-    answered.add(`${ack.kind}:${taken.id}`);
-    const store = ack.kind === "session" ? tx.objectStore("sessions") : tx.objectStore("sightings");
-    const current = await store.get(taken.id);
-    if (!current) continue;
+  await settleBatch(db, batch, (current, taken) => {
+    const ack = answers.get(`${taken.kind}:${taken.id}`);
+    if (!ack) return tryLater(current, "server", now);
     const edited = current.rev !== taken.sendingRev;
-    let next: typeof current;
-    if (STORED.has(ack.outcome)) {
-      sent++;
-      next = edited
-        ? { ...current, state: "waiting", sendingRev: undefined, attempts: 0, nextTryAt: 0 }
-        : { ...current, state: "sent", sendingRev: undefined, attempts: 0, nextTryAt: 0, problem: undefined, reason: undefined, field: undefined, sentAt: now };
-      if (current.kind === "sighting" && ack.reviewState) (next as LocalSighting).reviewState = ack.reviewState;
-      if (current.kind === "sighting" && !edited && (next as LocalSighting).record.answer) {
-        // The answer went with this version; a later edit is a new conversation.
-        (next as LocalSighting).question = undefined;
-      }
-    } else {
+    if (!STORED.has(ack.outcome)) {
       refused++;
-      next = edited
+      return edited
         ? { ...current, state: "waiting", sendingRev: undefined }
         : { ...current, state: "failed", sendingRev: undefined, reason: ack.reason ?? "", field: ack.field, problem: undefined };
     }
-    await (store as unknown as { put(v: typeof next): Promise<unknown> }).put(next);
-  }
-  for (const [kind, list] of [["session", batch.sessions], ["sighting", batch.sightings]] as const) {
-    for (const taken of list) {
-      if (answered.has(`${kind}:${taken.id}`)) continue;
-      const store = kind === "session" ? tx.objectStore("sessions") : tx.objectStore("sightings");
-      const current = await store.get(taken.id);
-      if (current?.state === "sending") {
-        const attempts = current.attempts + 1;
-        await (store as unknown as { put(v: unknown): Promise<unknown> }).put({ ...current, state: "waiting", sendingRev: undefined, attempts, nextTryAt: now + backoffDelay(attempts), problem: "server" });
-      }
+    sent++;
+    const next: Taken = edited
+      ? { ...current, state: "waiting", sendingRev: undefined, attempts: 0, nextTryAt: 0 }
+      : { ...current, state: "sent", sendingRev: undefined, attempts: 0, nextTryAt: 0, problem: undefined, reason: undefined, field: undefined, sentAt: now };
+    if (next.kind === "sighting") {
+      if (ack.reviewState) next.reviewState = ack.reviewState;
+      // The answer went with this version; a later edit is a new conversation.
+      if (!edited && next.record.answer) next.question = undefined;
     }
-  }
-  await tx.done;
+    return next;
+  });
   return { sent, refused };
 }
 
 /** The whole batch did not go through for a reason that is not the records' fault: wait, then try again. */
 export async function releaseBatch(db: FieldDatabase, batch: Batch, problem: TransientProblem, now = Date.now(), random?: () => number) {
-  const tx = db.transaction(["sessions", "sightings"], "readwrite");
-  for (const [name, list] of [["sessions", batch.sessions], ["sightings", batch.sightings]] as const) {
-    const store = tx.objectStore(name);
-    for (const taken of list) {
-      const current = await store.get(taken.id);
-      if (!current || current.state !== "sending") continue;
-      const attempts = current.attempts + 1;
-      await (store as unknown as { put(v: unknown): Promise<unknown> }).put({ ...current, state: "waiting", sendingRev: undefined, attempts, nextTryAt: now + backoffDelay(attempts, random), problem });
-    }
-  }
-  await tx.done;
+  await settleBatch(db, batch, (current) => tryLater(current, problem, now, random));
 }
 
 /** The server refused the whole batch (not a member any more, the event closed): each record shows why. */
 export async function refuseBatch(db: FieldDatabase, batch: Batch, reason: string) {
-  const tx = db.transaction(["sessions", "sightings"], "readwrite");
-  for (const [name, list] of [["sessions", batch.sessions], ["sightings", batch.sightings]] as const) {
-    const store = tx.objectStore(name);
-    for (const taken of list) {
-      const current = await store.get(taken.id);
-      if (!current || current.state !== "sending") continue;
-      await (store as unknown as { put(v: unknown): Promise<unknown> }).put({ ...current, state: "failed", sendingRev: undefined, reason, problem: undefined });
+  await settleBatch(db, batch, (current) => (current.state === "sending" ? { ...current, state: "failed", sendingRev: undefined, reason, problem: undefined } : null));
+}
+
+/** Walks every session, sighting and photo on the device; `next` returns the new value, or null to leave one alone. */
+async function rewriteEvery(db: FieldDatabase, next: (v: LocalSession | LocalSighting | LocalPhoto) => object | null) {
+  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
+  for (const name of ["sessions", "sightings", "photos"] as const) {
+    let cursor = await tx.objectStore(name).openCursor();
+    while (cursor) {
+      const changed = next(cursor.value);
+      if (changed) await cursor.update(changed as never);
+      cursor = await cursor.continue();
     }
   }
   await tx.done;
@@ -169,29 +175,12 @@ export async function refuseBatch(db: FieldDatabase, batch: Batch, reason: strin
  * Call only while holding the sync lock (lib/field/sync.ts), when nothing is in flight.
  */
 export async function resetInFlight(db: FieldDatabase) {
-  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
-  for (const name of ["sessions", "sightings", "photos"] as const) {
-    let cursor = await tx.objectStore(name).openCursor();
-    while (cursor) {
-      if (cursor.value.state === "sending") await cursor.update({ ...cursor.value, state: "waiting", sendingRev: undefined } as never);
-      cursor = await cursor.continue();
-    }
-  }
-  await tx.done;
+  await rewriteEvery(db, (v) => (v.state === "sending" ? { ...v, state: "waiting", sendingRev: undefined } : null));
 }
 
 /** "Try again now": the network came back, or the person asked. */
 export async function makeDueNow(db: FieldDatabase, eventId?: string) {
-  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
-  for (const name of ["sessions", "sightings", "photos"] as const) {
-    let cursor = await tx.objectStore(name).openCursor();
-    while (cursor) {
-      const v = cursor.value;
-      if ((!eventId || v.eventId === eventId) && v.state === "waiting" && v.nextTryAt > 0) await cursor.update({ ...v, nextTryAt: 0 } as never);
-      cursor = await cursor.continue();
-    }
-  }
-  await tx.done;
+  await rewriteEvery(db, (v) => ((!eventId || v.eventId === eventId) && v.state === "waiting" && v.nextTryAt > 0 ? { ...v, nextTryAt: 0 } : null));
 }
 
 export async function eventRecords(db: FieldDatabase, eventId: string) {

@@ -1,8 +1,10 @@
-import { sightingRecord, type SyncAck } from "@/lib/sync/records";
+import type { SyncAck } from "@/lib/sync/acks";
+import type { MineResponse, MySighting } from "@/lib/sync/mine";
+import { sightingRecord } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import { applyAcks, batchBody, refuseBatch, releaseBatch, resetInFlight, takeBatch } from "./outbox";
-import type { EventPack, LocalPhoto, MineItem, ReviewState, StoredPack, TransientProblem } from "./types";
+import type { EventPack, LocalPhoto, MineItem, StoredPack, TransientProblem } from "./types";
 
 // Sending the outbox: one sender at a time per device (Web Locks, shared by the tabs and
 // the service worker), batches of sessions and sightings, then photos of acknowledged
@@ -138,12 +140,11 @@ async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOu
 }
 
 /** The fields of a sighting record, out of one row of GET …/sightings/mine. */
-function pickRecord(row: unknown): Record<string, unknown> {
-  const x = (row ?? {}) as Record<string, unknown>;
+function pickRecord(x: MySighting): Record<string, unknown> {
   return {
-    id: x.id, sessionId: x.sessionId ?? null, taxonId: x.taxonId ?? null, description: x.description ?? "", count: x.count,
-    countIsEstimate: x.countIsEstimate ?? false, observedAt: x.observedAt, latitude: x.latitude, longitude: x.longitude,
-    accuracyM: x.accuracyM, zoneId: x.zoneId ?? null, notes: x.notes ?? "", photoIds: [],
+    id: x.id, sessionId: x.sessionId, taxonId: x.taxonId, description: x.description, count: x.count,
+    countIsEstimate: x.countIsEstimate, observedAt: x.observedAt, latitude: x.latitude, longitude: x.longitude,
+    accuracyM: x.accuracyM, zoneId: x.zoneId, notes: x.notes, photoIds: [],
   };
 }
 
@@ -151,28 +152,22 @@ function pickRecord(row: unknown): Record<string, unknown> {
 export async function refreshMine(db: FieldDatabase, eventId: string): Promise<MineItem[] | null> {
   const res = await fetch(`/api/events/${eventId}/sightings/mine`, { credentials: "same-origin", cache: "no-store" });
   if (!res.ok) return null;
-  const body = (await res.json()) as { sightings?: unknown[] } | unknown[];
-  const raw = Array.isArray(body) ? body : Array.isArray(body.sightings) ? body.sightings : [];
-  const items: MineItem[] = raw.flatMap((r) => {
-    const x = r as Record<string, unknown>;
-    if (typeof x.id !== "string" || typeof x.reviewState !== "string") return [];
-    const q = x.question ?? (x.returnQuestion as unknown) ?? null;
-    return [{ id: x.id, reviewState: x.reviewState as ReviewState, version: Number(x.version ?? 1), question: typeof q === "string" ? q : null, taxonId: (x.taxonId as string | null) ?? null, count: x.count as number | undefined, observedAt: x.observedAt as string | undefined }];
-  });
+  const raw = ((await res.json()) as MineResponse).sightings;
+  const items: MineItem[] = raw.map((x) => ({ id: x.id, reviewState: x.reviewState, version: x.version, question: x.question, taxonId: x.taxonId, count: x.count, observedAt: x.observedAt }));
   await db.put("mine", { eventId, fetchedAt: Date.now(), items });
   const stored = await db.get("packs", eventId);
   const locale = (globalThis.document?.documentElement.lang || globalThis.navigator?.language || "en").slice(0, 2);
   const tx = db.transaction("sightings", "readwrite");
-  const rawById = new Map(raw.map((r) => [(r as { id?: unknown }).id, r]));
-  for (const item of items) {
+  for (const [i, item] of items.entries()) {
+    const row = raw[i]!;
     const local = await tx.store.get(item.id);
     if (!local) {
       // Sent from another phone, or before this one was cleared: kept as a sent record so
       // its review state shows, and a returned one can be answered from here.
-      const parsed = sightingRecord.safeParse(pickRecord(rawById.get(item.id)));
+      const parsed = sightingRecord.safeParse(pickRecord(row));
       if (!parsed.success) continue;
       const species = stored?.pack.species.find((sp) => sp.id === parsed.data.taxonId);
-      const label = species ? (species.names[locale] ?? species.names.en ?? species.scientificName) : ((rawById.get(item.id) as { scientificName?: string }).scientificName ?? parsed.data.description);
+      const label = species ? (species.names[locale] ?? species.names.en ?? species.scientificName) : (row.scientificName ?? parsed.data.description);
       const at = Date.parse(parsed.data.observedAt);
       await tx.store.put({
         kind: "sighting", id: item.id, eventId, state: "sent", rev: 0, attempts: 0, nextTryAt: 0, savedAt: at, sentAt: at,

@@ -6,7 +6,7 @@ import { bounds, distanceM, walkDistanceM, zoneAt } from "./zones";
 // The demo's Kestrel Moor zones: Heather Crest (north half) and Gorse Margin (south half).
 const zones: ZoneCollection = {
   type: "FeatureCollection",
-  features: SECOND_ZONES.map((z) => ({ type: "Feature", id: z.key, properties: { name: z.name, habitat: z.habitat }, geometry: { type: "Polygon", coordinates: [z.ring as number[][]] } })),
+  features: SECOND_ZONES.map((z) => ({ type: "Feature", id: z.key, properties: { name: z.name, habitat: z.habitat, description: "" }, geometry: { type: "Polygon", coordinates: [z.ring as number[][]] } })),
 };
 
 describe("zone of a point, on the device", () => {

@@ -10,6 +10,9 @@ import { z } from "zod";
 
 export const MAX_BATCH_RECORDS = 100;
 
+/** A sighting's review state, as the server tells the phone (acknowledgements, "mine"). */
+export type ReviewState = "pending" | "approved" | "rejected" | "returned";
+
 const isoInstant = z.iso.datetime({ offset: true });
 const text = (max: number) => z.string().max(max).default("");
 
@@ -52,15 +55,4 @@ export const syncBatch = z.object({
 });
 // Records are arrays of unknown at the batch level on purpose: each record is parsed on its
 // own with sessionRecord / sightingRecord, so one bad record never refuses its neighbours.
-
-export type SyncOutcome = "created" | "already_had" | "updated" | "refused";
-export type SyncAck = {
-  kind: "session" | "sighting";
-  id: string | null; // null only when a refused record had no readable id
-  index: number; // position in its array in the batch
-  outcome: SyncOutcome;
-  reason?: string; // translated, for refused records
-  field?: string; // the field at fault, for refused records
-  reviewState?: "pending" | "approved" | "rejected" | "returned";
-};
-export type SyncResponse = { acks: SyncAck[] };
+export type SyncBatch = z.infer<typeof syncBatch>;

@@ -43,6 +43,12 @@ test("a volunteer downloads the pack, syncs a batch twice and uploads a photo", 
   ]);
   const again = await (await sync()).json();
   expect(again.acks.map((a: { outcome: string }) => a.outcome)).toEqual(["already_had", "already_had", "refused"]);
+  // A refusal the data layer decides (a code) reaches the phone as a reason in the person's language.
+  const unknownTaxon = { ...good, id: crypto.randomUUID(), taxonId: crypto.randomUUID() };
+  const spanish = await api.post(`/api/events/${eventId}/sync`, { headers: { ...headers, "accept-language": "es" }, data: { sightings: [unknownTaxon] } });
+  expect((await spanish.json()).acks).toEqual([
+    { kind: "sighting", id: unknownTaxon.id, index: 0, outcome: "refused", field: "taxonId", reason: "El servidor no conoce esta especie. Elígela de nuevo en la lista de especies." },
+  ]);
 
   const mine = await (await api.get(`/api/events/${eventId}/sightings/mine`, { headers: json })).json();
   expect(mine.sightings).toHaveLength(1);

@@ -2,6 +2,7 @@ import { listMySightings } from "@/db/queries/my-sightings";
 import { requireEventRole } from "@/server/auth/guard";
 import { handle } from "@/lib/http/errors";
 import { jsonWithEtag } from "@/lib/http/etag";
+import type { MineResponse } from "@/lib/sync/mine";
 
 type Ctx = { params: Promise<{ eventId: string }> };
 
@@ -10,5 +11,5 @@ type Ctx = { params: Promise<{ eventId: string }> };
 export const GET = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await params;
   const permit = await requireEventRole(eventId, "volunteer");
-  return jsonWithEtag(request, { sightings: await listMySightings(permit.user.id, eventId) });
+  return jsonWithEtag(request, { sightings: await listMySightings(permit.user.id, eventId) } satisfies MineResponse);
 });
