@@ -2,12 +2,13 @@ import "server-only";
 import { and, asc, count, eq, ne, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventSpecies, events, organisations, taxa, zones } from "../schema";
+import type { EventStatus } from "@/lib/domain";
 
 export type EventSummary = {
   id: string;
   slug: string;
   name: string;
-  status: "draft" | "open" | "closed";
+  status: EventStatus;
   startsAt: Date;
   endsAt: Date;
   timeZone: string;

@@ -2,11 +2,12 @@ import "server-only";
 import { and, desc, eq, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { photos, reviews, sightings, taxa } from "../schema";
+import type { ReviewState } from "@/lib/domain";
 
 // A volunteer's own sightings at one event with their review state (the field log's "sent"
 // list): for returned ones the coordinator's question, for rejected ones the reason.
 export type MySighting = {
-  id: string; version: number; reviewState: "pending" | "approved" | "rejected" | "returned";
+  id: string; version: number; reviewState: ReviewState;
   taxonId: string | null; scientificName: string | null; description: string; count: number; countIsEstimate: boolean;
   observedAt: string; latitude: number; longitude: number; accuracyM: number; zoneId: string | null; sessionId: string | null;
   notes: string; photoIds: string[];

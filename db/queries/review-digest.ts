@@ -1,6 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import type { ReviewStateName } from "@/lib/review/filters";
+import type { ReviewState } from "@/lib/domain";
 import { getDb } from "../client";
 
 // Gathers review decisions into one digest mail per volunteer: a volunteer's waiting
@@ -10,7 +10,7 @@ import { getDb } from "../client";
 // sending is the outbox's job (retried with back-off; the notices stay linked to it).
 
 export type DigestItem = {
-  reviewId: number; decidedAt: Date; fromState: ReviewStateName; toState: ReviewStateName; reason: string; message: string;
+  reviewId: number; decidedAt: Date; fromState: ReviewState; toState: ReviewState; reason: string; message: string;
   fromTaxon: string | null; toTaxon: string | null; taxonChanged: boolean; count: number; observedAt: Date;
   eventName: string; timeZone: string; description: string;
 };

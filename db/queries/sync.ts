@@ -11,6 +11,7 @@ import { getDb, type Db } from "../client";
 import { countSessions, events, reviews, sightings, taxa, zones } from "../schema";
 import { eventAccess } from "./auth";
 import { refreshCheckMarks } from "./check-marks";
+import type { ReviewState } from "@/lib/domain";
 
 // The server half of the field log's sync (issue 5): each record of a batch is parsed and
 // judged on its own, the good ones are stored in one transaction, and every record gets
@@ -18,7 +19,6 @@ import { refreshCheckMarks } from "./check-marks";
 // Ids are made on the device, so a resent batch changes nothing and answers already_had.
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
-type ReviewState = "pending" | "approved" | "rejected" | "returned";
 type Reason =
   | "event_not_open" | "not_member" | "unknown_taxon" | "unknown_zone" | "kind_not_allowed"
   | "ends_before_start" | "complete_needs_end" | "unknown_session" | "description_required"

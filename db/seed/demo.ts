@@ -2,7 +2,7 @@ import { eq, sql } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as s from "../schema";
 import {
-  DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
+  DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, RETURN_QUESTIONS, SEED_REJECT_REASONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
   SECOND_PEOPLE, SECOND_ZONES, SETUP_EVENT, type DemoPerson, type DemoZone,
 } from "./demo-scenario";
 import { refreshCheckMarks } from "../queries/check-marks";
@@ -158,7 +158,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
           : r < 0.68 ? "approved" : r < 0.86 ? "pending" : r < 0.93 ? "rejected" : "returned";
         if (toState === "pending") continue;
         const base = { sightingId: row.id, reviewerId: reviewer, decidedAt, fromState: "pending" as const, toState };
-        if (toState === "rejected") reviewRows.push({ ...base, reason: pick(REJECT_REASONS) });
+        if (toState === "rejected") reviewRows.push({ ...base, reason: pick(SEED_REJECT_REASONS) });
         else if (toState === "returned") reviewRows.push({ ...base, message: row.taxonId ? pick(RETURN_QUESTIONS) : "Can you describe the hindwing colour? That would narrow it down a lot." });
         else reviewRows.push(base);
         await tx.update(s.sightings).set({ reviewState: toState, version: 2, updatedAt: decidedAt }).where(eq(s.sightings.id, row.id));

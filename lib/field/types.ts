@@ -1,10 +1,10 @@
 import type { SessionRecord, SightingRecord } from "@/lib/sync/records";
 import type { EventPack as ServerPack, PackSpecies as ServerSpecies } from "@/db/queries/pack";
+import type { DeviceState, ReviewState } from "@/lib/domain";
 
 // What the device keeps in IndexedDB. Every record goes to the outbox first and is sent
 // later; its device state (design.md "Words") says where it is on that way.
-export type DeviceState = "waiting" | "sending" | "sent" | "failed";
-export type ReviewState = "pending" | "approved" | "rejected" | "returned";
+export type { DeviceState, ReviewState } from "@/lib/domain";
 
 /** Why the last try did not go through, when it was not the record's fault. */
 export type TransientProblem = "offline" | "server" | "signin" | "busy";

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { SESSION_KINDS, type ReviewState } from "@/lib/domain";
 
 // The field log's sync batch: the one contract between the device (lib/field, IndexedDB
 // outbox) and the server (the sync route handler). Ids are made on the device (uuid v4),
@@ -16,7 +17,7 @@ const text = (max: number) => z.string().max(max).default("");
 export const sessionRecord = z.object({
   id: z.uuid(),
   zoneId: z.uuid().nullable(),
-  kind: z.enum(["timed_count", "walk", "plot_search"]),
+  kind: z.enum(SESSION_KINDS),
   startedAt: isoInstant,
   endedAt: isoInstant.nullable(),
   allSpeciesNoted: z.boolean(), // only true once ended: "all species noted"
@@ -61,6 +62,6 @@ export type SyncAck = {
   outcome: SyncOutcome;
   reason?: string; // translated, for refused records
   field?: string; // the field at fault, for refused records
-  reviewState?: "pending" | "approved" | "rejected" | "returned";
+  reviewState?: ReviewState;
 };
 export type SyncResponse = { acks: SyncAck[] };

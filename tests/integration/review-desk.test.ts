@@ -10,6 +10,7 @@ import { renderDigest } from "@/server/review/digest-mail";
 import { queueFilters } from "@/lib/review/filters";
 import { reviewPermitFor } from "@/server/review/permit";
 import { db, makeFixture, pointSql, refusal, sightingValues } from "./helpers";
+import type { EventRole, TaxonGroup } from "@/lib/domain";
 
 // The review desk's data layer and its guard, on the real database: who may review what,
 // decisions appended to the history with the state kept in step, optimistic concurrency,
@@ -22,7 +23,7 @@ const birds: string[] = [];
 const plants: string[] = [];
 const noFilters = queueFilters.parse({});
 
-async function person(key: string, eventId: string, role: "coordinator" | "volunteer" | "organiser", groups: ("birds" | "vascular_plants")[] = []) {
+async function person(key: string, eventId: string, role: EventRole, groups: TaxonGroup[] = []) {
   const [u] = await db().insert(s.users).values({ email: `${key}@desk.example.org`, name: key, locale: "fr" }).returning();
   await db().insert(s.eventMembers).values({ eventId, userId: u!.id, role, taxonGroups: groups });
   people[key] = u!.id;

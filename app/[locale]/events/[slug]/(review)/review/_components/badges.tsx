@@ -1,17 +1,17 @@
 "use client";
 
 import { useTranslations } from "next-intl";
-import type { CheckMarkName, ReviewStateName } from "@/lib/review/filters";
+import type { CheckMark, ReviewState } from "@/lib/domain";
 
 // Review states are told apart by word and icon as well as colour (design.md, "Look and feel").
-const STATE_LOOK: Record<ReviewStateName, { icon: string; cls: string }> = {
+const STATE_LOOK: Record<ReviewState, { icon: string; cls: string }> = {
   pending: { icon: "◷", cls: "border-heath-600 bg-heath-50 text-heath-900" },
   approved: { icon: "✓", cls: "border-reed-600 bg-reed-50 text-reed-900" },
   rejected: { icon: "✕", cls: "border-signal bg-signal-soft text-signal" },
   returned: { icon: "↩", cls: "border-ink-soft bg-paper-deep text-ink" },
 };
 
-export function StateBadge({ state }: { state: ReviewStateName }) {
+export function StateBadge({ state }: { state: ReviewState }) {
   const t = useTranslations("ReviewDesk.states");
   const look = STATE_LOOK[state];
   return (
@@ -22,11 +22,11 @@ export function StateBadge({ state }: { state: ReviewStateName }) {
   );
 }
 
-const MARK_ICON: Record<CheckMarkName, string> = {
+const MARK_ICON: Record<CheckMark, string> = {
   outside_area: "⌖", outside_dates: "◴", high_count: "▲", not_on_list: "?", sensitive_taxon: "◆", photo_missing: "▢", possible_duplicate: "≈", poor_accuracy: "◎",
 };
 
-export function MarkChips({ marks }: { marks: CheckMarkName[] }) {
+export function MarkChips({ marks }: { marks: CheckMark[] }) {
   const t = useTranslations("ReviewDesk.marks");
   if (!marks.length) return null;
   return (

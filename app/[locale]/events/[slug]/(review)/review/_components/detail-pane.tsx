@@ -1,7 +1,7 @@
 "use client";
 
 import { useLocale, useTranslations } from "next-intl";
-import type { CheckMarkName, ReviewStateName } from "@/lib/review/filters";
+import type { CheckMark, ReviewState } from "@/lib/domain";
 import { MarkChips, StateBadge } from "./badges";
 import type { DetailResponse } from "./desk-api";
 import { ZoneMap } from "./zone-map";
@@ -34,7 +34,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
           <StateBadge state={s.reviewState} />
           <span className="text-xs text-ink-soft">{t("version", { v: s.version })}</span>
         </div>
-        <MarkChips marks={s.checkMarks as CheckMarkName[]} />
+        <MarkChips marks={s.checkMarks as CheckMark[]} />
       </header>
       {s.sensitivity && s.sensitivity !== "open" ? (
         <p role="note" className="rounded border-2 border-heath-600 bg-heath-50 p-2 text-sm font-semibold text-heath-900">{t("sensitive")}</p>
@@ -101,7 +101,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
             {detail.history.map((h) => (
               <li key={h.id} className="border-l-4 border-reed-300 pl-2">
                 <span className="block text-ink-soft">{dt(h.decidedAt, "short")}</span>
-                {t("historyState", { who: h.reviewerName, from: tState(h.fromState as ReviewStateName), to: tState(h.toState as ReviewStateName) })}
+                {t("historyState", { who: h.reviewerName, from: tState(h.fromState as ReviewState), to: tState(h.toState as ReviewState) })}
                 {h.fromTaxon !== h.toTaxon ? <span className="block">{t("historyTaxon", { from: h.fromTaxon ?? "—", to: h.toTaxon ?? "—" })}</span> : null}
                 {h.reason ? <span className="block">{t("reason", { reason: reasonText(h.reason) })}</span> : null}
                 {h.message ? <span className="block whitespace-pre-line">{t("message", { message: h.message })}</span> : null}

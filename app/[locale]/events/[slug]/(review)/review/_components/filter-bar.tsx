@@ -1,13 +1,13 @@
 "use client";
 
 import { useTranslations } from "next-intl";
-import type { CheckMarkName, ReviewStateName, TaxonGroupName } from "@/lib/review/filters";
+import type { CheckMark, ReviewState, TaxonGroup } from "@/lib/domain";
 import type { Filters } from "./desk-api";
 
 type Props = {
   filters: Filters; onChange: (f: Filters) => void;
   zones: { id: string; name: string }[]; volunteers: { id: string; name: string }[];
-  groups: TaxonGroupName[]; marks: CheckMarkName[]; states: ReviewStateName[];
+  groups: TaxonGroup[]; marks: CheckMark[]; states: ReviewState[];
 };
 
 const select = "block min-h-10 w-full rounded border-2 border-reed-700 bg-white px-2 text-sm";

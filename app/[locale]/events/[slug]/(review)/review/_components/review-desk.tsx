@@ -6,8 +6,8 @@ import useSWR from "swr";
 import useSWRInfinite from "swr/infinite";
 import { secondaryButtonClass } from "@/components/ui/field";
 import type { QueueItem } from "@/db/queries/review";
-import { DESK_KEYS, type RejectReason } from "@/lib/review/decisions";
-import type { CheckMarkName, ReviewStateName, TaxonGroupName } from "@/lib/review/filters";
+import { DESK_KEYS } from "@/lib/review/decisions";
+import type { CheckMark, RejectReason, ReviewState, TaxonGroup } from "@/lib/domain";
 import { MarkChips, StateBadge } from "./badges";
 import { DecisionPanel, type DecisionBody, type Mode } from "./decision-panel";
 import { DeskError, filterParams, getJson, postJson, type DetailResponse, type Filters, type QueueResponse } from "./desk-api";
@@ -16,7 +16,7 @@ import { FilterBar } from "./filter-bar";
 
 type Props = {
   eventId: string; timeZone: string; zones: { id: string; name: string }[]; volunteers: { id: string; name: string }[];
-  groups: TaxonGroupName[]; marks: CheckMarkName[]; states: ReviewStateName[]; reasons: RejectReason[];
+  groups: TaxonGroup[]; marks: CheckMark[]; states: ReviewState[]; reasons: RejectReason[];
 };
 
 const TO_STATE = { approve: "approved", reject: "rejected", return: "returned" } as const;
@@ -70,7 +70,7 @@ export function ReviewDesk(props: Props) {
   }, [current]);
 
   const decide = useCallback(async (item: QueueItem, body: DecisionBody) => {
-    const toState: ReviewStateName = body.action === "reidentify" ? item.reviewState : TO_STATE[body.action];
+    const toState: ReviewState = body.action === "reidentify" ? item.reviewState : TO_STATE[body.action];
     // The version the coordinator is looking at: the detail pane may be fresher than the list.
     const shown = detail.data?.sighting.id === item.id ? detail.data.sighting.version : 0;
     const seenVersion = Math.max(item.version, shown);

@@ -6,6 +6,7 @@ import useSWR from "swr";
 import { buttonClass } from "@/components/ui/field";
 import { fetcher, send } from "@/lib/http/client";
 import { ReportTable, type ReportLine } from "./report-table";
+import type { Sensitivity } from "@/lib/domain";
 
 type Species = { id: string; scientificName: string; rank: string; taxonGroup: string; sensitivity: string; names: Record<string, string> };
 type Summary = { rows: number; newTaxa: number; addedToList: number; alreadyListed: number; namesAdded: number; namesKept: number };
@@ -92,7 +93,7 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
                   <th scope="row" className="py-1 font-normal italic">{s.scientificName}</th>
                   <td>{s.names[locale] ?? s.names.en ?? ""}</td>
                   <td>{tGroup(s.taxonGroup as never)}</td>
-                  <td>{t(`sensitivity.${s.sensitivity as "open" | "generalised" | "restricted"}`)}</td>
+                  <td>{t(`sensitivity.${s.sensitivity as Sensitivity}`)}</td>
                 </tr>
               ))}
             </tbody>
