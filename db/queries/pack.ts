@@ -1,35 +1,30 @@
 import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
+import type { EventStatus, Sensitivity } from "@/lib/domain";
+import type { ArealGeometry, ZoneCollection } from "@/lib/geo/areal";
 import { getDb } from "../client";
 import { eventSpecies, events, taxa, taxonNames, zones } from "../schema";
 
 // The event pack (issue 5): everything the field log needs to work offline at one event,
 // stored on the device and refreshed only when its ETag changes.
 
-type Geometry = { type: string; coordinates: unknown };
-export type ZoneFeature = {
-  type: "Feature";
-  id: string;
-  geometry: Geometry;
-  properties: { name: string; habitat: string; description: string };
-};
 export type PackSpecies = {
   id: string;
   scientificName: string;
   rank: string;
   taxonGroup: string;
-  sensitivity: "open" | "generalised" | "restricted";
+  sensitivity: Sensitivity;
   onList: boolean; // on the event's species list; others may still be recorded (and get a check mark)
   names: Record<string, string>; // common names in the event's languages, where known
 };
 export type EventPack = {
   event: {
-    id: string; name: string; status: "draft" | "open" | "closed"; startsAt: string; endsAt: string; timeZone: string;
+    id: string; name: string; status: EventStatus; startsAt: string; endsAt: string; timeZone: string;
     languages: string[]; sessionKinds: string[]; accuracyLimitM: number;
     photoRules: { requiredForSensitive: boolean; requiredOffList: boolean };
-    area: Geometry | null;
+    area: ArealGeometry | null;
   };
-  zones: { type: "FeatureCollection"; features: ZoneFeature[] };
+  zones: ZoneCollection;
   species: PackSpecies[];
 };
 
@@ -68,12 +63,12 @@ export async function getEventPack(eventId: string): Promise<EventPack | null> {
       id: event.id, name: event.name, status: event.status, startsAt: event.startsAt.toISOString(), endsAt: event.endsAt.toISOString(),
       timeZone: event.timeZone, languages: event.languages, sessionKinds: event.sessionKinds, accuracyLimitM: event.accuracyLimitM,
       photoRules: { requiredForSensitive: event.photoRequiredSensitive, requiredOffList: event.photoRequiredOffList },
-      area: event.area ? (JSON.parse(event.area) as Geometry) : null,
+      area: event.area ? (JSON.parse(event.area) as ArealGeometry) : null,
     },
     zones: {
       type: "FeatureCollection",
       features: zoneRows.map((z) => ({
-        type: "Feature", id: z.id, geometry: JSON.parse(z.geometry) as Geometry,
+        type: "Feature", id: z.id, geometry: JSON.parse(z.geometry) as ArealGeometry,
         properties: { name: z.name, habitat: z.habitat, description: z.description },
       })),
     },

@@ -4,6 +4,7 @@ import type { QueueFilters } from "@/lib/review/filters";
 import { getDb } from "../client";
 import { refreshCheckMarks, type Executor } from "./check-marks";
 import type { CheckMark, ReviewState, TaxonGroup } from "@/lib/domain";
+import type { ArealGeometry } from "@/lib/geo/areal";
 
 // The review desk's data: the queue (keyset pagination on observed time and id, so a deep
 // page costs what the first one does), the detail of one sighting, and decisions, each
@@ -203,12 +204,11 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
     history: history.rows,
     nearby: nearby.rows,
     map: {
-      area: m?.area ? (JSON.parse(m.area) as GeoJsonPolygon) : null,
-      zones: (m?.zones ?? []).map((z) => ({ id: z.id, name: z.name, geometry: JSON.parse(z.geometry) as GeoJsonPolygon })),
+      area: m?.area ? (JSON.parse(m.area) as ArealGeometry) : null,
+      zones: (m?.zones ?? []).map((z) => ({ id: z.id, name: z.name, geometry: JSON.parse(z.geometry) as ArealGeometry })),
     },
   };
 }
-export type GeoJsonPolygon = { type: "Polygon"; coordinates: [number, number][][] };
 export type SightingDetail = Extract<Awaited<ReturnType<typeof sightingDetail>>, { check: "ok" }>;
 
 export type Decision =

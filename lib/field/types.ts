@@ -57,10 +57,8 @@ export type LocalPhoto = {
 // The event pack as the server sends it (GET /api/events/{id}/pack, db/queries/pack.ts).
 
 export type PackSpecies = ServerSpecies;
-export type PolygonGeometry = { type: "Polygon"; coordinates: number[][][] } | { type: "MultiPolygon"; coordinates: number[][][][] };
-export type ZoneFeature = { type: "Feature"; id: string; properties: { name: string; habitat: string; description?: string }; geometry: PolygonGeometry };
-export type ZoneCollection = { type: "FeatureCollection"; features: ZoneFeature[] };
-export type EventPack = Omit<ServerPack, "zones"> & { zones: ZoneCollection };
+export type { ZoneCollection, ZoneFeature } from "@/lib/geo/areal";
+export type EventPack = ServerPack;
 export type StoredPack = { eventId: string; etag: string | null; pack: EventPack; fetchedAt: number };
 
 /** One of the person's own sightings as the server has it (GET …/sightings/mine). */

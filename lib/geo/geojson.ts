@@ -4,12 +4,12 @@
 // Pure: no database, no framework.
 
 import { HABITATS, type Habitat } from "@/lib/domain";
+import type { ArealGeometry as Geometry } from "./areal";
 
 export const MAX_FEATURES = 200;
 export const MAX_POSITIONS = 100_000;
 export const MAX_ZONE_NAME = 120;
 
-export type Geometry = { type: "Polygon"; coordinates: number[][][] } | { type: "MultiPolygon"; coordinates: number[][][][] };
 
 export type GeoProblemCode =
   | "notFeatureCollection" | "noFeatures" | "tooManyFeatures" | "tooManyPositions" | "crsNotWgs84"

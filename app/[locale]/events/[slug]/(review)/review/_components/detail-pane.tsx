@@ -3,8 +3,8 @@
 import { useLocale, useTranslations } from "next-intl";
 import type { CheckMark, ReviewState } from "@/lib/domain";
 import { MarkChips, StateBadge } from "./badges";
+import { ZoneMap } from "@/components/zone-map";
 import type { DetailResponse } from "./desk-api";
-import { ZoneMap } from "./zone-map";
 
 type Props = { detail: DetailResponse; timeZone: string; eventId: string };
 
@@ -63,7 +63,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
         {s.notes ? (<><dt className="font-semibold">{t("notes")}</dt><dd className="whitespace-pre-line">{s.notes}</dd></>) : null}
       </dl>
       <figure className="space-y-1">
-        <ZoneMap area={detail.map.area} zones={detail.map.zones} point={{ lon: s.lon, lat: s.lat, accuracyM: s.accuracyM }} zoneId={s.zoneId} label={t("map")} />
+        <ZoneMap area={detail.map.area} zones={detail.map.zones} point={{ longitude: s.lon, latitude: s.lat, accuracyM: s.accuracyM }} zoneId={s.zoneId} label={t("map")} />
         <figcaption className="text-xs text-ink-soft">{t("mapLegend")}</figcaption>
       </figure>
       <section aria-labelledby="photos-title">
