@@ -2,7 +2,8 @@
 
 import { useLocale, useTranslations } from "next-intl";
 import type { CheckMark, ReviewState } from "@/lib/domain";
-import { MarkChips, StateBadge } from "./badges";
+import { ReviewStateMark } from "@/components/state-mark";
+import { MarkChips } from "./mark-chips";
 import { ZoneMap } from "@/components/zone-map";
 import type { DetailResponse } from "./desk-api";
 
@@ -13,7 +14,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
   const t = useTranslations("ReviewDesk.detail");
   const tKind = useTranslations("ReviewDesk.sessionKinds");
   const tQueue = useTranslations("ReviewDesk.queue");
-  const tState = useTranslations("ReviewDesk.states");
+  const tState = useTranslations("StateMark.review");
   const tReason = useTranslations("ReviewDesk.reasons");
   const locale = useLocale();
   const s = detail.sighting;
@@ -31,7 +32,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
           {s.scientificName ? <i className="ml-2 font-normal text-ink-soft">{s.scientificName}</i> : null}
         </h2>
         <div className="flex flex-wrap items-center gap-2">
-          <StateBadge state={s.reviewState} />
+          <ReviewStateMark state={s.reviewState} />
           <span className="text-xs text-ink-soft">{t("version", { v: s.version })}</span>
         </div>
         <MarkChips marks={s.checkMarks as CheckMark[]} />

@@ -8,7 +8,8 @@ import { secondaryButtonClass } from "@/components/ui/field";
 import type { QueueItem } from "@/db/queries/review";
 import { DESK_KEYS } from "@/lib/review/decisions";
 import type { CheckMark, RejectReason, ReviewState, TaxonGroup } from "@/lib/domain";
-import { MarkChips, StateBadge } from "./badges";
+import { ReviewStateMark } from "@/components/state-mark";
+import { MarkChips } from "./mark-chips";
 import { DecisionPanel, type DecisionBody, type Mode } from "./decision-panel";
 import { DeskError, filterParams, getJson, postJson, type DetailResponse, type Filters, type QueueResponse } from "./desk-api";
 import { DetailPane } from "./detail-pane";
@@ -164,7 +165,7 @@ export function ReviewDesk(props: Props) {
         <section aria-label={t("counts")}>
           <ul className="flex flex-wrap gap-2 text-sm">
             {props.states.map((s) => (
-              <li key={s} className="flex items-center gap-1"><StateBadge state={s} /><span>{counts ? counts[s] : "…"}</span></li>
+              <li key={s} className="flex items-center gap-1"><ReviewStateMark state={s} /><span>{counts ? counts[s] : "…"}</span></li>
             ))}
           </ul>
         </section>
@@ -232,7 +233,7 @@ export function ReviewDesk(props: Props) {
                     </td>
                     <td className="p-2 text-right tabular-nums">{item.countIsEstimate ? t("queue.about", { count: item.count }) : item.count}</td>
                     <td className="p-2">{item.volunteerName}</td>
-                    <td className="p-2"><StateBadge state={item.reviewState} /></td>
+                    <td className="p-2"><ReviewStateMark state={item.reviewState} /></td>
                   </tr>
                 ))}
               </tbody>
