@@ -7,16 +7,20 @@ import {
   CHECK_MARKS, EVENT_ROLES, EVENT_STATUSES, HABITATS, MAIL_STATUSES, MEMBERSHIP_ACTIONS, ORG_ROLES, REVIEW_STATES,
   SENSITIVITIES, SESSION_KINDS, TAXON_GROUPS, TAXON_RANKS,
 } from "../lib/domain";
+import { pointFromWkbHex, type LonLat } from "../lib/geo/ewkb";
 
-// PostGIS columns. Geometries are written with ST_GeomFromGeoJSON / ST_MakePoint and read
-// back with ST_AsGeoJSON / ST_X / ST_Y in the queries, so the driver value is kept raw.
-// Areas and zones may be a Polygon or a MultiPolygon (an event area in two parts, a zone
-// split by a river); a CHECK on each column keeps any other geometry out.
+// PostGIS columns. Areas and zones are written with ST_GeomFromGeoJSON and read back with
+// ST_AsGeoJSON in the queries, so their driver value is kept raw; they may be a Polygon or
+// a MultiPolygon (an event area in two parts, a zone split by a river), and a CHECK on
+// each column keeps any other geometry out. A point is a longitude and a latitude: written
+// as ST_MakePoint in WGS 84, read from the (E)WKB that PostgreSQL returns.
 const areal = customType<{ data: string; driverData: string }>({
   dataType: () => "geometry(Geometry,4326)",
 });
-const point = customType<{ data: string; driverData: string }>({
+const point = customType<{ data: LonLat; driverData: string }>({
   dataType: () => "geometry(Point,4326)",
+  toDriver: ({ longitude, latitude }) => sql`ST_SetSRID(ST_MakePoint(${longitude}, ${latitude}), 4326)`,
+  fromDriver: (value) => pointFromWkbHex(value),
 });
 
 const createdAt = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
