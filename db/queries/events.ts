@@ -2,16 +2,8 @@ import "server-only";
 import { and, asc, count, eq, ne, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventSpecies, events, organisations, taxa, zones } from "../schema";
-import type { EventStatus } from "@/lib/domain";
 
-export type EventSummary = {
-  id: string;
-  slug: string;
-  name: string;
-  status: EventStatus;
-  startsAt: Date;
-  endsAt: Date;
-  timeZone: string;
+export type EventSummary = Pick<typeof events.$inferSelect, "id" | "slug" | "name" | "status" | "startsAt" | "endsAt" | "timeZone"> & {
   organisationName: string;
   zoneCount: number;
   speciesCount: number;

@@ -1,6 +1,6 @@
 import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
-import type { EventStatus, Sensitivity } from "@/lib/domain";
+import type { EventStatus } from "@/lib/domain";
 import type { ArealGeometry, ZoneCollection } from "@/lib/geo/areal";
 import { getDb } from "../client";
 import { eventSpecies, events, taxa, taxonNames, zones } from "../schema";
@@ -8,12 +8,7 @@ import { eventSpecies, events, taxa, taxonNames, zones } from "../schema";
 // The event pack (issue 5): everything the field log needs to work offline at one event,
 // stored on the device and refreshed only when its ETag changes.
 
-export type PackSpecies = {
-  id: string;
-  scientificName: string;
-  rank: string;
-  taxonGroup: string;
-  sensitivity: Sensitivity;
+export type PackSpecies = Pick<typeof taxa.$inferSelect, "id" | "scientificName" | "rank" | "taxonGroup" | "sensitivity"> & {
   onList: boolean; // on the event's species list; others may still be recorded (and get a check mark)
   names: Record<string, string>; // common names in the event's languages, where known
 };

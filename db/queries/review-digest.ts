@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import type { ReviewState } from "@/lib/domain";
 import { getDb } from "../client";
+import type { users } from "../schema";
 
 // Gathers review decisions into one digest mail per volunteer: a volunteer's waiting
 // notices are composed once the oldest has waited `delaySeconds` (an hour by default), so
@@ -14,7 +15,7 @@ export type DigestItem = {
   fromTaxon: string | null; toTaxon: string | null; taxonChanged: boolean; count: number; observedAt: Date;
   eventName: string; timeZone: string; description: string;
 };
-export type DigestRecipient = { id: string; email: string; name: string | null; locale: string };
+export type DigestRecipient = Pick<typeof users.$inferSelect, "id" | "email" | "name" | "locale">;
 export type RenderedMail = { subject: string; text: string; html: string };
 
 export async function composeDigests(delaySeconds: number, render: (to: DigestRecipient, items: DigestItem[]) => RenderedMail): Promise<number> {

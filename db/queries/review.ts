@@ -2,8 +2,9 @@ import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import type { QueueFilters } from "@/lib/review/filters";
 import { getDb } from "../client";
+import type { events } from "../schema";
 import { refreshCheckMarks, type Executor } from "./check-marks";
-import type { CheckMark, ReviewState, TaxonGroup } from "@/lib/domain";
+import type { CheckMark, ReviewState, Sensitivity, TaxonGroup } from "@/lib/domain";
 import type { ArealGeometry } from "@/lib/geo/areal";
 
 // The review desk's data: the queue (keyset pagination on observed time and id, so a deep
@@ -11,7 +12,7 @@ import type { ArealGeometry } from "@/lib/geo/areal";
 // appended to the reviews table with the sighting's state kept in step in one transaction.
 
 /** Who is reviewing where: the event, and the taxon groups they may see (empty: every group). */
-export type ReviewScope = { eventId: string; taxonGroups: string[]; locale: string };
+export type ReviewScope = { eventId: string; taxonGroups: TaxonGroup[]; locale: string };
 
 export const QUEUE_PAGE_SIZE = 50;
 export const MAX_BULK = 500;
@@ -116,7 +117,7 @@ export async function queueChoices(scope: ReviewScope) {
   return { zones: zones.rows, volunteers: volunteers.rows };
 }
 
-export type ReviewEvent = { id: string; slug: string; name: string; timeZone: string; startsAt: Date; endsAt: Date; accuracyLimitM: number };
+export type ReviewEvent = Pick<typeof events.$inferSelect, "id" | "slug" | "name" | "timeZone" | "startsAt" | "endsAt" | "accuracyLimitM">;
 
 export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | null> {
   const { rows } = await getDb().execute<ReviewEvent>(sql`
@@ -129,7 +130,7 @@ export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | nul
 /** Where a sighting is and which group it belongs to, to check a reviewer's scope before showing or deciding it. */
 async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
   const { rows } = await db.execute<{
-    id: string; eventId: string; userId: string; reviewState: ReviewState; version: number; taxonId: string | null; taxonGroup: string | null;
+    id: string; eventId: string; userId: string; reviewState: ReviewState; version: number; taxonId: string | null; taxonGroup: TaxonGroup | null;
   }>(sql`
     SELECT s.id, s.event_id AS "eventId", s.user_id AS "userId", s.review_state AS "reviewState", s.version,
       s.taxon_id AS "taxonId", t.taxon_group::text AS "taxonGroup"
@@ -140,7 +141,7 @@ async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
 
 export type ScopeCheck = "ok" | "not_found" | "forbidden";
 
-function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: string | null } | null): ScopeCheck {
+function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: TaxonGroup | null } | null): ScopeCheck {
   if (!place || place.eventId !== scope.eventId) return "not_found";
   if (scope.taxonGroups.length && !(place.taxonGroup && scope.taxonGroups.includes(place.taxonGroup))) return "forbidden";
   return "ok";
@@ -154,7 +155,7 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
   const [main, photos, history, nearby, map] = await Promise.all([
     db.execute<{
       id: string; reviewState: ReviewState; version: number; taxonId: string | null; scientificName: string | null; commonName: string | null;
-      taxonGroup: string | null; sensitivity: string | null; description: string; count: number; countIsEstimate: boolean; observedAt: string;
+      taxonGroup: TaxonGroup | null; sensitivity: Sensitivity | null; description: string; count: number; countIsEstimate: boolean; observedAt: string;
       receivedAt: string; lon: number; lat: number; accuracyM: number; zoneId: string | null; zoneName: string | null; notes: string;
       volunteerId: string; volunteerName: string; checkMarks: CheckMark[];
       sessionId: string | null; sessionKind: string | null; sessionStartedAt: string | null; sessionEndedAt: string | null;
@@ -243,7 +244,7 @@ export async function decide(scope: ReviewScope, reviewerId: string, sightingId:
     let toTaxon = p.taxonId;
     if (d.action === "reidentify") {
       if (d.taxonId === p.taxonId) return { outcome: "bad_taxon", why: "same" };
-      const { rows } = await tx.execute<{ group: string }>(sql`SELECT taxon_group::text AS group FROM taxa WHERE id = ${d.taxonId}`);
+      const { rows } = await tx.execute<{ group: TaxonGroup }>(sql`SELECT taxon_group::text AS group FROM taxa WHERE id = ${d.taxonId}`);
       if (!rows[0]) return { outcome: "bad_taxon", why: "unknown" };
       if (scope.taxonGroups.length && !scope.taxonGroups.includes(rows[0].group)) return { outcome: "bad_taxon", why: "out_of_scope" };
       toTaxon = d.taxonId;
@@ -300,7 +301,7 @@ export async function bulkApprove(scope: ReviewScope, reviewerId: string, f: Que
 /** Taxa a reviewer may choose when re-identifying: by common or scientific name, within their groups. */
 export async function searchTaxa(scope: ReviewScope, q: string, limit = 12) {
   const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-  const { rows } = await getDb().execute<{ id: string; scientificName: string; commonName: string | null; taxonGroup: string; onList: boolean }>(sql`
+  const { rows } = await getDb().execute<{ id: string; scientificName: string; commonName: string | null; taxonGroup: TaxonGroup; onList: boolean }>(sql`
     SELECT t.id, t.scientific_name AS "scientificName", t.taxon_group::text AS "taxonGroup",
       (SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = t.id) AS "commonName",
       EXISTS (SELECT 1 FROM event_species es WHERE es.event_id = ${scope.eventId} AND es.taxon_id = t.id) AS "onList"

@@ -2,19 +2,12 @@
 
 import useSWR from "swr";
 import { ReviewStateMark } from "@/components/state-mark";
-import type { ReviewState } from "@/lib/domain";
+import type { LiveFigures } from "@/db/queries/results";
+import type { Completeness } from "@/lib/results/live";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
-type Live = {
-  perHour: { hour: string; sightings: number }[];
-  activeVolunteers: { lastHour: number; today: number; total: number };
-  backlog: Record<ReviewState, number>;
-  completeness: {
-    observed: number; chao1: number; chao1Lower: number; chao1Upper: number; share: number; coverage: number;
-    zones: { id: string; name: string; observed: number; undetected: number; coverage: number; coverageDeficit: number; individuals: number }[];
-  };
-  at: string;
-};
+// The live handler's answer (app/api/events/[eventId]/live), dates as JSON strings.
+type Live = LiveFigures & { completeness: Completeness; at: string };
 
 export type LiveLabels = Record<
   "perHour" | "volunteers" | "lastHour" | "today" | "total" | "backlog" |

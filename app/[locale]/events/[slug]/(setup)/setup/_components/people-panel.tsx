@@ -6,7 +6,7 @@ import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import useSWR from "swr";
 import { inviteInput, type InviteInput } from "@/app/api/events/[eventId]/setup/members/schema";
-import { EVENT_ROLES, TAXON_GROUPS, type EventRole as Role, type TaxonGroup as Group } from "@/lib/domain";
+import { EVENT_ROLES, TAXON_GROUPS, type EventRole as Role, type MembershipAction, type TaxonGroup as Group } from "@/lib/domain";
 import { roleChangeInput, type RoleChangeInput } from "@/app/api/events/[eventId]/setup/members/[userId]/schema";
 import { buttonClass, Field, inputClass, secondaryButtonClass } from "@/components/ui/field";
 import { locales } from "@/lib/i18n/routing";
@@ -15,7 +15,7 @@ import { fetcher, send } from "@/lib/http/client";
 
 type Member = { userId: string; name: string | null; email: string; role: Role; taxonGroups: Group[] };
 type Pending = { id: string; email: string; role: Role; taxonGroups: Group[]; createdAt: string; selfService: boolean };
-type LogLine = { id: number; at: string; action: "invited" | "joined" | "role_changed" | "removed" | "invitation_revoked"; subjectEmail: string; fromRole: Role | null; toRole: Role | null; taxonGroups: Group[] | null; actorEmail: string | null };
+type LogLine = { id: number; at: string; action: MembershipAction; subjectEmail: string; fromRole: Role | null; toRole: Role | null; taxonGroups: Group[] | null; actorEmail: string | null };
 type People = { members: Member[]; pending: Pending[]; log: LogLine[] };
 
 function GroupBoxes({ register, name, legend }: { register: ReturnType<typeof useForm<{ taxonGroups: Group[] }>>["register"]; name: "taxonGroups"; legend: string }) {
