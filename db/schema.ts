@@ -3,41 +3,40 @@ import {
   bigint, bigserial, boolean, check, customType, index, integer, jsonb, pgEnum, pgTable,
   primaryKey, real, smallint, text, timestamp, uniqueIndex, uuid, varchar,
 } from "drizzle-orm/pg-core";
+import {
+  CHECK_MARKS, EVENT_ROLES, EVENT_STATUSES, HABITATS, MAIL_STATUSES, MEMBERSHIP_ACTIONS, ORG_ROLES, REVIEW_STATES,
+  SENSITIVITIES, SESSION_KINDS, TAXON_GROUPS, TAXON_RANKS,
+} from "../lib/domain";
+import { pointFromWkbHex, type LonLat } from "../lib/geo/ewkb";
 
-// PostGIS columns. Geometries are written with ST_GeomFromGeoJSON / ST_MakePoint and read
-// back with ST_AsGeoJSON / ST_X / ST_Y in the queries, so the driver value is kept raw.
-// Areas and zones may be a Polygon or a MultiPolygon (an event area in two parts, a zone
-// split by a river); a CHECK on each column keeps any other geometry out.
+// PostGIS columns. Areas and zones are written with ST_GeomFromGeoJSON and read back with
+// ST_AsGeoJSON in the queries, so their driver value is kept raw; they may be a Polygon or
+// a MultiPolygon (an event area in two parts, a zone split by a river), and a CHECK on
+// each column keeps any other geometry out. A point is a longitude and a latitude: written
+// as ST_MakePoint in WGS 84, read from the (E)WKB that PostgreSQL returns.
 const areal = customType<{ data: string; driverData: string }>({
   dataType: () => "geometry(Geometry,4326)",
 });
-const point = customType<{ data: string; driverData: string }>({
+const point = customType<{ data: LonLat; driverData: string }>({
   dataType: () => "geometry(Point,4326)",
+  toDriver: ({ longitude, latitude }) => sql`ST_SetSRID(ST_MakePoint(${longitude}, ${latitude}), 4326)`,
+  fromDriver: (value) => pointFromWkbHex(value),
 });
 
 const createdAt = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
 
-// ---------------------------------------------------------------- enums (design.md "Words")
-export const reviewState = pgEnum("review_state", ["pending", "approved", "rejected", "returned"]);
-export const eventRole = pgEnum("event_role", ["organiser", "coordinator", "volunteer"]);
-export const orgRole = pgEnum("org_role", ["organiser", "member"]);
-export const habitatKind = pgEnum("habitat_kind", [
-  "interior", "edge", "wetland", "open_water", "grassland", "woodland", "urban", "other",
-]);
-export const taxonGroup = pgEnum("taxon_group", [
-  "birds", "vascular_plants", "insects", "fungi", "mammals", "amphibians_reptiles", "molluscs", "other",
-]);
-export const taxonRank = pgEnum("taxon_rank", ["family", "genus", "species", "subspecies", "variety", "form"]);
-// open: shown as recorded; generalised: public locations coarsened; restricted: exact
-// location seen only by the event's organisers and coordinators.
-export const sensitivity = pgEnum("sensitivity", ["open", "generalised", "restricted"]);
-export const sessionKind = pgEnum("session_kind", ["timed_count", "walk", "plot_search"]);
-export const eventStatus = pgEnum("event_status", ["draft", "open", "closed"]);
-export const checkMark = pgEnum("check_mark", [
-  "outside_area", "outside_dates", "high_count", "not_on_list", "sensitive_taxon",
-  "photo_missing", "possible_duplicate", "poor_accuracy",
-]);
-export const outboxStatus = pgEnum("outbox_status", ["queued", "sending", "sent", "failed"]);
+// ---------------------------------------------------------------- enums (design.md "Words"; the lists live in lib/domain.ts)
+export const reviewState = pgEnum("review_state", REVIEW_STATES);
+export const eventRole = pgEnum("event_role", EVENT_ROLES);
+export const orgRole = pgEnum("org_role", ORG_ROLES);
+export const habitatKind = pgEnum("habitat_kind", HABITATS);
+export const taxonGroup = pgEnum("taxon_group", TAXON_GROUPS);
+export const taxonRank = pgEnum("taxon_rank", TAXON_RANKS);
+export const sensitivity = pgEnum("sensitivity", SENSITIVITIES);
+export const sessionKind = pgEnum("session_kind", SESSION_KINDS);
+export const eventStatus = pgEnum("event_status", EVENT_STATUSES);
+export const checkMark = pgEnum("check_mark", CHECK_MARKS);
+export const outboxStatus = pgEnum("outbox_status", MAIL_STATUSES);
 
 // ---------------------------------------------------------------- sign-in (next-auth's shape)
 export const users = pgTable("users", {
@@ -327,7 +326,7 @@ export const signInAttempts = pgTable("sign_in_attempts", {
   at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
 }, (t) => [index("sign_in_attempts_key_at_idx").on(t.key, t.at)]);
 
-export const membershipAction = pgEnum("membership_action", ["invited", "joined", "role_changed", "removed", "invitation_revoked"]);
+export const membershipAction = pgEnum("membership_action", MEMBERSHIP_ACTIONS);
 
 // Every change to who holds which role in an event (append-only, like reviews).
 export const membershipLog = pgTable("membership_log", {

@@ -9,6 +9,7 @@ import { drizzle } from "drizzle-orm/node-postgres";
 import { sql } from "drizzle-orm";
 import { Pool } from "pg";
 import { reportRows, type BenchRow } from "./bench-report";
+import type { TaxonGroup } from "../lib/domain";
 
 createRequire(import.meta.url)("./no-server-only.cjs"); // before the data layer loads
 const schema = await import("../db/schema");
@@ -71,8 +72,8 @@ try {
     return median(ms);
   };
 
-  const all = { eventId, taxonGroups: [] as string[], locale: "en" };
-  const birds = { ...all, taxonGroups: ["birds"] };
+  const all = { eventId, taxonGroups: [] as TaxonGroup[], locale: "en" };
+  const birds = { ...all, taxonGroups: ["birds"] as TaxonGroup[] };
   const pendingNewest = queueFilters.parse({ state: "pending" });
   const deepPages = 200;
   let cursor: string | null = null;

@@ -1,5 +1,6 @@
 import "server-only";
 import { and, eq, gte, inArray, isNull, lt, sql } from "drizzle-orm";
+import type { EventRole, TaxonGroup } from "@/lib/domain";
 import { getDb } from "../client";
 import { eventMembers, events, invitations, membershipLog, organisationMembers, signInAttempts, users } from "../schema";
 
@@ -25,8 +26,8 @@ export async function setUserLocale(userId: string, locale: string): Promise<voi
 export type EventAccess = {
   eventId: string;
   organisationId: string;
-  role: "organiser" | "coordinator" | "volunteer" | null;
-  taxonGroups: string[];
+  role: EventRole | null;
+  taxonGroups: TaxonGroup[];
   isOrganisationOrganiser: boolean;
 };
 

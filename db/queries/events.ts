@@ -3,14 +3,7 @@ import { and, asc, count, eq, ne, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventSpecies, events, organisations, taxa, zones } from "../schema";
 
-export type EventSummary = {
-  id: string;
-  slug: string;
-  name: string;
-  status: "draft" | "open" | "closed";
-  startsAt: Date;
-  endsAt: Date;
-  timeZone: string;
+export type EventSummary = Pick<typeof events.$inferSelect, "id" | "slug" | "name" | "status" | "startsAt" | "endsAt" | "timeZone"> & {
   organisationName: string;
   zoneCount: number;
   speciesCount: number;

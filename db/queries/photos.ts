@@ -1,5 +1,6 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
+import type { TaxonGroup } from "@/lib/domain";
 import { getDb } from "../client";
 import { photos, sightings, taxa } from "../schema";
 import { refreshCheckMarks } from "./check-marks";
@@ -7,7 +8,7 @@ import { refreshCheckMarks } from "./check-marks";
 // Photos of sightings: the rows the photo handlers read and write. The pictures themselves
 // live in the S3 photo store (server/storage/s3.ts), under photos.storage_key.
 
-export type PhotoSighting = { id: string; userId: string; eventId: string; taxonGroup: string | null };
+export type PhotoSighting = Pick<typeof sightings.$inferSelect, "id" | "userId" | "eventId"> & { taxonGroup: TaxonGroup | null };
 
 /** The sighting a photo belongs to, if it is at this event. */
 export async function sightingForPhotos(sightingId: string, eventId: string): Promise<PhotoSighting | null> {

@@ -7,6 +7,7 @@ import { canonicalJson, computeResults, type Results } from "@/lib/results/compu
 import { METHOD_NOTES } from "@/lib/results/methods";
 import { diffRecords, inputFromRecords, inputHash, type InputRecord, type ReportChanges } from "@/lib/results/records";
 import { eventZones, loadInputRecords, taxaMeta } from "./results";
+import type { Sensitivity } from "@/lib/domain";
 
 export type ReportRow = {
   id: string;
@@ -111,7 +112,7 @@ export async function checkReport(eventId: string, version: number): Promise<{ s
 
 export type Occurrence = {
   id: string; observedAt: Date; lon: number; lat: number; accuracyM: number;
-  taxonId: string; count: number; sensitivity: "open" | "generalised" | "restricted";
+  taxonId: string; count: number; sensitivity: Sensitivity;
 };
 
 /**

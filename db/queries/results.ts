@@ -3,6 +3,7 @@ import { sql } from "drizzle-orm";
 import { getDb, type Db } from "../client";
 import { NO_ZONE, type ResultsInput, type ResultsTaxon } from "@/lib/results/compute";
 import type { InputRecord } from "@/lib/results/records";
+import type { ReviewState } from "@/lib/domain";
 
 type Tx = Pick<Db, "execute">;
 
@@ -75,7 +76,7 @@ export async function loadInputRecords(eventId: string, db: Tx = getDb()): Promi
 export type LiveFigures = {
   perHour: { hour: string; sightings: number }[];
   activeVolunteers: { lastHour: number; today: number; total: number };
-  backlog: Record<"pending" | "approved" | "rejected" | "returned", number>;
+  backlog: Record<ReviewState, number>;
 };
 
 /** The live board's counts: sightings per hour (last 48 hours of records), people, review backlog. */

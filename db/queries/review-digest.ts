@@ -1,7 +1,8 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import type { ReviewStateName } from "@/lib/review/filters";
+import type { ReviewState } from "@/lib/domain";
 import { getDb } from "../client";
+import type { users } from "../schema";
 
 // Gathers review decisions into one digest mail per volunteer: a volunteer's waiting
 // notices are composed once the oldest has waited `delaySeconds` (an hour by default), so
@@ -10,11 +11,11 @@ import { getDb } from "../client";
 // sending is the outbox's job (retried with back-off; the notices stay linked to it).
 
 export type DigestItem = {
-  reviewId: number; decidedAt: Date; fromState: ReviewStateName; toState: ReviewStateName; reason: string; message: string;
+  reviewId: number; decidedAt: Date; fromState: ReviewState; toState: ReviewState; reason: string; message: string;
   fromTaxon: string | null; toTaxon: string | null; taxonChanged: boolean; count: number; observedAt: Date;
   eventName: string; timeZone: string; description: string;
 };
-export type DigestRecipient = { id: string; email: string; name: string | null; locale: string };
+export type DigestRecipient = Pick<typeof users.$inferSelect, "id" | "email" | "name" | "locale">;
 export type RenderedMail = { subject: string; text: string; html: string };
 
 export async function composeDigests(delaySeconds: number, render: (to: DigestRecipient, items: DigestItem[]) => RenderedMail): Promise<number> {

@@ -1,24 +1,27 @@
 import "server-only";
 import { sql, type SQL } from "drizzle-orm";
-import type { CheckMarkName, QueueFilters, ReviewStateName, TaxonGroupName } from "@/lib/review/filters";
+import type { QueueFilters } from "@/lib/review/filters";
 import { getDb } from "../client";
+import type { events } from "../schema";
 import { refreshCheckMarks, type Executor } from "./check-marks";
+import type { CheckMark, ReviewState, Sensitivity, TaxonGroup } from "@/lib/domain";
+import type { ArealGeometry } from "@/lib/geo/areal";
 
 // The review desk's data: the queue (keyset pagination on observed time and id, so a deep
 // page costs what the first one does), the detail of one sighting, and decisions, each
 // appended to the reviews table with the sighting's state kept in step in one transaction.
 
 /** Who is reviewing where: the event, and the taxon groups they may see (empty: every group). */
-export type ReviewScope = { eventId: string; taxonGroups: string[]; locale: string };
+export type ReviewScope = { eventId: string; taxonGroups: TaxonGroup[]; locale: string };
 
 export const QUEUE_PAGE_SIZE = 50;
 export const MAX_BULK = 500;
 
 export type QueueItem = {
-  id: string; reviewState: ReviewStateName; version: number;
-  taxonId: string | null; scientificName: string | null; commonName: string | null; taxonGroup: TaxonGroupName | null; sensitive: boolean;
+  id: string; reviewState: ReviewState; version: number;
+  taxonId: string | null; scientificName: string | null; commonName: string | null; taxonGroup: TaxonGroup | null; sensitive: boolean;
   description: string; count: number; countIsEstimate: boolean; observedAt: string;
-  zoneName: string | null; volunteerName: string; checkMarks: CheckMarkName[]; photoCount: number;
+  zoneName: string | null; volunteerName: string; checkMarks: CheckMark[]; photoCount: number;
 };
 export type QueuePage = { items: QueueItem[]; nextCursor: string | null };
 
@@ -93,11 +96,11 @@ export async function reviewQueue(scope: ReviewScope, f: QueueFilters, cursor: s
 }
 
 /** How many sightings in each review state match the filters (the state filter aside). */
-export async function queueCounts(scope: ReviewScope, f: QueueFilters, db: Executor = getDb()): Promise<Record<ReviewStateName, number>> {
-  const { rows } = await db.execute<{ state: ReviewStateName; n: number }>(sql`
+export async function queueCounts(scope: ReviewScope, f: QueueFilters, db: Executor = getDb()): Promise<Record<ReviewState, number>> {
+  const { rows } = await db.execute<{ state: ReviewState; n: number }>(sql`
     SELECT s.review_state AS state, count(*)::int AS n FROM ${fromSql(scope)}
     WHERE ${filterSql(scope, f, { withState: false })} GROUP BY 1`);
-  const counts: Record<ReviewStateName, number> = { pending: 0, approved: 0, rejected: 0, returned: 0 };
+  const counts: Record<ReviewState, number> = { pending: 0, approved: 0, rejected: 0, returned: 0 };
   for (const r of rows) counts[r.state] = r.n;
   return counts;
 }
@@ -114,7 +117,7 @@ export async function queueChoices(scope: ReviewScope) {
   return { zones: zones.rows, volunteers: volunteers.rows };
 }
 
-export type ReviewEvent = { id: string; slug: string; name: string; timeZone: string; startsAt: Date; endsAt: Date; accuracyLimitM: number };
+export type ReviewEvent = Pick<typeof events.$inferSelect, "id" | "slug" | "name" | "timeZone" | "startsAt" | "endsAt" | "accuracyLimitM">;
 
 export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | null> {
   const { rows } = await getDb().execute<ReviewEvent>(sql`
@@ -127,7 +130,7 @@ export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | nul
 /** Where a sighting is and which group it belongs to, to check a reviewer's scope before showing or deciding it. */
 async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
   const { rows } = await db.execute<{
-    id: string; eventId: string; userId: string; reviewState: ReviewStateName; version: number; taxonId: string | null; taxonGroup: string | null;
+    id: string; eventId: string; userId: string; reviewState: ReviewState; version: number; taxonId: string | null; taxonGroup: TaxonGroup | null;
   }>(sql`
     SELECT s.id, s.event_id AS "eventId", s.user_id AS "userId", s.review_state AS "reviewState", s.version,
       s.taxon_id AS "taxonId", t.taxon_group::text AS "taxonGroup"
@@ -138,7 +141,7 @@ async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
 
 export type ScopeCheck = "ok" | "not_found" | "forbidden";
 
-function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: string | null } | null): ScopeCheck {
+function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: TaxonGroup | null } | null): ScopeCheck {
   if (!place || place.eventId !== scope.eventId) return "not_found";
   if (scope.taxonGroups.length && !(place.taxonGroup && scope.taxonGroups.includes(place.taxonGroup))) return "forbidden";
   return "ok";
@@ -151,10 +154,10 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
   const name = (col: SQL) => sql`(SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = ${col})`;
   const [main, photos, history, nearby, map] = await Promise.all([
     db.execute<{
-      id: string; reviewState: ReviewStateName; version: number; taxonId: string | null; scientificName: string | null; commonName: string | null;
-      taxonGroup: string | null; sensitivity: string | null; description: string; count: number; countIsEstimate: boolean; observedAt: string;
+      id: string; reviewState: ReviewState; version: number; taxonId: string | null; scientificName: string | null; commonName: string | null;
+      taxonGroup: TaxonGroup | null; sensitivity: Sensitivity | null; description: string; count: number; countIsEstimate: boolean; observedAt: string;
       receivedAt: string; lon: number; lat: number; accuracyM: number; zoneId: string | null; zoneName: string | null; notes: string;
-      volunteerId: string; volunteerName: string; checkMarks: CheckMarkName[];
+      volunteerId: string; volunteerName: string; checkMarks: CheckMark[];
       sessionId: string | null; sessionKind: string | null; sessionStartedAt: string | null; sessionEndedAt: string | null;
       sessionAllSpecies: boolean | null; sessionZoneName: string | null; sessionSightings: number | null;
     }>(sql`
@@ -173,7 +176,7 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
     db.execute<{ id: string; contentType: string; sizeBytes: number; width: number | null; height: number | null }>(sql`
       SELECT id, content_type AS "contentType", size_bytes AS "sizeBytes", width, height FROM photos WHERE sighting_id = ${sightingId} ORDER BY created_at, id`),
     db.execute<{
-      id: number; decidedAt: string; reviewerName: string; fromState: ReviewStateName; toState: ReviewStateName;
+      id: number; decidedAt: string; reviewerName: string; fromState: ReviewState; toState: ReviewState;
       fromTaxon: string | null; toTaxon: string | null; reason: string; message: string;
     }>(sql`
       SELECT r.id::int AS id, r.decided_at AS "decidedAt", coalesce(u.name, u.email) AS "reviewerName", r.from_state AS "fromState", r.to_state AS "toState",
@@ -182,7 +185,7 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
         r.reason, r.message
       FROM reviews r JOIN users u ON u.id = r.reviewer_id WHERE r.sighting_id = ${sightingId} ORDER BY r.decided_at, r.id`),
     // The volunteer's other records within two hours either side, to judge duplicates and context.
-    db.execute<{ id: string; observedAt: string; commonName: string | null; scientificName: string | null; count: number; reviewState: ReviewStateName; distanceM: number }>(sql`
+    db.execute<{ id: string; observedAt: string; commonName: string | null; scientificName: string | null; count: number; reviewState: ReviewState; distanceM: number }>(sql`
       SELECT o.id, o.observed_at AS "observedAt", ${name(sql`o.taxon_id`)} AS "commonName", ot.scientific_name AS "scientificName", o.count,
         o.review_state AS "reviewState", round(ST_Distance(o.location::geography, s.location::geography))::int AS "distanceM"
       FROM sightings s JOIN sightings o ON o.user_id = s.user_id AND o.event_id = s.event_id AND o.id <> s.id
@@ -202,12 +205,11 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
     history: history.rows,
     nearby: nearby.rows,
     map: {
-      area: m?.area ? (JSON.parse(m.area) as GeoJsonPolygon) : null,
-      zones: (m?.zones ?? []).map((z) => ({ id: z.id, name: z.name, geometry: JSON.parse(z.geometry) as GeoJsonPolygon })),
+      area: m?.area ? (JSON.parse(m.area) as ArealGeometry) : null,
+      zones: (m?.zones ?? []).map((z) => ({ id: z.id, name: z.name, geometry: JSON.parse(z.geometry) as ArealGeometry })),
     },
   };
 }
-export type GeoJsonPolygon = { type: "Polygon"; coordinates: [number, number][][] };
 export type SightingDetail = Extract<Awaited<ReturnType<typeof sightingDetail>>, { check: "ok" }>;
 
 export type Decision =
@@ -217,9 +219,9 @@ export type Decision =
   | { action: "reidentify"; version: number; taxonId: string; message?: string };
 
 export type DecisionResult =
-  | { outcome: "ok"; sighting: { id: string; reviewState: ReviewStateName; version: number; taxonId: string | null }; reviewId: number }
+  | { outcome: "ok"; sighting: { id: string; reviewState: ReviewState; version: number; taxonId: string | null }; reviewId: number }
   | { outcome: "not_found" | "forbidden" }
-  | { outcome: "conflict"; current: { reviewState: ReviewStateName; version: number } }
+  | { outcome: "conflict"; current: { reviewState: ReviewState; version: number } }
   | { outcome: "unchanged" }
   | { outcome: "bad_taxon"; why: "unknown" | "out_of_scope" | "same" };
 
@@ -238,11 +240,11 @@ export async function decide(scope: ReviewScope, reviewerId: string, sightingId:
     if (check !== "ok") return { outcome: check };
     const p = place!;
     if (p.version !== d.version) return { outcome: "conflict", current: { reviewState: p.reviewState, version: p.version } };
-    let toState: ReviewStateName = p.reviewState;
+    let toState: ReviewState = p.reviewState;
     let toTaxon = p.taxonId;
     if (d.action === "reidentify") {
       if (d.taxonId === p.taxonId) return { outcome: "bad_taxon", why: "same" };
-      const { rows } = await tx.execute<{ group: string }>(sql`SELECT taxon_group::text AS group FROM taxa WHERE id = ${d.taxonId}`);
+      const { rows } = await tx.execute<{ group: TaxonGroup }>(sql`SELECT taxon_group::text AS group FROM taxa WHERE id = ${d.taxonId}`);
       if (!rows[0]) return { outcome: "bad_taxon", why: "unknown" };
       if (scope.taxonGroups.length && !scope.taxonGroups.includes(rows[0].group)) return { outcome: "bad_taxon", why: "out_of_scope" };
       toTaxon = d.taxonId;
@@ -299,7 +301,7 @@ export async function bulkApprove(scope: ReviewScope, reviewerId: string, f: Que
 /** Taxa a reviewer may choose when re-identifying: by common or scientific name, within their groups. */
 export async function searchTaxa(scope: ReviewScope, q: string, limit = 12) {
   const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-  const { rows } = await getDb().execute<{ id: string; scientificName: string; commonName: string | null; taxonGroup: string; onList: boolean }>(sql`
+  const { rows } = await getDb().execute<{ id: string; scientificName: string; commonName: string | null; taxonGroup: TaxonGroup; onList: boolean }>(sql`
     SELECT t.id, t.scientific_name AS "scientificName", t.taxon_group::text AS "taxonGroup",
       (SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = t.id) AS "commonName",
       EXISTS (SELECT 1 FROM event_species es WHERE es.event_id = ${scope.eventId} AND es.taxon_id = t.id) AS "onList"

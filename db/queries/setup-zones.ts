@@ -1,6 +1,7 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import type { AreaInput, GeoProblem, Geometry, ZoneInput } from "@/lib/geo/geojson";
+import type { ArealGeometry as Geometry } from "@/lib/geo/areal";
+import type { AreaInput, GeoProblem, ZoneInput } from "@/lib/geo/geojson";
 import { getDb } from "../client";
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];

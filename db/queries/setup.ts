@@ -4,9 +4,8 @@ import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventMembers, events, invitations, membershipLog, organisationMembers, organisations, users } from "../schema";
 import { enqueueMail, type OutboxMail } from "./mail-queue";
+import type { EventRole, EventStatus, SessionKind, TaxonGroup } from "@/lib/domain";
 
-type Role = "organiser" | "coordinator" | "volunteer";
-type Group = (typeof eventMembers.$inferSelect)["taxonGroups"][number];
 
 // ---------------------------------------------------------------- organisations and events
 
@@ -49,7 +48,7 @@ export function newJoinCode(): string {
 
 export type EventSettings = {
   name: string; description: string; startsAt: Date; endsAt: Date; timeZone: string; languages: string[];
-  sessionKinds: ("timed_count" | "walk" | "plot_search")[]; photoRequiredSensitive: boolean; photoRequiredOffList: boolean; accuracyLimitM: number;
+  sessionKinds: SessionKind[]; photoRequiredSensitive: boolean; photoRequiredOffList: boolean; accuracyLimitM: number;
 };
 
 /** Creates a draft event; null when the slug is taken. */
@@ -61,7 +60,7 @@ export async function createEvent(organisationId: string, slug: string, settings
   return row ?? null;
 }
 
-export async function updateEvent(eventId: string, settings: EventSettings & { status: "draft" | "open" | "closed" }): Promise<void> {
+export async function updateEvent(eventId: string, settings: EventSettings & { status: EventStatus }): Promise<void> {
   await getDb().update(events).set(settings).where(eq(events.id, eventId));
 }
 
@@ -105,7 +104,7 @@ export type InviteOutcome = "invited" | "alreadyMember";
  * the same address and event is replaced (revoked), so the newest role wins.
  */
 export async function inviteToEvent(opts: {
-  eventId: string; email: string; name: string | null; role: Role; taxonGroups: Group[]; actorId: string | null;
+  eventId: string; email: string; name: string | null; role: EventRole; taxonGroups: TaxonGroup[]; actorId: string | null;
   mail: (invitationId: string) => Promise<OutboxMail>;
 }): Promise<InviteOutcome> {
   const email = opts.email.trim().toLowerCase();
@@ -140,7 +139,7 @@ export async function revokeInvitation(eventId: string, invitationId: string, ac
 
 export type MemberChange = "changed" | "unchanged" | "notMember";
 
-export async function changeMemberRole(eventId: string, userId: string, role: Role, taxonGroups: Group[], actorId: string): Promise<MemberChange> {
+export async function changeMemberRole(eventId: string, userId: string, role: EventRole, taxonGroups: TaxonGroup[], actorId: string): Promise<MemberChange> {
   return getDb().transaction(async (tx) => {
     const [current] = await tx.select({ role: eventMembers.role, taxonGroups: eventMembers.taxonGroups, email: users.email })
       .from(eventMembers).innerJoin(users, eq(users.id, eventMembers.userId))

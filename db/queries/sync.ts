@@ -189,7 +189,7 @@ async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRec
   const fields = (r: SightingRecord) => ({
     sessionId: r.sessionId, taxonId: r.taxonId, description: r.description,
     count: r.count, countIsEstimate: r.countIsEstimate, observedAt: new Date(r.observedAt),
-    location: sql`ST_SetSRID(ST_MakePoint(${r.longitude}, ${r.latitude}), 4326)` as unknown as string,
+    location: { longitude: r.longitude, latitude: r.latitude },
     accuracyM: r.accuracyM, zoneId: zoneOf.get(r.id) ?? null, notes: r.notes,
   });
   const { inserted, failed } = await insertEach(tx, good.map((g) => g.rec), async (sp, rows) =>

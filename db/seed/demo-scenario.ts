@@ -1,5 +1,6 @@
 // The demo scenario of design.md: invented people, places and records. Demo only.
 import type { SeedTaxon } from "./taxa";
+import { REJECT_REASONS, type EventRole, type Habitat, type TaxonGroup } from "@/lib/domain";
 
 export const DEMO_ORG = { slug: "friends-of-harrowmere-vale", name: "Friends of Harrowmere Vale" };
 
@@ -26,7 +27,7 @@ export const DEMO_AREA: Ring = [
 ];
 
 export type DemoZone = {
-  key: string; name: string; habitat: "interior" | "edge"; description: string;
+  key: string; name: string; habitat: Extract<Habitat, "interior" | "edge">; description: string;
   ring: Ring; box: [number, number, number, number]; pools: SeedTaxon["habitat"][];
 };
 
@@ -44,7 +45,7 @@ export const DEMO_ZONES: DemoZone[] = [
 
 export type DemoPerson = {
   key: string; name: string; email: string; locale: "en" | "es" | "fr";
-  role: "organiser" | "coordinator" | "volunteer"; groups?: ("birds")[];
+  role: EventRole; groups?: TaxonGroup[];
 };
 
 export const DEMO_PEOPLE: DemoPerson[] = [
@@ -61,7 +62,7 @@ export const DEMO_PEOPLE: DemoPerson[] = [
 
 export const DEMO_PASSWORD = "harrowmere-demo";
 
-export const REJECT_REASONS = ["misidentified", "duplicate", "outside_event", "insufficient_evidence"] as const;
+export const SEED_REJECT_REASONS = REJECT_REASONS.filter((r) => r !== "other");
 export const RETURN_QUESTIONS = [
   "Could you add a photo of the underside of the leaves? It would separate this from a close relative.",
   "Was this a sighting or a call only? Please say in the notes.",

@@ -2,7 +2,7 @@ import { eq, sql } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as s from "../schema";
 import {
-  DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, REJECT_REASONS, RETURN_QUESTIONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
+  DEMO_AREA, DEMO_EVENT, DEMO_ORG, DEMO_PEOPLE, DEMO_ZONES, RETURN_QUESTIONS, SEED_REJECT_REASONS, SECOND_AREA, SECOND_EVENT, SECOND_ORG,
   SECOND_PEOPLE, SECOND_ZONES, SETUP_EVENT, type DemoPerson, type DemoZone,
 } from "./demo-scenario";
 import { refreshCheckMarks } from "../queries/check-marks";
@@ -15,7 +15,6 @@ type Db = NodePgDatabase<typeof s>;
 
 const polygonSql = (ring: [number, number][]) =>
   sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify({ type: "Polygon", coordinates: [ring] })}), 4326)`;
-const pointSql = (lon: number, lat: number) => sql`ST_SetSRID(ST_MakePoint(${lon}, ${lat}), 4326)`;
 
 export type SeedSummary = { taxa: number; people: number; sessions: number; sightings: number; reviews: number; byState: Record<string, number> };
 
@@ -117,7 +116,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
               id: demoId(`${key}:sighting:${i}`), eventId, userId: people.get(v.key)!, sessionId,
               taxonId: taxonIds.get(taxon.scientificName)!, count: countFor(taxon), countIsEstimate: rand() < 0.1,
               observedAt: new Date(startMs + Math.floor(rand() * minutes) * 60_000),
-              location: pointSql(at.lon, at.lat) as unknown as string, accuracyM: Math.round(4 + rand() * 30),
+              location: { longitude: at.lon, latitude: at.lat }, accuracyM: Math.round(4 + rand() * 30),
               zoneId: zoneIds.get(zone.key)!,
             });
             i++;
@@ -132,7 +131,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
           taxonId: unidentified ? null : taxonIds.get(pick(poolFor(zone)).scientificName)!,
           description: unidentified ? "Small brown moth, pale cross-band on forewing; flew before I could photograph it." : "",
           count: 1, observedAt: new Date(DEMO_EVENT.startsAt.getTime() + day * 86_400_000 + 14 * 3_600_000 + rand() * 3_600_000),
-          location: pointSql(at.lon, at.lat) as unknown as string, accuracyM: Math.round(8 + rand() * 20), zoneId: zoneIds.get(zone.key)!,
+          location: { longitude: at.lon, latitude: at.lat }, accuracyM: Math.round(8 + rand() * 20), zoneId: zoneIds.get(zone.key)!,
         });
       }
     }
@@ -158,7 +157,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
           : r < 0.68 ? "approved" : r < 0.86 ? "pending" : r < 0.93 ? "rejected" : "returned";
         if (toState === "pending") continue;
         const base = { sightingId: row.id, reviewerId: reviewer, decidedAt, fromState: "pending" as const, toState };
-        if (toState === "rejected") reviewRows.push({ ...base, reason: pick(REJECT_REASONS) });
+        if (toState === "rejected") reviewRows.push({ ...base, reason: pick(SEED_REJECT_REASONS) });
         else if (toState === "returned") reviewRows.push({ ...base, message: row.taxonId ? pick(RETURN_QUESTIONS) : "Can you describe the hindwing colour? That would narrow it down a lot." });
         else reviewRows.push(base);
         await tx.update(s.sightings).set({ reviewState: toState, version: 2, updatedAt: decidedAt }).where(eq(s.sightings.id, row.id));
@@ -172,7 +171,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
       const observedAt = new Date(DEMO_EVENT.startsAt.getTime() + r.hour * 3_600_000);
       const inserted = await tx.insert(s.sightings).values({
         id, eventId, userId: people.get(r.volunteer)!, taxonId: taxonIds.get(r.scientificName)!, count: r.count,
-        observedAt, location: pointSql(r.lon, r.lat) as unknown as string, accuracyM: 10, zoneId: zoneIds.get(r.zone)!,
+        observedAt, location: { longitude: r.lon, latitude: r.lat }, accuracyM: 10, zoneId: zoneIds.get(r.zone)!,
         reviewState: "approved", version: 2, checkMarks: ["sensitive_taxon"],
       }).onConflictDoNothing().returning({ id: s.sightings.id });
       if (inserted.length) {

@@ -2,7 +2,6 @@
 // every mark has something to show, and the birds coordinator has a known set of pending
 // bird records (three outside the event area, ten with poor location accuracy) to decide
 // in the browser test. Invented, like the rest of the demo.
-import { sql } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as s from "../schema";
 import { demoId } from "./random";
@@ -63,7 +62,7 @@ export async function seedReviewCases(
   const taxonId = (name: string) => (name === OFF_LIST_TAXON.scientificName ? offListId : opts.taxonIds.get(name)!);
   const rows = REVIEW_CASES.map((c) => ({
     id: reviewCaseId(c.key), eventId: opts.eventId, userId: opts.people.get(c.person)!, taxonId: taxonId(c.taxon),
-    count: c.count ?? 1, observedAt: new Date(c.at), location: sql`ST_SetSRID(ST_MakePoint(${c.lon}, ${c.lat}), 4326)` as unknown as string,
+    count: c.count ?? 1, observedAt: new Date(c.at), location: { longitude: c.lon, latitude: c.lat },
     accuracyM: c.accuracyM ?? 12, zoneId: c.zone ? opts.zoneIds.get(c.zone)! : null, notes: c.notes ?? "",
   }));
   await tx.insert(s.sightings).values(rows).onConflictDoNothing();

@@ -14,17 +14,8 @@
  * Accipiter gentilis is kept here as the widely used name.
  */
 
-export type TaxonGroup =
-  | "birds"
-  | "vascular_plants"
-  | "insects"
-  | "fungi"
-  | "mammals"
-  | "amphibians_reptiles"
-  | "molluscs"
-  | "other";
-export type TaxonRank = "species" | "subspecies" | "genus";
-export type Sensitivity = "open" | "generalised" | "restricted";
+import type { Sensitivity, TaxonGroup, TaxonRank } from "@/lib/domain";
+
 export type HabitatAffinity = "grassland" | "woodland" | "wetland" | "any";
 export type SeedTaxon = {
   scientificName: string;

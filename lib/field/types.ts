@@ -1,5 +1,6 @@
 import type { MySighting } from "@/lib/sync/mine";
 import type { EventPack } from "@/lib/sync/pack";
+import type { DeviceState } from "@/lib/domain";
 import type { ReviewState, SessionRecord, SightingRecord } from "@/lib/sync/records";
 
 // The server's half of what the phone keeps (records, pack, review states) is the sync
@@ -9,7 +10,7 @@ export type { ReviewState } from "@/lib/sync/records";
 
 // What the device keeps in IndexedDB. Every record goes to the outbox first and is sent
 // later; its device state (design.md "Words") says where it is on that way.
-export type DeviceState = "waiting" | "sending" | "sent" | "failed";
+export type { DeviceState } from "@/lib/domain";
 
 /** Why the last try did not go through, when it was not the record's fault. */
 export type TransientProblem = "offline" | "server" | "signin" | "busy";

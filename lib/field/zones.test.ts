@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { SECOND_ZONES } from "@/db/seed/demo-scenario";
 import type { ZoneCollection } from "./types";
-import { bounds, distanceM, walkDistanceM, zoneAt } from "./zones";
+import { distanceM, walkDistanceM, zoneAt } from "./zones";
 
 // The demo's Kestrel Moor zones: Heather Crest (north half) and Gorse Margin (south half).
 const zones: ZoneCollection = {
@@ -19,10 +19,6 @@ describe("zone of a point, on the device", () => {
     expect(zoneAt(zones, 53.31, -2.095)).toBeNull();
     expect(zoneAt(zones, -2.095, 53.3045)).toBeNull(); // latitude and longitude swapped
     expect(zoneAt(null, 53.3045, -2.095)).toBeNull();
-  });
-
-  it("knows the bounds of the zones", () => {
-    expect(bounds(zones)).toEqual([-2.1, 53.3, -2.09, 53.306]);
   });
 });
 

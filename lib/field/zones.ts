@@ -11,22 +11,6 @@ export function zoneAt(zones: ZoneCollection | null | undefined, latitude: numbe
   return null;
 }
 
-/** The bounding box of all zones: [west, south, east, north]. */
-export function bounds(zones: ZoneCollection): [number, number, number, number] | null {
-  let w = Infinity, s = Infinity, e = -Infinity, n = -Infinity;
-  const visit = (ring: number[][]) => {
-    for (const [x, y] of ring) {
-      if (x === undefined || y === undefined) continue;
-      w = Math.min(w, x); e = Math.max(e, x); s = Math.min(s, y); n = Math.max(n, y);
-    }
-  };
-  for (const f of zones.features) {
-    if (f.geometry.type === "Polygon") f.geometry.coordinates.forEach(visit);
-    else f.geometry.coordinates.forEach((p) => p.forEach(visit));
-  }
-  return Number.isFinite(w) ? [w, s, e, n] : null;
-}
-
 const EARTH_RADIUS_M = 6_371_008.8; // mean Earth radius (IUGG), from memory
 
 /** Great-circle distance in metres (haversine formula). */

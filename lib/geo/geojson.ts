@@ -3,13 +3,13 @@
 // "zone inside the area" are then checked by PostGIS (db/queries/setup-zones.ts).
 // Pure: no database, no framework.
 
-export const HABITATS = ["interior", "edge", "wetland", "open_water", "grassland", "woodland", "urban", "other"] as const;
-export type HabitatCode = (typeof HABITATS)[number];
+import { HABITATS, type Habitat } from "@/lib/domain";
+import type { ArealGeometry as Geometry } from "./areal";
+
 export const MAX_FEATURES = 200;
 export const MAX_POSITIONS = 100_000;
 export const MAX_ZONE_NAME = 120;
 
-export type Geometry = { type: "Polygon"; coordinates: number[][][] } | { type: "MultiPolygon"; coordinates: number[][][][] };
 
 export type GeoProblemCode =
   | "notFeatureCollection" | "noFeatures" | "tooManyFeatures" | "tooManyPositions" | "crsNotWgs84"
@@ -22,7 +22,7 @@ export type GeoProblemCode =
 /** One problem; `feature` is the 0-based index in `features` (null: the whole file). */
 export type GeoProblem = { feature: number | null; name?: string; code: GeoProblemCode; values?: Record<string, string | number> };
 
-export type ZoneInput = { feature: number; name: string; habitat: HabitatCode; description: string; geometry: Geometry };
+export type ZoneInput = { feature: number; name: string; habitat: Habitat; description: string; geometry: Geometry };
 export type AreaInput = { feature: number; geometry: Geometry };
 export type ParsedUpload = { area: AreaInput | null; zones: ZoneInput[]; problems: GeoProblem[] };
 
@@ -133,7 +133,7 @@ export function parseAreaAndZones(input: unknown): ParsedUpload {
     else if (!(HABITATS as readonly string[]).includes(habitatRaw)) at("unknownHabitat", { value: String(props.habitat), allowed: HABITATS.join(", ") }, label || undefined);
     const description = typeof props.description === "string" ? props.description.trim().slice(0, 1000) : "";
     if (geomOk && label && label.length <= MAX_ZONE_NAME && (HABITATS as readonly string[]).includes(habitatRaw)) {
-      zones.push({ feature: i, name: label, habitat: habitatRaw as HabitatCode, description, geometry: geometry as Geometry });
+      zones.push({ feature: i, name: label, habitat: habitatRaw as Habitat, description, geometry: geometry as Geometry });
     }
   });
   if (count.n > MAX_POSITIONS) problems.push({ feature: null, code: "tooManyPositions", values: { maximum: MAX_POSITIONS } });

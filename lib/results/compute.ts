@@ -5,6 +5,7 @@ import {
   compareZones, diversityResults, ENGINE_VERSION,
   type AbundanceStats, type CurvePoint, type IncidenceStats,
 } from "@/lib/diversity/index";
+import type { Sensitivity } from "@/lib/domain";
 
 export const NO_ZONE = "00000000-0000-0000-0000-000000000000";
 export const CURVE_POINTS = 40;
@@ -14,7 +15,7 @@ export type ResultsTaxon = {
   scientificName: string;
   rank: string;
   group: string;
-  sensitivity: "open" | "generalised" | "restricted";
+  sensitivity: Sensitivity;
   names: Record<string, string>;
 };
 

@@ -4,10 +4,11 @@
 // withheld from every located output (design.md: exact locations never reach the public).
 import { strToU8, zipSync } from "fflate";
 import type { Results } from "./compute";
+import type { Sensitivity } from "@/lib/domain";
 
 export type PublicOccurrence = {
   id: string; observedAt: Date; lon: number; lat: number; accuracyM: number;
-  taxonId: string; count: number; sensitivity: "open" | "generalised" | "restricted";
+  taxonId: string; count: number; sensitivity: Sensitivity;
 };
 
 export const GRID_DEGREES = 0.1;

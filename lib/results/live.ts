@@ -5,6 +5,8 @@ import type { ResultsInput } from "./compute";
 
 export type ZoneLead = { id: string; name: string; habitat: string; observed: number; chao1: number; undetected: number; coverage: number; coverageDeficit: number; individuals: number };
 
+export type Completeness = ReturnType<typeof completeness>;
+
 export function completeness(input: ResultsInput) {
   const width = input.taxa.length;
   const total = new Array<number>(width).fill(0);

@@ -1,15 +1,10 @@
 import Papa from "papaparse";
+import { SENSITIVITIES, TAXON_GROUPS, TAXON_RANKS, type Sensitivity, type TaxonGroup, type TaxonRank } from "@/lib/domain";
 
 // Species-list CSV: one taxon per line. Parsed with papaparse; every problem carries the
 // line number a person sees in their spreadsheet or text editor (1 = the header line),
 // so a report can say exactly which lines to fix. Pure: no database, no framework.
 
-export const TAXON_GROUPS = ["birds", "vascular_plants", "insects", "fungi", "mammals", "amphibians_reptiles", "molluscs", "other"] as const;
-export const TAXON_RANKS = ["family", "genus", "species", "subspecies", "variety", "form"] as const;
-export const SENSITIVITIES = ["open", "generalised", "restricted"] as const;
-export type TaxonGroupCode = (typeof TAXON_GROUPS)[number];
-export type TaxonRankCode = (typeof TAXON_RANKS)[number];
-export type SensitivityCode = (typeof SENSITIVITIES)[number];
 
 export const REQUIRED_COLUMNS = ["scientific_name", "rank", "taxon_group"] as const;
 export const OPTIONAL_COLUMNS = ["sensitivity"] as const;
@@ -28,9 +23,9 @@ export type CsvProblem = { line: number; column?: string; code: CsvProblemCode; 
 export type SpeciesRow = {
   line: number;
   scientificName: string;
-  rank: TaxonRankCode;
-  taxonGroup: TaxonGroupCode;
-  sensitivity: SensitivityCode | null; // null: not given in the file
+  rank: TaxonRank;
+  taxonGroup: TaxonGroup;
+  sensitivity: Sensitivity | null; // null: not given in the file
   names: Record<string, string>; // locale → common name
 };
 
@@ -132,7 +127,7 @@ export function parseSpeciesCsv(text: string): ParsedSpecies {
       else firstLineOf.set(key, rec.line);
     }
     if (problems.length === before) {
-      rows.push({ line: rec.line, scientificName, rank: rank as TaxonRankCode, taxonGroup: group as TaxonGroupCode, sensitivity: (sens || null) as SensitivityCode | null, names });
+      rows.push({ line: rec.line, scientificName, rank: rank as TaxonRank, taxonGroup: group as TaxonGroup, sensitivity: (sens || null) as Sensitivity | null, names });
     }
   }
   return { rows, problems, locales };

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { SESSION_KINDS, type ReviewState } from "@/lib/domain";
 
 // The field log's sync batch: the one contract between the device (lib/field, IndexedDB
 // outbox) and the server (the sync route handler). Ids are made on the device (uuid v4),
@@ -11,7 +12,7 @@ import { z } from "zod";
 export const MAX_BATCH_RECORDS = 100;
 
 /** A sighting's review state, as the server tells the phone (acknowledgements, "mine"). */
-export type ReviewState = "pending" | "approved" | "rejected" | "returned";
+export type { ReviewState };
 
 const isoInstant = z.iso.datetime({ offset: true });
 const text = (max: number) => z.string().max(max).default("");
@@ -19,7 +20,7 @@ const text = (max: number) => z.string().max(max).default("");
 export const sessionRecord = z.object({
   id: z.uuid(),
   zoneId: z.uuid().nullable(),
-  kind: z.enum(["timed_count", "walk", "plot_search"]),
+  kind: z.enum(SESSION_KINDS),
   startedAt: isoInstant,
   endedAt: isoInstant.nullable(),
   allSpeciesNoted: z.boolean(), // only true once ended: "all species noted"

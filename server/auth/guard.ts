@@ -1,6 +1,7 @@
 import "server-only";
 import { getServerSession } from "next-auth";
 import { eventAccess, findUserById, isOrganisationOrganiser, type EventAccess } from "@/db/queries/auth";
+import { SITE_ADMIN, type EffectiveRole, type EventRole, type TaxonGroup } from "@/lib/domain";
 import { ApiError } from "@/lib/http/errors";
 import { authOptions } from "@/server/auth/options";
 
@@ -8,7 +9,6 @@ import { authOptions } from "@/server/auth/options";
 // signed-in page goes through these; 401 without a session, 403 with the wrong role.
 
 export type SessionUser = NonNullable<Awaited<ReturnType<typeof findUserById>>>;
-export type EventRole = "organiser" | "coordinator" | "volunteer";
 
 const rank: Record<EventRole, number> = { volunteer: 1, coordinator: 2, organiser: 3 };
 
@@ -31,11 +31,11 @@ export async function requireAdmin(): Promise<SessionUser> {
   return user;
 }
 
-export type EventPermit = { user: SessionUser; access: EventAccess; role: EventRole | "admin"; taxonGroups: string[] };
+export type EventPermit = { user: SessionUser; access: EventAccess; role: EffectiveRole; taxonGroups: TaxonGroup[] };
 
 /** The person's effective role in the event: admin, organiser (of the event's organisation, or by event role), then their event role. */
-export function effectiveRole(user: Pick<SessionUser, "isAdmin">, access: EventAccess): EventRole | "admin" | null {
-  if (user.isAdmin) return "admin";
+export function effectiveRole(user: Pick<SessionUser, "isAdmin">, access: EventAccess): EffectiveRole | null {
+  if (user.isAdmin) return SITE_ADMIN;
   if (access.isOrganisationOrganiser || access.role === "organiser") return "organiser";
   return access.role;
 }
@@ -55,7 +55,7 @@ export async function eventPermitFor(user: SessionUser, eventId: string, minimum
   const access = await eventAccess(user.id, eventId);
   if (!access) throw new ApiError("not_found");
   const role = effectiveRole(user, access);
-  if (!role || (role !== "admin" && rank[role] < rank[minimum])) throw new ApiError("forbidden");
+  if (!role || (role !== SITE_ADMIN && rank[role] < rank[minimum])) throw new ApiError("forbidden");
   // Only coordinators carry taxon-group limits; organisers and admins see everything.
   return { user, access, role, taxonGroups: role === "coordinator" ? access.taxonGroups : [] };
 }

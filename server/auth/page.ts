@@ -2,7 +2,8 @@ import "server-only";
 import { redirect } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { ApiError } from "@/lib/http/errors";
-import { getSessionUser, requireEventRole, type EventRole, type SessionUser } from "@/server/auth/guard";
+import type { EventRole } from "@/lib/domain";
+import { getSessionUser, requireEventRole, type SessionUser } from "@/server/auth/guard";
 
 // Page-side faces of the one guard: no session sends the person to sign in and back;
 // the wrong role shows the localised "not allowed" page (thrown as an ApiError that

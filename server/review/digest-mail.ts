@@ -3,7 +3,7 @@ import type { DigestItem, DigestRecipient, RenderedMail } from "@/db/queries/rev
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
 import { escapeHtml } from "@/server/mail/html";
-import { REJECT_REASONS, type RejectReason } from "@/lib/review/decisions";
+import { REJECT_REASONS, type RejectReason } from "@/lib/domain";
 
 // The volunteer's digest of review decisions, in their own language, times in each event's
 // time zone (saying so). Every value from people (questions, notes) is escaped in the HTML.

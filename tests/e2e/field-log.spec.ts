@@ -90,7 +90,7 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   // The photo follows its sighting (the server checks its bytes and makes a thumbnail).
   await expect(page.getByText("Everything is sent.")).toBeVisible({ timeout: 90_000 });
   await expect(page.getByRole("list", { name: "On this phone" })).toHaveCount(0);
-  await expect(page.getByRole("list", { name: "Sent" }).getByRole("listitem").first()).toContainText("Awaiting check");
+  await expect(page.getByRole("list", { name: "Sent" }).getByRole("listitem").first()).toContainText("Pending");
 
   const ids = await page.evaluate(async () => {
     const open = indexedDB.open("ecotone-field");

@@ -4,9 +4,9 @@ import * as s from "@/db/schema";
 
 export const db = () => getDb();
 
-export const pointSql = (lon: number, lat: number) => sql`ST_SetSRID(ST_MakePoint(${lon}, ${lat}), 4326)` as unknown as string;
+export const lonLat = (longitude: number, latitude: number) => ({ longitude, latitude });
 export const polygonSql = (ring: [number, number][]) =>
-  sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify({ type: "Polygon", coordinates: [ring] })}), 4326)` as unknown as string;
+  sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify({ type: "Polygon", coordinates: [ring] })}), 4326)`;
 
 /** A minimal valid organisation, person, event, zone and taxon to hang test rows on. */
 export async function makeFixture(tag: string) {
@@ -27,7 +27,7 @@ export async function makeFixture(tag: string) {
 export function sightingValues(f: Awaited<ReturnType<typeof makeFixture>>, over: Partial<typeof s.sightings.$inferInsert> = {}) {
   return {
     id: crypto.randomUUID(), eventId: f.event.id, userId: f.user.id, taxonId: f.taxon.id, count: 1,
-    observedAt: new Date("2026-06-20T09:00:00Z"), location: pointSql(0.2, 0.2), accuracyM: 10, zoneId: f.zone.id,
+    observedAt: new Date("2026-06-20T09:00:00Z"), location: lonLat(0.2, 0.2), accuracyM: 10, zoneId: f.zone.id,
     ...over,
   } satisfies typeof s.sightings.$inferInsert;
 }

@@ -9,7 +9,8 @@ import { ApiError, errorStatus } from "@/lib/http/errors";
 import { renderDigest } from "@/server/review/digest-mail";
 import { queueFilters } from "@/lib/review/filters";
 import { reviewPermitFor } from "@/server/review/permit";
-import { db, makeFixture, pointSql, refusal, sightingValues } from "./helpers";
+import { db, makeFixture, lonLat, refusal, sightingValues } from "./helpers";
+import type { EventRole, TaxonGroup } from "@/lib/domain";
 
 // The review desk's data layer and its guard, on the real database: who may review what,
 // decisions appended to the history with the state kept in step, optimistic concurrency,
@@ -22,7 +23,7 @@ const birds: string[] = [];
 const plants: string[] = [];
 const noFilters = queueFilters.parse({});
 
-async function person(key: string, eventId: string, role: "coordinator" | "volunteer" | "organiser", groups: ("birds" | "vascular_plants")[] = []) {
+async function person(key: string, eventId: string, role: EventRole, groups: TaxonGroup[] = []) {
   const [u] = await db().insert(s.users).values({ email: `${key}@desk.example.org`, name: key, locale: "fr" }).returning();
   await db().insert(s.eventMembers).values({ eventId, userId: u!.id, role, taxonGroups: groups });
   people[key] = u!.id;
@@ -45,7 +46,7 @@ beforeAll(async () => {
   await person("volunteer2", f.event.id, "volunteer");
   const rows = [];
   for (let i = 0; i < 30; i++) {
-    const row = sightingValues(f, { observedAt: new Date(Date.parse("2026-06-20T06:00:00Z") + i * 3_600_000), location: pointSql(0.1 + i * 0.01, 0.2) });
+    const row = sightingValues(f, { observedAt: new Date(Date.parse("2026-06-20T06:00:00Z") + i * 3_600_000), location: lonLat(0.1 + i * 0.01, 0.2) });
     birds.push(row.id);
     rows.push(row);
   }
@@ -204,7 +205,7 @@ describe("the queue", () => {
     expect((await ids({ photo: "no" })).length).toBe(35);
     // Points from x = 0.1 to 0.39; the event area is the unit square, so none is outside it.
     expect(await ids({ marks: "outside_area" })).toEqual([]);
-    const [far] = await db().insert(s.sightings).values(sightingValues(f, { location: pointSql(2, 2), zoneId: null, observedAt: new Date("2026-06-21T23:59:00Z") })).returning();
+    const [far] = await db().insert(s.sightings).values(sightingValues(f, { location: lonLat(2, 2), zoneId: null, observedAt: new Date("2026-06-21T23:59:00Z") })).returning();
     await refreshCheckMarks(db(), [far!.id]);
     expect(await ids({ marks: "outside_area" })).toEqual([far!.id]);
     expect(await ids({ marks: "outside_area,poor_accuracy" })).toEqual([]);

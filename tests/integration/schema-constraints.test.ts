@@ -1,7 +1,7 @@
 import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import * as s from "@/db/schema";
-import { db, makeFixture, pointSql, polygonSql, refusal, sightingValues } from "./helpers";
+import { db, makeFixture, lonLat, polygonSql, refusal, sightingValues } from "./helpers";
 
 // Each test tries a bad row and expects PostgreSQL itself to refuse it (SQLSTATE codes:
 // 23514 check_violation, 23503 foreign_key_violation, 23505 unique_violation,
@@ -18,6 +18,15 @@ describe("sightings", () => {
     const [back] = await db().select({ x: sql<number>`ST_X(${s.sightings.location})`, state: s.sightings.reviewState })
       .from(s.sightings).where(eq(s.sightings.id, row.id));
     expect(back).toEqual({ x: 0.2, state: "pending" });
+  });
+
+  it("writes a point as longitude and latitude in WGS 84 and reads it back the same", async () => {
+    const row = sightingValues(f, { location: lonLat(-2.487, 51.403) });
+    const [inserted] = await db().insert(s.sightings).values(row).returning({ location: s.sightings.location });
+    expect(inserted!.location).toEqual({ longitude: -2.487, latitude: 51.403 });
+    const [back] = await db().select({ location: s.sightings.location, srid: sql<number>`ST_SRID(${s.sightings.location})`, x: sql<number>`ST_X(${s.sightings.location})` })
+      .from(s.sightings).where(eq(s.sightings.id, row.id));
+    expect(back).toEqual({ location: { longitude: -2.487, latitude: 51.403 }, srid: 4326, x: -2.487 });
   });
 
   it("refuses a count of 0", async () => {
@@ -46,7 +55,7 @@ describe("sightings", () => {
 
   it("refuses points outside the WGS84 range", async () => {
     for (const [lon, lat] of [[181, 10], [-180.5, 10], [10, 91], [10, -90.01]] as const) {
-      const r = await refusal(() => db().insert(s.sightings).values(sightingValues(f, { location: pointSql(lon, lat) })));
+      const r = await refusal(() => db().insert(s.sightings).values(sightingValues(f, { location: lonLat(lon, lat) })));
       expect(r, `(${lon}, ${lat})`).toMatchObject({ code: "23514", constraint: "sightings_location_wgs84" });
     }
   });

@@ -1,5 +1,5 @@
 import { readFileSync } from "node:fs";
-import { eq, sql } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { areaAndZones, uploadAreaAndZones } from "@/db/queries/setup-zones";
 import * as s from "@/db/schema";
@@ -85,7 +85,7 @@ describe("area and zones upload (PostGIS checks)", () => {
 
     // A zone with a sighting in it cannot vanish.
     const copse = after.find((z) => z.name === "Oak Copse")!;
-    await db().insert(s.sightings).values(sightingValues(f, { zoneId: copse.id, location: sql`ST_SetSRID(ST_MakePoint(-2.487, 51.403), 4326)` as never }));
+    await db().insert(s.sightings).values(sightingValues(f, { zoneId: copse.id, location: { longitude: -2.487, latitude: 51.403 } }));
     json.features.splice(2, 1); // Oak Copse left out
     const refused = await upload(f.event.id, json, true);
     expect(refused.problems.map((p) => [p.name, p.code, p.values?.records])).toEqual([["Oak Copse", "zoneHasRecords", 1]]);

@@ -5,7 +5,7 @@ import { useMemo, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
 import { buildSpeciesIndex } from "@/lib/field/search";
 import type { KnownEvent, LocalSighting } from "@/lib/field/types";
-import { DeviceBadge, ReviewBadge } from "./badges";
+import { DeviceStateMark, ReviewStateMark } from "@/components/state-mark";
 import type { SyncStatus } from "./field-app";
 import { SessionPanel } from "./session-panel";
 import { SightingForm } from "./sighting-form";
@@ -103,7 +103,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
               <li key={s.id} className="rounded-xl border-2 border-reed-200 bg-white p-3">
                 <div className="flex flex-wrap items-center justify-between gap-2">
                   <span className="font-bold">{t(`sessionKind.${s.record.kind}`)}{zoneName(s.record.zoneId) ? ` · ${zoneName(s.record.zoneId)}` : ""}</span>
-                  <DeviceBadge state={s.state} />
+                  <DeviceStateMark state={s.state} />
                 </div>
                 <p className="text-ink-soft">{s.record.endedAt ? t("sessionEndedAt", { time: when(s.record.endedAt) }) : t("sessionRunningSince", { time: when(s.record.startedAt) })}</p>
                 {s.state === "failed" ? <p className="font-semibold text-signal">{s.reason}</p> : null}
@@ -115,7 +115,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
             {loosePhotos.map((p) => (
               <li key={p.id} className="flex flex-wrap items-center justify-between gap-2 rounded-xl border-2 border-reed-200 bg-white p-3">
                 <span className="font-bold">{t("photoOf", { name: data.sightings.find((s) => s.id === p.sightingId)?.taxonLabel ?? "" })}</span>
-                <DeviceBadge state={p.state} />
+                <DeviceStateMark state={p.state} />
                 {p.state === "failed" ? <p className="w-full font-semibold text-signal">{p.reason}</p> : null}
               </li>
             ))}
@@ -152,7 +152,7 @@ function SightingRow({ s, zone, when, photos, onEdit }: { s: LocalSighting; zone
       <div className="flex flex-wrap items-center justify-between gap-2">
         <span className="text-lg font-bold">{s.taxonLabel} <span className="font-normal">· {s.record.countIsEstimate ? t("aboutCount", { count: s.record.count }) : s.record.count}</span></span>
         <span className="flex flex-wrap gap-1">
-          {s.state === "sent" && s.reviewState ? <ReviewBadge state={s.reviewState} /> : <DeviceBadge state={s.state} />}
+          {s.state === "sent" && s.reviewState ? <ReviewStateMark state={s.reviewState} size="large" /> : <DeviceStateMark state={s.state} />}
         </span>
       </div>
       <p className="text-ink-soft">{[when, zone, photos ? t("photoCount", { count: photos }) : null].filter(Boolean).join(" · ")}</p>

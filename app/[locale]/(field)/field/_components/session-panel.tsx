@@ -7,9 +7,8 @@ import { saveSession } from "@/lib/field/outbox";
 import type { LocalSession, ZoneCollection } from "@/lib/field/types";
 import { walkDistanceM, zoneAt, type Fix } from "@/lib/field/zones";
 import type { PositionState } from "./use-position";
+import { SESSION_KINDS as KINDS, type SessionKind as Kind } from "@/lib/domain";
 
-type Kind = "timed_count" | "walk" | "plot_search";
-const KINDS: Kind[] = ["timed_count", "walk", "plot_search"];
 const trackKey = (id: string) => `track:${id}`;
 
 type Props = { db: FieldDatabase; eventId: string; zones: ZoneCollection | null; position: PositionState; session: LocalSession | null; sightingsInSession: number; onSaved: () => void };

@@ -9,8 +9,8 @@ import { preparePhoto, type PreparedPhoto } from "@/lib/field/photo";
 import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/lib/field/search";
 import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
 import { zoneAt } from "@/lib/field/zones";
+import { ZoneMap } from "@/components/zone-map";
 import type { PositionState } from "./use-position";
-import { ZoneMap } from "./zone-map";
 
 type Props = {
   db: FieldDatabase;
@@ -191,7 +191,18 @@ export function SightingForm({ db, eventId, locale, index, zones, position, sess
           {zones ? <button type="button" onClick={() => setShowMap((v) => !v)} aria-expanded={showMap} className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800">{showMap ? t("hideMap") : t("placeByHand")}</button> : null}
           {place && fix ? <button type="button" onClick={() => setPlace(null)} className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800">{t("usePhonePosition")}</button> : null}
         </div>
-        {showMap && zones ? <ZoneMap zones={zones} point={where} onPlace={(p) => setPlace({ ...p, manual: true })} /> : null}
+        {showMap && zones ? (
+          <figure className="space-y-1">
+            <ZoneMap
+              zones={zones.features.map((f) => ({ id: f.id, name: f.properties.name, geometry: f.geometry }))}
+              point={where ? { latitude: where.latitude, longitude: where.longitude } : null}
+              label={t("mapLabel")}
+              onPlace={(p) => setPlace({ ...p, manual: true })}
+              className="w-full touch-none rounded-lg border-2 border-reed-700 bg-white"
+            />
+            <figcaption className="text-sm text-ink-soft">{t("mapHint")}</figcaption>
+          </figure>
+        ) : null}
         <label className="block space-y-1">
           <span className="font-bold">{t("zone")}</span>
           <select value={zoneChoice} onChange={(e) => setZoneChoice(e.target.value)} className={input}>

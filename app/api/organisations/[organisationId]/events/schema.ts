@@ -2,6 +2,7 @@ import { z } from "zod";
 import { locales } from "@/lib/i18n/routing";
 import { isTimeZone } from "@/lib/time/zoned";
 import { isRealLocalDateTime, plainText } from "@/lib/validation/text";
+import { SESSION_KINDS } from "@/lib/domain";
 
 // An event's details, as the organiser's form and the server both read them. Dates are
 // wall-clock times in the event's own time zone ("2026-06-20T06:00"); the server turns
@@ -15,7 +16,7 @@ export const eventFields = z.object({
   endsLocal: localDateTime,
   timeZone: z.string().refine(isTimeZone, { error: "timeZone" }),
   languages: z.array(z.enum(locales)).min(1, { error: "pickOne" }).max(locales.length),
-  sessionKinds: z.array(z.enum(["timed_count", "walk", "plot_search"])).min(1, { error: "pickOne" }).max(3),
+  sessionKinds: z.array(z.enum(SESSION_KINDS)).min(1, { error: "pickOne" }).max(SESSION_KINDS.length),
   photoRequiredSensitive: z.boolean(),
   photoRequiredOffList: z.boolean(),
   accuracyLimitM: z.number({ error: "number" }).int({ error: "number" }).min(1, { error: "accuracyRange" }).max(10_000, { error: "accuracyRange" }),

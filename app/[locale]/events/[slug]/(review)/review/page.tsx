@@ -4,8 +4,7 @@ import { getTranslations, setRequestLocale } from "next-intl/server";
 import { queueChoices, reviewEventBySlug } from "@/db/queries/review";
 import { requirePageEventRole } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
-import { REJECT_REASONS } from "@/lib/review/decisions";
-import { CHECK_MARKS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/review/filters";
+import { CHECK_MARKS, REJECT_REASONS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/domain";
 import { ReviewDesk } from "./_components/review-desk";
 
 export const dynamic = "force-dynamic";

@@ -1,21 +1,16 @@
 "use client";
 
 import useSWR from "swr";
+import { ReviewStateMark } from "@/components/state-mark";
+import type { LiveFigures } from "@/db/queries/results";
+import type { Completeness } from "@/lib/results/live";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
-type Live = {
-  perHour: { hour: string; sightings: number }[];
-  activeVolunteers: { lastHour: number; today: number; total: number };
-  backlog: Record<"pending" | "approved" | "rejected" | "returned", number>;
-  completeness: {
-    observed: number; chao1: number; chao1Lower: number; chao1Upper: number; share: number; coverage: number;
-    zones: { id: string; name: string; observed: number; undetected: number; coverage: number; coverageDeficit: number; individuals: number }[];
-  };
-  at: string;
-};
+// The live handler's answer (app/api/events/[eventId]/live), dates as JSON strings.
+type Live = LiveFigures & { completeness: Completeness; at: string };
 
 export type LiveLabels = Record<
-  "perHour" | "volunteers" | "lastHour" | "today" | "total" | "backlog" | "pending" | "approved" | "rejected" | "returned" |
+  "perHour" | "volunteers" | "lastHour" | "today" | "total" | "backlog" |
   "completeness" | "share" | "coverage" | "nextTitle" | "nextIntro" | "zoneLine" | "unsampled" | "loading" | "failed" | "updated" | "hour" | "sightings",
   string
 >;
@@ -27,7 +22,6 @@ const fetcher = async (url: string): Promise<Live> => {
 };
 
 const fill = (s: string, v: Record<string, string | number>) => s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
-const ICON: Record<string, string> = { pending: "⏳", approved: "✓", rejected: "✗", returned: "↩" };
 
 /** The live board: refreshed every 15 s while the page is open (SWR polling). */
 export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels: LiveLabels; locale: string }) {
@@ -49,7 +43,7 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.backlog}>
           <h2 className="font-bold">{labels.backlog}</h2>
-          <ul>{(["pending", "returned", "approved", "rejected"] as const).map((s) => <li key={s}><span aria-hidden="true">{ICON[s]} </span>{labels[s]}: <b>{data.backlog[s]}</b></li>)}</ul>
+          <ul className="space-y-1">{(["pending", "returned", "approved", "rejected"] as const).map((s) => <li key={s}><ReviewStateMark state={s} />: <b>{data.backlog[s]}</b></li>)}</ul>
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.completeness}>
           <h2 className="font-bold">{labels.completeness}</h2>

@@ -4,8 +4,9 @@ import { useTranslations } from "next-intl";
 import { useState } from "react";
 import useSWR from "swr";
 import type { QueueItem } from "@/db/queries/review";
-import { DESK_KEYS, type RejectReason } from "@/lib/review/decisions";
+import { DESK_KEYS } from "@/lib/review/decisions";
 import { getJson } from "./desk-api";
+import type { RejectReason } from "@/lib/domain";
 
 export type Mode = null | "reject" | "return" | "reidentify";
 export type DecisionBody =

@@ -1,8 +1,8 @@
 import type { QueueItem, SightingDetail } from "@/db/queries/review";
-import type { ReviewStateName } from "@/lib/review/filters";
+import type { ReviewState } from "@/lib/domain";
 
 // The desk's calls to its handlers, and what they answer.
-export type QueueResponse = { items: QueueItem[]; nextCursor: string | null; counts: Record<ReviewStateName, number> };
+export type QueueResponse = { items: QueueItem[]; nextCursor: string | null; counts: Record<ReviewState, number> };
 export type DetailResponse = Omit<SightingDetail, "check">;
 export type Filters = Partial<Record<"state" | "zone" | "group" | "marks" | "volunteer" | "from" | "to" | "photo" | "order", string>>;
 

@@ -1,10 +1,11 @@
 "use client";
 
 import { useLocale, useTranslations } from "next-intl";
-import type { CheckMarkName, ReviewStateName } from "@/lib/review/filters";
-import { MarkChips, StateBadge } from "./badges";
+import type { CheckMark, ReviewState } from "@/lib/domain";
+import { ReviewStateMark } from "@/components/state-mark";
+import { MarkChips } from "./mark-chips";
+import { ZoneMap } from "@/components/zone-map";
 import type { DetailResponse } from "./desk-api";
-import { ZoneMap } from "./zone-map";
 
 type Props = { detail: DetailResponse; timeZone: string; eventId: string };
 
@@ -13,7 +14,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
   const t = useTranslations("ReviewDesk.detail");
   const tKind = useTranslations("ReviewDesk.sessionKinds");
   const tQueue = useTranslations("ReviewDesk.queue");
-  const tState = useTranslations("ReviewDesk.states");
+  const tState = useTranslations("StateMark.review");
   const tReason = useTranslations("ReviewDesk.reasons");
   const locale = useLocale();
   const s = detail.sighting;
@@ -31,10 +32,10 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
           {s.scientificName ? <i className="ml-2 font-normal text-ink-soft">{s.scientificName}</i> : null}
         </h2>
         <div className="flex flex-wrap items-center gap-2">
-          <StateBadge state={s.reviewState} />
+          <ReviewStateMark state={s.reviewState} />
           <span className="text-xs text-ink-soft">{t("version", { v: s.version })}</span>
         </div>
-        <MarkChips marks={s.checkMarks as CheckMarkName[]} />
+        <MarkChips marks={s.checkMarks as CheckMark[]} />
       </header>
       {s.sensitivity && s.sensitivity !== "open" ? (
         <p role="note" className="rounded border-2 border-heath-600 bg-heath-50 p-2 text-sm font-semibold text-heath-900">{t("sensitive")}</p>
@@ -63,7 +64,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
         {s.notes ? (<><dt className="font-semibold">{t("notes")}</dt><dd className="whitespace-pre-line">{s.notes}</dd></>) : null}
       </dl>
       <figure className="space-y-1">
-        <ZoneMap area={detail.map.area} zones={detail.map.zones} point={{ lon: s.lon, lat: s.lat, accuracyM: s.accuracyM }} zoneId={s.zoneId} label={t("map")} />
+        <ZoneMap area={detail.map.area} zones={detail.map.zones} point={{ longitude: s.lon, latitude: s.lat, accuracyM: s.accuracyM }} zoneId={s.zoneId} label={t("map")} />
         <figcaption className="text-xs text-ink-soft">{t("mapLegend")}</figcaption>
       </figure>
       <section aria-labelledby="photos-title">
@@ -101,7 +102,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
             {detail.history.map((h) => (
               <li key={h.id} className="border-l-4 border-reed-300 pl-2">
                 <span className="block text-ink-soft">{dt(h.decidedAt, "short")}</span>
-                {t("historyState", { who: h.reviewerName, from: tState(h.fromState as ReviewStateName), to: tState(h.toState as ReviewStateName) })}
+                {t("historyState", { who: h.reviewerName, from: tState(h.fromState as ReviewState), to: tState(h.toState as ReviewState) })}
                 {h.fromTaxon !== h.toTaxon ? <span className="block">{t("historyTaxon", { from: h.fromTaxon ?? "—", to: h.toTaxon ?? "—" })}</span> : null}
                 {h.reason ? <span className="block">{t("reason", { reason: reasonText(h.reason) })}</span> : null}
                 {h.message ? <span className="block whitespace-pre-line">{t("message", { message: h.message })}</span> : null}

@@ -1,13 +1,13 @@
 "use client";
 
 import { useTranslations } from "next-intl";
-import type { CheckMarkName, ReviewStateName, TaxonGroupName } from "@/lib/review/filters";
+import type { CheckMark, ReviewState, TaxonGroup } from "@/lib/domain";
 import type { Filters } from "./desk-api";
 
 type Props = {
   filters: Filters; onChange: (f: Filters) => void;
   zones: { id: string; name: string }[]; volunteers: { id: string; name: string }[];
-  groups: TaxonGroupName[]; marks: CheckMarkName[]; states: ReviewStateName[];
+  groups: TaxonGroup[]; marks: CheckMark[]; states: ReviewState[];
 };
 
 const select = "block min-h-10 w-full rounded border-2 border-reed-700 bg-white px-2 text-sm";
@@ -16,6 +16,7 @@ const select = "block min-h-10 w-full rounded border-2 border-reed-700 bg-white 
 export function FilterBar({ filters, onChange, zones, volunteers, groups, marks, states }: Props) {
   const t = useTranslations("ReviewDesk");
   const tGroup = useTranslations("TaxonGroup");
+  const tState = useTranslations("StateMark.review");
   const set = (key: keyof Filters) => (e: { target: { value: string } }) => onChange({ ...filters, [key]: e.target.value || undefined });
   const field = (id: string, label: string, control: React.ReactNode) => (
     <div className="min-w-0">
@@ -28,7 +29,7 @@ export function FilterBar({ filters, onChange, zones, volunteers, groups, marks,
       {field("f-state", t("filters.state"), (
         <select id="f-state" className={select} value={filters.state ?? ""} onChange={set("state")}>
           <option value="">{t("filters.any")}</option>
-          {states.map((s) => <option key={s} value={s}>{t(`states.${s}`)}</option>)}
+          {states.map((s) => <option key={s} value={s}>{tState(s)}</option>)}
         </select>
       ))}
       {field("f-mark", t("filters.mark"), (

@@ -6,9 +6,10 @@ import useSWR from "swr";
 import useSWRInfinite from "swr/infinite";
 import { secondaryButtonClass } from "@/components/ui/field";
 import type { QueueItem } from "@/db/queries/review";
-import { DESK_KEYS, type RejectReason } from "@/lib/review/decisions";
-import type { CheckMarkName, ReviewStateName, TaxonGroupName } from "@/lib/review/filters";
-import { MarkChips, StateBadge } from "./badges";
+import { DESK_KEYS } from "@/lib/review/decisions";
+import type { CheckMark, RejectReason, ReviewState, TaxonGroup } from "@/lib/domain";
+import { ReviewStateMark } from "@/components/state-mark";
+import { MarkChips } from "./mark-chips";
 import { DecisionPanel, type DecisionBody, type Mode } from "./decision-panel";
 import { DeskError, filterParams, getJson, postJson, type DetailResponse, type Filters, type QueueResponse } from "./desk-api";
 import { DetailPane } from "./detail-pane";
@@ -16,7 +17,7 @@ import { FilterBar } from "./filter-bar";
 
 type Props = {
   eventId: string; timeZone: string; zones: { id: string; name: string }[]; volunteers: { id: string; name: string }[];
-  groups: TaxonGroupName[]; marks: CheckMarkName[]; states: ReviewStateName[]; reasons: RejectReason[];
+  groups: TaxonGroup[]; marks: CheckMark[]; states: ReviewState[]; reasons: RejectReason[];
 };
 
 const TO_STATE = { approve: "approved", reject: "rejected", return: "returned" } as const;
@@ -70,7 +71,7 @@ export function ReviewDesk(props: Props) {
   }, [current]);
 
   const decide = useCallback(async (item: QueueItem, body: DecisionBody) => {
-    const toState: ReviewStateName = body.action === "reidentify" ? item.reviewState : TO_STATE[body.action];
+    const toState: ReviewState = body.action === "reidentify" ? item.reviewState : TO_STATE[body.action];
     // The version the coordinator is looking at: the detail pane may be fresher than the list.
     const shown = detail.data?.sighting.id === item.id ? detail.data.sighting.version : 0;
     const seenVersion = Math.max(item.version, shown);
@@ -164,7 +165,7 @@ export function ReviewDesk(props: Props) {
         <section aria-label={t("counts")}>
           <ul className="flex flex-wrap gap-2 text-sm">
             {props.states.map((s) => (
-              <li key={s} className="flex items-center gap-1"><StateBadge state={s} /><span>{counts ? counts[s] : "…"}</span></li>
+              <li key={s} className="flex items-center gap-1"><ReviewStateMark state={s} /><span>{counts ? counts[s] : "…"}</span></li>
             ))}
           </ul>
         </section>
@@ -232,7 +233,7 @@ export function ReviewDesk(props: Props) {
                     </td>
                     <td className="p-2 text-right tabular-nums">{item.countIsEstimate ? t("queue.about", { count: item.count }) : item.count}</td>
                     <td className="p-2">{item.volunteerName}</td>
-                    <td className="p-2"><StateBadge state={item.reviewState} /></td>
+                    <td className="p-2"><ReviewStateMark state={item.reviewState} /></td>
                   </tr>
                 ))}
               </tbody>

@@ -5,18 +5,17 @@ import { useFormatter, useTranslations } from "next-intl";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import useSWR from "swr";
-import { EVENT_ROLES, inviteInput, TAXON_GROUP_CODES, type InviteInput } from "@/app/api/events/[eventId]/setup/members/schema";
+import { inviteInput, type InviteInput } from "@/app/api/events/[eventId]/setup/members/schema";
+import { EVENT_ROLES, TAXON_GROUPS, type EventRole as Role, type MembershipAction, type TaxonGroup as Group } from "@/lib/domain";
 import { roleChangeInput, type RoleChangeInput } from "@/app/api/events/[eventId]/setup/members/[userId]/schema";
 import { buttonClass, Field, inputClass, secondaryButtonClass } from "@/components/ui/field";
 import { locales } from "@/lib/i18n/routing";
 import { applyServerErrors, useErrorText } from "@/components/setup/event-fields";
 import { fetcher, send } from "@/lib/http/client";
 
-type Role = (typeof EVENT_ROLES)[number];
-type Group = (typeof TAXON_GROUP_CODES)[number];
 type Member = { userId: string; name: string | null; email: string; role: Role; taxonGroups: Group[] };
 type Pending = { id: string; email: string; role: Role; taxonGroups: Group[]; createdAt: string; selfService: boolean };
-type LogLine = { id: number; at: string; action: "invited" | "joined" | "role_changed" | "removed" | "invitation_revoked"; subjectEmail: string; fromRole: Role | null; toRole: Role | null; taxonGroups: Group[] | null; actorEmail: string | null };
+type LogLine = { id: number; at: string; action: MembershipAction; subjectEmail: string; fromRole: Role | null; toRole: Role | null; taxonGroups: Group[] | null; actorEmail: string | null };
 type People = { members: Member[]; pending: Pending[]; log: LogLine[] };
 
 function GroupBoxes({ register, name, legend }: { register: ReturnType<typeof useForm<{ taxonGroups: Group[] }>>["register"]; name: "taxonGroups"; legend: string }) {
@@ -25,7 +24,7 @@ function GroupBoxes({ register, name, legend }: { register: ReturnType<typeof us
     <fieldset className="space-y-1">
       <legend className="text-sm font-semibold">{legend}</legend>
       <div className="flex flex-wrap gap-x-4">
-        {TAXON_GROUP_CODES.map((g) => (
+        {TAXON_GROUPS.map((g) => (
           <label key={g} className="flex min-h-touch items-center gap-2 text-sm"><input type="checkbox" value={g} className="size-5" {...register(name)} />{tGroup(g)}</label>
         ))}
       </div>

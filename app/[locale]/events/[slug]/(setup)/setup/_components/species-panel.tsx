@@ -6,8 +6,10 @@ import useSWR from "swr";
 import { buttonClass } from "@/components/ui/field";
 import { fetcher, send } from "@/lib/http/client";
 import { ReportTable, type ReportLine } from "./report-table";
+import type { taxa } from "@/db/schema";
+import { TAXON_GROUPS, TAXON_RANKS } from "@/lib/domain";
 
-type Species = { id: string; scientificName: string; rank: string; taxonGroup: string; sensitivity: string; names: Record<string, string> };
+type Species = Pick<typeof taxa.$inferSelect, "id" | "scientificName" | "rank" | "taxonGroup" | "sensitivity"> & { names: Record<string, string> };
 type Summary = { rows: number; newTaxa: number; addedToList: number; alreadyListed: number; namesAdded: number; namesKept: number };
 type Answer = { saved?: boolean; summary?: Summary; report?: ReportLine[]; notices?: { line: number; message: string }[] };
 
@@ -55,8 +57,8 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
           <summary className="cursor-pointer font-semibold">{t("formatTitle")}</summary>
           <ul className="ml-5 list-disc space-y-1 pt-2">
             <li>{t("formatColumns")}</li>
-            <li>{t("formatGroups", { list: "birds, vascular_plants, insects, fungi, mammals, amphibians_reptiles, molluscs, other" })}</li>
-            <li>{t("formatRanks", { list: "family, genus, species, subspecies, variety, form" })}</li>
+            <li>{t("formatGroups", { list: TAXON_GROUPS.join(", ") })}</li>
+            <li>{t("formatRanks", { list: TAXON_RANKS.join(", ") })}</li>
             <li>{t("formatSensitivity")}</li>
           </ul>
         </details>
@@ -91,8 +93,8 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
                 <tr key={s.id} className="border-b border-reed-100">
                   <th scope="row" className="py-1 font-normal italic">{s.scientificName}</th>
                   <td>{s.names[locale] ?? s.names.en ?? ""}</td>
-                  <td>{tGroup(s.taxonGroup as never)}</td>
-                  <td>{t(`sensitivity.${s.sensitivity as "open" | "generalised" | "restricted"}`)}</td>
+                  <td>{tGroup(s.taxonGroup)}</td>
+                  <td>{t(`sensitivity.${s.sensitivity}`)}</td>
                 </tr>
               ))}
             </tbody>

@@ -7,6 +7,7 @@ import { buttonClass } from "@/components/ui/field";
 import { fetcher, send } from "@/lib/http/client";
 import { PolygonPreview, type PreviewZone } from "./polygon-preview";
 import { ReportTable, type ReportLine } from "./report-table";
+import { HABITATS } from "@/lib/domain";
 
 type Geometry = { type: string; coordinates: unknown } | null;
 type Stored = { area: Geometry; zones: { id: string; name: string; habitat: string; areaHa: number; records: number; geometry: Geometry }[] };
@@ -80,7 +81,7 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
           <ul className="ml-5 list-disc space-y-1 pt-2">
             <li>{t("formatArea")}</li>
             <li>{t("formatZones")}</li>
-            <li>{t("formatHabitats", { list: "interior, edge, wetland, open_water, grassland, woodland, urban, other" })}</li>
+            <li>{t("formatHabitats", { list: HABITATS.join(", ") })}</li>
             <li>{t("formatWgs84")}</li>
           </ul>
         </details>

@@ -22,7 +22,7 @@ export const POST = handle(async (request, ctx: { params: Promise<{ eventId: str
     case "conflict":
       throw new ApiError("conflict", [{
         field: "version",
-        message: t("errors.conflict", { state: t(`states.${result.current.reviewState}`), version: result.current.version }),
+        message: t("errors.conflict", { state: translator(requestLocale(request), "StateMark")(`review.${result.current.reviewState}`), version: result.current.version }),
       }]);
     case "unchanged":
       throw new ApiError("unprocessable", [{ field: "action", message: t("errors.unchanged") }]);

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { REJECT_REASONS } from "@/lib/review/decisions";
+import { REJECT_REASONS } from "@/lib/domain";
 
 const version = z.number().int().min(1).max(2_147_483_647); // the version the coordinator saw
 const note = z.string().max(2000).optional();
