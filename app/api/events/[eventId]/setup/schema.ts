@@ -7,5 +7,3 @@ export const updateEventInput = eventFields.extend({
   status: z.enum(["draft", "open", "closed"]),
 }).strict().refine(endsAfterStarts, { error: "endsBeforeStart", path: ["endsLocal"] });
 export type UpdateEventInput = z.infer<typeof updateEventInput>;
-
-export const setupQuery = z.object({}).strict();

@@ -3,6 +3,7 @@ import { requireEventRole } from "@/server/auth/guard";
 import { env } from "@/lib/env";
 import { parseJson } from "@/lib/http/body";
 import { handle, requestLocale } from "@/lib/http/errors";
+import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
 import { syncBatch, type SyncResponse } from "@/lib/sync/records";
 
@@ -12,7 +13,7 @@ type Ctx = { params: Promise<{ eventId: string }> };
 // the event (volunteer or above) may send their own records; each record is answered on
 // its own (see db/queries/sync.ts), so a bad record never refuses its neighbours.
 export const POST = handle<Ctx>(async (request, { params }) => {
-  const { eventId } = await params;
+  const { eventId } = await parseParams(params, { eventId: pathId });
   const permit = await requireEventRole(eventId, "volunteer");
   limitWrites(`sync:${permit.user.id}`, env().SYNC_BATCHES_PER_MINUTE);
   const batch = await parseJson(request, syncBatch);
