@@ -1,6 +1,7 @@
 "use client";
 
 import useSWR from "swr";
+import { fetcher } from "@/lib/http/client";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
 type Live = {
@@ -20,18 +21,12 @@ export type LiveLabels = Record<
   string
 >;
 
-const fetcher = async (url: string): Promise<Live> => {
-  const res = await fetch(url);
-  if (!res.ok) throw new Error(String(res.status));
-  return (await res.json()) as Live;
-};
-
 const fill = (s: string, v: Record<string, string | number>) => s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
 const ICON: Record<string, string> = { pending: "⏳", approved: "✓", rejected: "✗", returned: "↩" };
 
 /** The live board: refreshed every 15 s while the page is open (SWR polling). */
 export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels: LiveLabels; locale: string }) {
-  const { data, error } = useSWR(`/api/events/${eventId}/live`, fetcher, { refreshInterval: 15_000 });
+  const { data, error } = useSWR<Live>(`/api/events/${eventId}/live`, fetcher, { refreshInterval: 15_000 });
   const pct = (v: number) => new Intl.NumberFormat(locale, { style: "percent", maximumFractionDigits: 1 }).format(v);
   const num = (v: number) => new Intl.NumberFormat(locale, { maximumFractionDigits: 1 }).format(v);
   if (error) return <p role="alert">{labels.failed}</p>;
