@@ -13,7 +13,7 @@ import { requireEventRole, type EventPermit } from "@/server/auth/guard";
 const noQuery = z.object({}).strict();
 
 /** A setup read: an organiser of the event; no query parameters. */
-export async function setupRead(request: Request, eventId: string): Promise<EventPermit> {
+export async function requireSetupReadPermit(request: Request, eventId: string): Promise<EventPermit> {
   const permit = await requireEventRole(eventId, "organiser");
   parseQuery(request, noQuery);
   return permit;
@@ -27,9 +27,9 @@ type WriteOptions = {
 type Write<T> = EventPermit & { input: T; locale: Locale };
 
 /** A setup write: an organiser of the event, within the write limit, with the body read by `schema` (none without it). */
-export async function setupWrite(request: Request, eventId: string): Promise<Write<undefined>>;
-export async function setupWrite<S extends z.ZodType>(request: Request, eventId: string, schema: S, options?: WriteOptions): Promise<Write<z.infer<S>>>;
-export async function setupWrite(request: Request, eventId: string, schema?: z.ZodType, options: WriteOptions = {}): Promise<Write<unknown>> {
+export async function requireSetupWritePermit(request: Request, eventId: string): Promise<Write<undefined>>;
+export async function requireSetupWritePermit<S extends z.ZodType>(request: Request, eventId: string, schema: S, options?: WriteOptions): Promise<Write<z.infer<S>>>;
+export async function requireSetupWritePermit(request: Request, eventId: string, schema?: z.ZodType, options: WriteOptions = {}): Promise<Write<unknown>> {
   const permit = await requireEventRole(eventId, "organiser");
   const [prefix, calls, windowMs] = options.limit ?? ["setup", 120, 60_000];
   limitWrites(`${prefix}:${permit.user.id}`, calls, windowMs);

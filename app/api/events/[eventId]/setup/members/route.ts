@@ -6,7 +6,7 @@ import { ApiError, handle } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
 import { translator } from "@/lib/i18n/translator";
 import { drainOutbox } from "@/server/mail/queue";
-import { setupRead, setupWrite } from "@/server/setup/handler";
+import { requireSetupReadPermit, requireSetupWritePermit } from "@/server/setup/handler";
 import { inviteInput } from "./schema";
 
 type Ctx = { params: Promise<{ eventId: string }> };
@@ -16,7 +16,7 @@ export const INVITATION_MAX_AGE_S = 7 * 24 * 60 * 60;
 // Who holds which role, open invitations, and the log of every change.
 export const GET = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  await setupRead(request, eventId);
+  await requireSetupReadPermit(request, eventId);
   return Response.json(await membersOf(eventId), { headers: { "Cache-Control": "no-store" } });
 });
 
@@ -24,7 +24,7 @@ export const GET = handle<Ctx>(async (request, { params }) => {
 // the mail right after the answer (and retries later if the mail server is down).
 export const POST = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  const { user, input, locale } = await setupWrite(request, eventId, inviteInput, { limit: ["invite", 60, 60 * 60_000] });
+  const { user, input, locale } = await requireSetupWritePermit(request, eventId, inviteInput, { limit: ["invite", 60, 60 * 60_000] });
   const event = await eventForSetup(eventId);
   if (!event) throw new ApiError("not_found");
   const tRole = translator(input.locale, "Role");

@@ -3,7 +3,7 @@ import { handle } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
 import { translator } from "@/lib/i18n/translator";
 import { parseSpeciesCsv } from "@/lib/species/csv";
-import { setupRead, setupWrite } from "@/server/setup/handler";
+import { requireSetupReadPermit, requireSetupWritePermit } from "@/server/setup/handler";
 import { csvReport, reportResponse } from "@/server/setup/upload-report";
 import { MAX_CSV_CHARS, speciesUploadInput } from "./schema";
 
@@ -12,7 +12,7 @@ export const dynamic = "force-dynamic";
 
 export const GET = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  await setupRead(request, eventId);
+  await requireSetupReadPermit(request, eventId);
   return Response.json({ species: await listEventSpecies(eventId) }, { headers: { "Cache-Control": "no-store" } });
 });
 
@@ -20,7 +20,7 @@ export const GET = handle<Ctx>(async (request, { params }) => {
 // anything is stored; then merged into the event's list in one transaction.
 export const PUT = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  const { input: { csv, save }, locale } = await setupWrite(request, eventId, speciesUploadInput, { maxBytes: MAX_CSV_CHARS * 2 });
+  const { input: { csv, save }, locale } = await requireSetupWritePermit(request, eventId, speciesUploadInput, { maxBytes: MAX_CSV_CHARS * 2 });
   const parsed = parseSpeciesCsv(csv);
   if (parsed.problems.length) return reportResponse(csvReport(parsed.problems, locale), locale);
   const result = await importSpecies(eventId, parsed.rows, save);

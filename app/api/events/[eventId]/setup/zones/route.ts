@@ -2,7 +2,7 @@ import { areaAndZones, uploadAreaAndZones } from "@/db/queries/setup-zones";
 import { parseAreaAndZones } from "@/lib/geo/geojson";
 import { handle } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
-import { setupRead, setupWrite } from "@/server/setup/handler";
+import { requireSetupReadPermit, requireSetupWritePermit } from "@/server/setup/handler";
 import { geoReport, reportResponse } from "@/server/setup/upload-report";
 import { MAX_GEOJSON_BYTES, zonesUploadInput } from "./schema";
 
@@ -11,7 +11,7 @@ export const dynamic = "force-dynamic";
 
 export const GET = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  await setupRead(request, eventId);
+  await requireSetupReadPermit(request, eventId);
   return Response.json(await areaAndZones(eventId), { headers: { "Cache-Control": "no-store" } });
 });
 
@@ -19,7 +19,7 @@ export const GET = handle<Ctx>(async (request, { params }) => {
 // transaction only when nothing is wrong. Problems come back as a report per feature.
 export const PUT = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  const { input: { geojson, save }, locale } = await setupWrite(request, eventId, zonesUploadInput, { maxBytes: MAX_GEOJSON_BYTES });
+  const { input: { geojson, save }, locale } = await requireSetupWritePermit(request, eventId, zonesUploadInput, { maxBytes: MAX_GEOJSON_BYTES });
   const parsed = parseAreaAndZones(geojson);
   if (parsed.problems.length || !parsed.area) return reportResponse(geoReport(parsed.problems, locale), locale);
   const result = await uploadAreaAndZones(eventId, parsed.area, parsed.zones, save);

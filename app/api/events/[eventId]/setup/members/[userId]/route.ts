@@ -3,7 +3,7 @@ import { ApiError, handle } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
 import type { Locale } from "@/lib/i18n/routing";
 import { translator } from "@/lib/i18n/translator";
-import { setupWrite } from "@/server/setup/handler";
+import { requireSetupWritePermit } from "@/server/setup/handler";
 import { roleChangeInput } from "./schema";
 
 type Ctx = { params: Promise<{ eventId: string; userId: string }> };
@@ -18,7 +18,7 @@ function notOwnRole(locale: Locale, actorId: string, userId: string) {
 // Change a member's role (a coordinator optionally limited to taxon groups); logged.
 export const PATCH = handle<Ctx>(async (request, { params }) => {
   const { eventId, userId } = await parseParams(params, { eventId: pathId, userId: pathId });
-  const { user, input, locale } = await setupWrite(request, eventId, roleChangeInput);
+  const { user, input, locale } = await requireSetupWritePermit(request, eventId, roleChangeInput);
   notOwnRole(locale, user.id, userId);
   const outcome = await changeMemberRole(eventId, userId, input.role, input.taxonGroups, user.id);
   if (outcome === "notMember") throw new ApiError("not_found");
@@ -28,7 +28,7 @@ export const PATCH = handle<Ctx>(async (request, { params }) => {
 // Remove a member from the event; their records stay, and the removal is logged.
 export const DELETE = handle<Ctx>(async (request, { params }) => {
   const { eventId, userId } = await parseParams(params, { eventId: pathId, userId: pathId });
-  const { user, locale } = await setupWrite(request, eventId);
+  const { user, locale } = await requireSetupWritePermit(request, eventId);
   notOwnRole(locale, user.id, userId);
   if (!(await removeMember(eventId, userId, user.id))) throw new ApiError("not_found");
   return Response.json({ ok: true });
