@@ -82,7 +82,6 @@ export async function getReport(eventId: string, version: number, options: { wit
 }
 
 export async function getReportById(id: string, options: { withInputs?: boolean } = {}) {
-  if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
   const r = await getDb().execute<{ eventId: string; version: number }>(sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`);
   const row = r.rows[0];
   return row ? getReport(row.eventId, row.version, options) : null;

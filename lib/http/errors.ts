@@ -1,7 +1,8 @@
+import { createTranslator } from "next-intl";
 import { z } from "zod";
 import { env } from "@/lib/env";
 import { isLocale, routing, type Locale } from "@/lib/i18n/routing";
-import { translator } from "@/lib/i18n/translator";
+import { catalogues, translator } from "@/lib/i18n/translator";
 
 // One error type for every route handler (conventions, habit 5): a code maps to an
 // HTTP status and a translated message a person can act on.
@@ -20,6 +21,9 @@ export const errorStatus = {
 export type ErrorCode = keyof typeof errorStatus;
 
 export type FieldProblem = { field: string; message: string };
+
+/** The body of every error answer (errorResponse writes it; lib/http/client.ts reads it). */
+export type ApiErrorBody = { error: { code: ErrorCode; message: string; fields: FieldProblem[] } };
 
 export class ApiError extends Error {
   constructor(
@@ -48,13 +52,33 @@ export function apiTranslator(locale: Locale) {
   return translator(locale, "ApiErrors");
 }
 
-/** Field problems from a zod error, in the person's language, naming the field. */
-export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProblem[] {
+type Catalogue = (typeof catalogues)["en"];
+/** A namespace of message keys that schemas may use as their zod messages, e.g. "Setup.errors". */
+export type MessageKeys = {
+  [N in keyof Catalogue & string]: { [M in keyof Catalogue[N] & string]: Catalogue[N][M] extends Record<string, string> ? `${N}.${M}` : never }[keyof Catalogue[N] & string];
+}[keyof Catalogue & string];
+
+function keyedMessage(namespace: MessageKeys | undefined, message: string, locale: Locale): string | null {
+  if (!namespace) return null;
+  const [top, sub] = namespace.split(".") as [keyof Catalogue, string];
+  const keys = (catalogues.en[top] as Record<string, Record<string, string>>)[sub];
+  if (!keys || !Object.hasOwn(keys, message)) return null;
+  return createTranslator({ locale, messages: catalogues[locale], namespace: namespace as never })(message as never);
+}
+
+/**
+ * Field problems from a zod error, in the person's language, naming the field. A schema
+ * shared with a form may give its issues message keys of one namespace (`messages`, e.g.
+ * "Setup.errors"): those are translated as they are; any other issue gets the general text.
+ */
+export function zodFieldProblems(error: z.ZodError, locale: Locale, messages?: MessageKeys): FieldProblem[] {
   const t = apiTranslator(locale);
   return error.issues.map((issue) => {
     const at = issue.path.map(String);
     // An unknown key is named as the field itself, so the caller sees which one to drop.
     const field = issue.code === "unrecognized_keys" ? [...at, issue.keys.join(",")].join(".") : at.length ? at.join(".") : "(body)";
+    const keyed = keyedMessage(messages, issue.message, locale);
+    if (keyed !== null) return { field, message: keyed };
     let message: string;
     switch (issue.code) {
       case "invalid_type":
@@ -81,8 +105,9 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProble
 
 export function errorResponse(error: ApiError, locale: Locale): Response {
   const t = apiTranslator(locale);
+  const body: ApiErrorBody = { error: { code: error.code, message: t(`code.${error.code}`, error.values), fields: error.fields } };
   return Response.json(
-    { error: { code: error.code, message: t(`code.${error.code}`, error.values), fields: error.fields } },
+    body,
     { status: errorStatus[error.code], headers: { "Cache-Control": "no-store" } },
   );
 }
@@ -127,9 +152,9 @@ export function assertSameOrigin(request: Request): void {
 }
 
 /** Parses URL query parameters with a strict zod schema (unknown parameters are refused). */
-export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.infer<T> {
+export function parseQuery<T extends z.ZodType>(request: Request, schema: T, messages?: MessageKeys): z.infer<T> {
   const params = Object.fromEntries(new URL(request.url).searchParams);
   const parsed = schema.safeParse(params);
-  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, requestLocale(request)));
+  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, requestLocale(request), messages));
   return parsed.data;
 }

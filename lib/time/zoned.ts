@@ -39,3 +39,8 @@ export function utcToZonedLocal(instant: Date, tz: string): string {
   const shifted = new Date(instant.getTime() + offsetAt(instant.getTime(), tz));
   return shifted.toISOString().slice(0, 16);
 }
+
+/** An event's wall-clock dates ("2026-06-20T06:00") as instants in its time zone. */
+export function eventInstants(v: { startsLocal: string; endsLocal: string; timeZone: string }): { startsAt: Date; endsAt: Date } {
+  return { startsAt: zonedLocalToUtc(v.startsLocal, v.timeZone), endsAt: zonedLocalToUtc(v.endsLocal, v.timeZone) };
+}

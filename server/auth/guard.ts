@@ -3,6 +3,7 @@ import { getServerSession } from "next-auth";
 import { eventAccess, findUserById, isOrganisationOrganiser, type EventAccess } from "@/db/queries/auth";
 import { SITE_ADMIN, type EffectiveRole, type EventRole, type TaxonGroup } from "@/lib/domain";
 import { ApiError } from "@/lib/http/errors";
+import { isUuid } from "@/lib/http/params";
 import { authOptions } from "@/server/auth/options";
 
 // The one authorisation helper (conventions, habit 4). Every route handler and every
@@ -51,7 +52,7 @@ export async function requireEventRole(eventId: string, minimum: EventRole): Pro
 
 /** requireEventRole's check for a person already known (a signed-in user, or a test's person). */
 export async function eventPermitFor(user: SessionUser, eventId: string, minimum: EventRole): Promise<EventPermit> {
-  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(eventId)) throw new ApiError("not_found"); // never a malformed uuid to PostgreSQL
+  if (!isUuid(eventId)) throw new ApiError("not_found"); // never a malformed uuid to PostgreSQL (handlers parse theirs first)
   const access = await eventAccess(user.id, eventId);
   if (!access) throw new ApiError("not_found");
   const role = effectiveRole(user, access);
@@ -63,6 +64,6 @@ export async function eventPermitFor(user: SessionUser, eventId: string, minimum
 export async function requireOrganisationOrganiser(organisationId: string): Promise<SessionUser> {
   const user = await requireUser();
   if (user.isAdmin) return user;
-  if (!/^[0-9a-f-]{36}$/i.test(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId))) throw new ApiError("forbidden");
+  if (!isUuid(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId))) throw new ApiError("forbidden");
   return user;
 }

@@ -5,6 +5,7 @@ import { findPhoto, insertPhoto, sightingForPhotos, type PhotoSighting } from "@
 import type { PhotoConfirmAnswer, PhotoUploadAnswer, PhotoUploadInput } from "@/app/api/events/[eventId]/photos/schema";
 import { env } from "@/lib/env";
 import { ApiError } from "@/lib/http/errors";
+import { isUuid } from "@/lib/http/params";
 import type { Locale } from "@/lib/i18n/routing";
 import { translator } from "@/lib/i18n/translator";
 import { deleteObject, presignGet, presignPut, readObject, writeObject } from "@/server/storage/s3";
@@ -108,7 +109,7 @@ export async function stripAndThumbnail(bytes: Buffer, type: PhotoType) {
  * groups and unidentified sightings).
  */
 export async function photoLink(c: Caller & { role: string; taxonGroups: string[] }, photoId: string, size: "thumb" | "full"): Promise<string> {
-  const photo = /^[0-9a-f-]{36}$/i.test(photoId) ? await findPhoto(photoId.toLowerCase()) : null;
+  const photo = isUuid(photoId) ? await findPhoto(photoId.toLowerCase()) : null;
   if (!photo || photo.sighting.eventId !== c.eventId) throw new ApiError("not_found");
   const own = photo.sighting.userId === c.userId;
   const reviewer = c.role !== "volunteer" && (c.taxonGroups.length === 0 || photo.sighting.taxonGroup === null || c.taxonGroups.includes(photo.sighting.taxonGroup));

@@ -114,3 +114,42 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
   expect(problems).toEqual([]);
   if (accepted === 0) expect(await tableCounts()).toEqual(before);
 });
+
+test("a malformed id in any path (36 dashes, loose hex) is a structured 404, never a 5xx", async ({ page, baseURL }) => {
+  await page.goto("/en/sign-in");
+  const form = page.getByRole("form", { name: "Sign in with a password" });
+  await form.getByLabel("E-mail address").fill("organiser@example.org");
+  await form.getByLabel("Password").fill(DEMO_PASSWORD);
+  await form.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL(/\/account/);
+
+  const ids = await demoIds();
+  const uuidKeys = (Object.keys(ids) as (keyof typeof ids)[]).filter((k) => /^[0-9a-f-]{36}$/i.test(ids[k]));
+  // 36 dashes passed the old loose pattern /^[0-9a-f-]{36}$/ and reached PostgreSQL; the others are near misses.
+  const malformed = ["-".repeat(36), "0000000g-0000-4000-8000-000000000000", `${ids.eventId}x`, "0".repeat(36)];
+  const problems: string[] = [];
+  let tried = 0;
+  for (const route of ROUTES.filter((r) => /\[\w+Id\]/.test(r.file))) {
+    const good = route.path(ids);
+    const variants = new Set<string>();
+    for (const bad of malformed) {
+      for (const k of uuidKeys) {
+        const path = route.path({ ...ids, [k]: bad });
+        if (path !== good) variants.add(path);
+      }
+      if (good.includes("00000000-0000-0000-0000-000000000000")) variants.add(good.replace("00000000-0000-0000-0000-000000000000", bad));
+    }
+    expect(variants.size, `${route.method} ${route.file} has an id in its path`).toBeGreaterThan(0);
+    for (const path of variants) {
+      tried++;
+      const res = await page.request.fetch(path, {
+        method: route.method, headers: { "content-type": "application/json", origin: baseURL! },
+        data: route.body ? JSON.stringify(route.body(ids)) : undefined,
+      });
+      const json = await res.json().catch(() => null);
+      if (res.status() !== 404 || json?.error?.code !== "not_found") problems.push(`${route.method} ${path} → ${res.status()} ${JSON.stringify(json)?.slice(0, 120)}`);
+    }
+  }
+  expect(tried).toBeGreaterThan(20);
+  expect(problems).toEqual([]);
+});

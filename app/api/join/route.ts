@@ -5,11 +5,11 @@ import { getSessionUser } from "@/server/auth/guard";
 import { createMagicLink } from "@/server/auth/magic-link";
 import { invitationMail } from "@/server/auth/mails";
 import { clientIp } from "@/server/auth/sign-in-limit";
+import { parseJson } from "@/lib/http/body";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
 import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
 import { drainOutbox } from "@/server/mail/queue";
-import { parseSetupBody } from "@/lib/setup/api";
 import { joinInput } from "./schema";
 
 const JOIN_LINK_MAX_AGE_S = 7 * 24 * 60 * 60;
@@ -19,7 +19,7 @@ const JOIN_LINK_MAX_AGE_S = 7 * 24 * 60 * 60;
 // address given, and the volunteer role is given when that link is used. Limited per IP.
 export const POST = handle(async (request) => {
   limitWrites(`join:${clientIp(request.headers)}`, 20, 15 * 60_000);
-  const input = await parseSetupBody(request, joinInput);
+  const input = await parseJson(request, joinInput, { messages: "Setup.errors" });
   const t = translator(requestLocale(request), "Setup");
   const event = await eventByJoinCode(input.code);
   if (!event) throw new ApiError("not_found", [{ field: "code", message: t("errors.codeUnknown") }]);

@@ -6,25 +6,28 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { setPasswordInput, type SetPasswordInput } from "@/app/api/account/password/schema";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
+import { api, ApiClientError } from "@/lib/http/client";
 
 type RuleKey = "tooShort" | "tooLong" | "sameAsEmail" | "tooCommon";
 
 export function PasswordForm() {
   const t = useTranslations("Account");
+  const tSetup = useTranslations("Setup");
   const [saved, setSaved] = useState(false);
   const form = useForm<SetPasswordInput>({ resolver: zodResolver(setPasswordInput) });
   const error = form.formState.errors.password;
 
   const submit = form.handleSubmit(async (values) => {
     setSaved(false);
-    const res = await fetch("/api/account/password", { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify(values) });
-    if (res.ok) {
-      setSaved(true);
-      form.reset();
+    try {
+      await api.send("/api/account/password", "PUT", values);
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      form.setError("password", { message: err.problem || tSetup("genericError") });
       return;
     }
-    const body = await res.json().catch(() => null);
-    form.setError("password", { message: body?.error?.fields?.[0]?.message ?? body?.error?.message ?? "" });
+    setSaved(true);
+    form.reset();
   });
 
   // Client-side problems carry a rule key; the server's come already translated.

@@ -11,7 +11,7 @@ import { setPasswordInput } from "./schema";
 export const PUT = handle(async (request) => {
   const user = await requireUser();
   limitWrites(`password:${user.id}`, 10, 15 * 60_000);
-  const { password } = await parseJson(request, setPasswordInput);
+  const { password } = await parseJson(request, setPasswordInput, { messages: "Account.passwordRules" });
   const problems = passwordProblems(password, user.email);
   if (problems.length) {
     const t = translator(requestLocale(request), "Account");

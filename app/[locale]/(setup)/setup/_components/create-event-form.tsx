@@ -8,7 +8,7 @@ import { createEventInput, type CreateEventInput } from "@/app/api/organisations
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
 import { useRouter } from "@/lib/i18n/navigation";
 import { applyServerErrors, EventFields, useErrorText } from "@/components/setup/event-fields";
-import { send } from "@/lib/http/client";
+import { api, ApiClientError } from "@/lib/http/client";
 
 const FIELDS = ["name", "slug", "description", "startsLocal", "endsLocal", "timeZone", "languages", "sessionKinds", "accuracyLimitM"];
 
@@ -35,13 +35,13 @@ export function CreateEventForm({ organisations, locale }: { organisations: { id
 
   const submit = form.handleSubmit(async (values) => {
     setProblem(null);
-    const res = await send<{ id: string; slug: string }>(`/api/organisations/${organisationId}/events`, "POST", values);
-    if (res.ok) {
-      router.push(`/events/${res.body.slug}/setup`);
-      return;
+    try {
+      const made = await api.send<{ id: string; slug: string }>(`/api/organisations/${organisationId}/events`, "POST", values);
+      router.push(`/events/${made.slug}/setup`);
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      if (!applyServerErrors(form.setError as never, err.fields, FIELDS)) setProblem(err.message || t("genericError"));
     }
-    const placed = applyServerErrors(form.setError as never, res.body.error?.fields, FIELDS);
-    if (!placed) setProblem(res.body.error?.message ?? t("genericError"));
   });
 
   return (

@@ -6,12 +6,16 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { joinInput, type JoinInput } from "@/app/api/join/schema";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
+import { api, ApiClientError } from "@/lib/http/client";
 import { Link } from "@/lib/i18n/navigation";
+
+type Outcome = "joined" | "alreadyMember" | "mailed";
 
 export function JoinForm({ code, locale, signedInAs, eventSlug }: { code: string; locale: string; signedInAs: string | null; eventSlug: string }) {
   const t = useTranslations("Join");
   const tErr = useTranslations("Setup.errors");
-  const [outcome, setOutcome] = useState<"joined" | "alreadyMember" | "mailed" | null>(null);
+  const tSetup = useTranslations("Setup");
+  const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
   const form = useForm<JoinInput>({
     resolver: zodResolver(joinInput),
@@ -20,13 +24,13 @@ export function JoinForm({ code, locale, signedInAs, eventSlug }: { code: string
   const { errors, isSubmitting } = form.formState;
   const submit = form.handleSubmit(async (values) => {
     setProblem(null);
-    const res = await fetch("/api/join", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(values) });
-    const body = await res.json().catch(() => ({}));
-    if (res.ok) setOutcome(body.outcome);
-    else {
-      const field = body?.error?.fields?.[0];
+    try {
+      setOutcome((await api.send<{ outcome: Outcome }>("/api/join", "POST", values)).outcome);
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      const field = err.fields[0];
       if (field?.field === "email") form.setError("email", { message: field.message });
-      else setProblem(field?.message ?? body?.error?.message ?? "");
+      else setProblem(err.problem || tSetup("genericError"));
     }
   });
 

@@ -8,5 +8,3 @@ export const updateEventInput = eventFields.extend({
   status: z.enum(EVENT_STATUSES),
 }).strict().refine(endsAfterStarts, { error: "endsBeforeStart", path: ["endsLocal"] });
 export type UpdateEventInput = z.infer<typeof updateEventInput>;
-
-export const setupQuery = z.object({}).strict();

@@ -3,6 +3,7 @@ import { answerBatch } from "@/server/sync/answer";
 import { env } from "@/lib/env";
 import { parseJson } from "@/lib/http/body";
 import { handle, requestLocale } from "@/lib/http/errors";
+import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
 import type { SyncResponse } from "@/lib/sync/acks";
 import { syncBatch } from "@/lib/sync/records";
@@ -14,7 +15,7 @@ type Ctx = { params: Promise<{ eventId: string }> };
 // once. Each record is then parsed, stored and answered on its own (server/sync/answer.ts,
 // db/queries/sync.ts), so a bad record never refuses its neighbours.
 export const POST = handle<Ctx>(async (request, { params }) => {
-  const { eventId } = await params;
+  const { eventId } = await parseParams(params, { eventId: pathId });
   const permit = await requireEventRole(eventId, "volunteer");
   limitWrites(`sync:${permit.user.id}`, env().SYNC_BATCHES_PER_MINUTE);
   const batch = await parseJson(request, syncBatch);

@@ -1,7 +1,9 @@
 import { sql } from "drizzle-orm";
+import { z } from "zod";
 import { getDb } from "@/db/client";
 import { getReportById, reportOccurrences } from "@/db/queries/reports";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { parseParams, pathId } from "@/lib/http/params";
 import { darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
 
 // Public by design: a published report and its downloads are for anyone (design.md,
@@ -13,8 +15,7 @@ type Ctx = { params: Promise<{ reportId: string; file: string }> };
 const FILES = ["species.csv", "darwin-core-archive.zip", "sightings.geojson"] as const;
 
 export const GET = handle(async (request, { params }: Ctx) => {
-  const { reportId, file } = await params;
-  if (!(FILES as readonly string[]).includes(file)) throw new ApiError("not_found");
+  const { reportId, file } = await parseParams(params, { reportId: pathId, file: z.enum(FILES) });
   const report = await getReportById(reportId, { withInputs: file !== "species.csv" });
   if (!report) throw new ApiError("not_found");
   const locale = requestLocale(request);

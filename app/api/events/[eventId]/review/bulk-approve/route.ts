@@ -1,6 +1,7 @@
 import { bulkApprove, MAX_BULK } from "@/db/queries/review";
 import { parseJson } from "@/lib/http/body";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
 import { requireReviewPermit } from "@/server/review/permit";
@@ -8,7 +9,7 @@ import { bulkApproveInput } from "./schema";
 
 // Approves every pending sighting matching the filters, if their number is still the one confirmed.
 export const POST = handle(async (request, ctx: { params: Promise<{ eventId: string }> }) => {
-  const { eventId } = await ctx.params;
+  const { eventId } = await parseParams(ctx.params, { eventId: pathId });
   const { user, scope } = await requireReviewPermit(eventId, request);
   limitWrites(`review:${user.id}`, 240);
   const { filters, expectedCount } = await parseJson(request, bulkApproveInput);

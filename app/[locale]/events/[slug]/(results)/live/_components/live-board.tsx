@@ -4,6 +4,7 @@ import useSWR from "swr";
 import { ReviewStateMark } from "@/components/state-mark";
 import type { LiveFigures } from "@/db/queries/results";
 import type { Completeness } from "@/lib/results/live";
+import { fetcher } from "@/lib/http/client";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
 // The live handler's answer (app/api/events/[eventId]/live), dates as JSON strings.
@@ -15,17 +16,11 @@ export type LiveLabels = Record<
   string
 >;
 
-const fetcher = async (url: string): Promise<Live> => {
-  const res = await fetch(url);
-  if (!res.ok) throw new Error(String(res.status));
-  return (await res.json()) as Live;
-};
-
 const fill = (s: string, v: Record<string, string | number>) => s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
 
 /** The live board: refreshed every 15 s while the page is open (SWR polling). */
 export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels: LiveLabels; locale: string }) {
-  const { data, error } = useSWR(`/api/events/${eventId}/live`, fetcher, { refreshInterval: 15_000 });
+  const { data, error } = useSWR<Live>(`/api/events/${eventId}/live`, fetcher, { refreshInterval: 15_000 });
   const pct = (v: number) => new Intl.NumberFormat(locale, { style: "percent", maximumFractionDigits: 1 }).format(v);
   const num = (v: number) => new Intl.NumberFormat(locale, { maximumFractionDigits: 1 }).format(v);
   if (error) return <p role="alert">{labels.failed}</p>;

@@ -2,6 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { api, ApiClientError } from "@/lib/http/client";
 
 /** "Publish": freezes the current results into a new report version. */
 export function PublishButton({ eventId, label, busyLabel, doneLabel, failedLabel }: { eventId: string; label: string; busyLabel: string; doneLabel: string; failedLabel: string }) {
@@ -9,14 +10,13 @@ export function PublishButton({ eventId, label, busyLabel, doneLabel, failedLabe
   const [state, setState] = useState<{ busy: boolean; message: string }>({ busy: false, message: "" });
   async function publish() {
     setState({ busy: true, message: "" });
-    const res = await fetch(`/api/events/${eventId}/reports`, { method: "POST" });
-    if (res.ok) {
-      const body = (await res.json()) as { version: number };
-      setState({ busy: false, message: doneLabel.replace("{version}", String(body.version)) });
+    try {
+      const report = await api.send<{ version: number }>(`/api/events/${eventId}/reports`, "POST");
+      setState({ busy: false, message: doneLabel.replace("{version}", String(report.version)) });
       router.refresh();
-    } else {
-      const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
-      setState({ busy: false, message: body?.error?.message ?? failedLabel });
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      setState({ busy: false, message: err.message || failedLabel });
     }
   }
   return (

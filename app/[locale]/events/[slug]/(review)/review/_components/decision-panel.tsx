@@ -5,7 +5,7 @@ import { useState } from "react";
 import useSWR from "swr";
 import type { QueueItem } from "@/db/queries/review";
 import { DESK_KEYS } from "@/lib/review/decisions";
-import { getJson } from "./desk-api";
+import { fetcher } from "@/lib/http/client";
 import type { RejectReason } from "@/lib/domain";
 
 export type Mode = null | "reject" | "return" | "reidentify";
@@ -31,7 +31,7 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
   const [question, setQuestion] = useState("");
   const [q, setQ] = useState("");
   const taxa = useSWR<{ taxa: { id: string; scientificName: string; commonName: string | null; onList: boolean }[] }>(
-    mode === "reidentify" && q.trim().length >= 2 ? `/api/events/${eventId}/review/taxa?q=${encodeURIComponent(q.trim())}` : null, getJson,
+    mode === "reidentify" && q.trim().length >= 2 ? `/api/events/${eventId}/review/taxa?q=${encodeURIComponent(q.trim())}` : null, fetcher,
   );
   const kbd = (k: string) => <kbd className="rounded border border-current px-1 text-xs">{k}</kbd>;
   const message = note.trim() ? note.trim() : undefined;

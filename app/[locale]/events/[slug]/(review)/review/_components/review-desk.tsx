@@ -5,13 +5,14 @@ import { useCallback, useEffect, useRef, useState } from "react";
 import useSWR from "swr";
 import useSWRInfinite from "swr/infinite";
 import { secondaryButtonClass } from "@/components/ui/field";
+import { api, ApiClientError, fetcher } from "@/lib/http/client";
 import type { QueueItem } from "@/db/queries/review";
 import { DESK_KEYS } from "@/lib/review/decisions";
 import type { CheckMark, RejectReason, ReviewState, TaxonGroup } from "@/lib/domain";
 import { ReviewStateMark } from "@/components/state-mark";
 import { MarkChips } from "./mark-chips";
 import { DecisionPanel, type DecisionBody, type Mode } from "./decision-panel";
-import { DeskError, filterParams, getJson, postJson, type DetailResponse, type Filters, type QueueResponse } from "./desk-api";
+import { filterParams, type DetailResponse, type Filters, type QueueResponse } from "./desk-api";
 import { DetailPane } from "./detail-pane";
 import { FilterBar } from "./filter-bar";
 
@@ -36,6 +37,8 @@ export function ReviewDesk(props: Props) {
   const [busy, setBusy] = useState(false);
 
   const base = `/api/events/${eventId}/review`;
+  // The server's own words for a refusal; without an answer, the network's fault.
+  const refusal = useCallback((err: unknown) => (err instanceof ApiClientError && err.problem) || t("errors.network"), [t]);
   const query = filterParams(filters).toString();
   const queue = useSWRInfinite<QueueResponse>(
     (index, previous: QueueResponse | null) => {
@@ -44,14 +47,14 @@ export function ReviewDesk(props: Props) {
       if (previous?.nextCursor) params.set("cursor", previous.nextCursor);
       return `${base}/queue?${params}`;
     },
-    getJson,
+    fetcher,
     { revalidateFirstPage: true, revalidateOnFocus: false },
   );
   const items = queue.data?.flatMap((p) => p.items) ?? [];
   const counts = queue.data?.[0]?.counts;
   const current: QueueItem | undefined = items[selected];
   const detailKey = current ? `${base}/sightings/${current.id}` : null;
-  const detail = useSWR<DetailResponse>(detailKey, getJson, { revalidateOnFocus: false });
+  const detail = useSWR<DetailResponse>(detailKey, fetcher, { revalidateOnFocus: false });
 
   // A new filter starts a new list.
   useEffect(() => {
@@ -89,20 +92,20 @@ export function ReviewDesk(props: Props) {
     if (!leaves) setSelected((i) => Math.min(i + 1, items.length - 1));
     try {
       await queue.mutate(async () => {
-        await postJson(`${base}/sightings/${item.id}/decisions`, { ...body, version: seenVersion }, t("errors.network"));
+        await api.send(`${base}/sightings/${item.id}/decisions`, "POST", { ...body, version: seenVersion });
         return undefined;
       }, { optimisticData: optimistic, rollbackOnError: true, populateCache: false, revalidate: true });
       setStatus({ text: t("actions.saved", { decision: label }) });
     } catch (err) {
       // Rolled back to what was shown; then reloaded, so a second try uses the current version.
-      setStatus({ text: t("actions.refused", { message: err instanceof DeskError ? err.message : t("errors.network") }), bad: true });
+      setStatus({ text: t("actions.refused", { message: refusal(err) }), bad: true });
       if (!leaves) setSelected((i) => Math.max(i - 1, 0));
       void queue.mutate();
     } finally {
       setBusy(false);
       void detail.mutate();
     }
-  }, [base, detail, filters.state, items.length, queue, t]);
+  }, [base, detail, filters.state, items.length, queue, refusal, t]);
 
   const bulkApprove = useCallback(async () => {
     const n = counts?.pending ?? 0;
@@ -110,15 +113,15 @@ export function ReviewDesk(props: Props) {
     setBusy(true);
     setStatus({ text: t("actions.working") });
     try {
-      const res = await postJson<{ approved: number }>(`${base}/bulk-approve`, { filters, expectedCount: n }, t("errors.network"));
+      const res = await api.send<{ approved: number }>(`${base}/bulk-approve`, "POST", { filters, expectedCount: n });
       setStatus({ text: t("actions.bulkDone", { n: res.approved }) });
     } catch (err) {
-      setStatus({ text: t("actions.refused", { message: err instanceof DeskError ? err.message : t("errors.network") }), bad: true });
+      setStatus({ text: t("actions.refused", { message: refusal(err) }), bad: true });
     } finally {
       setBusy(false);
       await queue.mutate();
     }
-  }, [base, counts?.pending, filters, queue, t]);
+  }, [base, counts?.pending, filters, queue, refusal, t]);
 
   // The keyboard: documented in DESK_KEYS and listed on screen.
   const latest = useRef({ move, current, decide, busy });
@@ -240,7 +243,7 @@ export function ReviewDesk(props: Props) {
             </table>
             {queue.isLoading ? <p className="p-3">{t("queue.loading")}</p> : null}
             {!queue.isLoading && items.length === 0 ? <p className="p-3">{t("queue.empty")}</p> : null}
-            {queue.error ? <p role="alert" className="p-3 font-semibold text-signal">{(queue.error as Error).message}</p> : null}
+            {queue.error ? <p role="alert" className="p-3 font-semibold text-signal">{refusal(queue.error)}</p> : null}
           </div>
           <div className="mt-2 flex items-center gap-3 text-sm">
             <span>{t("queue.shown", { shown: items.length })}</span>

@@ -9,7 +9,7 @@ import type { CreateEventInput } from "@/app/api/organisations/[organisationId]/
 import { updateEventInput, type UpdateEventInput } from "@/app/api/events/[eventId]/setup/schema";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
 import { applyServerErrors, EventFields } from "@/components/setup/event-fields";
-import { fetcher, send } from "@/lib/http/client";
+import { api, ApiClientError, fetcher } from "@/lib/http/client";
 
 type Details = UpdateEventInput & { slug: string; joinCode: string | null };
 const FIELDS = ["name", "description", "startsLocal", "endsLocal", "timeZone", "languages", "sessionKinds", "accuracyLimitM", "status"];
@@ -18,7 +18,7 @@ export function EventDetailsForm({ eventId }: { eventId: string }) {
   const t = useTranslations("Setup");
   const tStatus = useTranslations("Home.status");
   const url = `/api/events/${eventId}/setup`;
-  const { data, error, mutate } = useSWR<Details>(url, fetcher);
+  const { data, error, mutate } = useSWR<Details, ApiClientError>(url, fetcher);
   const [saved, setSaved] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
   const form = useForm<UpdateEventInput>({ resolver: zodResolver(updateEventInput) });
@@ -36,16 +36,18 @@ export function EventDetailsForm({ eventId }: { eventId: string }) {
   const submit = form.handleSubmit(async (values) => {
     setSaved(false);
     setProblem(null);
-    const res = await send(url, "PATCH", values);
-    if (res.ok) {
-      setSaved(true);
-      await mutate();
+    try {
+      await api.send(url, "PATCH", values);
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      if (!applyServerErrors(form.setError as never, err.fields, FIELDS)) setProblem(err.message || t("genericError"));
       return;
     }
-    if (!applyServerErrors(form.setError as never, res.body.error?.fields, FIELDS)) setProblem(res.body.error?.message ?? t("genericError"));
+    setSaved(true);
+    await mutate();
   });
 
-  if (error) return <p role="alert" className="font-semibold text-signal">✕ {error.message}</p>;
+  if (error) return <p role="alert" className="font-semibold text-signal">✕ {error.message || t("genericError")}</p>;
   if (!data) return <p role="status">{t("loading")}</p>;
   return (
     <form onSubmit={submit} noValidate aria-labelledby="details-title" className="space-y-4">

@@ -11,7 +11,7 @@ import { roleChangeInput, type RoleChangeInput } from "@/app/api/events/[eventId
 import { buttonClass, Field, inputClass, secondaryButtonClass } from "@/components/ui/field";
 import { locales } from "@/lib/i18n/routing";
 import { applyServerErrors, useErrorText } from "@/components/setup/event-fields";
-import { fetcher, send } from "@/lib/http/client";
+import { api, ApiClientError, fetcher } from "@/lib/http/client";
 
 type Member = { userId: string; name: string | null; email: string; role: Role; taxonGroups: Group[] };
 type Pending = { id: string; email: string; role: Role; taxonGroups: Group[]; createdAt: string; selfService: boolean };
@@ -36,6 +36,7 @@ function InviteForm({ eventId, locale, onDone }: { eventId: string; locale: stri
   const t = useTranslations("Setup.people");
   const tRole = useTranslations("Role");
   const tLang = useTranslations("LocaleSwitcher");
+  const tSetup = useTranslations("Setup");
   const text = useErrorText();
   const [sent, setSent] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -50,14 +51,16 @@ function InviteForm({ eventId, locale, onDone }: { eventId: string; locale: stri
   const submit = form.handleSubmit(async (values) => {
     setSent(null);
     setProblem(null);
-    const res = await send(`/api/events/${eventId}/setup/members`, "POST", { ...values, taxonGroups: values.role === "coordinator" ? values.taxonGroups : [] });
-    if (res.ok) {
-      setSent(values.email);
-      form.reset({ ...values, email: "", name: "", taxonGroups: [] });
-      onDone();
+    try {
+      await api.send(`/api/events/${eventId}/setup/members`, "POST", { ...values, taxonGroups: values.role === "coordinator" ? values.taxonGroups : [] });
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      if (!applyServerErrors(form.setError as never, err.fields, ["email", "name", "role", "taxonGroups", "locale"])) setProblem(err.message || tSetup("genericError"));
       return;
     }
-    if (!applyServerErrors(form.setError as never, res.body.error?.fields, ["email", "name", "role", "taxonGroups", "locale"])) setProblem(res.body.error?.message ?? "");
+    setSent(values.email);
+    form.reset({ ...values, email: "", name: "", taxonGroups: [] });
+    onDone();
   });
   return (
     <form onSubmit={submit} noValidate aria-labelledby="invite-title" className="space-y-3 rounded-xl border border-reed-200 bg-white/70 p-4">
@@ -93,6 +96,7 @@ function InviteForm({ eventId, locale, onDone }: { eventId: string; locale: stri
 function MemberRow({ eventId, member, onDone }: { eventId: string; member: Member; onDone: () => void }) {
   const t = useTranslations("Setup.people");
   const tRole = useTranslations("Role");
+  const tSetup = useTranslations("Setup");
   const text = useErrorText();
   const [confirming, setConfirming] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
@@ -101,18 +105,20 @@ function MemberRow({ eventId, member, onDone }: { eventId: string; member: Membe
   useEffect(() => { if (role !== "coordinator") form.setValue("taxonGroups", []); }, [role, form]);
   const url = `/api/events/${eventId}/setup/members/${member.userId}`;
   const who = member.name ? `${member.name} (${member.email})` : member.email;
-  const submit = form.handleSubmit(async (values) => {
+  // A refusal shows the server's words; no answer at all, the general one.
+  const attempt = async (call: () => Promise<unknown>) => {
     setProblem(null);
-    const res = await send(url, "PATCH", { ...values, taxonGroups: values.role === "coordinator" ? values.taxonGroups : [] });
-    if (res.ok) onDone();
-    else setProblem(res.body.error?.fields?.[0]?.message ?? res.body.error?.message ?? "");
-  });
-  async function remove() {
-    setProblem(null);
-    const res = await send(url, "DELETE");
-    if (res.ok) onDone();
-    else setProblem(res.body.error?.fields?.[0]?.message ?? res.body.error?.message ?? "");
-  }
+    try {
+      await call();
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      setProblem(err.problem || tSetup("genericError"));
+      return;
+    }
+    onDone();
+  };
+  const submit = form.handleSubmit((values) => attempt(() => api.send(url, "PATCH", { ...values, taxonGroups: values.role === "coordinator" ? values.taxonGroups : [] })));
+  const remove = () => attempt(() => api.send(url, "DELETE"));
   return (
     <li className="space-y-2 rounded-lg border border-reed-200 bg-white/70 p-3">
       <p className="font-semibold">{who}</p>
@@ -158,7 +164,7 @@ export function PeoplePanel({ eventId, locale, joinUrlBase }: { eventId: string;
             <dt className="font-semibold">{t("joinCode")}</dt><dd className="font-mono text-lg">{details.joinCode}</dd>
           </dl>
         ) : <p>{t("noJoinCode")}</p>}
-        <button type="button" className={secondaryButtonClass} onClick={async () => { await send(`/api/events/${eventId}/setup/join-code`, "POST"); await mutateDetails(); }}>{t("newCode")}</button>
+        <button type="button" className={secondaryButtonClass} onClick={async () => { await api.send(`/api/events/${eventId}/setup/join-code`, "POST").catch(() => undefined); await mutateDetails(); }}>{t("newCode")}</button>
       </section>
 
       <InviteForm eventId={eventId} locale={locale} onDone={refresh} />
@@ -178,7 +184,7 @@ export function PeoplePanel({ eventId, locale, joinUrlBase }: { eventId: string;
               <li key={p.id} className="flex flex-wrap items-center justify-between gap-2 rounded-lg border border-reed-200 p-3">
                 <span>{t("pendingLine", { email: p.email, role: tRole(p.role) })} {groups(p.taxonGroups)} {p.selfService ? t("selfService") : ""}</span>
                 <button type="button" className={secondaryButtonClass} aria-label={t("withdrawWho", { who: p.email })}
-                  onClick={async () => { await send(`/api/events/${eventId}/setup/invitations/${p.id}`, "DELETE"); refresh(); }}>{t("withdraw")}</button>
+                  onClick={async () => { await api.send(`/api/events/${eventId}/setup/invitations/${p.id}`, "DELETE").catch(() => undefined); refresh(); }}>{t("withdraw")}</button>
               </li>
             ))}
           </ul>

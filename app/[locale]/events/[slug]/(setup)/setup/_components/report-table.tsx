@@ -1,8 +1,7 @@
 "use client";
 
 import { useTranslations } from "next-intl";
-
-export type ReportLine = { feature: number | null; line?: number; name?: string; field: string; code: string; message: string };
+import type { ReportLine } from "@/server/setup/upload-report";
 
 // The validation report of an upload: one row per problem, naming the feature or line.
 export function ReportTable({ report, kind }: { report: ReportLine[]; kind: "geojson" | "csv" }) {
