@@ -1,12 +1,8 @@
 import "server-only";
-import { DrizzleAdapter } from "@auth/drizzle-adapter";
 import type { NextAuthOptions } from "next-auth";
-import type { Adapter } from "next-auth/adapters";
 import CredentialsProvider from "next-auth/providers/credentials";
 import EmailProvider from "next-auth/providers/email";
-import { acceptPendingInvitations, findUserByEmail, hasPendingInvitation } from "@/db/queries/auth";
-import { getDb } from "@/db/client";
-import { accounts, sessions, users, verificationTokens } from "@/db/schema";
+import { acceptPendingInvitations, authAdapter, findUserByEmail, hasPendingInvitation } from "@/db/queries/auth";
 import { env } from "@/lib/env";
 import { toLocale } from "@/lib/i18n/translator";
 import { sendMail } from "@/server/mail/transport";
@@ -32,7 +28,7 @@ export function authOptions(): NextAuthOptions {
     // Credentials sign-in needs JWT sessions in next-auth 4; roles are read from the
     // database on every request, so a changed role takes effect at once.
     session: { strategy: "jwt", maxAge: 30 * 24 * 60 * 60 },
-    adapter: DrizzleAdapter(getDb(), { usersTable: users, accountsTable: accounts, sessionsTable: sessions, verificationTokensTable: verificationTokens } as never) as unknown as Adapter,
+    adapter: authAdapter(),
     // Locale-free paths: the locale middleware sends each person to their own language.
     pages: { signIn: "/sign-in", verifyRequest: "/sign-in/check-email", error: "/sign-in" },
     useSecureCookies: e.APP_URL.startsWith("https://"),

@@ -136,7 +136,6 @@ test("an organiser creates an event, uploads zones and species, invites a coordi
 test("a volunteer joins with the event's join link and the mailed sign-in link", async ({ page, browser, mail, baseURL }) => {
   test.setTimeout(150_000); // two browser contexts and a mail round trip, on a busy two-core machine
   await signInWithPassword(page, DEMO.organiser);
-  const eventId = await eventIdBySlug("harrowmere-vale-autumn-fungus-foray");
   await page.goto("/en/events/harrowmere-vale-autumn-fungus-foray/setup/people");
   const link = await page.getByRole("definition").filter({ hasText: "/join/" }).textContent();
   // The seeded code is HARROW-AUTUMN; the role-matrix and fuzz tests may have replaced it since.

@@ -1,8 +1,7 @@
 import path from "node:path";
-import { Client } from "pg";
 import { chromium, type Page } from "@playwright/test";
 import { DEMO, expect, signInWithPassword, test } from "./support";
-import { E2E_DB_URL, withE2eDb } from "./demo-ids";
+import { withE2eDb } from "./demo-ids";
 
 // The field log's whole offline day (issue 5): Chromium with the network cut by the
 // browser context, the real service worker, IndexedDB, the real sync handler and database.

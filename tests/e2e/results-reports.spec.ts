@@ -1,9 +1,8 @@
 import { readFileSync } from "node:fs";
-import { Client } from "pg";
 import { unzipSync, strFromU8 } from "fflate";
 import type { Browser, Page } from "@playwright/test";
 import { SENSITIVE_DEMO_RECORDS } from "../../db/seed/sensitive";
-import { E2E_DB_URL, withE2eDb } from "./demo-ids";
+import { withE2eDb } from "./demo-ids";
 import { DEMO, expect, signInWithPassword, test } from "./support";
 
 const SLUG = "harrowmere-vale-midsummer-count";

@@ -2,7 +2,7 @@ import { eq, inArray, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { findUserById } from "@/db/queries/auth";
 import { refreshCheckMarks } from "@/db/queries/check-marks";
-import { bulkApprove, decide, queueCounts, reviewQueue, sightingDetail, type ReviewScope } from "@/db/queries/review";
+import { bulkApprove, decide, queueCounts, reviewQueue, sightingDetail } from "@/db/queries/review";
 import { composeDigests } from "@/db/queries/review-digest";
 import * as s from "@/db/schema";
 import { ApiError, errorStatus } from "@/lib/http/errors";

@@ -1,4 +1,4 @@
-import { checkReport } from "@/db/queries/reports";
+import { checkReport } from "@/server/results/check";
 import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle } from "@/lib/http/errors";
 
