@@ -10,10 +10,14 @@ const root = path.resolve(__dirname, "../..");
 const skipped = new Set(["node_modules", ".next", ".data", ".git", "test-results", "playwright-report"]);
 const sourceExtensions = [".ts", ".tsx", ".mts", ".cts"];
 
+// Tests are not part of the layering (a lib/ test may build its data with the demo seed or
+// sharp); they are skipped here and nothing imports them.
+const isTest = (name: string) => /\.(test|spec)\.tsx?$/.test(name);
+
 function sourceFiles(dir: string): string[] {
   const found: string[] = [];
   for (const name of readdirSync(dir)) {
-    if (skipped.has(name)) continue;
+    if (skipped.has(name) || isTest(name)) continue;
     const full = path.join(dir, name);
     if (statSync(full).isDirectory()) found.push(...sourceFiles(full));
     else if (sourceExtensions.some((ext) => name.endsWith(ext))) found.push(full);
@@ -47,6 +51,16 @@ const rules: Rule[] = [
 ];
 
 type Offence = { file: string; specifier: string; why: string };
+
+// Imports that other parts of issue 12, done in parallel, take away. Each entry must still
+// be found: once its import is gone the test fails until the entry is deleted, so this
+// list only shrinks.
+const pending: { file: string; specifier: string; until: string }[] = [
+  { file: "lib/field/types.ts", specifier: "@/db/queries/pack", until: "item 1: the pack types move to lib/sync" },
+  { file: "lib/review/filters.ts", specifier: "@/db/schema", until: "item 2: review states, check marks and groups from one pure module" },
+  { file: "lib/setup/api.ts", specifier: "server-only", until: "item 3: its body reader folds into lib/http/body.ts" },
+];
+const isPending = (o: { file: string; specifier: string }) => pending.some((p) => p.file === o.file && p.specifier === o.specifier);
 
 function offences(): Offence[] {
   const found: Offence[] = [];
@@ -82,8 +96,14 @@ describe("import rules", () => {
   });
 
   it("has no import that runs against the layering", () => {
-    const found = offences();
+    const found = offences().filter((o) => !isPending(o));
     const listing = found.map((o) => `${o.file} imports "${o.specifier}" (${o.why})`).join("\n");
     expect(listing, `imports against the layering:\n${listing}`).toBe("");
+  });
+
+  it("keeps no pending exception whose import is already gone", () => {
+    const found = offences();
+    const gone = pending.filter((p) => !found.some((o) => o.file === p.file && o.specifier === p.specifier));
+    expect(gone.map((p) => `${p.file} no longer imports "${p.specifier}": delete its entry in pending`)).toEqual([]);
   });
 });
