@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { checkMark, reviewState, taxonGroup } from "@/db/schema";
 
-// The review queue's filters: the same object in the desk's URL query, in the queue
+// The review queue's filters: the same object in the desk's filter bar (page state), in the queue
 // handler's query string and in the bulk-approve body, so "approve what I see" means
 // exactly the set the coordinator filtered.
 export const REVIEW_STATES = reviewState.enumValues;

@@ -4,6 +4,7 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import EmailProvider from "next-auth/providers/email";
 import { acceptPendingInvitations, authAdapter, findUserByEmail, hasPendingInvitation } from "@/db/queries/auth";
 import { env } from "@/lib/env";
+import { passwordSignInInput } from "@/lib/validation/sign-in";
 import { toLocale } from "@/lib/i18n/translator";
 import { sendMail } from "@/server/mail/transport";
 import { signInMail } from "@/server/auth/mails";
@@ -46,9 +47,9 @@ export function authOptions(): NextAuthOptions {
         name: "password",
         credentials: { email: { type: "email" }, password: { type: "password" } },
         async authorize(credentials) {
-          const email = credentials?.email?.trim().toLowerCase();
-          const password = credentials?.password ?? "";
-          if (!email || !password || password.length > 1000) return null;
+          const parsed = passwordSignInInput.safeParse(credentials ?? {});
+          if (!parsed.success) return null;
+          const { email, password } = parsed.data;
           const user = await findUserByEmail(email);
           if (!user?.passwordHash) return null;
           if (!(await verifyPassword(password, user.passwordHash))) return null;
