@@ -289,7 +289,7 @@ export const reports = pgTable("reports", {
   publishedBy: uuid("published_by").notNull().references(() => users.id, { onDelete: "restrict" }),
   engineVersion: text("engine_version").notNull(),
   inputHash: varchar("input_hash", { length: 64 }).notNull(),
-  inputRecords: jsonb("input_records").notNull(), // [[sighting id, review state], ...]
+  inputRecords: jsonb("input_records").notNull(), // InputRecord[] of lib/results/records.ts: [sighting, state, taxon, count, zone, session, its zone]
   results: jsonb("results").notNull(),
   methodNotes: jsonb("method_notes").notNull(),
   changes: jsonb("changes").notNull().default(sql`'[]'::jsonb`),

@@ -3,7 +3,7 @@
 import { useTranslations } from "next-intl";
 import { useMemo } from "react";
 import type { FieldErrors, UseFormRegister } from "react-hook-form";
-import type { CreateEventInput } from "@/app/api/organisations/[organisationId]/events/schema";
+import type { CreateEventInput } from "@/lib/setup/event";
 import { Field, inputClass } from "@/components/ui/field";
 import { locales } from "@/lib/i18n/routing";
 

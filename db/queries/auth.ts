@@ -1,8 +1,23 @@
 import "server-only";
+import { DrizzleAdapter } from "@auth/drizzle-adapter";
 import { and, eq, gte, inArray, isNull, lt, sql } from "drizzle-orm";
 import type { EventRole, TaxonGroup } from "@/lib/domain";
+import type { Adapter } from "next-auth/adapters";
 import { getDb } from "../client";
-import { eventMembers, events, invitations, membershipLog, organisationMembers, signInAttempts, users } from "../schema";
+import {
+  accounts, eventMembers, events, invitations, membershipLog, organisationMembers, sessions, signInAttempts, users, verificationTokens,
+} from "../schema";
+
+/** next-auth's store of users, accounts and e-mail tokens, on our tables. */
+export function authAdapter(): Adapter {
+  const tables = { usersTable: users, accountsTable: accounts, sessionsTable: sessions, verificationTokensTable: verificationTokens };
+  return DrizzleAdapter(getDb(), tables as never) as unknown as Adapter;
+}
+
+/** An e-mail sign-in token, stored hashed as next-auth stores its own. */
+export async function storeVerificationToken(identifier: string, tokenHash: string, expires: Date): Promise<void> {
+  await getDb().insert(verificationTokens).values({ identifier, token: tokenHash, expires });
+}
 
 export async function findUserByEmail(email: string) {
   const [row] = await getDb().select().from(users).where(sql`lower(${users.email}) = lower(${email})`).limit(1);
@@ -17,10 +32,6 @@ export async function findUserById(id: string) {
 
 export async function setPasswordHash(userId: string, hash: string): Promise<void> {
   await getDb().update(users).set({ passwordHash: hash }).where(eq(users.id, userId));
-}
-
-export async function setUserLocale(userId: string, locale: string): Promise<void> {
-  await getDb().update(users).set({ locale }).where(eq(users.id, userId));
 }
 
 export type EventAccess = {

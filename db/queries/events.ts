@@ -36,8 +36,6 @@ export async function listPublicEvents(): Promise<EventSummary[]> {
   return rows;
 }
 
-export type EventDetail = Awaited<ReturnType<typeof getPublicEventBySlug>>;
-
 export async function getPublicEventBySlug(slug: string) {
   const [row] = await getDb()
     .select({

@@ -15,6 +15,9 @@ export const DEMO_EVENT = {
   startsAt: new Date("2026-06-20T05:00:00Z"),
   endsAt: new Date("2026-06-22T05:00:00Z"),
   languages: ["en", "es", "fr"],
+  status: "closed" as const,
+  joinCode: "HARROW-MIDSUMMER",
+  accuracyLimitM: 50,
 };
 
 type Ring = [number, number][];
@@ -80,6 +83,9 @@ export const SECOND_EVENT = {
   startsAt: new Date("2026-11-28T08:00:00Z"),
   endsAt: new Date("2026-12-13T17:00:00Z"),
   languages: ["en", "es", "fr"],
+  status: "open" as const,
+  joinCode: "KESTREL-WINTER",
+  accuracyLimitM: 100,
 };
 export const SECOND_AREA: Ring = [[-2.1000, 53.3000], [-2.0900, 53.3000], [-2.0900, 53.3060], [-2.1000, 53.3060], [-2.1000, 53.3000]];
 export const SECOND_ZONES = [
@@ -102,6 +108,7 @@ export const SETUP_EVENT = {
   startsAt: new Date("2027-10-16T08:00:00Z"),
   endsAt: new Date("2027-10-17T16:00:00Z"),
   languages: ["en", "es", "fr"],
+  status: "draft" as const,
   joinCode: "HARROW-AUTUMN",
   // Demo people (by key) who already hold a role there.
   members: [

@@ -12,8 +12,11 @@ import { seedReviewCases } from "./review-cases";
 import { SEED_TAXA, type SeedTaxon } from "./taxa";
 
 type Db = NodePgDatabase<typeof s>;
+type Ring = [number, number][];
+type DemoEvent = Pick<typeof s.events.$inferInsert, "slug" | "name" | "description" | "status" | "startsAt" | "endsAt" | "timeZone" | "languages" | "joinCode" | "accuracyLimitM">;
+type EventZone = Pick<DemoZone, "key" | "name" | "habitat" | "description" | "ring">;
 
-const polygonSql = (ring: [number, number][]) =>
+const polygonSql = (ring: Ring) =>
   sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify({ type: "Polygon", coordinates: [ring] })}), 4326)`;
 
 export type SeedSummary = { taxa: number; people: number; sessions: number; sightings: number; reviews: number; byState: Record<string, number> };
@@ -42,23 +45,28 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
     for (const p of DEMO_PEOPLE) await addPerson(p);
     await tx.insert(s.organisationMembers).values({ organisationId: orgId, userId: people.get("organiser")!, role: "organiser" }).onConflictDoNothing();
 
-    // Event, area and zones.
+    // One event of the scenario with its area and zones (the three events differ only in their values).
+    const addEvent = async (id: string, organisationId: string, e: DemoEvent, area?: Ring, zones: readonly EventZone[] = []) => {
+      await tx.insert(s.events).values({
+        id, organisationId, slug: e.slug, name: e.name, description: e.description, status: e.status, startsAt: e.startsAt, endsAt: e.endsAt,
+        timeZone: e.timeZone, languages: e.languages, area: area ? polygonSql(area) : undefined, joinCode: e.joinCode, accuracyLimitM: e.accuracyLimitM,
+      }).onConflictDoNothing();
+      const zoneIds = new Map<string, string>();
+      for (const z of zones) {
+        const zoneId = demoId(`zone:${z.key}`);
+        zoneIds.set(z.key, zoneId);
+        await tx.insert(s.zones).values({ id: zoneId, eventId: id, name: z.name, habitat: z.habitat, description: z.description, geom: polygonSql(z.ring) })
+          .onConflictDoNothing();
+      }
+      return zoneIds;
+    };
+
     const eventId = demoId("event:midsummer");
-    await tx.insert(s.events).values({
-      id: eventId, organisationId: orgId, slug: DEMO_EVENT.slug, name: DEMO_EVENT.name, description: DEMO_EVENT.description,
-      status: "closed", startsAt: DEMO_EVENT.startsAt, endsAt: DEMO_EVENT.endsAt, timeZone: DEMO_EVENT.timeZone,
-      languages: DEMO_EVENT.languages, area: polygonSql(DEMO_AREA), joinCode: "HARROW-MIDSUMMER", accuracyLimitM: 50,
-    }).onConflictDoNothing();
+    const zoneIds = await addEvent(eventId, orgId, DEMO_EVENT, DEMO_AREA, DEMO_ZONES);
     for (const p of DEMO_PEOPLE) {
       await tx.insert(s.eventMembers)
         .values({ eventId, userId: people.get(p.key)!, role: p.role, taxonGroups: p.groups ?? [] })
         .onConflictDoNothing();
-    }
-    const zoneIds = new Map<string, string>();
-    for (const z of DEMO_ZONES) {
-      const id = demoId(`zone:${z.key}`);
-      zoneIds.set(z.key, id);
-      await tx.insert(s.zones).values({ id, eventId, name: z.name, habitat: z.habitat, description: z.description, geom: polygonSql(z.ring) }).onConflictDoNothing();
     }
 
     // Taxa, names in three languages, and the event's species list.
@@ -192,14 +200,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
     const org2 = demoId("org:second");
     await tx.insert(s.organisations).values({ id: org2, ...SECOND_ORG }).onConflictDoNothing();
     const event2 = demoId("event:second");
-    await tx.insert(s.events).values({
-      id: event2, organisationId: org2, slug: SECOND_EVENT.slug, name: SECOND_EVENT.name, description: SECOND_EVENT.description,
-      status: "open", startsAt: SECOND_EVENT.startsAt, endsAt: SECOND_EVENT.endsAt, timeZone: SECOND_EVENT.timeZone,
-      languages: SECOND_EVENT.languages, area: polygonSql(SECOND_AREA), joinCode: "KESTREL-WINTER", accuracyLimitM: 100,
-    }).onConflictDoNothing();
-    for (const z of SECOND_ZONES) {
-      await tx.insert(s.zones).values({ id: demoId(`zone:${z.key}`), eventId: event2, name: z.name, habitat: z.habitat, description: z.description, geom: polygonSql(z.ring) }).onConflictDoNothing();
-    }
+    await addEvent(event2, org2, SECOND_EVENT, SECOND_AREA, SECOND_ZONES);
     for (const p of SECOND_PEOPLE) {
       const id = await addPerson(p);
       if (p.role === "organiser") await tx.insert(s.organisationMembers).values({ organisationId: org2, userId: id, role: "organiser" }).onConflictDoNothing();
@@ -211,11 +212,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
 
     // The third event, in preparation, for the setup screens (appended; see SETUP_EVENT).
     const event3 = demoId("event:setup");
-    await tx.insert(s.events).values({
-      id: event3, organisationId: orgId, slug: SETUP_EVENT.slug, name: SETUP_EVENT.name, description: SETUP_EVENT.description,
-      status: "draft", startsAt: SETUP_EVENT.startsAt, endsAt: SETUP_EVENT.endsAt, timeZone: SETUP_EVENT.timeZone,
-      languages: SETUP_EVENT.languages, joinCode: SETUP_EVENT.joinCode,
-    }).onConflictDoNothing();
+    await addEvent(event3, orgId, SETUP_EVENT);
     for (const m of SETUP_EVENT.members) {
       await tx.insert(s.eventMembers).values({ eventId: event3, userId: people.get(m.key)!, role: m.role, taxonGroups: m.groups }).onConflictDoNothing();
     }

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { CHECK_MARKS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/domain";
 
-// The review queue's filters: the same object in the desk's URL query, in the queue
+// The review queue's filters: the same object in the desk's filter bar (page state), in the queue
 // handler's query string and in the bulk-approve body, so "approve what I see" means
 // exactly the set the coordinator filtered.
 // A calendar day between 1900 and 2099 that exists (no 30 February).

@@ -26,12 +26,6 @@ export async function requireUser(): Promise<SessionUser> {
   return user;
 }
 
-export async function requireAdmin(): Promise<SessionUser> {
-  const user = await requireUser();
-  if (!user.isAdmin) throw new ApiError("forbidden");
-  return user;
-}
-
 export type EventPermit = { user: SessionUser; access: EventAccess; role: EffectiveRole; taxonGroups: TaxonGroup[] };
 
 /** The person's effective role in the event: admin, organiser (of the event's organisation, or by event role), then their event role. */

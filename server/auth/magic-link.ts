@@ -1,7 +1,6 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
-import { getDb } from "@/db/client";
-import { verificationTokens } from "@/db/schema";
+import { storeVerificationToken } from "@/db/queries/auth";
 import { env } from "@/lib/env";
 
 // next-auth 4 stores e-mail tokens hashed as sha256(token + secret) and accepts them at
@@ -12,11 +11,7 @@ export function hashVerificationToken(token: string): string {
 
 export async function createMagicLink(email: string, callbackPath: string, maxAgeSeconds: number): Promise<string> {
   const token = randomBytes(32).toString("hex");
-  await getDb().insert(verificationTokens).values({
-    identifier: email.toLowerCase(),
-    token: hashVerificationToken(token),
-    expires: new Date(Date.now() + maxAgeSeconds * 1000),
-  });
+  await storeVerificationToken(email.toLowerCase(), hashVerificationToken(token), new Date(Date.now() + maxAgeSeconds * 1000));
   const base = env().APP_URL;
   const params = new URLSearchParams({ callbackUrl: new URL(callbackPath, base).toString(), token, email: email.toLowerCase() });
   return `${base}/api/auth/callback/email?${params}`;

@@ -1,13 +1,10 @@
 import "server-only";
-import { DrizzleAdapter } from "@auth/drizzle-adapter";
 import type { NextAuthOptions } from "next-auth";
-import type { Adapter } from "next-auth/adapters";
 import CredentialsProvider from "next-auth/providers/credentials";
 import EmailProvider from "next-auth/providers/email";
-import { acceptPendingInvitations, findUserByEmail, hasPendingInvitation } from "@/db/queries/auth";
-import { getDb } from "@/db/client";
-import { accounts, sessions, users, verificationTokens } from "@/db/schema";
+import { acceptPendingInvitations, authAdapter, findUserByEmail, hasPendingInvitation } from "@/db/queries/auth";
 import { env } from "@/lib/env";
+import { passwordSignInInput } from "@/lib/validation/sign-in";
 import { toLocale } from "@/lib/i18n/translator";
 import { sendMail } from "@/server/mail/transport";
 import { signInMail } from "@/server/auth/mails";
@@ -32,7 +29,7 @@ export function authOptions(): NextAuthOptions {
     // Credentials sign-in needs JWT sessions in next-auth 4; roles are read from the
     // database on every request, so a changed role takes effect at once.
     session: { strategy: "jwt", maxAge: 30 * 24 * 60 * 60 },
-    adapter: DrizzleAdapter(getDb(), { usersTable: users, accountsTable: accounts, sessionsTable: sessions, verificationTokensTable: verificationTokens } as never) as unknown as Adapter,
+    adapter: authAdapter(),
     // Locale-free paths: the locale middleware sends each person to their own language.
     pages: { signIn: "/sign-in", verifyRequest: "/sign-in/check-email", error: "/sign-in" },
     useSecureCookies: e.APP_URL.startsWith("https://"),
@@ -50,9 +47,9 @@ export function authOptions(): NextAuthOptions {
         name: "password",
         credentials: { email: { type: "email" }, password: { type: "password" } },
         async authorize(credentials) {
-          const email = credentials?.email?.trim().toLowerCase();
-          const password = credentials?.password ?? "";
-          if (!email || !password || password.length > 1000) return null;
+          const parsed = passwordSignInInput.safeParse(credentials ?? {});
+          if (!parsed.success) return null;
+          const { email, password } = parsed.data;
           const user = await findUserByEmail(email);
           if (!user?.passwordHash) return null;
           if (!(await verifyPassword(password, user.passwordHash))) return null;

@@ -2,7 +2,7 @@ import "server-only";
 import { createHash } from "node:crypto";
 import sharp from "sharp";
 import { findPhoto, insertPhoto, sightingForPhotos, type PhotoSighting } from "@/db/queries/photos";
-import type { PhotoConfirmAnswer, PhotoUploadAnswer, PhotoUploadInput } from "@/app/api/events/[eventId]/photos/schema";
+import type { PhotoConfirmAnswer, PhotoUploadAnswer, PhotoUploadInput } from "@/lib/photos/contract";
 import { env } from "@/lib/env";
 import { ApiError } from "@/lib/http/errors";
 import { isUuid } from "@/lib/http/params";

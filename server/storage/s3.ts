@@ -26,12 +26,6 @@ function clients() {
   return globalForS3.ecotoneS3;
 }
 
-/** The origin browsers talk to for photos (for the CSP and CORS). */
-export function photoStoreOrigin(): string {
-  const e = env();
-  return new URL(e.S3_PUBLIC_ENDPOINT ?? e.S3_ENDPOINT).origin;
-}
-
 /**
  * A presigned PUT for one object. The headers (type and x-amz-meta-*) are signed, so the
  * uploader must send exactly these; they carry what the device declared, for the check on confirm.

@@ -1,9 +1,9 @@
 import fc from "fast-check";
 import { Client } from "pg";
 import { expect, test } from "@playwright/test";
-import { DEMO_PASSWORD } from "../../db/seed/demo-scenario";
 import { demoIds, E2E_DB_URL as DB_URL } from "./demo-ids";
 import { ROUTES } from "./route-table";
+import { signInWithPassword } from "./support";
 
 // Hostile and malformed bodies for every JSON handler in the route table, sent by the
 // most trusted demo person (the organiser) so that the guard lets them reach the
@@ -60,12 +60,7 @@ async function tableCounts(): Promise<Record<string, number>> {
 
 test("every JSON handler answers hostile input with a structured 4xx and writes nothing", async ({ page, baseURL }) => {
   test.setTimeout(300_000);
-  await page.goto("/en/sign-in");
-  const form = page.getByRole("form", { name: "Sign in with a password" });
-  await form.getByLabel("E-mail address").fill("organiser@example.org");
-  await form.getByLabel("Password").fill(DEMO_PASSWORD);
-  await form.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/account/);
+  await signInWithPassword(page, "organiser@example.org");
 
   const ids = await demoIds();
   const before = await tableCounts();
@@ -116,12 +111,7 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
 });
 
 test("a malformed id in any path (36 dashes, loose hex) is a structured 404, never a 5xx", async ({ page, baseURL }) => {
-  await page.goto("/en/sign-in");
-  const form = page.getByRole("form", { name: "Sign in with a password" });
-  await form.getByLabel("E-mail address").fill("organiser@example.org");
-  await form.getByLabel("Password").fill(DEMO_PASSWORD);
-  await form.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/account/);
+  await signInWithPassword(page, "organiser@example.org");
 
   const ids = await demoIds();
   const uuidKeys = (Object.keys(ids) as (keyof typeof ids)[]).filter((k) => /^[0-9a-f-]{36}$/i.test(ids[k]));

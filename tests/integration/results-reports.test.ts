@@ -1,7 +1,9 @@
 import { sql } from "drizzle-orm";
 import { strFromU8, unzipSync } from "fflate";
 import { beforeAll, describe, expect, it } from "vitest";
-import { checkReport, getReport, publishReport, reportOccurrences } from "@/db/queries/reports";
+import { getReport, reportOccurrences } from "@/db/queries/reports";
+import { checkReport } from "@/server/results/check";
+import { publishReport } from "@/server/results/publish";
 import { loadInputRecords, loadResultsInput } from "@/db/queries/results";
 import * as s from "@/db/schema";
 import { seedDemo } from "@/db/seed/demo";
@@ -9,7 +11,6 @@ import { DEMO_EVENT } from "@/db/seed/demo-scenario";
 import { SENSITIVE_DEMO_RECORDS } from "@/db/seed/sensitive";
 import { canonicalJson, computeResults } from "@/lib/results/compute";
 import { DWC_REQUIRED, darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
-import { publishMail } from "@/server/results/publish-mail";
 import { inputFromRecords, inputHash } from "@/lib/results/records";
 import { resultsKey, taxaMeta } from "@/db/queries/results";
 import { currentResults } from "@/server/results/current";
@@ -101,7 +102,7 @@ describe("current results cache", () => {
 
 describe("reports", () => {
   it("publish numbered versions that the database refuses to change, list what changed, and re-compute to the same numbers", async () => {
-    const v1 = await publishReport(eventId, organiserId, publishMail);
+    const v1 = await publishReport(eventId, organiserId);
     const r1 = await getReport(eventId, v1.version, { withInputs: true });
     expect(r1!.inputHash).toBe(inputHash(r1!.inputRecords));
 
@@ -121,7 +122,7 @@ describe("reports", () => {
     // Approved as the review desk records it: the state and an append-only review row.
     await db().update(s.sightings).set({ reviewState: "approved" }).where(sql`id = ${pending!.id}`);
     await db().insert(s.reviews).values({ sightingId: pending!.id, reviewerId: organiserId, fromState: "pending", toState: "approved" });
-    const v2 = await publishReport(eventId, organiserId, publishMail);
+    const v2 = await publishReport(eventId, organiserId);
     expect(v2.version).toBe(v1.version + 1);
     const r2 = await getReport(eventId, v2.version);
     expect(r2!.changes).toMatchObject({ previousVersion: v1.version, added: 1, removed: 0, changed: 0 });
@@ -139,7 +140,7 @@ describe("reports", () => {
   });
 
   it("Darwin Core Archive: meta.xml names occurrence.txt's columns in order and every row has the required terms", async () => {
-    const v = await publishReport(eventId, organiserId, publishMail);
+    const v = await publishReport(eventId, organiserId);
     const report = (await getReport(eventId, v.version, { withInputs: true }))!;
     const { rows, withheld } = publicOccurrences(report.results, await reportOccurrences(report), "en");
     const zip = unzipSync(darwinCoreArchive(rows, { id: report.id, title: "Harrowmere", organisation: "Friends", version: v.version, publishedAt: report.publishedAt, withheld, abstract: "Approved sightings." }));
@@ -165,7 +166,7 @@ describe("reports", () => {
   });
 
   it("no public output holds the exact coordinates of a sensitive taxon", async () => {
-    const v = await publishReport(eventId, organiserId, publishMail);
+    const v = await publishReport(eventId, organiserId);
     const report = (await getReport(eventId, v.version, { withInputs: true }))!;
     const occurrences = await reportOccurrences(report);
     expect(occurrences.filter((o) => o.sensitivity !== "open").length).toBe(SENSITIVE_DEMO_RECORDS.length);

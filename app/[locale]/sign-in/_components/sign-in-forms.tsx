@@ -5,7 +5,7 @@ import { signIn } from "next-auth/react";
 import { useTranslations } from "next-intl";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { emailLinkInput, passwordSignInInput, type EmailLinkInput, type PasswordSignInInput } from "@/app/api/auth/[...nextauth]/schema";
+import { emailLinkInput, passwordSignInInput, type EmailLinkInput, type PasswordSignInInput } from "@/lib/validation/sign-in";
 import { buttonClass, Field, inputClass, secondaryButtonClass } from "@/components/ui/field";
 import { useRouter } from "@/lib/i18n/navigation";
 

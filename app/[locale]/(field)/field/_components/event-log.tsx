@@ -56,7 +56,6 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       <SightingForm
         db={db}
         eventId={event.id}
-        locale={locale}
         index={index}
         zones={zones}
         position={position}

@@ -15,7 +15,6 @@ import type { PositionState } from "./use-position";
 type Props = {
   db: FieldDatabase;
   eventId: string;
-  locale: string;
   index: SpeciesIndex | null;
   zones: ZoneCollection | null;
   position: PositionState;
@@ -39,7 +38,7 @@ function toLocalInput(iso: string) {
 }
 
 /** Adding (or editing, or answering) a sighting in a few taps. */
-export function SightingForm({ db, eventId, locale, index, zones, position, session, editing, onCancel, onSaved }: Props) {
+export function SightingForm({ db, eventId, index, zones, position, session, editing, onCancel, onSaved }: Props) {
   const t = useTranslations("FieldLog");
   const prior = editing?.record;
   const [query, setQuery] = useState("");

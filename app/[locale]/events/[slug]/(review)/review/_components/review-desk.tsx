@@ -41,7 +41,7 @@ export function ReviewDesk(props: Props) {
   const refusal = useCallback((err: unknown) => (err instanceof ApiClientError && err.problem) || t("errors.network"), [t]);
   const query = filterParams(filters).toString();
   const queue = useSWRInfinite<QueueResponse>(
-    (index, previous: QueueResponse | null) => {
+    (_index, previous: QueueResponse | null) => {
       if (previous && !previous.nextCursor) return null;
       const params = new URLSearchParams(query);
       if (previous?.nextCursor) params.set("cursor", previous.nextCursor);

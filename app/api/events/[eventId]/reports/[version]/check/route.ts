@@ -1,4 +1,4 @@
-import { checkReport } from "@/db/queries/reports";
+import { checkReport } from "@/server/results/check";
 import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle } from "@/lib/http/errors";
 import { parseParams, pathId, pathVersion } from "@/lib/http/params";
