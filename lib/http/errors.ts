@@ -2,6 +2,7 @@ import { z } from "zod";
 import { env } from "@/lib/env";
 import { isLocale, routing, type Locale } from "@/lib/i18n/routing";
 import { translator } from "@/lib/i18n/translator";
+import { NUL_ISSUE } from "@/lib/validation/text";
 
 // One error type for every route handler (conventions, habit 5): a code maps to an
 // HTTP status and a translated message a person can act on.
@@ -48,6 +49,18 @@ export function apiTranslator(locale: Locale) {
   return translator(locale, "ApiErrors");
 }
 
+type Expected = "int" | "number" | "boolean" | "string" | "array" | "object";
+const EXPECTED = new Set<string>(["int", "number", "boolean", "string", "array", "object"]);
+
+/**
+ * A refused input as an ApiError: 422 when a value of the right type holds a character that
+ * cannot be stored (NUL), 400 for every other shape problem; each problem names its field.
+ */
+export function zodApiError(error: z.ZodError, locale: Locale): ApiError {
+  const code = error.issues.some((i) => i.code === "custom" && i.message === NUL_ISSUE) ? "unprocessable" : "bad_request";
+  return new ApiError(code, zodFieldProblems(error, locale));
+}
+
 /** Field problems from a zod error, in the person's language, naming the field. */
 export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProblem[] {
   const t = apiTranslator(locale);
@@ -57,9 +70,15 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProble
     const field = issue.code === "unrecognized_keys" ? [...at, issue.keys.join(",")].join(".") : at.length ? at.join(".") : "(body)";
     let message: string;
     switch (issue.code) {
-      case "invalid_type":
-        message = issue.input === undefined ? t("field.required") : t("field.wrongType", { expected: String(issue.expected) });
+      case "invalid_type": {
+        // Zod 4 leaves the input out of its issues; its own message still says what arrived.
+        const received = "input" in issue ? (issue.input === null ? "null" : typeof issue.input) : /received (\w+)/.exec(issue.message)?.[1];
+        const expected = String(issue.expected);
+        message = received === "undefined" ? t("field.required")
+          : EXPECTED.has(expected) ? t(`field.expected.${expected as Expected}`)
+          : t("field.wrongType", { expected });
         break;
+      }
       case "too_small":
         message = t("field.tooSmall", { minimum: String(issue.minimum) });
         break;
@@ -71,6 +90,9 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProble
         break;
       case "invalid_value":
         message = t("field.notAllowed", { allowed: issue.values.map(String).join(", ") });
+        break;
+      case "custom":
+        message = issue.message === NUL_ISSUE ? t("field.invalidChar") : t("field.invalid");
         break;
       default:
         message = t("field.invalid");
@@ -99,7 +121,7 @@ export function handle<Ctx>(fn: (request: Request, ctx: Ctx) => Promise<Response
       return await fn(request, ctx);
     } catch (err) {
       if (err instanceof ApiError) return errorResponse(err, locale);
-      if (err instanceof z.ZodError) return errorResponse(new ApiError("bad_request", zodFieldProblems(err, locale)), locale);
+      if (err instanceof z.ZodError) return errorResponse(zodApiError(err, locale), locale);
       console.error("[api] unhandled error", request.method, new URL(request.url).pathname, err);
       return errorResponse(new ApiError("internal"), locale);
     }
@@ -130,6 +152,6 @@ export function assertSameOrigin(request: Request): void {
 export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.infer<T> {
   const params = Object.fromEntries(new URL(request.url).searchParams);
   const parsed = schema.safeParse(params);
-  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, requestLocale(request)));
+  if (!parsed.success) throw zodApiError(parsed.error, requestLocale(request));
   return parsed.data;
 }

@@ -30,7 +30,7 @@ describe("formula injection in the published CSV and TSV files", () => {
         vernacularName: payload(c), individualCount: 2, lon: -1.25, lat: 52.5, uncertaintyM: 10, generalised: false,
       };
       const txt = occurrenceTxt([row], payload(c));
-      const fields = txt.split("\n")[1].split("\t");
+      const fields = txt.split("\n")[1]!.split("\t");
       expect(fields).toHaveLength(15);
       for (const f of fields) expect(f).not.toMatch(/^[=+@\t\r]|^-(?!\d)/);
       expect(fields[3]).toMatch(/^'/); // scientificName
