@@ -10,7 +10,9 @@ type Props = { params: Promise<{ locale: Locale }>; searchParams: Promise<{ toke
 
 // The page a mailed sign-in link opens. Opening it uses nothing up (mail scanners follow
 // links); the button posts the one-time token to next-auth's e-mail callback.
-export const metadata: Metadata = { referrer: "no-referrer", robots: { index: false, follow: false } };
+// "same-origin": the token in this address never goes to another site, and the button's POST
+// still carries our Origin (with "no-referrer" a browser sends "Origin: null", which is refused).
+export const metadata: Metadata = { referrer: "same-origin", robots: { index: false, follow: false } };
 
 export default async function ConfirmSignInPage({ params, searchParams }: Props) {
   const { locale } = await params;
