@@ -48,6 +48,9 @@ export const users = pgTable("users", {
   passwordHash: text("password_hash"),
   locale: varchar("locale", { length: 8 }).notNull().default("en"),
   isAdmin: boolean("is_admin").notNull().default(false),
+  // Raised by sign-out, a password change or erasure: every session token carries the value it
+  // was issued with, and one that no longer matches is refused (server/auth/options.ts).
+  sessionVersion: integer("session_version").notNull().default(0),
   createdAt: createdAt(),
 }, (t) => [
   uniqueIndex("users_email_lower_key").on(sql`lower(${t.email})`),

@@ -42,6 +42,10 @@ const schema = z.object({
   // a deployment; the browser tests raise it because all their specs share one server, one
   // IP address and a handful of demo people, and the fuzz test alone sends hundreds of writes.
   WRITE_LIMIT_SCALE: z.coerce.number().min(1).max(1000).default(1),
+  // Addresses of our own reverse proxies (comma or space separated, exact addresses). Only
+  // when the connection comes from one of them is X-Forwarded-For read for the client's
+  // address (sign-in rate limits); by default none, and the socket address is used.
+  TRUSTED_PROXIES: z.string().default("").transform((v) => v.split(/[\s,]+/).filter(Boolean)),
   // Origins besides our own that pages may load images from and send data to (the photo store).
   CSP_EXTRA_ORIGINS: z.string().default("").transform((v) => v.split(/[\s,]+/).filter(Boolean)),
 });

@@ -34,6 +34,30 @@ export async function setPasswordHash(userId: string, hash: string): Promise<voi
   await getDb().update(users).set({ passwordHash: hash }).where(eq(users.id, userId));
 }
 
+/** The person's current session version (null: no such person, e.g. erased). */
+export async function sessionVersionOf(userId: string): Promise<number | null> {
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(userId)) return null;
+  const [row] = await getDb().select({ v: users.sessionVersion }).from(users).where(eq(users.id, userId)).limit(1);
+  return row?.v ?? null;
+}
+
+/** Ends every session of the person (each token carries the version it was issued with); returns the new version. */
+export async function bumpSessionVersion(userId: string): Promise<number | null> {
+  const [row] = await getDb().update(users).set({ sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, userId)).returning({ v: users.sessionVersion });
+  return row?.v ?? null;
+}
+
+/** A new password hash, and every session of the person ended in the same statement; returns the new session version. */
+export async function changePassword(userId: string, hash: string): Promise<number> {
+  const [row] = await getDb().update(users).set({ passwordHash: hash, sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, userId)).returning({ v: users.sessionVersion });
+  return row!.v;
+}
+
+export async function passwordHashOf(userId: string): Promise<string | null> {
+  const [row] = await getDb().select({ h: users.passwordHash }).from(users).where(eq(users.id, userId)).limit(1);
+  return row?.h ?? null;
+}
+
 export type EventAccess = {
   eventId: string;
   organisationId: string;

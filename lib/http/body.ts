@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { ApiError, apiTranslator, requestLocale, zodFieldProblems, type MessageKeys } from "./errors";
+import { ApiError, apiTranslator, requestLocale, zodApiError, type MessageKeys } from "./errors";
 
 export const MAX_JSON_BYTES = 1_000_000;
 
@@ -25,7 +25,7 @@ export async function parseJson<T extends z.ZodType>(request: Request, schema: T
     throw new ApiError("bad_request", [{ field: "(body)", message: apiTranslator(locale)("field.notJson") }]);
   }
   const parsed = schema.safeParse(data);
-  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, locale, messages));
+  if (!parsed.success) throw zodApiError(parsed.error, locale, messages);
   return parsed.data;
 }
 

@@ -3,6 +3,7 @@ import { z } from "zod";
 import { env } from "@/lib/env";
 import { isLocale, routing, type Locale } from "@/lib/i18n/routing";
 import { catalogues, translator } from "@/lib/i18n/translator";
+import { NUL_ISSUE } from "@/lib/validation/text";
 
 // One error type for every route handler (conventions, habit 5): a code maps to an
 // HTTP status and a translated message a person can act on.
@@ -66,6 +67,18 @@ function keyedMessage(namespace: MessageKeys | undefined, message: string, local
   return createTranslator({ locale, messages: catalogues[locale], namespace: namespace as never })(message as never);
 }
 
+type Expected = "int" | "number" | "boolean" | "string" | "array" | "object";
+const EXPECTED = new Set<string>(["int", "number", "boolean", "string", "array", "object"]);
+
+/**
+ * A refused input as an ApiError: 422 when a value of the right type holds a character that
+ * cannot be stored (NUL), 400 for every other shape problem; each problem names its field.
+ */
+export function zodApiError(error: z.ZodError, locale: Locale, messages?: MessageKeys): ApiError {
+  const code = error.issues.some((i) => i.code === "custom" && i.message === NUL_ISSUE) ? "unprocessable" : "bad_request";
+  return new ApiError(code, zodFieldProblems(error, locale, messages));
+}
+
 /**
  * Field problems from a zod error, in the person's language, naming the field. A schema
  * shared with a form may give its issues message keys of one namespace (`messages`, e.g.
@@ -81,9 +94,15 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale, messages?: M
     if (keyed !== null) return { field, message: keyed };
     let message: string;
     switch (issue.code) {
-      case "invalid_type":
-        message = issue.input === undefined ? t("field.required") : t("field.wrongType", { expected: String(issue.expected) });
+      case "invalid_type": {
+        // Zod 4 leaves the input out of its issues; its own message still says what arrived.
+        const received = "input" in issue ? (issue.input === null ? "null" : typeof issue.input) : /received (\w+)/.exec(issue.message)?.[1];
+        const expected = String(issue.expected);
+        message = received === "undefined" ? t("field.required")
+          : EXPECTED.has(expected) ? t(`field.expected.${expected as Expected}`)
+          : t("field.wrongType", { expected });
         break;
+      }
       case "too_small":
         message = t("field.tooSmall", { minimum: String(issue.minimum) });
         break;
@@ -95,6 +114,9 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale, messages?: M
         break;
       case "invalid_value":
         message = t("field.notAllowed", { allowed: issue.values.map(String).join(", ") });
+        break;
+      case "custom":
+        message = issue.message === NUL_ISSUE ? t("field.invalidChar") : t("field.invalid");
         break;
       default:
         message = t("field.invalid");
@@ -124,7 +146,7 @@ export function handle<Ctx>(fn: (request: Request, ctx: Ctx) => Promise<Response
       return await fn(request, ctx);
     } catch (err) {
       if (err instanceof ApiError) return errorResponse(err, locale);
-      if (err instanceof z.ZodError) return errorResponse(new ApiError("bad_request", zodFieldProblems(err, locale)), locale);
+      if (err instanceof z.ZodError) return errorResponse(zodApiError(err, locale), locale);
       console.error("[api] unhandled error", request.method, new URL(request.url).pathname, err);
       return errorResponse(new ApiError("internal"), locale);
     }
@@ -155,6 +177,6 @@ export function assertSameOrigin(request: Request): void {
 export function parseQuery<T extends z.ZodType>(request: Request, schema: T, messages?: MessageKeys): z.infer<T> {
   const params = Object.fromEntries(new URL(request.url).searchParams);
   const parsed = schema.safeParse(params);
-  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, requestLocale(request), messages));
+  if (!parsed.success) throw zodApiError(parsed.error, requestLocale(request), messages);
   return parsed.data;
 }

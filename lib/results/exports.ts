@@ -50,9 +50,20 @@ export function publicOccurrences(results: Results, occurrences: readonly Public
   return { rows, withheld };
 }
 
-/** RFC 4180 field quoting. */
+// Formula injection (CWE-1236): a spreadsheet reads a text cell that starts with one of
+// these as a formula. Such text cells get a leading apostrophe (the usual rule, OWASP's
+// "CSV Injection" page, from memory); numbers are written as numbers and never changed.
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/** A text cell made safe to open in a spreadsheet; numbers pass through untouched. */
+export function spreadsheetSafe(v: string | number): string {
+  if (typeof v === "number") return String(v);
+  return FORMULA_START.test(v) ? `'${v}` : v;
+}
+
+/** RFC 4180 field quoting, after the formula rule. */
 function csvField(v: string | number): string {
-  const s = String(v);
+  const s = spreadsheetSafe(v);
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
@@ -92,7 +103,8 @@ export const DWC_TERMS = [
 export const DWC_REQUIRED = ["occurrenceID", "basisOfRecord", "eventDate", "scientificName", "taxonRank", "individualCount", "decimalLatitude", "decimalLongitude", "coordinateUncertaintyInMeters", "identificationVerificationStatus"] as const;
 
 const xml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
-const tsv = (s: string | number) => String(s).replace(/[\t\r\n]+/g, " ");
+// The formula rule first (a leading tab or CR is one of its characters), then no tab or line break inside a field.
+const tsv = (s: string | number) => spreadsheetSafe(s).replace(/[\t\r\n]+/g, " ");
 
 export function occurrenceTxt(rows: readonly Located[], datasetName: string): string {
   const lines = rows.map((r) => {

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { SESSION_KINDS, type ReviewState } from "@/lib/domain";
+import { freeText } from "@/lib/validation/text";
 
 // The field log's sync batch: the one contract between the device (lib/field, IndexedDB
 // outbox) and the server (the sync route handler). Ids are made on the device (uuid v4),
@@ -15,7 +16,7 @@ export const MAX_BATCH_RECORDS = 100;
 export type { ReviewState };
 
 const isoInstant = z.iso.datetime({ offset: true });
-const text = (max: number) => z.string().max(max).default("");
+const text = (max: number) => freeText().max(max).default(""); // no NUL: PostgreSQL text cannot hold it
 
 export const sessionRecord = z.object({
   id: z.uuid(),
@@ -44,7 +45,7 @@ export const sightingRecord = z.object({
   notes: text(2000),
   photoIds: z.array(z.uuid()).max(10).default([]), // photos follow through the photo handlers
   // A returned sighting edited and resent: the version the volunteer edited and their answer.
-  answer: z.object({ toVersion: z.number().int().min(1), message: z.string().min(1).max(2000) }).strict().optional(),
+  answer: z.object({ toVersion: z.number().int().min(1), message: freeText().min(1).max(2000) }).strict().optional(),
 }).strict();
 export type SightingRecord = z.infer<typeof sightingRecord>;
 

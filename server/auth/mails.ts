@@ -13,6 +13,17 @@ export function signInMail(locale: Locale, url: string) {
   };
 }
 
+/** The answer to a sign-in link asked for an address with no account and no invitation. */
+export function noAccountMail(locale: Locale) {
+  const t = translator(locale, "Mail");
+  const paragraphs = [t("noAccount.intro"), t("noAccount.howToJoin"), t("noAccount.ignore")];
+  return {
+    subject: t("noAccount.subject"),
+    text: `${paragraphs.join("\n\n")}\n\n${t("footer")}`,
+    html: mailHtml({ lang: locale, paragraphs, footer: t("footer") }),
+  };
+}
+
 export function invitationMail(locale: Locale, opts: { url: string; eventName: string; role: string; inviter: string | null }) {
   const t = translator(locale, "Mail");
   const intro = opts.inviter

@@ -42,7 +42,7 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
       <section aria-labelledby="password-title" className="space-y-2">
         <h2 id="password-title" className="text-2xl font-bold text-reed-900">{t("passwordTitle")}</h2>
         <p>{user.hasPassword ? t("passwordHasOne") : t("passwordNone")}</p>
-        <PasswordForm />
+        <PasswordForm hasPassword={user.hasPassword} />
       </section>
     </div>
   );

@@ -10,12 +10,13 @@ import { api, ApiClientError } from "@/lib/http/client";
 
 type RuleKey = "tooShort" | "tooLong" | "sameAsEmail" | "tooCommon";
 
-export function PasswordForm() {
+export function PasswordForm({ hasPassword }: { hasPassword: boolean }) {
   const t = useTranslations("Account");
   const tSetup = useTranslations("Setup");
   const [saved, setSaved] = useState(false);
   const form = useForm<SetPasswordInput>({ resolver: zodResolver(setPasswordInput) });
   const error = form.formState.errors.password;
+  const currentError = form.formState.errors.currentPassword;
 
   const submit = form.handleSubmit(async (values) => {
     setSaved(false);
@@ -23,7 +24,8 @@ export function PasswordForm() {
       await api.send("/api/account/password", "PUT", values);
     } catch (err) {
       if (!(err instanceof ApiClientError)) throw err;
-      form.setError("password", { message: err.problem || tSetup("genericError") });
+      const first = err.fields[0];
+      form.setError(first?.field === "currentPassword" ? "currentPassword" : "password", { message: err.problem || tSetup("genericError") });
       return;
     }
     setSaved(true);
@@ -37,11 +39,16 @@ export function PasswordForm() {
 
   return (
     <form onSubmit={submit} noValidate className="max-w-md space-y-3">
+      {hasPassword ? (
+        <Field id="current-password" label={t("currentPassword")} error={currentError?.message}>
+          <input id="current-password" type="password" autoComplete="current-password" className={inputClass} aria-invalid={Boolean(currentError)} {...form.register("currentPassword")} />
+        </Field>
+      ) : null}
       <Field id="new-password" label={t("newPassword")} hint={t("passwordHint")} error={message}>
         <input id="new-password" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(error)} aria-describedby="new-password-hint" {...form.register("password")} />
       </Field>
       <button type="submit" className={buttonClass} disabled={form.formState.isSubmitting}>{t("save")}</button>
-      {saved ? <p role="status" className="font-semibold text-reed-700">✓ {t("saved")}</p> : null}
+      {saved ? <p role="status" className="font-semibold text-reed-700">✓ {hasPassword ? t("savedOthersEnded") : t("saved")}</p> : null}
     </form>
   );
 }
