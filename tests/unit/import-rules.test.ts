@@ -52,15 +52,6 @@ const rules: Rule[] = [
 
 type Offence = { file: string; specifier: string; why: string };
 
-// Imports that other parts of issue 12, done in parallel, take away. Each entry must still
-// be found: once its import is gone the test fails until the entry is deleted, so this
-// list only shrinks.
-const pending: { file: string; specifier: string; until: string }[] = [
-  { file: "lib/field/types.ts", specifier: "@/db/queries/pack", until: "item 1: the pack types move to lib/sync" },
-  { file: "lib/review/filters.ts", specifier: "@/db/schema", until: "item 2: review states, check marks and groups from one pure module" },
-  { file: "lib/setup/api.ts", specifier: "server-only", until: "item 3: its body reader folds into lib/http/body.ts" },
-];
-const isPending = (o: { file: string; specifier: string }) => pending.some((p) => p.file === o.file && p.specifier === o.specifier);
 
 function offences(): Offence[] {
   const found: Offence[] = [];
@@ -96,14 +87,8 @@ describe("import rules", () => {
   });
 
   it("has no import that runs against the layering", () => {
-    const found = offences().filter((o) => !isPending(o));
+    const found = offences();
     const listing = found.map((o) => `${o.file} imports "${o.specifier}" (${o.why})`).join("\n");
     expect(listing, `imports against the layering:\n${listing}`).toBe("");
-  });
-
-  it("keeps no pending exception whose import is already gone", () => {
-    const found = offences();
-    const gone = pending.filter((p) => !found.some((o) => o.file === p.file && o.specifier === p.specifier));
-    expect(gone.map((p) => `${p.file} no longer imports "${p.specifier}": delete its entry in pending`)).toEqual([]);
   });
 });
