@@ -1,8 +1,8 @@
 import { expect, test, type APIRequestContext, type Browser } from "@playwright/test";
-import { DEMO_PASSWORD } from "../../db/seed/demo-scenario";
 import { demoIds } from "./demo-ids";
 import { matrixTokens } from "./api-tokens";
 import { ROUTES, TOKEN_HOLDERS, type ApiTokenHolder, type Who } from "./route-table";
+import { signInWithPassword } from "./support";
 
 // Every handler × every kind of person: no session → 401; the wrong role, or a member of
 // another event → 403 (or 404, which hides whether the event exists); the right role →
@@ -18,10 +18,14 @@ const PEOPLE: Record<Exclude<Who, "anonymous" | ApiTokenHolder>, string> = {
   outsider: "moor-volunteer@example.org",
 };
 
-
 const isTokenHolder = (who: Who): who is ApiTokenHolder => (TOKEN_HOLDERS as Who[]).includes(who);
 
-async function contextFor(browser: Browser, baseURL: string, who: Who, secrets: Record<ApiTokenHolder, string>): Promise<APIRequestContext> {
+async function contextFor(
+  browser: Browser,
+  baseURL: string,
+  who: Who,
+  secrets: Record<ApiTokenHolder, string>,
+): Promise<APIRequestContext> {
   if (isTokenHolder(who)) {
     const ctx = await browser.newContext({ baseURL, extraHTTPHeaders: { authorization: `Bearer ${secrets[who]}` } });
     return ctx.request;
@@ -29,12 +33,7 @@ async function contextFor(browser: Browser, baseURL: string, who: Who, secrets: 
   const ctx = await browser.newContext({ baseURL });
   if (who !== "anonymous") {
     const page = await ctx.newPage();
-    await page.goto("/en/sign-in");
-    const form = page.getByRole("form", { name: "Sign in with a password" });
-    await form.getByLabel("E-mail address").fill(PEOPLE[who]);
-    await form.getByLabel("Password").fill(DEMO_PASSWORD);
-    await form.getByRole("button", { name: "Sign in" }).click();
-    await page.waitForURL(/\/account/);
+    await signInWithPassword(page, PEOPLE[who]);
     await page.close();
   }
   return ctx.request;
@@ -44,7 +43,15 @@ test("every route handler answers each kind of person as designed", async ({ bro
   test.setTimeout(180_000);
   const { secrets } = await matrixTokens();
   const ids = await demoIds();
-  const who: Who[] = ["anonymous", "volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider", ...TOKEN_HOLDERS];
+  const who: Who[] = [
+    "anonymous",
+    "volunteer",
+    "coordinator",
+    "birdsCoordinator",
+    "organiser",
+    "outsider",
+    ...TOKEN_HOLDERS,
+  ];
   const problems: string[] = [];
   for (const person of who) {
     const request = await contextFor(browser, baseURL!, person, secrets);

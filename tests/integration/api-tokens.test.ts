@@ -12,14 +12,13 @@ import { GET as reportsGet } from "@/app/api/v1/events/[eventId]/reports/route";
 import { GET as reportGet } from "@/app/api/v1/events/[eventId]/reports/[version]/route";
 import { GET as openapiGet } from "@/app/api/openapi.json/route";
 import { createApiToken, revokeApiToken, recordApiTokenCall } from "@/db/queries/api-tokens";
-import { publishReport } from "@/db/queries/reports";
+import { publishReport } from "@/server/results/publish";
 import { decide } from "@/db/queries/review";
 import * as s from "@/db/schema";
 import { DWC_TERMS, generalise } from "@/lib/results/exports";
 import { makeApiToken } from "@/server/auth/api-token-secret";
 import { currentResults } from "@/server/results/current";
-import { publishMail } from "@/server/results/publish-mail";
-import { db, makeFixture, pointSql, sightingValues } from "./helpers";
+import { db, makeFixture, lonLat, sightingValues } from "./helpers";
 
 // The read-only API through its real handlers and PostgreSQL: what a records centre's
 // script gets with a token, and what it never gets.
@@ -82,7 +81,7 @@ beforeAll(async () => {
     sightingValues(f, {
       reviewState: "approved",
       taxonId: generalised!.id,
-      location: pointSql(0.234, 0.345),
+      location: lonLat(0.234, 0.345),
       accuracyM: 12,
       updatedAt: at(3),
     }),
@@ -282,7 +281,7 @@ describe("read-only API tokens", () => {
         await call(reportsGet, `/api/v1/events/${f.event.id}/reports`, secrets.event!, { eventId: f.event.id })
       ).json(),
     ).toEqual({ reports: [] });
-    await publishReport(f.event.id, f.user.id, publishMail);
+    await publishReport(f.event.id, f.user.id);
     const list = await (
       await call(reportsGet, `/api/v1/events/${f.event.id}/reports`, secrets.event!, { eventId: f.event.id })
     ).json();

@@ -1,11 +1,9 @@
 import { createApiToken, listApiTokens } from "@/db/queries/api-tokens";
-import { ApiError, handle, parseQuery, requestLocale } from "@/lib/http/errors";
-import { limitWrites } from "@/lib/http/write-limit";
+import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { parseParams, pathId } from "@/lib/http/params";
 import { translator } from "@/lib/i18n/translator";
-import { parseSetupBody } from "@/lib/setup/api";
 import { makeApiToken } from "@/server/auth/api-token-secret";
-import { requireEventRole } from "@/server/auth/guard";
-import { setupQuery } from "../schema";
+import { requireSetupReadPermit, requireSetupWritePermit } from "@/server/setup/handler";
 import { newApiTokenInput } from "./schema";
 
 type Ctx = { params: Promise<{ eventId: string }> };
@@ -14,9 +12,8 @@ export const dynamic = "force-dynamic";
 // The event's read-only API tokens (and the organisation's, for its organisers). The secret
 // is never listed: only its first characters.
 export const GET = handle<Ctx>(async (request, { params }) => {
-  const { eventId } = await params;
-  const { access, role } = await requireEventRole(eventId, "organiser");
-  parseQuery(request, setupQuery);
+  const { eventId } = await parseParams(params, { eventId: pathId });
+  const { access, role } = await requireSetupReadPermit(request, eventId);
   const canOrganisation = role === "admin" || access.isOrganisationOrganiser;
   return Response.json(
     { tokens: await listApiTokens(eventId, canOrganisation), canOrganisation },
@@ -26,10 +23,10 @@ export const GET = handle<Ctx>(async (request, { params }) => {
 
 // Makes a token and answers its secret, this once: only its SHA-256 is kept.
 export const POST = handle<Ctx>(async (request, { params }) => {
-  const { eventId } = await params;
-  const { user, access, role } = await requireEventRole(eventId, "organiser");
-  limitWrites(`api-token:${user.id}`, 30, 60 * 60_000);
-  const input = await parseSetupBody(request, newApiTokenInput);
+  const { eventId } = await parseParams(params, { eventId: pathId });
+  const { user, access, role, input } = await requireSetupWritePermit(request, eventId, newApiTokenInput, {
+    limit: ["api-token", 30, 60 * 60_000],
+  });
   if (input.scope === "organisation" && role !== "admin" && !access.isOrganisationOrganiser) {
     const t = translator(requestLocale(request), "ApiTokens");
     throw new ApiError("forbidden", [{ field: "scope", message: t("organisationOnly") }]);

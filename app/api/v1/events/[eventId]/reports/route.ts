@@ -1,5 +1,6 @@
 import { listReports } from "@/db/queries/reports";
 import { handle } from "@/lib/http/errors";
+import { parseParams } from "@/lib/http/params";
 import { requireApiToken } from "@/server/auth/guard";
 import { readOnly } from "../../../read-only";
 import { eventIdParams } from "../../../schema";
@@ -14,7 +15,7 @@ export const GET = handle(async (request, { params }: Ctx) => {
   // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
   const raw = await params;
   await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId } = eventIdParams.parse(raw);
+  const { eventId } = await parseParams(Promise.resolve(raw), eventIdParams.shape);
   const body: ReportsResponse = {
     reports: (await listReports(eventId)).map((r) => ({
       id: r.id,

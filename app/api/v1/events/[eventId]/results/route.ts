@@ -1,4 +1,5 @@
 import { handle } from "@/lib/http/errors";
+import { parseParams } from "@/lib/http/params";
 import { requireApiToken } from "@/server/auth/guard";
 import { currentResults } from "@/server/results/current";
 import { readOnly } from "../../../read-only";
@@ -13,7 +14,7 @@ export const GET = handle(async (request, { params }: Ctx) => {
   // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
   const raw = await params;
   await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId } = eventIdParams.parse(raw);
+  const { eventId } = await parseParams(Promise.resolve(raw), eventIdParams.shape);
   const { json } = await currentResults(eventId);
   return new Response(json, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
 });

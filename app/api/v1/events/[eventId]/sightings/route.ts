@@ -1,5 +1,6 @@
 import { approvedSightingsPage, eventOwner, withdrawnSince } from "@/db/queries/api-tokens";
 import { ApiError, apiTranslator, handle, parseQuery, requestLocale } from "@/lib/http/errors";
+import { isUuid, parseParams } from "@/lib/http/params";
 import { csvField, dwcRecord, DWC_TERMS, publicOccurrences } from "@/lib/results/exports";
 import { requireApiToken } from "@/server/auth/guard";
 import { readOnly } from "../../../read-only";
@@ -20,10 +21,8 @@ function encodeCursor(micros: string, id: string): string {
   return Buffer.from(`${micros}.${id}`, "utf8").toString("base64url");
 }
 function decodeCursor(cursor: string): { micros: string; id: string } | null {
-  const m = /^(\d{1,20})\.([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/.exec(
-    Buffer.from(cursor, "base64url").toString("utf8"),
-  );
-  return m ? { micros: m[1]!, id: m[2]! } : null;
+  const m = /^(\d{1,20})\.(.+)$/.exec(Buffer.from(cursor, "base64url").toString("utf8"));
+  return m && isUuid(m[2]!) ? { micros: m[1]!, id: m[2]!.toLowerCase() } : null;
 }
 
 /**
@@ -35,7 +34,7 @@ export const GET = handle(async (request, { params }: Ctx) => {
   // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
   const raw = await params;
   await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId } = eventIdParams.parse(raw);
+  const { eventId } = await parseParams(Promise.resolve(raw), eventIdParams.shape);
   const q = parseQuery(request, sightingsQuery);
   const locale = requestLocale(request);
   const after = q.cursor ? decodeCursor(q.cursor) : undefined;

@@ -1,37 +1,43 @@
 "use client";
 
 import useSWR from "swr";
+import { ReviewStateMark } from "@/components/state-mark";
+import type { LiveFigures } from "@/db/queries/results";
+import type { Completeness } from "@/lib/results/live";
+import { fetcher } from "@/lib/http/client";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
-type Live = {
-  perHour: { hour: string; sightings: number }[];
-  activeVolunteers: { lastHour: number; today: number; total: number };
-  backlog: Record<"pending" | "approved" | "rejected" | "returned", number>;
-  completeness: {
-    observed: number; chao1: number; chao1Lower: number; chao1Upper: number; share: number; coverage: number;
-    zones: { id: string; name: string; observed: number; undetected: number; coverage: number; coverageDeficit: number; individuals: number }[];
-  };
-  at: string;
-};
+// The live handler's answer (app/api/events/[eventId]/live), dates as JSON strings.
+type Live = LiveFigures & { completeness: Completeness; at: string };
 
 export type LiveLabels = Record<
-  "perHour" | "volunteers" | "lastHour" | "today" | "total" | "backlog" | "pending" | "approved" | "rejected" | "returned" |
-  "completeness" | "share" | "coverage" | "nextTitle" | "nextIntro" | "zoneLine" | "unsampled" | "loading" | "failed" | "updated" | "hour" | "sightings",
+  | "perHour"
+  | "volunteers"
+  | "lastHour"
+  | "today"
+  | "total"
+  | "backlog"
+  | "completeness"
+  | "share"
+  | "coverage"
+  | "nextTitle"
+  | "nextIntro"
+  | "zoneLine"
+  | "unsampled"
+  | "loading"
+  | "failed"
+  | "updated"
+  | "hour"
+  | "sightings",
   string
 >;
 
-const fetcher = async (url: string): Promise<Live> => {
-  const res = await fetch(url);
-  if (!res.ok) throw new Error(String(res.status));
-  return (await res.json()) as Live;
-};
-
-const fill = (s: string, v: Record<string, string | number>) => s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
-const ICON: Record<string, string> = { pending: "⏳", approved: "✓", rejected: "✗", returned: "↩" };
+const fill = (s: string, v: Record<string, string | number>) =>
+  s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
 
 /** The live board: refreshed every 15 s while the page is open (SWR polling). */
 export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels: LiveLabels; locale: string }) {
-  const { data, error } = useSWR(`/api/events/${eventId}/live`, fetcher, { refreshInterval: 15_000 });
+  const { data, error } = useSWR<Live>(`/api/events/${eventId}/live`, fetcher, { refreshInterval: 15_000 });
   const pct = (v: number) => new Intl.NumberFormat(locale, { style: "percent", maximumFractionDigits: 1 }).format(v);
   const num = (v: number) => new Intl.NumberFormat(locale, { maximumFractionDigits: 1 }).format(v);
   if (error) return <p role="alert">{labels.failed}</p>;
@@ -39,29 +45,55 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
   const c = data.completeness;
   return (
     <div className="space-y-6" data-testid="live-board">
-      <p className="text-sm text-ink-soft" role="status">{fill(labels.updated, { time: new Date(data.at).toLocaleTimeString(locale) })}</p>
+      <p className="text-sm text-ink-soft" role="status">
+        {fill(labels.updated, { time: new Date(data.at).toLocaleTimeString(locale) })}
+      </p>
       <div className="grid gap-4 md:grid-cols-3">
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.volunteers}>
           <h2 className="font-bold">{labels.volunteers}</h2>
-          <p>{labels.lastHour}: <b>{data.activeVolunteers.lastHour}</b></p>
-          <p>{labels.today}: <b>{data.activeVolunteers.today}</b></p>
-          <p>{labels.total}: <b>{data.activeVolunteers.total}</b></p>
+          <p>
+            {labels.lastHour}: <b>{data.activeVolunteers.lastHour}</b>
+          </p>
+          <p>
+            {labels.today}: <b>{data.activeVolunteers.today}</b>
+          </p>
+          <p>
+            {labels.total}: <b>{data.activeVolunteers.total}</b>
+          </p>
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.backlog}>
           <h2 className="font-bold">{labels.backlog}</h2>
-          <ul>{(["pending", "returned", "approved", "rejected"] as const).map((s) => <li key={s}><span aria-hidden="true">{ICON[s]} </span>{labels[s]}: <b>{data.backlog[s]}</b></li>)}</ul>
+          <ul className="space-y-1">
+            {(["pending", "returned", "approved", "rejected"] as const).map((s) => (
+              <li key={s}>
+                <ReviewStateMark state={s} />: <b>{data.backlog[s]}</b>
+              </li>
+            ))}
+          </ul>
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.completeness}>
           <h2 className="font-bold">{labels.completeness}</h2>
-          <p>{fill(labels.share, { observed: c.observed, chao1: num(c.chao1), lower: num(c.chao1Lower), upper: num(c.chao1Upper), share: pct(c.share) })}</p>
-          <p>{labels.coverage}: <b>{pct(c.coverage)}</b></p>
+          <p>
+            {fill(labels.share, {
+              observed: c.observed,
+              chao1: num(c.chao1),
+              lower: num(c.chao1Lower),
+              upper: num(c.chao1Upper),
+              share: pct(c.share),
+            })}
+          </p>
+          <p>
+            {labels.coverage}: <b>{pct(c.coverage)}</b>
+          </p>
         </section>
       </div>
       <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.perHour}>
         <h2 className="font-bold">{labels.perHour}</h2>
         <div className="h-56 w-full">
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart data={data.perHour.map((h) => ({ hour: h.hour.slice(5, 13).replace("T", " "), sightings: h.sightings }))}>
+            <BarChart
+              data={data.perHour.map((h) => ({ hour: h.hour.slice(5, 13).replace("T", " "), sightings: h.sightings }))}
+            >
               <CartesianGrid stroke="#d5e8dc" />
               <XAxis dataKey="hour" />
               <YAxis allowDecimals={false} />
@@ -72,12 +104,21 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
         </div>
       </section>
       <section aria-labelledby="next-title" className="space-y-2">
-        <h2 id="next-title" className="text-xl font-bold text-reed-900">{labels.nextTitle}</h2>
+        <h2 id="next-title" className="text-xl font-bold text-reed-900">
+          {labels.nextTitle}
+        </h2>
         <p>{labels.nextIntro}</p>
         <ol className="list-decimal space-y-1 pl-5" data-testid="where-next">
           {c.zones.map((z) => (
             <li key={z.id}>
-              <b>{z.name}</b>: {z.individuals === 0 ? labels.unsampled : fill(labels.zoneLine, { coverage: pct(z.coverage), undetected: num(z.undetected), observed: z.observed })}
+              <b>{z.name}</b>:{" "}
+              {z.individuals === 0
+                ? labels.unsampled
+                : fill(labels.zoneLine, {
+                    coverage: pct(z.coverage),
+                    undetected: num(z.undetected),
+                    observed: z.observed,
+                  })}
             </li>
           ))}
         </ol>

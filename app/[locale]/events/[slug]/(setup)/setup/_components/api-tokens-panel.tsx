@@ -12,7 +12,7 @@ import {
 } from "@/app/api/events/[eventId]/setup/api-tokens/schema";
 import { applyServerErrors, useErrorText } from "@/components/setup/event-fields";
 import { buttonClass, Field, inputClass, secondaryButtonClass } from "@/components/ui/field";
-import { fetcher, send } from "@/lib/http/client";
+import { api, fetcher } from "@/lib/http/client";
 
 type Token = {
   id: string;
@@ -47,14 +47,17 @@ function CreateForm({
   const { errors, isSubmitting } = form.formState;
   const submit = form.handleSubmit(async (values) => {
     setProblem(null);
-    const res = await send<{ token: string }>(`/api/events/${eventId}/setup/api-tokens`, "POST", values);
+    const res = await api.call<{ token: string }>(`/api/events/${eventId}/setup/api-tokens`, {
+      method: "POST",
+      body: values,
+    });
     if (res.ok) {
       form.reset({ ...values, name: "" });
-      onCreated(res.body.token);
+      onCreated(res.data.token);
       return;
     }
-    if (!applyServerErrors(form.setError as never, res.body.error?.fields, ["name", "scope", "expiresInDays"]))
-      setProblem(res.body.error?.message ?? "");
+    if (!applyServerErrors(form.setError as never, res.error.fields, ["name", "scope", "expiresInDays"]))
+      setProblem(res.error.message);
   });
   return (
     <form
@@ -225,7 +228,7 @@ export function ApiTokensPanel({ eventId, referenceUrl }: { eventId: string; ref
                           className={secondaryButtonClass}
                           aria-label={t("revokeWho", { name: k.name })}
                           onClick={async () => {
-                            await send(`/api/events/${eventId}/setup/api-tokens/${k.id}`, "DELETE");
+                            await api.call(`/api/events/${eventId}/setup/api-tokens/${k.id}`, { method: "DELETE" });
                             await mutate();
                           }}
                         >

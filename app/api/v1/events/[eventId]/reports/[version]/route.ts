@@ -1,5 +1,6 @@
 import { publishedReport } from "@/db/queries/api-tokens";
 import { ApiError, handle } from "@/lib/http/errors";
+import { parseParams } from "@/lib/http/params";
 import { requireApiToken } from "@/server/auth/guard";
 import { readOnly } from "../../../../read-only";
 import { reportParams, type ReportResponse } from "./schema";
@@ -12,7 +13,7 @@ type Ctx = { params: Promise<{ eventId: string; version: string }> };
 export const GET = handle(async (request, { params }: Ctx) => {
   const raw = await params;
   await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId, version } = reportParams.parse(raw);
+  const { eventId, version } = await parseParams(Promise.resolve(raw), reportParams.shape);
   const report = await publishedReport(eventId, version);
   if (!report) throw new ApiError("not_found");
   const files = `/api/reports/${report.id}`;
