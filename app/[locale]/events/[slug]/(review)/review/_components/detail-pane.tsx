@@ -76,6 +76,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
                 {/* The photo handler (GET /api/events/[eventId]/photos/[photoId]?size=thumb|full) checks the
                     reviewer's right and redirects to a short-lived link; full size only on demand. */}
                 <a href={`/api/events/${eventId}/photos/${p.id}?size=full`} target="_blank" rel="noopener" className="block underline">
+                  {/* eslint-disable-next-line @next/next/no-img-element -- a redirect to a short-lived signed link; next/image would proxy and cache a private photo */}
                   <img src={`/api/events/${eventId}/photos/${p.id}?size=thumb`} alt={t("photoLine", { type: p.contentType, kb: Math.round(p.sizeBytes / 1024) })}
                     loading="lazy" className="h-24 w-24 rounded border border-reed-200 object-cover" />
                   <span className="sr-only">{t("photoFull")}</span>
