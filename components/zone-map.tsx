@@ -30,9 +30,18 @@ type Props = {
 export function ZoneMap({ zones, area, point, zoneId, label, onPlace, width = 320, height, className }: Props) {
   // A place picker keeps still while the point moves; a map showing a record fits the point and its ring.
   const shown = point && !onPlace ? point : null;
-  const proj = fitProjection([...(area ? [area] : []), ...zones.map((z) => z.geometry)], shown ? [[shown.longitude, shown.latitude]] : [], {
-    width, height, minHeight: 120, maxHeight: 480, pad: onPlace ? 0 : 12, marginM: shown?.accuracyM ?? 0,
-  });
+  const proj = fitProjection(
+    [...(area ? [area] : []), ...zones.map((z) => z.geometry)],
+    shown ? [[shown.longitude, shown.latitude]] : [],
+    {
+      width,
+      height,
+      minHeight: 120,
+      maxHeight: 480,
+      pad: onPlace ? 0 : 12,
+      marginM: shown?.accuracyM ?? 0,
+    },
+  );
   if (!proj) return null;
   const { x, y } = proj;
   return (
@@ -41,20 +50,37 @@ export function ZoneMap({ zones, area, point, zoneId, label, onPlace, width = 32
       role="img"
       aria-label={label}
       className={className ?? "h-auto w-full rounded-lg border border-reed-200 bg-paper-deep"}
-      onClick={onPlace ? (ev) => {
-        const rect = ev.currentTarget.getBoundingClientRect();
-        const px = ((ev.clientX - rect.left) / rect.width) * proj.width;
-        const py = ((ev.clientY - rect.top) / rect.height) * proj.height;
-        const unitsPerPx = proj.width / rect.width;
-        onPlace({ ...proj.invert(px, py), accuracyM: Math.round(proj.metresPerUnit * FINGERTIP_PX * unitsPerPx) });
-      } : undefined}
+      onClick={
+        onPlace
+          ? (ev) => {
+              const rect = ev.currentTarget.getBoundingClientRect();
+              const px = ((ev.clientX - rect.left) / rect.width) * proj.width;
+              const py = ((ev.clientY - rect.top) / rect.height) * proj.height;
+              const unitsPerPx = proj.width / rect.width;
+              onPlace({
+                ...proj.invert(px, py),
+                accuracyM: Math.round(proj.metresPerUnit * FINGERTIP_PX * unitsPerPx),
+              });
+            }
+          : undefined
+      }
     >
-      {area ? <path d={arealPath(area, proj)} fillRule="evenodd" fill="#eef5f0" stroke="#153a2a" strokeWidth={2} /> : null}
+      {area ? (
+        <path d={arealPath(area, proj)} fillRule="evenodd" fill="#eef5f0" stroke="#153a2a" strokeWidth={2} />
+      ) : null}
       {zones.map((z, i) => {
         const here = z.id === zoneId;
         return (
-          <path key={z.id} d={arealPath(z.geometry, proj)} fillRule="evenodd" fill={FILLS[i % FILLS.length]} stroke="#153a2a"
-            strokeWidth={here ? 2.5 : 1} strokeDasharray={here || !zoneId ? undefined : "3 2"} data-zone={z.name}>
+          <path
+            key={z.id}
+            d={arealPath(z.geometry, proj)}
+            fillRule="evenodd"
+            fill={FILLS[i % FILLS.length]}
+            stroke="#153a2a"
+            strokeWidth={here ? 2.5 : 1}
+            strokeDasharray={here || !zoneId ? undefined : "3 2"}
+            data-zone={z.name}
+          >
             <title>{z.name}</title>
           </path>
         );
@@ -62,7 +88,15 @@ export function ZoneMap({ zones, area, point, zoneId, label, onPlace, width = 32
       {zones.map((z) => {
         const at = labelPoint(z.geometry, proj);
         return at ? (
-          <text key={`${z.id}-label`} x={at[0]} y={at[1]} textAnchor="middle" fontSize={onPlace ? 13 : 9} fontWeight={onPlace || z.id === zoneId ? 700 : 400} fill="#0f2a1f">
+          <text
+            key={`${z.id}-label`}
+            x={at[0]}
+            y={at[1]}
+            textAnchor="middle"
+            fontSize={onPlace ? 13 : 9}
+            fontWeight={onPlace || z.id === zoneId ? 700 : 400}
+            fill="#0f2a1f"
+          >
             {z.name}
           </text>
         ) : null;
@@ -70,9 +104,24 @@ export function ZoneMap({ zones, area, point, zoneId, label, onPlace, width = 32
       {point ? (
         <>
           {point.accuracyM ? (
-            <circle cx={x(point.longitude)} cy={y(point.latitude)} r={Math.max(2, point.accuracyM / proj.metresPerUnit)} fill="#b3261e" fillOpacity={0.12} stroke="#b3261e" strokeWidth={1} />
+            <circle
+              cx={x(point.longitude)}
+              cy={y(point.latitude)}
+              r={Math.max(2, point.accuracyM / proj.metresPerUnit)}
+              fill="#b3261e"
+              fillOpacity={0.12}
+              stroke="#b3261e"
+              strokeWidth={1}
+            />
           ) : null}
-          <circle cx={x(point.longitude)} cy={y(point.latitude)} r={onPlace ? 7 : 4} fill="#b3261e" stroke="#f8f5ec" strokeWidth={onPlace ? 2 : 1.5} />
+          <circle
+            cx={x(point.longitude)}
+            cy={y(point.latitude)}
+            r={onPlace ? 7 : 4}
+            fill="#b3261e"
+            stroke="#f8f5ec"
+            strokeWidth={onPlace ? 2 : 1.5}
+          />
         </>
       ) : null}
     </svg>

@@ -35,10 +35,28 @@ export type EffectiveRole = EventRole | typeof SITE_ADMIN;
 export const TAXON_RANKS = ["family", "genus", "species", "subspecies", "variety", "form"] as const;
 export type TaxonRank = (typeof TAXON_RANKS)[number];
 
-export const TAXON_GROUPS = ["birds", "vascular_plants", "insects", "fungi", "mammals", "amphibians_reptiles", "molluscs", "other"] as const;
+export const TAXON_GROUPS = [
+  "birds",
+  "vascular_plants",
+  "insects",
+  "fungi",
+  "mammals",
+  "amphibians_reptiles",
+  "molluscs",
+  "other",
+] as const;
 export type TaxonGroup = (typeof TAXON_GROUPS)[number];
 
-export const HABITATS = ["interior", "edge", "wetland", "open_water", "grassland", "woodland", "urban", "other"] as const;
+export const HABITATS = [
+  "interior",
+  "edge",
+  "wetland",
+  "open_water",
+  "grassland",
+  "woodland",
+  "urban",
+  "other",
+] as const;
 export type Habitat = (typeof HABITATS)[number];
 
 /** Count-session kinds: a timed point count, a transect walk, a plot search. */
@@ -47,8 +65,14 @@ export type SessionKind = (typeof SESSION_KINDS)[number];
 
 /** Automatic hints on a sighting for reviewers. */
 export const CHECK_MARKS = [
-  "outside_area", "outside_dates", "high_count", "not_on_list", "sensitive_taxon",
-  "photo_missing", "possible_duplicate", "poor_accuracy",
+  "outside_area",
+  "outside_dates",
+  "high_count",
+  "not_on_list",
+  "sensitive_taxon",
+  "photo_missing",
+  "possible_duplicate",
+  "poor_accuracy",
 ] as const;
 export type CheckMark = (typeof CHECK_MARKS)[number];
 
@@ -56,7 +80,13 @@ export const EVENT_STATUSES = ["draft", "open", "closed"] as const;
 export type EventStatus = (typeof EVENT_STATUSES)[number];
 
 /** Why a coordinator rejects a sighting; stored in reviews.reason as these codes (free text may follow). */
-export const REJECT_REASONS = ["misidentified", "duplicate", "outside_event", "insufficient_evidence", "other"] as const;
+export const REJECT_REASONS = [
+  "misidentified",
+  "duplicate",
+  "outside_event",
+  "insufficient_evidence",
+  "other",
+] as const;
 export type RejectReason = (typeof REJECT_REASONS)[number];
 
 /** A mail in the e-mail queue (email_outbox). */

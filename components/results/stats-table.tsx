@@ -38,25 +38,42 @@ export async function StatsTable({ block, caption, sessions }: { block: Block; c
   const [t, format] = await Promise.all([getTranslations("Results"), getFormatter()]);
   const name = new Map(METHOD_NOTES.map((m) => [m.key, m.name]));
   const num = (v: number | null | undefined, digits = 0, percent = false) =>
-    v === null || v === undefined || !Number.isFinite(v) ? t("undefinedValue")
-      : percent ? format.number(v, { style: "percent", maximumFractionDigits: 1 }) : format.number(v, { maximumFractionDigits: digits });
+    v === null || v === undefined || !Number.isFinite(v)
+      ? t("undefinedValue")
+      : percent
+        ? format.number(v, { style: "percent", maximumFractionDigits: 1 })
+        : format.number(v, { maximumFractionDigits: digits });
   return (
     <table className="w-full text-left text-sm">
       <caption className="text-left font-semibold">{caption}</caption>
       <thead>
         <tr className="border-b-2 border-reed-300">
-          <th scope="col" className="py-1 pr-3">{t("col.method")}</th>
-          <th scope="col" className="py-1 pr-3 text-right">{t("col.value")}</th>
-          <th scope="col" className="py-1 pr-3 text-right">{t("col.interval")}</th>
-          <th scope="col" className="py-1">{t("col.reading")}</th>
+          <th scope="col" className="py-1 pr-3">
+            {t("col.method")}
+          </th>
+          <th scope="col" className="py-1 pr-3 text-right">
+            {t("col.value")}
+          </th>
+          <th scope="col" className="py-1 pr-3 text-right">
+            {t("col.interval")}
+          </th>
+          <th scope="col" className="py-1">
+            {t("col.reading")}
+          </th>
         </tr>
       </thead>
       <tbody>
         {rowsOf(block).map((r) => (
           <tr key={r.key} className="border-b border-reed-100 align-top">
-            <th scope="row" className="py-1 pr-3 font-semibold">{name.get(r.key)}</th>
-            <td className="py-1 pr-3 text-right tabular-nums" data-stat={r.key}>{num(r.value, r.digits, r.percent)}</td>
-            <td className="py-1 pr-3 text-right tabular-nums">{r.lower !== undefined ? `${num(r.lower, r.digits)} – ${num(r.upper, r.digits)}` : ""}</td>
+            <th scope="row" className="py-1 pr-3 font-semibold">
+              {name.get(r.key)}
+            </th>
+            <td className="py-1 pr-3 text-right tabular-nums" data-stat={r.key}>
+              {num(r.value, r.digits, r.percent)}
+            </td>
+            <td className="py-1 pr-3 text-right tabular-nums">
+              {r.lower !== undefined ? `${num(r.lower, r.digits)} – ${num(r.upper, r.digits)}` : ""}
+            </td>
             <td className="py-1 text-ink-soft">{t(`notes.${r.key}`, { sessions })}</td>
           </tr>
         ))}

@@ -3,7 +3,10 @@ import { and, asc, count, eq, ne, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventSpecies, events, organisations, taxa, zones } from "../schema";
 
-export type EventSummary = Pick<typeof events.$inferSelect, "id" | "slug" | "name" | "status" | "startsAt" | "endsAt" | "timeZone"> & {
+export type EventSummary = Pick<
+  typeof events.$inferSelect,
+  "id" | "slug" | "name" | "status" | "startsAt" | "endsAt" | "timeZone"
+> & {
   organisationName: string;
   zoneCount: number;
   speciesCount: number;
@@ -13,16 +16,27 @@ export type EventSummary = Pick<typeof events.$inferSelect, "id" | "slug" | "nam
 export async function listPublicEvents(): Promise<EventSummary[]> {
   const db = getDb();
   const zoneCount = db.$with("zone_count").as(
-    db.select({ eventId: zones.eventId, zones: count().as("zone_n") }).from(zones).groupBy(zones.eventId),
+    db
+      .select({ eventId: zones.eventId, zones: count().as("zone_n") })
+      .from(zones)
+      .groupBy(zones.eventId),
   );
   const speciesCount = db.$with("species_count").as(
-    db.select({ eventId: eventSpecies.eventId, species: count().as("species_n") }).from(eventSpecies).groupBy(eventSpecies.eventId),
+    db
+      .select({ eventId: eventSpecies.eventId, species: count().as("species_n") })
+      .from(eventSpecies)
+      .groupBy(eventSpecies.eventId),
   );
   const rows = await db
     .with(zoneCount, speciesCount)
     .select({
-      id: events.id, slug: events.slug, name: events.name, status: events.status,
-      startsAt: events.startsAt, endsAt: events.endsAt, timeZone: events.timeZone,
+      id: events.id,
+      slug: events.slug,
+      name: events.name,
+      status: events.status,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
       organisationName: organisations.name,
       zoneCount: sql<number>`coalesce(${zoneCount.zones}, 0)::int`,
       speciesCount: sql<number>`coalesce(${speciesCount.species}, 0)::int`,
@@ -39,9 +53,16 @@ export async function listPublicEvents(): Promise<EventSummary[]> {
 export async function getPublicEventBySlug(slug: string) {
   const [row] = await getDb()
     .select({
-      id: events.id, slug: events.slug, name: events.name, description: events.description,
-      status: events.status, startsAt: events.startsAt, endsAt: events.endsAt, timeZone: events.timeZone,
-      languages: events.languages, organisationName: organisations.name,
+      id: events.id,
+      slug: events.slug,
+      name: events.name,
+      description: events.description,
+      status: events.status,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
+      languages: events.languages,
+      organisationName: organisations.name,
     })
     .from(events)
     .innerJoin(organisations, eq(organisations.id, events.organisationId))
@@ -53,7 +74,10 @@ export async function getPublicEventBySlug(slug: string) {
 export async function listZones(eventId: string) {
   return getDb()
     .select({
-      id: zones.id, name: zones.name, habitat: zones.habitat, description: zones.description,
+      id: zones.id,
+      name: zones.name,
+      habitat: zones.habitat,
+      description: zones.description,
       // Area on the spheroid, in hectares.
       areaHa: sql<number>`round((ST_Area(${zones.geom}::geography) / 10000)::numeric, 1)::float8`,
     })

@@ -15,46 +15,87 @@ const geoJson = (column: unknown) => sql<string>`ST_AsGeoJSON(ST_ForcePolygonCCW
 
 export async function getEventPack(eventId: string): Promise<EventPack | null> {
   const db = getDb();
-  const [event] = await db.select({
-    id: events.id, name: events.name, status: events.status, startsAt: events.startsAt, endsAt: events.endsAt,
-    timeZone: events.timeZone, languages: events.languages, sessionKinds: events.sessionKinds, accuracyLimitM: events.accuracyLimitM,
-    photoRequiredSensitive: events.photoRequiredSensitive, photoRequiredOffList: events.photoRequiredOffList,
-    area: sql<string | null>`CASE WHEN ${events.area} IS NULL THEN NULL ELSE ${geoJson(events.area)} END`,
-  }).from(events).where(eq(events.id, eventId)).limit(1);
+  const [event] = await db
+    .select({
+      id: events.id,
+      name: events.name,
+      status: events.status,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
+      languages: events.languages,
+      sessionKinds: events.sessionKinds,
+      accuracyLimitM: events.accuracyLimitM,
+      photoRequiredSensitive: events.photoRequiredSensitive,
+      photoRequiredOffList: events.photoRequiredOffList,
+      area: sql<string | null>`CASE WHEN ${events.area} IS NULL THEN NULL ELSE ${geoJson(events.area)} END`,
+    })
+    .from(events)
+    .where(eq(events.id, eventId))
+    .limit(1);
   if (!event) return null;
 
-  const zoneRows = await db.select({ id: zones.id, name: zones.name, habitat: zones.habitat, description: zones.description, geometry: geoJson(zones.geom) })
-    .from(zones).where(eq(zones.eventId, eventId)).orderBy(asc(zones.name), asc(zones.id));
+  const zoneRows = await db
+    .select({
+      id: zones.id,
+      name: zones.name,
+      habitat: zones.habitat,
+      description: zones.description,
+      geometry: geoJson(zones.geom),
+    })
+    .from(zones)
+    .where(eq(zones.eventId, eventId))
+    .orderBy(asc(zones.name), asc(zones.id));
 
-  const speciesRows = await db.select({
-    id: taxa.id, scientificName: taxa.scientificName, rank: taxa.rank, taxonGroup: taxa.taxonGroup, sensitivity: taxa.sensitivity,
-    onList: sql<boolean>`${eventSpecies.taxonId} IS NOT NULL`,
-    names: sql<Record<string, string> | null>`(
+  const speciesRows = await db
+    .select({
+      id: taxa.id,
+      scientificName: taxa.scientificName,
+      rank: taxa.rank,
+      taxonGroup: taxa.taxonGroup,
+      sensitivity: taxa.sensitivity,
+      onList: sql<boolean>`${eventSpecies.taxonId} IS NOT NULL`,
+      names: sql<Record<string, string> | null>`(
       SELECT jsonb_object_agg(${taxonNames.locale}, ${taxonNames.name} ORDER BY ${taxonNames.locale}) FROM ${taxonNames}
       WHERE ${taxonNames.taxonId} = ${taxa.id} AND ${taxonNames.locale} = ANY(${events.languages})
     )`,
-  }).from(taxa)
+    })
+    .from(taxa)
     .innerJoin(events, eq(events.id, eventId))
     .leftJoin(eventSpecies, sql`${eventSpecies.eventId} = ${eventId} AND ${eventSpecies.taxonId} = ${taxa.id}`)
     .orderBy(sql`${eventSpecies.taxonId} IS NULL`, asc(taxa.scientificName), asc(taxa.id));
 
   return {
     event: {
-      id: event.id, name: event.name, status: event.status, startsAt: event.startsAt.toISOString(), endsAt: event.endsAt.toISOString(),
-      timeZone: event.timeZone, languages: event.languages, sessionKinds: event.sessionKinds, accuracyLimitM: event.accuracyLimitM,
+      id: event.id,
+      name: event.name,
+      status: event.status,
+      startsAt: event.startsAt.toISOString(),
+      endsAt: event.endsAt.toISOString(),
+      timeZone: event.timeZone,
+      languages: event.languages,
+      sessionKinds: event.sessionKinds,
+      accuracyLimitM: event.accuracyLimitM,
       photoRules: { requiredForSensitive: event.photoRequiredSensitive, requiredOffList: event.photoRequiredOffList },
       area: event.area ? (JSON.parse(event.area) as ArealGeometry) : null,
     },
     zones: {
       type: "FeatureCollection",
       features: zoneRows.map((z) => ({
-        type: "Feature", id: z.id, geometry: JSON.parse(z.geometry) as ArealGeometry,
+        type: "Feature",
+        id: z.id,
+        geometry: JSON.parse(z.geometry) as ArealGeometry,
         properties: { name: z.name, habitat: z.habitat, description: z.description },
       })),
     },
     species: speciesRows.map((r) => ({
-      id: r.id, scientificName: r.scientificName, rank: r.rank, taxonGroup: r.taxonGroup, sensitivity: r.sensitivity,
-      onList: r.onList, names: r.names ?? {},
+      id: r.id,
+      scientificName: r.scientificName,
+      rank: r.rank,
+      taxonGroup: r.taxonGroup,
+      sensitivity: r.sensitivity,
+      onList: r.onList,
+      names: r.names ?? {},
     })),
   };
 }

@@ -21,7 +21,10 @@ export type ReportRow = {
   changes: ReportChanges | Record<string, never>;
 };
 
-export type ReportSummary = Pick<ReportRow, "id" | "version" | "publishedAt" | "inputHash" | "changes"> & { superseded: boolean; publisherName: string | null };
+export type ReportSummary = Pick<ReportRow, "id" | "version" | "publishedAt" | "inputHash" | "changes"> & {
+  superseded: boolean;
+  publisherName: string | null;
+};
 
 /**
  * Runs `work` in one transaction under the event's report lock, so that two publishes
@@ -35,9 +38,14 @@ export async function inReportTransaction<T>(eventId: string, work: (tx: Tx) => 
 }
 
 /** The newest version's number, input records and results, for the next version's changes. */
-export async function latestReportInputs(eventId: string, tx: Tx): Promise<{ version: number; inputRecords: InputRecord[]; results: Results } | null> {
-  const [prev] = (await tx.execute<{ version: number; inputRecords: InputRecord[]; results: Results }>(sql`
-    SELECT version, input_records AS "inputRecords", results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1`)).rows;
+export async function latestReportInputs(
+  eventId: string,
+  tx: Tx,
+): Promise<{ version: number; inputRecords: InputRecord[]; results: Results } | null> {
+  const [prev] = (
+    await tx.execute<{ version: number; inputRecords: InputRecord[]; results: Results }>(sql`
+    SELECT version, input_records AS "inputRecords", results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1`)
+  ).rows;
   return prev ?? null;
 }
 
@@ -49,7 +57,10 @@ export async function insertReport(report: NewReport, tx: Tx): Promise<string> {
 }
 
 /** Everyone who takes part in the event, with the event's name and address, for the publish e-mail. */
-export async function reportRecipients(eventId: string, tx: Tx): Promise<{ email: string; locale: string; eventName: string; eventSlug: string }[]> {
+export async function reportRecipients(
+  eventId: string,
+  tx: Tx,
+): Promise<{ email: string; locale: string; eventName: string; eventSlug: string }[]> {
   const people = await tx.execute<{ email: string; locale: string; eventName: string; eventSlug: string }>(sql`
     SELECT u.email, u.locale, e.name AS "eventName", e.slug AS "eventSlug"
     FROM event_members m JOIN users u ON u.id = m.user_id JOIN events e ON e.id = m.event_id
@@ -66,9 +77,15 @@ export async function listReports(eventId: string): Promise<ReportSummary[]> {
 }
 
 /** One version; its input records (large for a big event) only when asked for. */
-export async function getReport(eventId: string, version: number, options: { withInputs?: boolean } = {}): Promise<(ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }) | null> {
+export async function getReport(
+  eventId: string,
+  version: number,
+  options: { withInputs?: boolean } = {},
+): Promise<(ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }) | null> {
   const inputs = options.withInputs ? sql`input_records` : sql`'[]'::jsonb`;
-  const r = await getDb().execute<ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }>(sql`
+  const r = await getDb().execute<
+    ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }
+  >(sql`
     SELECT id, event_id AS "eventId", version, published_at AS "publishedAt", published_by AS "publishedBy",
       engine_version AS "engineVersion", input_hash AS "inputHash", ${inputs} AS "inputRecords",
       jsonb_array_length(input_records) AS "inputCount", results,
@@ -80,15 +97,21 @@ export async function getReport(eventId: string, version: number, options: { wit
 }
 
 export async function getReportById(id: string, options: { withInputs?: boolean } = {}) {
-  const r = await getDb().execute<{ eventId: string; version: number }>(sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`);
+  const r = await getDb().execute<{ eventId: string; version: number }>(
+    sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`,
+  );
   const row = r.rows[0];
   return row ? getReport(row.eventId, row.version, options) : null;
 }
 
 /** The names a report's downloads carry: the event's, its address and its organisation's. */
-export async function reportEventNames(eventId: string): Promise<{ name: string; slug: string; organisation: string } | null> {
-  const [event] = (await getDb().execute<{ name: string; slug: string; organisation: string }>(sql`
-    SELECT e.name, e.slug, o.name AS organisation FROM events e JOIN organisations o ON o.id = e.organisation_id WHERE e.id = ${eventId}`)).rows;
+export async function reportEventNames(
+  eventId: string,
+): Promise<{ name: string; slug: string; organisation: string } | null> {
+  const [event] = (
+    await getDb().execute<{ name: string; slug: string; organisation: string }>(sql`
+    SELECT e.name, e.slug, o.name AS organisation FROM events e JOIN organisations o ON o.id = e.organisation_id WHERE e.id = ${eventId}`)
+  ).rows;
   return event ?? null;
 }
 
@@ -101,15 +124,24 @@ export async function eventCredits(eventId: string): Promise<{ volunteers: numbe
 }
 
 export type Occurrence = {
-  id: string; observedAt: Date; lon: number; lat: number; accuracyM: number;
-  taxonId: string; count: number; sensitivity: Sensitivity;
+  id: string;
+  observedAt: Date;
+  lon: number;
+  lat: number;
+  accuracyM: number;
+  taxonId: string;
+  count: number;
+  sensitivity: Sensitivity;
 };
 
 /**
  * The report's occurrences with their exact locations, for the export layer to
  * generalise or withhold. Taxon and count are those recorded in the report.
  */
-export async function reportOccurrences(report: { inputRecords: InputRecord[]; results: Results }): Promise<Occurrence[]> {
+export async function reportOccurrences(report: {
+  inputRecords: InputRecord[];
+  results: Results;
+}): Promise<Occurrence[]> {
   const ids = report.inputRecords.map((r) => r[0]);
   if (!ids.length) return [];
   const r = await getDb().execute<{ id: string; observedAt: string; lon: number; lat: number; accuracyM: number }>(sql`

@@ -16,7 +16,14 @@ export async function eventZones(eventId: string, db: Tx = getDb()): Promise<Res
 /** Taxa with their names in every language, by id. */
 export async function taxaMeta(ids: readonly string[], db: Tx = getDb()): Promise<Map<string, ResultsTaxon>> {
   if (!ids.length) return new Map();
-  const r = await db.execute<{ id: string; scientificName: string; rank: string; group: string; sensitivity: ResultsTaxon["sensitivity"]; names: Record<string, string> | null }>(sql`
+  const r = await db.execute<{
+    id: string;
+    scientificName: string;
+    rank: string;
+    group: string;
+    sensitivity: ResultsTaxon["sensitivity"];
+    names: Record<string, string> | null;
+  }>(sql`
     SELECT t.id, t.scientific_name AS "scientificName", t.rank::text AS rank, t.taxon_group::text AS "group",
            t.sensitivity::text AS sensitivity, jsonb_object_agg(n.locale, n.name) FILTER (WHERE n.locale IS NOT NULL) AS names
     FROM taxa t LEFT JOIN taxon_names n ON n.taxon_id = t.id
@@ -38,7 +45,9 @@ export async function loadResultsInput(eventId: string, options: { sessions?: bo
       SELECT zone_key AS "zoneId", taxon_id AS "taxonId", individuals::float8 AS individuals
       FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0`),
     // Taxa travel as their rank among the event's taxa, one short text per session.
-    options.sessions === false ? { rows: [] as { zoneId: string | null; taxa: string }[] } : db.execute<{ zoneId: string | null; taxa: string }>(sql`
+    options.sessions === false
+      ? { rows: [] as { zoneId: string | null; taxa: string }[] }
+      : db.execute<{ zoneId: string | null; taxa: string }>(sql`
       WITH tx AS (
         SELECT taxon_id, (row_number() OVER (ORDER BY taxon_id) - 1)::int AS i
         FROM (SELECT DISTINCT taxon_id FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0) d
@@ -57,7 +66,13 @@ export async function loadResultsInput(eventId: string, options: { sessions?: bo
     zones,
     taxa: ids.map((id) => meta.get(id)!),
     counts: counts.rows.map((c) => ({ zoneId: c.zoneId, taxon: index.get(c.taxonId)!, individuals: c.individuals })),
-    sessions: sessions.rows.map((s) => ({ zoneId: s.zoneId ?? NO_ZONE, taxa: s.taxa.split(",").map(Number).sort((a, b) => a - b) })),
+    sessions: sessions.rows.map((s) => ({
+      zoneId: s.zoneId ?? NO_ZONE,
+      taxa: s.taxa
+        .split(",")
+        .map(Number)
+        .sort((a, b) => a - b),
+    })),
   };
 }
 

@@ -35,25 +35,47 @@ export type IngestInput = {
 const FUTURE_SKEW_MS = 10 * 60_000;
 
 // `real` columns hold single-precision floats: compare at that precision.
-const sameReal = (a: number | null, b: number | null) => (a === null || b === null ? a === b : Math.fround(a) === Math.fround(b));
-const sameTime = (a: Date | null, iso: string | null) => (a === null || iso === null ? a === null && iso === null : a.getTime() === Date.parse(iso));
+const sameReal = (a: number | null, b: number | null) =>
+  a === null || b === null ? a === b : Math.fround(a) === Math.fround(b);
+const sameTime = (a: Date | null, iso: string | null) =>
+  a === null || iso === null ? a === null && iso === null : a.getTime() === Date.parse(iso);
 const lower = (id: string | null) => id?.toLowerCase() ?? null;
 
 type Good<R> = { index: number; rec: R };
 type Kind = StoreOutcome["kind"];
-const refused = (kind: Kind, index: number, id: string, code: RefusalCode, field: string, values?: Record<string, string | number>): StoreOutcome =>
-  ({ kind, id, index, outcome: "refused", code, field, ...(values ? { values } : {}) });
+const refused = (
+  kind: Kind,
+  index: number,
+  id: string,
+  code: RefusalCode,
+  field: string,
+  values?: Record<string, string | number>,
+): StoreOutcome => ({ kind, id, index, outcome: "refused", code, field, ...(values ? { values } : {}) });
 
 export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
   const now = input.now ?? new Date();
   // Ids compare as text below: one spelling for every uuid.
-  const sessionsIn = input.sessions.map(({ index, record: r }) => ({ index, rec: { ...r, id: r.id.toLowerCase(), zoneId: lower(r.zoneId) } }));
+  const sessionsIn = input.sessions.map(({ index, record: r }) => ({
+    index,
+    rec: { ...r, id: r.id.toLowerCase(), zoneId: lower(r.zoneId) },
+  }));
   const sightingsIn = input.sightings.map(({ index, record: r }) => ({
-    index, rec: { ...r, id: r.id.toLowerCase(), sessionId: lower(r.sessionId), taxonId: lower(r.taxonId), zoneId: lower(r.zoneId) },
+    index,
+    rec: {
+      ...r,
+      id: r.id.toLowerCase(),
+      sessionId: lower(r.sessionId),
+      taxonId: lower(r.taxonId),
+      zoneId: lower(r.zoneId),
+    },
   }));
 
   const db = getDb();
-  const [event] = await db.select({ status: events.status, sessionKinds: events.sessionKinds }).from(events).where(eq(events.id, input.eventId)).limit(1);
+  const [event] = await db
+    .select({ status: events.status, sessionKinds: events.sessionKinds })
+    .from(events)
+    .where(eq(events.id, input.eventId))
+    .limit(1);
   if (!event || event.status !== "open") {
     return [
       ...sessionsIn.map(({ index, rec }) => refused("session", index, rec.id, "event_not_open", "eventId")),
@@ -62,7 +84,9 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
   }
 
   // ---- judge each record alone (no database writes yet)
-  const eventZones = new Set((await db.select({ id: zones.id }).from(zones).where(eq(zones.eventId, input.eventId))).map((z) => z.id));
+  const eventZones = new Set(
+    (await db.select({ id: zones.id }).from(zones).where(eq(zones.eventId, input.eventId))).map((z) => z.id),
+  );
   const sessionOutcomes: StoreOutcome[] = [];
   const goodSessions = sessionsIn.filter(({ index, rec }) => {
     const bad = judgeSession(rec, event.sessionKinds, eventZones);
@@ -72,7 +96,11 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
 
   const sightingOutcomes: StoreOutcome[] = [];
   const taxonIds = [...new Set(sightingsIn.map((s) => s.rec.taxonId).filter((x): x is string => x !== null))];
-  const knownTaxa = new Set(taxonIds.length ? (await db.select({ id: taxa.id }).from(taxa).where(inArray(taxa.id, taxonIds))).map((r) => r.id) : []);
+  const knownTaxa = new Set(
+    taxonIds.length
+      ? (await db.select({ id: taxa.id }).from(taxa).where(inArray(taxa.id, taxonIds))).map((r) => r.id)
+      : [],
+  );
   const goodSightings = sightingsIn.filter(({ index, rec }) => {
     const bad = judgeSighting(rec, knownTaxa, now);
     if (bad) sightingOutcomes.push(refused("sighting", index, rec.id, bad[0], bad[1]));
@@ -84,8 +112,22 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
     sessionOutcomes.push(...(await storeSessions(tx, input, goodSessions)));
     // The session a sighting names must be the same person's, at the same event (maybe sent just above).
     const named = [...new Set(goodSightings.map((s) => s.rec.sessionId).filter((x): x is string => x !== null))];
-    const ownSessions = new Set(named.length ? (await tx.select({ id: countSessions.id }).from(countSessions)
-      .where(and(inArray(countSessions.id, named), eq(countSessions.userId, input.userId), eq(countSessions.eventId, input.eventId)))).map((r) => r.id) : []);
+    const ownSessions = new Set(
+      named.length
+        ? (
+            await tx
+              .select({ id: countSessions.id })
+              .from(countSessions)
+              .where(
+                and(
+                  inArray(countSessions.id, named),
+                  eq(countSessions.userId, input.userId),
+                  eq(countSessions.eventId, input.eventId),
+                ),
+              )
+          ).map((r) => r.id)
+        : [],
+    );
     const storable = goodSightings.filter(({ index, rec }) => {
       if (rec.sessionId === null || ownSessions.has(rec.sessionId)) return true;
       sightingOutcomes.push(refused("sighting", index, rec.id, "unknown_session", "sessionId"));
@@ -101,7 +143,8 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
 function judgeSession(rec: SessionRecord, kinds: string[], eventZones: Set<string>): [RefusalCode, string] | null {
   if (!kinds.includes(rec.kind)) return ["kind_not_allowed", "kind"];
   if (rec.zoneId !== null && !eventZones.has(rec.zoneId)) return ["unknown_zone", "zoneId"];
-  if (rec.endedAt !== null && Date.parse(rec.endedAt) <= Date.parse(rec.startedAt)) return ["ends_before_start", "endedAt"];
+  if (rec.endedAt !== null && Date.parse(rec.endedAt) <= Date.parse(rec.startedAt))
+    return ["ends_before_start", "endedAt"];
   if (rec.allSpeciesNoted && rec.endedAt === null) return ["complete_needs_end", "allSpeciesNoted"];
   return null;
 }
@@ -118,7 +161,11 @@ function judgeSighting(rec: SightingRecord, knownTaxa: Set<string>, now: Date): 
  * statement, falls back to one savepoint per row so that one bad row refuses only itself.
  * Returns the ids actually inserted and the indexes of rows that failed.
  */
-async function insertEach<R extends { id: string }>(tx: Tx, rows: R[], insert: (tx: Tx, rows: R[]) => Promise<string[]>): Promise<{ inserted: Set<string>; failed: Set<string> }> {
+async function insertEach<R extends { id: string }>(
+  tx: Tx,
+  rows: R[],
+  insert: (tx: Tx, rows: R[]) => Promise<string[]>,
+): Promise<{ inserted: Set<string>; failed: Set<string> }> {
   const inserted = new Set<string>();
   const failed = new Set<string>();
   if (!rows.length) return { inserted, failed };
@@ -140,23 +187,74 @@ async function insertEach<R extends { id: string }>(tx: Tx, rows: R[], insert: (
 async function storeSessions(tx: Tx, input: IngestInput, good: Good<SessionRecord>[]): Promise<StoreOutcome[]> {
   const acks: StoreOutcome[] = [];
   const toRow = (r: SessionRecord) => ({
-    id: r.id, eventId: input.eventId, userId: input.userId, zoneId: r.zoneId, kind: r.kind,
-    startedAt: new Date(r.startedAt), endedAt: r.endedAt ? new Date(r.endedAt) : null,
-    allSpeciesNoted: r.allSpeciesNoted, distanceM: r.distanceM, notes: r.notes,
+    id: r.id,
+    eventId: input.eventId,
+    userId: input.userId,
+    zoneId: r.zoneId,
+    kind: r.kind,
+    startedAt: new Date(r.startedAt),
+    endedAt: r.endedAt ? new Date(r.endedAt) : null,
+    allSpeciesNoted: r.allSpeciesNoted,
+    distanceM: r.distanceM,
+    notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(tx, good.map((g) => g.rec), async (sp, rows) =>
-    (await sp.insert(countSessions).values(rows.map(toRow)).onConflictDoNothing({ target: countSessions.id }).returning({ id: countSessions.id })).map((r) => r.id));
+  const { inserted, failed } = await insertEach(
+    tx,
+    good.map((g) => g.rec),
+    async (sp, rows) =>
+      (
+        await sp
+          .insert(countSessions)
+          .values(rows.map(toRow))
+          .onConflictDoNothing({ target: countSessions.id })
+          .returning({ id: countSessions.id })
+      ).map((r) => r.id),
+  );
   const rest = good.filter((g) => !inserted.has(g.rec.id) && !failed.has(g.rec.id));
-  const existing = new Map((rest.length ? await tx.select().from(countSessions).where(inArray(countSessions.id, rest.map((g) => g.rec.id))).for("update") : []).map((r) => [r.id, r]));
+  const existing = new Map(
+    (rest.length
+      ? await tx
+          .select()
+          .from(countSessions)
+          .where(
+            inArray(
+              countSessions.id,
+              rest.map((g) => g.rec.id),
+            ),
+          )
+          .for("update")
+      : []
+    ).map((r) => [r.id, r]),
+  );
   const claimed = new Set<string>();
   for (const { index, rec } of good) {
-    if (failed.has(rec.id)) { acks.push(refused("session", index, rec.id, "store_failed", "(record)")); continue; }
-    if (inserted.has(rec.id) && !claimed.has(rec.id)) { claimed.add(rec.id); acks.push({ kind: "session", id: rec.id, index, outcome: "created" }); continue; }
-    const row = existing.get(rec.id) ?? (await tx.select().from(countSessions).where(eq(countSessions.id, rec.id)).limit(1))[0];
-    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) { acks.push(refused("session", index, rec.id, "id_taken", "id")); continue; }
-    const same = row.kind === rec.kind && row.zoneId === rec.zoneId && sameTime(row.startedAt, rec.startedAt)
-      && sameTime(row.endedAt, rec.endedAt) && row.allSpeciesNoted === rec.allSpeciesNoted && sameReal(row.distanceM, rec.distanceM) && row.notes === rec.notes;
-    if (same) { acks.push({ kind: "session", id: rec.id, index, outcome: "already_had" }); continue; }
+    if (failed.has(rec.id)) {
+      acks.push(refused("session", index, rec.id, "store_failed", "(record)"));
+      continue;
+    }
+    if (inserted.has(rec.id) && !claimed.has(rec.id)) {
+      claimed.add(rec.id);
+      acks.push({ kind: "session", id: rec.id, index, outcome: "created" });
+      continue;
+    }
+    const row =
+      existing.get(rec.id) ?? (await tx.select().from(countSessions).where(eq(countSessions.id, rec.id)).limit(1))[0];
+    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) {
+      acks.push(refused("session", index, rec.id, "id_taken", "id"));
+      continue;
+    }
+    const same =
+      row.kind === rec.kind &&
+      row.zoneId === rec.zoneId &&
+      sameTime(row.startedAt, rec.startedAt) &&
+      sameTime(row.endedAt, rec.endedAt) &&
+      row.allSpeciesNoted === rec.allSpeciesNoted &&
+      sameReal(row.distanceM, rec.distanceM) &&
+      row.notes === rec.notes;
+    if (same) {
+      acks.push({ kind: "session", id: rec.id, index, outcome: "already_had" });
+      continue;
+    }
     // A session is sent when it starts and again when it ends: its owner may update it.
     const { id: _id, eventId: _e, userId: _u, ...changes } = toRow(rec);
     try {
@@ -187,50 +285,122 @@ async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRec
   for (const r of zoneRows.rows) zoneOf.set(good[Number(r.i) - 1]!.rec.id, r.zone_id);
 
   const fields = (r: SightingRecord) => ({
-    sessionId: r.sessionId, taxonId: r.taxonId, description: r.description,
-    count: r.count, countIsEstimate: r.countIsEstimate, observedAt: new Date(r.observedAt),
+    sessionId: r.sessionId,
+    taxonId: r.taxonId,
+    description: r.description,
+    count: r.count,
+    countIsEstimate: r.countIsEstimate,
+    observedAt: new Date(r.observedAt),
     location: { longitude: r.longitude, latitude: r.latitude },
-    accuracyM: r.accuracyM, zoneId: zoneOf.get(r.id) ?? null, notes: r.notes,
+    accuracyM: r.accuracyM,
+    zoneId: zoneOf.get(r.id) ?? null,
+    notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(tx, good.map((g) => g.rec), async (sp, rows) =>
-    (await sp.insert(sightings).values(rows.map((r) => ({ id: r.id, eventId: input.eventId, userId: input.userId, ...fields(r) })))
-      .onConflictDoNothing({ target: sightings.id }).returning({ id: sightings.id })).map((r) => r.id));
+  const { inserted, failed } = await insertEach(
+    tx,
+    good.map((g) => g.rec),
+    async (sp, rows) =>
+      (
+        await sp
+          .insert(sightings)
+          .values(rows.map((r) => ({ id: r.id, eventId: input.eventId, userId: input.userId, ...fields(r) })))
+          .onConflictDoNothing({ target: sightings.id })
+          .returning({ id: sightings.id })
+      ).map((r) => r.id),
+  );
 
   const rest = good.filter((g) => !inserted.has(g.rec.id) && !failed.has(g.rec.id)).map((g) => g.rec.id);
-  const readExisting = (ids: string[]) => tx.select({
-    id: sightings.id, userId: sightings.userId, eventId: sightings.eventId, sessionId: sightings.sessionId, taxonId: sightings.taxonId,
-    description: sightings.description, count: sightings.count, countIsEstimate: sightings.countIsEstimate, observedAt: sightings.observedAt,
-    longitude: sql<number>`ST_X(${sightings.location})`, latitude: sql<number>`ST_Y(${sightings.location})`,
-    accuracyM: sightings.accuracyM, notes: sightings.notes, reviewState: sightings.reviewState, version: sightings.version,
-  }).from(sightings).where(inArray(sightings.id, ids)).for("update");
+  const readExisting = (ids: string[]) =>
+    tx
+      .select({
+        id: sightings.id,
+        userId: sightings.userId,
+        eventId: sightings.eventId,
+        sessionId: sightings.sessionId,
+        taxonId: sightings.taxonId,
+        description: sightings.description,
+        count: sightings.count,
+        countIsEstimate: sightings.countIsEstimate,
+        observedAt: sightings.observedAt,
+        longitude: sql<number>`ST_X(${sightings.location})`,
+        latitude: sql<number>`ST_Y(${sightings.location})`,
+        accuracyM: sightings.accuracyM,
+        notes: sightings.notes,
+        reviewState: sightings.reviewState,
+        version: sightings.version,
+      })
+      .from(sightings)
+      .where(inArray(sightings.id, ids))
+      .for("update");
   const existing = new Map((rest.length ? await readExisting(rest) : []).map((r) => [r.id, r]));
   const claimed = new Set<string>();
   const touched: string[] = [];
   for (const { index, rec } of good) {
-    if (failed.has(rec.id)) { acks.push(refused("sighting", index, rec.id, "store_failed", "(record)")); continue; }
+    if (failed.has(rec.id)) {
+      acks.push(refused("sighting", index, rec.id, "store_failed", "(record)"));
+      continue;
+    }
     if (inserted.has(rec.id) && !claimed.has(rec.id)) {
-      claimed.add(rec.id); touched.push(rec.id);
+      claimed.add(rec.id);
+      touched.push(rec.id);
       acks.push({ kind: "sighting", id: rec.id, index, outcome: "created", reviewState: "pending" });
       continue;
     }
     const row = existing.get(rec.id) ?? (await readExisting([rec.id]))[0];
     // Never overwrite another person's record, nor move a record between events.
-    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) { acks.push(refused("sighting", index, rec.id, "id_taken", "id")); continue; }
+    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) {
+      acks.push(refused("sighting", index, rec.id, "id_taken", "id"));
+      continue;
+    }
     const f = fields(rec);
-    const same = row.sessionId === f.sessionId && row.taxonId === f.taxonId && row.description === f.description && row.count === f.count
-      && row.countIsEstimate === f.countIsEstimate && row.observedAt.getTime() === f.observedAt.getTime()
-      && Number(row.longitude) === rec.longitude && Number(row.latitude) === rec.latitude && sameReal(row.accuracyM, rec.accuracyM) && row.notes === f.notes;
-    if (same) { acks.push({ kind: "sighting", id: rec.id, index, outcome: "already_had", reviewState: row.reviewState as ReviewState }); continue; }
-    if (!rec.answer) { acks.push(refused("sighting", index, rec.id, "changed_after_send", "id")); continue; }
-    if (row.reviewState !== "returned") { acks.push(refused("sighting", index, rec.id, "not_returned", "answer")); continue; }
-    if (rec.answer.toVersion !== row.version) { acks.push(refused("sighting", index, rec.id, "stale_version", "answer.toVersion", { version: row.version })); continue; }
+    const same =
+      row.sessionId === f.sessionId &&
+      row.taxonId === f.taxonId &&
+      row.description === f.description &&
+      row.count === f.count &&
+      row.countIsEstimate === f.countIsEstimate &&
+      row.observedAt.getTime() === f.observedAt.getTime() &&
+      Number(row.longitude) === rec.longitude &&
+      Number(row.latitude) === rec.latitude &&
+      sameReal(row.accuracyM, rec.accuracyM) &&
+      row.notes === f.notes;
+    if (same) {
+      acks.push({
+        kind: "sighting",
+        id: rec.id,
+        index,
+        outcome: "already_had",
+        reviewState: row.reviewState as ReviewState,
+      });
+      continue;
+    }
+    if (!rec.answer) {
+      acks.push(refused("sighting", index, rec.id, "changed_after_send", "id"));
+      continue;
+    }
+    if (row.reviewState !== "returned") {
+      acks.push(refused("sighting", index, rec.id, "not_returned", "answer"));
+      continue;
+    }
+    if (rec.answer.toVersion !== row.version) {
+      acks.push(refused("sighting", index, rec.id, "stale_version", "answer.toVersion", { version: row.version }));
+      continue;
+    }
     try {
       await tx.transaction(async (sp) => {
-        await sp.update(sightings).set({ ...f, reviewState: "pending", version: row.version + 1, updatedAt: new Date() }).where(eq(sightings.id, rec.id));
+        await sp
+          .update(sightings)
+          .set({ ...f, reviewState: "pending", version: row.version + 1, updatedAt: new Date() })
+          .where(eq(sightings.id, rec.id));
         const retaxon = row.taxonId !== f.taxonId;
         await sp.insert(reviews).values({
-          sightingId: rec.id, reviewerId: input.userId, fromState: "returned", toState: "pending",
-          fromTaxonId: retaxon ? row.taxonId : null, toTaxonId: retaxon ? f.taxonId : null, message: rec.answer!.message,
+          sightingId: rec.id,
+          reviewerId: input.userId,
+          fromState: "returned",
+          toState: "pending",
+          fromTaxonId: retaxon ? row.taxonId : null,
+          toTaxonId: retaxon ? f.taxonId : null,
+          message: rec.answer!.message,
         });
       });
       touched.push(rec.id);

@@ -115,7 +115,12 @@ export function sampleCoverage(p: FrequencyProfile): number {
 }
 
 /** Shannon (natural log), Gini–Simpson, inverse Simpson and Pielou's J, as vegan `diversity`. */
-export function classicIndices(p: FrequencyProfile): { shannon: number; simpson: number; inverseSimpson: number; evenness: number } {
+export function classicIndices(p: FrequencyProfile): {
+  shannon: number;
+  simpson: number;
+  inverseSimpson: number;
+  evenness: number;
+} {
   if (p.total <= 0) return { shannon: 0, simpson: 0, inverseSimpson: 0, evenness: 0 };
   const shannon = shannonEntropy(p);
   const d = simpsonConcentration(p);

@@ -8,9 +8,15 @@ import { incidenceData } from "./incidence";
 import { accumulation } from "./index";
 import { reference } from "../../tests/fixtures/vegan/fixture";
 
-const unitsArb = fc
-  .tuple(fc.integer({ min: 1, max: 12 }), fc.integer({ min: 1, max: 16 }))
-  .chain(([T, S]) => fc.array(fc.array(fc.oneof(fc.constant(0), fc.constant(0), fc.integer({ min: 0, max: 3 })), { minLength: S, maxLength: S }), { minLength: T, maxLength: T }));
+const unitsArb = fc.tuple(fc.integer({ min: 1, max: 12 }), fc.integer({ min: 1, max: 16 })).chain(([T, S]) =>
+  fc.array(
+    fc.array(fc.oneof(fc.constant(0), fc.constant(0), fc.integer({ min: 0, max: 3 })), {
+      minLength: S,
+      maxLength: S,
+    }),
+    { minLength: T, maxLength: T },
+  ),
+);
 
 function expectSame(a: { sd: number; richness: number }[], b: { sd: number; richness: number }[]): void {
   expect(a.length).toBe(b.length);
@@ -18,7 +24,9 @@ function expectSame(a: { sd: number; richness: number }[], b: { sd: number; rich
     const q = b[i] as { sd: number; richness: number };
     expect(p.richness).toBe(q.richness);
     // Compared as variances: near 0 both are rounding noise, and the sd is its square root.
-    expect(Math.abs(p.sd ** 2 - q.sd ** 2), `sd at ${i + 1}: ${p.sd} vs ${q.sd}`).toBeLessThanOrEqual(1e-10 * Math.max(1, q.sd ** 2));
+    expect(Math.abs(p.sd ** 2 - q.sd ** 2), `sd at ${i + 1}: ${p.sd} vs ${q.sd}`).toBeLessThanOrEqual(
+      1e-10 * Math.max(1, q.sd ** 2),
+    );
   });
 }
 

@@ -79,7 +79,8 @@ export function bootstrapSd(
       const m2 = (s2[c] as number) / n - m * m;
       sd[c] = Math.sqrt(Math.max(0, (m2 * n) / (n - 1)));
       if (fixed !== undefined || !(m2 > 0)) continue;
-      const m4 = (s4[c] as number) / n - (4 * m * (s3[c] as number)) / n + (6 * m * m * (s2[c] as number)) / n - 3 * m ** 4;
+      const m4 =
+        (s4[c] as number) / n - (4 * m * (s3[c] as number)) / n + (6 * m * m * (s2[c] as number)) / n - 3 * m ** 4;
       const kurtosis = m4 / (m2 * m2);
       const e = estimates[c] as number;
       if (!Number.isFinite(e)) continue;
@@ -128,4 +129,3 @@ export function bootstrapProfile(p: FrequencyProfile, probs: Float64Array, rng: 
   for (let i = 0; i < probs.length; i++) y[i] = binomial(rng, N, Math.min(1, Math.max(0, probs[i] as number)));
   return buildProfile("incidence", y, N);
 }
-

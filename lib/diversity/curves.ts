@@ -245,13 +245,33 @@ function extrapolate(p: FrequencyProfile, mStar: number): Extrapolated {
   return { richness: s.v, variance, coverage };
 }
 
-function point(size: number, kind: CurveKind, richness: number, variance: number, coverage: number, seConditional: number | null): CurvePoint {
+function point(
+  size: number,
+  kind: CurveKind,
+  richness: number,
+  variance: number,
+  coverage: number,
+  seConditional: number | null,
+): CurvePoint {
   const se = Math.sqrt(Math.max(variance, 0));
-  return { size, kind, richness, se, lower: Math.max(0, richness - Z95 * se), upper: richness + Z95 * se, coverage, seConditional };
+  return {
+    size,
+    kind,
+    richness,
+    se,
+    lower: Math.max(0, richness - Z95 * se),
+    upper: richness + Z95 * se,
+    coverage,
+    seConditional,
+  };
 }
 
 /** Richness, unconditional 95% band and coverage at any effort (interpolated or extrapolated). */
-export function curvePoint(p: FrequencyProfile, size: number, conditional?: (m: number, logs: Float64Array) => number): CurvePoint {
+export function curvePoint(
+  p: FrequencyProfile,
+  size: number,
+  conditional?: (m: number, logs: Float64Array) => number,
+): CurvePoint {
   const N = p.size;
   if (N === 0) return point(size, size === 0 ? "observed" : "extrapolated", 0, 0, 0, size === 0 ? 0 : null);
   if (size <= N) {
@@ -285,7 +305,10 @@ export function incidenceCurveFromData(d: IncidenceData, sizes: readonly number[
 }
 
 /** vegan `rarefy(x, sample, se = TRUE)`: Hurlbert (1971) richness and Heck et al. (1975) se; S_obs, se 0 beyond n. */
-export function rarefyProfile(p: FrequencyProfile, sizes: readonly number[]): { size: number; richness: number; se: number }[] {
+export function rarefyProfile(
+  p: FrequencyProfile,
+  sizes: readonly number[],
+): { size: number; richness: number; se: number }[] {
   return sizes.map((m) => {
     if (m >= p.size) return { size: m, richness: p.observed, se: 0 };
     const logs = absenceLogs(p, m);

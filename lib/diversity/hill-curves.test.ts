@@ -5,7 +5,14 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { expectedYLogY } from "./hill-curves";
-import { DiversityInputError, hillAtCoverage, hillAtCoverageIncidence, hillCurve, hillCurveIncidence, type HillCurveRow } from "./index";
+import {
+  DiversityInputError,
+  hillAtCoverage,
+  hillAtCoverageIncidence,
+  hillCurve,
+  hillCurveIncidence,
+  type HillCurveRow,
+} from "./index";
 import { expectClose, pooled, reference } from "../../tests/fixtures/vegan/fixture";
 
 const girdled = [46, 22, 17, 15, 15, 9, 8, 6, 6, 4, 2, 2, 2, 2, ...Array<number>(12).fill(1)];
@@ -67,10 +74,18 @@ describe("the hypergeometric E[Y ln Y]", () => {
         return r;
       };
       let s = 0;
-      for (let y = Math.max(0, m - (N - k)); y <= Math.min(k, m); y++) s += Math.exp(lnC(k, y) + lnC(N - k, m - y) - lnC(N, m)) * (y > 1 ? y * Math.log(y) : 0);
+      for (let y = Math.max(0, m - (N - k)); y <= Math.min(k, m); y++)
+        s += Math.exp(lnC(k, y) + lnC(N - k, m - y) - lnC(N, m)) * (y > 1 ? y * Math.log(y) : 0);
       return s;
     };
-    for (const [N, k, m] of [[10, 3, 4], [50, 1, 20], [200, 150, 120], [20000, 4000, 5000], [10000, 2000, 5000], [30000, 15000, 10000]] as const) {
+    for (const [N, k, m] of [
+      [10, 3, 4],
+      [50, 1, 20],
+      [200, 150, 120],
+      [20000, 4000, 5000],
+      [10000, 2000, 5000],
+      [30000, 15000, 10000],
+    ] as const) {
       const d = direct(N, k, m);
       expect(Math.abs(expectedYLogY(N, k, m) - d), `${N}, ${k}, ${m}`).toBeLessThanOrEqual(1e-10 * Math.max(1, d)); // the direct sum itself rounds at about 1e−11
     }
@@ -78,34 +93,52 @@ describe("the hypergeometric E[Y ln Y]", () => {
 });
 
 describe("R vegan: the same quantities at q = 0", () => {
-  it.each(reference.abundance.map((a) => [a.name, a] as const))("%s: rarefied q = 0 equals vegan rarefy", (_name, a) => {
-    const sizes = a.vegan.rarefy.sizes.filter((m) => m < a.counts.reduce((s, x) => s + x, 0));
-    const rows = hillCurve(a.counts, { orders: [0], sizes, replicates: 0 });
-    sizes.forEach((m, i) => expectClose(at(rows, 0, m).estimate, a.vegan.rarefy.S[i] as number, `rarefy(${m}) (vegan)`));
-  });
+  it.each(reference.abundance.map((a) => [a.name, a] as const))(
+    "%s: rarefied q = 0 equals vegan rarefy",
+    (_name, a) => {
+      const sizes = a.vegan.rarefy.sizes.filter((m) => m < a.counts.reduce((s, x) => s + x, 0));
+      const rows = hillCurve(a.counts, { orders: [0], sizes, replicates: 0 });
+      sizes.forEach((m, i) =>
+        expectClose(at(rows, 0, m).estimate, a.vegan.rarefy.S[i] as number, `rarefy(${m}) (vegan)`),
+      );
+    },
+  );
 
-  it.each(reference.abundance.map((a) => [a.name, a] as const))("%s: observed point equals vegan renyi(hill = TRUE)", (_name, a) => {
-    const n = a.counts.reduce((s, x) => s + x, 0);
-    const rows = hillCurve(a.counts, { sizes: [n], replicates: 0 });
-    [0, 1, 2].forEach((q) => expectClose(at(rows, q, n).estimate, a.vegan.renyi_hill[q] as number, `q = ${q} (vegan renyi)`));
-  });
+  it.each(reference.abundance.map((a) => [a.name, a] as const))(
+    "%s: observed point equals vegan renyi(hill = TRUE)",
+    (_name, a) => {
+      const n = a.counts.reduce((s, x) => s + x, 0);
+      const rows = hillCurve(a.counts, { sizes: [n], replicates: 0 });
+      [0, 1, 2].forEach((q) =>
+        expectClose(at(rows, q, n).estimate, a.vegan.renyi_hill[q] as number, `q = ${q} (vegan renyi)`),
+      );
+    },
+  );
 
-  it.each(reference.incidence.map((r) => [r.name, r] as const))("%s: rarefied q = 0 equals vegan specaccum(method = 'exact')", (_name, r) => {
-    const units = reference.data[r.dataset];
-    const T = units.length;
-    const sizes = Array.from({ length: T }, (_, i) => i + 1);
-    const rows = hillCurveIncidence(units, { orders: [0], sizes, replicates: 0 });
-    sizes.forEach((t, i) => expectClose(at(rows, 0, t).estimate, r.vegan.specaccum.richness[i] as number, `specaccum(${t}) (vegan)`));
-  });
+  it.each(reference.incidence.map((r) => [r.name, r] as const))(
+    "%s: rarefied q = 0 equals vegan specaccum(method = 'exact')",
+    (_name, r) => {
+      const units = reference.data[r.dataset];
+      const T = units.length;
+      const sizes = Array.from({ length: T }, (_, i) => i + 1);
+      const rows = hillCurveIncidence(units, { orders: [0], sizes, replicates: 0 });
+      sizes.forEach((t, i) =>
+        expectClose(at(rows, 0, t).estimate, r.vegan.specaccum.richness[i] as number, `specaccum(${t}) (vegan)`),
+      );
+    },
+  );
 
-  it.each(reference.abundance.map((a) => [a.name, a] as const))("%s: extrapolated q = 0 and coverage equal the formula in R", (_name, a) => {
-    const n = a.counts.reduce((s, x) => s + x, 0);
-    for (const ref of a.formula.extrapolated.filter((p) => p.size <= 2 * n)) {
-      const row = at(hillCurve(a.counts, { orders: [0], sizes: [ref.size], replicates: 0 }), 0, ref.size);
-      expectClose(row.estimate, ref.richness, `S(${ref.size}) (R formula)`);
-      if (ref.coverage !== null) expectClose(row.coverage, ref.coverage, `C(${ref.size}) (R formula)`);
-    }
-  });
+  it.each(reference.abundance.map((a) => [a.name, a] as const))(
+    "%s: extrapolated q = 0 and coverage equal the formula in R",
+    (_name, a) => {
+      const n = a.counts.reduce((s, x) => s + x, 0);
+      for (const ref of a.formula.extrapolated.filter((p) => p.size <= 2 * n)) {
+        const row = at(hillCurve(a.counts, { orders: [0], sizes: [ref.size], replicates: 0 }), 0, ref.size);
+        expectClose(row.estimate, ref.richness, `S(${ref.size}) (R formula)`);
+        if (ref.coverage !== null) expectClose(row.coverage, ref.coverage, `C(${ref.size}) (R formula)`);
+      }
+    },
+  );
 });
 
 describe("Chao et al. (2014), spider 'Girdled' data (values from memory)", () => {
@@ -134,7 +167,9 @@ describe("Chao et al. (2014), spider 'Girdled' data (values from memory)", () =>
   });
   it("is reproducible with a seed and changes with another", () => {
     expect(hillCurve(girdled, { seed: 7, replicates: 300 })).toEqual(hillCurve(girdled, { seed: 7, replicates: 300 }));
-    expect(hillCurve(girdled, { seed: 8, replicates: 300 })).not.toEqual(hillCurve(girdled, { seed: 7, replicates: 300 }));
+    expect(hillCurve(girdled, { seed: 8, replicates: 300 })).not.toEqual(
+      hillCurve(girdled, { seed: 7, replicates: 300 }),
+    );
   });
 });
 
@@ -172,7 +207,10 @@ describe("coverage-based standardisation", () => {
   it("incidence: the same rules, size in units", () => {
     const bci = reference.data.BCI;
     const curve = hillCurveIncidence(bci, { sizes: [20, 50, 80], replicates: 0 });
-    const rows = hillAtCoverageIncidence(bci, { orders: [0], levels: [at(curve, 0, 20).coverage, at(curve, 0, 50).coverage, at(curve, 0, 80).coverage] });
+    const rows = hillAtCoverageIncidence(bci, {
+      orders: [0],
+      levels: [at(curve, 0, 20).coverage, at(curve, 0, 50).coverage, at(curve, 0, 80).coverage],
+    });
     expect(rows.map((r) => Math.round(r.size * 1e6) / 1e6)).toEqual([20, 50, 80]);
     rows.forEach((r, i) => expect(r.estimate).toBeCloseTo(at(curve, 0, [20, 50, 80][i] as number).estimate, 6));
   });
@@ -198,15 +236,34 @@ describe("input checks", () => {
   });
 
   it("empty data gives zeros", () => {
-    expect(hillCurve([], {})).toEqual([0, 1, 2].map((q) => ({ size: 0, order: q, estimate: 0, lower: 0, upper: 0, coverage: 0, part: "observed", replicates: 0 })));
+    expect(hillCurve([], {})).toEqual(
+      [0, 1, 2].map((q) => ({
+        size: 0,
+        order: q,
+        estimate: 0,
+        lower: 0,
+        upper: 0,
+        coverage: 0,
+        part: "observed",
+        replicates: 0,
+      })),
+    );
     expect(hillAtCoverage([0, 0], { levels: [0.5] }).every((r) => r.estimate === 0 && r.size === 0)).toBe(true);
   });
 });
 
-const countsArb = fc.array(fc.oneof(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 40 })), { minLength: 1, maxLength: 20 }).filter((c) => c.some((x) => x > 0));
-const unitsArb = fc
-  .tuple(fc.integer({ min: 1, max: 8 }), fc.integer({ min: 1, max: 10 }))
-  .chain(([T, S]) => fc.array(fc.array(fc.oneof(fc.constant(0), fc.constant(0), fc.integer({ min: 0, max: 1 })), { minLength: S, maxLength: S }), { minLength: T, maxLength: T }));
+const countsArb = fc
+  .array(fc.oneof(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 40 })), { minLength: 1, maxLength: 20 })
+  .filter((c) => c.some((x) => x > 0));
+const unitsArb = fc.tuple(fc.integer({ min: 1, max: 8 }), fc.integer({ min: 1, max: 10 })).chain(([T, S]) =>
+  fc.array(
+    fc.array(fc.oneof(fc.constant(0), fc.constant(0), fc.integer({ min: 0, max: 1 })), {
+      minLength: S,
+      maxLength: S,
+    }),
+    { minLength: T, maxLength: T },
+  ),
+);
 
 function checkCurve(rows: HillCurveRow[]): void {
   const orders = [...new Set(rows.map((r) => r.order))];
@@ -245,7 +302,12 @@ describe("properties", () => {
   it("incidence curves likewise", () => {
     fc.assert(
       fc.property(unitsArb, (units) => {
-        checkCurve(hillCurveIncidence(units, { sizes: Array.from({ length: 2 * units.length }, (_, i) => i + 1), replicates: 20 }));
+        checkCurve(
+          hillCurveIncidence(units, {
+            sizes: Array.from({ length: 2 * units.length }, (_, i) => i + 1),
+            replicates: 20,
+          }),
+        );
       }),
       { numRuns: 60 },
     );
@@ -262,7 +324,9 @@ describe("properties", () => {
         expect(after.estimate).toBe(before.estimate);
         expect(after.part).toBe("observed");
         // Rarefied back to the old T, the diluted curve can only have fewer species.
-        expect(at(hillCurveIncidence(more, { sizes: [T], replicates: 0 }), 0, T).estimate).toBeLessThanOrEqual(before.estimate + 1e-9);
+        expect(at(hillCurveIncidence(more, { sizes: [T], replicates: 0 }), 0, T).estimate).toBeLessThanOrEqual(
+          before.estimate + 1e-9,
+        );
       }),
       { numRuns: 60 },
     );
@@ -272,7 +336,10 @@ describe("properties", () => {
 describe("pooled BCI (21,457 individuals)", () => {
   it("curve and band in one call, floors respected", () => {
     const bci = reference.data.BCI;
-    const counts = pooled(bci, bci.map((_, i) => i + 1));
+    const counts = pooled(
+      bci,
+      bci.map((_, i) => i + 1),
+    );
     const rows = hillCurve(counts, { replicates: 100 });
     checkCurve(rows);
     expect(at(rows, 0, 21457).estimate).toBe(225);

@@ -24,7 +24,12 @@ export type HillCurveRow = {
   /** Bootstrap replicates behind the band (0: no band, e.g. fewer than 2 individuals). */
   replicates: number;
 };
-export type HillCurveOptions = { orders?: readonly number[]; sizes?: readonly number[]; replicates?: number; seed?: number };
+export type HillCurveOptions = {
+  orders?: readonly number[];
+  sizes?: readonly number[];
+  replicates?: number;
+  seed?: number;
+};
 export type HillCoverageRow = { coverage: number; order: number; size: number; estimate: number };
 export type HillCoverageOptions = { orders?: readonly number[]; levels: readonly number[] };
 
@@ -44,15 +49,18 @@ const CURVE_ORDERS = [0, 1, 2] as const;
 
 export function checkCurveOrders(orders: readonly number[] | undefined, label: string): number[] {
   const out = orders === undefined ? [...CURVE_ORDERS] : [...orders];
-  if (!Array.isArray(out) || out.length === 0) throw invalidOption(label, "expected a non-empty array of orders (0, 1 or 2)");
+  if (!Array.isArray(out) || out.length === 0)
+    throw invalidOption(label, "expected a non-empty array of orders (0, 1 or 2)");
   out.forEach((q, i) => {
-    if (q !== 0 && q !== 1 && q !== 2) throw invalidOption(`${label}[${i}]`, `curves are drawn for q = 0, 1 or 2 (got ${String(q)})`);
+    if (q !== 0 && q !== 1 && q !== 2)
+      throw invalidOption(`${label}[${i}]`, `curves are drawn for q = 0, 1 or 2 (got ${String(q)})`);
   });
   return out;
 }
 
 export function checkReplicates(replicates: number, label: string): void {
-  if (!Number.isInteger(replicates) || replicates < 0 || replicates > 100_000) throw invalidOption(label, `replicates must be an integer from 0 to 100000 (got ${String(replicates)})`);
+  if (!Number.isInteger(replicates) || replicates < 0 || replicates > 100_000)
+    throw invalidOption(label, `replicates must be an integer from 0 to 100000 (got ${String(replicates)})`);
 }
 
 export function checkSeed(seed: number | undefined, label: string): number {
@@ -113,7 +121,14 @@ function expectedYLogYSeries(N: number, k: number, m: number): number {
   const v = (m * k * (N - k) * (N - m)) / (N * N * (N - 1));
   const m3 = N > 2 ? (v * (N - 2 * k) * (N - 2 * m)) / (N * (N - 2)) : 0;
   const mu2 = mu * mu;
-  return mu * Math.log(mu) + v / (2 * mu) - m3 / (6 * mu2) + (3 * v * v) / (12 * mu2 * mu) - (10 * v * m3) / (20 * mu2 * mu2) + (15 * v * v * v) / (30 * mu2 * mu2 * mu);
+  return (
+    mu * Math.log(mu) +
+    v / (2 * mu) -
+    m3 / (6 * mu2) +
+    (3 * v * v) / (12 * mu2 * mu) -
+    (10 * v * m3) / (20 * mu2 * mu2) +
+    (15 * v * v * v) / (30 * mu2 * mu2 * mu)
+  );
 }
 
 /** Hill number of order q at integer effort m < N, by rarefaction (Chao et al. 2014, eqs for f̂_k(m)). */
@@ -124,7 +139,8 @@ function rarefied(p: FrequencyProfile, q: number, m: number): number {
   if (q === 2) return secondOrderAt(p, m);
   if (q === 0) {
     let s = 0;
-    for (let i = 0; i < p.values.length; i++) s += (p.freqs[i] as number) * -Math.expm1(lnChooseRatio(N, p.values[i] as number, m)); // Hurlbert (1971)
+    for (let i = 0; i < p.values.length; i++)
+      s += (p.freqs[i] as number) * -Math.expm1(lnChooseRatio(N, p.values[i] as number, m)); // Hurlbert (1971)
     return s;
   }
   // q = 1: exp(−Σ_k (k/M) ln(k/M) f̂_k(m)) = exp(ln M − Σ_i E[Y_i ln Y_i]/M), M = m (abundance) or mU/T (incidence).
@@ -146,7 +162,8 @@ function secondOrderAt(p: FrequencyProfile, m: number): number {
     const x = p.values[i] as number;
     pairs += (p.freqs[i] as number) * x * (x - 1);
   }
-  const ratio = N > 1 ? (p.kind === "abundance" ? pairs / (N * (N - 1)) : pairs / (p.total * p.total * (1 - 1 / N))) : 0;
+  const ratio =
+    N > 1 ? (p.kind === "abundance" ? pairs / (N * (N - 1)) : pairs / (p.total * p.total * (1 - 1 / N))) : 0;
   const single = p.kind === "abundance" ? 1 / m : N / (m * p.total);
   return 1 / (single + (1 - 1 / m) * ratio);
 }
@@ -158,7 +175,8 @@ export function observedHill(p: FrequencyProfile, q: number): number {
   if (q === 1) return Math.exp(shannonEntropy(p));
   if (q === 2) return 1 / simpsonConcentration(p);
   let s = 0;
-  for (let i = 0; i < p.values.length; i++) s += (p.freqs[i] as number) * Math.pow((p.values[i] as number) / p.total, q);
+  for (let i = 0; i < p.values.length; i++)
+    s += (p.freqs[i] as number) * Math.pow((p.values[i] as number) / p.total, q);
   return Math.pow(s, 1 / (1 - q));
 }
 
@@ -217,7 +235,8 @@ function partOf(m: number, N: number): CurvePart {
 function defaultSizes(N: number): number[] {
   if (N === 0) return [0];
   const set = new Set<number>([N]);
-  for (let i = 0; i < HILL_CURVE_POINTS; i++) set.add(Math.max(1, Math.round(1 + ((2 * N - 1) * i) / (HILL_CURVE_POINTS - 1))));
+  for (let i = 0; i < HILL_CURVE_POINTS; i++)
+    set.add(Math.max(1, Math.round(1 + ((2 * N - 1) * i) / (HILL_CURVE_POINTS - 1))));
   return [...set].sort((a, b) => a - b);
 }
 
@@ -240,7 +259,11 @@ export function hillCurveFromProfile(p: FrequencyProfile, options: HillCurveOpti
     sizes = [...options.sizes];
     sizes.forEach((m, i) => {
       checkSize(m, `${label}.sizes[${i}]`);
-      if (m > 2 * N) throw invalidOption(`${label}.sizes[${i}]`, `sizes stop at twice the sample (${2 * N}); estimates past that are unreliable (got ${m})`);
+      if (m > 2 * N)
+        throw invalidOption(
+          `${label}.sizes[${i}]`,
+          `sizes stop at twice the sample (${2 * N}); estimates past that are unreliable (got ${m})`,
+        );
     });
   } else sizes = defaultSizes(N);
 
@@ -268,7 +291,16 @@ export function hillCurveFromProfile(p: FrequencyProfile, options: HillCurveOpti
       const e = (est[oi] as number[])[si] as number;
       const s = boot.sd[oi * sizes.length + si] as number;
       const lower = Math.min(Math.max(e - Z95 * s, floorOf(oi, si), 0), e);
-      rows.push({ size: m, order: q, estimate: e, lower, upper: e + Z95 * s, coverage: coverage[si] as number, part: partOf(m, N), replicates: boot.replicates });
+      rows.push({
+        size: m,
+        order: q,
+        estimate: e,
+        lower,
+        upper: e + Z95 * s,
+        coverage: coverage[si] as number,
+        part: partOf(m, N),
+        replicates: boot.replicates,
+      });
     });
   });
   return rows;
@@ -289,22 +321,31 @@ function coverageAtReal(p: FrequencyProfile, m: number): number {
  * it, m* solves 1 − (f1/N_U)Â^{m*+1} = level (real) and the extrapolation formulas are used.
  * Levels beyond the coverage at twice the sample are refused (unreliable, Chao et al. 2014).
  */
-export function hillAtCoverageFromProfile(p: FrequencyProfile, options: HillCoverageOptions, label: string): HillCoverageRow[] {
+export function hillAtCoverageFromProfile(
+  p: FrequencyProfile,
+  options: HillCoverageOptions,
+  label: string,
+): HillCoverageRow[] {
   const orders = checkCurveOrders(options.orders, `${label}.orders`);
-  if (!Array.isArray(options.levels) || options.levels.length === 0) throw invalidOption(`${label}.levels`, "expected a non-empty array of coverage levels");
+  if (!Array.isArray(options.levels) || options.levels.length === 0)
+    throw invalidOption(`${label}.levels`, "expected a non-empty array of coverage levels");
   const N = p.size;
   const rows: HillCoverageRow[] = [];
   const cache = new Map<string, number>();
   const observedCoverage = N > 0 && p.total > 0 ? curvePoint(p, N).coverage : 0;
   const maxCoverage = N > 0 && p.total > 0 ? coverageAtReal(p, 2 * N) : 0;
   options.levels.forEach((c, li) => {
-    if (typeof c !== "number" || !(c > 0 && c <= 1)) throw invalidOption(`${label}.levels[${li}]`, `coverage levels must lie in (0, 1] (got ${String(c)})`);
+    if (typeof c !== "number" || !(c > 0 && c <= 1))
+      throw invalidOption(`${label}.levels[${li}]`, `coverage levels must lie in (0, 1] (got ${String(c)})`);
     if (p.total <= 0) {
       for (const q of orders) rows.push({ coverage: c, order: q, size: 0, estimate: 0 });
       return;
     }
     if (c > maxCoverage + 1e-12) {
-      throw invalidOption(`${label}.levels[${li}]`, `this sample reaches coverage ${maxCoverage.toFixed(4)} at twice its size; ${c} lies beyond (unreliable)`);
+      throw invalidOption(
+        `${label}.levels[${li}]`,
+        `this sample reaches coverage ${maxCoverage.toFixed(4)} at twice its size; ${c} lies beyond (unreliable)`,
+      );
     }
     if (c <= observedCoverage) {
       // Largest integer m with coverage(m) < c, by bisection (coverage rises with m; coverage(0) = 0).

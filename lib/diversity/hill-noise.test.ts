@@ -40,7 +40,10 @@ describe("bootstrap noise at the default number of replicates", () => {
 
   it("pooled BCI (21,457 individuals; 50 units) curves: under 2% with few replicates", () => {
     const bci = reference.data.BCI;
-    const counts = pooled(bci, bci.map((_, i) => i + 1));
+    const counts = pooled(
+      bci,
+      bci.map((_, i) => i + 1),
+    );
     const [a, b] = seeds.map((seed) => hillCurve(counts, { seed }));
     expect(largestMove(a!, b!)).toBeLessThan(0.02);
     expect(a![0]!.replicates).toBeLessThanOrEqual(400);

@@ -57,16 +57,21 @@ describe("Chao et al. (2014) spider 'Girdled' data: asymptotic 43.893, 13.826, 8
     }
   });
   it("reproduces with the same seed", () => {
-    expect(hillProfile(girdled, { orders: [0.5, 1.5], seed: 9, replicates: 500 })).toEqual(hillProfile(girdled, { orders: [0.5, 1.5], seed: 9, replicates: 500 }));
+    expect(hillProfile(girdled, { orders: [0.5, 1.5], seed: 9, replicates: 500 })).toEqual(
+      hillProfile(girdled, { orders: [0.5, 1.5], seed: 9, replicates: 500 }),
+    );
   });
 });
 
 describe("R vegan", () => {
-  it.each(reference.abundance.map((a) => [a.name, a] as const))("%s: q = 2 equals simpson.unb(inverse = TRUE); observed values equal renyi(hill = TRUE)", (_n, a) => {
-    const rows = hillProfile(a.counts, { orders: [0, 1, 2], replicates: 0 });
-    expectClose(rows[2]?.estimate ?? NaN, a.vegan.simpson_unb_inverse, "simpson.unb inverse (vegan)");
-    rows.forEach((r, q) => expectClose(r.observed, a.vegan.renyi_hill[q] as number, `renyi q = ${q} (vegan)`));
-  });
+  it.each(reference.abundance.map((a) => [a.name, a] as const))(
+    "%s: q = 2 equals simpson.unb(inverse = TRUE); observed values equal renyi(hill = TRUE)",
+    (_n, a) => {
+      const rows = hillProfile(a.counts, { orders: [0, 1, 2], replicates: 0 });
+      expectClose(rows[2]?.estimate ?? NaN, a.vegan.simpson_unb_inverse, "simpson.unb inverse (vegan)");
+      rows.forEach((r, q) => expectClose(r.observed, a.vegan.renyi_hill[q] as number, `renyi q = ${q} (vegan)`));
+    },
+  );
 });
 
 describe("Chao & Jost (2015) for non-integer q", () => {
@@ -77,13 +82,21 @@ describe("Chao & Jost (2015) for non-integer q", () => {
       const rows = hillProfile(counts, { orders: qs, replicates: 0 });
       rows.forEach((r, i) => {
         const d = chaoJostDirect(counts, qs[i] as number);
-        expect(Math.abs(r.estimate - d), `${counts.join(",")} q = ${qs[i]}: ${r.estimate} vs ${d}`).toBeLessThanOrEqual(1e-9 * d);
+        expect(Math.abs(r.estimate - d), `${counts.join(",")} q = ${qs[i]}: ${r.estimate} vs ${d}`).toBeLessThanOrEqual(
+          1e-9 * d,
+        );
       });
     }
   });
 
   it("its tail term agrees in both summation branches (nA ≤ 8 and > 8) with the defining form and with the plain series", () => {
-    for (const [n, A] of [[30, 0.1], [30, 0.4], [200, 0.02], [200, 0.06], [12, 0.9]] as const) {
+    for (const [n, A] of [
+      [30, 0.1],
+      [30, 0.4],
+      [200, 0.02],
+      [200, 0.06],
+      [12, 0.9],
+    ] as const) {
       for (const q of [0.3, 0.8, 1.2, 1.8]) {
         // Defining form: (1−A)^{1−n}[A^{q−1} − Σ_{r<n} C(q−1, r)(A−1)^r]; it cancels, so only to 1e−6.
         let partial = 0;
@@ -91,7 +104,9 @@ describe("Chao & Jost (2015) for non-integer q", () => {
         const direct = (1 - A) ** (1 - n) * (A ** (q - 1) - partial);
         const got = chaoJostTail(n, q, A);
         const rounding = 1e-14 * (1 - A) ** (1 - n) * Math.max(1, A ** (q - 1)); // what the cancellation can cost the defining form
-        expect(Math.abs(got - direct), `n ${n}, A ${A}, q ${q}`).toBeLessThanOrEqual(1e-6 * Math.abs(direct) + rounding);
+        expect(Math.abs(got - direct), `n ${n}, A ${A}, q ${q}`).toBeLessThanOrEqual(
+          1e-6 * Math.abs(direct) + rounding,
+        );
         // Plain series Σ_{r≥n} C(r−q, r)(1−A)^{r−n+1}, terms of one sign: to 1e−10.
         let series = 0;
         let c = choose(n - q, n);
@@ -122,20 +137,33 @@ describe("incidence profile", () => {
     const rows = hillProfileIncidence(bci, { orders: [0, 1, 2], replicates: 0 });
     expect(rows[0]?.estimate).toBe(incidenceStats(bci).chao2.estimate);
     // Hand-computed: units [[1,1],[1,0],[0,1],[0,0]]: Y = (2, 2), U = 4, T = 4: (3/4)·16/(2 + 2) = 3.
-    expect(hillProfileIncidence([[1, 1], [1, 0], [0, 1], [0, 0]], { orders: [2], replicates: 0 })[0]?.estimate).toBeCloseTo(3, 12);
+    expect(
+      hillProfileIncidence(
+        [
+          [1, 1],
+          [1, 0],
+          [0, 1],
+          [0, 0],
+        ],
+        { orders: [2], replicates: 0 },
+      )[0]?.estimate,
+    ).toBeCloseTo(3, 12);
     expect(() => hillProfileIncidence(bci, { orders: [0.5] })).toThrow(DiversityInputError);
     expect(() => hillProfile(girdled, { orders: [2.5] })).toThrow(DiversityInputError);
   });
 });
 
 describe("properties", () => {
-  const countsArb = fc.array(fc.oneof(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 50 })), { minLength: 1, maxLength: 25 }).filter((c) => c.some((x) => x > 0));
+  const countsArb = fc
+    .array(fc.oneof(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 50 })), { minLength: 1, maxLength: 25 })
+    .filter((c) => c.some((x) => x > 0));
   it("observed Hill numbers do not increase with q; intervals hold their estimate; se finite", () => {
     fc.assert(
       fc.property(countsArb, (counts) => {
         const orders = [0, 0.25, 0.5, 0.75, 1, 1.25, 1.5, 1.75, 2];
         const rows = hillProfile(counts, { orders, replicates: 30 });
-        for (let i = 1; i < rows.length; i++) expect(rows[i]?.observed ?? 0).toBeLessThanOrEqual((rows[i - 1]?.observed ?? 0) + 1e-9);
+        for (let i = 1; i < rows.length; i++)
+          expect(rows[i]?.observed ?? 0).toBeLessThanOrEqual((rows[i - 1]?.observed ?? 0) + 1e-9);
         for (const r of rows) {
           expect(Number.isFinite(r.se)).toBe(true);
           expect(r.lower).toBeLessThanOrEqual(r.estimate + 1e-9);

@@ -89,7 +89,8 @@ export function asymptoticHill(p: FrequencyProfile, q: number): number {
     if (p.kind === "abundance") return asymptoticSimpson(p);
     // Incidence: (1 − 1/T)U²/ΣY(Y−1) (Chao et al. 2014).
     let pairs = 0;
-    for (let i = 0; i < p.values.length; i++) pairs += (p.freqs[i] as number) * (p.values[i] as number) * ((p.values[i] as number) - 1);
+    for (let i = 0; i < p.values.length; i++)
+      pairs += (p.freqs[i] as number) * (p.values[i] as number) * ((p.values[i] as number) - 1);
     if (n < 2) return observedHill(p, 2);
     return pairs > 0 ? ((1 - 1 / n) * p.total * p.total) / pairs : Infinity;
   }
@@ -116,28 +117,72 @@ export function asymptoticHill(p: FrequencyProfile, q: number): number {
  * estimate (Chao group's R code). Orders must lie in [0, 2]; incidence profiles only take
  * q = 0, 1, 2.
  */
-export function hillProfileFromProfile(p: FrequencyProfile, options: HillProfileOptions, label: string): HillProfileRow[] {
-  if (!options || !Array.isArray(options.orders) || options.orders.length === 0) throw invalidOption(`${label}.orders`, "expected a non-empty array of orders");
+export function hillProfileFromProfile(
+  p: FrequencyProfile,
+  options: HillProfileOptions,
+  label: string,
+): HillProfileRow[] {
+  if (!options || !Array.isArray(options.orders) || options.orders.length === 0)
+    throw invalidOption(`${label}.orders`, "expected a non-empty array of orders");
   const orders = [...options.orders];
   orders.forEach((q, i) => {
-    if (typeof q !== "number" || !(q >= 0 && q <= 2)) throw invalidOption(`${label}.orders[${i}]`, `orders must lie between 0 and 2 (got ${String(q)})`);
-    if (p.kind === "incidence" && q !== 0 && q !== 1 && q !== 2) throw invalidOption(`${label}.orders[${i}]`, `incidence profiles take q = 0, 1 or 2 (got ${q})`);
+    if (typeof q !== "number" || !(q >= 0 && q <= 2))
+      throw invalidOption(`${label}.orders[${i}]`, `orders must lie between 0 and 2 (got ${String(q)})`);
+    if (p.kind === "incidence" && q !== 0 && q !== 1 && q !== 2)
+      throw invalidOption(`${label}.orders[${i}]`, `incidence profiles take q = 0, 1 or 2 (got ${q})`);
   });
   if (options.replicates !== undefined) checkReplicates(options.replicates, `${label}.replicates`);
   const seed = checkSeed(options.seed, `${label}.seed`);
   const estimates = orders.map((q) => asymptoticHill(p, q));
   const observedValues = orders.map((q) => observedHill(p, q));
-  const boot = bootstrapSd(p, seed, options.replicates, HILL_PROFILE_REPLICATES, estimates, observedValues, (b, out) => {
-    orders.forEach((q, i) => (out[i] = asymptoticHill(b, q)));
-  });
+  const boot = bootstrapSd(
+    p,
+    seed,
+    options.replicates,
+    HILL_PROFILE_REPLICATES,
+    estimates,
+    observedValues,
+    (b, out) => {
+      orders.forEach((q, i) => (out[i] = asymptoticHill(b, q)));
+    },
+  );
   return orders.map((q, i) => {
     const observed = observedValues[i] as number;
     const estimate = estimates[i] as number;
     const se = boot.sd[i] as number;
     const replicates = boot.replicates;
-    if (p.total <= 0) return { order: q, observed: 0, estimate: 0, se: 0, lower: 0, upper: 0, intervalMethod: "none" as const, replicates: 0 };
-    if (!Number.isFinite(estimate)) return { order: q, observed, estimate, se, lower: observed, upper: Infinity, intervalMethod: "bootstrap" as const, replicates };
+    if (p.total <= 0)
+      return {
+        order: q,
+        observed: 0,
+        estimate: 0,
+        se: 0,
+        lower: 0,
+        upper: 0,
+        intervalMethod: "none" as const,
+        replicates: 0,
+      };
+    if (!Number.isFinite(estimate))
+      return {
+        order: q,
+        observed,
+        estimate,
+        se,
+        lower: observed,
+        upper: Infinity,
+        intervalMethod: "bootstrap" as const,
+        replicates,
+      };
     const lower = Math.min(estimate, Math.max(observed, estimate - Z95 * se));
-    return { order: q, observed, estimate, se, lower, upper: estimate + Z95 * se, intervalMethod: "bootstrap" as const, replicates };
+    return {
+      order: q,
+      observed,
+      estimate,
+      se,
+      lower,
+      upper: estimate + Z95 * se,
+      intervalMethod: "bootstrap" as const,
+      replicates,
+    };
   });
 }

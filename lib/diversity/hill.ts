@@ -8,7 +8,14 @@ import type { FrequencyProfile } from "./profile";
 import { multinomial, Rng } from "./random";
 import { chaoRichness, undetectedChao, Z95, type IntervalMethod } from "./richness";
 
-export type HillValue = { observed: number; estimate: number; se: number; lower: number; upper: number; intervalMethod: IntervalMethod };
+export type HillValue = {
+  observed: number;
+  estimate: number;
+  se: number;
+  lower: number;
+  upper: number;
+  intervalMethod: IntervalMethod;
+};
 export type HillSummary = Record<"q0" | "q1" | "q2", HillValue>;
 
 export type BootstrapOptions = { replicates?: number; seed?: number };
@@ -131,7 +138,8 @@ function sampleSd(values: number[]): number {
 }
 
 function bootInterval(observed: number, estimate: number, se: number): HillValue {
-  if (!Number.isFinite(estimate)) return { observed, estimate, se, lower: observed, upper: Infinity, intervalMethod: "bootstrap" };
+  if (!Number.isFinite(estimate))
+    return { observed, estimate, se, lower: observed, upper: Infinity, intervalMethod: "bootstrap" };
   const lower = Math.min(estimate, Math.max(observed, estimate - Z95 * se));
   return { observed, estimate, se, lower, upper: estimate + Z95 * se, intervalMethod: "bootstrap" };
 }

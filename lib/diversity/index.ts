@@ -1,10 +1,24 @@
 // Public interface of the diversity engine: pure TypeScript, no runtime dependencies.
 
 import { abundanceProfile } from "./abundance";
-import { abundanceCurveFromProfile, accumulateData, curveSizes, incidenceCurveFromData, rarefyProfile, type CurvePoint } from "./curves";
+import {
+  abundanceCurveFromProfile,
+  accumulateData,
+  curveSizes,
+  incidenceCurveFromData,
+  rarefyProfile,
+  type CurvePoint,
+} from "./curves";
 import { checkSize, invalidOption } from "./errors";
 import { incidenceData } from "./incidence";
-import { hillAtCoverageFromProfile, hillCurveFromProfile, type HillCoverageOptions, type HillCoverageRow, type HillCurveOptions, type HillCurveRow } from "./hill-curves";
+import {
+  hillAtCoverageFromProfile,
+  hillCurveFromProfile,
+  type HillCoverageOptions,
+  type HillCoverageRow,
+  type HillCurveOptions,
+  type HillCurveRow,
+} from "./hill-curves";
 import { hillProfileFromProfile, type HillProfileOptions, type HillProfileRow } from "./hill-profile";
 
 export type { Estimate } from "./richness";
@@ -38,7 +52,10 @@ function checkSizes(sizes: readonly number[], label: string): void {
  * individuals (Hurlbert 1971) and its se conditional on the sample (Heck et al. 1975).
  * Sizes above the sample give the observed richness with se 0, as vegan does.
  */
-export function rarefaction(counts: readonly number[], sizes: readonly number[]): { size: number; richness: number; se: number }[] {
+export function rarefaction(
+  counts: readonly number[],
+  sizes: readonly number[],
+): { size: number; richness: number; se: number }[] {
   const p = abundanceProfile(counts);
   checkSizes(sizes, "sizes");
   return rarefyProfile(p, sizes);
@@ -58,7 +75,11 @@ export function accumulation(
   const ts = at ?? Array.from({ length: T }, (_, i) => i + 1);
   checkSizes(ts, "at");
   ts.forEach((t, i) => {
-    if (t < 1 || t > T) throw invalidOption(`at[${i}]`, `units must lie between 1 and ${T} (got ${t}); use incidenceCurve to extrapolate`);
+    if (t < 1 || t > T)
+      throw invalidOption(
+        `at[${i}]`,
+        `units must lie between 1 and ${T} (got ${t}); use incidenceCurve to extrapolate`,
+      );
   });
   return accumulateData(d, ts);
 }
@@ -71,7 +92,8 @@ function resolveSizes(N: number, o: CurveOptions, label: string): number[] {
     return [...o.sizes];
   }
   const points = o.points ?? 40;
-  if (!Number.isInteger(points) || points < 2) throw invalidOption(`${label}.points`, `points must be an integer ≥ 2 (got ${points})`);
+  if (!Number.isInteger(points) || points < 2)
+    throw invalidOption(`${label}.points`, `points must be an integer ≥ 2 (got ${points})`);
   const endpoint = o.endpoint ?? 2 * N;
   checkSize(endpoint, `${label}.endpoint`);
   return curveSizes(N, points, endpoint);
@@ -100,7 +122,10 @@ export function hillCurve(counts: readonly number[], options: HillCurveOptions =
 }
 
 /** The same for incidence data: complete sessions as rows (empty rows count as units); size = number of units. */
-export function hillCurveIncidence(units: readonly (readonly number[])[], options: HillCurveOptions = {}): HillCurveRow[] {
+export function hillCurveIncidence(
+  units: readonly (readonly number[])[],
+  options: HillCurveOptions = {},
+): HillCurveRow[] {
   return hillCurveFromProfile(incidenceData(units).profile, options, "options");
 }
 
@@ -110,7 +135,10 @@ export function hillAtCoverage(counts: readonly number[], options: HillCoverageO
 }
 
 /** The same for incidence data (size = number of units). */
-export function hillAtCoverageIncidence(units: readonly (readonly number[])[], options: HillCoverageOptions): HillCoverageRow[] {
+export function hillAtCoverageIncidence(
+  units: readonly (readonly number[])[],
+  options: HillCoverageOptions,
+): HillCoverageRow[] {
   return hillAtCoverageFromProfile(incidenceData(units).profile, options, "options");
 }
 
@@ -120,6 +148,9 @@ export function hillProfile(counts: readonly number[], options: HillProfileOptio
 }
 
 /** The same for incidence data, orders 0, 1 and 2 only. */
-export function hillProfileIncidence(units: readonly (readonly number[])[], options: HillProfileOptions): HillProfileRow[] {
+export function hillProfileIncidence(
+  units: readonly (readonly number[])[],
+  options: HillProfileOptions,
+): HillProfileRow[] {
   return hillProfileFromProfile(incidenceData(units).profile, options, "options");
 }

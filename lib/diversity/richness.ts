@@ -21,21 +21,38 @@ export type IntervalMethod = "log-normal" | "poisson-fallback" | "normal" | "boo
 
 export type Estimate = { estimate: number; se: number; lower: number; upper: number; intervalMethod: IntervalMethod };
 
-export const ZERO_ESTIMATE: Estimate = Object.freeze({ estimate: 0, se: 0, lower: 0, upper: 0, intervalMethod: "none" as const });
+export const ZERO_ESTIMATE: Estimate = Object.freeze({
+  estimate: 0,
+  se: 0,
+  lower: 0,
+  upper: 0,
+  intervalMethod: "none" as const,
+});
 
 /**
  * Log-normal 95% interval for S_obs + T̂ (Chao 1987): K = exp(z·sqrt(ln(1 + var/T̂²))),
  * [S_obs + T̂/K, S_obs + T̂·K]. Where it degenerates (T̂ = 0 or se = 0) the Poisson-type
  * fallback below is used, given the frequency profile; without one the interval is the point.
  */
-export function logNormalInterval(observed: number, estimate: number, variance: number, p?: FrequencyProfile): Estimate {
+export function logNormalInterval(
+  observed: number,
+  estimate: number,
+  variance: number,
+  p?: FrequencyProfile,
+): Estimate {
   const se = Math.sqrt(Math.max(variance, 0));
   const unseen = estimate - observed;
   if (!(unseen > 0) || se === 0) {
     if (p && p.observed > 0) {
       const f = poissonFallbackInterval(p);
       // Kept around the estimate: with var_obs ≤ 0 (very few units) the fallback would exclude it.
-      return { estimate, se, lower: Math.min(estimate, f.lower), upper: Math.max(estimate, f.upper), intervalMethod: "poisson-fallback" };
+      return {
+        estimate,
+        se,
+        lower: Math.min(estimate, f.lower),
+        upper: Math.max(estimate, f.upper),
+        intervalMethod: "poisson-fallback",
+      };
     }
     return { estimate, se, lower: estimate, upper: estimate, intervalMethod: observed > 0 ? "log-normal" : "none" };
   }

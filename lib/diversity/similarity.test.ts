@@ -63,17 +63,50 @@ describe("zoneSimilarityIncidence, hand-computed", () => {
 describe("hillBeta (Jost 2007, zones weighted equally)", () => {
   it("identical zones: beta 1; zones with no species in common: beta = number of zones", () => {
     for (const q of [0, 0.5, 1, 2]) {
-      expect(hillBeta([[4, 2, 1], [4, 2, 1]], q).beta).toBeCloseTo(1, 12);
-      expect(hillBeta([[4, 2, 0, 0, 0], [0, 0, 3, 3, 0], [0, 0, 0, 0, 9]], q).beta).toBeCloseTo(3, 12);
+      expect(
+        hillBeta(
+          [
+            [4, 2, 1],
+            [4, 2, 1],
+          ],
+          q,
+        ).beta,
+      ).toBeCloseTo(1, 12);
+      expect(
+        hillBeta(
+          [
+            [4, 2, 0, 0, 0],
+            [0, 0, 3, 3, 0],
+            [0, 0, 0, 0, 9],
+          ],
+          q,
+        ).beta,
+      ).toBeCloseTo(3, 12);
     }
   });
 
   it("q = 0 by hand: zones {a, b} and {b, c}: gamma 3, alpha 2, beta 1.5", () => {
-    expect(hillBeta([[1, 5, 0], [0, 2, 7]], 0)).toEqual({ order: 0, gamma: 3, alpha: 2, beta: 1.5, zones: 2 });
+    expect(
+      hillBeta(
+        [
+          [1, 5, 0],
+          [0, 2, 7],
+        ],
+        0,
+      ),
+    ).toEqual({ order: 0, gamma: 3, alpha: 2, beta: 1.5, zones: 2 });
   });
 
   it("refuses an empty zone and misaligned zones", () => {
-    expect(() => hillBeta([[1, 2], [0, 0]], 1)).toThrow(DiversityInputError);
+    expect(() =>
+      hillBeta(
+        [
+          [1, 2],
+          [0, 0],
+        ],
+        1,
+      ),
+    ).toThrow(DiversityInputError);
     expect(() => hillBeta([[1, 2], [1]], 1)).toThrow(DiversityInputError);
   });
 });
@@ -81,7 +114,12 @@ describe("hillBeta (Jost 2007, zones weighted equally)", () => {
 describe("properties", () => {
   const pairArb = fc
     .integer({ min: 1, max: 15 })
-    .chain((S) => fc.tuple(fc.array(fc.integer({ min: 0, max: 30 }), { minLength: S, maxLength: S }), fc.array(fc.integer({ min: 0, max: 30 }), { minLength: S, maxLength: S })));
+    .chain((S) =>
+      fc.tuple(
+        fc.array(fc.integer({ min: 0, max: 30 }), { minLength: S, maxLength: S }),
+        fc.array(fc.integer({ min: 0, max: 30 }), { minLength: S, maxLength: S }),
+      ),
+    );
 
   it("similarities lie in [0, 1], are symmetric, and equal 1 for a zone with itself", () => {
     fc.assert(
@@ -103,7 +141,11 @@ describe("properties", () => {
   });
 
   it("incidence similarity: in [0, 1]; adding empty sessions changes nothing observed", () => {
-    const unitsArb = (S: number) => fc.array(fc.array(fc.integer({ min: 0, max: 1 }), { minLength: S, maxLength: S }), { minLength: 1, maxLength: 6 });
+    const unitsArb = (S: number) =>
+      fc.array(fc.array(fc.integer({ min: 0, max: 1 }), { minLength: S, maxLength: S }), {
+        minLength: 1,
+        maxLength: 6,
+      });
     fc.assert(
       fc.property(
         fc.integer({ min: 1, max: 8 }).chain((S) => fc.tuple(unitsArb(S), unitsArb(S))),
@@ -115,7 +157,10 @@ describe("properties", () => {
             expect(s[k]).toBeLessThanOrEqual(1);
           }
           const width = a[0]?.length ?? 0;
-          const padded = zoneSimilarityIncidence([...a, ...Array.from({ length: extra }, () => new Array<number>(width).fill(0))], b);
+          const padded = zoneSimilarityIncidence(
+            [...a, ...Array.from({ length: extra }, () => new Array<number>(width).fill(0))],
+            b,
+          );
           expect([padded.shared, padded.sorensen, padded.jaccard]).toEqual([s.shared, s.sorensen, s.jaccard]);
         },
       ),
@@ -123,9 +168,12 @@ describe("properties", () => {
   });
 
   it("beta lies between 1 and the number of zones, and Hill numbers of the pool do not increase with q", () => {
-    const zonesArb = fc
-      .tuple(fc.integer({ min: 1, max: 4 }), fc.integer({ min: 1, max: 10 }))
-      .chain(([N, S]) => fc.array(fc.array(fc.integer({ min: 0, max: 20 }), { minLength: S, maxLength: S }).filter((z) => z.some((x) => x > 0)), { minLength: N, maxLength: N }));
+    const zonesArb = fc.tuple(fc.integer({ min: 1, max: 4 }), fc.integer({ min: 1, max: 10 })).chain(([N, S]) =>
+      fc.array(
+        fc.array(fc.integer({ min: 0, max: 20 }), { minLength: S, maxLength: S }).filter((z) => z.some((x) => x > 0)),
+        { minLength: N, maxLength: N },
+      ),
+    );
     fc.assert(
       fc.property(zonesArb, (zones) => {
         let prev = Infinity;

@@ -45,7 +45,8 @@ function chaoSimilarity(x: ArrayLike<number>, y: ArrayLike<number>, effortA: num
     else if (a > 0) onlyA++;
     else if (b > 0) onlyB++;
   }
-  if (n === 0 || m === 0) return { shared: 0, sorensen: 0, jaccard: 0, sorensenAdjusted: 0, jaccardAdjusted: 0, uHat: 0, vHat: 0 };
+  if (n === 0 || m === 0)
+    return { shared: 0, sorensen: 0, jaccard: 0, sorensenAdjusted: 0, jaccardAdjusted: 0, uHat: 0, vHat: 0 };
   let uTilde = 0;
   let vTilde = 0;
   let f1plus = 0;
@@ -89,7 +90,11 @@ function chaoSimilarity(x: ArrayLike<number>, y: ArrayLike<number>, effortA: num
 
 function checkAligned(a: readonly unknown[], b: readonly unknown[], label: string): void {
   if (a.length !== b.length) {
-    throw new DiversityInputError("ragged-units", label, `both zones must list the same species (${a.length} vs ${b.length})`);
+    throw new DiversityInputError(
+      "ragged-units",
+      label,
+      `both zones must list the same species (${a.length} vs ${b.length})`,
+    );
   }
 }
 
@@ -106,13 +111,17 @@ export function zoneSimilarity(countsA: readonly number[], countsB: readonly num
  * sessions) of each zone that hold it; totals are incidences, the effort factors (T−1)/T use
  * each zone's number of units (empty units count).
  */
-export function zoneSimilarityIncidence(unitsA: readonly (readonly number[])[], unitsB: readonly (readonly number[])[]): ZoneSimilarity {
+export function zoneSimilarityIncidence(
+  unitsA: readonly (readonly number[])[],
+  unitsB: readonly (readonly number[])[],
+): ZoneSimilarity {
   const a = incidenceData(unitsA);
   const b = incidenceData(unitsB);
   const width = (u: readonly (readonly number[])[]): number => (u.length > 0 ? (u[0] as readonly number[]).length : -1);
   const wa = width(unitsA);
   const wb = width(unitsB);
-  if (wa >= 0 && wb >= 0 && wa !== wb) throw new DiversityInputError("ragged-units", "unitsB", `both zones must list the same species (${wa} vs ${wb})`);
+  if (wa >= 0 && wb >= 0 && wa !== wb)
+    throw new DiversityInputError("ragged-units", "unitsB", `both zones must list the same species (${wa} vs ${wb})`);
   const S = Math.max(wa, wb, 0);
   return chaoSimilarity(incidenceCounts(unitsA, S), incidenceCounts(unitsB, S), a.units, b.units);
 }
@@ -132,13 +141,21 @@ export type HillBeta = { order: number; gamma: number; alpha: number; beta: numb
  * between 1 (identical zones) and N (no species shared). Observed values, not estimates.
  */
 export function hillBeta(countsByZone: readonly (readonly number[])[], order: number): HillBeta {
-  if (!Array.isArray(countsByZone) || countsByZone.length === 0) throw invalidOption("countsByZone", "expected at least one zone");
-  if (typeof order !== "number" || !(order >= 0) || !Number.isFinite(order)) throw invalidOption("order", `order must be a finite number ≥ 0 (got ${String(order)})`);
+  if (!Array.isArray(countsByZone) || countsByZone.length === 0)
+    throw invalidOption("countsByZone", "expected at least one zone");
+  if (typeof order !== "number" || !(order >= 0) || !Number.isFinite(order))
+    throw invalidOption("order", `order must be a finite number ≥ 0 (got ${String(order)})`);
   const totals = countsByZone.map((c, j) => checkCounts(c, `countsByZone[${j}]`));
   const S = (countsByZone[0] as readonly number[]).length;
   countsByZone.forEach((c, j) => {
-    if (c.length !== S) throw new DiversityInputError("ragged-units", `countsByZone[${j}]`, `every zone must list the same ${S} species (this one has ${c.length})`);
-    if (totals[j] === 0) throw invalidOption(`countsByZone[${j}]`, "a zone with no individuals has no relative abundances; leave it out");
+    if (c.length !== S)
+      throw new DiversityInputError(
+        "ragged-units",
+        `countsByZone[${j}]`,
+        `every zone must list the same ${S} species (this one has ${c.length})`,
+      );
+    if (totals[j] === 0)
+      throw invalidOption(`countsByZone[${j}]`, "a zone with no individuals has no relative abundances; leave it out");
   });
   const N = countsByZone.length;
   const q = order;

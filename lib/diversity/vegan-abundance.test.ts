@@ -19,7 +19,9 @@ function poissonFallbackByHand(counts: number[]): [number, number] {
   const S = seen.length;
   const n = seen.reduce((s, x) => s + x, 0);
   const P = seen.reduce((s, x) => s + Math.exp(-x), 0) / S;
-  const varObs = seen.reduce((s, x) => s + Math.exp(-x) - Math.exp(-2 * x), 0) - seen.reduce((s, x) => s + x * Math.exp(-x), 0) ** 2 / n;
+  const varObs =
+    seen.reduce((s, x) => s + Math.exp(-x) - Math.exp(-2 * x), 0) -
+    seen.reduce((s, x) => s + x * Math.exp(-x), 0) ** 2 / n;
   const half = (1.959964 * Math.sqrt(varObs)) / (1 - P);
   return [Math.max(S, S / (1 - P) - half), S / (1 - P) + half];
 }
@@ -83,7 +85,11 @@ describe.each(reference.abundance.map((a) => [a.name, a] as const))("%s", (_name
 
   it("gives the asymptotic Hill numbers of Chao et al. (2014) (formulas in R)", () => {
     expectClose(stats.hill.q0.estimate, a.formula.hill_asymptotic[0], "q0: Chao1 Chao-group form (R formula)");
-    expectClose(stats.hill.q1.estimate, a.formula.hill_asymptotic[1], "q1: exp(Chao, Wang & Jost 2013) (R direct sums)");
+    expectClose(
+      stats.hill.q1.estimate,
+      a.formula.hill_asymptotic[1],
+      "q1: exp(Chao, Wang & Jost 2013) (R direct sums)",
+    );
     expectClose(stats.hill.q2.estimate, a.formula.hill_asymptotic[2], "q2: n(n−1)/ΣX(X−1) (R formula)");
     expectClose(stats.hill.q2.estimate, a.vegan.simpson_unb_inverse, "q2 vs vegan simpson.unb(inverse = TRUE)", 1e-9);
   });

@@ -12,12 +12,20 @@ import type { EventPack, LocalPhoto, MineItem, StoredPack, TransientProblem } fr
 // sightings, then a fresh list of the person's own records with their review states.
 // Runs in a page and in the service worker (Background Sync): no React, no DOM.
 
-export type SyncReport = { ran: boolean; sent: number; refused: number; photosSent: number; problem?: TransientProblem };
+export type SyncReport = {
+  ran: boolean;
+  sent: number;
+  refused: number;
+  photosSent: number;
+  problem?: TransientProblem;
+};
 
 const LOCK = "ecotone-field-sync";
 const MAX_ROUNDS = 20;
 
-type LockManagerLike = { request<T>(name: string, opts: { ifAvailable: boolean }, cb: (lock: unknown) => Promise<T>): Promise<T> };
+type LockManagerLike = {
+  request<T>(name: string, opts: { ifAvailable: boolean }, cb: (lock: unknown) => Promise<T>): Promise<T>;
+};
 
 async function withLock<T>(fallback: T, fn: () => Promise<T>): Promise<T> {
   const locks = (globalThis.navigator as { locks?: LockManagerLike } | undefined)?.locks;
@@ -35,7 +43,10 @@ function problemFor(status: number): TransientProblem | null {
 /** The reason kept with a refused record: the server's message and the first field at fault. */
 function refusalText(error: ApiClientError): string {
   const field = error.fields[0];
-  return [error.message, field ? `${field.field}: ${field.message}` : null].filter(Boolean).join(" — ") || `HTTP ${error.status}`;
+  return (
+    [error.message, field ? `${field.field}: ${field.message}` : null].filter(Boolean).join(" — ") ||
+    `HTTP ${error.status}`
+  );
 }
 
 /** No answer, or a 2xx answer cut off before its body was read: the server may have acted. */
@@ -51,14 +62,23 @@ const UPLOAD_TIMEOUT_MS = 180_000;
 const timeout = (ms: number) => (typeof AbortSignal.timeout === "function" ? AbortSignal.timeout(ms) : undefined);
 
 /** Sends what is due for one event. `onProgress` runs after each stored batch and photo, so the screen can follow. */
-export async function syncEvent(db: FieldDatabase, eventId: string, now: () => number = Date.now, onProgress?: () => void): Promise<SyncReport> {
+export async function syncEvent(
+  db: FieldDatabase,
+  eventId: string,
+  now: () => number = Date.now,
+  onProgress?: () => void,
+): Promise<SyncReport> {
   return withLock<SyncReport>({ ran: false, sent: 0, refused: 0, photosSent: 0 }, async () => {
     await resetInFlight(db); // we hold the lock: anything "sending" is left over from a crash
     const report: SyncReport = { ran: true, sent: 0, refused: 0, photosSent: 0 };
     for (let round = 0; round < MAX_ROUNDS; round++) {
       const batch = await takeBatch(db, eventId, now());
       if (batch.sessions.length + batch.sightings.length === 0) break;
-      const res = await api.call<SyncResponse>(`/api/events/${eventId}/sync`, { method: "POST", body: batchBody(batch), signal: timeout(API_TIMEOUT_MS) });
+      const res = await api.call<SyncResponse>(`/api/events/${eventId}/sync`, {
+        method: "POST",
+        body: batchBody(batch),
+        signal: timeout(API_TIMEOUT_MS),
+      });
       if (!res.ok && noAnswer(res.error)) {
         await releaseBatch(db, batch, "offline", now());
         report.problem = "offline";
@@ -93,8 +113,15 @@ export async function syncEvent(db: FieldDatabase, eventId: string, now: () => n
 }
 
 /** Photos go after their sighting is acknowledged: register, PUT the bytes to the presigned URL, confirm. */
-async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number, onProgress?: () => void): Promise<{ sent: number; problem?: TransientProblem }> {
-  const photos = (await db.getAllFromIndex("photos", "byEvent", eventId)).filter((p) => p.state === "waiting" && p.nextTryAt <= now());
+async function sendPhotos(
+  db: FieldDatabase,
+  eventId: string,
+  now: () => number,
+  onProgress?: () => void,
+): Promise<{ sent: number; problem?: TransientProblem }> {
+  const photos = (await db.getAllFromIndex("photos", "byEvent", eventId)).filter(
+    (p) => p.state === "waiting" && p.nextTryAt <= now(),
+  );
   let sent = 0;
   for (const photo of photos) {
     const sighting = await db.get("sightings", photo.sightingId);
@@ -104,20 +131,37 @@ async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number,
     const current = (await db.get("photos", photo.id)) ?? photo;
     if (outcome.ok) {
       sent++;
-      await db.put("photos", { ...current, state: "sent", sentAt: now(), attempts: 0, nextTryAt: 0, problem: undefined, reason: undefined });
+      await db.put("photos", {
+        ...current,
+        state: "sent",
+        sentAt: now(),
+        attempts: 0,
+        nextTryAt: 0,
+        problem: undefined,
+        reason: undefined,
+      });
       onProgress?.();
     } else if (outcome.refused !== undefined) {
       await db.put("photos", { ...current, state: "failed", reason: outcome.refused, problem: undefined });
     } else {
       const attempts = current.attempts + 1;
-      await db.put("photos", { ...current, state: "waiting", attempts, nextTryAt: now() + backoffDelay(attempts), problem: outcome.problem });
+      await db.put("photos", {
+        ...current,
+        state: "waiting",
+        attempts,
+        nextTryAt: now() + backoffDelay(attempts),
+        problem: outcome.problem,
+      });
       return { sent, problem: outcome.problem };
     }
   }
   return { sent };
 }
 
-type UploadOutcome = { ok: true } | { ok: false; refused: string; problem?: undefined } | { ok: false; refused?: undefined; problem: TransientProblem };
+type UploadOutcome =
+  | { ok: true }
+  | { ok: false; refused: string; problem?: undefined }
+  | { ok: false; refused?: undefined; problem: TransientProblem };
 
 async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOutcome> {
   const fail = (error: ApiClientError): UploadOutcome => {
@@ -125,20 +169,43 @@ async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOu
     const problem = problemFor(error.status);
     return problem ? { ok: false, problem } : { ok: false, refused: refusalText(error) };
   };
-  const meta = { id: photo.id, sightingId: photo.sightingId, contentType: photo.contentType, sizeBytes: photo.sizeBytes, sha256: photo.sha256, width: photo.width, height: photo.height };
-  const start = await api.call<PhotoPlan>(`/api/events/${eventId}/photos`, { method: "POST", body: meta, signal: timeout(API_TIMEOUT_MS) });
+  const meta = {
+    id: photo.id,
+    sightingId: photo.sightingId,
+    contentType: photo.contentType,
+    sizeBytes: photo.sizeBytes,
+    sha256: photo.sha256,
+    width: photo.width,
+    height: photo.height,
+  };
+  const start = await api.call<PhotoPlan>(`/api/events/${eventId}/photos`, {
+    method: "POST",
+    body: meta,
+    signal: timeout(API_TIMEOUT_MS),
+  });
   if (!start.ok) return cutAnswer(start.error) ? { ok: false, problem: "offline" } : fail(start.error);
   const plan = start.data;
   if (plan.outcome === "already_had") return { ok: true };
   // The bytes go to the photo store's presigned URL: not one of our handlers, so a plain fetch.
   let put: Response;
   try {
-    put = await fetch(plan.uploadUrl, { method: "PUT", headers: plan.headers, body: photo.blob, credentials: "omit", signal: timeout(UPLOAD_TIMEOUT_MS) });
+    put = await fetch(plan.uploadUrl, {
+      method: "PUT",
+      headers: plan.headers,
+      body: photo.blob,
+      credentials: "omit",
+      signal: timeout(UPLOAD_TIMEOUT_MS),
+    });
   } catch {
     return { ok: false, problem: "offline" };
   }
-  if (!put.ok) return put.status >= 500 ? { ok: false, problem: "server" } : { ok: false, refused: `HTTP ${put.status}` };
-  const confirm = await api.call(`/api/events/${eventId}/photos/${photo.id}/confirm`, { method: "POST", body: {}, signal: timeout(UPLOAD_TIMEOUT_MS) });
+  if (!put.ok)
+    return put.status >= 500 ? { ok: false, problem: "server" } : { ok: false, refused: `HTTP ${put.status}` };
+  const confirm = await api.call(`/api/events/${eventId}/photos/${photo.id}/confirm`, {
+    method: "POST",
+    body: {},
+    signal: timeout(UPLOAD_TIMEOUT_MS),
+  });
   // A cut answer after a 2xx: the server has the photo (it says "already had" next time).
   if (!confirm.ok && !cutAnswer(confirm.error)) return fail(confirm.error);
   return { ok: true };
@@ -147,9 +214,19 @@ async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOu
 /** The fields of a sighting record, out of one row of GET …/sightings/mine. */
 function pickRecord(x: MySighting): Record<string, unknown> {
   return {
-    id: x.id, sessionId: x.sessionId, taxonId: x.taxonId, description: x.description, count: x.count,
-    countIsEstimate: x.countIsEstimate, observedAt: x.observedAt, latitude: x.latitude, longitude: x.longitude,
-    accuracyM: x.accuracyM, zoneId: x.zoneId, notes: x.notes, photoIds: [],
+    id: x.id,
+    sessionId: x.sessionId,
+    taxonId: x.taxonId,
+    description: x.description,
+    count: x.count,
+    countIsEstimate: x.countIsEstimate,
+    observedAt: x.observedAt,
+    latitude: x.latitude,
+    longitude: x.longitude,
+    accuracyM: x.accuracyM,
+    zoneId: x.zoneId,
+    notes: x.notes,
+    photoIds: [],
   };
 }
 
@@ -161,7 +238,15 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
     return null;
   }
   const raw = res.data.sightings;
-  const items: MineItem[] = raw.map((x) => ({ id: x.id, reviewState: x.reviewState, version: x.version, question: x.question, taxonId: x.taxonId, count: x.count, observedAt: x.observedAt }));
+  const items: MineItem[] = raw.map((x) => ({
+    id: x.id,
+    reviewState: x.reviewState,
+    version: x.version,
+    question: x.question,
+    taxonId: x.taxonId,
+    count: x.count,
+    observedAt: x.observedAt,
+  }));
   await db.put("mine", { eventId, fetchedAt: Date.now(), items });
   const stored = await db.get("packs", eventId);
   const locale = (globalThis.document?.documentElement.lang || globalThis.navigator?.language || "en").slice(0, 2);
@@ -175,31 +260,58 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
       const parsed = sightingRecord.safeParse(pickRecord(row));
       if (!parsed.success) continue;
       const species = stored?.pack.species.find((sp) => sp.id === parsed.data.taxonId);
-      const label = species ? (species.names[locale] ?? species.names.en ?? species.scientificName) : (row.scientificName ?? parsed.data.description);
+      const label = species
+        ? (species.names[locale] ?? species.names.en ?? species.scientificName)
+        : (row.scientificName ?? parsed.data.description);
       const at = Date.parse(parsed.data.observedAt);
       await tx.store.put({
-        kind: "sighting", id: item.id, eventId, state: "sent", rev: 0, attempts: 0, nextTryAt: 0, savedAt: at, sentAt: at,
-        record: parsed.data, taxonLabel: label, reviewState: item.reviewState, serverVersion: item.version,
+        kind: "sighting",
+        id: item.id,
+        eventId,
+        state: "sent",
+        rev: 0,
+        attempts: 0,
+        nextTryAt: 0,
+        savedAt: at,
+        sentAt: at,
+        record: parsed.data,
+        taxonLabel: label,
+        reviewState: item.reviewState,
+        serverVersion: item.version,
         question: item.reviewState === "returned" ? (item.question ?? undefined) : undefined,
       });
       continue;
     }
     // A local edit waiting to go out keeps its own text; the states still update.
-    await tx.store.put({ ...local, reviewState: item.reviewState, serverVersion: item.version, question: item.reviewState === "returned" ? (item.question ?? local.question) : local.record.answer ? local.question : undefined });
+    await tx.store.put({
+      ...local,
+      reviewState: item.reviewState,
+      serverVersion: item.version,
+      question:
+        item.reviewState === "returned"
+          ? (item.question ?? local.question)
+          : local.record.answer
+            ? local.question
+            : undefined,
+    });
   }
   await tx.done;
   return items;
 }
 
 /** Downloads the event pack when it changed (ETag), and keeps it for offline use. */
-export async function refreshPack(db: FieldDatabase, eventId: string): Promise<{ changed: boolean; pack: StoredPack | null }> {
+export async function refreshPack(
+  db: FieldDatabase,
+  eventId: string,
+): Promise<{ changed: boolean; pack: StoredPack | null }> {
   const stored = await db.get("packs", eventId);
   let res: Awaited<ReturnType<typeof api.getIfChanged<EventPack>>>;
   try {
     res = await api.getIfChanged<EventPack>(`/api/events/${eventId}/pack`, stored?.etag ?? null, { cache: "no-cache" });
   } catch (err) {
     // No answer (or a cut one) is thrown: the caller learns it is offline. A refusal keeps what is stored.
-    if (err instanceof ApiClientError && !noAnswer(err) && !cutAnswer(err)) return { changed: false, pack: stored ?? null };
+    if (err instanceof ApiClientError && !noAnswer(err) && !cutAnswer(err))
+      return { changed: false, pack: stored ?? null };
     throw err;
   }
   if (!res.changed) return { changed: false, pack: stored ?? null };

@@ -64,8 +64,18 @@ export type LocalPhoto = {
 export type StoredPack = { eventId: string; etag: string | null; pack: EventPack; fetchedAt: number };
 
 /** One of the person's own sightings as the server has it (GET …/sightings/mine), the parts the phone keeps. */
-export type MineItem = Pick<MySighting, "id" | "reviewState" | "version" | "question" | "taxonId" | "count" | "observedAt">;
+export type MineItem = Pick<
+  MySighting,
+  "id" | "reviewState" | "version" | "question" | "taxonId" | "count" | "observedAt"
+>;
 export type StoredMine = { eventId: string; fetchedAt: number; items: MineItem[] };
 
 /** Events the person may record in, as the field log page last listed them. */
-export type KnownEvent = { id: string; name: string; timeZone: string; startsAt: string; endsAt: string; status: string };
+export type KnownEvent = {
+  id: string;
+  name: string;
+  timeZone: string;
+  startsAt: string;
+  endsAt: string;
+  status: string;
+};

@@ -1,21 +1,32 @@
 import { describe, expect, it } from "vitest";
 import { arealPath, fitProjection, labelPoint, type ArealGeometry } from "./areal";
 
-const square = (w: number, s: number, e: number, n: number) => [[w, s], [e, s], [e, n], [w, n], [w, s]];
+const square = (w: number, s: number, e: number, n: number) => [
+  [w, s],
+  [e, s],
+  [e, n],
+  [w, n],
+  [w, s],
+];
 
 // A zone in two parts (split by a river): a large square with a pond cut out of it, and a
 // small square to its east. Near the equator, so the cosine scaling is about 1.
 const split: ArealGeometry = {
   type: "MultiPolygon",
-  coordinates: [
-    [square(0, 0, 0.004, 0.004), square(0.001, 0.001, 0.002, 0.002)],
-    [square(0.005, 0, 0.006, 0.001)],
-  ],
+  coordinates: [[square(0, 0, 0.004, 0.004), square(0.001, 0.001, 0.002, 0.002)], [square(0.005, 0, 0.006, 0.001)]],
 };
 
 /** The subpaths of an SVG path as lists of [x, y]. */
 const subpaths = (d: string) =>
-  d.split("Z").filter(Boolean).map((sp) => sp.split(/[ML]/).filter(Boolean).map((xy) => xy.split(",").map(Number)));
+  d
+    .split("Z")
+    .filter(Boolean)
+    .map((sp) =>
+      sp
+        .split(/[ML]/)
+        .filter(Boolean)
+        .map((xy) => xy.split(",").map(Number)),
+    );
 
 describe("the zone map's path", () => {
   const p = fitProjection([split], [], { width: 600, height: 400, pad: 0 })!;
@@ -31,8 +42,10 @@ describe("the zone map's path", () => {
 
   it("puts the hole inside the first part and the second part to its east, north up", () => {
     const [outer, hole, east] = subpaths(arealPath(split, p)).map((r) => ({
-      minX: Math.min(...r.map((c) => c[0]!)), maxX: Math.max(...r.map((c) => c[0]!)),
-      minY: Math.min(...r.map((c) => c[1]!)), maxY: Math.max(...r.map((c) => c[1]!)),
+      minX: Math.min(...r.map((c) => c[0]!)),
+      maxX: Math.max(...r.map((c) => c[0]!)),
+      minY: Math.min(...r.map((c) => c[1]!)),
+      maxY: Math.max(...r.map((c) => c[1]!)),
     }));
     expect(hole!.minX).toBeGreaterThan(outer!.minX);
     expect(hole!.maxX).toBeLessThan(outer!.maxX);

@@ -55,8 +55,9 @@ export type FitOptions = {
 
 /** The projection that fits the geometries and extra positions into the box; null when there is nothing to draw. */
 export function fitProjection(geometries: ArealGeometry[], extra: Position[], opts: FitOptions): Projection | null {
-  const positions = [...geometries.flatMap((g) => polygonsOf(g).flat(2)), ...extra]
-    .filter((p) => Number.isFinite(p[0]) && Number.isFinite(p[1]));
+  const positions = [...geometries.flatMap((g) => polygonsOf(g).flat(2)), ...extra].filter(
+    (p) => Number.isFinite(p[0]) && Number.isFinite(p[1]),
+  );
   if (positions.length === 0) return null;
   const lons = positions.map((p) => p[0]!);
   const lats = positions.map((p) => p[1]!);
@@ -71,7 +72,9 @@ export function fitProjection(geometries: ArealGeometry[], extra: Position[], op
   const pad = opts.pad ?? 0;
   const width = opts.width;
   const inner = width - 2 * pad;
-  const height = opts.height ?? Math.round(Math.min(opts.maxHeight ?? Infinity, Math.max(opts.minHeight ?? 0, (inner * spanY) / spanX + 2 * pad)));
+  const height =
+    opts.height ??
+    Math.round(Math.min(opts.maxHeight ?? Infinity, Math.max(opts.minHeight ?? 0, (inner * spanY) / spanX + 2 * pad)));
   const scale = Math.min(inner / spanX, (height - 2 * pad) / spanY);
   // Centred in the box.
   const offX = (width - spanX * scale) / 2;
@@ -81,7 +84,10 @@ export function fitProjection(geometries: ArealGeometry[], extra: Position[], op
     height,
     x: (lon) => offX + (lon * k - minX) * scale,
     y: (lat) => height - offY - (lat - minY) * scale,
-    invert: (px, py) => ({ longitude: ((px - offX) / scale + minX) / k, latitude: (height - offY - py) / scale + minY }),
+    invert: (px, py) => ({
+      longitude: ((px - offX) / scale + minX) / k,
+      latitude: (height - offY - py) / scale + minY,
+    }),
     metresPerUnit: M_PER_DEG_LAT / scale,
   };
 }
@@ -109,7 +115,9 @@ function ringArea(ring: Ring): number {
 
 /** Where to write a zone's name: the middle of the bounding box of its largest part's outer ring. */
 export function labelPoint(g: ArealGeometry, p: Pick<Projection, "x" | "y">): [number, number] | null {
-  const outers = polygonsOf(g).map((poly) => poly[0] ?? []).filter((r) => r.length >= 3);
+  const outers = polygonsOf(g)
+    .map((poly) => poly[0] ?? [])
+    .filter((r) => r.length >= 3);
   if (outers.length === 0) return null;
   const largest = outers.reduce((a, b) => (ringArea(b) > ringArea(a) ? b : a));
   const xs = largest.map((c) => p.x(c[0]!));

@@ -14,7 +14,11 @@ export type BodyOptions = {
  * "things to avoid"). Too large, not JSON, or not matching the schema: a 400 naming each
  * wrong field, in the caller's language.
  */
-export async function parseJson<T extends z.ZodType>(request: Request, schema: T, options: BodyOptions = {}): Promise<z.infer<T>> {
+export async function parseJson<T extends z.ZodType>(
+  request: Request,
+  schema: T,
+  options: BodyOptions = {},
+): Promise<z.infer<T>> {
   const { maxBytes = MAX_JSON_BYTES, messages } = options;
   const locale = requestLocale(request);
   const text = await readBody(request, maxBytes, locale);
@@ -37,7 +41,8 @@ export async function parseJson<T extends z.ZodType>(request: Request, schema: T
  */
 async function readBody(request: Request, maxBytes: number, locale: ReturnType<typeof requestLocale>): Promise<string> {
   const t = apiTranslator(locale);
-  const tooLarge = () => new ApiError("bad_request", [{ field: "(body)", message: t("field.tooLarge", { maximum: maxBytes }) }]);
+  const tooLarge = () =>
+    new ApiError("bad_request", [{ field: "(body)", message: t("field.tooLarge", { maximum: maxBytes }) }]);
   const declared = Number(request.headers.get("content-length") ?? NaN);
   if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge();
   if (!request.body) return "";

@@ -19,7 +19,9 @@ describe("the client address a rate limit is keyed on", () => {
     // The client forged "6.6.6.6"; our proxy (10.0.0.2) appended the real client 198.51.100.7.
     expect(clientAddress(h("10.0.0.2", "6.6.6.6, 198.51.100.7"), ["10.0.0.2"])).toBe("198.51.100.7");
     // Two of our proxies in a row.
-    expect(clientAddress(h("10.0.0.2", "6.6.6.6, 198.51.100.7, 10.0.0.3"), ["10.0.0.2", "10.0.0.3"])).toBe("198.51.100.7");
+    expect(clientAddress(h("10.0.0.2", "6.6.6.6, 198.51.100.7, 10.0.0.3"), ["10.0.0.2", "10.0.0.3"])).toBe(
+      "198.51.100.7",
+    );
     // A peer that is not our proxy: its header is not believed.
     expect(clientAddress(h("198.51.100.50", "6.6.6.6"), ["10.0.0.2"])).toBe("198.51.100.50");
   });

@@ -24,7 +24,7 @@ export function clientAddress(headers: Headers, trustedProxies: readonly string[
   const trusted = new Set(trustedProxies.map(normaliseAddress));
   const forwarded = (headers.get("x-forwarded-for") ?? "").split(",").map(normaliseAddress).filter(Boolean);
   const peerHeader = headers.get(PEER_HEADER);
-  let peer = peerHeader ? normaliseAddress(peerHeader) : forwarded.pop() ?? "unknown";
+  let peer = peerHeader ? normaliseAddress(peerHeader) : (forwarded.pop() ?? "unknown");
   // Walk back through our own proxies only.
   while (trusted.has(peer) && forwarded.length) peer = forwarded.pop()!;
   return peer || "unknown";

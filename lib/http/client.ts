@@ -43,8 +43,15 @@ async function fetchAnswer<E>(url: string, options: CallOptions): Promise<Respon
   const { method = "GET", body, headers = {}, signal, cache } = options;
   try {
     return await fetch(url, {
-      method, signal, cache, credentials: "same-origin",
-      headers: { accept: "application/json", ...(body === undefined ? {} : { "content-type": "application/json" }), ...headers },
+      method,
+      signal,
+      cache,
+      credentials: "same-origin",
+      headers: {
+        accept: "application/json",
+        ...(body === undefined ? {} : { "content-type": "application/json" }),
+        ...headers,
+      },
       body: body === undefined ? undefined : JSON.stringify(body),
     });
   } catch {
@@ -61,7 +68,10 @@ async function readAnswer<T, E>(res: Response): Promise<ApiResult<T, E>> {
   }
   if (res.ok) return { ok: true, status: res.status, data: json as T };
   const answer = json as ApiErrorBody & E;
-  return { ok: false, error: new ApiClientError<E>(res.status, answer.error.code, answer.error.message, answer.error.fields, answer) };
+  return {
+    ok: false,
+    error: new ApiClientError<E>(res.status, answer.error.code, answer.error.message, answer.error.fields, answer),
+  };
 }
 
 /** One call, never throwing: the answer's data, or the ApiClientError. `E` names what the handler adds to its error body. */
@@ -83,10 +93,18 @@ export const api = {
   /** GET a handler's JSON answer; throws ApiClientError. */
   get: <T>(url: string, options: PlainOptions = {}) => orThrow(call<T>(url, options)),
   /** Send `body` (if any) as JSON and read the answer; throws ApiClientError. */
-  send: <T = { ok: true }>(url: string, method: "POST" | "PUT" | "PATCH" | "DELETE", body?: unknown, options: PlainOptions = {}) =>
-    orThrow(call<T>(url, { ...options, method, body })),
+  send: <T = { ok: true }>(
+    url: string,
+    method: "POST" | "PUT" | "PATCH" | "DELETE",
+    body?: unknown,
+    options: PlainOptions = {},
+  ) => orThrow(call<T>(url, { ...options, method, body })),
   /** A conditional GET (ETag): unchanged (304) when `etag` still matches, else the new answer and its tag; throws ApiClientError. */
-  async getIfChanged<T>(url: string, etag: string | null, options: PlainOptions = {}): Promise<{ changed: false } | { changed: true; data: T; etag: string | null }> {
+  async getIfChanged<T>(
+    url: string,
+    etag: string | null,
+    options: PlainOptions = {},
+  ): Promise<{ changed: false } | { changed: true; data: T; etag: string | null }> {
     const res = await fetchAnswer(url, { ...options, headers: etag ? { "if-none-match": etag } : {} });
     if (res instanceof ApiClientError) throw res;
     if (res.status === 304) return { changed: false };

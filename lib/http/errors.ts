@@ -56,7 +56,9 @@ export function apiTranslator(locale: Locale) {
 type Catalogue = (typeof catalogues)["en"];
 /** A namespace of message keys that schemas may use as their zod messages, e.g. "Setup.errors". */
 export type MessageKeys = {
-  [N in keyof Catalogue & string]: { [M in keyof Catalogue[N] & string]: Catalogue[N][M] extends Record<string, string> ? `${N}.${M}` : never }[keyof Catalogue[N] & string];
+  [N in keyof Catalogue & string]: {
+    [M in keyof Catalogue[N] & string]: Catalogue[N][M] extends Record<string, string> ? `${N}.${M}` : never;
+  }[keyof Catalogue[N] & string];
 }[keyof Catalogue & string];
 
 function keyedMessage(namespace: MessageKeys | undefined, message: string, locale: Locale): string | null {
@@ -75,7 +77,9 @@ const EXPECTED = new Set<string>(["int", "number", "boolean", "string", "array",
  * cannot be stored (NUL), 400 for every other shape problem; each problem names its field.
  */
 export function zodApiError(error: z.ZodError, locale: Locale, messages?: MessageKeys): ApiError {
-  const code = error.issues.some((i) => i.code === "custom" && i.message === NUL_ISSUE) ? "unprocessable" : "bad_request";
+  const code = error.issues.some((i) => i.code === "custom" && i.message === NUL_ISSUE)
+    ? "unprocessable"
+    : "bad_request";
   return new ApiError(code, zodFieldProblems(error, locale, messages));
 }
 
@@ -89,18 +93,31 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale, messages?: M
   return error.issues.map((issue) => {
     const at = issue.path.map(String);
     // An unknown key is named as the field itself, so the caller sees which one to drop.
-    const field = issue.code === "unrecognized_keys" ? [...at, issue.keys.join(",")].join(".") : at.length ? at.join(".") : "(body)";
+    const field =
+      issue.code === "unrecognized_keys"
+        ? [...at, issue.keys.join(",")].join(".")
+        : at.length
+          ? at.join(".")
+          : "(body)";
     const keyed = keyedMessage(messages, issue.message, locale);
     if (keyed !== null) return { field, message: keyed };
     let message: string;
     switch (issue.code) {
       case "invalid_type": {
         // Zod 4 leaves the input out of its issues; its own message still says what arrived.
-        const received = "input" in issue ? (issue.input === null ? "null" : typeof issue.input) : /received (\w+)/.exec(issue.message)?.[1];
+        const received =
+          "input" in issue
+            ? issue.input === null
+              ? "null"
+              : typeof issue.input
+            : /received (\w+)/.exec(issue.message)?.[1];
         const expected = String(issue.expected);
-        message = received === "undefined" ? t("field.required")
-          : EXPECTED.has(expected) ? t(`field.expected.${expected as Expected}`)
-          : t("field.wrongType", { expected });
+        message =
+          received === "undefined"
+            ? t("field.required")
+            : EXPECTED.has(expected)
+              ? t(`field.expected.${expected as Expected}`)
+              : t("field.wrongType", { expected });
         break;
       }
       case "too_small":
@@ -127,11 +144,10 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale, messages?: M
 
 export function errorResponse(error: ApiError, locale: Locale): Response {
   const t = apiTranslator(locale);
-  const body: ApiErrorBody = { error: { code: error.code, message: t(`code.${error.code}`, error.values), fields: error.fields } };
-  return Response.json(
-    body,
-    { status: errorStatus[error.code], headers: { "Cache-Control": "no-store" } },
-  );
+  const body: ApiErrorBody = {
+    error: { code: error.code, message: t(`code.${error.code}`, error.values), fields: error.fields },
+  };
+  return Response.json(body, { status: errorStatus[error.code], headers: { "Cache-Control": "no-store" } });
 }
 
 /**

@@ -10,22 +10,34 @@ const params = (p: Record<string, string>) => Promise.resolve(p);
 describe("path parameters", () => {
   it("takes a uuid (any case, given back lower-case) and a report version", async () => {
     const id = "5B7C8F0E-2D1A-4C3B-9E8F-7A6B5C4D3E2F";
-    expect(await parseParams(params({ eventId: id, version: "12" }), { eventId: pathId, version: pathVersion })).toEqual({ eventId: id.toLowerCase(), version: 12 });
+    expect(
+      await parseParams(params({ eventId: id, version: "12" }), { eventId: pathId, version: pathVersion }),
+    ).toEqual({ eventId: id.toLowerCase(), version: 12 });
   });
 
-  it.each(["-".repeat(36), "0".repeat(36), "5b7c8f0e-2d1a-4c3b-9e8f-7a6b5c4d3e2", "5b7c8f0e-2d1a-4c3b-9e8f-7a6b5c4d3e2g", "'; DROP TABLE x; --", ""])(
-    "answers 404 for the malformed id %j", async (bad) => {
-      const err = await parseParams(params({ eventId: bad }), { eventId: pathId }).catch((e: unknown) => e);
-      expect(err).toBeInstanceOf(ApiError);
-      expect((err as ApiError).code).toBe("not_found");
-    });
+  it.each([
+    "-".repeat(36),
+    "0".repeat(36),
+    "5b7c8f0e-2d1a-4c3b-9e8f-7a6b5c4d3e2",
+    "5b7c8f0e-2d1a-4c3b-9e8f-7a6b5c4d3e2g",
+    "'; DROP TABLE x; --",
+    "",
+  ])("answers 404 for the malformed id %j", async (bad) => {
+    const err = await parseParams(params({ eventId: bad }), { eventId: pathId }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ApiError);
+    expect((err as ApiError).code).toBe("not_found");
+  });
 
   it.each(["0", "-1", "1.5", "01", "1000001", "1e3"])("answers 404 for the report version %j", async (bad) => {
-    await expect(parseParams(params({ version: bad }), { version: pathVersion })).rejects.toMatchObject({ code: "not_found" });
+    await expect(parseParams(params({ version: bad }), { version: pathVersion })).rejects.toMatchObject({
+      code: "not_found",
+    });
   });
 
   it("checks only the parameters named (a file name keeps its own enum)", async () => {
-    await expect(parseParams(params({ file: "other.txt" }), { file: z.enum(["species.csv"]) })).rejects.toMatchObject({ code: "not_found" });
+    await expect(parseParams(params({ file: "other.txt" }), { file: z.enum(["species.csv"]) })).rejects.toMatchObject({
+      code: "not_found",
+    });
   });
 });
 

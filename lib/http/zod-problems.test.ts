@@ -15,10 +15,18 @@ describe("refused input names the field and says what was expected", () => {
   it("a NUL in a decision's message is a 422 naming the field", () => {
     const { error } = problems(decisionInput, { action: "approve", version: 1, message: "ok\u0000" });
     expect(errorStatus[error.code]).toBe(422);
-    expect(error.fields).toEqual([{ field: "message", message: "Contains a character that cannot be stored (NUL, U+0000). Remove it and send again." }]);
+    expect(error.fields).toEqual([
+      {
+        field: "message",
+        message: "Contains a character that cannot be stored (NUL, U+0000). Remove it and send again.",
+      },
+    ]);
     const ret = problems(decisionInput, { action: "return", version: 1, message: "what is\u0000 this?" }, "es");
     expect(errorStatus[ret.error.code]).toBe(422);
-    expect(ret.error.fields[0]).toMatchObject({ field: "message", message: expect.stringMatching(/^Contiene un carácter/) });
+    expect(ret.error.fields[0]).toMatchObject({
+      field: "message",
+      message: expect.stringMatching(/^Contiene un carácter/),
+    });
   });
 
   it("a NUL in the taxa search or in a synced sighting's notes is refused naming the field", () => {
@@ -26,27 +34,59 @@ describe("refused input names the field and says what was expected", () => {
     expect(q.error.code).toBe("unprocessable");
     expect(q.error.fields[0]).toMatchObject({ field: "q", message: expect.stringMatching(/^Contient un caractère/) });
     const record = {
-      id: crypto.randomUUID(), sessionId: null, taxonId: crypto.randomUUID(), description: "", count: 1, countIsEstimate: false,
-      observedAt: "2026-06-20T10:00:00Z", latitude: 52, longitude: -1, accuracyM: 5, zoneId: null, notes: "by the gate\u0000",
+      id: crypto.randomUUID(),
+      sessionId: null,
+      taxonId: crypto.randomUUID(),
+      description: "",
+      count: 1,
+      countIsEstimate: false,
+      observedAt: "2026-06-20T10:00:00Z",
+      latitude: 52,
+      longitude: -1,
+      accuracyM: 5,
+      zoneId: null,
+      notes: "by the gate\u0000",
     };
-    expect(problems(sightingRecord, record).fields).toEqual([{ field: "notes", message: expect.stringMatching(/NUL/) }]);
-    expect(problems(sightingRecord, { ...record, notes: "", description: "\u0000" }).fields[0]!.field).toBe("description");
+    expect(problems(sightingRecord, record).fields).toEqual([
+      { field: "notes", message: expect.stringMatching(/NUL/) },
+    ]);
+    expect(problems(sightingRecord, { ...record, notes: "", description: "\u0000" }).fields[0]!.field).toBe(
+      "description",
+    );
   });
 
   it("wrong types say what was expected instead of 'required'", () => {
     const wrong = problems(decisionInput, { action: "approve", version: "3" });
     expect(wrong.error.code).toBe("bad_request");
     expect(wrong.fields).toEqual([{ field: "version", message: "Expected a number." }]);
-    expect(problems(decisionInput, { action: "approve", version: 1.5 }).fields[0]!.message).toBe("Expected a whole number.");
-    const record = { id: crypto.randomUUID(), sessionId: null, taxonId: null, description: "a bird", count: 1, countIsEstimate: "yes",
-      observedAt: "2026-06-20T10:00:00Z", latitude: "52", longitude: -1, accuracyM: 5, zoneId: null };
+    expect(problems(decisionInput, { action: "approve", version: 1.5 }).fields[0]!.message).toBe(
+      "Expected a whole number.",
+    );
+    const record = {
+      id: crypto.randomUUID(),
+      sessionId: null,
+      taxonId: null,
+      description: "a bird",
+      count: 1,
+      countIsEstimate: "yes",
+      observedAt: "2026-06-20T10:00:00Z",
+      latitude: "52",
+      longitude: -1,
+      accuracyM: 5,
+      zoneId: null,
+    };
     const fields = problems(sightingRecord, record).fields;
     expect(fields).toContainEqual({ field: "countIsEstimate", message: "Expected true or false." });
     expect(fields).toContainEqual({ field: "latitude", message: "Expected a number." });
-    expect(problems(taxaQuery, { q: ["a", "b"] }, "es").fields[0]).toEqual({ field: "q", message: "Se esperaba texto." });
+    expect(problems(taxaQuery, { q: ["a", "b"] }, "es").fields[0]).toEqual({
+      field: "q",
+      message: "Se esperaba texto.",
+    });
   });
 
   it("a missing field is still 'required'", () => {
-    expect(problems(decisionInput, { action: "approve" }).fields).toEqual([{ field: "version", message: "This field is required." }]);
+    expect(problems(decisionInput, { action: "approve" }).fields).toEqual([
+      { field: "version", message: "This field is required." },
+    ]);
   });
 });

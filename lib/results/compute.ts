@@ -2,8 +2,12 @@
 // complete count session). Pure: no database, no framework, so a report can be
 // re-computed from its recorded inputs anywhere and give the same numbers.
 import {
-  compareZones, diversityResults, ENGINE_VERSION,
-  type AbundanceStats, type CurvePoint, type IncidenceStats,
+  compareZones,
+  diversityResults,
+  ENGINE_VERSION,
+  type AbundanceStats,
+  type CurvePoint,
+  type IncidenceStats,
 } from "@/lib/diversity/index";
 import type { Sensitivity } from "@/lib/domain";
 
@@ -61,11 +65,26 @@ export type Results = {
 
 /** The engine's results for one block; each complete session goes in as its list of taxa (presence). */
 function block(counts: number[], sessionTaxa: number[][]): Block {
-  const r = diversityResults({ counts, unitLists: sessionTaxa.length ? sessionTaxa : undefined, curvePoints: CURVE_POINTS });
-  return { abundance: r.abundance, incidence: r.incidence, rarefaction: r.rarefactionCurve, accumulation: r.accumulationCurve };
+  const r = diversityResults({
+    counts,
+    unitLists: sessionTaxa.length ? sessionTaxa : undefined,
+    curvePoints: CURVE_POINTS,
+  });
+  return {
+    abundance: r.abundance,
+    incidence: r.incidence,
+    rarefaction: r.rarefactionCurve,
+    accumulation: r.accumulationCurve,
+  };
 }
 
-const atEffort = (p: CurvePoint): AtEffort => ({ richness: p.richness, lower: p.lower, upper: p.upper, size: p.size, kind: p.kind });
+const atEffort = (p: CurvePoint): AtEffort => ({
+  richness: p.richness,
+  lower: p.lower,
+  upper: p.upper,
+  size: p.size,
+  kind: p.kind,
+});
 
 /** Plain-language comparisons: each edge zone against each interior zone, at equal coverage. */
 function sentences(zones: Comparison["zones"]): ComparisonSentence[] {
@@ -97,8 +116,17 @@ export function computeResults(input: ResultsInput): Results {
     const row = byZone[c.taxon]!;
     row[c.zoneId] = (row[c.zoneId] ?? 0) + c.individuals;
   }
-  const event = block(total, input.sessions.map((s) => s.taxa));
-  const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...block(perZone.get(z.id)!, input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa)) }));
+  const event = block(
+    total,
+    input.sessions.map((s) => s.taxa),
+  );
+  const zones: ZoneResult[] = input.zones.map((z) => ({
+    ...z,
+    ...block(
+      perZone.get(z.id)!,
+      input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
+    ),
+  }));
 
   let comparison: Comparison | null = null;
   const sampled = input.zones.filter((z) => perZone.get(z.id)!.some((v) => v > 0));
@@ -106,8 +134,18 @@ export function computeResults(input: ResultsInput): Results {
     // Chao & Jost (2012) coverage-based and Colwell et al. (2012) size-based comparison;
     // the common size is the smallest zone's sample, so no zone is extrapolated by size.
     const size = Math.min(...sampled.map((z) => perZone.get(z.id)!.reduce((a, b) => a + b, 0)));
-    const c = compareZones({ kind: "abundance", zones: Object.fromEntries(sampled.map((z) => [z.id, perZone.get(z.id)!])), size });
-    const rows = sampled.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat, atSize: atEffort(c.zones[z.id]!.atSize), atCoverage: atEffort(c.zones[z.id]!.atCoverage) }));
+    const c = compareZones({
+      kind: "abundance",
+      zones: Object.fromEntries(sampled.map((z) => [z.id, perZone.get(z.id)!])),
+      size,
+    });
+    const rows = sampled.map((z) => ({
+      id: z.id,
+      name: z.name,
+      habitat: z.habitat,
+      atSize: atEffort(c.zones[z.id]!.atSize),
+      atCoverage: atEffort(c.zones[z.id]!.atCoverage),
+    }));
     comparison = { size: c.size, coverage: c.coverage, zones: rows, sentences: sentences(rows) };
   }
 
@@ -118,7 +156,11 @@ export function computeResults(input: ResultsInput): Results {
 
   return {
     engineVersion: ENGINE_VERSION,
-    totals: { individuals: event.abundance.individuals, species: event.abundance.observed, completeSessions: input.sessions.length },
+    totals: {
+      individuals: event.abundance.individuals,
+      species: event.abundance.observed,
+      completeSessions: input.sessions.length,
+    },
     event,
     zones,
     comparison,
@@ -130,7 +172,9 @@ export function computeResults(input: ResultsInput): Results {
 export function canonicalJson(value: unknown): string {
   return JSON.stringify(value, (_k, v: unknown) =>
     v && typeof v === "object" && !Array.isArray(v)
-      ? Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)))
+      ? Object.fromEntries(
+          Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)),
+        )
       : v,
   );
 }

@@ -12,11 +12,26 @@ describe("formula injection in the published CSV and TSV files", () => {
     const label = JSON.stringify(c);
 
     it(`species.csv neutralises text cells beginning with ${label} and leaves numbers alone`, () => {
-      const taxa: ResultsTaxon[] = [{ id: "t1", scientificName: payload(c), rank: "species", group: "insects", sensitivity: "open", names: { en: payload(c) } }];
+      const taxa: ResultsTaxon[] = [
+        {
+          id: "t1",
+          scientificName: payload(c),
+          rank: "species",
+          group: "insects",
+          sensitivity: "open",
+          names: { en: payload(c) },
+        },
+      ];
       const zones = [{ id: "z1", name: payload(c), habitat: "edge" }];
       const records: InputRecord[] = [["00000000-0000-0000-0000-000000000001", "approved", "t1", 3, "z1", null, null]];
-      const csv = speciesCsv(computeResults(inputFromRecords(records, zones, new Map(taxa.map((t) => [t.id, t])))), "en");
-      const cells = csv.split("\r\n").flatMap((line) => line.split(/,(?=(?:[^"]*"[^"]*")*[^"]*$)/)).map((cell) => cell.replace(/^"/, ""));
+      const csv = speciesCsv(
+        computeResults(inputFromRecords(records, zones, new Map(taxa.map((t) => [t.id, t])))),
+        "en",
+      );
+      const cells = csv
+        .split("\r\n")
+        .flatMap((line) => line.split(/,(?=(?:[^"]*"[^"]*")*[^"]*$)/))
+        .map((cell) => cell.replace(/^"/, ""));
       // No cell (quoted or not) starts with a formula character any more.
       for (const cell of cells) expect(cell).not.toMatch(/^[=+\-@\t\r]/);
       expect(csv).toContain(`'${c}HYPERLINK`);
@@ -26,8 +41,16 @@ describe("formula injection in the published CSV and TSV files", () => {
 
     it(`occurrence.txt neutralises text cells beginning with ${label}; negative coordinates stay numbers`, () => {
       const row: Located = {
-        id: "00000000-0000-0000-0000-000000000001", eventDate: "2026-06-20T10:00:00.000Z", scientificName: payload(c), taxonRank: "species",
-        vernacularName: payload(c), individualCount: 2, lon: -1.25, lat: 52.5, uncertaintyM: 10, generalised: false,
+        id: "00000000-0000-0000-0000-000000000001",
+        eventDate: "2026-06-20T10:00:00.000Z",
+        scientificName: payload(c),
+        taxonRank: "species",
+        vernacularName: payload(c),
+        individualCount: 2,
+        lon: -1.25,
+        lat: 52.5,
+        uncertaintyM: 10,
+        generalised: false,
       };
       const txt = occurrenceTxt([row], payload(c));
       const fields = txt.split("\n")[1]!.split("\t");
@@ -43,9 +66,19 @@ describe("formula injection in the published CSV and TSV files", () => {
 
   it("leaves ordinary text as it was", () => {
     const row: Located = {
-      id: "00000000-0000-0000-0000-000000000002", eventDate: "2026-06-20T10:00:00.000Z", scientificName: "Orchis mascula", taxonRank: "species",
-      vernacularName: "Early-purple orchid", individualCount: 1, lon: 0.5, lat: 52.5, uncertaintyM: 10, generalised: false,
+      id: "00000000-0000-0000-0000-000000000002",
+      eventDate: "2026-06-20T10:00:00.000Z",
+      scientificName: "Orchis mascula",
+      taxonRank: "species",
+      vernacularName: "Early-purple orchid",
+      individualCount: 1,
+      lon: 0.5,
+      lat: 52.5,
+      uncertaintyM: 10,
+      generalised: false,
     };
-    expect(occurrenceTxt([row], "Count").split("\n")[1]).toContain("\tOrchis mascula\tspecies\tEarly-purple orchid\t1\t");
+    expect(occurrenceTxt([row], "Count").split("\n")[1]).toContain(
+      "\tOrchis mascula\tspecies\tEarly-purple orchid\t1\t",
+    );
   });
 });

@@ -3,7 +3,17 @@
 import { abundanceStats } from "@/lib/diversity/index";
 import type { ResultsInput } from "./compute";
 
-export type ZoneLead = { id: string; name: string; habitat: string; observed: number; chao1: number; undetected: number; coverage: number; coverageDeficit: number; individuals: number };
+export type ZoneLead = {
+  id: string;
+  name: string;
+  habitat: string;
+  observed: number;
+  chao1: number;
+  undetected: number;
+  coverage: number;
+  coverageDeficit: number;
+  individuals: number;
+};
 
 export type Completeness = ReturnType<typeof completeness>;
 
@@ -21,12 +31,30 @@ export function completeness(input: ResultsInput) {
   const zones: ZoneLead[] = input.zones.map((z) => {
     const s = abundanceStats(per.get(z.id)!, opts);
     const chao1 = s.chao1Classic.estimate;
-    return { ...z, observed: s.observed, chao1, undetected: Math.max(0, chao1 - s.observed), coverage: s.coverage, coverageDeficit: 1 - s.coverage, individuals: s.individuals };
+    return {
+      ...z,
+      observed: s.observed,
+      chao1,
+      undetected: Math.max(0, chao1 - s.observed),
+      coverage: s.coverage,
+      coverageDeficit: 1 - s.coverage,
+      individuals: s.individuals,
+    };
   });
   // Unsampled zones first, then the largest coverage deficit, then the most undetected species.
-  zones.sort((a, b) => (a.individuals === 0 ? -1 : 0) - (b.individuals === 0 ? -1 : 0) || b.coverageDeficit - a.coverageDeficit || b.undetected - a.undetected);
+  zones.sort(
+    (a, b) =>
+      (a.individuals === 0 ? -1 : 0) - (b.individuals === 0 ? -1 : 0) ||
+      b.coverageDeficit - a.coverageDeficit ||
+      b.undetected - a.undetected,
+  );
   return {
-    observed: ev.observed, chao1: ev.chao1Classic.estimate, chao1Lower: ev.chao1Classic.lower, chao1Upper: ev.chao1Classic.upper,
-    share: ev.chao1Classic.estimate > 0 ? ev.observed / ev.chao1Classic.estimate : 0, coverage: ev.coverage, zones,
+    observed: ev.observed,
+    chao1: ev.chao1Classic.estimate,
+    chao1Lower: ev.chao1Classic.lower,
+    chao1Upper: ev.chao1Classic.upper,
+    share: ev.chao1Classic.estimate > 0 ? ev.observed / ev.chao1Classic.estimate : 0,
+    coverage: ev.coverage,
+    zones,
   };
 }

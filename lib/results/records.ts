@@ -13,7 +13,8 @@ export type InputRecord = [string, string, string, number, string, string | null
 /** sha256 over the records sorted by sighting id, one JSON array per line. */
 export function inputHash(records: readonly InputRecord[]): string {
   const h = createHash("sha256");
-  for (const r of [...records].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0))) h.update(`${JSON.stringify(r)}\n`);
+  for (const r of [...records].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0)))
+    h.update(`${JSON.stringify(r)}\n`);
   return h.digest("hex");
 }
 
@@ -51,7 +52,9 @@ export function inputFromRecords(
     zones,
     taxa,
     counts: [...counts.values()],
-    sessions: [...sessions.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([, s]) => ({ zoneId: s.zoneId, taxa: [...s.taxa].sort((a, b) => a - b) })),
+    sessions: [...sessions.entries()]
+      .sort(([a], [b]) => (a < b ? -1 : 1))
+      .map(([, s]) => ({ zoneId: s.zoneId, taxa: [...s.taxa].sort((a, b) => a - b) })),
   };
 }
 
@@ -89,10 +92,21 @@ export function diffRecords(
   const taxaAfter = new Set(after.map((r) => r[2]));
   const sum = (rs: readonly InputRecord[]) => rs.reduce((s, r) => s + r[3], 0);
   return {
-    previousVersion, added, removed, changed,
-    speciesBefore: taxaBefore.size, speciesAfter: taxaAfter.size,
-    individualsBefore: sum(before), individualsAfter: sum(after),
-    newTaxa: [...taxaAfter].filter((t) => !taxaBefore.has(t)).map(nameOf).sort(),
-    lostTaxa: [...taxaBefore].filter((t) => !taxaAfter.has(t)).map(nameOf).sort(),
+    previousVersion,
+    added,
+    removed,
+    changed,
+    speciesBefore: taxaBefore.size,
+    speciesAfter: taxaAfter.size,
+    individualsBefore: sum(before),
+    individualsAfter: sum(after),
+    newTaxa: [...taxaAfter]
+      .filter((t) => !taxaBefore.has(t))
+      .map(nameOf)
+      .sort(),
+    lostTaxa: [...taxaBefore]
+      .filter((t) => !taxaAfter.has(t))
+      .map(nameOf)
+      .sort(),
   };
 }

@@ -10,7 +10,9 @@ import { isRealLocalDateTime, plainText } from "@/lib/validation/text";
 const localDateTime = z.string().refine(isRealLocalDateTime, { error: "dateTime" });
 
 export const eventFields = z.object({
-  name: plainText(120).transform((v) => v.trim()).refine((v) => v.length > 0, { error: "required" }),
+  name: plainText(120)
+    .transform((v) => v.trim())
+    .refine((v) => v.length > 0, { error: "required" }),
   description: plainText(2000),
   startsLocal: localDateTime,
   endsLocal: localDateTime,
@@ -19,12 +21,22 @@ export const eventFields = z.object({
   sessionKinds: z.array(z.enum(SESSION_KINDS)).min(1, { error: "pickOne" }).max(SESSION_KINDS.length),
   photoRequiredSensitive: z.boolean(),
   photoRequiredOffList: z.boolean(),
-  accuracyLimitM: z.number({ error: "number" }).int({ error: "number" }).min(1, { error: "accuracyRange" }).max(10_000, { error: "accuracyRange" }),
+  accuracyLimitM: z
+    .number({ error: "number" })
+    .int({ error: "number" })
+    .min(1, { error: "accuracyRange" })
+    .max(10_000, { error: "accuracyRange" }),
 });
 
 export const endsAfterStarts = (v: { startsLocal: string; endsLocal: string }) => v.endsLocal > v.startsLocal;
 
-export const createEventInput = eventFields.extend({
-  slug: z.string().max(80, { error: "tooLong" }).regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, { error: "slug" }),
-}).strict().refine(endsAfterStarts, { error: "endsBeforeStart", path: ["endsLocal"] });
+export const createEventInput = eventFields
+  .extend({
+    slug: z
+      .string()
+      .max(80, { error: "tooLong" })
+      .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, { error: "slug" }),
+  })
+  .strict()
+  .refine(endsAfterStarts, { error: "endsBeforeStart", path: ["endsLocal"] });
 export type CreateEventInput = z.infer<typeof createEventInput>;

@@ -11,9 +11,20 @@ export type SyncOutcome = "created" | "already_had" | "updated" | "refused";
  * codes; the handler translates each into FieldSync.reason.<code> in the person's language.
  */
 export const REFUSAL_CODES = [
-  "event_not_open", "unknown_taxon", "unknown_zone", "kind_not_allowed", "ends_before_start", "complete_needs_end",
-  "unknown_session", "description_required", "future_time", "id_taken", "changed_after_send", "not_returned",
-  "stale_version", "store_failed",
+  "event_not_open",
+  "unknown_taxon",
+  "unknown_zone",
+  "kind_not_allowed",
+  "ends_before_start",
+  "complete_needs_end",
+  "unknown_session",
+  "description_required",
+  "future_time",
+  "id_taken",
+  "changed_after_send",
+  "not_returned",
+  "stale_version",
+  "store_failed",
 ] as const;
 export type RefusalCode = (typeof REFUSAL_CODES)[number];
 

@@ -4,10 +4,22 @@ import type { ReviewState } from "./records";
 // their review states: the field log's "sent" list. Built by db/queries/my-sightings.ts.
 
 export type MySighting = {
-  id: string; version: number; reviewState: ReviewState;
-  taxonId: string | null; scientificName: string | null; description: string; count: number; countIsEstimate: boolean;
-  observedAt: string; latitude: number; longitude: number; accuracyM: number; zoneId: string | null; sessionId: string | null;
-  notes: string; photoIds: string[];
+  id: string;
+  version: number;
+  reviewState: ReviewState;
+  taxonId: string | null;
+  scientificName: string | null;
+  description: string;
+  count: number;
+  countIsEstimate: boolean;
+  observedAt: string;
+  latitude: number;
+  longitude: number;
+  accuracyM: number;
+  zoneId: string | null;
+  sessionId: string | null;
+  notes: string;
+  photoIds: string[];
   question: string | null; // the latest message of a decision to 'returned', while the sighting is returned
   rejectionReason: string | null; // the reason of the latest decision to 'rejected', while it is rejected
   updatedAt: string;

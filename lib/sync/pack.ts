@@ -6,7 +6,9 @@ import type { ArealGeometry, ZoneFeature as ArealZoneFeature } from "@/lib/geo/a
 
 export type { ArealGeometry } from "@/lib/geo/areal";
 /** A zone as the pack carries it: the shared areal feature, always with its description. */
-export type ZoneFeature = Omit<ArealZoneFeature, "properties"> & { properties: { name: string; habitat: Habitat; description: string } };
+export type ZoneFeature = Omit<ArealZoneFeature, "properties"> & {
+  properties: { name: string; habitat: Habitat; description: string };
+};
 export type ZoneCollection = { type: "FeatureCollection"; features: ZoneFeature[] };
 
 export type PackSpecies = {
@@ -21,8 +23,15 @@ export type PackSpecies = {
 
 export type EventPack = {
   event: {
-    id: string; name: string; status: EventStatus; startsAt: string; endsAt: string; timeZone: string;
-    languages: string[]; sessionKinds: string[]; accuracyLimitM: number;
+    id: string;
+    name: string;
+    status: EventStatus;
+    startsAt: string;
+    endsAt: string;
+    timeZone: string;
+    languages: string[];
+    sessionKinds: string[];
+    accuracyLimitM: number;
     photoRules: { requiredForSensitive: boolean; requiredOffList: boolean };
     area: ArealGeometry | null;
   };

@@ -18,43 +18,54 @@ export type { ReviewState };
 const isoInstant = z.iso.datetime({ offset: true });
 const text = (max: number) => freeText().max(max).default(""); // no NUL: PostgreSQL text cannot hold it
 
-export const sessionRecord = z.object({
-  id: z.uuid(),
-  zoneId: z.uuid().nullable(),
-  kind: z.enum(SESSION_KINDS),
-  startedAt: isoInstant,
-  endedAt: isoInstant.nullable(),
-  allSpeciesNoted: z.boolean(), // only true once ended: "all species noted"
-  distanceM: z.number().finite().min(0).max(100_000).nullable(), // walks
-  notes: text(2000),
-}).strict();
+export const sessionRecord = z
+  .object({
+    id: z.uuid(),
+    zoneId: z.uuid().nullable(),
+    kind: z.enum(SESSION_KINDS),
+    startedAt: isoInstant,
+    endedAt: isoInstant.nullable(),
+    allSpeciesNoted: z.boolean(), // only true once ended: "all species noted"
+    distanceM: z.number().finite().min(0).max(100_000).nullable(), // walks
+    notes: text(2000),
+  })
+  .strict();
 export type SessionRecord = z.infer<typeof sessionRecord>;
 
-export const sightingRecord = z.object({
-  id: z.uuid(),
-  sessionId: z.uuid().nullable(),
-  taxonId: z.uuid().nullable(), // null: unidentified, then description is required
-  description: text(2000),
-  count: z.number().int().min(1).max(1_000_000),
-  countIsEstimate: z.boolean(), // "about"
-  observedAt: isoInstant,
-  latitude: z.number().finite().min(-90).max(90),
-  longitude: z.number().finite().min(-180).max(180),
-  accuracyM: z.number().finite().min(0).max(100_000),
-  zoneId: z.uuid().nullable(), // the device's guess (point in polygon); the server decides with PostGIS
-  notes: text(2000),
-  photoIds: z.array(z.uuid()).max(10).default([]), // photos follow through the photo handlers
-  // A returned sighting edited and resent: the version the volunteer edited and their answer.
-  answer: z.object({ toVersion: z.number().int().min(1), message: freeText().min(1).max(2000) }).strict().optional(),
-}).strict();
+export const sightingRecord = z
+  .object({
+    id: z.uuid(),
+    sessionId: z.uuid().nullable(),
+    taxonId: z.uuid().nullable(), // null: unidentified, then description is required
+    description: text(2000),
+    count: z.number().int().min(1).max(1_000_000),
+    countIsEstimate: z.boolean(), // "about"
+    observedAt: isoInstant,
+    latitude: z.number().finite().min(-90).max(90),
+    longitude: z.number().finite().min(-180).max(180),
+    accuracyM: z.number().finite().min(0).max(100_000),
+    zoneId: z.uuid().nullable(), // the device's guess (point in polygon); the server decides with PostGIS
+    notes: text(2000),
+    photoIds: z.array(z.uuid()).max(10).default([]), // photos follow through the photo handlers
+    // A returned sighting edited and resent: the version the volunteer edited and their answer.
+    answer: z
+      .object({ toVersion: z.number().int().min(1), message: freeText().min(1).max(2000) })
+      .strict()
+      .optional(),
+  })
+  .strict();
 export type SightingRecord = z.infer<typeof sightingRecord>;
 
-export const syncBatch = z.object({
-  sessions: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
-  sightings: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
-}).strict().refine((b) => b.sessions.length + b.sightings.length <= MAX_BATCH_RECORDS, {
-  message: "too_many_records", path: ["sightings"],
-});
+export const syncBatch = z
+  .object({
+    sessions: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
+    sightings: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
+  })
+  .strict()
+  .refine((b) => b.sessions.length + b.sightings.length <= MAX_BATCH_RECORDS, {
+    message: "too_many_records",
+    path: ["sightings"],
+  });
 // Records are arrays of unknown at the batch level on purpose: each record is parsed on its
 // own with sessionRecord / sightingRecord, so one bad record never refuses its neighbours.
 export type SyncBatch = z.infer<typeof syncBatch>;

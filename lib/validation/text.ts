@@ -10,7 +10,8 @@ export const NUL_ISSUE = "invalidChar";
 /** Any free text: a string with no U+0000 (chain .trim(), .min(), .max() after it). */
 export const freeText = () => z.string().refine(hasNoNul, { error: NUL_ISSUE });
 
-export const plainText = (max: number) => z.string().max(max, { error: "tooLong" }).refine(hasNoNul, { error: NUL_ISSUE });
+export const plainText = (max: number) =>
+  z.string().max(max, { error: "tooLong" }).refine(hasNoNul, { error: NUL_ISSUE });
 
 /** "YYYY-MM-DDTHH:mm" that names a real day and time (no 30 February, no 25:61). */
 export function isRealLocalDateTime(s: string): boolean {

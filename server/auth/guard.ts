@@ -58,6 +58,7 @@ export async function eventPermitFor(user: SessionUser, eventId: string, minimum
 export async function requireOrganisationOrganiser(organisationId: string): Promise<SessionUser> {
   const user = await requireUser();
   if (user.isAdmin) return user;
-  if (!isUuid(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId))) throw new ApiError("forbidden");
+  if (!isUuid(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId)))
+    throw new ApiError("forbidden");
   return user;
 }

@@ -13,7 +13,11 @@ export function hashVerificationToken(token: string): string {
 
 export async function createMagicLink(email: string, callbackPath: string, maxAgeSeconds: number): Promise<string> {
   const token = randomBytes(32).toString("hex");
-  await storeVerificationToken(email.toLowerCase(), hashVerificationToken(token), new Date(Date.now() + maxAgeSeconds * 1000));
+  await storeVerificationToken(
+    email.toLowerCase(),
+    hashVerificationToken(token),
+    new Date(Date.now() + maxAgeSeconds * 1000),
+  );
   const base = env().APP_URL;
   const callbackUrl = safeCallbackPath(callbackPath, base) ?? "/";
   return confirmLink({ token, email: email.toLowerCase(), callbackUrl }, toLocale(callbackUrl.split("/")[1]));

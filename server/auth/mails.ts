@@ -24,7 +24,10 @@ export function noAccountMail(locale: Locale) {
   };
 }
 
-export function invitationMail(locale: Locale, opts: { url: string; eventName: string; role: string; inviter: string | null }) {
+export function invitationMail(
+  locale: Locale,
+  opts: { url: string; eventName: string; role: string; inviter: string | null },
+) {
   const t = translator(locale, "Mail");
   const intro = opts.inviter
     ? t("invitation.intro", { inviter: opts.inviter, event: opts.eventName, role: opts.role })
@@ -33,6 +36,11 @@ export function invitationMail(locale: Locale, opts: { url: string; eventName: s
   return {
     subject: t("invitation.subject", { event: opts.eventName }),
     text: `${paragraphs[0]}\n\n${opts.url}\n\n${paragraphs[1]}\n\n${t("footer")}`,
-    html: mailHtml({ lang: locale, paragraphs, action: { label: t("invitation.action"), url: opts.url }, footer: t("footer") }),
+    html: mailHtml({
+      lang: locale,
+      paragraphs,
+      action: { label: t("invitation.action"), url: opts.url },
+      footer: t("footer"),
+    }),
   };
 }

@@ -2,7 +2,14 @@ import "server-only";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import EmailProvider from "next-auth/providers/email";
-import { acceptPendingInvitations, authAdapter, bumpSessionVersion, findUserByEmail, hasPendingInvitation, sessionVersionOf } from "@/db/queries/auth";
+import {
+  acceptPendingInvitations,
+  authAdapter,
+  bumpSessionVersion,
+  findUserByEmail,
+  hasPendingInvitation,
+  sessionVersionOf,
+} from "@/db/queries/auth";
 import { safeCallbackPath } from "@/lib/auth/callback-url";
 import { env } from "@/lib/env";
 import { passwordSignInInput } from "@/lib/validation/sign-in";
@@ -43,7 +50,13 @@ export function authOptions(askedLocale?: ReturnType<typeof toLocale>): NextAuth
     adapter: authAdapter(),
     // Locale-free paths: the locale middleware sends each person to their own language.
     // next-auth's own HTML pages are never shown: each redirects to ours (our headers, our CSP).
-    pages: { signIn: "/sign-in", signOut: "/account", verifyRequest: "/sign-in/check-email", error: "/sign-in", newUser: "/account" },
+    pages: {
+      signIn: "/sign-in",
+      signOut: "/account",
+      verifyRequest: "/sign-in/check-email",
+      error: "/sign-in",
+      newUser: "/account",
+    },
     logger: {
       error(code, meta) {
         if (code === "JWT_SESSION_ERROR" && meta instanceof Error && meta.message === REVOKED) return; // an ended session: expected

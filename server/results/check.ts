@@ -4,13 +4,26 @@ import { canonicalJson, computeResults, type Results } from "@/lib/results/compu
 import { inputFromRecords, inputHash } from "@/lib/results/records";
 
 /** Re-computes a report from its recorded inputs alone and compares every number. */
-export async function checkReport(eventId: string, version: number): Promise<{ same: boolean; hashSame: boolean; recomputed: Results } | null> {
+export async function checkReport(
+  eventId: string,
+  version: number,
+): Promise<{ same: boolean; hashSame: boolean; recomputed: Results } | null> {
   const report = await getReport(eventId, version, { withInputs: true });
   if (!report) return null;
   const zones = report.results.zones.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat }));
-  const meta = new Map(report.results.species.map((s) => [s.id, {
-    id: s.id, scientificName: s.scientificName, rank: s.rank, group: s.group, sensitivity: s.sensitivity, names: s.names,
-  }]));
+  const meta = new Map(
+    report.results.species.map((s) => [
+      s.id,
+      {
+        id: s.id,
+        scientificName: s.scientificName,
+        rank: s.rank,
+        group: s.group,
+        sensitivity: s.sensitivity,
+        names: s.names,
+      },
+    ]),
+  );
   const recomputed = computeResults(inputFromRecords(report.inputRecords, zones, meta));
   return {
     same: canonicalJson(JSON.parse(canonicalJson(recomputed))) === canonicalJson(report.results),

@@ -30,21 +30,43 @@ export async function publishReport(eventId: string, userId: string): Promise<{ 
       ]);
       changes = diffRecords(prev.version, prev.inputRecords, records, (id) => names.get(id) ?? id);
     }
-    const id = await insertReport({
-      eventId, version, publishedBy: userId, engineVersion: results.engineVersion, inputHash: inputHash(records),
-      inputRecords: records, results: JSON.parse(canonicalJson(results)), methodNotes: METHOD_NOTES, changes,
-    }, tx);
+    const id = await insertReport(
+      {
+        eventId,
+        version,
+        publishedBy: userId,
+        engineVersion: results.engineVersion,
+        inputHash: inputHash(records),
+        inputRecords: records,
+        results: JSON.parse(canonicalJson(results)),
+        methodNotes: METHOD_NOTES,
+        changes,
+      },
+      tx,
+    );
     const people = await reportRecipients(eventId, tx);
-    await enqueueMail(people.map((p) => publishMail({ version, eventName: p.eventName, eventSlug: p.eventSlug }, p)), tx);
+    await enqueueMail(
+      people.map((p) => publishMail({ version, eventName: p.eventName, eventSlug: p.eventSlug }, p)),
+      tx,
+    );
     return { id, version };
   });
 }
 
 /** The e-mail every participant gets when a report version is published, in their language. */
-export function publishMail(report: { version: number; eventName: string; eventSlug: string }, person: { email: string; locale: string }): OutboxMail {
+export function publishMail(
+  report: { version: number; eventName: string; eventSlug: string },
+  person: { email: string; locale: string },
+): OutboxMail {
   const locale = toLocale(person.locale);
   const t = translator(locale, "Results");
   const link = `${env().APP_URL}/${locale}/events/${report.eventSlug}/reports/${report.version}`;
   const values = { event: report.eventName, version: report.version, link };
-  return { to: person.email, kind: "report_published", locale, subject: t("mail.subject", values), text: t("mail.text", values) };
+  return {
+    to: person.email,
+    kind: "report_published",
+    locale,
+    subject: t("mail.subject", values),
+    text: t("mail.text", values),
+  };
 }

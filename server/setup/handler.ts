@@ -28,11 +28,23 @@ type Write<T> = EventPermit & { input: T; locale: Locale };
 
 /** A setup write: an organiser of the event, within the write limit, with the body read by `schema` (none without it). */
 export async function requireSetupWritePermit(request: Request, eventId: string): Promise<Write<undefined>>;
-export async function requireSetupWritePermit<S extends z.ZodType>(request: Request, eventId: string, schema: S, options?: WriteOptions): Promise<Write<z.infer<S>>>;
-export async function requireSetupWritePermit(request: Request, eventId: string, schema?: z.ZodType, options: WriteOptions = {}): Promise<Write<unknown>> {
+export async function requireSetupWritePermit<S extends z.ZodType>(
+  request: Request,
+  eventId: string,
+  schema: S,
+  options?: WriteOptions,
+): Promise<Write<z.infer<S>>>;
+export async function requireSetupWritePermit(
+  request: Request,
+  eventId: string,
+  schema?: z.ZodType,
+  options: WriteOptions = {},
+): Promise<Write<unknown>> {
   const permit = await requireEventRole(eventId, "organiser");
   const [prefix, calls, windowMs] = options.limit ?? ["setup", 120, 60_000];
   limitWrites(`${prefix}:${permit.user.id}`, calls, windowMs);
-  const input = schema ? await parseJson(request, schema, { maxBytes: options.maxBytes, messages: "Setup.errors" }) : undefined;
+  const input = schema
+    ? await parseJson(request, schema, { maxBytes: options.maxBytes, messages: "Setup.errors" })
+    : undefined;
   return { ...permit, input, locale: requestLocale(request) };
 }

@@ -8,7 +8,14 @@ import type { CsvProblem } from "@/lib/species/csv";
 // The validation report of a setup upload (area and zones, species list): one translated
 // line per problem, naming the feature or the line of the file.
 
-export type ReportLine = { feature: number | null; line?: number; name?: string; field: string; code: string; message: string };
+export type ReportLine = {
+  feature: number | null;
+  line?: number;
+  name?: string;
+  field: string;
+  code: string;
+  message: string;
+};
 
 /** What a refused upload answers (422): the usual error body, plus the report for the page. */
 export type UploadReport<S> = ApiErrorBody & { report: ReportLine[]; saved: false; summary?: S };
@@ -39,8 +46,14 @@ export function csvReport(problems: CsvProblem[], locale: Locale): ReportLine[] 
 export function reportResponse<S>(report: ReportLine[], locale: Locale, summary?: S): Response {
   const t = apiTranslator(locale);
   const body: UploadReport<S> = {
-    error: { code: "unprocessable", message: t("code.unprocessable"), fields: report.map((r) => ({ field: r.field, message: r.message })) },
-    report, saved: false, ...(summary === undefined ? {} : { summary }),
+    error: {
+      code: "unprocessable",
+      message: t("code.unprocessable"),
+      fields: report.map((r) => ({ field: r.field, message: r.message })),
+    },
+    report,
+    saved: false,
+    ...(summary === undefined ? {} : { summary }),
   };
   return Response.json(body, { status: 422, headers: { "Cache-Control": "no-store" } });
 }

@@ -5,7 +5,13 @@ import { zodFieldProblems } from "@/lib/http/errors";
 import { translator } from "@/lib/i18n/translator";
 import type { Locale } from "@/lib/i18n/routing";
 import type { RecordRef, SyncAck } from "@/lib/sync/acks";
-import { sessionRecord, sightingRecord, type SessionRecord, type SightingRecord, type SyncBatch } from "@/lib/sync/records";
+import {
+  sessionRecord,
+  sightingRecord,
+  type SessionRecord,
+  type SightingRecord,
+  type SyncBatch,
+} from "@/lib/sync/records";
 
 // The sync handler's work after the guard (app/api/events/[eventId]/sync/route.ts): each
 // record of the batch is parsed on its own with the contract's schemas, the data layer
@@ -44,15 +50,42 @@ export async function answerBatch(caller: SyncCaller, batch: SyncBatch): Promise
   const t = translator(caller.locale, "FieldSync");
   const sessions = parseEach<SessionRecord>("session", batch.sessions, sessionRecord);
   const sightings = parseEach<SightingRecord>("sighting", batch.sightings, sightingRecord);
-  const stored = await ingestBatch({ userId: caller.userId, eventId: caller.eventId, sessions: sessions.good, sightings: sightings.good, now: caller.now });
+  const stored = await ingestBatch({
+    userId: caller.userId,
+    eventId: caller.eventId,
+    sessions: sessions.good,
+    sightings: sightings.good,
+    now: caller.now,
+  });
 
   const fromSchema = (u: Unparsed): SyncAck => {
     const [problem] = zodFieldProblems(u.error, caller.locale);
-    return { kind: u.kind, id: u.id, index: u.index, outcome: "refused", reason: problem?.message ?? t("reason.store_failed"), field: problem?.field ?? "(record)" };
+    return {
+      kind: u.kind,
+      id: u.id,
+      index: u.index,
+      outcome: "refused",
+      reason: problem?.message ?? t("reason.store_failed"),
+      field: problem?.field ?? "(record)",
+    };
   };
   const fromStore = (o: StoreOutcome): SyncAck => {
-    if (o.outcome === "refused") return { kind: o.kind, id: o.id, index: o.index, outcome: "refused", reason: t(`reason.${o.code}`, o.values ?? {}), field: o.field };
-    return { kind: o.kind, id: o.id, index: o.index, outcome: o.outcome, ...(o.reviewState ? { reviewState: o.reviewState } : {}) };
+    if (o.outcome === "refused")
+      return {
+        kind: o.kind,
+        id: o.id,
+        index: o.index,
+        outcome: "refused",
+        reason: t(`reason.${o.code}`, o.values ?? {}),
+        field: o.field,
+      };
+    return {
+      kind: o.kind,
+      id: o.id,
+      index: o.index,
+      outcome: o.outcome,
+      ...(o.reviewState ? { reviewState: o.reviewState } : {}),
+    };
   };
   const acks = [...sessions.bad.map(fromSchema), ...sightings.bad.map(fromSchema), ...stored.map(fromStore)];
   const order = (a: SyncAck) => (a.kind === "session" ? 0 : 1);

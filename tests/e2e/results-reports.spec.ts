@@ -7,7 +7,6 @@ import { DEMO, expect, signInWithPassword, test } from "./support";
 
 const SLUG = "harrowmere-vale-midsummer-count";
 
-
 /**
  * Setup helper: a coordinator approves one more sighting. The review desk is built on
  * another branch; until it lands, the decision is written straight to the database the
@@ -23,7 +22,10 @@ async function coordinatorApprovesOne(browser: Browser): Promise<void> {
   // (birds, a nettle outside the area, a daisy in the meadow) is among them.
   await desk.getByLabel("Taxon group").selectOption({ label: "Vascular plants" });
   await desk.getByLabel("Zone").selectOption({ label: "Millpond Margin" });
-  const rows = desk.getByRole("table", { name: "Queue" }).getByRole("row").filter({ has: desk.getByRole("cell") });
+  const rows = desk
+    .getByRole("table", { name: "Queue" })
+    .getByRole("row")
+    .filter({ has: desk.getByRole("cell") });
   await expect(rows.first()).toContainText("Vascular plants", { timeout: 20_000 });
   await expect(rows.first()).toContainText("Millpond Margin");
   await desk.getByRole("heading", { level: 1, name: "Review desk" }).click();
@@ -34,29 +36,47 @@ async function coordinatorApprovesOne(browser: Browser): Promise<void> {
   await context.close();
 }
 
-const latestVersion = () => withE2eDb(async (db) => {
-  const { rows } = await db.query<{ v: number }>("SELECT coalesce(max(version), 0)::int AS v FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1", [SLUG]);
-  return rows[0]!.v;
-});
-const resultsDigest = (version: number) => withE2eDb(async (db) => {
-  const { rows } = await db.query<{ h: string }>("SELECT md5(r.results::text || r.input_hash || r.changes::text) AS h FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND r.version = $2", [SLUG, version]);
-  return rows[0]!.h;
-});
+const latestVersion = () =>
+  withE2eDb(async (db) => {
+    const { rows } = await db.query<{ v: number }>(
+      "SELECT coalesce(max(version), 0)::int AS v FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1",
+      [SLUG],
+    );
+    return rows[0]!.v;
+  });
+const resultsDigest = (version: number) =>
+  withE2eDb(async (db) => {
+    const { rows } = await db.query<{ h: string }>(
+      "SELECT md5(r.results::text || r.input_hash || r.changes::text) AS h FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND r.version = $2",
+      [SLUG, version],
+    );
+    return rows[0]!.h;
+  });
 
 async function publish(page: Page, expected: number) {
   await page.getByRole("button", { name: "Publish a new version" }).click();
   // Publishing re-computes from every input record and refreshes the page: allow for a loaded machine.
-  await expect(page.getByRole("status").filter({ hasText: `Version ${expected} published.` })).toBeVisible({ timeout: 20_000 });
+  await expect(page.getByRole("status").filter({ hasText: `Version ${expected} published.` })).toBeVisible({
+    timeout: 20_000,
+  });
   await expect(page.getByRole("link", { name: `Version ${expected}`, exact: true })).toBeVisible({ timeout: 20_000 });
 }
 
-test("organiser publishes results; the public reads the Spanish report and downloads it; version 2 lists the change", async ({ page, browser }) => {
+test("organiser publishes results; the public reads the Spanish report and downloads it; version 2 lists the change", async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(300_000);
   await signInWithPassword(page, DEMO.organiser);
   await page.goto(`/en/events/${SLUG}/results`);
   await expect(page.getByRole("heading", { level: 1 })).toContainText("Results — Harrowmere Vale Midsummer Count");
   // The curves: rarefaction/extrapolation with a solid and a dashed part, accumulation, rank-abundance, zones overlaid.
-  for (const name of ["Individual-based rarefaction and extrapolation", "Sample-based accumulation (Mao Tau) and extrapolation", "Rank–abundance", "Rarefaction and extrapolation by zone"]) {
+  for (const name of [
+    "Individual-based rarefaction and extrapolation",
+    "Sample-based accumulation (Mao Tau) and extrapolation",
+    "Rank–abundance",
+    "Rarefaction and extrapolation by zone",
+  ]) {
     await expect(page.getByRole("figure", { name })).toBeVisible();
   }
   const rarefaction = page.getByRole("figure", { name: "Individual-based rarefaction and extrapolation" });
@@ -64,7 +84,9 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(rarefaction.getByText("observed", { exact: true })).toBeVisible();
   // The zone comparison, with its sentence and the caution beside it.
   await expect(page.getByRole("heading", { name: "Zones at equal effort" })).toBeVisible();
-  await expect(page.getByTestId("comparison-sentences").getByRole("listitem").first()).toContainText(/At equal effort, .+ \(edge\) held .+ \(interior\)/);
+  await expect(page.getByTestId("comparison-sentences").getByRole("listitem").first()).toContainText(
+    /At equal effort, .+ \(edge\) held .+ \(interior\)/,
+  );
   await expect(page.getByRole("complementary", { name: "Reading these estimates" }).first()).toBeVisible();
   await expect(page.getByRole("row", { name: /Chao1/ }).first()).toBeVisible();
 
@@ -80,31 +102,47 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(anon.getByRole("heading", { name: "Zonas con igual esfuerzo" })).toBeVisible();
   await expect(anon.getByRole("figure", { name: "Rarefacción y extrapolación por individuos" })).toBeVisible();
   await expect(anon.getByText(/Organizado por .+ voluntarios y \d+ coordinadores/)).toBeVisible();
-  await expect(anon.getByRole("link", { name: "Recalcular este informe a partir de sus entradas registradas" })).toHaveAttribute("href", /\?check=1$/);
+  await expect(
+    anon.getByRole("link", { name: "Recalcular este informe a partir de sus entradas registradas" }),
+  ).toHaveAttribute("href", /\?check=1$/);
   const observedV1 = await anon.getByTestId("headline-observed").textContent();
   const html = await anon.content();
   const files: Record<string, Buffer> = {};
   for (const label of ["Lista de especies (CSV)", "Archivo Darwin Core (zip)", "Avistamientos (GeoJSON)"]) {
-    const [download] = await Promise.all([anon.waitForEvent("download"), anon.getByRole("link", { name: label }).click()]);
+    const [download] = await Promise.all([
+      anon.waitForEvent("download"),
+      anon.getByRole("link", { name: label }).click(),
+    ]);
     files[label] = readFileSync((await download.path())!);
   }
-  expect(files["Lista de especies (CSV)"]!.toString("utf8")).toMatch(/^scientificName,vernacularName,taxonRank,taxonGroup,individualCount,/);
+  expect(files["Lista de especies (CSV)"]!.toString("utf8")).toMatch(
+    /^scientificName,vernacularName,taxonRank,taxonGroup,individualCount,/,
+  );
   const zip = unzipSync(new Uint8Array(files["Archivo Darwin Core (zip)"]!));
   expect(Object.keys(zip).sort()).toEqual(["eml.xml", "meta.xml", "occurrence.txt"]);
   const geo = JSON.parse(files["Avistamientos (GeoJSON)"]!.toString("utf8")) as { type: string; features: unknown[] };
   expect(geo.type).toBe("FeatureCollection");
   expect(geo.features.length).toBeGreaterThan(100);
   // Not one public byte holds an exact coordinate of a sensitive taxon.
-  const publicText = [html, files["Lista de especies (CSV)"]!.toString("utf8"), files["Avistamientos (GeoJSON)"]!.toString("utf8"), strFromU8(zip["occurrence.txt"]!)].join("\n");
+  const publicText = [
+    html,
+    files["Lista de especies (CSV)"]!.toString("utf8"),
+    files["Avistamientos (GeoJSON)"]!.toString("utf8"),
+    strFromU8(zip["occurrence.txt"]!),
+  ].join("\n");
   for (const r of SENSITIVE_DEMO_RECORDS) {
-    for (const v of [r.lon, r.lat]) expect(new RegExp(`${String(v).replace(".", "\\.")}(?!\\d)`).test(publicText), String(v)).toBe(false);
+    for (const v of [r.lon, r.lat])
+      expect(new RegExp(`${String(v).replace(".", "\\.")}(?!\\d)`).test(publicText), String(v)).toBe(false);
   }
 
   // A coordinator approves one more sighting; the organiser publishes version 2.
   await coordinatorApprovesOne(browser);
   await page.reload();
   await publish(page, v1 + 1);
-  await expect(page.getByRole("link", { name: `Version ${v1 + 1}`, exact: true })).toHaveAttribute("href", `/en/events/${SLUG}/reports/${v1 + 1}`);
+  await expect(page.getByRole("link", { name: `Version ${v1 + 1}`, exact: true })).toHaveAttribute(
+    "href",
+    `/en/events/${SLUG}/reports/${v1 + 1}`,
+  );
   await page.goto(`/en/events/${SLUG}/reports/${v1 + 1}`);
   await expect(page.getByTestId("changes")).toContainText(`What changed since version ${v1}`);
   await expect(page.getByTestId("changes")).toContainText("Input records: 1 added, 0 removed, 0 changed.");
@@ -114,22 +152,31 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(anon.getByTestId("superseded")).toBeVisible();
   await expect(anon.getByTestId("headline-observed")).toHaveText(observedV1!);
   await anon.goto(`/es/events/${SLUG}/reports/${v1}?check=1`);
-  await expect(anon.getByTestId("recompute")).toContainText("✓ Recalculado a partir de sus entradas registradas", { timeout: 20_000 });
+  await expect(anon.getByTestId("recompute")).toContainText("✓ Recalculado a partir de sus entradas registradas", {
+    timeout: 20_000,
+  });
   expect(await resultsDigest(v1)).toBe(v1Digest);
   await visitor.close();
 });
 
-test("the live board shows the backlog, completeness and where to look next, polling for updates", async ({ page, browser }) => {
+test("the live board shows the backlog, completeness and where to look next, polling for updates", async ({
+  page,
+  browser,
+}) => {
   await signInWithPassword(page, DEMO.coordinator);
   await page.goto(`/en/events/${SLUG}/live`);
   const board = page.getByTestId("live-board");
   await expect(board).toBeVisible();
   await expect(board.getByRole("region", { name: "Review backlog" })).toContainText(/Pending: \d+/);
-  await expect(board.getByRole("region", { name: "Completeness so far" })).toContainText(/of about [\d.,]+ species \(Chao1/);
+  await expect(board.getByRole("region", { name: "Completeness so far" })).toContainText(
+    /of about [\d.,]+ species \(Chao1/,
+  );
   await expect(page.getByTestId("where-next").getByRole("listitem")).toHaveCount(4);
   const before = await board.getByRole("region", { name: "Review backlog" }).textContent();
   const pendingBefore = Number(/Pending: (\d+)/.exec(before ?? "")![1]);
   await coordinatorApprovesOne(browser);
   // The next poll (every 15 s) shows one fewer pending.
-  await expect(board.getByRole("region", { name: "Review backlog" })).toContainText(`Pending: ${pendingBefore - 1}`, { timeout: 25_000 });
+  await expect(board.getByRole("region", { name: "Review backlog" })).toContainText(`Pending: ${pendingBefore - 1}`, {
+    timeout: 25_000,
+  });
 });

@@ -15,7 +15,6 @@ const PEOPLE: Record<Exclude<Who, "anonymous">, string> = {
   outsider: "moor-volunteer@example.org",
 };
 
-
 async function contextFor(browser: Browser, baseURL: string, who: Who): Promise<APIRequestContext> {
   const ctx = await browser.newContext({ baseURL });
   if (who !== "anonymous") {

@@ -5,16 +5,30 @@ import { DEMO, expect, signInWithPassword, test } from "./support";
 
 // Issue 13, sign-in and sessions (OWASP ASVS level 1, V2/V3). volunteer4 is used by no other spec.
 const PERSON = "volunteer4@example.org";
-const ORIGIN = new URL(process.env.E2E_PORT ? `http://127.0.0.1:${process.env.E2E_PORT}` : "http://127.0.0.1:3100").origin;
+const ORIGIN = new URL(process.env.E2E_PORT ? `http://127.0.0.1:${process.env.E2E_PORT}` : "http://127.0.0.1:3100")
+  .origin;
 
 const OFF_SITE = [
-  "/.//evil.example/", "/%2e//evil.example/", "//evil.example", "/\\evil.example", "https://evil.example/",
-  "/\t/evil.example", "http://127.0.0.1:1/en/account",
+  "/.//evil.example/",
+  "/%2e//evil.example/",
+  "//evil.example",
+  "/\\evil.example",
+  "https://evil.example/",
+  "/\t/evil.example",
+  "http://127.0.0.1:1/en/account",
 ];
 
-async function passwordSignIn(request: APIRequestContext, callbackUrl: string, email = PERSON, password = DEMO.password) {
+async function passwordSignIn(
+  request: APIRequestContext,
+  callbackUrl: string,
+  email = PERSON,
+  password = DEMO.password,
+) {
   const { csrfToken } = await (await request.get("/api/auth/csrf")).json();
-  const res = await request.post("/api/auth/callback/password", { form: { csrfToken, email, password, callbackUrl, json: "true" }, maxRedirects: 0 });
+  const res = await request.post("/api/auth/callback/password", {
+    form: { csrfToken, email, password, callbackUrl, json: "true" },
+    maxRedirects: 0,
+  });
   return (await res.json()) as { url: string };
 }
 
@@ -59,7 +73,10 @@ test("sign-out ends the session on the server: a copied session cookie no longer
   await thief.close();
 });
 
-test("changing a password needs the current one and ends every other session, not this one", async ({ browser, page }) => {
+test("changing a password needs the current one and ends every other session, not this one", async ({
+  browser,
+  page,
+}) => {
   const other = await browser.newContext({ baseURL: ORIGIN });
   const otherPage = await other.newPage();
   await signInWithPassword(otherPage, PERSON);
@@ -68,14 +85,18 @@ test("changing a password needs the current one and ends every other session, no
   const put = (body: object) => page.request.put("/api/account/password", { data: body, headers: { origin: ORIGIN } });
   const missing = await put({ password: "a brand new sentence" });
   expect(missing.status()).toBe(422);
-  expect((await missing.json()).error.fields).toEqual([{ field: "currentPassword", message: "The current password is not right." }]);
+  expect((await missing.json()).error.fields).toEqual([
+    { field: "currentPassword", message: "The current password is not right." },
+  ]);
   const wrong = await put({ currentPassword: "not-it-at-all", password: "a brand new sentence" });
   expect(wrong.status()).toBe(422);
 
   await page.getByLabel("Current password").fill(DEMO.password);
   await page.getByLabel("New password").fill("a brand new sentence");
   await page.getByRole("button", { name: "Save password" }).click();
-  await expect(page.getByRole("status")).toHaveText("✓ Password saved. Every other session of yours has been signed out.");
+  await expect(page.getByRole("status")).toHaveText(
+    "✓ Password saved. Every other session of yours has been signed out.",
+  );
 
   // This session goes on; the other one is over.
   await page.reload();
@@ -89,7 +110,11 @@ test("changing a password needs the current one and ends every other session, no
   expect(back.status()).toBe(200);
 });
 
-test("a mailed link survives a mail scanner: opening it shows a Sign in button, and only the button uses it", async ({ page, mail, request }) => {
+test("a mailed link survives a mail scanner: opening it shows a Sign in button, and only the button uses it", async ({
+  page,
+  mail,
+  request,
+}) => {
   await page.goto("/fr/sign-in");
   const form = page.getByRole("form", { name: "Recevoir un lien de connexion" });
   await form.getByLabel("Adresse e-mail").fill(PERSON);
@@ -114,10 +139,15 @@ test("a mailed link survives a mail scanner: opening it shows a Sign in button, 
   await expect(page.getByText(`Connecté·e en tant que ${PERSON}`)).toBeVisible();
 });
 
-test("asking for a link answers the same for known and unknown addresses; the mail says what to do", async ({ request, mail }) => {
+test("asking for a link answers the same for known and unknown addresses; the mail says what to do", async ({
+  request,
+  mail,
+}) => {
   const ask = async (email: string) => {
     const { csrfToken } = await (await request.get("/api/auth/csrf")).json();
-    const res = await request.post("/api/auth/signin/email", { form: { csrfToken, email, callbackUrl: "/es/account", json: "true" } });
+    const res = await request.post("/api/auth/signin/email", {
+      form: { csrfToken, email, callbackUrl: "/es/account", json: "true" },
+    });
     return { status: res.status(), body: await res.json() };
   };
   const known = await ask(DEMO.birdsCoordinator);
@@ -132,12 +162,19 @@ test("asking for a link answers the same for known and unknown addresses; the ma
   const toKnown = await mail.waitFor(DEMO.birdsCoordinator, (m) => m.subject === "Tu enlace para entrar en Ecotone");
   expect(toKnown.text).toMatch(/\/es\/sign-in\/confirm\?token=/);
   // No account was made for the stranger.
-  const rows = await withE2eDb(async (c) => (await c.query(`SELECT 1 FROM users WHERE email = 'nobody-here@example.org'`)).rowCount);
+  const rows = await withE2eDb(
+    async (c) => (await c.query(`SELECT 1 FROM users WHERE email = 'nobody-here@example.org'`)).rowCount,
+  );
   expect(rows).toBe(0);
 });
 
 test("next-auth's own pages send people to ours, under our CSP", async ({ request }) => {
-  for (const [path, to] of [["/api/auth/signout", "/account"], ["/api/auth/error?error=Verification", "/sign-in?error=Verification"], ["/api/auth/verify-request", "/sign-in/check-email"], ["/api/auth/signin", "/sign-in"]] as const) {
+  for (const [path, to] of [
+    ["/api/auth/signout", "/account"],
+    ["/api/auth/error?error=Verification", "/sign-in?error=Verification"],
+    ["/api/auth/verify-request", "/sign-in/check-email"],
+    ["/api/auth/signin", "/sign-in"],
+  ] as const) {
     const res = await request.get(path, { maxRedirects: 0 });
     expect(res.status(), path).toBeGreaterThanOrEqual(300);
     expect(res.status(), path).toBeLessThan(400);
@@ -151,11 +188,23 @@ test("next-auth's own pages send people to ours, under our CSP", async ({ reques
 test("the sign-in rate limit is keyed on the connection's address, not on X-Forwarded-For", async ({ request }) => {
   const { csrfToken } = await (await request.get("/api/auth/csrf")).json();
   await request.post("/api/auth/callback/password", {
-    form: { csrfToken, email: "forged-xff@example.org", password: "wrong-password-here", callbackUrl: "/en/account", json: "true" },
+    form: {
+      csrfToken,
+      email: "forged-xff@example.org",
+      password: "wrong-password-here",
+      callbackUrl: "/en/account",
+      json: "true",
+    },
     headers: { "x-forwarded-for": "198.51.100.77" },
   });
-  const keys = await withE2eDb(async (c) => (await c.query(`SELECT key FROM sign_in_attempts WHERE key LIKE 'ip:%' ORDER BY at DESC LIMIT 1`)).rows.map((r) => r.key as string));
+  const keys = await withE2eDb(async (c) =>
+    (await c.query(`SELECT key FROM sign_in_attempts WHERE key LIKE 'ip:%' ORDER BY at DESC LIMIT 1`)).rows.map(
+      (r) => r.key as string,
+    ),
+  );
   expect(keys[0]).toBe("ip:127.0.0.1");
-  const forged = await withE2eDb(async (c) => (await c.query(`SELECT 1 FROM sign_in_attempts WHERE key = 'ip:198.51.100.77'`)).rowCount);
+  const forged = await withE2eDb(
+    async (c) => (await c.query(`SELECT 1 FROM sign_in_attempts WHERE key = 'ip:198.51.100.77'`)).rowCount,
+  );
   expect(forged).toBe(0);
 });

@@ -35,7 +35,10 @@ test("a magic link arrives by e-mail in the person's language and signs them in"
   await expect(page.getByRole("link", { name: /coordinador\/a en Harrowmere Vale Midsummer Count/ })).toBeVisible();
 });
 
-test("an address with no account gets the same answer as any other, and a mail telling how to get one", async ({ page, mail }) => {
+test("an address with no account gets the same answer as any other, and a mail telling how to get one", async ({
+  page,
+  mail,
+}) => {
   await page.goto("/en/sign-in");
   const form = page.getByRole("form", { name: "E-mail me a sign-in link" });
   await form.getByLabel("E-mail address").fill("stranger@example.org");

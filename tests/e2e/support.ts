@@ -30,16 +30,28 @@ export const DEMO = {
 // The sign-in page's words as a person reads them, in each language.
 const SIGN_IN_WORDS = {
   en: {
-    passwordForm: "Sign in with a password", linkForm: "E-mail me a sign-in link", email: "E-mail address", password: "Password",
-    signIn: "Sign in", sendLink: "Send the link",
+    passwordForm: "Sign in with a password",
+    linkForm: "E-mail me a sign-in link",
+    email: "E-mail address",
+    password: "Password",
+    signIn: "Sign in",
+    sendLink: "Send the link",
   },
   es: {
-    passwordForm: "Entrar con contraseña", linkForm: "Enviarme un enlace para entrar", email: "Correo electrónico", password: "Contraseña",
-    signIn: "Entrar", sendLink: "Enviar el enlace",
+    passwordForm: "Entrar con contraseña",
+    linkForm: "Enviarme un enlace para entrar",
+    email: "Correo electrónico",
+    password: "Contraseña",
+    signIn: "Entrar",
+    sendLink: "Enviar el enlace",
   },
   fr: {
-    passwordForm: "Se connecter avec un mot de passe", linkForm: "Recevoir un lien de connexion", email: "Adresse e-mail", password: "Mot de passe",
-    signIn: "Se connecter", sendLink: "Envoyer le lien",
+    passwordForm: "Se connecter avec un mot de passe",
+    linkForm: "Recevoir un lien de connexion",
+    email: "Adresse e-mail",
+    password: "Mot de passe",
+    signIn: "Se connecter",
+    sendLink: "Envoyer le lien",
   },
 } as const;
 
@@ -47,7 +59,10 @@ const SIGN_IN_WORDS = {
 export class SignInPage {
   readonly words: (typeof SIGN_IN_WORDS)[keyof typeof SIGN_IN_WORDS];
 
-  constructor(readonly page: Page, readonly locale: keyof typeof SIGN_IN_WORDS = "en") {
+  constructor(
+    readonly page: Page,
+    readonly locale: keyof typeof SIGN_IN_WORDS = "en",
+  ) {
     this.words = SIGN_IN_WORDS[locale];
   }
 
@@ -87,6 +102,11 @@ export class SignInPage {
 }
 
 /** Signs in through the real form, as a person would. */
-export async function signInWithPassword(page: Page, email: string, password = DEMO_PASSWORD, locale: keyof typeof SIGN_IN_WORDS = "en") {
+export async function signInWithPassword(
+  page: Page,
+  email: string,
+  password = DEMO_PASSWORD,
+  locale: keyof typeof SIGN_IN_WORDS = "en",
+) {
   await new SignInPage(page, locale).signIn(email, password);
 }

@@ -42,16 +42,24 @@ function target(fromFile: string, specifier: string): { folder: string } | { pkg
 type Rule = { from: string; folders?: string[]; packages?: RegExp; why: string };
 
 const rules: Rule[] = [
-  { from: "lib", folders: ["app", "db", "server", "components"], why: "lib/ runs anywhere: it imports only lib/ and pure packages" },
+  {
+    from: "lib",
+    folders: ["app", "db", "server", "components"],
+    why: "lib/ runs anywhere: it imports only lib/ and pure packages",
+  },
   // Packages that need a server (or its secrets); next-intl stays allowed for lib/i18n.
-  { from: "lib", packages: /^(next-auth|@auth\/.*|nodemailer|sharp|@aws-sdk\/.*|pg|postgres|drizzle-orm|drizzle-kit|server-only|bcryptjs|s3rver)$/, why: "lib/ runs anywhere: no server-only packages" },
+  {
+    from: "lib",
+    packages:
+      /^(next-auth|@auth\/.*|nodemailer|sharp|@aws-sdk\/.*|pg|postgres|drizzle-orm|drizzle-kit|server-only|bcryptjs|s3rver)$/,
+    why: "lib/ runs anywhere: no server-only packages",
+  },
   { from: "db", folders: ["app", "server", "components"], why: "db/ is the data layer: it imports only db/ and lib/" },
   { from: "server", folders: ["app", "components"], why: "server/ services do not depend on pages, handlers or UI" },
   { from: "components", folders: ["app"], why: "components/ do not depend on pages or handlers" },
 ];
 
 type Offence = { file: string; specifier: string; why: string };
-
 
 function offences(): Offence[] {
   const found: Offence[] = [];
@@ -74,7 +82,8 @@ function offences(): Offence[] {
 
 describe("import rules", () => {
   it("finds the source folders it checks", () => {
-    for (const folder of ["app", "components", "db", "lib", "server"]) expect(existsSync(path.join(root, folder))).toBe(true);
+    for (const folder of ["app", "components", "db", "lib", "server"])
+      expect(existsSync(path.join(root, folder))).toBe(true);
     expect(sourceFiles(path.join(root, "lib")).length).toBeGreaterThan(20);
   });
 

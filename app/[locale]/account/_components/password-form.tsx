@@ -25,7 +25,9 @@ export function PasswordForm({ hasPassword }: { hasPassword: boolean }) {
     } catch (err) {
       if (!(err instanceof ApiClientError)) throw err;
       const first = err.fields[0];
-      form.setError(first?.field === "currentPassword" ? "currentPassword" : "password", { message: err.problem || tSetup("genericError") });
+      form.setError(first?.field === "currentPassword" ? "currentPassword" : "password", {
+        message: err.problem || tSetup("genericError"),
+      });
       return;
     }
     setSaved(true);
@@ -33,22 +35,44 @@ export function PasswordForm({ hasPassword }: { hasPassword: boolean }) {
   });
 
   // Client-side problems carry a rule key; the server's come already translated.
-  const message = error?.message && ["tooShort", "tooLong", "sameAsEmail", "tooCommon"].includes(error.message)
-    ? t(`passwordRules.${error.message as RuleKey}`)
-    : error?.message;
+  const message =
+    error?.message && ["tooShort", "tooLong", "sameAsEmail", "tooCommon"].includes(error.message)
+      ? t(`passwordRules.${error.message as RuleKey}`)
+      : error?.message;
 
   return (
     <form onSubmit={submit} noValidate className="max-w-md space-y-3">
       {hasPassword ? (
         <Field id="current-password" label={t("currentPassword")} error={currentError?.message}>
-          <input id="current-password" type="password" autoComplete="current-password" className={inputClass} aria-invalid={Boolean(currentError)} {...form.register("currentPassword")} />
+          <input
+            id="current-password"
+            type="password"
+            autoComplete="current-password"
+            className={inputClass}
+            aria-invalid={Boolean(currentError)}
+            {...form.register("currentPassword")}
+          />
         </Field>
       ) : null}
       <Field id="new-password" label={t("newPassword")} hint={t("passwordHint")} error={message}>
-        <input id="new-password" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(error)} aria-describedby="new-password-hint" {...form.register("password")} />
+        <input
+          id="new-password"
+          type="password"
+          autoComplete="new-password"
+          className={inputClass}
+          aria-invalid={Boolean(error)}
+          aria-describedby="new-password-hint"
+          {...form.register("password")}
+        />
       </Field>
-      <button type="submit" className={buttonClass} disabled={form.formState.isSubmitting}>{t("save")}</button>
-      {saved ? <p role="status" className="font-semibold text-reed-700">✓ {hasPassword ? t("savedOthersEnded") : t("saved")}</p> : null}
+      <button type="submit" className={buttonClass} disabled={form.formState.isSubmitting}>
+        {t("save")}
+      </button>
+      {saved ? (
+        <p role="status" className="font-semibold text-reed-700">
+          ✓ {hasPassword ? t("savedOthersEnded") : t("saved")}
+        </p>
+      ) : null}
     </form>
   );
 }

@@ -14,7 +14,9 @@ import { setPasswordInput } from "./schema";
 export const PUT = handle(async (request) => {
   const user = await requireUser();
   limitWrites(`password:${user.id}`, 10, 15 * 60_000);
-  const { currentPassword, password } = await parseJson(request, setPasswordInput, { messages: "Account.passwordRules" });
+  const { currentPassword, password } = await parseJson(request, setPasswordInput, {
+    messages: "Account.passwordRules",
+  });
   const t = translator(requestLocale(request), "Account");
   const existing = await passwordHashOf(user.id);
   if (existing && !(currentPassword && (await verifyPassword(currentPassword, existing)))) {
@@ -22,7 +24,10 @@ export const PUT = handle(async (request) => {
   }
   const problems = passwordProblems(password, user.email);
   if (problems.length) {
-    throw new ApiError("unprocessable", problems.map((p) => ({ field: "password", message: t(`passwordRules.${p}`) })));
+    throw new ApiError(
+      "unprocessable",
+      problems.map((p) => ({ field: "password", message: t(`passwordRules.${p}`) })),
+    );
   }
   const version = await changePassword(user.id, await hashPassword(password));
   const cookie = await renewedSessionCookie(request, version);

@@ -10,7 +10,8 @@ import { clientIp, recordSignInAttempt, signInAllowed } from "@/server/auth/sign
 
 type Ctx = { params: Promise<{ nextauth: string[] }> };
 
-const localeOf = (callbackUrl: string | null) => toLocale((safeCallbackPath(callbackUrl, env().APP_URL) ?? "/").split("/")[1]);
+const localeOf = (callbackUrl: string | null) =>
+  toLocale((safeCallbackPath(callbackUrl, env().APP_URL) ?? "/").split("/")[1]);
 
 // next-auth's own handler, with the sign-in rate limits in front of the two ways in:
 // asking for a magic link (POST …/signin/email) and a password (POST …/callback/password).
@@ -24,7 +25,10 @@ async function guarded(request: Request, ctx: Ctx): Promise<Response> {
   if (request.method === "GET" && path === "callback/email") {
     const q = new URL(request.url).searchParams;
     const callbackUrl = safeCallbackPath(q.get("callbackUrl"), e.APP_URL) ?? "/";
-    const to = confirmLink({ token: q.get("token") ?? "", email: q.get("email") ?? "", callbackUrl }, localeOf(callbackUrl));
+    const to = confirmLink(
+      { token: q.get("token") ?? "", email: q.get("email") ?? "", callbackUrl },
+      localeOf(callbackUrl),
+    );
     return new Response(null, { status: 303, headers: { Location: to, "Cache-Control": "no-store" } });
   }
   if (request.method === "POST" && path === "callback/email") {
@@ -32,7 +36,8 @@ async function guarded(request: Request, ctx: Ctx): Promise<Response> {
     try {
       assertSameOrigin(request);
     } catch (err) {
-      if (err instanceof ApiError) return new Response(null, { status: 303, headers: { Location: `${e.APP_URL}/sign-in?error=Verification` } });
+      if (err instanceof ApiError)
+        return new Response(null, { status: 303, headers: { Location: `${e.APP_URL}/sign-in?error=Verification` } });
       throw err;
     }
   }
@@ -45,13 +50,19 @@ async function guarded(request: Request, ctx: Ctx): Promise<Response> {
   const ip = clientIp(request.headers);
   if (!(await signInAllowed(email, ip))) {
     // The shape next-auth's client reads: a URL whose "error" parameter names the problem.
-    return Response.json({ url: `${e.APP_URL}/api/auth/error?error=RateLimited` }, { headers: { "Cache-Control": "no-store" } });
+    return Response.json(
+      { url: `${e.APP_URL}/api/auth/error?error=RateLimited` },
+      { headers: { "Cache-Control": "no-store" } },
+    );
   }
   const response = await NextAuth(authOptions(localeOf(form.get("callbackUrl"))))(request, ctx);
   const location = response.headers.get("location") ?? "";
   let failed = path === "signin/email"; // every link request counts as a try
   if (!failed) {
-    const body = await response.clone().text().catch(() => "");
+    const body = await response
+      .clone()
+      .text()
+      .catch(() => "");
     failed = /error=/.test(location) || /error=/.test(body);
   }
   if (failed && email) await recordSignInAttempt(email, ip);
@@ -63,7 +74,15 @@ function withOurHeaders(response: Response): Response {
   if (!(response.headers.get("content-type") ?? "").includes("text/html")) return response;
   const e = env();
   const headers = new Headers(response.headers);
-  headers.set("Content-Security-Policy", contentSecurityPolicy({ nonce: makeNonce(), dev: e.NODE_ENV === "development", https: e.APP_URL.startsWith("https://"), extraOrigins: e.CSP_EXTRA_ORIGINS }));
+  headers.set(
+    "Content-Security-Policy",
+    contentSecurityPolicy({
+      nonce: makeNonce(),
+      dev: e.NODE_ENV === "development",
+      https: e.APP_URL.startsWith("https://"),
+      extraOrigins: e.CSP_EXTRA_ORIGINS,
+    }),
+  );
   return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
 }
 

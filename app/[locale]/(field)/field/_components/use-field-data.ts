@@ -6,12 +6,23 @@ import { onChange } from "@/lib/field/client";
 import { eventRecords } from "@/lib/field/outbox";
 import type { LocalPhoto, LocalSession, LocalSighting, StoredMine, StoredPack } from "@/lib/field/types";
 
-export type FieldData = { sessions: LocalSession[]; sightings: LocalSighting[]; photos: LocalPhoto[]; pack: StoredPack | null; mine: StoredMine | null; loaded: boolean };
+export type FieldData = {
+  sessions: LocalSession[];
+  sightings: LocalSighting[];
+  photos: LocalPhoto[];
+  pack: StoredPack | null;
+  mine: StoredMine | null;
+  loaded: boolean;
+};
 
 const empty: FieldData = { sessions: [], sightings: [], photos: [], pack: null, mine: null, loaded: false };
 
 async function readEvent(db: FieldDatabase, eventId: string): Promise<FieldData> {
-  const [records, pack, mine] = await Promise.all([eventRecords(db, eventId), db.get("packs", eventId), db.get("mine", eventId)]);
+  const [records, pack, mine] = await Promise.all([
+    eventRecords(db, eventId),
+    db.get("packs", eventId),
+    db.get("mine", eventId),
+  ]);
   return { ...records, pack: pack ?? null, mine: mine ?? null, loaded: true };
 }
 
@@ -26,10 +37,16 @@ export function useFieldData(db: FieldDatabase | null, eventId: string | null) {
   useEffect(() => {
     if (!db || !eventId) return;
     let live = true;
-    const load = () => void readEvent(db, eventId).then((data) => { if (live) setHeld({ eventId, data }); });
+    const load = () =>
+      void readEvent(db, eventId).then((data) => {
+        if (live) setHeld({ eventId, data });
+      });
     load();
     const off = onChange(load);
-    return () => { live = false; off(); };
+    return () => {
+      live = false;
+      off();
+    };
   }, [db, eventId]);
   return { data: held.eventId === eventId ? held.data : empty, reload };
 }

@@ -11,7 +11,17 @@ import { Link } from "@/lib/i18n/navigation";
 
 type Outcome = "joined" | "alreadyMember" | "mailed";
 
-export function JoinForm({ code, locale, signedInAs, eventSlug }: { code: string; locale: string; signedInAs: string | null; eventSlug: string }) {
+export function JoinForm({
+  code,
+  locale,
+  signedInAs,
+  eventSlug,
+}: {
+  code: string;
+  locale: string;
+  signedInAs: string | null;
+  eventSlug: string;
+}) {
   const t = useTranslations("Join");
   const tErr = useTranslations("Setup.errors");
   const tSetup = useTranslations("Setup");
@@ -34,32 +44,65 @@ export function JoinForm({ code, locale, signedInAs, eventSlug }: { code: string
     }
   });
 
-  if (outcome === "mailed") return <p role="status" className="rounded-lg border-2 border-reed-600 bg-reed-50 p-3 font-semibold">✓ {t("mailed")}</p>;
+  if (outcome === "mailed")
+    return (
+      <p role="status" className="rounded-lg border-2 border-reed-600 bg-reed-50 p-3 font-semibold">
+        ✓ {t("mailed")}
+      </p>
+    );
   if (outcome) {
     return (
       <div role="status" className="space-y-2 rounded-lg border-2 border-reed-600 bg-reed-50 p-3">
         <p className="font-semibold">✓ {outcome === "joined" ? t("joined") : t("alreadyMember")}</p>
-        <Link href={`/events/${eventSlug}`} className="underline">{t("toEvent")}</Link>
+        <Link href={`/events/${eventSlug}`} className="underline">
+          {t("toEvent")}
+        </Link>
       </div>
     );
   }
   const emailError = errors.email?.message;
   return (
-    <form onSubmit={submit} noValidate aria-labelledby="join-title" className="space-y-3 rounded-xl border border-reed-200 bg-white/70 p-4">
-      <h2 id="join-title" className="text-xl font-bold text-reed-900">{t("asVolunteer")}</h2>
-      {signedInAs ? <p>{t("signedInAs", { email: signedInAs })}</p> : (
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-labelledby="join-title"
+      className="space-y-3 rounded-xl border border-reed-200 bg-white/70 p-4"
+    >
+      <h2 id="join-title" className="text-xl font-bold text-reed-900">
+        {t("asVolunteer")}
+      </h2>
+      {signedInAs ? (
+        <p>{t("signedInAs", { email: signedInAs })}</p>
+      ) : (
         <>
           <p className="text-sm text-ink-soft">{t("intro")}</p>
-          <Field id="join-email" label={t("email")} error={emailError ? (tErr.has(emailError as never) ? tErr(emailError as never) : emailError) : undefined}>
-            <input id="join-email" type="email" autoComplete="email" className={inputClass} aria-invalid={Boolean(emailError)} {...form.register("email")} />
+          <Field
+            id="join-email"
+            label={t("email")}
+            error={emailError ? (tErr.has(emailError as never) ? tErr(emailError as never) : emailError) : undefined}
+          >
+            <input
+              id="join-email"
+              type="email"
+              autoComplete="email"
+              className={inputClass}
+              aria-invalid={Boolean(emailError)}
+              {...form.register("email")}
+            />
           </Field>
           <Field id="join-name" label={t("name")}>
             <input id="join-name" autoComplete="name" className={inputClass} {...form.register("name")} />
           </Field>
         </>
       )}
-      {problem ? <p role="alert" className="font-semibold text-signal">✕ {problem}</p> : null}
-      <button type="submit" className={buttonClass} disabled={isSubmitting}>{t("submit")}</button>
+      {problem ? (
+        <p role="alert" className="font-semibold text-signal">
+          ✕ {problem}
+        </p>
+      ) : null}
+      <button type="submit" className={buttonClass} disabled={isSubmitting}>
+        {t("submit")}
+      </button>
     </form>
   );
 }

@@ -13,5 +13,8 @@ export const GET = handle(async (_request, { params }: Ctx) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
   await requireEventRole(eventId, "coordinator");
   const [figures, input] = await Promise.all([liveFigures(eventId), loadResultsInput(eventId, { sessions: false })]);
-  return Response.json({ ...figures, completeness: completeness(input), at: new Date().toISOString() }, { headers: { "Cache-Control": "no-store" } });
+  return Response.json(
+    { ...figures, completeness: completeness(input), at: new Date().toISOString() },
+    { headers: { "Cache-Control": "no-store" } },
+  );
 });

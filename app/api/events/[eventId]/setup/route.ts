@@ -14,11 +14,14 @@ export const GET = handle<Ctx>(async (request, { params }) => {
   await requireSetupReadPermit(request, eventId);
   const event = await eventForSetup(eventId);
   if (!event) throw new ApiError("not_found");
-  return Response.json({
-    ...event,
-    startsLocal: utcToZonedLocal(event.startsAt, event.timeZone),
-    endsLocal: utcToZonedLocal(event.endsAt, event.timeZone),
-  }, { headers: { "Cache-Control": "no-store" } });
+  return Response.json(
+    {
+      ...event,
+      startsLocal: utcToZonedLocal(event.startsAt, event.timeZone),
+      endsLocal: utcToZonedLocal(event.endsAt, event.timeZone),
+    },
+    { headers: { "Cache-Control": "no-store" } },
+  );
 });
 
 export const PATCH = handle<Ctx>(async (request, { params }) => {

@@ -22,13 +22,24 @@ export const GET = handle(async (request, { params }: Ctx) => {
   const base = `${event.slug}-v${report.version}`;
   // A published version never changes, so its files may be cached for as long as anyone likes.
   const headers = (type: string, name: string) => ({
-    "Content-Type": type, "Content-Disposition": `attachment; filename="${base}-${name}"`, "Cache-Control": "public, max-age=31536000, immutable",
+    "Content-Type": type,
+    "Content-Disposition": `attachment; filename="${base}-${name}"`,
+    "Cache-Control": "public, max-age=31536000, immutable",
   });
-  if (file === "species.csv") return new Response(speciesCsv(report.results, locale), { headers: headers("text/csv; charset=utf-8", "species.csv") });
+  if (file === "species.csv")
+    return new Response(speciesCsv(report.results, locale), {
+      headers: headers("text/csv; charset=utf-8", "species.csv"),
+    });
   const { rows, withheld } = publicOccurrences(report.results, await reportOccurrences(report), locale);
-  if (file === "sightings.geojson") return new Response(occurrencesGeoJson(rows), { headers: headers("application/geo+json", "sightings.geojson") });
+  if (file === "sightings.geojson")
+    return new Response(occurrencesGeoJson(rows), { headers: headers("application/geo+json", "sightings.geojson") });
   const zip = darwinCoreArchive(rows, {
-    id: report.id, title: event.name, organisation: event.organisation, version: report.version, publishedAt: report.publishedAt, withheld,
+    id: report.id,
+    title: event.name,
+    organisation: event.organisation,
+    version: report.version,
+    publishedAt: report.publishedAt,
+    withheld,
     abstract: `Approved sightings of ${event.name}, published as report version ${report.version}.`,
   });
   return new Response(Buffer.from(zip), { headers: headers("application/zip", "darwin-core-archive.zip") });

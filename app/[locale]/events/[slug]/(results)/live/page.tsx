@@ -9,8 +9,26 @@ export const dynamic = "force-dynamic";
 
 type Props = { params: Promise<{ locale: Locale; slug: string }> };
 
-const KEYS: (keyof LiveLabels)[] = ["perHour", "volunteers", "lastHour", "today", "total", "backlog",
-  "completeness", "share", "coverage", "nextTitle", "nextIntro", "zoneLine", "unsampled", "loading", "failed", "updated", "hour", "sightings"];
+const KEYS: (keyof LiveLabels)[] = [
+  "perHour",
+  "volunteers",
+  "lastHour",
+  "today",
+  "total",
+  "backlog",
+  "completeness",
+  "share",
+  "coverage",
+  "nextTitle",
+  "nextIntro",
+  "zoneLine",
+  "unsampled",
+  "loading",
+  "failed",
+  "updated",
+  "hour",
+  "sightings",
+];
 
 export default async function LivePage({ params }: Props) {
   const { locale, slug } = await params;

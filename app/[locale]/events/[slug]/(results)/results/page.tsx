@@ -30,30 +30,57 @@ export default async function ResultsPage({ params }: Props) {
   const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/results`);
   const t = await getTranslations("Results");
   if (!permit) return <p role="alert">{t("notAllowed")}</p>;
-  const [format, { results }, reports] = await Promise.all([getFormatter(), currentResults(event.id), listReports(event.id)]);
+  const [format, { results }, reports] = await Promise.all([
+    getFormatter(),
+    currentResults(event.id),
+    listReports(event.id),
+  ]);
   const canPublish = permit.role === "organiser" || permit.role === "admin";
   return (
     <article className="space-y-8">
       <header className="space-y-2">
         <h1 className="text-3xl font-bold text-reed-900">{t("title", { event: event.name })}</h1>
-        <p className="max-w-prose text-ink-soft">{t("intro", { species: results.totals.species, individuals: results.totals.individuals, sessions: results.totals.completeSessions })}</p>
-        <p><Link href={`/events/${slug}/live`} className="font-semibold text-reed-800 underline">{t("live.link")}</Link></p>
+        <p className="max-w-prose text-ink-soft">
+          {t("intro", {
+            species: results.totals.species,
+            individuals: results.totals.individuals,
+            sessions: results.totals.completeSessions,
+          })}
+        </p>
+        <p>
+          <Link href={`/events/${slug}/live`} className="font-semibold text-reed-800 underline">
+            {t("live.link")}
+          </Link>
+        </p>
       </header>
       <EstimateCaution />
       <ResultsBody results={results} showSensitivity />
 
       <section aria-labelledby="reports-title" className="space-y-3">
-        <h2 id="reports-title" className="text-2xl font-bold text-reed-900">{t("reports.title")}</h2>
+        <h2 id="reports-title" className="text-2xl font-bold text-reed-900">
+          {t("reports.title")}
+        </h2>
         <p className="max-w-prose">{t("reports.intro")}</p>
         {canPublish ? (
-          <PublishButton eventId={event.id} label={t("reports.publish")} busyLabel={t("reports.publishing")} doneLabel={t("reports.published", { version: "{version}" })} failedLabel={t("reports.failed")} />
+          <PublishButton
+            eventId={event.id}
+            label={t("reports.publish")}
+            busyLabel={t("reports.publishing")}
+            doneLabel={t("reports.published", { version: "{version}" })}
+            failedLabel={t("reports.failed")}
+          />
         ) : null}
-        {reports.length === 0 ? <p>{t("reports.none")}</p> : (
+        {reports.length === 0 ? (
+          <p>{t("reports.none")}</p>
+        ) : (
           <ul className="space-y-2">
             {reports.map((r) => (
               <li key={r.id} className="rounded-lg border border-reed-200 bg-white/70 p-3">
-                <Link href={`/events/${slug}/reports/${r.version}`} className="font-semibold text-reed-800 underline">{t("reports.version", { version: r.version })}</Link>
-                {" · "}{format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
+                <Link href={`/events/${slug}/reports/${r.version}`} className="font-semibold text-reed-800 underline">
+                  {t("reports.version", { version: r.version })}
+                </Link>
+                {" · "}
+                {format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
                 {r.superseded ? <span className="ml-2 text-ink-soft">({t("reports.superseded")})</span> : null}
                 <span className="block font-mono text-xs text-ink-soft">sha256 {r.inputHash}</span>
               </li>

@@ -12,6 +12,19 @@ export const GET = handle<Ctx>(async (request, { params }) => {
   const { eventId, photoId } = await parseParams(params, { eventId: pathId, photoId: pathId });
   const permit = await requireEventRole(eventId, "volunteer");
   const { size } = parseQuery(request, photoGetQuery);
-  const url = await photoLink({ userId: permit.user.id, eventId, locale: requestLocale(request), role: permit.role, taxonGroups: permit.taxonGroups }, photoId, size);
-  return new Response(null, { status: 302, headers: { Location: url, "Cache-Control": "private, no-store", "Referrer-Policy": "no-referrer" } });
+  const url = await photoLink(
+    {
+      userId: permit.user.id,
+      eventId,
+      locale: requestLocale(request),
+      role: permit.role,
+      taxonGroups: permit.taxonGroups,
+    },
+    photoId,
+    size,
+  );
+  return new Response(null, {
+    status: 302,
+    headers: { Location: url, "Cache-Control": "private, no-store", "Referrer-Policy": "no-referrer" },
+  });
 });

@@ -15,9 +15,15 @@ export const POST = handle(async (request, ctx: { params: Promise<{ eventId: str
   const { filters, expectedCount } = await parseJson(request, bulkApproveInput);
   const t = translator(requestLocale(request), "ReviewDesk");
   const result = await bulkApprove(scope, user.id, filters, expectedCount);
-  if (result.outcome === "too_many") throw new ApiError("unprocessable", [{ field: "filters", message: t("errors.bulkTooMany", { max: MAX_BULK }) }]);
+  if (result.outcome === "too_many")
+    throw new ApiError("unprocessable", [{ field: "filters", message: t("errors.bulkTooMany", { max: MAX_BULK }) }]);
   if (result.outcome === "count_changed") {
-    throw new ApiError("conflict", [{ field: "expectedCount", message: t("errors.bulkCountChanged", { expected: expectedCount, count: result.count }) }]);
+    throw new ApiError("conflict", [
+      {
+        field: "expectedCount",
+        message: t("errors.bulkCountChanged", { expected: expectedCount, count: result.count }),
+      },
+    ]);
   }
   return Response.json({ approved: result.approved });
 });

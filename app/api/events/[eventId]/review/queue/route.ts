@@ -13,8 +13,13 @@ export const GET = handle(async (request, ctx: { params: Promise<{ eventId: stri
   const { scope } = await requireReviewPermit(eventId, request);
   const { cursor, limit, ...filters } = parseQuery(request, queueQuery);
   if (cursor && !decodeCursor(cursor)) {
-    throw new ApiError("bad_request", [{ field: "cursor", message: translator(requestLocale(request), "ReviewDesk")("errors.badCursor") }]);
+    throw new ApiError("bad_request", [
+      { field: "cursor", message: translator(requestLocale(request), "ReviewDesk")("errors.badCursor") },
+    ]);
   }
-  const [page, counts] = await Promise.all([reviewQueue(scope, filters, cursor ?? null, limit), queueCounts(scope, filters)]);
+  const [page, counts] = await Promise.all([
+    reviewQueue(scope, filters, cursor ?? null, limit),
+    queueCounts(scope, filters),
+  ]);
   return Response.json({ ...page, counts }, { headers: { "Cache-Control": "no-store" } });
 });

@@ -24,16 +24,27 @@ export const GET = handle<Ctx>(async (request, { params }) => {
 // the mail right after the answer (and retries later if the mail server is down).
 export const POST = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  const { user, input, locale } = await requireSetupWritePermit(request, eventId, inviteInput, { limit: ["invite", 60, 60 * 60_000] });
+  const { user, input, locale } = await requireSetupWritePermit(request, eventId, inviteInput, {
+    limit: ["invite", 60, 60 * 60_000],
+  });
   const event = await eventForSetup(eventId);
   if (!event) throw new ApiError("not_found");
   const tRole = translator(input.locale, "Role");
   const outcome = await inviteToEvent({
-    eventId, email: input.email, name: input.name || null, role: input.role,
-    taxonGroups: input.role === "coordinator" ? input.taxonGroups : [], actorId: user.id,
+    eventId,
+    email: input.email,
+    name: input.name || null,
+    role: input.role,
+    taxonGroups: input.role === "coordinator" ? input.taxonGroups : [],
+    actorId: user.id,
     mail: async () => {
       const url = await createMagicLink(input.email, `/${input.locale}/account`, INVITATION_MAX_AGE_S);
-      const m = invitationMail(input.locale, { url, eventName: event.name, role: tRole(input.role), inviter: user.name ?? user.email });
+      const m = invitationMail(input.locale, {
+        url,
+        eventName: event.name,
+        role: tRole(input.role),
+        inviter: user.name ?? user.email,
+      });
       return { to: input.email.toLowerCase(), kind: "invitation", locale: input.locale, ...m };
     },
   });

@@ -20,7 +20,10 @@ export const GET = handle<Ctx>(async (request, { params }) => {
 // anything is stored; then merged into the event's list in one transaction.
 export const PUT = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  const { input: { csv, save }, locale } = await requireSetupWritePermit(request, eventId, speciesUploadInput, { maxBytes: MAX_CSV_CHARS * 2 });
+  const {
+    input: { csv, save },
+    locale,
+  } = await requireSetupWritePermit(request, eventId, speciesUploadInput, { maxBytes: MAX_CSV_CHARS * 2 });
   const parsed = parseSpeciesCsv(csv);
   if (parsed.problems.length) return reportResponse(csvReport(parsed.problems, locale), locale);
   const result = await importSpecies(eventId, parsed.rows, save);

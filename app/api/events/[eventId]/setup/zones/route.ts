@@ -19,7 +19,10 @@ export const GET = handle<Ctx>(async (request, { params }) => {
 // transaction only when nothing is wrong. Problems come back as a report per feature.
 export const PUT = handle<Ctx>(async (request, { params }) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
-  const { input: { geojson, save }, locale } = await requireSetupWritePermit(request, eventId, zonesUploadInput, { maxBytes: MAX_GEOJSON_BYTES });
+  const {
+    input: { geojson, save },
+    locale,
+  } = await requireSetupWritePermit(request, eventId, zonesUploadInput, { maxBytes: MAX_GEOJSON_BYTES });
   const parsed = parseAreaAndZones(geojson);
   if (parsed.problems.length || !parsed.area) return reportResponse(geoReport(parsed.problems, locale), locale);
   const result = await uploadAreaAndZones(eventId, parsed.area, parsed.zones, save);

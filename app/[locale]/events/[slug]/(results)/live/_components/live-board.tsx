@@ -11,12 +11,29 @@ import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxi
 type Live = LiveFigures & { completeness: Completeness; at: string };
 
 export type LiveLabels = Record<
-  "perHour" | "volunteers" | "lastHour" | "today" | "total" | "backlog" |
-  "completeness" | "share" | "coverage" | "nextTitle" | "nextIntro" | "zoneLine" | "unsampled" | "loading" | "failed" | "updated" | "hour" | "sightings",
+  | "perHour"
+  | "volunteers"
+  | "lastHour"
+  | "today"
+  | "total"
+  | "backlog"
+  | "completeness"
+  | "share"
+  | "coverage"
+  | "nextTitle"
+  | "nextIntro"
+  | "zoneLine"
+  | "unsampled"
+  | "loading"
+  | "failed"
+  | "updated"
+  | "hour"
+  | "sightings",
   string
 >;
 
-const fill = (s: string, v: Record<string, string | number>) => s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
+const fill = (s: string, v: Record<string, string | number>) =>
+  s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
 
 /** The live board: refreshed every 15 s while the page is open (SWR polling). */
 export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels: LiveLabels; locale: string }) {
@@ -28,29 +45,55 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
   const c = data.completeness;
   return (
     <div className="space-y-6" data-testid="live-board">
-      <p className="text-sm text-ink-soft" role="status">{fill(labels.updated, { time: new Date(data.at).toLocaleTimeString(locale) })}</p>
+      <p className="text-sm text-ink-soft" role="status">
+        {fill(labels.updated, { time: new Date(data.at).toLocaleTimeString(locale) })}
+      </p>
       <div className="grid gap-4 md:grid-cols-3">
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.volunteers}>
           <h2 className="font-bold">{labels.volunteers}</h2>
-          <p>{labels.lastHour}: <b>{data.activeVolunteers.lastHour}</b></p>
-          <p>{labels.today}: <b>{data.activeVolunteers.today}</b></p>
-          <p>{labels.total}: <b>{data.activeVolunteers.total}</b></p>
+          <p>
+            {labels.lastHour}: <b>{data.activeVolunteers.lastHour}</b>
+          </p>
+          <p>
+            {labels.today}: <b>{data.activeVolunteers.today}</b>
+          </p>
+          <p>
+            {labels.total}: <b>{data.activeVolunteers.total}</b>
+          </p>
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.backlog}>
           <h2 className="font-bold">{labels.backlog}</h2>
-          <ul className="space-y-1">{(["pending", "returned", "approved", "rejected"] as const).map((s) => <li key={s}><ReviewStateMark state={s} />: <b>{data.backlog[s]}</b></li>)}</ul>
+          <ul className="space-y-1">
+            {(["pending", "returned", "approved", "rejected"] as const).map((s) => (
+              <li key={s}>
+                <ReviewStateMark state={s} />: <b>{data.backlog[s]}</b>
+              </li>
+            ))}
+          </ul>
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.completeness}>
           <h2 className="font-bold">{labels.completeness}</h2>
-          <p>{fill(labels.share, { observed: c.observed, chao1: num(c.chao1), lower: num(c.chao1Lower), upper: num(c.chao1Upper), share: pct(c.share) })}</p>
-          <p>{labels.coverage}: <b>{pct(c.coverage)}</b></p>
+          <p>
+            {fill(labels.share, {
+              observed: c.observed,
+              chao1: num(c.chao1),
+              lower: num(c.chao1Lower),
+              upper: num(c.chao1Upper),
+              share: pct(c.share),
+            })}
+          </p>
+          <p>
+            {labels.coverage}: <b>{pct(c.coverage)}</b>
+          </p>
         </section>
       </div>
       <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.perHour}>
         <h2 className="font-bold">{labels.perHour}</h2>
         <div className="h-56 w-full">
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart data={data.perHour.map((h) => ({ hour: h.hour.slice(5, 13).replace("T", " "), sightings: h.sightings }))}>
+            <BarChart
+              data={data.perHour.map((h) => ({ hour: h.hour.slice(5, 13).replace("T", " "), sightings: h.sightings }))}
+            >
               <CartesianGrid stroke="#d5e8dc" />
               <XAxis dataKey="hour" />
               <YAxis allowDecimals={false} />
@@ -61,12 +104,21 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
         </div>
       </section>
       <section aria-labelledby="next-title" className="space-y-2">
-        <h2 id="next-title" className="text-xl font-bold text-reed-900">{labels.nextTitle}</h2>
+        <h2 id="next-title" className="text-xl font-bold text-reed-900">
+          {labels.nextTitle}
+        </h2>
         <p>{labels.nextIntro}</p>
         <ol className="list-decimal space-y-1 pl-5" data-testid="where-next">
           {c.zones.map((z) => (
             <li key={z.id}>
-              <b>{z.name}</b>: {z.individuals === 0 ? labels.unsampled : fill(labels.zoneLine, { coverage: pct(z.coverage), undetected: num(z.undetected), observed: z.observed })}
+              <b>{z.name}</b>:{" "}
+              {z.individuals === 0
+                ? labels.unsampled
+                : fill(labels.zoneLine, {
+                    coverage: pct(z.coverage),
+                    undetected: num(z.undetected),
+                    observed: z.observed,
+                  })}
             </li>
           ))}
         </ol>

@@ -5,7 +5,19 @@ import { useState } from "react";
 import { api, ApiClientError } from "@/lib/http/client";
 
 /** "Publish": freezes the current results into a new report version. */
-export function PublishButton({ eventId, label, busyLabel, doneLabel, failedLabel }: { eventId: string; label: string; busyLabel: string; doneLabel: string; failedLabel: string }) {
+export function PublishButton({
+  eventId,
+  label,
+  busyLabel,
+  doneLabel,
+  failedLabel,
+}: {
+  eventId: string;
+  label: string;
+  busyLabel: string;
+  doneLabel: string;
+  failedLabel: string;
+}) {
   const router = useRouter();
   const [state, setState] = useState<{ busy: boolean; message: string }>({ busy: false, message: "" });
   async function publish() {
@@ -21,11 +33,17 @@ export function PublishButton({ eventId, label, busyLabel, doneLabel, failedLabe
   }
   return (
     <div className="flex flex-wrap items-center gap-3">
-      <button type="button" onClick={publish} disabled={state.busy}
-        className="min-h-touch rounded-lg bg-reed-700 px-5 font-semibold text-white hover:bg-reed-800 disabled:opacity-60">
+      <button
+        type="button"
+        onClick={publish}
+        disabled={state.busy}
+        className="min-h-touch rounded-lg bg-reed-700 px-5 font-semibold text-white hover:bg-reed-800 disabled:opacity-60"
+      >
         {state.busy ? busyLabel : label}
       </button>
-      <p role="status" aria-live="polite">{state.message}</p>
+      <p role="status" aria-live="polite">
+        {state.message}
+      </p>
     </div>
   );
 }

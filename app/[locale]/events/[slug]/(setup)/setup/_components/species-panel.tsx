@@ -7,8 +7,17 @@ import { UploadPanel, type UploadAnswer } from "./upload-panel";
 import type { taxa } from "@/db/schema";
 import { TAXON_GROUPS, TAXON_RANKS } from "@/lib/domain";
 
-type Species = Pick<typeof taxa.$inferSelect, "id" | "scientificName" | "rank" | "taxonGroup" | "sensitivity"> & { names: Record<string, string> };
-type Summary = { rows: number; newTaxa: number; addedToList: number; alreadyListed: number; namesAdded: number; namesKept: number };
+type Species = Pick<typeof taxa.$inferSelect, "id" | "scientificName" | "rank" | "taxonGroup" | "sensitivity"> & {
+  names: Record<string, string>;
+};
+type Summary = {
+  rows: number;
+  newTaxa: number;
+  addedToList: number;
+  alreadyListed: number;
+  namesAdded: number;
+  namesKept: number;
+};
 type Checked = UploadAnswer<Summary> & { notices: { line: number; message: string }[] };
 
 export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: string }) {
@@ -20,34 +29,61 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
   return (
     <div className="space-y-6">
       <UploadPanel<string, Summary, Checked>
-        kind="species" url={url} accept=".csv,text/csv"
-        read={(csv) => ({ content: csv })} body={(csv, save) => ({ csv, save })} onSaved={() => void mutate()}
-        format={(
+        kind="species"
+        url={url}
+        accept=".csv,text/csv"
+        read={(csv) => ({ content: csv })}
+        body={(csv, save) => ({ csv, save })}
+        onSaved={() => void mutate()}
+        format={
           <ul className="ml-5 list-disc space-y-1 pt-2">
             <li>{t("formatColumns")}</li>
             <li>{t("formatGroups", { list: TAXON_GROUPS.join(", ") })}</li>
             <li>{t("formatRanks", { list: TAXON_RANKS.join(", ") })}</li>
             <li>{t("formatSensitivity")}</li>
           </ul>
-        )}
-        note={<p className="max-w-prose rounded-lg border-l-4 border-heath-500 bg-heath-50 p-3 text-sm">{t("sharedNote")}</p>}
-        checkedNote={(answer) => answer.notices.length ? (
-          <ul className="ml-5 list-disc text-sm">
-            {answer.notices.map((n, i) => <li key={i}>{t("noticeLine", { line: n.line, message: n.message })}</li>)}
-          </ul>
-        ) : null}
+        }
+        note={
+          <p className="max-w-prose rounded-lg border-l-4 border-heath-500 bg-heath-50 p-3 text-sm">
+            {t("sharedNote")}
+          </p>
+        }
+        checkedNote={(answer) =>
+          answer.notices.length ? (
+            <ul className="ml-5 list-disc text-sm">
+              {answer.notices.map((n, i) => (
+                <li key={i}>{t("noticeLine", { line: n.line, message: n.message })}</li>
+              ))}
+            </ul>
+          ) : null
+        }
       />
 
       <section aria-labelledby="species-current-title" className="space-y-3">
-        <h2 id="species-current-title" className="text-2xl font-bold text-reed-900">{t("currentTitle", { count: data?.species.length ?? 0 })}</h2>
-        {!data ? <p role="status">{t("loading")}</p> : data.species.length === 0 ? <p>{t("none")}</p> : (
+        <h2 id="species-current-title" className="text-2xl font-bold text-reed-900">
+          {t("currentTitle", { count: data?.species.length ?? 0 })}
+        </h2>
+        {!data ? (
+          <p role="status">{t("loading")}</p>
+        ) : data.species.length === 0 ? (
+          <p>{t("none")}</p>
+        ) : (
           <table className="w-full text-left text-sm">
             <caption className="sr-only">{t("currentCaption")}</caption>
-            <thead><tr className="border-b border-reed-300"><th scope="col">{t("colScientific")}</th><th scope="col">{t("colCommon")}</th><th scope="col">{t("colGroup")}</th><th scope="col">{t("colSensitivity")}</th></tr></thead>
+            <thead>
+              <tr className="border-b border-reed-300">
+                <th scope="col">{t("colScientific")}</th>
+                <th scope="col">{t("colCommon")}</th>
+                <th scope="col">{t("colGroup")}</th>
+                <th scope="col">{t("colSensitivity")}</th>
+              </tr>
+            </thead>
             <tbody>
               {data.species.map((s) => (
                 <tr key={s.id} className="border-b border-reed-100">
-                  <th scope="row" className="py-1 font-normal italic">{s.scientificName}</th>
+                  <th scope="row" className="py-1 font-normal italic">
+                    {s.scientificName}
+                  </th>
                   <td>{s.names[locale] ?? s.names.en ?? ""}</td>
                   <td>{tGroup(s.taxonGroup)}</td>
                   <td>{t(`sensitivity.${s.sensitivity}`)}</td>

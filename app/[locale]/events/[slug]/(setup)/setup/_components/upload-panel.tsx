@@ -32,7 +32,9 @@ type Props<C, S, A extends UploadAnswer<S>> = {
   onSaved: () => void;
 };
 
-export function UploadPanel<C, S extends Record<string, number>, A extends UploadAnswer<S> = UploadAnswer<S>>(props: Props<C, S, A>) {
+export function UploadPanel<C, S extends Record<string, number>, A extends UploadAnswer<S> = UploadAnswer<S>>(
+  props: Props<C, S, A>,
+) {
   const { kind, url } = props;
   const t = useTranslations(`Setup.${kind}`);
   const [file, setFile] = useState<{ name: string; content: C | null } | null>(null);
@@ -43,7 +45,10 @@ export function UploadPanel<C, S extends Record<string, number>, A extends Uploa
   /** Sends the file; a refusal without a report (too large, no answer) becomes a one-line report. */
   async function put(content: C, save: boolean): Promise<A | null> {
     setBusy(true);
-    const res = await api.call<A, Partial<Pick<UploadReport<S>, "report">>>(url, { method: "PUT", body: props.body(content, save) });
+    const res = await api.call<A, Partial<Pick<UploadReport<S>, "report">>>(url, {
+      method: "PUT",
+      body: props.body(content, save),
+    });
     setBusy(false);
     if (res.ok) {
       if (!save) setAnswer({ report: [], checked: res.data });
@@ -52,7 +57,13 @@ export function UploadPanel<C, S extends Record<string, number>, A extends Uploa
     setAnswer({ report: res.error.body?.report ?? [failure(res.error)] });
     return null;
   }
-  const failure = (error: ApiClientError): ReportLine => ({ feature: null, line: 1, field: "(file)", code: "error", message: error.problem || t("failed") });
+  const failure = (error: ApiClientError): ReportLine => ({
+    feature: null,
+    line: 1,
+    field: "(file)",
+    code: "error",
+    message: error.problem || t("failed"),
+  });
 
   async function check(name: string, text: string) {
     setDone(null);
@@ -80,28 +91,50 @@ export function UploadPanel<C, S extends Record<string, number>, A extends Uploa
   const report = answer?.report ?? [];
   const checked = answer && "checked" in answer ? answer.checked : null;
   return (
-    <section aria-labelledby={`${kind}-upload-title`} className="space-y-3 rounded-xl border border-reed-200 bg-white/70 p-4">
-      <h2 id={`${kind}-upload-title`} className="text-2xl font-bold text-reed-900">{t("uploadTitle")}</h2>
+    <section
+      aria-labelledby={`${kind}-upload-title`}
+      className="space-y-3 rounded-xl border border-reed-200 bg-white/70 p-4"
+    >
+      <h2 id={`${kind}-upload-title`} className="text-2xl font-bold text-reed-900">
+        {t("uploadTitle")}
+      </h2>
       <p className="max-w-prose">{t("uploadIntro")}</p>
       <details className="max-w-prose text-sm">
         <summary className="cursor-pointer font-semibold">{t("formatTitle")}</summary>
         {props.format}
       </details>
       {props.note}
-      <label className="block font-semibold" htmlFor={`${kind}-file`}>{t("fileLabel")}</label>
-      <input id={`${kind}-file`} type="file" accept={props.accept} className="block min-h-touch"
-        onChange={async (e) => { const f = e.target.files?.[0]; if (f) await check(f.name, await f.text()); e.target.value = ""; }} />
+      <label className="block font-semibold" htmlFor={`${kind}-file`}>
+        {t("fileLabel")}
+      </label>
+      <input
+        id={`${kind}-file`}
+        type="file"
+        accept={props.accept}
+        className="block min-h-touch"
+        onChange={async (e) => {
+          const f = e.target.files?.[0];
+          if (f) await check(f.name, await f.text());
+          e.target.value = "";
+        }}
+      />
       {busy ? <p role="status">{t("checking")}</p> : null}
       {report.length ? <ReportTable report={report} kind={kind === "species" ? "csv" : "geojson"} /> : null}
       {checked ? (
         <div role="status" className="space-y-2 rounded-lg border-2 border-reed-600 bg-reed-50 p-3">
           <p className="font-semibold">✓ {t("checkedOk", { name: file?.name ?? "", ...checked.summary })}</p>
           {props.checkedNote?.(checked)}
-          <button type="button" className={buttonClass} onClick={save} disabled={busy}>{t("save")}</button>
+          <button type="button" className={buttonClass} onClick={save} disabled={busy}>
+            {t("save")}
+          </button>
         </div>
       ) : null}
       {file && props.preview ? props.preview(file, report) : null}
-      {done ? <p role="status" className="font-semibold text-reed-700">✓ {t("saved", { ...done })}</p> : null}
+      {done ? (
+        <p role="status" className="font-semibold text-reed-700">
+          ✓ {t("saved", { ...done })}
+        </p>
+      ) : null}
     </section>
   );
 }

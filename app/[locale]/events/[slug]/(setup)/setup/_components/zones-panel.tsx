@@ -9,7 +9,10 @@ import { UploadPanel } from "./upload-panel";
 import { HABITATS } from "@/lib/domain";
 
 type Geometry = { type: string; coordinates: unknown } | null;
-type Stored = { area: Geometry; zones: { id: string; name: string; habitat: string; areaHa: number; records: number; geometry: Geometry }[] };
+type Stored = {
+  area: Geometry;
+  zones: { id: string; name: string; habitat: string; areaHa: number; records: number; geometry: Geometry }[];
+};
 type Summary = { zones: number; added: number; updated: number; removed: number };
 
 function fileShapes(json: unknown, report: ReportLine[]): { area: Geometry; zones: PreviewZone[] } {
@@ -21,7 +24,13 @@ function fileShapes(json: unknown, report: ReportLine[]): { area: Geometry; zone
   features.forEach((f, i) => {
     const props = (f?.properties ?? {}) as Record<string, unknown>;
     if (String(props.kind ?? "zone").toLowerCase() === "area") area ??= f?.geometry ?? null;
-    else zones.push({ name: String(props.name ?? ""), habitat: String(props.habitat ?? "other"), geometry: f?.geometry ?? null, problem: bad.has(i) });
+    else
+      zones.push({
+        name: String(props.name ?? ""),
+        habitat: String(props.habitat ?? "other"),
+        geometry: f?.geometry ?? null,
+        problem: bad.has(i),
+      });
   });
   return { area, zones };
 }
@@ -44,35 +53,64 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
   return (
     <div className="space-y-6">
       <UploadPanel<unknown, Summary>
-        kind="zones" url={url} accept=".geojson,.json,application/geo+json,application/json"
-        read={read} body={(geojson, save) => ({ geojson, save })} onSaved={() => void mutate()}
-        format={(
+        kind="zones"
+        url={url}
+        accept=".geojson,.json,application/geo+json,application/json"
+        read={read}
+        body={(geojson, save) => ({ geojson, save })}
+        onSaved={() => void mutate()}
+        format={
           <ul className="ml-5 list-disc space-y-1 pt-2">
             <li>{t("formatArea")}</li>
             <li>{t("formatZones")}</li>
             <li>{t("formatHabitats", { list: HABITATS.join(", ") })}</li>
             <li>{t("formatWgs84")}</li>
           </ul>
-        )}
+        }
         preview={(file, report) => {
           if (!file.content) return null;
           const shapes = fileShapes(file.content, report);
-          return <PolygonPreview area={shapes.area} zones={shapes.zones} title={t("previewFile", { name: file.name })} />;
+          return (
+            <PolygonPreview area={shapes.area} zones={shapes.zones} title={t("previewFile", { name: file.name })} />
+          );
         }}
       />
 
       <section aria-labelledby="zones-current-title" className="space-y-3">
-        <h2 id="zones-current-title" className="text-2xl font-bold text-reed-900">{t("currentTitle")}</h2>
-        {!data ? <p role="status">{t("loading")}</p> : data.zones.length === 0 && !data.area ? <p>{t("none")}</p> : (
+        <h2 id="zones-current-title" className="text-2xl font-bold text-reed-900">
+          {t("currentTitle")}
+        </h2>
+        {!data ? (
+          <p role="status">{t("loading")}</p>
+        ) : data.zones.length === 0 && !data.area ? (
+          <p>{t("none")}</p>
+        ) : (
           <>
-            <PolygonPreview area={data.area} zones={data.zones.map((z) => ({ name: z.name, habitat: z.habitat, geometry: z.geometry }))} title={t("previewCurrent")} />
+            <PolygonPreview
+              area={data.area}
+              zones={data.zones.map((z) => ({ name: z.name, habitat: z.habitat, geometry: z.geometry }))}
+              title={t("previewCurrent")}
+            />
             <table className="w-full max-w-2xl text-left">
               <caption className="sr-only">{t("currentTitle")}</caption>
-              <thead><tr className="border-b border-reed-300"><th scope="col">{t("colName")}</th><th scope="col">{t("colHabitat")}</th><th scope="col" className="text-right">{t("colArea")}</th><th scope="col" className="text-right">{t("colRecords")}</th></tr></thead>
+              <thead>
+                <tr className="border-b border-reed-300">
+                  <th scope="col">{t("colName")}</th>
+                  <th scope="col">{t("colHabitat")}</th>
+                  <th scope="col" className="text-right">
+                    {t("colArea")}
+                  </th>
+                  <th scope="col" className="text-right">
+                    {t("colRecords")}
+                  </th>
+                </tr>
+              </thead>
               <tbody>
                 {data.zones.map((z) => (
                   <tr key={z.id} className="border-b border-reed-100">
-                    <th scope="row" className="py-1 font-normal">{z.name}</th>
+                    <th scope="row" className="py-1 font-normal">
+                      {z.name}
+                    </th>
                     <td>{tHabitat(z.habitat as never)}</td>
                     <td className="text-right tabular-nums">{z.areaHa}</td>
                     <td className="text-right tabular-nums">{z.records}</td>

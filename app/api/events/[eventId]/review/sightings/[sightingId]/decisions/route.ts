@@ -20,10 +20,15 @@ export const POST = handle(async (request, ctx: { params: Promise<{ eventId: str
     case "ok":
       return Response.json({ sighting: result.sighting, reviewId: result.reviewId });
     case "conflict":
-      throw new ApiError("conflict", [{
-        field: "version",
-        message: t("errors.conflict", { state: translator(requestLocale(request), "StateMark")(`review.${result.current.reviewState}`), version: result.current.version }),
-      }]);
+      throw new ApiError("conflict", [
+        {
+          field: "version",
+          message: t("errors.conflict", {
+            state: translator(requestLocale(request), "StateMark")(`review.${result.current.reviewState}`),
+            version: result.current.version,
+          }),
+        },
+      ]);
     case "unchanged":
       throw new ApiError("unprocessable", [{ field: "action", message: t("errors.unchanged") }]);
     case "bad_taxon":
