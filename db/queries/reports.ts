@@ -6,7 +6,15 @@ import { enqueueMail, type OutboxMail } from "./mail-queue";
 import { canonicalJson, computeResults, type Results } from "@/lib/results/compute";
 import { METHOD_NOTES } from "@/lib/results/methods";
 import { diffRecords, inputFromRecords, inputHash, type InputRecord, type ReportChanges } from "@/lib/results/records";
-import { eventZones, loadInputRecords, taxaMeta } from "./results";
+import { eventZones, loadInputRecords, pendingCounts, taxaMeta } from "./results";
+import type { Pending } from "@/lib/results/compute";
+
+/** Publishing while sightings wait for review needs `confirmPending` (the number is in the report). */
+export class PendingRecordsError extends Error {
+  constructor(readonly pending: Pending) {
+    super("pending records");
+  }
+}
 
 export type ReportRow = {
   id: string;
@@ -30,13 +38,15 @@ export type PublishMail = (report: { version: number; eventName: string; eventSl
  * under a per-event lock: inputs read in one snapshot, results computed from exactly
  * those inputs, what changed since the previous version, and the participants' e-mails.
  */
-export async function publishReport(eventId: string, userId: string, mailFor: PublishMail): Promise<{ id: string; version: number }> {
+export async function publishReport(eventId: string, userId: string, mailFor: PublishMail, options: { confirmPending?: boolean } = {}): Promise<{ id: string; version: number }> {
   return getDb().transaction(async (tx) => {
     await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtext('report:' || ${eventId}))`);
+    const pending = await pendingCounts(eventId, tx);
+    if (pending.pending + pending.returned > 0 && !options.confirmPending) throw new PendingRecordsError(pending);
     const records = await loadInputRecords(eventId, tx);
     const zones = await eventZones(eventId, tx);
-    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx);
-    const results = computeResults(inputFromRecords(records, zones, meta));
+    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
+    const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
     const [prev] = (await tx.execute<{ version: number; inputRecords: InputRecord[]; results: Results }>(sql`
       SELECT version, input_records AS "inputRecords", results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1`)).rows;
     const version = (prev?.version ?? 0) + 1;
@@ -100,8 +110,9 @@ export async function checkReport(eventId: string, version: number): Promise<{ s
   const report = await getReport(eventId, version, { withInputs: true });
   if (!report) return null;
   const zones = report.results.zones.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat }));
-  const meta = new Map(report.results.species.map((s) => [s.id, { id: s.id, scientificName: s.scientificName, rank: s.rank, group: s.group, sensitivity: s.sensitivity, names: s.names }]));
-  const recomputed = computeResults(inputFromRecords(report.inputRecords, zones, meta));
+  const meta = new Map(report.results.species.map((s) => [s.id, { id: s.id, scientificName: s.scientificName, rank: s.rank, group: s.group, sensitivity: s.sensitivity, names: s.names, countUnit: s.countUnit }]));
+  // The pending numbers are a fact declared at publishing, not computed from the inputs.
+  const recomputed = computeResults({ ...inputFromRecords(report.inputRecords, zones, meta), pending: report.results.pending ?? undefined });
   return {
     same: canonicalJson(JSON.parse(canonicalJson(recomputed))) === canonicalJson(report.results),
     hashSame: inputHash(report.inputRecords) === report.inputHash,
@@ -125,7 +136,7 @@ export async function reportOccurrences(report: { inputRecords: InputRecord[]; r
     SELECT s.id, s.observed_at AS "observedAt", ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m::float8 AS "accuracyM"
     FROM sightings s WHERE s.id = ANY(${sql.raw(`ARRAY[${ids.map((id) => `'${id.replace(/[^0-9a-f-]/gi, "")}'`).join(",")}]::uuid[]`)}) ORDER BY s.id`);
   const rec = new Map(report.inputRecords.map((x) => [x[0], x]));
-  const taxa = await taxaMeta([...new Set(report.inputRecords.map((x) => x[2]))]);
+  const taxa = await taxaMeta([...new Set(report.inputRecords.map((x) => x[2]))]); // session records' "" is skipped
   const recorded = new Map(report.results.species.map((s) => [s.id, s.sensitivity]));
   const order = { open: 0, generalised: 1, restricted: 2 } as const;
   return r.rows.map((row) => {

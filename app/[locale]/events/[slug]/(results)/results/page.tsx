@@ -46,7 +46,8 @@ export default async function ResultsPage({ params }: Props) {
         <h2 id="reports-title" className="text-2xl font-bold text-reed-900">{t("reports.title")}</h2>
         <p className="max-w-prose">{t("reports.intro")}</p>
         {canPublish ? (
-          <PublishButton eventId={event.id} label={t("reports.publish")} busyLabel={t("reports.publishing")} doneLabel={t("reports.published", { version: "{version}" })} failedLabel={t("reports.failed")} />
+          <PublishButton eventId={event.id} label={t("reports.publish")} busyLabel={t("reports.publishing")} doneLabel={t("reports.published", { version: "{version}" })} failedLabel={t("reports.failed")}
+            confirmPending={t("reports.confirmPending", { pending: "{pending}", returned: "{returned}" })} confirm={t("reports.confirm")} cancel={t("reports.cancel")} />
         ) : null}
         {reports.length === 0 ? <p>{t("reports.none")}</p> : (
           <ul className="space-y-2">
