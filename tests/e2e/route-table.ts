@@ -65,8 +65,10 @@ export const ROUTES: RouteCase[] = [
   { file: "app/api/events/[eventId]/sightings/mine/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/sightings/mine`, allowed: EVENT_MEMBERS, note: "only the caller's own sightings" },
   { file: "app/api/events/[eventId]/results/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/results`, allowed: COORDINATORS },
   { file: "app/api/events/[eventId]/live/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/live`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/count-units/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/count-units`, allowed: COORDINATORS },
+  { file: "app/api/events/[eventId]/count-units/route.ts", method: "PUT", path: (i) => `/api/events/${i.eventId}/count-units`, body: () => ({ group: "other", unit: "individuals" }), allowed: ORGANISERS, note: "sets the default again: results unchanged" },
   { file: "app/api/events/[eventId]/reports/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/reports`, allowed: COORDINATORS },
-  { file: "app/api/events/[eventId]/reports/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/reports`, allowed: ORGANISERS, note: "publishes a new report version" },
+  { file: "app/api/events/[eventId]/reports/route.ts", method: "POST", path: (i) => `/api/events/${i.eventId}/reports`, allowed: ORGANISERS, note: "publishes a new report version (409 while sightings are pending, without confirmPending)" },
   { file: "app/api/events/[eventId]/reports/[version]/check/route.ts", method: "GET", path: (i) => `/api/events/${i.eventId}/reports/1/check`, allowed: COORDINATORS, note: "404 when no version 1 yet" },
   { file: "app/api/reports/[reportId]/[file]/route.ts", method: "GET", path: () => "/api/reports/00000000-0000-0000-0000-000000000000/species.csv", allowed: EVERYONE, note: "public: published report downloads (404 for an unknown report)" },
 ];
