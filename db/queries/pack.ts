@@ -2,6 +2,8 @@ import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventSpecies, events, taxa, taxonNames, zones } from "../schema";
+import { eventCountUnits } from "./results";
+import { DEFAULT_COUNT_UNITS, countUnitOf, type CountUnit } from "@/lib/results/settings";
 
 // The event pack (issue 5): everything the field log needs to work offline at one event,
 // stored on the device and refreshed only when its ETag changes.
@@ -28,6 +30,8 @@ export type EventPack = {
     languages: string[]; sessionKinds: string[]; accuracyLimitM: number;
     photoRules: { requiredForSensitive: boolean; requiredOffList: boolean };
     area: Geometry | null;
+    /** What a count means for each taxon group in this event (lib/results/settings.ts), for the field log to show beside the count. */
+    countUnits: Record<string, CountUnit>;
   };
   zones: { type: "FeatureCollection"; features: ZoneFeature[] };
   species: PackSpecies[];
@@ -47,6 +51,7 @@ export async function getEventPack(eventId: string): Promise<EventPack | null> {
     area: sql<string | null>`CASE WHEN ${events.area} IS NULL THEN NULL ELSE ${geoJson(events.area)} END`,
   }).from(events).where(eq(events.id, eventId)).limit(1);
   if (!event) return null;
+  const chosenUnits = await eventCountUnits(eventId, db);
 
   const zoneRows = await db.select({ id: zones.id, name: zones.name, habitat: zones.habitat, description: zones.description, geometry: geoJson(zones.geom) })
     .from(zones).where(eq(zones.eventId, eventId)).orderBy(asc(zones.name), asc(zones.id));
@@ -69,6 +74,7 @@ export async function getEventPack(eventId: string): Promise<EventPack | null> {
       timeZone: event.timeZone, languages: event.languages, sessionKinds: event.sessionKinds, accuracyLimitM: event.accuracyLimitM,
       photoRules: { requiredForSensitive: event.photoRequiredSensitive, requiredOffList: event.photoRequiredOffList },
       area: event.area ? (JSON.parse(event.area) as Geometry) : null,
+      countUnits: Object.fromEntries(Object.keys(DEFAULT_COUNT_UNITS).map((g) => [g, countUnitOf(g, chosenUnits)])),
     },
     zones: {
       type: "FeatureCollection",
