@@ -4,6 +4,7 @@ import { ResultsCharts, type ChartLabels } from "./results-charts";
 import { StatsTable } from "./stats-table";
 import { ZoneComparison } from "./zone-comparison";
 import { SUFFICIENCY } from "@/lib/results/settings";
+import { ABUNDANCE_REASONS, INCIDENCE_REASONS, reasonsText } from "./reasons";
 
 /** Sightings not in the numbers yet (pending review or returned), as results and reports state them. */
 export async function PendingNotice({ pending }: { pending: Results["pending"] }) {
@@ -56,6 +57,10 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
           ranks={results.species.map((s) => s.individuals)}
           zones={results.zones.filter((z) => z.rarefaction.length > 0).map((z) => ({ name: z.name, rarefaction: z.rarefaction }))}
           labels={labels}
+          rarefactionNote={results.event.individuals > 0 && !results.event.abundance
+            ? t("tooFew.abundanceWithheld", { reasons: reasonsText(t, results.event.reasons.filter((r) => ABUNDANCE_REASONS.includes(r)), results.event) }) : undefined}
+          accumulationNote={results.event.individuals > 0 && !results.event.incidence
+            ? t("tooFew.incidenceWithheld", { reasons: reasonsText(t, results.event.reasons.filter((r) => INCIDENCE_REASONS.includes(r)), results.event) }) : undefined}
         />
       </section>
 
