@@ -21,10 +21,45 @@ export function profileOf(s: Sample): FrequencyProfile {
   return buildProfile("incidence", s.frequencies, s.units);
 }
 
+/**
+ * The size at which a profile reaches coverage c: the same answer as the engine's
+ * sizeForCoverage (the integer m ≤ N whose rarefied coverage is closest to c, or the
+ * analytic m beyond N), found by a safeguarded regula falsi instead of plain bisection,
+ * since the bootstrap asks it hundreds of times per zone.
+ */
+export function sizeAtCoverage(p: FrequencyProfile, c: number): number {
+  const N = p.size;
+  if (N === 0) return 0;
+  const full = sampleCoverage(p);
+  if (c > full) return sizeForCoverage(p, c);
+  const cov = (m: number) => curvePoint(p, m).coverage;
+  let lo = 0;
+  let hi = N;
+  let cLo = 0;
+  let cHi = full;
+  let bisect = false;
+  while (hi - lo > 1) {
+    let m: number;
+    if (bisect || cHi <= cLo) m = Math.floor((lo + hi) / 2);
+    else m = Math.min(hi - 1, Math.max(lo + 1, Math.round(lo + ((hi - lo) * (c - cLo)) / (cHi - cLo))));
+    const width = hi - lo;
+    const cm = cov(m);
+    if (cm >= c) {
+      hi = m;
+      cHi = cm;
+    } else {
+      lo = m;
+      cLo = cm;
+    }
+    bisect = !bisect && hi - lo > width / 2; // a falsi step that did not halve the bracket: bisect next
+  }
+  return Math.abs(cLo - c) < Math.abs(cHi - c) ? lo : hi;
+}
+
 /** Richness of a profile at coverage c (interpolated or extrapolated). */
 export function richnessAtCoverage(p: FrequencyProfile, c: number): number {
   if (p.size === 0) return 0;
-  return curvePoint(p, sizeForCoverage(p, c)).richness;
+  return curvePoint(p, sizeAtCoverage(p, c)).richness;
 }
 
 /**
@@ -64,20 +99,28 @@ function redraw(p: FrequencyProfile, rng: Rng, assemblage: Float64Array): Freque
   return buildProfile("incidence", y, p.size);
 }
 
-export type Difference = { difference: number; lower: number; upper: number; sd: number; replicates: number; seed: number };
-
-/** The difference a − b of richness at coverage c, with its bootstrap interval (fixed seed). */
-export function differenceAtCoverage(a: Sample, b: Sample, c: number, options: { replicates: number; seed: number }): Difference {
-  const pa = profileOf(a);
-  const pb = profileOf(b);
-  const difference = richnessAtCoverage(pa, c) - richnessAtCoverage(pb, c);
-  const assemblage = (p: FrequencyProfile) => (p.kind === "abundance" ? bootstrapAssemblage(p, sampleCoverage(p)) : incidenceAssemblage(p));
-  const ea = assemblage(pa);
-  const eb = assemblage(pb);
+/** Richness at coverage c of `replicates` redraws of the sample's estimated assemblage (fixed seed). */
+export function bootstrapAtCoverage(s: Sample, c: number, options: { replicates: number; seed: number }): Float64Array {
+  const p = profileOf(s);
+  const assemblage = p.kind === "abundance" ? bootstrapAssemblage(p, sampleCoverage(p)) : incidenceAssemblage(p);
   const rng = new Rng(options.seed);
+  const out = new Float64Array(options.replicates);
+  for (let r = 0; r < options.replicates; r++) out[r] = richnessAtCoverage(redraw(p, rng, assemblage), c);
+  return out;
+}
+
+export type Difference = { difference: number; lower: number; upper: number; sd: number };
+
+/**
+ * The difference a − b at one coverage from each zone's estimate and its own bootstrap
+ * replicates (independent draws, so replicate r of the difference is a[r] − b[r]):
+ * observed difference ± 1.96 × sd of the replicate differences.
+ */
+export function differenceInterval(estimateA: number, estimateB: number, a: Float64Array, b: Float64Array): Difference {
+  const difference = estimateA - estimateB;
   const diffs: number[] = [];
-  for (let r = 0; r < options.replicates; r++) {
-    const d = richnessAtCoverage(redraw(pa, rng, ea), c) - richnessAtCoverage(redraw(pb, rng, eb), c);
+  for (let r = 0; r < Math.min(a.length, b.length); r++) {
+    const d = (a[r] as number) - (b[r] as number);
     if (Number.isFinite(d)) diffs.push(d);
   }
   let mean = 0;
@@ -86,5 +129,13 @@ export function differenceAtCoverage(a: Sample, b: Sample, c: number, options: {
   let ss = 0;
   for (const d of diffs) ss += (d - mean) ** 2;
   const sd = diffs.length > 1 ? Math.sqrt(ss / (diffs.length - 1)) : 0;
-  return { difference, lower: difference - Z95 * sd, upper: difference + Z95 * sd, sd, replicates: options.replicates, seed: options.seed };
+  return { difference, lower: difference - Z95 * sd, upper: difference + Z95 * sd, sd };
+}
+
+/** The difference a − b of richness at coverage c, with its bootstrap interval (fixed seeds: `seed` for a, `seed + 1` for b). */
+export function differenceAtCoverage(a: Sample, b: Sample, c: number, options: { replicates: number; seed: number }): Difference {
+  return differenceInterval(
+    richnessAtCoverage(profileOf(a), c), richnessAtCoverage(profileOf(b), c),
+    bootstrapAtCoverage(a, c, options), bootstrapAtCoverage(b, c, { ...options, seed: options.seed + 1 }),
+  );
 }

@@ -11,7 +11,7 @@ import {
 } from "@/lib/diversity/index";
 import { curvePoint } from "@/lib/diversity/curves";
 import { sizeForCoverage } from "@/lib/diversity/compare";
-import { differenceAtCoverage, profileOf, type Sample } from "./compare";
+import { bootstrapAtCoverage, differenceInterval, profileOf, type Sample } from "./compare";
 import { resolveRanks, type RankStatus } from "./ranks";
 import { COMPARISON_BOOTSTRAP, countUnitOf, SUFFICIENCY, type CountUnit } from "./settings";
 
@@ -199,8 +199,19 @@ function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepare
     const p = profiles.get(z.id)!;
     return { ...z, atSize: atEffort(curvePoint(p, size)), atCoverage: atEffort(curvePoint(p, sizeForCoverage(p, coverage))) };
   });
+  // Each zone is redrawn once (its own seed: the common seed plus its place among the
+  // compared zones) and its replicates serve every pair it is in.
+  const replicates = new Map<string, Float64Array>();
+  const repsOf = (id: string) => {
+    let r = replicates.get(id);
+    if (!r) {
+      const seed = COMPARISON_BOOTSTRAP.seed + compared.findIndex((z) => z.id === id);
+      replicates.set(id, (r = bootstrapAtCoverage(sampleOf(id), coverage, { replicates: COMPARISON_BOOTSTRAP.replicates, seed })));
+    }
+    return r;
+  };
   const sentences = pairs(rows).map(([a, b]): ComparisonSentence => {
-    const d = differenceAtCoverage(sampleOf(a.id), sampleOf(b.id), coverage, COMPARISON_BOOTSTRAP);
+    const d = differenceInterval(a.atCoverage.richness, b.atCoverage.richness, repsOf(a.id), repsOf(b.id));
     const verdict = d.lower > 0 ? "more" : d.upper < 0 ? "fewer" : "noClearDifference";
     return { a: a.id, b: b.id, verdict, difference: d.difference, lower: d.lower, upper: d.upper };
   });
