@@ -11,7 +11,7 @@ import { ReportTable, type ReportLine } from "./report-table";
 type Geometry = { type: string; coordinates: unknown } | null;
 type Stored = { area: Geometry; zones: { id: string; name: string; habitat: string; areaHa: number; records: number; geometry: Geometry }[] };
 type Summary = { zones: number; added: number; updated: number; removed: number };
-type Answer = { saved?: boolean; summary?: Summary; report?: ReportLine[] };
+type Answer = { saved?: boolean; summary?: Summary; report?: ReportLine[]; moved?: { sightings: number; sessions: number } };
 
 function fileShapes(json: unknown, report: ReportLine[]): { area: Geometry; zones: PreviewZone[] } {
   const features = (json as { features?: unknown })?.features;
@@ -35,7 +35,7 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
   const [file, setFile] = useState<{ name: string; json: unknown } | null>(null);
   const [answer, setAnswer] = useState<Answer | null>(null);
   const [busy, setBusy] = useState(false);
-  const [done, setDone] = useState<Summary | null>(null);
+  const [done, setDone] = useState<(Summary & { moved?: Answer["moved"] }) | null>(null);
 
   async function check(name: string, text: string) {
     setDone(null);
@@ -61,7 +61,7 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
     const res = await send<Answer>(url, "PUT", { geojson: file.json, save: true });
     setBusy(false);
     if (res.ok && res.body.saved) {
-      setDone(res.body.summary ?? null);
+      setDone(res.body.summary ? { ...res.body.summary, moved: res.body.moved } : null);
       setFile(null);
       setAnswer(null);
       await mutate();
@@ -96,7 +96,7 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
           </div>
         ) : null}
         {preview ? <PolygonPreview area={preview.area} zones={preview.zones} title={t("previewFile", { name: file?.name ?? "" })} /> : null}
-        {done ? <p role="status" className="font-semibold text-reed-700">✓ {t("saved", { ...done })}</p> : null}
+        {done ? <p role="status" className="font-semibold text-reed-700">✓ {t("saved", { zones: done.zones, added: done.added, updated: done.updated, removed: done.removed })}{done.moved ? ` ${t("moved", done.moved)}` : ""}</p> : null}
       </section>
 
       <section aria-labelledby="zones-current-title" className="space-y-3">
