@@ -24,12 +24,18 @@ export default defineConfig({
     trace: "retain-on-failure",
     launchOptions: {
       executablePath: "/usr/bin/chromium",
-      args: ["--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run", "--disable-quic"],
+      args: [
+        "--no-sandbox",
+        "--disable-gpu",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--disable-sync",
+        "--no-first-run",
+        "--disable-quic",
+      ],
     },
   },
-  projects: [
-    { name: "desktop", use: { ...devices["Desktop Chrome"], channel: undefined } },
-  ],
+  projects: [{ name: "desktop", use: { ...devices["Desktop Chrome"], channel: undefined } }],
   webServer: [
     {
       command: `rm -rf ${S3_DIR} && exec node_modules/.bin/tsx scripts/s3-fake.mts`,
@@ -41,18 +47,27 @@ export default defineConfig({
     {
       // The mail worker runs beside the server (as scripts/start.sh runs it), in the same
       // process group, so Playwright stops both; its digest window is seconds here, not an hour.
-      command: `node_modules/.bin/tsx --require ./scripts/no-server-only.cjs tests/e2e/prepare-db.mts && ` +
+      command:
+        `node_modules/.bin/tsx --require ./scripts/no-server-only.cjs tests/e2e/prepare-db.mts && ` +
         `(node_modules/.bin/tsx --require ./scripts/no-server-only.cjs scripts/mail-worker.mts &) && exec node_modules/.bin/next start -H 127.0.0.1 -p ${PORT}`,
       url: `${baseURL}/api/health`,
       reuseExistingServer: false,
       timeout: 120_000,
       env: {
-        DATABASE_URL, APP_URL: baseURL, NEXT_TELEMETRY_DISABLED: "1", SMTP_HOST: "127.0.0.1", SMTP_PORT: String(SMTP_PORT), AUTH_SECRET: "e2e-secret-for-browser-tests-only",
-        REVIEW_DIGEST_DELAY_SECONDS: "4", MAIL_WORKER_INTERVAL_MS: "500",
+        DATABASE_URL,
+        APP_URL: baseURL,
+        NEXT_TELEMETRY_DISABLED: "1",
+        SMTP_HOST: "127.0.0.1",
+        SMTP_PORT: String(SMTP_PORT),
+        AUTH_SECRET: "e2e-secret-for-browser-tests-only",
+        REVIEW_DIGEST_DELAY_SECONDS: "4",
+        MAIL_WORKER_INTERVAL_MS: "500",
         // Every spec shares this server and 127.0.0.1; the fuzz and role-matrix specs alone
         // send hundreds of writes as the demo organiser (lib/env.ts WRITE_LIMIT_SCALE).
         WRITE_LIMIT_SCALE: "50",
-        S3_ENDPOINT, S3_BUCKET: "ecotone-photos-e2e", CSP_EXTRA_ORIGINS: S3_ENDPOINT,
+        S3_ENDPOINT,
+        S3_BUCKET: "ecotone-photos-e2e",
+        CSP_EXTRA_ORIGINS: S3_ENDPOINT,
       },
     },
   ],

@@ -11,7 +11,12 @@ const handleI18nRouting = createMiddleware(routing);
 export default function proxy(request: NextRequest) {
   const e = env();
   const nonce = makeNonce();
-  const csp = contentSecurityPolicy({ nonce, dev: e.NODE_ENV === "development", https: e.APP_URL.startsWith("https://"), extraOrigins: e.CSP_EXTRA_ORIGINS });
+  const csp = contentSecurityPolicy({
+    nonce,
+    dev: e.NODE_ENV === "development",
+    https: e.APP_URL.startsWith("https://"),
+    extraOrigins: e.CSP_EXTRA_ORIGINS,
+  });
   const headers = new Headers(request.headers);
   headers.set("content-security-policy", csp);
   headers.set("x-nonce", nonce);

@@ -26,9 +26,15 @@ export default defineConfig({
         test: {
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
-          env: { DATABASE_URL: testDatabase, SMTP_HOST: "127.0.0.1", SMTP_PORT: process.env.TEST_SMTP_PORT ?? "2725", APP_URL: "http://localhost:3000",
+          env: {
+            DATABASE_URL: testDatabase,
+            SMTP_HOST: "127.0.0.1",
+            SMTP_PORT: process.env.TEST_SMTP_PORT ?? "2725",
+            APP_URL: "http://localhost:3000",
             // The S3 fake that tests/support/global-setup.ts starts (TEST_S3_PORT moves it).
-            S3_ENDPOINT: `http://127.0.0.1:${process.env.TEST_S3_PORT ?? "9100"}`, S3_BUCKET: "ecotone-photos-test" },
+            S3_ENDPOINT: `http://127.0.0.1:${process.env.TEST_S3_PORT ?? "9100"}`,
+            S3_BUCKET: "ecotone-photos-test",
+          },
           globalSetup: ["./tests/support/global-setup.ts"],
           fileParallelism: false,
           testTimeout: 30_000,

@@ -8,7 +8,9 @@ export async function SetupNotAllowed() {
     <div role="alert" className="max-w-prose space-y-2 rounded-lg border-2 border-signal bg-signal-soft p-4">
       <h1 className="text-2xl font-bold">{t("forbiddenTitle")}</h1>
       <p>{t("forbiddenBody")}</p>
-      <Link href="/account" className="font-semibold underline">{t("toAccount")}</Link>
+      <Link href="/account" className="font-semibold underline">
+        {t("toAccount")}
+      </Link>
     </div>
   );
 }

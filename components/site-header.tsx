@@ -7,7 +7,12 @@ import { LocaleSwitcher } from "./locale-switcher";
 import { SignOutButton } from "./sign-out-button";
 
 export async function SiteHeader() {
-  const [t, tNav, user, locale] = await Promise.all([getTranslations("Common"), getTranslations("Nav"), getSessionUser(), getLocale()]);
+  const [t, tNav, user, locale] = await Promise.all([
+    getTranslations("Common"),
+    getTranslations("Nav"),
+    getSessionUser(),
+    getLocale(),
+  ]);
   const organiser = user ? user.isAdmin || (await organisesAnything(user.id)) : false;
   const link = "inline-flex min-h-touch items-center rounded-md px-2 font-semibold underline-offset-4 hover:underline";
   return (
@@ -18,17 +23,29 @@ export async function SiteHeader() {
           <span>{t("appName")}</span>
         </Link>
         <nav aria-label={tNav("menu")} className="flex flex-wrap items-center gap-1">
-          <Link href="/" className={link}>{tNav("events")}</Link>
+          <Link href="/" className={link}>
+            {tNav("events")}
+          </Link>
           {user ? (
             <>
-              {organiser ? <Link href="/setup" className={link}>{tNav("setup")}</Link> : null}
+              {organiser ? (
+                <Link href="/setup" className={link}>
+                  {tNav("setup")}
+                </Link>
+              ) : null}
               {/* A full page load, so the service worker can answer it without a network. */}
-              <a href={`/${locale}/field`} className={link}>{tNav("fieldLog")}</a>
-              <Link href="/account" className={link} title={user.email}>{tNav("account")}</Link>
+              <a href={`/${locale}/field`} className={link}>
+                {tNav("fieldLog")}
+              </a>
+              <Link href="/account" className={link} title={user.email}>
+                {tNav("account")}
+              </Link>
               <SignOutButton />
             </>
           ) : (
-            <Link href="/sign-in" className={link}>{tNav("signIn")}</Link>
+            <Link href="/sign-in" className={link}>
+              {tNav("signIn")}
+            </Link>
           )}
           <div className="[&_select]:border-paper [&_select]:bg-reed-800 [&_select]:text-paper">
             <LocaleSwitcher />

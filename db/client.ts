@@ -5,6 +5,8 @@ import { env } from "@/lib/env";
 import * as schema from "./schema";
 
 export type Db = NodePgDatabase<typeof schema>;
+/** The handle a transaction callback receives. */
+export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 // One pool per process, kept on globalThis so Next's development reloads reuse it.
 const globalForDb = globalThis as unknown as { ecotonePool?: Pool; ecotoneDb?: Db };

@@ -13,9 +13,15 @@ const NO_OP_TAG = "0006_number_left_free";
 type Entry = { tag: string; hash: string; when: number };
 
 function journalEntries(folder: string): Entry[] {
-  const journal = JSON.parse(fs.readFileSync(path.join(folder, "meta/_journal.json"), "utf8")) as { entries: { tag: string }[] };
+  const journal = JSON.parse(fs.readFileSync(path.join(folder, "meta/_journal.json"), "utf8")) as {
+    entries: { tag: string }[];
+  };
   // readMigrationFiles is what migrate() reads: same order, same hashes, same `when` values.
-  return readMigrationFiles({ migrationsFolder: folder }).map((m, i) => ({ tag: journal.entries[i]?.tag ?? `entry ${i}`, hash: m.hash, when: m.folderMillis }));
+  return readMigrationFiles({ migrationsFolder: folder }).map((m, i) => ({
+    tag: journal.entries[i]?.tag ?? `entry ${i}`,
+    hash: m.hash,
+    when: m.folderMillis,
+  }));
 }
 
 /**
@@ -34,16 +40,24 @@ async function reconcileJournal(client: PoolClient, entries: Entry[]): Promise<v
   try {
     await client.query("SELECT pg_advisory_xact_lock(hashtext('ecotone migrations'))");
     for (const e of entries) {
-      await client.query("UPDATE drizzle.__drizzle_migrations SET created_at = $2 WHERE hash = $1 AND created_at IS DISTINCT FROM $2", [e.hash, e.when]);
+      await client.query(
+        "UPDATE drizzle.__drizzle_migrations SET created_at = $2 WHERE hash = $1 AND created_at IS DISTINCT FROM $2",
+        [e.hash, e.when],
+      );
     }
-    const { rows } = await client.query<{ hash: string; created_at: string | null }>("SELECT hash, created_at FROM drizzle.__drizzle_migrations");
+    const { rows } = await client.query<{ hash: string; created_at: string | null }>(
+      "SELECT hash, created_at FROM drizzle.__drizzle_migrations",
+    );
     const applied = new Set(rows.map((r) => r.hash));
     const last = Math.max(0, ...rows.map((r) => Number(r.created_at ?? 0)));
     const skipped: string[] = [];
     for (const e of entries) {
       if (applied.has(e.hash) || e.when > last) continue;
       if (e.tag === NO_OP_TAG) {
-        await client.query("INSERT INTO drizzle.__drizzle_migrations (hash, created_at) VALUES ($1, $2)", [e.hash, e.when]);
+        await client.query("INSERT INTO drizzle.__drizzle_migrations (hash, created_at) VALUES ($1, $2)", [
+          e.hash,
+          e.when,
+        ]);
       } else {
         skipped.push(e.tag);
       }

@@ -1,388 +1,586 @@
 import { sql } from "drizzle-orm";
 import {
-  bigint, bigserial, boolean, check, customType, index, integer, jsonb, pgEnum, pgTable,
-  primaryKey, real, smallint, text, timestamp, uniqueIndex, uuid, varchar,
+  bigint,
+  bigserial,
+  boolean,
+  check,
+  customType,
+  index,
+  integer,
+  jsonb,
+  pgEnum,
+  pgTable,
+  primaryKey,
+  real,
+  smallint,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+  varchar,
 } from "drizzle-orm/pg-core";
+import {
+  CHECK_MARKS,
+  EVENT_ROLES,
+  EVENT_STATUSES,
+  HABITATS,
+  MAIL_STATUSES,
+  MEMBERSHIP_ACTIONS,
+  ORG_ROLES,
+  REVIEW_STATES,
+  SENSITIVITIES,
+  SESSION_KINDS,
+  TAXON_GROUPS,
+  TAXON_RANKS,
+} from "../lib/domain";
+import { pointFromWkbHex, type LonLat } from "../lib/geo/ewkb";
 
-// PostGIS columns. Geometries are written with ST_GeomFromGeoJSON / ST_MakePoint and read
-// back with ST_AsGeoJSON / ST_X / ST_Y in the queries, so the driver value is kept raw.
-// Areas and zones may be a Polygon or a MultiPolygon (an event area in two parts, a zone
-// split by a river); a CHECK on each column keeps any other geometry out.
+// PostGIS columns. Areas and zones are written with ST_GeomFromGeoJSON and read back with
+// ST_AsGeoJSON in the queries, so their driver value is kept raw; they may be a Polygon or
+// a MultiPolygon (an event area in two parts, a zone split by a river), and a CHECK on
+// each column keeps any other geometry out. A point is a longitude and a latitude: written
+// as ST_MakePoint in WGS 84, read from the (E)WKB that PostgreSQL returns.
 const areal = customType<{ data: string; driverData: string }>({
   dataType: () => "geometry(Geometry,4326)",
 });
-const point = customType<{ data: string; driverData: string }>({
+const point = customType<{ data: LonLat; driverData: string }>({
   dataType: () => "geometry(Point,4326)",
+  toDriver: ({ longitude, latitude }) => sql`ST_SetSRID(ST_MakePoint(${longitude}, ${latitude}), 4326)`,
+  fromDriver: (value) => pointFromWkbHex(value),
 });
 
 const createdAt = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
 
-// ---------------------------------------------------------------- enums (design.md "Words")
-export const reviewState = pgEnum("review_state", ["pending", "approved", "rejected", "returned"]);
-export const eventRole = pgEnum("event_role", ["organiser", "coordinator", "volunteer"]);
-export const orgRole = pgEnum("org_role", ["organiser", "member"]);
-export const habitatKind = pgEnum("habitat_kind", [
-  "interior", "edge", "wetland", "open_water", "grassland", "woodland", "urban", "other",
-]);
-export const taxonGroup = pgEnum("taxon_group", [
-  "birds", "vascular_plants", "insects", "fungi", "mammals", "amphibians_reptiles", "molluscs", "other",
-]);
-export const taxonRank = pgEnum("taxon_rank", ["family", "genus", "species", "subspecies", "variety", "form"]);
-// open: shown as recorded; generalised: public locations coarsened; restricted: exact
-// location seen only by the event's organisers and coordinators.
-export const sensitivity = pgEnum("sensitivity", ["open", "generalised", "restricted"]);
-export const sessionKind = pgEnum("session_kind", ["timed_count", "walk", "plot_search"]);
-export const eventStatus = pgEnum("event_status", ["draft", "open", "closed"]);
-export const checkMark = pgEnum("check_mark", [
-  "outside_area", "outside_dates", "high_count", "not_on_list", "sensitive_taxon",
-  "photo_missing", "possible_duplicate", "poor_accuracy",
-]);
-export const outboxStatus = pgEnum("outbox_status", ["queued", "sending", "sent", "failed"]);
+// ---------------------------------------------------------------- enums (design.md "Words"; the lists live in lib/domain.ts)
+export const reviewState = pgEnum("review_state", REVIEW_STATES);
+export const eventRole = pgEnum("event_role", EVENT_ROLES);
+export const orgRole = pgEnum("org_role", ORG_ROLES);
+export const habitatKind = pgEnum("habitat_kind", HABITATS);
+export const taxonGroup = pgEnum("taxon_group", TAXON_GROUPS);
+export const taxonRank = pgEnum("taxon_rank", TAXON_RANKS);
+export const sensitivity = pgEnum("sensitivity", SENSITIVITIES);
+export const sessionKind = pgEnum("session_kind", SESSION_KINDS);
+export const eventStatus = pgEnum("event_status", EVENT_STATUSES);
+export const checkMark = pgEnum("check_mark", CHECK_MARKS);
+export const outboxStatus = pgEnum("outbox_status", MAIL_STATUSES);
 
 // ---------------------------------------------------------------- sign-in (next-auth's shape)
-export const users = pgTable("users", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  name: text("name"),
-  email: text("email").notNull(),
-  emailVerified: timestamp("email_verified", { withTimezone: true, mode: "date" }),
-  image: text("image"),
-  passwordHash: text("password_hash"),
-  locale: varchar("locale", { length: 8 }).notNull().default("en"),
-  isAdmin: boolean("is_admin").notNull().default(false),
-  createdAt: createdAt(),
-}, (t) => [
-  uniqueIndex("users_email_lower_key").on(sql`lower(${t.email})`),
-  check("users_email_shape", sql`${t.email} ~ '^[^@\\s]+@[^@\\s]+$'`),
-]);
+export const users = pgTable(
+  "users",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    name: text("name"),
+    email: text("email").notNull(),
+    emailVerified: timestamp("email_verified", { withTimezone: true, mode: "date" }),
+    image: text("image"),
+    passwordHash: text("password_hash"),
+    locale: varchar("locale", { length: 8 }).notNull().default("en"),
+    isAdmin: boolean("is_admin").notNull().default(false),
+    // Raised by sign-out, a password change or erasure: every session token carries the value it
+    // was issued with, and one that no longer matches is refused (server/auth/options.ts).
+    sessionVersion: integer("session_version").notNull().default(0),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("users_email_lower_key").on(sql`lower(${t.email})`),
+    check("users_email_shape", sql`${t.email} ~ '^[^@\\s]+@[^@\\s]+$'`),
+  ],
+);
 
-export const accounts = pgTable("accounts", {
-  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
-  type: text("type").notNull(),
-  provider: text("provider").notNull(),
-  providerAccountId: text("provider_account_id").notNull(),
-  refresh_token: text("refresh_token"),
-  access_token: text("access_token"),
-  expires_at: integer("expires_at"),
-  token_type: text("token_type"),
-  scope: text("scope"),
-  id_token: text("id_token"),
-  session_state: text("session_state"),
-}, (t) => [primaryKey({ columns: [t.provider, t.providerAccountId] }), index("accounts_user_idx").on(t.userId)]);
+export const accounts = pgTable(
+  "accounts",
+  {
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    type: text("type").notNull(),
+    provider: text("provider").notNull(),
+    providerAccountId: text("provider_account_id").notNull(),
+    refresh_token: text("refresh_token"),
+    access_token: text("access_token"),
+    expires_at: integer("expires_at"),
+    token_type: text("token_type"),
+    scope: text("scope"),
+    id_token: text("id_token"),
+    session_state: text("session_state"),
+  },
+  (t) => [primaryKey({ columns: [t.provider, t.providerAccountId] }), index("accounts_user_idx").on(t.userId)],
+);
 
-export const sessions = pgTable("sessions", {
-  sessionToken: text("session_token").primaryKey(),
-  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
-  expires: timestamp("expires", { withTimezone: true, mode: "date" }).notNull(),
-}, (t) => [index("sessions_user_idx").on(t.userId)]);
+export const sessions = pgTable(
+  "sessions",
+  {
+    sessionToken: text("session_token").primaryKey(),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    expires: timestamp("expires", { withTimezone: true, mode: "date" }).notNull(),
+  },
+  (t) => [index("sessions_user_idx").on(t.userId)],
+);
 
-export const verificationTokens = pgTable("verification_tokens", {
-  identifier: text("identifier").notNull(),
-  token: text("token").notNull(),
-  expires: timestamp("expires", { withTimezone: true, mode: "date" }).notNull(),
-}, (t) => [primaryKey({ columns: [t.identifier, t.token] })]);
+export const verificationTokens = pgTable(
+  "verification_tokens",
+  {
+    identifier: text("identifier").notNull(),
+    token: text("token").notNull(),
+    expires: timestamp("expires", { withTimezone: true, mode: "date" }).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.identifier, t.token] })],
+);
 
 // ---------------------------------------------------------------- organisations and events
-export const organisations = pgTable("organisations", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  slug: varchar("slug", { length: 80 }).notNull().unique(),
-  name: text("name").notNull(),
-  createdAt: createdAt(),
-}, (t) => [check("organisations_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`)]);
+export const organisations = pgTable(
+  "organisations",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    slug: varchar("slug", { length: 80 }).notNull().unique(),
+    name: text("name").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [check("organisations_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`)],
+);
 
-export const organisationMembers = pgTable("organisation_members", {
-  organisationId: uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "cascade" }),
-  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
-  role: orgRole("role").notNull(),
-  createdAt: createdAt(),
-}, (t) => [primaryKey({ columns: [t.organisationId, t.userId] }), index("organisation_members_user_idx").on(t.userId)]);
+export const organisationMembers = pgTable(
+  "organisation_members",
+  {
+    organisationId: uuid("organisation_id")
+      .notNull()
+      .references(() => organisations.id, { onDelete: "cascade" }),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    role: orgRole("role").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.organisationId, t.userId] }), index("organisation_members_user_idx").on(t.userId)],
+);
 
-export const events = pgTable("events", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  organisationId: uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "restrict" }),
-  slug: varchar("slug", { length: 80 }).notNull().unique(),
-  name: text("name").notNull(),
-  description: text("description").notNull().default(""),
-  status: eventStatus("status").notNull().default("draft"),
-  startsAt: timestamp("starts_at", { withTimezone: true, mode: "date" }).notNull(),
-  endsAt: timestamp("ends_at", { withTimezone: true, mode: "date" }).notNull(),
-  timeZone: text("time_zone").notNull(),
-  languages: text("languages").array().notNull().default(sql`ARRAY['en']::text[]`),
-  area: areal("area"),
-  sessionKinds: sessionKind("session_kinds").array().notNull().default(sql`ARRAY['timed_count','walk','plot_search']::session_kind[]`),
-  photoRequiredSensitive: boolean("photo_required_sensitive").notNull().default(true),
-  photoRequiredOffList: boolean("photo_required_off_list").notNull().default(true),
-  accuracyLimitM: integer("accuracy_limit_m").notNull().default(100),
-  joinCode: varchar("join_code", { length: 32 }).unique(),
-  createdAt: createdAt(),
-}, (t) => [
-  check("events_ends_after_starts", sql`${t.endsAt} > ${t.startsAt}`),
-  check("events_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`),
-  check("events_accuracy_limit_positive", sql`${t.accuracyLimitM} > 0`),
-  check("events_languages_nonempty", sql`cardinality(${t.languages}) > 0`),
-  check("events_area_valid", sql`${t.area} IS NULL OR ST_IsValid(${t.area})`),
-  check("events_area_areal", sql`${t.area} IS NULL OR GeometryType(${t.area}) IN ('POLYGON', 'MULTIPOLYGON')`),
-  index("events_organisation_idx").on(t.organisationId),
-  index("events_area_gist").using("gist", t.area),
-]);
+export const events = pgTable(
+  "events",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    organisationId: uuid("organisation_id")
+      .notNull()
+      .references(() => organisations.id, { onDelete: "restrict" }),
+    slug: varchar("slug", { length: 80 }).notNull().unique(),
+    name: text("name").notNull(),
+    description: text("description").notNull().default(""),
+    status: eventStatus("status").notNull().default("draft"),
+    startsAt: timestamp("starts_at", { withTimezone: true, mode: "date" }).notNull(),
+    endsAt: timestamp("ends_at", { withTimezone: true, mode: "date" }).notNull(),
+    timeZone: text("time_zone").notNull(),
+    languages: text("languages")
+      .array()
+      .notNull()
+      .default(sql`ARRAY['en']::text[]`),
+    area: areal("area"),
+    sessionKinds: sessionKind("session_kinds")
+      .array()
+      .notNull()
+      .default(sql`ARRAY['timed_count','walk','plot_search']::session_kind[]`),
+    photoRequiredSensitive: boolean("photo_required_sensitive").notNull().default(true),
+    photoRequiredOffList: boolean("photo_required_off_list").notNull().default(true),
+    accuracyLimitM: integer("accuracy_limit_m").notNull().default(100),
+    joinCode: varchar("join_code", { length: 32 }).unique(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check("events_ends_after_starts", sql`${t.endsAt} > ${t.startsAt}`),
+    check("events_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`),
+    check("events_accuracy_limit_positive", sql`${t.accuracyLimitM} > 0`),
+    check("events_languages_nonempty", sql`cardinality(${t.languages}) > 0`),
+    check("events_area_valid", sql`${t.area} IS NULL OR ST_IsValid(${t.area})`),
+    check("events_area_areal", sql`${t.area} IS NULL OR GeometryType(${t.area}) IN ('POLYGON', 'MULTIPOLYGON')`),
+    index("events_organisation_idx").on(t.organisationId),
+    index("events_area_gist").using("gist", t.area),
+  ],
+);
 
-export const zones = pgTable("zones", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  name: text("name").notNull(),
-  habitat: habitatKind("habitat").notNull(),
-  description: text("description").notNull().default(""),
-  geom: areal("geom").notNull(),
-  createdAt: createdAt(),
-}, (t) => [
-  uniqueIndex("zones_event_name_key").on(t.eventId, t.name),
-  check("zones_geom_valid", sql`ST_IsValid(${t.geom})`),
-  check("zones_geom_areal", sql`GeometryType(${t.geom}) IN ('POLYGON', 'MULTIPOLYGON')`),
-  index("zones_geom_gist").using("gist", t.geom),
-]);
+export const zones = pgTable(
+  "zones",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    habitat: habitatKind("habitat").notNull(),
+    description: text("description").notNull().default(""),
+    geom: areal("geom").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("zones_event_name_key").on(t.eventId, t.name),
+    check("zones_geom_valid", sql`ST_IsValid(${t.geom})`),
+    check("zones_geom_areal", sql`GeometryType(${t.geom}) IN ('POLYGON', 'MULTIPOLYGON')`),
+    index("zones_geom_gist").using("gist", t.geom),
+  ],
+);
 
 // ---------------------------------------------------------------- taxa and species lists
-export const taxa = pgTable("taxa", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  scientificName: text("scientific_name").notNull(),
-  rank: taxonRank("rank").notNull().default("species"),
-  taxonGroup: taxonGroup("taxon_group").notNull(),
-  sensitivity: sensitivity("sensitivity").notNull().default("open"),
-  createdAt: createdAt(),
-}, (t) => [
-  uniqueIndex("taxa_scientific_name_key").on(sql`lower(${t.scientificName})`),
-  check("taxa_scientific_name_nonempty", sql`length(btrim(${t.scientificName})) > 0`),
-]);
+export const taxa = pgTable(
+  "taxa",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    scientificName: text("scientific_name").notNull(),
+    rank: taxonRank("rank").notNull().default("species"),
+    taxonGroup: taxonGroup("taxon_group").notNull(),
+    sensitivity: sensitivity("sensitivity").notNull().default("open"),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("taxa_scientific_name_key").on(sql`lower(${t.scientificName})`),
+    check("taxa_scientific_name_nonempty", sql`length(btrim(${t.scientificName})) > 0`),
+  ],
+);
 
-export const taxonNames = pgTable("taxon_names", {
-  taxonId: uuid("taxon_id").notNull().references(() => taxa.id, { onDelete: "cascade" }),
-  locale: varchar("locale", { length: 8 }).notNull(),
-  name: text("name").notNull(),
-}, (t) => [
-  primaryKey({ columns: [t.taxonId, t.locale] }),
-  check("taxon_names_nonempty", sql`length(btrim(${t.name})) > 0`),
-]);
+export const taxonNames = pgTable(
+  "taxon_names",
+  {
+    taxonId: uuid("taxon_id")
+      .notNull()
+      .references(() => taxa.id, { onDelete: "cascade" }),
+    locale: varchar("locale", { length: 8 }).notNull(),
+    name: text("name").notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.taxonId, t.locale] }),
+    check("taxon_names_nonempty", sql`length(btrim(${t.name})) > 0`),
+  ],
+);
 
-export const eventSpecies = pgTable("event_species", {
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  taxonId: uuid("taxon_id").notNull().references(() => taxa.id, { onDelete: "restrict" }),
-  addedAt: createdAt(),
-}, (t) => [primaryKey({ columns: [t.eventId, t.taxonId] })]);
+export const eventSpecies = pgTable(
+  "event_species",
+  {
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    taxonId: uuid("taxon_id")
+      .notNull()
+      .references(() => taxa.id, { onDelete: "restrict" }),
+    addedAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.taxonId] })],
+);
 
 // What a count means for one taxon group in one event (lib/results/settings.ts holds the
 // defaults for groups without a row): abundance estimators need counts of individuals.
 export const countUnit = pgEnum("count_unit", ["individuals", "stems", "clumps", "colonies", "presence"]);
-export const eventCountUnits = pgTable("event_count_units", {
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  taxonGroup: taxonGroup("taxon_group").notNull(),
-  unit: countUnit("unit").notNull(),
-}, (t) => [primaryKey({ columns: [t.eventId, t.taxonGroup] })]);
+export const eventCountUnits = pgTable(
+  "event_count_units",
+  {
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    taxonGroup: taxonGroup("taxon_group").notNull(),
+    unit: countUnit("unit").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.taxonGroup] })],
+);
 
 // ---------------------------------------------------------------- people in events
-export const eventMembers = pgTable("event_members", {
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
-  role: eventRole("role").notNull(),
-  // Empty means every group; a coordinator limited to birds holds {birds}.
-  taxonGroups: taxonGroup("taxon_groups").array().notNull().default(sql`ARRAY[]::taxon_group[]`),
-  createdAt: createdAt(),
-}, (t) => [primaryKey({ columns: [t.eventId, t.userId] }), index("event_members_user_idx").on(t.userId)]);
+export const eventMembers = pgTable(
+  "event_members",
+  {
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    role: eventRole("role").notNull(),
+    // Empty means every group; a coordinator limited to birds holds {birds}.
+    taxonGroups: taxonGroup("taxon_groups")
+      .array()
+      .notNull()
+      .default(sql`ARRAY[]::taxon_group[]`),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.userId] }), index("event_members_user_idx").on(t.userId)],
+);
 
 // ---------------------------------------------------------------- records
-export const countSessions = pgTable("count_sessions", {
-  id: uuid("id").primaryKey(), // made on the device
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "restrict" }),
-  zoneId: uuid("zone_id").references(() => zones.id, { onDelete: "set null" }),
-  kind: sessionKind("kind").notNull(),
-  startedAt: timestamp("started_at", { withTimezone: true, mode: "date" }).notNull(),
-  endedAt: timestamp("ended_at", { withTimezone: true, mode: "date" }),
-  allSpeciesNoted: boolean("all_species_noted").notNull().default(false),
-  distanceM: real("distance_m"),
-  notes: text("notes").notNull().default(""),
-  createdAt: createdAt(),
-}, (t) => [
-  check("count_sessions_ends_after_starts", sql`${t.endedAt} IS NULL OR ${t.endedAt} > ${t.startedAt}`),
-  check("count_sessions_distance_nonneg", sql`${t.distanceM} IS NULL OR ${t.distanceM} >= 0`),
-  check("count_sessions_complete_needs_end", sql`NOT ${t.allSpeciesNoted} OR ${t.endedAt} IS NOT NULL`),
-  index("count_sessions_event_idx").on(t.eventId, t.zoneId),
-  index("count_sessions_user_idx").on(t.userId),
-]);
+export const countSessions = pgTable(
+  "count_sessions",
+  {
+    id: uuid("id").primaryKey(), // made on the device
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "restrict" }),
+    zoneId: uuid("zone_id").references(() => zones.id, { onDelete: "set null" }),
+    kind: sessionKind("kind").notNull(),
+    startedAt: timestamp("started_at", { withTimezone: true, mode: "date" }).notNull(),
+    endedAt: timestamp("ended_at", { withTimezone: true, mode: "date" }),
+    allSpeciesNoted: boolean("all_species_noted").notNull().default(false),
+    distanceM: real("distance_m"),
+    notes: text("notes").notNull().default(""),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check("count_sessions_ends_after_starts", sql`${t.endedAt} IS NULL OR ${t.endedAt} > ${t.startedAt}`),
+    check("count_sessions_distance_nonneg", sql`${t.distanceM} IS NULL OR ${t.distanceM} >= 0`),
+    check("count_sessions_complete_needs_end", sql`NOT ${t.allSpeciesNoted} OR ${t.endedAt} IS NOT NULL`),
+    index("count_sessions_event_idx").on(t.eventId, t.zoneId),
+    index("count_sessions_user_idx").on(t.userId),
+  ],
+);
 
-export const sightings = pgTable("sightings", {
-  id: uuid("id").primaryKey(), // made on the device, so a resend is harmless
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "restrict" }),
-  sessionId: uuid("session_id").references(() => countSessions.id, { onDelete: "set null" }),
-  taxonId: uuid("taxon_id").references(() => taxa.id, { onDelete: "restrict" }), // null: unidentified
-  description: text("description").notNull().default(""),
-  count: integer("count").notNull(),
-  countIsEstimate: boolean("count_is_estimate").notNull().default(false),
-  observedAt: timestamp("observed_at", { withTimezone: true, mode: "date" }).notNull(),
-  location: point("location").notNull(),
-  accuracyM: real("accuracy_m").notNull(),
-  zoneId: uuid("zone_id").references(() => zones.id, { onDelete: "set null" }),
-  notes: text("notes").notNull().default(""),
-  reviewState: reviewState("review_state").notNull().default("pending"),
-  version: integer("version").notNull().default(1), // optimistic concurrency for review decisions
-  checkMarks: checkMark("check_marks").array().notNull().default(sql`ARRAY[]::check_mark[]`),
-  createdAt: createdAt(), // received by the server
-  updatedAt: timestamp("updated_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
-}, (t) => [
-  check("sightings_count_positive", sql`${t.count} >= 1`),
-  check("sightings_accuracy_nonneg", sql`${t.accuracyM} >= 0`),
-  check("sightings_location_wgs84", sql`ST_X(${t.location}) BETWEEN -180 AND 180 AND ST_Y(${t.location}) BETWEEN -90 AND 90`),
-  check("sightings_identified_or_described", sql`${t.taxonId} IS NOT NULL OR length(btrim(${t.description})) > 0`),
-  index("sightings_queue_idx").on(t.eventId, t.reviewState, t.createdAt, t.id),
-  // The review queue, newest or oldest observed first, with and without a state filter.
-  index("sightings_queue_observed_idx").on(t.eventId, t.reviewState, t.observedAt, t.id),
-  index("sightings_queue_all_observed_idx").on(t.eventId, t.observedAt, t.id),
-  index("sightings_duplicate_idx").on(t.eventId, t.userId, t.taxonId, t.observedAt), // the "possible duplicate" check mark
-  index("sightings_results_idx").on(t.eventId, t.reviewState, t.taxonId),
-  index("sightings_session_idx").on(t.sessionId),
-  index("sightings_user_idx").on(t.userId, t.observedAt),
-  index("sightings_location_gist").using("gist", t.location),
-]);
+export const sightings = pgTable(
+  "sightings",
+  {
+    id: uuid("id").primaryKey(), // made on the device, so a resend is harmless
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "restrict" }),
+    sessionId: uuid("session_id").references(() => countSessions.id, { onDelete: "set null" }),
+    taxonId: uuid("taxon_id").references(() => taxa.id, { onDelete: "restrict" }), // null: unidentified
+    description: text("description").notNull().default(""),
+    count: integer("count").notNull(),
+    countIsEstimate: boolean("count_is_estimate").notNull().default(false),
+    observedAt: timestamp("observed_at", { withTimezone: true, mode: "date" }).notNull(),
+    location: point("location").notNull(),
+    accuracyM: real("accuracy_m").notNull(),
+    zoneId: uuid("zone_id").references(() => zones.id, { onDelete: "set null" }),
+    notes: text("notes").notNull().default(""),
+    reviewState: reviewState("review_state").notNull().default("pending"),
+    version: integer("version").notNull().default(1), // optimistic concurrency for review decisions
+    checkMarks: checkMark("check_marks")
+      .array()
+      .notNull()
+      .default(sql`ARRAY[]::check_mark[]`),
+    createdAt: createdAt(), // received by the server
+    updatedAt: timestamp("updated_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [
+    check("sightings_count_positive", sql`${t.count} >= 1`),
+    check("sightings_accuracy_nonneg", sql`${t.accuracyM} >= 0`),
+    check(
+      "sightings_location_wgs84",
+      sql`ST_X(${t.location}) BETWEEN -180 AND 180 AND ST_Y(${t.location}) BETWEEN -90 AND 90`,
+    ),
+    check("sightings_identified_or_described", sql`${t.taxonId} IS NOT NULL OR length(btrim(${t.description})) > 0`),
+    index("sightings_queue_idx").on(t.eventId, t.reviewState, t.createdAt, t.id),
+    // The review queue, newest or oldest observed first, with and without a state filter.
+    index("sightings_queue_observed_idx").on(t.eventId, t.reviewState, t.observedAt, t.id),
+    index("sightings_queue_all_observed_idx").on(t.eventId, t.observedAt, t.id),
+    index("sightings_duplicate_idx").on(t.eventId, t.userId, t.taxonId, t.observedAt), // the "possible duplicate" check mark
+    index("sightings_results_idx").on(t.eventId, t.reviewState, t.taxonId),
+    index("sightings_session_idx").on(t.sessionId),
+    index("sightings_user_idx").on(t.userId, t.observedAt),
+    index("sightings_location_gist").using("gist", t.location),
+  ],
+);
 
-export const photos = pgTable("photos", {
-  id: uuid("id").primaryKey(), // made on the device
-  sightingId: uuid("sighting_id").notNull().references(() => sightings.id, { onDelete: "cascade" }),
-  storageKey: text("storage_key").notNull().unique(),
-  contentType: varchar("content_type", { length: 40 }).notNull(),
-  sizeBytes: integer("size_bytes").notNull(),
-  sha256: varchar("sha256", { length: 64 }).notNull(),
-  width: integer("width"),
-  height: integer("height"),
-  createdAt: createdAt(),
-}, (t) => [
-  check("photos_type", sql`${t.contentType} IN ('image/jpeg', 'image/png', 'image/webp')`),
-  check("photos_size", sql`${t.sizeBytes} > 0 AND ${t.sizeBytes} <= 20000000`),
-  check("photos_sha256_hex", sql`${t.sha256} ~ '^[0-9a-f]{64}$'`),
-  index("photos_sighting_idx").on(t.sightingId),
-]);
+export const photos = pgTable(
+  "photos",
+  {
+    id: uuid("id").primaryKey(), // made on the device
+    sightingId: uuid("sighting_id")
+      .notNull()
+      .references(() => sightings.id, { onDelete: "cascade" }),
+    storageKey: text("storage_key").notNull().unique(),
+    contentType: varchar("content_type", { length: 40 }).notNull(),
+    sizeBytes: integer("size_bytes").notNull(),
+    sha256: varchar("sha256", { length: 64 }).notNull(),
+    width: integer("width"),
+    height: integer("height"),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check("photos_type", sql`${t.contentType} IN ('image/jpeg', 'image/png', 'image/webp')`),
+    check("photos_size", sql`${t.sizeBytes} > 0 AND ${t.sizeBytes} <= 20000000`),
+    check("photos_sha256_hex", sql`${t.sha256} ~ '^[0-9a-f]{64}$'`),
+    index("photos_sighting_idx").on(t.sightingId),
+  ],
+);
 
 // Append-only: a trigger (migration 0002) refuses UPDATE and DELETE.
-export const reviews = pgTable("reviews", {
-  id: bigserial("id", { mode: "number" }).primaryKey(),
-  sightingId: uuid("sighting_id").notNull().references(() => sightings.id, { onDelete: "restrict" }),
-  reviewerId: uuid("reviewer_id").notNull().references(() => users.id, { onDelete: "restrict" }),
-  decidedAt: timestamp("decided_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
-  fromState: reviewState("from_state").notNull(),
-  toState: reviewState("to_state").notNull(),
-  fromTaxonId: uuid("from_taxon_id").references(() => taxa.id),
-  toTaxonId: uuid("to_taxon_id").references(() => taxa.id),
-  reason: text("reason").notNull().default(""),
-  message: text("message").notNull().default(""), // the question to the volunteer, or their answer
-}, (t) => [index("reviews_sighting_idx").on(t.sightingId, t.decidedAt)]);
+export const reviews = pgTable(
+  "reviews",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    sightingId: uuid("sighting_id")
+      .notNull()
+      .references(() => sightings.id, { onDelete: "restrict" }),
+    reviewerId: uuid("reviewer_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "restrict" }),
+    decidedAt: timestamp("decided_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+    fromState: reviewState("from_state").notNull(),
+    toState: reviewState("to_state").notNull(),
+    fromTaxonId: uuid("from_taxon_id").references(() => taxa.id),
+    toTaxonId: uuid("to_taxon_id").references(() => taxa.id),
+    reason: text("reason").notNull().default(""),
+    message: text("message").notNull().default(""), // the question to the volunteer, or their answer
+  },
+  (t) => [index("reviews_sighting_idx").on(t.sightingId, t.decidedAt)],
+);
 
-export const emailOutbox = pgTable("email_outbox", {
-  id: bigserial("id", { mode: "number" }).primaryKey(),
-  toAddress: text("to_address").notNull(),
-  kind: varchar("kind", { length: 40 }).notNull(),
-  locale: varchar("locale", { length: 8 }).notNull().default("en"),
-  subject: text("subject").notNull(),
-  textBody: text("text_body").notNull(),
-  htmlBody: text("html_body"),
-  status: outboxStatus("status").notNull().default("queued"),
-  attempts: smallint("attempts").notNull().default(0),
-  lastError: text("last_error"),
-  sendAfter: timestamp("send_after", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
-  sentAt: timestamp("sent_at", { withTimezone: true, mode: "date" }),
-  createdAt: createdAt(),
-}, (t) => [index("email_outbox_due_idx").on(t.status, t.sendAfter)]);
+export const emailOutbox = pgTable(
+  "email_outbox",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    toAddress: text("to_address").notNull(),
+    kind: varchar("kind", { length: 40 }).notNull(),
+    locale: varchar("locale", { length: 8 }).notNull().default("en"),
+    subject: text("subject").notNull(),
+    textBody: text("text_body").notNull(),
+    htmlBody: text("html_body"),
+    status: outboxStatus("status").notNull().default("queued"),
+    attempts: smallint("attempts").notNull().default(0),
+    lastError: text("last_error"),
+    sendAfter: timestamp("send_after", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+    sentAt: timestamp("sent_at", { withTimezone: true, mode: "date" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("email_outbox_due_idx").on(t.status, t.sendAfter)],
+);
 
 // A published report never changes: a trigger (migration 0002) refuses UPDATE and DELETE.
-export const reports = pgTable("reports", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "restrict" }),
-  version: integer("version").notNull(),
-  publishedAt: timestamp("published_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
-  publishedBy: uuid("published_by").notNull().references(() => users.id, { onDelete: "restrict" }),
-  engineVersion: text("engine_version").notNull(),
-  inputHash: varchar("input_hash", { length: 64 }).notNull(),
-  inputRecords: jsonb("input_records").notNull(), // [[sighting id, review state], ...]
-  results: jsonb("results").notNull(),
-  methodNotes: jsonb("method_notes").notNull(),
-  changes: jsonb("changes").notNull().default(sql`'[]'::jsonb`),
-}, (t) => [
-  uniqueIndex("reports_event_version_key").on(t.eventId, t.version),
-  check("reports_version_positive", sql`${t.version} >= 1`),
-  check("reports_hash_hex", sql`${t.inputHash} ~ '^[0-9a-f]{64}$'`),
-]);
-
+export const reports = pgTable(
+  "reports",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "restrict" }),
+    version: integer("version").notNull(),
+    publishedAt: timestamp("published_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+    publishedBy: uuid("published_by")
+      .notNull()
+      .references(() => users.id, { onDelete: "restrict" }),
+    engineVersion: text("engine_version").notNull(),
+    inputHash: varchar("input_hash", { length: 64 }).notNull(),
+    inputRecords: jsonb("input_records").notNull(), // InputRecord[] of lib/results/records.ts: [sighting, state, taxon, count, zone, session, its zone]
+    results: jsonb("results").notNull(),
+    methodNotes: jsonb("method_notes").notNull(),
+    changes: jsonb("changes")
+      .notNull()
+      .default(sql`'[]'::jsonb`),
+  },
+  (t) => [
+    uniqueIndex("reports_event_version_key").on(t.eventId, t.version),
+    check("reports_version_positive", sql`${t.version} >= 1`),
+    check("reports_hash_hex", sql`${t.inputHash} ~ '^[0-9a-f]{64}$'`),
+  ],
+);
 
 // ---------------------------------------------------------------- invitations, rate limits, membership log
 // An invitation (by an organiser) or a join request (through an event's join code) waits
 // here until the person signs in with that address; then it becomes an event membership.
-export const invitations = pgTable("invitations", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  email: text("email").notNull(),
-  name: text("name"),
-  role: eventRole("role").notNull(),
-  taxonGroups: taxonGroup("taxon_groups").array().notNull().default(sql`ARRAY[]::taxon_group[]`),
-  invitedBy: uuid("invited_by").references(() => users.id, { onDelete: "set null" }), // null: self-service join
-  createdAt: createdAt(),
-  acceptedAt: timestamp("accepted_at", { withTimezone: true, mode: "date" }),
-  revokedAt: timestamp("revoked_at", { withTimezone: true, mode: "date" }),
-}, (t) => [
-  index("invitations_email_idx").on(sql`lower(${t.email})`),
-  index("invitations_event_idx").on(t.eventId),
-]);
+export const invitations = pgTable(
+  "invitations",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    email: text("email").notNull(),
+    name: text("name"),
+    role: eventRole("role").notNull(),
+    taxonGroups: taxonGroup("taxon_groups")
+      .array()
+      .notNull()
+      .default(sql`ARRAY[]::taxon_group[]`),
+    invitedBy: uuid("invited_by").references(() => users.id, { onDelete: "set null" }), // null: self-service join
+    createdAt: createdAt(),
+    acceptedAt: timestamp("accepted_at", { withTimezone: true, mode: "date" }),
+    revokedAt: timestamp("revoked_at", { withTimezone: true, mode: "date" }),
+  },
+  (t) => [index("invitations_email_idx").on(sql`lower(${t.email})`), index("invitations_event_idx").on(t.eventId)],
+);
 
 // Sign-in tries, for the per-address and per-IP limits. Old rows are pruned as new ones arrive.
-export const signInAttempts = pgTable("sign_in_attempts", {
-  id: bigserial("id", { mode: "number" }).primaryKey(),
-  key: text("key").notNull(), // "email:<address>" or "ip:<address>"
-  at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
-}, (t) => [index("sign_in_attempts_key_at_idx").on(t.key, t.at)]);
+export const signInAttempts = pgTable(
+  "sign_in_attempts",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    key: text("key").notNull(), // "email:<address>" or "ip:<address>"
+    at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [index("sign_in_attempts_key_at_idx").on(t.key, t.at)],
+);
 
-export const membershipAction = pgEnum("membership_action", ["invited", "joined", "role_changed", "removed", "invitation_revoked"]);
+export const membershipAction = pgEnum("membership_action", MEMBERSHIP_ACTIONS);
 
 // Every change to who holds which role in an event (append-only, like reviews).
-export const membershipLog = pgTable("membership_log", {
-  id: bigserial("id", { mode: "number" }).primaryKey(),
-  eventId: uuid("event_id").notNull().references(() => events.id, { onDelete: "cascade" }),
-  subjectEmail: text("subject_email").notNull(),
-  subjectUserId: uuid("subject_user_id").references(() => users.id, { onDelete: "set null" }),
-  actorId: uuid("actor_id").references(() => users.id, { onDelete: "set null" }),
-  action: membershipAction("action").notNull(),
-  fromRole: eventRole("from_role"),
-  toRole: eventRole("to_role"),
-  taxonGroups: taxonGroup("taxon_groups").array(),
-  at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
-}, (t) => [index("membership_log_event_idx").on(t.eventId, t.at)]);
+export const membershipLog = pgTable(
+  "membership_log",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    subjectEmail: text("subject_email").notNull(),
+    subjectUserId: uuid("subject_user_id").references(() => users.id, { onDelete: "set null" }),
+    actorId: uuid("actor_id").references(() => users.id, { onDelete: "set null" }),
+    action: membershipAction("action").notNull(),
+    fromRole: eventRole("from_role"),
+    toRole: eventRole("to_role"),
+    taxonGroups: taxonGroup("taxon_groups").array(),
+    at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [index("membership_log_event_idx").on(t.eventId, t.at)],
+);
 
 // ---------------------------------------------------------------- review digests
 // One row per review decision that the volunteer should hear about, written in the same
 // transaction as the decision. The mail worker gathers a volunteer's waiting rows into one
 // digest (at most one per volunteer per hour) and links them to its outbox mail, so a
 // failed send never loses a decision: the mail stays in the outbox and is retried.
-export const reviewNotices = pgTable("review_notices", {
-  reviewId: bigint("review_id", { mode: "number" }).primaryKey().references(() => reviews.id, { onDelete: "restrict" }),
-  volunteerId: uuid("volunteer_id").notNull().references(() => users.id, { onDelete: "cascade" }),
-  createdAt: createdAt(),
-  digestId: bigint("digest_id", { mode: "number" }).references(() => emailOutbox.id, { onDelete: "set null" }),
-}, (t) => [index("review_notices_waiting_idx").on(t.volunteerId, t.createdAt).where(sql`${t.digestId} IS NULL`)]);
+export const reviewNotices = pgTable(
+  "review_notices",
+  {
+    reviewId: bigint("review_id", { mode: "number" })
+      .primaryKey()
+      .references(() => reviews.id, { onDelete: "restrict" }),
+    volunteerId: uuid("volunteer_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    createdAt: createdAt(),
+    digestId: bigint("digest_id", { mode: "number" }).references(() => emailOutbox.id, { onDelete: "set null" }),
+  },
+  (t) => [
+    index("review_notices_waiting_idx")
+      .on(t.volunteerId, t.createdAt)
+      .where(sql`${t.digestId} IS NULL`),
+  ],
+);
 // ---------------------------------------------------------------- results aggregates (issue 7)
 // Kept in step with approved sightings by statement-level triggers (migration 0007), so
 // the results page reads a few thousand aggregate rows instead of grouping every sighting.
 // zone_key is the zone, or the nil UUID for a sighting outside every zone.
-export const resultTaxonCounts = pgTable("result_taxon_counts", {
-  eventId: uuid("event_id").notNull(),
-  zoneKey: uuid("zone_key").notNull(),
-  taxonId: uuid("taxon_id").notNull(),
-  individuals: bigint("individuals", { mode: "number" }).notNull(),
-  sightings: integer("sightings").notNull(),
-}, (t) => [primaryKey({ columns: [t.eventId, t.zoneKey, t.taxonId] })]);
+export const resultTaxonCounts = pgTable(
+  "result_taxon_counts",
+  {
+    eventId: uuid("event_id").notNull(),
+    zoneKey: uuid("zone_key").notNull(),
+    taxonId: uuid("taxon_id").notNull(),
+    individuals: bigint("individuals", { mode: "number" }).notNull(),
+    sightings: integer("sightings").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.zoneKey, t.taxonId] })],
+);
 
 // Presence of a taxon in a count session (approved sightings only); whether the session
 // counts as a complete incidence sample, and its zone, are read from count_sessions.
-export const resultSessionTaxa = pgTable("result_session_taxa", {
-  eventId: uuid("event_id").notNull(),
-  sessionId: uuid("session_id").notNull(),
-  taxonId: uuid("taxon_id").notNull(),
-  sightings: integer("sightings").notNull(),
-}, (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.taxonId] })]);
+export const resultSessionTaxa = pgTable(
+  "result_session_taxa",
+  {
+    eventId: uuid("event_id").notNull(),
+    sessionId: uuid("session_id").notNull(),
+    taxonId: uuid("taxon_id").notNull(),
+    sightings: integer("sightings").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.taxonId] })],
+);
 
 // One counter per event, raised by the same triggers whenever the event's aggregates
 // change: the results path keys its cache on it (with the sessions, zones and taxa).

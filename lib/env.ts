@@ -15,14 +15,22 @@ const schema = z.object({
   AUTH_SECRET: z.string().min(16).default(DEMO_AUTH_SECRET),
   SMTP_HOST: z.string().default("127.0.0.1"),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(1025),
-  SMTP_SECURE: z.enum(["true", "false"]).default("false").transform((v) => v === "true"),
+  SMTP_SECURE: z
+    .enum(["true", "false"])
+    .default("false")
+    .transform((v) => v === "true"),
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().default("Ecotone <no-reply@ecotone.example.org>"),
   MAIL_INBOX_URL: z.string().url().optional(),
   // Review decisions reach a volunteer as one digest mail per this many seconds at most
   // (design: one digest per volunteer per hour); the mail worker polls every MAIL_WORKER_INTERVAL_MS.
-  REVIEW_DIGEST_DELAY_SECONDS: z.coerce.number().int().min(0).max(7 * 86_400).default(3600),
+  REVIEW_DIGEST_DELAY_SECONDS: z.coerce
+    .number()
+    .int()
+    .min(0)
+    .max(7 * 86_400)
+    .default(3600),
   MAIL_WORKER_INTERVAL_MS: z.coerce.number().int().min(200).max(3_600_000).default(30_000),
   // Sync batches one person may send per minute (per app process); the ingest benchmark raises it.
   SYNC_BATCHES_PER_MINUTE: z.coerce.number().int().min(1).default(120),
@@ -35,15 +43,28 @@ const schema = z.object({
   // The S3 fake's fixed keys; a production server refuses them for a store not on loopback.
   S3_ACCESS_KEY_ID: z.string().min(1).default(S3_FAKE_KEY),
   S3_SECRET_ACCESS_KEY: z.string().min(1).default(S3_FAKE_KEY),
-  S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+  S3_FORCE_PATH_STYLE: z
+    .enum(["true", "false"])
+    .default("true")
+    .transform((v) => v === "true"),
   // Largest photo accepted, in bytes (the photos table allows at most 20 MB).
   PHOTO_MAX_BYTES: z.coerce.number().int().min(1).max(20_000_000).default(15_000_000),
   // Multiplies every write-handler rate limit (lib/http/write-limit.ts). 1 in the demo and in
   // a deployment; the browser tests raise it because all their specs share one server, one
   // IP address and a handful of demo people, and the fuzz test alone sends hundreds of writes.
   WRITE_LIMIT_SCALE: z.coerce.number().min(1).max(1000).default(1),
+  // Addresses of our own reverse proxies (comma or space separated, exact addresses). Only
+  // when the connection comes from one of them is X-Forwarded-For read for the client's
+  // address (sign-in rate limits); by default none, and the socket address is used.
+  TRUSTED_PROXIES: z
+    .string()
+    .default("")
+    .transform((v) => v.split(/[\s,]+/).filter(Boolean)),
   // Origins besides our own that pages may load images from and send data to (the photo store).
-  CSP_EXTRA_ORIGINS: z.string().default("").transform((v) => v.split(/[\s,]+/).filter(Boolean)),
+  CSP_EXTRA_ORIGINS: z
+    .string()
+    .default("")
+    .transform((v) => v.split(/[\s,]+/).filter(Boolean)),
 });
 
 export type Env = z.infer<typeof schema>;
@@ -63,11 +84,16 @@ export function productionProblems(e: Env): string[] {
   if (e.NODE_ENV !== "production") return [];
   const problems: string[] = [];
   if (e.AUTH_SECRET === DEMO_AUTH_SECRET) {
-    problems.push("AUTH_SECRET is the demo's default. Set it to a random value of your own, e.g. AUTH_SECRET=\"$(openssl rand -base64 32)\"");
+    problems.push(
+      'AUTH_SECRET is the demo\'s default. Set it to a random value of your own, e.g. AUTH_SECRET="$(openssl rand -base64 32)"',
+    );
   }
   if (!isLoopback(e.S3_ENDPOINT)) {
     for (const key of ["S3_ACCESS_KEY_ID", "S3_SECRET_ACCESS_KEY"] as const) {
-      if (e[key] === S3_FAKE_KEY) problems.push(`${key} is the S3 fake's "${S3_FAKE_KEY}" while S3_ENDPOINT (${e.S3_ENDPOINT}) is not on loopback. Set it to your photo store's key`);
+      if (e[key] === S3_FAKE_KEY)
+        problems.push(
+          `${key} is the S3 fake's "${S3_FAKE_KEY}" while S3_ENDPOINT (${e.S3_ENDPOINT}) is not on loopback. Set it to your photo store's key`,
+        );
     }
   }
   return problems;
@@ -86,7 +112,8 @@ export function loadEnv(source: Record<string, string | undefined>): Env {
   }
   if (source.NEXT_PHASE !== "phase-production-build") {
     const problems = productionProblems(parsed.data);
-    if (problems.length > 0) throw new Error(`Refusing to run in production with unsafe settings:\n- ${problems.join("\n- ")}`);
+    if (problems.length > 0)
+      throw new Error(`Refusing to run in production with unsafe settings:\n- ${problems.join("\n- ")}`);
   }
   return parsed.data;
 }

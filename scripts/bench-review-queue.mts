@@ -9,6 +9,7 @@ import { drizzle } from "drizzle-orm/node-postgres";
 import { sql } from "drizzle-orm";
 import { Pool } from "pg";
 import { reportRows, type BenchRow } from "./bench-report";
+import type { TaxonGroup } from "../lib/domain";
 
 createRequire(import.meta.url)("./no-server-only.cjs"); // before the data layer loads
 const schema = await import("../db/schema");
@@ -18,7 +19,8 @@ const { queueCounts, reviewQueue, QUEUE_PAGE_SIZE } = await import("../db/querie
 const { queueFilters } = await import("../lib/review/filters");
 const { recreateDatabase } = await import("../tests/support/test-db");
 
-const arg = (name: string, fallback: number) => Number(process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback);
+const arg = (name: string, fallback: number) =>
+  Number(process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback);
 const N = arg("sightings", 100_000);
 const RUNS = arg("runs", 15);
 const port = process.env.ECOTONE_PG_PORT ?? "54329";
@@ -30,7 +32,10 @@ const pool = new Pool({ connectionString: url, max: 4 });
 const db = drizzle(pool, { schema });
 try {
   await seedDemo(db);
-  const [event] = await db.select().from(schema.events).where(sql`slug = 'harrowmere-vale-midsummer-count'`);
+  const [event] = await db
+    .select()
+    .from(schema.events)
+    .where(sql`slug = 'harrowmere-vale-midsummer-count'`);
   const eventId = event!.id;
 
   let t0 = performance.now();
@@ -52,12 +57,16 @@ try {
     WHERE e.id = ${eventId}`);
   const insertS = (performance.now() - t0) / 1000;
   t0 = performance.now();
-  const ids = (await db.execute<{ id: string }>(sql`SELECT id FROM sightings WHERE event_id = ${eventId}`)).rows.map((r) => r.id);
+  const ids = (await db.execute<{ id: string }>(sql`SELECT id FROM sightings WHERE event_id = ${eventId}`)).rows.map(
+    (r) => r.id,
+  );
   for (let i = 0; i < ids.length; i += 5000) await refreshCheckMarks(db, ids.slice(i, i + 5000));
   const marksS = (performance.now() - t0) / 1000;
   await db.execute(sql`ANALYZE sightings`);
   const total = ids.length;
-  console.log(`[bench queue] ${total} sightings in the event (insert ${insertS.toFixed(1)} s, check marks ${marksS.toFixed(1)} s)`);
+  console.log(
+    `[bench queue] ${total} sightings in the event (insert ${insertS.toFixed(1)} s, check marks ${marksS.toFixed(1)} s)`,
+  );
 
   const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
   const time = async (fn: () => Promise<unknown>) => {
@@ -71,8 +80,8 @@ try {
     return median(ms);
   };
 
-  const all = { eventId, taxonGroups: [] as string[], locale: "en" };
-  const birds = { ...all, taxonGroups: ["birds"] };
+  const all = { eventId, taxonGroups: [] as TaxonGroup[], locale: "en" };
+  const birds = { ...all, taxonGroups: ["birds"] as TaxonGroup[] };
   const pendingNewest = queueFilters.parse({ state: "pending" });
   const deepPages = 200;
   let cursor: string | null = null;
@@ -83,16 +92,26 @@ try {
   const deep = cursor;
 
   const first = await time(() => reviewQueue(all, pendingNewest, null, QUEUE_PAGE_SIZE, db));
-  const firstOldestAny = await time(() => reviewQueue(all, queueFilters.parse({ order: "oldest" }), null, QUEUE_PAGE_SIZE, db));
+  const firstOldestAny = await time(() =>
+    reviewQueue(all, queueFilters.parse({ order: "oldest" }), null, QUEUE_PAGE_SIZE, db),
+  );
   const deepMs = await time(() => reviewQueue(all, pendingNewest, deep, QUEUE_PAGE_SIZE, db));
   const birdsFirst = await time(() => reviewQueue(birds, pendingNewest, null, QUEUE_PAGE_SIZE, db));
-  const markFirst = await time(() => reviewQueue(all, queueFilters.parse({ state: "pending", marks: "poor_accuracy" }), null, QUEUE_PAGE_SIZE, db));
+  const markFirst = await time(() =>
+    reviewQueue(all, queueFilters.parse({ state: "pending", marks: "poor_accuracy" }), null, QUEUE_PAGE_SIZE, db),
+  );
   const counts = await time(() => queueCounts(all, pendingNewest, db));
 
   const batch = ids.slice(0, 100);
   const marks100 = await time(() => refreshCheckMarks(db, batch));
   const target = "< 100 ms";
-  const row = (figure: string, ms: number, t = target, limit = 100): BenchRow => ({ part: "queue", figure, value: `${ms.toFixed(1)} ms`, target: t, met: ms < limit });
+  const row = (figure: string, ms: number, t = target, limit = 100): BenchRow => ({
+    part: "queue",
+    figure,
+    value: `${ms.toFixed(1)} ms`,
+    target: t,
+    met: ms < limit,
+  });
   const rows: BenchRow[] = [
     { part: "queue", figure: "sightings in the event", value: String(total) },
     row(`first page, ${QUEUE_PAGE_SIZE} pending, newest first (median of ${RUNS})`, first),
@@ -102,7 +121,11 @@ try {
     row(`first page filtered by a check mark (poor accuracy)`, markFirst),
     row(`counts per state (whole event)`, counts, "< 250 ms", 250),
     row(`check marks recomputed for a sync batch of 100 sightings`, marks100, "< 500 ms", 500),
-    { part: "queue", figure: `check marks for all ${total} sightings, in chunks of 5,000 (set-up)`, value: `${marksS.toFixed(1)} s` },
+    {
+      part: "queue",
+      figure: `check marks for all ${total} sightings, in chunks of 5,000 (set-up)`,
+      value: `${marksS.toFixed(1)} s`,
+    },
   ];
   for (const r of rows) console.log(`  ${r.figure}: ${r.value}`);
   reportRows(rows);

@@ -24,11 +24,28 @@ for (const part of PARTS.filter((p) => !wanted.length || wanted.includes(p.name)
   }
   console.log(`\n=== ${part.name}: npx tsx ${part.script} ${part.args.join(" ")}`);
   const started = Date.now();
-  const r = spawnSync("npx", ["tsx", part.script, ...part.args], { encoding: "utf8", stdio: ["ignore", "pipe", "inherit"], maxBuffer: 64 * 1024 * 1024 });
-  process.stdout.write(r.stdout.split("\n").filter((l) => !l.startsWith("BENCH ")).join("\n"));
-  const line = r.stdout.split("\n").reverse().find((l) => l.startsWith("BENCH "));
+  const r = spawnSync("npx", ["tsx", part.script, ...part.args], {
+    encoding: "utf8",
+    stdio: ["ignore", "pipe", "inherit"],
+    maxBuffer: 64 * 1024 * 1024,
+  });
+  process.stdout.write(
+    r.stdout
+      .split("\n")
+      .filter((l) => !l.startsWith("BENCH "))
+      .join("\n"),
+  );
+  const line = r.stdout
+    .split("\n")
+    .reverse()
+    .find((l) => l.startsWith("BENCH "));
   if (r.status !== 0 || !line) {
-    rows.push({ part: part.name, figure: "run failed", value: `exit ${r.status}`, note: `after ${Math.round((Date.now() - started) / 1000)} s; see the output above` });
+    rows.push({
+      part: part.name,
+      figure: "run failed",
+      value: `exit ${r.status}`,
+      note: `after ${Math.round((Date.now() - started) / 1000)} s; see the output above`,
+    });
     continue;
   }
   rows.push(...(JSON.parse(line.slice(6)) as BenchRow[]));
@@ -39,11 +56,17 @@ const date = new Date().toISOString().slice(0, 10);
 const table = [
   "| part | figure | value | target | met |",
   "| --- | --- | --- | --- | --- |",
-  ...rows.map((r) => `| ${r.part} | ${r.figure}${r.note ? ` (${r.note})` : ""} | ${r.value} | ${r.target ?? ""} | ${r.met === undefined ? "" : r.met ? "yes" : "**no**"} |`),
+  ...rows.map(
+    (r) =>
+      `| ${r.part} | ${r.figure}${r.note ? ` (${r.note})` : ""} | ${r.value} | ${r.target ?? ""} | ${r.met === undefined ? "" : r.met ? "yes" : "**no**"} |`,
+  ),
 ].join("\n");
 console.log(`\n${table}\n`);
 
 const notesFile = "scripts/bench-notes.md";
 const notes = existsSync(notesFile) ? readFileSync(notesFile, "utf8") : "";
-writeFileSync("BENCHMARKS.md", `# Benchmarks\n\nMeasured on ${date} on ${machine}, by \`npm run bench\` (each part also runs alone: see scripts/bench.mts).\n\n${table}\n\n${notes}`);
+writeFileSync(
+  "BENCHMARKS.md",
+  `# Benchmarks\n\nMeasured on ${date} on ${machine}, by \`npm run bench\` (each part also runs alone: see scripts/bench.mts).\n\n${table}\n\n${notes}`,
+);
 console.log("written to BENCHMARKS.md");

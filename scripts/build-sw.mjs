@@ -7,7 +7,10 @@ import path from "node:path";
 import { build } from "esbuild";
 import { injectManifest } from "workbox-build";
 
-export async function buildServiceWorker({ projectDir = process.cwd(), distDir = path.join(process.cwd(), ".next") } = {}) {
+export async function buildServiceWorker({
+  projectDir = process.cwd(),
+  distDir = path.join(process.cwd(), ".next"),
+} = {}) {
   const temp = path.join(distDir, "sw-bundle.js");
   await build({
     entryPoints: [path.join(projectDir, "lib/field/sw.ts")],
@@ -30,7 +33,10 @@ export async function buildServiceWorker({ projectDir = process.cwd(), distDir =
     dontCacheBustURLsMatching: /^\/_next\/static\//,
     additionalManifestEntries: ["icon.svg", "icon-192.png", "icon-512.png", "icon-maskable-512.png"].map((name) => ({
       url: `/icons/${name}`,
-      revision: createHash("sha256").update(readFileSync(path.join(projectDir, "public/icons", name))).digest("hex").slice(0, 16),
+      revision: createHash("sha256")
+        .update(readFileSync(path.join(projectDir, "public/icons", name)))
+        .digest("hex")
+        .slice(0, 16),
     })),
     maximumFileSizeToCacheInBytes: 5 * 1024 * 1024,
   });

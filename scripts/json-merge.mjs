@@ -6,18 +6,34 @@
 import { readFileSync, writeFileSync } from "node:fs";
 
 const [basePath, oursPath, theirsPath] = process.argv.slice(2);
-const read = (p) => { try { return JSON.parse(readFileSync(p, "utf8")); } catch { return {}; } };
-const base = read(basePath), ours = read(oursPath), theirs = read(theirsPath);
+const read = (p) => {
+  try {
+    return JSON.parse(readFileSync(p, "utf8"));
+  } catch {
+    return {};
+  }
+};
+const base = read(basePath),
+  ours = read(oursPath),
+  theirs = read(theirsPath);
 const conflicts = [];
 
 function merge(b, o, t, at) {
   const out = { ...o };
   for (const [k, tv] of Object.entries(t)) {
-    const ov = o[k], bv = b?.[k];
-    if (ov === undefined) { if (JSON.stringify(bv) !== JSON.stringify(tv) || bv === undefined) out[k] = tv; continue; }
-    if (typeof ov === "object" && typeof tv === "object") { out[k] = merge(bv ?? {}, ov, tv, `${at}${k}.`); continue; }
+    const ov = o[k],
+      bv = b?.[k];
+    if (ov === undefined) {
+      if (JSON.stringify(bv) !== JSON.stringify(tv) || bv === undefined) out[k] = tv;
+      continue;
+    }
+    if (typeof ov === "object" && typeof tv === "object") {
+      out[k] = merge(bv ?? {}, ov, tv, `${at}${k}.`);
+      continue;
+    }
     if (JSON.stringify(ov) === JSON.stringify(tv)) continue;
-    if (JSON.stringify(ov) === JSON.stringify(bv)) out[k] = tv; // only theirs changed it
+    if (JSON.stringify(ov) === JSON.stringify(bv))
+      out[k] = tv; // only theirs changed it
     else if (JSON.stringify(tv) !== JSON.stringify(bv)) conflicts.push(`${at}${k}`);
   }
   return out;
@@ -25,4 +41,7 @@ function merge(b, o, t, at) {
 
 const merged = merge(base, ours, theirs, "");
 writeFileSync(oursPath, JSON.stringify(merged, null, 2) + "\n");
-if (conflicts.length) { console.error(`messages conflict at: ${conflicts.join(", ")}`); process.exit(1); }
+if (conflicts.length) {
+  console.error(`messages conflict at: ${conflicts.join(", ")}`);
+  process.exit(1);
+}

@@ -9,15 +9,21 @@ import { renderDigest } from "../server/review/digest-mail";
 
 const once = process.argv.includes("--once");
 let stopping = false;
-for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => { stopping = true; });
+for (const signal of ["SIGINT", "SIGTERM"] as const)
+  process.on(signal, () => {
+    stopping = true;
+  });
 
 async function tick() {
   const digests = await composeDigests(env().REVIEW_DIGEST_DELAY_SECONDS, renderDigest);
   const { sent, failed } = await drainOutbox();
-  if (digests || sent || failed) console.log(`[mail-worker] ${new Date().toISOString()} digests ${digests}, sent ${sent}, failed ${failed}`);
+  if (digests || sent || failed)
+    console.log(`[mail-worker] ${new Date().toISOString()} digests ${digests}, sent ${sent}, failed ${failed}`);
 }
 
-console.log(`[mail-worker] started: digest window ${env().REVIEW_DIGEST_DELAY_SECONDS} s, every ${env().MAIL_WORKER_INTERVAL_MS} ms, SMTP ${env().SMTP_HOST}:${env().SMTP_PORT}`);
+console.log(
+  `[mail-worker] started: digest window ${env().REVIEW_DIGEST_DELAY_SECONDS} s, every ${env().MAIL_WORKER_INTERVAL_MS} ms, SMTP ${env().SMTP_HOST}:${env().SMTP_PORT}`,
+);
 do {
   try {
     await tick();

@@ -11,6 +11,9 @@ const jobs: [string, string, number][] = [
   ["icon.svg", "apple-touch-icon.png", 180],
 ];
 for (const [src, out, size] of jobs) {
-  await sharp(path.join(dir, src), { density: 300 }).resize(size, size).png({ compressionLevel: 9 }).toFile(path.join(dir, out));
+  await sharp(path.join(dir, src), { density: 300 })
+    .resize(size, size)
+    .png({ compressionLevel: 9 })
+    .toFile(path.join(dir, out));
   console.log(`public/icons/${out} (${size}×${size})`);
 }

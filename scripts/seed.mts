@@ -11,8 +11,12 @@ const url = process.argv[2] ?? env().DATABASE_URL;
 const pool = new Pool({ connectionString: url, max: 2 });
 try {
   const summary = await seedDemo(drizzle(pool, { schema }), { passwordHash: await hashPassword(DEMO_PASSWORD) });
-  console.log(`[ecotone] demo seeded: ${summary.people} people, ${summary.taxa} taxa, ${summary.sessions} count sessions, ` +
-    `${summary.sightings} sightings (${Object.entries(summary.byState).map(([k, v]) => `${v} ${k}`).join(", ")}), ${summary.reviews} review decisions`);
+  console.log(
+    `[ecotone] demo seeded: ${summary.people} people, ${summary.taxa} taxa, ${summary.sessions} count sessions, ` +
+      `${summary.sightings} sightings (${Object.entries(summary.byState)
+        .map(([k, v]) => `${v} ${k}`)
+        .join(", ")}), ${summary.reviews} review decisions`,
+  );
 } finally {
   await pool.end();
 }

@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # One command from a fresh Debian 12 machine to every test: Debian packages (PostgreSQL,
-# PostGIS, Chromium), npm packages, PostgreSQL on loopback, then the type check, unit and
+# PostGIS, Chromium), npm packages, PostgreSQL on loopback, then lint (ESLint) and format
+# (Prettier) checks at zero warnings, the type check, unit and
 # integration tests (Vitest, on a fresh database), the production build and the browser
 # tests (Playwright driving Debian's Chromium, on another fresh database).
 # ECOTONE_TEST_SUFFIX, E2E_PORT and E2E_SMTP_PORT let two checkouts test side by side.
@@ -10,6 +11,10 @@ cd "$ROOT"
 ensure_system_packages chromium
 ensure_node_modules
 bash scripts/pg.sh start
+
+log "Lint (ESLint, zero warnings) and format check (Prettier)"
+npx eslint . --max-warnings=0
+npx prettier --check . --log-level warn
 
 log "Type check"
 npx tsc --noEmit

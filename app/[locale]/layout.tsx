@@ -30,7 +30,13 @@ export async function generateMetadata({ params }: { params: Promise<{ locale: s
 
 export const viewport: Viewport = { themeColor: "#153a2a", width: "device-width", initialScale: 1 };
 
-export default async function LocaleLayout({ children, params }: { children: ReactNode; params: Promise<{ locale: string }> }) {
+export default async function LocaleLayout({
+  children,
+  params,
+}: {
+  children: ReactNode;
+  params: Promise<{ locale: string }>;
+}) {
   const { locale } = await params;
   if (!hasLocale(routing.locales, locale)) notFound();
   setRequestLocale(locale);
@@ -39,7 +45,10 @@ export default async function LocaleLayout({ children, params }: { children: Rea
   return (
     <html lang={locale} className={sans.variable}>
       <body className="flex min-h-screen flex-col bg-paper font-sans text-ink antialiased">
-        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-paper focus:p-2">
+        <a
+          href="#main"
+          className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-paper focus:p-2"
+        >
           {t("skipToContent")}
         </a>
         <NextIntlClientProvider>

@@ -7,7 +7,9 @@ export default async function NotFound() {
     <div className="space-y-3">
       <h1 className="text-2xl font-bold text-reed-900">{t("title")}</h1>
       <p>{t("body")}</p>
-      <Link href="/" className="inline-flex min-h-touch items-center font-semibold text-reed-700 underline">{t("back")}</Link>
+      <Link href="/" className="inline-flex min-h-touch items-center font-semibold text-reed-700 underline">
+        {t("back")}
+      </Link>
     </div>
   );
 }

@@ -12,9 +12,24 @@ export async function PendingNotice({ pending }: { pending: Results["pending"] }
   if (!pending) return null;
   const waiting = pending.pending + pending.returned;
   return (
-    <aside className={waiting ? "rounded-lg border-2 border-signal bg-signal-soft p-3" : "rounded-lg border border-reed-200 p-3"} aria-label={t("pending.title")} data-testid="pending-notice">
+    <aside
+      className={
+        waiting ? "rounded-lg border-2 border-signal bg-signal-soft p-3" : "rounded-lg border border-reed-200 p-3"
+      }
+      aria-label={t("pending.title")}
+      data-testid="pending-notice"
+    >
       <p className="font-bold">{t("pending.title")}</p>
-      <p>{waiting ? t("pending.body", { pending: pending.pending, returned: pending.returned, pendingComplete: pending.pendingInCompleteSessions, returnedComplete: pending.returnedInCompleteSessions }) : t("pending.none")}</p>
+      <p>
+        {waiting
+          ? t("pending.body", {
+              pending: pending.pending,
+              returned: pending.returned,
+              pendingComplete: pending.pendingInCompleteSessions,
+              returnedComplete: pending.returnedInCompleteSessions,
+            })
+          : t("pending.none")}
+      </p>
     </aside>
   );
 }
@@ -27,7 +42,13 @@ export async function RulesNotes() {
       <li>{t("notes.ranks")}</li>
       <li>{t("notes.units")}</li>
       <li>{t("notes.sessionZone")}</li>
-      <li>{t("notes.sufficiency", { individuals: SUFFICIENCY.minIndividuals, sessions: SUFFICIENCY.minCompleteSessions, coverage: SUFFICIENCY.minCoverage })}</li>
+      <li>
+        {t("notes.sufficiency", {
+          individuals: SUFFICIENCY.minIndividuals,
+          sessions: SUFFICIENCY.minCompleteSessions,
+          coverage: SUFFICIENCY.minCoverage,
+        })}
+      </li>
     </ul>
   );
 }
@@ -35,58 +56,109 @@ export async function RulesNotes() {
 /** Curves, whole-event and per-zone numbers, zone comparison and species list: shared by the results page and the public report. */
 export async function ResultsBody({ results, showSensitivity }: { results: Results; showSensitivity: boolean }) {
   const [t, tHabitat, tGroup, format, locale] = await Promise.all([
-    getTranslations("Results"), getTranslations("Habitat"), getTranslations("TaxonGroup"), getFormatter(), getLocale(),
+    getTranslations("Results"),
+    getTranslations("Habitat"),
+    getTranslations("TaxonGroup"),
+    getFormatter(),
+    getLocale(),
   ]);
   type Habitat = Parameters<typeof tHabitat>[0];
   type Group = Parameters<typeof tGroup>[0];
   const labels: ChartLabels = {
-    rarefactionTitle: t("charts.rarefaction"), accumulationTitle: t("charts.accumulation"), rankTitle: t("charts.rank"), zonesTitle: t("charts.zones"),
-    individuals: t("charts.individuals"), sessions: t("charts.sessions"), species: t("charts.species"), rank: t("charts.rankAxis"),
-    abundance: t("charts.abundance"), observedPart: t("charts.observedPart"), extrapolatedPart: t("charts.extrapolatedPart"),
-    band: t("charts.band"), observedPoint: t("charts.observedPoint"), noData: t("charts.noData"), chartSummary: t("charts.summary"),
+    rarefactionTitle: t("charts.rarefaction"),
+    accumulationTitle: t("charts.accumulation"),
+    rankTitle: t("charts.rank"),
+    zonesTitle: t("charts.zones"),
+    individuals: t("charts.individuals"),
+    sessions: t("charts.sessions"),
+    species: t("charts.species"),
+    rank: t("charts.rankAxis"),
+    abundance: t("charts.abundance"),
+    observedPart: t("charts.observedPart"),
+    extrapolatedPart: t("charts.extrapolatedPart"),
+    band: t("charts.band"),
+    observedPoint: t("charts.observedPoint"),
+    noData: t("charts.noData"),
+    chartSummary: t("charts.summary"),
   };
   return (
     <div className="space-y-8">
       <PendingNotice pending={results.pending} />
       <RulesNotes />
       <section aria-labelledby="curves-title" className="space-y-3">
-        <h2 id="curves-title" className="text-2xl font-bold text-reed-900">{t("charts.title")}</h2>
+        <h2 id="curves-title" className="text-2xl font-bold text-reed-900">
+          {t("charts.title")}
+        </h2>
         <ResultsCharts
           rarefaction={results.event.rarefaction}
           accumulation={results.event.accumulation}
           ranks={results.species.map((s) => s.individuals)}
-          zones={results.zones.filter((z) => z.rarefaction.length > 0).map((z) => ({ name: z.name, rarefaction: z.rarefaction }))}
+          zones={results.zones
+            .filter((z) => z.rarefaction.length > 0)
+            .map((z) => ({ name: z.name, rarefaction: z.rarefaction }))}
           labels={labels}
-          rarefactionNote={results.event.individuals > 0 && !results.event.abundance
-            ? t("tooFew.abundanceWithheld", { reasons: reasonsText(t, results.event.reasons.filter((r) => ABUNDANCE_REASONS.includes(r)), results.event) }) : undefined}
-          accumulationNote={results.event.individuals > 0 && !results.event.incidence
-            ? t("tooFew.incidenceWithheld", { reasons: reasonsText(t, results.event.reasons.filter((r) => INCIDENCE_REASONS.includes(r)), results.event) }) : undefined}
+          rarefactionNote={
+            results.event.individuals > 0 && !results.event.abundance
+              ? t("tooFew.abundanceWithheld", {
+                  reasons: reasonsText(
+                    t,
+                    results.event.reasons.filter((r) => ABUNDANCE_REASONS.includes(r)),
+                    results.event,
+                  ),
+                })
+              : undefined
+          }
+          accumulationNote={
+            results.event.individuals > 0 && !results.event.incidence
+              ? t("tooFew.incidenceWithheld", {
+                  reasons: reasonsText(
+                    t,
+                    results.event.reasons.filter((r) => INCIDENCE_REASONS.includes(r)),
+                    results.event,
+                  ),
+                })
+              : undefined
+          }
         />
       </section>
 
       <ZoneComparison comparison={results.comparison} countUnits={results.event.countUnits} />
 
       <section aria-labelledby="numbers-title" className="space-y-4">
-        <h2 id="numbers-title" className="text-2xl font-bold text-reed-900">{t("numbersTitle")}</h2>
+        <h2 id="numbers-title" className="text-2xl font-bold text-reed-900">
+          {t("numbersTitle")}
+        </h2>
         <StatsTable block={results.event} caption={t("wholeEvent")} sessions={results.event.completeSessions} />
         {results.zones.map((z) => (
           <details key={z.id} className="rounded-lg border border-reed-200 bg-white/70 p-3">
-            <summary className="cursor-pointer font-semibold">{z.name} ({tHabitat(z.habitat as Habitat)})</summary>
+            <summary className="cursor-pointer font-semibold">
+              {z.name} ({tHabitat(z.habitat as Habitat)})
+            </summary>
             <StatsTable block={z} caption={t("zoneCaption", { zone: z.name })} sessions={z.completeSessions} />
           </details>
         ))}
       </section>
 
       <section aria-labelledby="species-list-title" className="space-y-3">
-        <h2 id="species-list-title" className="text-2xl font-bold text-reed-900">{t("speciesTitle", { count: results.species.length })}</h2>
+        <h2 id="species-list-title" className="text-2xl font-bold text-reed-900">
+          {t("speciesTitle", { count: results.species.length })}
+        </h2>
         <table className="w-full text-left text-sm">
           <caption className="sr-only">{t("speciesTitle", { count: results.species.length })}</caption>
           <thead>
             <tr className="border-b-2 border-reed-300">
-              <th scope="col" className="py-1 pr-3">{t("col.species")}</th>
-              <th scope="col" className="py-1 pr-3">{t("col.group")}</th>
-              <th scope="col" className="py-1 pr-3">{t("col.unit")}</th>
-              <th scope="col" className="py-1 text-right">{t("col.individuals")}</th>
+              <th scope="col" className="py-1 pr-3">
+                {t("col.species")}
+              </th>
+              <th scope="col" className="py-1 pr-3">
+                {t("col.group")}
+              </th>
+              <th scope="col" className="py-1 pr-3">
+                {t("col.unit")}
+              </th>
+              <th scope="col" className="py-1 text-right">
+                {t("col.individuals")}
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -95,8 +167,16 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
                 <th scope="row" className="py-1 pr-3 font-normal">
                   <span className="font-semibold">{s.names[locale] ?? s.names.en ?? s.scientificName}</span>{" "}
                   <i className="text-ink-soft">{s.scientificName}</i>
-                  {s.rankStatus === "folded" || s.rankStatus === "aboveSpecies" || s.rankStatus === "leftOut" ? <span className="ml-2 text-xs text-ink-soft" data-rank-status={s.rankStatus}>({t(`rankStatus.${s.rankStatus}`)})</span> : null}
-                  {showSensitivity && s.sensitivity !== "open" ? <span className="ml-2 rounded border border-heath-600 px-1 text-xs text-heath-900">⚠ {t(`sensitivity.${s.sensitivity}`)}</span> : null}
+                  {s.rankStatus === "folded" || s.rankStatus === "aboveSpecies" || s.rankStatus === "leftOut" ? (
+                    <span className="ml-2 text-xs text-ink-soft" data-rank-status={s.rankStatus}>
+                      ({t(`rankStatus.${s.rankStatus}`)})
+                    </span>
+                  ) : null}
+                  {showSensitivity && s.sensitivity !== "open" ? (
+                    <span className="ml-2 rounded border border-heath-600 px-1 text-xs text-heath-900">
+                      ⚠ {t(`sensitivity.${s.sensitivity}`)}
+                    </span>
+                  ) : null}
                 </th>
                 <td className="py-1 pr-3">{tGroup(s.group as Group)}</td>
                 <td className="py-1 pr-3">{t(`unit.${s.countUnit ?? "individuals"}`)}</td>

@@ -16,7 +16,13 @@ function rowsOf(b: Block): Row[] {
   if (a) {
     // One Chao1 on every screen: the Chao-group form (also the asymptotic Hill number q = 0).
     rows.push(
-      { key: "chao1", value: a.chao1Classic.estimate, lower: a.chao1Classic.lower, upper: a.chao1Classic.upper, digits: 1 },
+      {
+        key: "chao1",
+        value: a.chao1Classic.estimate,
+        lower: a.chao1Classic.lower,
+        upper: a.chao1Classic.upper,
+        digits: 1,
+      },
       { key: "ace", value: a.ace.estimate, lower: a.ace.lower, upper: a.ace.upper, digits: 1 },
       { key: "coverage", value: a.coverage, percent: true },
     );
@@ -43,7 +49,10 @@ function rowsOf(b: Block): Row[] {
 }
 
 const INTERVAL_KEY: Record<IntervalMethod, "logNormal" | "normal" | "bootstrap" | "deltaMethod"> = {
-  "log-normal": "logNormal", normal: "normal", bootstrap: "bootstrap", "delta method": "deltaMethod",
+  "log-normal": "logNormal",
+  normal: "normal",
+  bootstrap: "bootstrap",
+  "delta method": "deltaMethod",
 };
 
 /** Every number of a block beside its method's published name, its interval's method and a note on how to read it. */
@@ -51,33 +60,61 @@ export async function StatsTable({ block, caption, sessions }: { block: Block; c
   const [t, format] = await Promise.all([getTranslations("Results"), getFormatter()]);
   const notes = new Map(METHOD_NOTES.map((m) => [m.key as MethodKey, m]));
   const num = (v: number | null | undefined, digits = 0, percent = false) =>
-    v === null || v === undefined || !Number.isFinite(v) ? t("undefinedValue")
-      : percent ? format.number(v, { style: "percent", maximumFractionDigits: 1 }) : format.number(v, { maximumFractionDigits: digits });
+    v === null || v === undefined || !Number.isFinite(v)
+      ? t("undefinedValue")
+      : percent
+        ? format.number(v, { style: "percent", maximumFractionDigits: 1 })
+        : format.number(v, { maximumFractionDigits: digits });
   const abundanceWhy = block.reasons.filter((r) => ABUNDANCE_REASONS.includes(r));
   const incidenceWhy = block.reasons.filter((r) => INCIDENCE_REASONS.includes(r));
-  const intervalName = (m: IntervalMethod) => t(`interval.${INTERVAL_KEY[m]}`, { replicates: m === "bootstrap" ? HILL_BOOTSTRAP_REPLICATES : COMPARISON_BOOTSTRAP.replicates });
+  const intervalName = (m: IntervalMethod) =>
+    t(`interval.${INTERVAL_KEY[m]}`, {
+      replicates: m === "bootstrap" ? HILL_BOOTSTRAP_REPLICATES : COMPARISON_BOOTSTRAP.replicates,
+    });
   return (
     <div className="space-y-2">
       {block.tooFew ? (
-        <p role="note" className="rounded-lg border-2 border-signal bg-signal-soft p-2 font-semibold" data-testid="too-few">
+        <p
+          role="note"
+          className="rounded-lg border-2 border-signal bg-signal-soft p-2 font-semibold"
+          data-testid="too-few"
+        >
           {t("tooFew.title")}: {t("tooFew.body", { reasons: reasonsText(t, block.reasons, block) })}
         </p>
       ) : (
         <>
-          {!block.abundance ? <p role="note" className="text-sm">{t("tooFew.abundanceWithheld", { reasons: reasonsText(t, abundanceWhy, block) })}</p> : null}
-          {!block.incidence ? <p role="note" className="text-sm">{t("tooFew.incidenceWithheld", { reasons: reasonsText(t, incidenceWhy, block) })}</p> : null}
+          {!block.abundance ? (
+            <p role="note" className="text-sm">
+              {t("tooFew.abundanceWithheld", { reasons: reasonsText(t, abundanceWhy, block) })}
+            </p>
+          ) : null}
+          {!block.incidence ? (
+            <p role="note" className="text-sm">
+              {t("tooFew.incidenceWithheld", { reasons: reasonsText(t, incidenceWhy, block) })}
+            </p>
+          ) : null}
         </>
       )}
-      {block.leftOut.taxa > 0 ? <p className="text-sm">{t("leftOut", { taxa: block.leftOut.taxa, individuals: block.leftOut.individuals })}</p> : null}
+      {block.leftOut.taxa > 0 ? (
+        <p className="text-sm">{t("leftOut", { taxa: block.leftOut.taxa, individuals: block.leftOut.individuals })}</p>
+      ) : null}
       {block.folded > 0 ? <p className="text-sm">{t("folded", { folded: block.folded })}</p> : null}
       <table className="w-full text-left text-sm">
         <caption className="text-left font-semibold">{caption}</caption>
         <thead>
           <tr className="border-b-2 border-reed-300">
-            <th scope="col" className="py-1 pr-3">{t("col.method")}</th>
-            <th scope="col" className="py-1 pr-3 text-right">{t("col.value")}</th>
-            <th scope="col" className="py-1 pr-3 text-right">{t("col.interval")}</th>
-            <th scope="col" className="py-1">{t("col.reading")}</th>
+            <th scope="col" className="py-1 pr-3">
+              {t("col.method")}
+            </th>
+            <th scope="col" className="py-1 pr-3 text-right">
+              {t("col.value")}
+            </th>
+            <th scope="col" className="py-1 pr-3 text-right">
+              {t("col.interval")}
+            </th>
+            <th scope="col" className="py-1">
+              {t("col.reading")}
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -85,10 +122,21 @@ export async function StatsTable({ block, caption, sessions }: { block: Block; c
             const m = notes.get(r.key)!;
             return (
               <tr key={r.key} className="border-b border-reed-100 align-top">
-                <th scope="row" className="py-1 pr-3 font-semibold">{m.name}</th>
-                <td className="py-1 pr-3 text-right tabular-nums" data-stat={r.key}>{num(r.value, r.digits, r.percent)}</td>
+                <th scope="row" className="py-1 pr-3 font-semibold">
+                  {m.name}
+                </th>
+                <td className="py-1 pr-3 text-right tabular-nums" data-stat={r.key}>
+                  {num(r.value, r.digits, r.percent)}
+                </td>
                 <td className="py-1 pr-3 text-right tabular-nums">
-                  {r.lower !== undefined && m.interval ? <>{`${num(r.lower, r.digits)} – ${num(r.upper, r.digits)}`} <span className="block text-xs text-ink-soft">{intervalName(m.interval)}</span></> : ""}
+                  {r.lower !== undefined && m.interval ? (
+                    <>
+                      {`${num(r.lower, r.digits)} – ${num(r.upper, r.digits)}`}{" "}
+                      <span className="block text-xs text-ink-soft">{intervalName(m.interval)}</span>
+                    </>
+                  ) : (
+                    ""
+                  )}
                 </td>
                 <td className="py-1 text-ink-soft">{t(`notes.${r.key}`, { sessions })}</td>
               </tr>

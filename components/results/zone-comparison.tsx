@@ -7,36 +7,69 @@ import { reasonsText } from "./reasons";
  * sentences ("more"/"fewer" only when the bootstrap interval of the difference excludes 0),
  * the zones left out for too few records, and the caution beside them.
  */
-export async function ZoneComparison({ comparison, countUnits = [] }: { comparison: Comparison | null; countUnits?: Parameters<typeof reasonsText>[2]["countUnits"] }) {
-  const [t, tHabitat, format, locale] = await Promise.all([getTranslations("Results"), getTranslations("Habitat"), getFormatter(), getLocale()]);
+export async function ZoneComparison({
+  comparison,
+  countUnits = [],
+}: {
+  comparison: Comparison | null;
+  countUnits?: Parameters<typeof reasonsText>[2]["countUnits"];
+}) {
+  const [t, tHabitat, format, locale] = await Promise.all([
+    getTranslations("Results"),
+    getTranslations("Habitat"),
+    getFormatter(),
+    getLocale(),
+  ]);
   type Habitat = Parameters<typeof tHabitat>[0];
   const n = (v: number) => (Number.isFinite(v) ? format.number(v, { maximumFractionDigits: 1 }) : t("undefinedValue"));
   const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
   const c = comparison;
   return (
     <section aria-labelledby="comparison-title" className="space-y-3">
-      <h2 id="comparison-title" className="text-2xl font-bold text-reed-900">{t("comparison.title")}</h2>
-      {!c || c.zones.length < 2 ? <p>{t("comparison.none")}</p> : (
+      <h2 id="comparison-title" className="text-2xl font-bold text-reed-900">
+        {t("comparison.title")}
+      </h2>
+      {!c || c.zones.length < 2 ? (
+        <p>{t("comparison.none")}</p>
+      ) : (
         <>
           <p className="max-w-prose">
             {t(c.kind === "abundance" ? "comparison.kindAbundance" : "comparison.kindIncidence")}{" "}
-            {t("comparison.intro", { size: c.size, coverage: pct(c.coverage), unit: t(c.kind === "abundance" ? "comparison.unitIndividuals" : "comparison.unitSessions") })}
+            {t("comparison.intro", {
+              size: c.size,
+              coverage: pct(c.coverage),
+              unit: t(c.kind === "abundance" ? "comparison.unitIndividuals" : "comparison.unitSessions"),
+            })}
           </p>
           <table className="w-full text-left text-sm">
             <caption className="sr-only">{t("comparison.title")}</caption>
             <thead>
               <tr className="border-b-2 border-reed-300">
-                <th scope="col" className="py-1 pr-3">{t("comparison.zone")}</th>
-                <th scope="col" className="py-1 pr-3 text-right">{t("comparison.atCoverage", { coverage: pct(c.coverage) })}</th>
-                <th scope="col" className="py-1 text-right">{c.kind === "abundance" ? t("comparison.atSize", { size: c.size }) : t("comparison.atSizeSessions", { size: c.size })}</th>
+                <th scope="col" className="py-1 pr-3">
+                  {t("comparison.zone")}
+                </th>
+                <th scope="col" className="py-1 pr-3 text-right">
+                  {t("comparison.atCoverage", { coverage: pct(c.coverage) })}
+                </th>
+                <th scope="col" className="py-1 text-right">
+                  {c.kind === "abundance"
+                    ? t("comparison.atSize", { size: c.size })
+                    : t("comparison.atSizeSessions", { size: c.size })}
+                </th>
               </tr>
             </thead>
             <tbody>
               {c.zones.map((z) => (
                 <tr key={z.id} className="border-b border-reed-100">
-                  <th scope="row" className="py-1 pr-3 font-semibold">{z.name} <span className="font-normal text-ink-soft">({tHabitat(z.habitat as Habitat)})</span></th>
-                  <td className="py-1 pr-3 text-right tabular-nums">{n(z.atCoverage.richness)} ({n(z.atCoverage.lower)} – {n(z.atCoverage.upper)})</td>
-                  <td className="py-1 text-right tabular-nums">{n(z.atSize.richness)} ({n(z.atSize.lower)} – {n(z.atSize.upper)})</td>
+                  <th scope="row" className="py-1 pr-3 font-semibold">
+                    {z.name} <span className="font-normal text-ink-soft">({tHabitat(z.habitat as Habitat)})</span>
+                  </th>
+                  <td className="py-1 pr-3 text-right tabular-nums">
+                    {n(z.atCoverage.richness)} ({n(z.atCoverage.lower)} – {n(z.atCoverage.upper)})
+                  </td>
+                  <td className="py-1 text-right tabular-nums">
+                    {n(z.atSize.richness)} ({n(z.atSize.lower)} – {n(z.atSize.upper)})
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -48,8 +81,15 @@ export async function ZoneComparison({ comparison, countUnits = [] }: { comparis
               // Mid-sentence, the habitat word is written in lower case ("Alder Fringe (edge)").
               const lower = (h: string) => tHabitat(h as Habitat).toLocaleLowerCase(locale);
               const values = {
-                a: a.name, aHabitat: lower(a.habitat), b: b.name, bHabitat: lower(b.habitat), coverage: pct(c.coverage),
-                difference: n(Math.abs(s.difference)), lower: n(s.lower), upper: n(s.upper), replicates: c.replicates,
+                a: a.name,
+                aHabitat: lower(a.habitat),
+                b: b.name,
+                bHabitat: lower(b.habitat),
+                coverage: pct(c.coverage),
+                difference: n(Math.abs(s.difference)),
+                lower: n(s.lower),
+                upper: n(s.upper),
+                replicates: c.replicates,
               };
               return <li key={`${s.a}-${s.b}`}>{t(`comparison.sentence.${s.verdict}`, values)}</li>;
             })}
@@ -60,7 +100,11 @@ export async function ZoneComparison({ comparison, countUnits = [] }: { comparis
         <div data-testid="comparison-left-out">
           <p className="font-semibold">{t("comparison.leftOutTitle")}</p>
           <ul className="list-disc pl-5">
-            {c.leftOut.map((z) => <li key={z.id}>{t("comparison.leftOutLine", { zone: z.name, reasons: reasonsText(t, z.reasons, { countUnits }) })}</li>)}
+            {c.leftOut.map((z) => (
+              <li key={z.id}>
+                {t("comparison.leftOutLine", { zone: z.name, reasons: reasonsText(t, z.reasons, { countUnits }) })}
+              </li>
+            ))}
           </ul>
         </div>
       ) : null}

@@ -1,11 +1,29 @@
 import type { ReactNode } from "react";
 
 // A labelled form field with its error beside it, announced to screen readers.
-export function Field({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: ReactNode }) {
+export function Field({
+  id,
+  label,
+  hint,
+  error,
+  children,
+}: {
+  id: string;
+  label: string;
+  hint?: string;
+  error?: string;
+  children: ReactNode;
+}) {
   return (
     <div className="space-y-1">
-      <label htmlFor={id} className="block font-semibold">{label}</label>
-      {hint ? <p id={`${id}-hint`} className="text-sm text-ink-soft">{hint}</p> : null}
+      <label htmlFor={id} className="block font-semibold">
+        {label}
+      </label>
+      {hint ? (
+        <p id={`${id}-hint`} className="text-sm text-ink-soft">
+          {hint}
+        </p>
+      ) : null}
       {children}
       {error ? (
         <p id={`${id}-error`} role="alert" className="flex items-start gap-1 text-sm font-semibold text-signal">

@@ -35,14 +35,23 @@ export const DUPLICATE_METRES = 50;
 /** Counts above these are marked when a taxon has too few records at the event for quartiles (common practice). */
 // Every threshold is above HIGH_COUNT_FLOOR (a unit test checks), so counts at or below the floor need no statistics.
 export const GROUP_THRESHOLDS = {
-  birds: 50, vascular_plants: 200, insects: 100, fungi: 50, mammals: 10, amphibians_reptiles: 30, molluscs: 50, other: 50,
+  birds: 50,
+  vascular_plants: 200,
+  insects: 100,
+  fungi: 50,
+  mammals: 10,
+  amphibians_reptiles: 30,
+  molluscs: 50,
+  other: 50,
 } as const;
 
 /** The database, or a transaction on it (anything that can run a statement). */
 export type Executor = Pick<Db, "execute">;
 
 const groupThresholdSql = sql.raw(
-  `CASE t.taxon_group ${Object.entries(GROUP_THRESHOLDS).map(([g, n]) => `WHEN '${g}' THEN ${n}`).join(" ")} ELSE 50 END`,
+  `CASE t.taxon_group ${Object.entries(GROUP_THRESHOLDS)
+    .map(([g, n]) => `WHEN '${g}' THEN ${n}`)
+    .join(" ")} ELSE 50 END`,
 );
 
 /**
@@ -58,7 +67,10 @@ export async function refreshCheckMarks(tx: Executor, sightingIds: string[]): Pr
 }
 
 async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
-  const idArray = sql`ARRAY[${sql.join(ids.map((id) => sql`${id}`), sql`, `)}]::uuid[]`;
+  const idArray = sql`ARRAY[${sql.join(
+    ids.map((id) => sql`${id}`),
+    sql`, `,
+  )}]::uuid[]`;
   await tx.execute(sql`
     WITH given AS (
       SELECT s.* FROM sightings s WHERE s.id = ANY(${idArray})

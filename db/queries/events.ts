@@ -3,14 +3,10 @@ import { and, asc, count, eq, ne, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { eventSpecies, events, organisations, taxa, zones } from "../schema";
 
-export type EventSummary = {
-  id: string;
-  slug: string;
-  name: string;
-  status: "draft" | "open" | "closed";
-  startsAt: Date;
-  endsAt: Date;
-  timeZone: string;
+export type EventSummary = Pick<
+  typeof events.$inferSelect,
+  "id" | "slug" | "name" | "status" | "startsAt" | "endsAt" | "timeZone"
+> & {
   organisationName: string;
   zoneCount: number;
   speciesCount: number;
@@ -20,16 +16,27 @@ export type EventSummary = {
 export async function listPublicEvents(): Promise<EventSummary[]> {
   const db = getDb();
   const zoneCount = db.$with("zone_count").as(
-    db.select({ eventId: zones.eventId, zones: count().as("zone_n") }).from(zones).groupBy(zones.eventId),
+    db
+      .select({ eventId: zones.eventId, zones: count().as("zone_n") })
+      .from(zones)
+      .groupBy(zones.eventId),
   );
   const speciesCount = db.$with("species_count").as(
-    db.select({ eventId: eventSpecies.eventId, species: count().as("species_n") }).from(eventSpecies).groupBy(eventSpecies.eventId),
+    db
+      .select({ eventId: eventSpecies.eventId, species: count().as("species_n") })
+      .from(eventSpecies)
+      .groupBy(eventSpecies.eventId),
   );
   const rows = await db
     .with(zoneCount, speciesCount)
     .select({
-      id: events.id, slug: events.slug, name: events.name, status: events.status,
-      startsAt: events.startsAt, endsAt: events.endsAt, timeZone: events.timeZone,
+      id: events.id,
+      slug: events.slug,
+      name: events.name,
+      status: events.status,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
       organisationName: organisations.name,
       zoneCount: sql<number>`coalesce(${zoneCount.zones}, 0)::int`,
       speciesCount: sql<number>`coalesce(${speciesCount.species}, 0)::int`,
@@ -43,14 +50,19 @@ export async function listPublicEvents(): Promise<EventSummary[]> {
   return rows;
 }
 
-export type EventDetail = Awaited<ReturnType<typeof getPublicEventBySlug>>;
-
 export async function getPublicEventBySlug(slug: string) {
   const [row] = await getDb()
     .select({
-      id: events.id, slug: events.slug, name: events.name, description: events.description,
-      status: events.status, startsAt: events.startsAt, endsAt: events.endsAt, timeZone: events.timeZone,
-      languages: events.languages, organisationName: organisations.name,
+      id: events.id,
+      slug: events.slug,
+      name: events.name,
+      description: events.description,
+      status: events.status,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
+      languages: events.languages,
+      organisationName: organisations.name,
     })
     .from(events)
     .innerJoin(organisations, eq(organisations.id, events.organisationId))
@@ -62,7 +74,10 @@ export async function getPublicEventBySlug(slug: string) {
 export async function listZones(eventId: string) {
   return getDb()
     .select({
-      id: zones.id, name: zones.name, habitat: zones.habitat, description: zones.description,
+      id: zones.id,
+      name: zones.name,
+      habitat: zones.habitat,
+      description: zones.description,
       // Area on the spheroid, in hectares.
       areaHa: sql<number>`round((ST_Area(${zones.geom}::geography) / 10000)::numeric, 1)::float8`,
     })

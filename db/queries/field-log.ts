@@ -6,7 +6,14 @@ import { eventMembers, events } from "../schema";
 /** The events a person can open in the field log: those they are a member of, not drafts. */
 export async function fieldLogEvents(userId: string) {
   const rows = await getDb()
-    .select({ id: events.id, name: events.name, status: events.status, timeZone: events.timeZone, startsAt: events.startsAt, endsAt: events.endsAt })
+    .select({
+      id: events.id,
+      name: events.name,
+      status: events.status,
+      timeZone: events.timeZone,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+    })
     .from(eventMembers)
     .innerJoin(events, eq(events.id, eventMembers.eventId))
     .where(and(eq(eventMembers.userId, userId), ne(events.status, "draft")))

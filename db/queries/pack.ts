@@ -1,41 +1,14 @@
 import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
+import type { ArealGeometry, EventPack } from "@/lib/sync/pack";
 import { getDb } from "../client";
 import { eventSpecies, events, taxa, taxonNames, zones } from "../schema";
 import { eventCountUnits } from "./results";
-import { DEFAULT_COUNT_UNITS, countUnitOf, type CountUnit } from "@/lib/results/settings";
+import { DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/settings";
 
 // The event pack (issue 5): everything the field log needs to work offline at one event,
-// stored on the device and refreshed only when its ETag changes.
-
-type Geometry = { type: string; coordinates: unknown };
-export type ZoneFeature = {
-  type: "Feature";
-  id: string;
-  geometry: Geometry;
-  properties: { name: string; habitat: string; description: string };
-};
-export type PackSpecies = {
-  id: string;
-  scientificName: string;
-  rank: string;
-  taxonGroup: string;
-  sensitivity: "open" | "generalised" | "restricted";
-  onList: boolean; // on the event's species list; others may still be recorded (and get a check mark)
-  names: Record<string, string>; // common names in the event's languages, where known
-};
-export type EventPack = {
-  event: {
-    id: string; name: string; status: "draft" | "open" | "closed"; startsAt: string; endsAt: string; timeZone: string;
-    languages: string[]; sessionKinds: string[]; accuracyLimitM: number;
-    photoRules: { requiredForSensitive: boolean; requiredOffList: boolean };
-    area: Geometry | null;
-    /** What a count means for each taxon group in this event (lib/results/settings.ts), for the field log to show beside the count. */
-    countUnits: Record<string, CountUnit>;
-  };
-  zones: { type: "FeatureCollection"; features: ZoneFeature[] };
-  species: PackSpecies[];
-};
+// stored on the device and refreshed only when its ETag changes. Its shape is the sync
+// contract's (lib/sync/pack.ts), shared with the phone.
 
 // GeoJSON as RFC 7946 wants it: WGS 84 longitude/latitude, exterior rings counter-clockwise
 // (RFC 7946 section 3.1.6, hence ST_ForcePolygonCCW), and 7 decimals (about 1 cm; section
@@ -44,48 +17,89 @@ const geoJson = (column: unknown) => sql<string>`ST_AsGeoJSON(ST_ForcePolygonCCW
 
 export async function getEventPack(eventId: string): Promise<EventPack | null> {
   const db = getDb();
-  const [event] = await db.select({
-    id: events.id, name: events.name, status: events.status, startsAt: events.startsAt, endsAt: events.endsAt,
-    timeZone: events.timeZone, languages: events.languages, sessionKinds: events.sessionKinds, accuracyLimitM: events.accuracyLimitM,
-    photoRequiredSensitive: events.photoRequiredSensitive, photoRequiredOffList: events.photoRequiredOffList,
-    area: sql<string | null>`CASE WHEN ${events.area} IS NULL THEN NULL ELSE ${geoJson(events.area)} END`,
-  }).from(events).where(eq(events.id, eventId)).limit(1);
+  const [event] = await db
+    .select({
+      id: events.id,
+      name: events.name,
+      status: events.status,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
+      languages: events.languages,
+      sessionKinds: events.sessionKinds,
+      accuracyLimitM: events.accuracyLimitM,
+      photoRequiredSensitive: events.photoRequiredSensitive,
+      photoRequiredOffList: events.photoRequiredOffList,
+      area: sql<string | null>`CASE WHEN ${events.area} IS NULL THEN NULL ELSE ${geoJson(events.area)} END`,
+    })
+    .from(events)
+    .where(eq(events.id, eventId))
+    .limit(1);
   if (!event) return null;
   const chosenUnits = await eventCountUnits(eventId, db);
 
-  const zoneRows = await db.select({ id: zones.id, name: zones.name, habitat: zones.habitat, description: zones.description, geometry: geoJson(zones.geom) })
-    .from(zones).where(eq(zones.eventId, eventId)).orderBy(asc(zones.name), asc(zones.id));
+  const zoneRows = await db
+    .select({
+      id: zones.id,
+      name: zones.name,
+      habitat: zones.habitat,
+      description: zones.description,
+      geometry: geoJson(zones.geom),
+    })
+    .from(zones)
+    .where(eq(zones.eventId, eventId))
+    .orderBy(asc(zones.name), asc(zones.id));
 
-  const speciesRows = await db.select({
-    id: taxa.id, scientificName: taxa.scientificName, rank: taxa.rank, taxonGroup: taxa.taxonGroup, sensitivity: taxa.sensitivity,
-    onList: sql<boolean>`${eventSpecies.taxonId} IS NOT NULL`,
-    names: sql<Record<string, string> | null>`(
+  const speciesRows = await db
+    .select({
+      id: taxa.id,
+      scientificName: taxa.scientificName,
+      rank: taxa.rank,
+      taxonGroup: taxa.taxonGroup,
+      sensitivity: taxa.sensitivity,
+      onList: sql<boolean>`${eventSpecies.taxonId} IS NOT NULL`,
+      names: sql<Record<string, string> | null>`(
       SELECT jsonb_object_agg(${taxonNames.locale}, ${taxonNames.name} ORDER BY ${taxonNames.locale}) FROM ${taxonNames}
       WHERE ${taxonNames.taxonId} = ${taxa.id} AND ${taxonNames.locale} = ANY(${events.languages})
     )`,
-  }).from(taxa)
+    })
+    .from(taxa)
     .innerJoin(events, eq(events.id, eventId))
     .leftJoin(eventSpecies, sql`${eventSpecies.eventId} = ${eventId} AND ${eventSpecies.taxonId} = ${taxa.id}`)
     .orderBy(sql`${eventSpecies.taxonId} IS NULL`, asc(taxa.scientificName), asc(taxa.id));
 
   return {
     event: {
-      id: event.id, name: event.name, status: event.status, startsAt: event.startsAt.toISOString(), endsAt: event.endsAt.toISOString(),
-      timeZone: event.timeZone, languages: event.languages, sessionKinds: event.sessionKinds, accuracyLimitM: event.accuracyLimitM,
+      id: event.id,
+      name: event.name,
+      status: event.status,
+      startsAt: event.startsAt.toISOString(),
+      endsAt: event.endsAt.toISOString(),
+      timeZone: event.timeZone,
+      languages: event.languages,
+      sessionKinds: event.sessionKinds,
+      accuracyLimitM: event.accuracyLimitM,
       photoRules: { requiredForSensitive: event.photoRequiredSensitive, requiredOffList: event.photoRequiredOffList },
-      area: event.area ? (JSON.parse(event.area) as Geometry) : null,
+      area: event.area ? (JSON.parse(event.area) as ArealGeometry) : null,
       countUnits: Object.fromEntries(Object.keys(DEFAULT_COUNT_UNITS).map((g) => [g, countUnitOf(g, chosenUnits)])),
     },
     zones: {
       type: "FeatureCollection",
       features: zoneRows.map((z) => ({
-        type: "Feature", id: z.id, geometry: JSON.parse(z.geometry) as Geometry,
+        type: "Feature",
+        id: z.id,
+        geometry: JSON.parse(z.geometry) as ArealGeometry,
         properties: { name: z.name, habitat: z.habitat, description: z.description },
       })),
     },
     species: speciesRows.map((r) => ({
-      id: r.id, scientificName: r.scientificName, rank: r.rank, taxonGroup: r.taxonGroup, sensitivity: r.sensitivity,
-      onList: r.onList, names: r.names ?? {},
+      id: r.id,
+      scientificName: r.scientificName,
+      rank: r.rank,
+      taxonGroup: r.taxonGroup,
+      sensitivity: r.sensitivity,
+      onList: r.onList,
+      names: r.names ?? {},
     })),
   };
 }

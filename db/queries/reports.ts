@@ -1,20 +1,12 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import { getDb } from "../client";
+import { getDb, type Tx } from "../client";
 import { reports } from "../schema";
-import { enqueueMail, type OutboxMail } from "./mail-queue";
-import { canonicalJson, computeResults, type Results } from "@/lib/results/compute";
-import { METHOD_NOTES } from "@/lib/results/methods";
-import { diffRecords, inputFromRecords, inputHash, type InputRecord, type ReportChanges } from "@/lib/results/records";
-import { eventZones, loadInputRecords, pendingCounts, taxaMeta } from "./results";
-import type { Pending } from "@/lib/results/compute";
-
-/** Publishing while sightings wait for review needs `confirmPending` (the number is in the report). */
-export class PendingRecordsError extends Error {
-  constructor(readonly pending: Pending) {
-    super("pending records");
-  }
-}
+import type { Results } from "@/lib/results/compute";
+import type { METHOD_NOTES } from "@/lib/results/methods";
+import type { InputRecord, ReportChanges } from "@/lib/results/records";
+import { taxaMeta } from "./results";
+import type { Sensitivity } from "@/lib/domain";
 
 export type ReportRow = {
   id: string;
@@ -29,43 +21,51 @@ export type ReportRow = {
   changes: ReportChanges | Record<string, never>;
 };
 
-export type ReportSummary = Pick<ReportRow, "id" | "version" | "publishedAt" | "inputHash" | "changes"> & { superseded: boolean; publisherName: string | null };
-
-export type PublishMail = (report: { version: number; eventName: string; eventSlug: string }, person: { email: string; locale: string }) => OutboxMail;
+export type ReportSummary = Pick<ReportRow, "id" | "version" | "publishedAt" | "inputHash" | "changes"> & {
+  superseded: boolean;
+  publisherName: string | null;
+};
 
 /**
- * Freezes the event's current results into the next report version, in one transaction
- * under a per-event lock: inputs read in one snapshot, results computed from exactly
- * those inputs, what changed since the previous version, and the participants' e-mails.
+ * Runs `work` in one transaction under the event's report lock, so that two publishes
+ * of one event never compute the same version and every read sees one snapshot.
  */
-export async function publishReport(eventId: string, userId: string, mailFor: PublishMail, options: { confirmPending?: boolean } = {}): Promise<{ id: string; version: number }> {
+export async function inReportTransaction<T>(eventId: string, work: (tx: Tx) => Promise<T>): Promise<T> {
   return getDb().transaction(async (tx) => {
     await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtext('report:' || ${eventId}))`);
-    const pending = await pendingCounts(eventId, tx);
-    if (pending.pending + pending.returned > 0 && !options.confirmPending) throw new PendingRecordsError(pending);
-    const records = await loadInputRecords(eventId, tx);
-    const zones = await eventZones(eventId, tx);
-    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
-    const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
-    const [prev] = (await tx.execute<{ version: number; inputRecords: InputRecord[]; results: Results }>(sql`
-      SELECT version, input_records AS "inputRecords", results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1`)).rows;
-    const version = (prev?.version ?? 0) + 1;
-    let changes: ReportChanges | Record<string, never> = {};
-    if (prev) {
-      const names = new Map<string, string>([...prev.results.species.map((s) => [s.id, s.scientificName] as const), ...[...meta.values()].map((t) => [t.id, t.scientificName] as const)]);
-      changes = diffRecords(prev.version, prev.inputRecords, records, (id) => names.get(id) ?? id);
-    }
-    const [row] = await tx.insert(reports).values({
-      eventId, version, publishedBy: userId, engineVersion: results.engineVersion,
-      inputHash: inputHash(records), inputRecords: records, results: JSON.parse(canonicalJson(results)), methodNotes: METHOD_NOTES, changes,
-    }).returning({ id: reports.id });
-    const people = await tx.execute<{ email: string; locale: string; eventName: string; eventSlug: string }>(sql`
-      SELECT u.email, u.locale, e.name AS "eventName", e.slug AS "eventSlug"
-      FROM event_members m JOIN users u ON u.id = m.user_id JOIN events e ON e.id = m.event_id
-      WHERE m.event_id = ${eventId} ORDER BY u.email`);
-    await enqueueMail(people.rows.map((p) => mailFor({ version, eventName: p.eventName, eventSlug: p.eventSlug }, p)), tx);
-    return { id: row!.id, version };
+    return work(tx);
   });
+}
+
+/** The newest version's number, input records and results, for the next version's changes. */
+export async function latestReportInputs(
+  eventId: string,
+  tx: Tx,
+): Promise<{ version: number; inputRecords: InputRecord[]; results: Results } | null> {
+  const [prev] = (
+    await tx.execute<{ version: number; inputRecords: InputRecord[]; results: Results }>(sql`
+    SELECT version, input_records AS "inputRecords", results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1`)
+  ).rows;
+  return prev ?? null;
+}
+
+export type NewReport = Omit<ReportRow, "id" | "publishedAt"> & { inputRecords: InputRecord[] };
+
+export async function insertReport(report: NewReport, tx: Tx): Promise<string> {
+  const [row] = await tx.insert(reports).values(report).returning({ id: reports.id });
+  return row!.id;
+}
+
+/** Everyone who takes part in the event, with the event's name and address, for the publish e-mail. */
+export async function reportRecipients(
+  eventId: string,
+  tx: Tx,
+): Promise<{ email: string; locale: string; eventName: string; eventSlug: string }[]> {
+  const people = await tx.execute<{ email: string; locale: string; eventName: string; eventSlug: string }>(sql`
+    SELECT u.email, u.locale, e.name AS "eventName", e.slug AS "eventSlug"
+    FROM event_members m JOIN users u ON u.id = m.user_id JOIN events e ON e.id = m.event_id
+    WHERE m.event_id = ${eventId} ORDER BY u.email`);
+  return people.rows;
 }
 
 export async function listReports(eventId: string): Promise<ReportSummary[]> {
@@ -77,9 +77,15 @@ export async function listReports(eventId: string): Promise<ReportSummary[]> {
 }
 
 /** One version; its input records (large for a big event) only when asked for. */
-export async function getReport(eventId: string, version: number, options: { withInputs?: boolean } = {}): Promise<(ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }) | null> {
+export async function getReport(
+  eventId: string,
+  version: number,
+  options: { withInputs?: boolean } = {},
+): Promise<(ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }) | null> {
   const inputs = options.withInputs ? sql`input_records` : sql`'[]'::jsonb`;
-  const r = await getDb().execute<ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }>(sql`
+  const r = await getDb().execute<
+    ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }
+  >(sql`
     SELECT id, event_id AS "eventId", version, published_at AS "publishedAt", published_by AS "publishedBy",
       engine_version AS "engineVersion", input_hash AS "inputHash", ${inputs} AS "inputRecords",
       jsonb_array_length(input_records) AS "inputCount", results,
@@ -91,10 +97,22 @@ export async function getReport(eventId: string, version: number, options: { wit
 }
 
 export async function getReportById(id: string, options: { withInputs?: boolean } = {}) {
-  if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
-  const r = await getDb().execute<{ eventId: string; version: number }>(sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`);
+  const r = await getDb().execute<{ eventId: string; version: number }>(
+    sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`,
+  );
   const row = r.rows[0];
   return row ? getReport(row.eventId, row.version, options) : null;
+}
+
+/** The names a report's downloads carry: the event's, its address and its organisation's. */
+export async function reportEventNames(
+  eventId: string,
+): Promise<{ name: string; slug: string; organisation: string } | null> {
+  const [event] = (
+    await getDb().execute<{ name: string; slug: string; organisation: string }>(sql`
+    SELECT e.name, e.slug, o.name AS organisation FROM events e JOIN organisations o ON o.id = e.organisation_id WHERE e.id = ${eventId}`)
+  ).rows;
+  return event ?? null;
 }
 
 /** Credits: how many volunteers and coordinators took part (never who). */
@@ -105,31 +123,25 @@ export async function eventCredits(eventId: string): Promise<{ volunteers: numbe
   return r.rows[0] ?? { volunteers: 0, coordinators: 0 };
 }
 
-/** Re-computes a report from its recorded inputs alone and compares every number. */
-export async function checkReport(eventId: string, version: number): Promise<{ same: boolean; hashSame: boolean; recomputed: Results } | null> {
-  const report = await getReport(eventId, version, { withInputs: true });
-  if (!report) return null;
-  const zones = report.results.zones.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat }));
-  const meta = new Map(report.results.species.map((s) => [s.id, { id: s.id, scientificName: s.scientificName, rank: s.rank, group: s.group, sensitivity: s.sensitivity, names: s.names, countUnit: s.countUnit }]));
-  // The pending numbers are a fact declared at publishing, not computed from the inputs.
-  const recomputed = computeResults({ ...inputFromRecords(report.inputRecords, zones, meta), pending: report.results.pending ?? undefined });
-  return {
-    same: canonicalJson(JSON.parse(canonicalJson(recomputed))) === canonicalJson(report.results),
-    hashSame: inputHash(report.inputRecords) === report.inputHash,
-    recomputed,
-  };
-}
-
 export type Occurrence = {
-  id: string; observedAt: Date; lon: number; lat: number; accuracyM: number;
-  taxonId: string; count: number; sensitivity: "open" | "generalised" | "restricted";
+  id: string;
+  observedAt: Date;
+  lon: number;
+  lat: number;
+  accuracyM: number;
+  taxonId: string;
+  count: number;
+  sensitivity: Sensitivity;
 };
 
 /**
  * The report's occurrences with their exact locations, for the export layer to
  * generalise or withhold. Taxon and count are those recorded in the report.
  */
-export async function reportOccurrences(report: { inputRecords: InputRecord[]; results: Results }): Promise<Occurrence[]> {
+export async function reportOccurrences(report: {
+  inputRecords: InputRecord[];
+  results: Results;
+}): Promise<Occurrence[]> {
   const ids = report.inputRecords.map((r) => r[0]);
   if (!ids.length) return [];
   const r = await getDb().execute<{ id: string; observedAt: string; lon: number; lat: number; accuracyM: number }>(sql`

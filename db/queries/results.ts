@@ -4,6 +4,7 @@ import { getDb, type Db } from "../client";
 import { NO_ZONE, type Pending, type ResultsInput, type ResultsTaxon } from "@/lib/results/compute";
 import { SESSION_RECORD, type InputRecord } from "@/lib/results/records";
 import { COUNT_UNITS, countUnitOf, type CountUnit } from "@/lib/results/settings";
+import type { ReviewState } from "@/lib/domain";
 
 type Tx = Pick<Db, "execute">;
 
@@ -23,7 +24,12 @@ export async function eventCountUnits(eventId: string, db: Tx = getDb()): Promis
 }
 
 /** Sets what counts of one taxon group mean in the event. */
-export async function setEventCountUnit(eventId: string, group: string, unit: CountUnit, db: Tx = getDb()): Promise<void> {
+export async function setEventCountUnit(
+  eventId: string,
+  group: string,
+  unit: CountUnit,
+  db: Tx = getDb(),
+): Promise<void> {
   if (!COUNT_UNITS.includes(unit)) throw new Error(`unknown count unit ${unit}`);
   await db.execute(sql`
     INSERT INTO event_count_units (event_id, taxon_group, unit) VALUES (${eventId}, ${group}::taxon_group, ${unit}::count_unit)
@@ -31,11 +37,22 @@ export async function setEventCountUnit(eventId: string, group: string, unit: Co
 }
 
 /** Taxa with their names in every language, by id; with `eventId`, each with its count unit in that event. */
-export async function taxaMeta(ids: readonly string[], db: Tx = getDb(), eventId?: string): Promise<Map<string, ResultsTaxon>> {
+export async function taxaMeta(
+  ids: readonly string[],
+  db: Tx = getDb(),
+  eventId?: string,
+): Promise<Map<string, ResultsTaxon>> {
   const valid = ids.filter(isUuid);
   if (!valid.length) return new Map();
   const units = eventId ? await eventCountUnits(eventId, db) : {};
-  const r = await db.execute<{ id: string; scientificName: string; rank: string; group: string; sensitivity: ResultsTaxon["sensitivity"]; names: Record<string, string> | null }>(sql`
+  const r = await db.execute<{
+    id: string;
+    scientificName: string;
+    rank: string;
+    group: string;
+    sensitivity: ResultsTaxon["sensitivity"];
+    names: Record<string, string> | null;
+  }>(sql`
     SELECT t.id, t.scientific_name AS "scientificName", t.rank::text AS rank, t.taxon_group::text AS "group",
            t.sensitivity::text AS sensitivity, jsonb_object_agg(n.locale, n.name) FILTER (WHERE n.locale IS NOT NULL) AS names
     FROM taxa t LEFT JOIN taxon_names n ON n.taxon_id = t.id
@@ -83,7 +100,10 @@ export async function pendingCounts(eventId: string, db: Tx = getDb()): Promise<
  * however many sightings the event holds. Taxa are ordered by id and complete sessions
  * by id (the canonical order of lib/results/records.ts).
  */
-export async function loadResultsInput(eventId: string, options: { sessions?: boolean; pending?: boolean } = {}): Promise<ResultsInput> {
+export async function loadResultsInput(
+  eventId: string,
+  options: { sessions?: boolean; pending?: boolean } = {},
+): Promise<ResultsInput> {
   const db = getDb();
   const [zones, counts, sessions, pending] = await Promise.all([
     eventZones(eventId, db),
@@ -92,7 +112,9 @@ export async function loadResultsInput(eventId: string, options: { sessions?: bo
       FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0`),
     // Taxa travel as their rank among the event's taxa, one short text per session. Every
     // complete session is a row, also when nothing in it is approved (an empty unit).
-    options.sessions === false ? { rows: [] as { zoneId: string | null; taxa: string | null }[] } : db.execute<{ zoneId: string | null; taxa: string | null }>(sql`
+    options.sessions === false
+      ? { rows: [] as { zoneId: string | null; taxa: string | null }[] }
+      : db.execute<{ zoneId: string | null; taxa: string | null }>(sql`
       WITH tx AS (
         SELECT taxon_id, (row_number() OVER (ORDER BY taxon_id) - 1)::int AS i
         FROM (SELECT DISTINCT taxon_id FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0) d
@@ -115,7 +137,15 @@ export async function loadResultsInput(eventId: string, options: { sessions?: bo
     zones,
     taxa: ids.map((id) => meta.get(id)!),
     counts: counts.rows.map((c) => ({ zoneId: c.zoneId, taxon: index.get(c.taxonId)!, individuals: c.individuals })),
-    sessions: sessions.rows.map((s) => ({ zoneId: s.zoneId ?? NO_ZONE, taxa: s.taxa ? s.taxa.split(",").map(Number).sort((a, b) => a - b) : [] })),
+    sessions: sessions.rows.map((s) => ({
+      zoneId: s.zoneId ?? NO_ZONE,
+      taxa: s.taxa
+        ? s.taxa
+            .split(",")
+            .map(Number)
+            .sort((a, b) => a - b)
+        : [],
+    })),
   };
 }
 
@@ -141,7 +171,7 @@ export async function loadInputRecords(eventId: string, db: Tx = getDb()): Promi
 export type LiveFigures = {
   perHour: { hour: string; sightings: number }[];
   activeVolunteers: { lastHour: number; today: number; total: number };
-  backlog: Record<"pending" | "approved" | "rejected" | "returned", number>;
+  backlog: Record<ReviewState, number>;
 };
 
 /** The live board's counts: sightings per hour (last 48 hours of records), people, review backlog. */

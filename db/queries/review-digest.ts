@@ -1,7 +1,8 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import type { ReviewStateName } from "@/lib/review/filters";
+import type { ReviewState } from "@/lib/domain";
 import { getDb } from "../client";
+import type { users } from "../schema";
 
 // Gathers review decisions into one digest mail per volunteer: a volunteer's waiting
 // notices are composed once the oldest has waited `delaySeconds` (an hour by default), so
@@ -10,14 +11,28 @@ import { getDb } from "../client";
 // sending is the outbox's job (retried with back-off; the notices stay linked to it).
 
 export type DigestItem = {
-  reviewId: number; decidedAt: Date; fromState: ReviewStateName; toState: ReviewStateName; reason: string; message: string;
-  fromTaxon: string | null; toTaxon: string | null; taxonChanged: boolean; count: number; observedAt: Date;
-  eventName: string; timeZone: string; description: string;
+  reviewId: number;
+  decidedAt: Date;
+  fromState: ReviewState;
+  toState: ReviewState;
+  reason: string;
+  message: string;
+  fromTaxon: string | null;
+  toTaxon: string | null;
+  taxonChanged: boolean;
+  count: number;
+  observedAt: Date;
+  eventName: string;
+  timeZone: string;
+  description: string;
 };
-export type DigestRecipient = { id: string; email: string; name: string | null; locale: string };
+export type DigestRecipient = Pick<typeof users.$inferSelect, "id" | "email" | "name" | "locale">;
 export type RenderedMail = { subject: string; text: string; html: string };
 
-export async function composeDigests(delaySeconds: number, render: (to: DigestRecipient, items: DigestItem[]) => RenderedMail): Promise<number> {
+export async function composeDigests(
+  delaySeconds: number,
+  render: (to: DigestRecipient, items: DigestItem[]) => RenderedMail,
+): Promise<number> {
   const db = getDb();
   const { rows: due } = await db.execute<{ volunteerId: string }>(sql`
     SELECT volunteer_id AS "volunteerId" FROM review_notices WHERE digest_id IS NULL
@@ -31,10 +46,15 @@ export async function composeDigests(delaySeconds: number, render: (to: DigestRe
         ORDER BY review_id FOR UPDATE SKIP LOCKED`);
       if (!notices.length) return false;
       const ids = `{${notices.map((n) => n.reviewId).join(",")}}`;
-      const { rows: person } = await tx.execute<DigestRecipient>(sql`SELECT id, email, name, locale FROM users WHERE id = ${volunteerId}`);
+      const { rows: person } = await tx.execute<DigestRecipient>(
+        sql`SELECT id, email, name, locale FROM users WHERE id = ${volunteerId}`,
+      );
       const to = person[0]!;
       const locale = to.locale.replace(/[^a-z]/g, "");
-      const taxonName = (col: string) => sql.raw(`(SELECT coalesce(coalesce((SELECT n.name FROM taxon_names n WHERE n.taxon_id = x.id AND n.locale = '${locale}'), (SELECT n.name FROM taxon_names n WHERE n.taxon_id = x.id AND n.locale = 'en')) || ' (' || x.scientific_name || ')', x.scientific_name) FROM taxa x WHERE x.id = ${col})`);
+      const taxonName = (col: string) =>
+        sql.raw(
+          `(SELECT coalesce(coalesce((SELECT n.name FROM taxon_names n WHERE n.taxon_id = x.id AND n.locale = '${locale}'), (SELECT n.name FROM taxon_names n WHERE n.taxon_id = x.id AND n.locale = 'en')) || ' (' || x.scientific_name || ')', x.scientific_name) FROM taxa x WHERE x.id = ${col})`,
+        );
       const { rows: items } = await tx.execute<DigestItem>(sql`
         SELECT r.id::int AS "reviewId", r.decided_at AS "decidedAt", r.from_state AS "fromState", r.to_state AS "toState", r.reason, r.message,
           ${taxonName("r.from_taxon_id")} AS "fromTaxon", ${taxonName("r.to_taxon_id")} AS "toTaxon",
@@ -46,7 +66,9 @@ export async function composeDigests(delaySeconds: number, render: (to: DigestRe
       const { rows: outbox } = await tx.execute<{ id: number }>(sql`
         INSERT INTO email_outbox (to_address, kind, locale, subject, text_body, html_body)
         VALUES (${to.email}, 'review_digest', ${to.locale}, ${mail.subject}, ${mail.text}, ${mail.html}) RETURNING id::int AS id`);
-      await tx.execute(sql`UPDATE review_notices SET digest_id = ${outbox[0]!.id} WHERE review_id = ANY(${ids}::bigint[])`);
+      await tx.execute(
+        sql`UPDATE review_notices SET digest_id = ${outbox[0]!.id} WHERE review_id = ANY(${ids}::bigint[])`,
+      );
       return true;
     });
     if (made) composed++;

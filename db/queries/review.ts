@@ -1,24 +1,39 @@
 import "server-only";
 import { sql, type SQL } from "drizzle-orm";
-import type { CheckMarkName, QueueFilters, ReviewStateName, TaxonGroupName } from "@/lib/review/filters";
+import type { QueueFilters } from "@/lib/review/filters";
 import { getDb } from "../client";
+import type { events } from "../schema";
 import { refreshCheckMarks, type Executor } from "./check-marks";
+import type { CheckMark, ReviewState, Sensitivity, TaxonGroup } from "@/lib/domain";
+import type { ArealGeometry } from "@/lib/geo/areal";
 
 // The review desk's data: the queue (keyset pagination on observed time and id, so a deep
 // page costs what the first one does), the detail of one sighting, and decisions, each
 // appended to the reviews table with the sighting's state kept in step in one transaction.
 
 /** Who is reviewing where: the event, and the taxon groups they may see (empty: every group). */
-export type ReviewScope = { eventId: string; taxonGroups: string[]; locale: string };
+export type ReviewScope = { eventId: string; taxonGroups: TaxonGroup[]; locale: string };
 
 export const QUEUE_PAGE_SIZE = 50;
 export const MAX_BULK = 500;
 
 export type QueueItem = {
-  id: string; reviewState: ReviewStateName; version: number;
-  taxonId: string | null; scientificName: string | null; commonName: string | null; taxonGroup: TaxonGroupName | null; sensitive: boolean;
-  description: string; count: number; countIsEstimate: boolean; observedAt: string;
-  zoneName: string | null; volunteerName: string; checkMarks: CheckMarkName[]; photoCount: number;
+  id: string;
+  reviewState: ReviewState;
+  version: number;
+  taxonId: string | null;
+  scientificName: string | null;
+  commonName: string | null;
+  taxonGroup: TaxonGroup | null;
+  sensitive: boolean;
+  description: string;
+  count: number;
+  countIsEstimate: boolean;
+  observedAt: string;
+  zoneName: string | null;
+  volunteerName: string;
+  checkMarks: CheckMark[];
+  photoCount: number;
 };
 export type QueuePage = { items: QueueItem[]; nextCursor: string | null };
 
@@ -29,7 +44,9 @@ function encodeCursor(observedAt: string, id: string): string {
 /** A cursor from a client: null when it is not one of ours. */
 export function decodeCursor(cursor: string): { observedAt: string; id: string } | null {
   const text = Buffer.from(cursor, "base64url").toString("utf8");
-  const m = text.match(/^((\d{4})-(\d{2})-(\d{2}) (\d{2}):(\d{2}):(\d{2})(?:\.\d{1,6})?[+-]\d{2}(?::\d{2})?)\|([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/i);
+  const m = text.match(
+    /^((\d{4})-(\d{2})-(\d{2}) (\d{2}):(\d{2}):(\d{2})(?:\.\d{1,6})?[+-]\d{2}(?::\d{2})?)\|([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/i,
+  );
   if (!m) return null;
   // Every part in range, so PostgreSQL never sees an impossible timestamp.
   const [y, mo, d, h, mi, se] = m.slice(2, 8).map(Number) as [number, number, number, number, number, number];
@@ -41,7 +58,8 @@ export function decodeCursor(cursor: string): { observedAt: string; id: string }
 /** The WHERE clause shared by the queue, the counts and bulk approve. */
 function filterSql(scope: ReviewScope, f: Omit<QueueFilters, "order">, opts: { withState: boolean }): SQL {
   const parts: SQL[] = [sql`s.event_id = ${scope.eventId}`];
-  if (scope.taxonGroups.length) parts.push(sql`t.taxon_group = ANY(${`{${scope.taxonGroups.join(",")}}`}::taxon_group[])`);
+  if (scope.taxonGroups.length)
+    parts.push(sql`t.taxon_group = ANY(${`{${scope.taxonGroups.join(",")}}`}::taxon_group[])`);
   if (opts.withState && f.state) parts.push(sql`s.review_state = ${f.state}`);
   if (f.zone === "none") parts.push(sql`s.zone_id IS NULL`);
   else if (f.zone) parts.push(sql`s.zone_id = ${f.zone}`);
@@ -60,11 +78,18 @@ function fromSql(scope: ReviewScope): SQL {
   return sql`sightings s JOIN events e ON e.id = s.event_id ${scope.taxonGroups.length ? sql`JOIN` : sql`LEFT JOIN`} taxa t ON t.id = s.taxon_id`;
 }
 
-export async function reviewQueue(scope: ReviewScope, f: QueueFilters, cursor: string | null, limit = QUEUE_PAGE_SIZE, db: Executor = getDb()): Promise<QueuePage> {
+export async function reviewQueue(
+  scope: ReviewScope,
+  f: QueueFilters,
+  cursor: string | null,
+  limit = QUEUE_PAGE_SIZE,
+  db: Executor = getDb(),
+): Promise<QueuePage> {
   const after = cursor ? decodeCursor(cursor) : null;
   const desc = f.order === "newest";
   const keyset = after
-    ? desc ? sql`AND (s.observed_at, s.id) < (${after.observedAt}::timestamptz, ${after.id}::uuid)`
+    ? desc
+      ? sql`AND (s.observed_at, s.id) < (${after.observedAt}::timestamptz, ${after.id}::uuid)`
       : sql`AND (s.observed_at, s.id) > (${after.observedAt}::timestamptz, ${after.id}::uuid)`
     : sql``;
   const order = desc ? sql`s.observed_at DESC, s.id DESC` : sql`s.observed_at ASC, s.id ASC`;
@@ -93,11 +118,15 @@ export async function reviewQueue(scope: ReviewScope, f: QueueFilters, cursor: s
 }
 
 /** How many sightings in each review state match the filters (the state filter aside). */
-export async function queueCounts(scope: ReviewScope, f: QueueFilters, db: Executor = getDb()): Promise<Record<ReviewStateName, number>> {
-  const { rows } = await db.execute<{ state: ReviewStateName; n: number }>(sql`
+export async function queueCounts(
+  scope: ReviewScope,
+  f: QueueFilters,
+  db: Executor = getDb(),
+): Promise<Record<ReviewState, number>> {
+  const { rows } = await db.execute<{ state: ReviewState; n: number }>(sql`
     SELECT s.review_state AS state, count(*)::int AS n FROM ${fromSql(scope)}
     WHERE ${filterSql(scope, f, { withState: false })} GROUP BY 1`);
-  const counts: Record<ReviewStateName, number> = { pending: 0, approved: 0, rejected: 0, returned: 0 };
+  const counts: Record<ReviewState, number> = { pending: 0, approved: 0, rejected: 0, returned: 0 };
   for (const r of rows) counts[r.state] = r.n;
   return counts;
 }
@@ -106,7 +135,9 @@ export async function queueCounts(scope: ReviewScope, f: QueueFilters, db: Execu
 export async function queueChoices(scope: ReviewScope) {
   const db = getDb();
   const [zones, volunteers] = await Promise.all([
-    db.execute<{ id: string; name: string }>(sql`SELECT id, name FROM zones WHERE event_id = ${scope.eventId} ORDER BY name`),
+    db.execute<{ id: string; name: string }>(
+      sql`SELECT id, name FROM zones WHERE event_id = ${scope.eventId} ORDER BY name`,
+    ),
     db.execute<{ id: string; name: string }>(sql`
       SELECT u.id, coalesce(u.name, u.email) AS name FROM users u
       WHERE EXISTS (SELECT 1 FROM sightings s WHERE s.event_id = ${scope.eventId} AND s.user_id = u.id) ORDER BY 2`),
@@ -114,7 +145,10 @@ export async function queueChoices(scope: ReviewScope) {
   return { zones: zones.rows, volunteers: volunteers.rows };
 }
 
-export type ReviewEvent = { id: string; slug: string; name: string; timeZone: string; startsAt: Date; endsAt: Date; accuracyLimitM: number };
+export type ReviewEvent = Pick<
+  typeof events.$inferSelect,
+  "id" | "slug" | "name" | "timeZone" | "startsAt" | "endsAt" | "accuracyLimitM"
+>;
 
 export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | null> {
   const { rows } = await getDb().execute<ReviewEvent>(sql`
@@ -127,7 +161,13 @@ export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | nul
 /** Where a sighting is and which group it belongs to, to check a reviewer's scope before showing or deciding it. */
 async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
   const { rows } = await db.execute<{
-    id: string; eventId: string; userId: string; reviewState: ReviewStateName; version: number; taxonId: string | null; taxonGroup: string | null;
+    id: string;
+    eventId: string;
+    userId: string;
+    reviewState: ReviewState;
+    version: number;
+    taxonId: string | null;
+    taxonGroup: TaxonGroup | null;
   }>(sql`
     SELECT s.id, s.event_id AS "eventId", s.user_id AS "userId", s.review_state AS "reviewState", s.version,
       s.taxon_id AS "taxonId", t.taxon_group::text AS "taxonGroup"
@@ -138,9 +178,10 @@ async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
 
 export type ScopeCheck = "ok" | "not_found" | "forbidden";
 
-function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: string | null } | null): ScopeCheck {
+function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: TaxonGroup | null } | null): ScopeCheck {
   if (!place || place.eventId !== scope.eventId) return "not_found";
-  if (scope.taxonGroups.length && !(place.taxonGroup && scope.taxonGroups.includes(place.taxonGroup))) return "forbidden";
+  if (scope.taxonGroups.length && !(place.taxonGroup && scope.taxonGroups.includes(place.taxonGroup)))
+    return "forbidden";
   return "ok";
 }
 
@@ -148,15 +189,39 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
   const db = getDb();
   const check = inScope(scope, await sightingPlace(db, sightingId, false));
   if (check !== "ok") return { check } as const;
-  const name = (col: SQL) => sql`(SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = ${col})`;
+  const name = (col: SQL) =>
+    sql`(SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = ${col})`;
   const [main, photos, history, nearby, map] = await Promise.all([
     db.execute<{
-      id: string; reviewState: ReviewStateName; version: number; taxonId: string | null; scientificName: string | null; commonName: string | null;
-      taxonGroup: string | null; sensitivity: string | null; description: string; count: number; countIsEstimate: boolean; observedAt: string;
-      receivedAt: string; lon: number; lat: number; accuracyM: number; zoneId: string | null; zoneName: string | null; notes: string;
-      volunteerId: string; volunteerName: string; checkMarks: CheckMarkName[];
-      sessionId: string | null; sessionKind: string | null; sessionStartedAt: string | null; sessionEndedAt: string | null;
-      sessionAllSpecies: boolean | null; sessionZoneName: string | null; sessionSightings: number | null;
+      id: string;
+      reviewState: ReviewState;
+      version: number;
+      taxonId: string | null;
+      scientificName: string | null;
+      commonName: string | null;
+      taxonGroup: TaxonGroup | null;
+      sensitivity: Sensitivity | null;
+      description: string;
+      count: number;
+      countIsEstimate: boolean;
+      observedAt: string;
+      receivedAt: string;
+      lon: number;
+      lat: number;
+      accuracyM: number;
+      zoneId: string | null;
+      zoneName: string | null;
+      notes: string;
+      volunteerId: string;
+      volunteerName: string;
+      checkMarks: CheckMark[];
+      sessionId: string | null;
+      sessionKind: string | null;
+      sessionStartedAt: string | null;
+      sessionEndedAt: string | null;
+      sessionAllSpecies: boolean | null;
+      sessionZoneName: string | null;
+      sessionSightings: number | null;
     }>(sql`
       SELECT s.id, s.review_state AS "reviewState", s.version, s.taxon_id AS "taxonId", t.scientific_name AS "scientificName",
         ${name(sql`s.taxon_id`)} AS "commonName", t.taxon_group AS "taxonGroup", t.sensitivity::text AS sensitivity,
@@ -173,8 +238,15 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
     db.execute<{ id: string; contentType: string; sizeBytes: number; width: number | null; height: number | null }>(sql`
       SELECT id, content_type AS "contentType", size_bytes AS "sizeBytes", width, height FROM photos WHERE sighting_id = ${sightingId} ORDER BY created_at, id`),
     db.execute<{
-      id: number; decidedAt: string; reviewerName: string; fromState: ReviewStateName; toState: ReviewStateName;
-      fromTaxon: string | null; toTaxon: string | null; reason: string; message: string;
+      id: number;
+      decidedAt: string;
+      reviewerName: string;
+      fromState: ReviewState;
+      toState: ReviewState;
+      fromTaxon: string | null;
+      toTaxon: string | null;
+      reason: string;
+      message: string;
     }>(sql`
       SELECT r.id::int AS id, r.decided_at AS "decidedAt", coalesce(u.name, u.email) AS "reviewerName", r.from_state AS "fromState", r.to_state AS "toState",
         (SELECT coalesce(${name(sql`ft.id`)} || ' (' || ft.scientific_name || ')', ft.scientific_name) FROM taxa ft WHERE ft.id = r.from_taxon_id) AS "fromTaxon",
@@ -182,7 +254,15 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
         r.reason, r.message
       FROM reviews r JOIN users u ON u.id = r.reviewer_id WHERE r.sighting_id = ${sightingId} ORDER BY r.decided_at, r.id`),
     // The volunteer's other records within two hours either side, to judge duplicates and context.
-    db.execute<{ id: string; observedAt: string; commonName: string | null; scientificName: string | null; count: number; reviewState: ReviewStateName; distanceM: number }>(sql`
+    db.execute<{
+      id: string;
+      observedAt: string;
+      commonName: string | null;
+      scientificName: string | null;
+      count: number;
+      reviewState: ReviewState;
+      distanceM: number;
+    }>(sql`
       SELECT o.id, o.observed_at AS "observedAt", ${name(sql`o.taxon_id`)} AS "commonName", ot.scientific_name AS "scientificName", o.count,
         o.review_state AS "reviewState", round(ST_Distance(o.location::geography, s.location::geography))::int AS "distanceM"
       FROM sightings s JOIN sightings o ON o.user_id = s.user_id AND o.event_id = s.event_id AND o.id <> s.id
@@ -202,12 +282,15 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
     history: history.rows,
     nearby: nearby.rows,
     map: {
-      area: m?.area ? (JSON.parse(m.area) as GeoJsonPolygon) : null,
-      zones: (m?.zones ?? []).map((z) => ({ id: z.id, name: z.name, geometry: JSON.parse(z.geometry) as GeoJsonPolygon })),
+      area: m?.area ? (JSON.parse(m.area) as ArealGeometry) : null,
+      zones: (m?.zones ?? []).map((z) => ({
+        id: z.id,
+        name: z.name,
+        geometry: JSON.parse(z.geometry) as ArealGeometry,
+      })),
     },
   };
 }
-export type GeoJsonPolygon = { type: "Polygon"; coordinates: [number, number][][] };
 export type SightingDetail = Extract<Awaited<ReturnType<typeof sightingDetail>>, { check: "ok" }>;
 
 export type Decision =
@@ -217,9 +300,13 @@ export type Decision =
   | { action: "reidentify"; version: number; taxonId: string; message?: string };
 
 export type DecisionResult =
-  | { outcome: "ok"; sighting: { id: string; reviewState: ReviewStateName; version: number; taxonId: string | null }; reviewId: number }
+  | {
+      outcome: "ok";
+      sighting: { id: string; reviewState: ReviewState; version: number; taxonId: string | null };
+      reviewId: number;
+    }
   | { outcome: "not_found" | "forbidden" }
-  | { outcome: "conflict"; current: { reviewState: ReviewStateName; version: number } }
+  | { outcome: "conflict"; current: { reviewState: ReviewState; version: number } }
   | { outcome: "unchanged" }
   | { outcome: "bad_taxon"; why: "unknown" | "out_of_scope" | "same" };
 
@@ -231,20 +318,29 @@ const TO_STATE = { approve: "approved", reject: "rejected", return: "returned" }
  * the decision appended to reviews, the sighting's state, taxon and version moved in step,
  * a notice queued for the volunteer's digest, and the check marks recomputed.
  */
-export async function decide(scope: ReviewScope, reviewerId: string, sightingId: string, d: Decision): Promise<DecisionResult> {
+export async function decide(
+  scope: ReviewScope,
+  reviewerId: string,
+  sightingId: string,
+  d: Decision,
+): Promise<DecisionResult> {
   return getDb().transaction(async (tx) => {
     const place = await sightingPlace(tx, sightingId, true);
     const check = inScope(scope, place);
     if (check !== "ok") return { outcome: check };
     const p = place!;
-    if (p.version !== d.version) return { outcome: "conflict", current: { reviewState: p.reviewState, version: p.version } };
-    let toState: ReviewStateName = p.reviewState;
+    if (p.version !== d.version)
+      return { outcome: "conflict", current: { reviewState: p.reviewState, version: p.version } };
+    let toState: ReviewState = p.reviewState;
     let toTaxon = p.taxonId;
     if (d.action === "reidentify") {
       if (d.taxonId === p.taxonId) return { outcome: "bad_taxon", why: "same" };
-      const { rows } = await tx.execute<{ group: string }>(sql`SELECT taxon_group::text AS group FROM taxa WHERE id = ${d.taxonId}`);
+      const { rows } = await tx.execute<{ group: TaxonGroup }>(
+        sql`SELECT taxon_group::text AS group FROM taxa WHERE id = ${d.taxonId}`,
+      );
       if (!rows[0]) return { outcome: "bad_taxon", why: "unknown" };
-      if (scope.taxonGroups.length && !scope.taxonGroups.includes(rows[0].group)) return { outcome: "bad_taxon", why: "out_of_scope" };
+      if (scope.taxonGroups.length && !scope.taxonGroups.includes(rows[0].group))
+        return { outcome: "bad_taxon", why: "out_of_scope" };
       toTaxon = d.taxonId;
     } else {
       toState = TO_STATE[d.action];
@@ -261,17 +357,29 @@ export async function decide(scope: ReviewScope, reviewerId: string, sightingId:
       RETURNING id::int AS id`);
     await tx.execute(sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${review[0]!.id}, ${p.userId})`);
     await refreshCheckMarks(tx, [sightingId]);
-    return { outcome: "ok", reviewId: review[0]!.id, sighting: { id: sightingId, reviewState: toState, version: updated[0]!.version, taxonId: toTaxon } };
+    return {
+      outcome: "ok",
+      reviewId: review[0]!.id,
+      sighting: { id: sightingId, reviewState: toState, version: updated[0]!.version, taxonId: toTaxon },
+    };
   });
 }
 
-export type BulkResult = { outcome: "ok"; approved: number } | { outcome: "count_changed"; count: number } | { outcome: "too_many"; count: number };
+export type BulkResult =
+  | { outcome: "ok"; approved: number }
+  | { outcome: "count_changed"; count: number }
+  | { outcome: "too_many"; count: number };
 
 /**
  * Approves every pending sighting that matches the filters, provided their number is the
  * one the reviewer confirmed (`expected`): if the set changed meanwhile, nothing is done.
  */
-export async function bulkApprove(scope: ReviewScope, reviewerId: string, f: QueueFilters, expected: number): Promise<BulkResult> {
+export async function bulkApprove(
+  scope: ReviewScope,
+  reviewerId: string,
+  f: QueueFilters,
+  expected: number,
+): Promise<BulkResult> {
   return getDb().transaction(async (tx) => {
     const { rows } = await tx.execute<{ id: string; userId: string; taxonId: string | null }>(sql`
       SELECT s.id, s.user_id AS "userId", s.taxon_id AS "taxonId" FROM ${fromSql(scope)}
@@ -282,7 +390,9 @@ export async function bulkApprove(scope: ReviewScope, reviewerId: string, f: Que
     if (!rows.length) return { outcome: "ok", approved: 0 };
     const ids = rows.map((r) => r.id);
     const idArray = sql`${`{${ids.join(",")}}`}::uuid[]`;
-    await tx.execute(sql`UPDATE sightings SET review_state = 'approved', version = version + 1, updated_at = now() WHERE id = ANY(${idArray})`);
+    await tx.execute(
+      sql`UPDATE sightings SET review_state = 'approved', version = version + 1, updated_at = now() WHERE id = ANY(${idArray})`,
+    );
     await tx.execute(sql`
       WITH added AS (
         INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
@@ -299,7 +409,13 @@ export async function bulkApprove(scope: ReviewScope, reviewerId: string, f: Que
 /** Taxa a reviewer may choose when re-identifying: by common or scientific name, within their groups. */
 export async function searchTaxa(scope: ReviewScope, q: string, limit = 12) {
   const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-  const { rows } = await getDb().execute<{ id: string; scientificName: string; commonName: string | null; taxonGroup: string; onList: boolean }>(sql`
+  const { rows } = await getDb().execute<{
+    id: string;
+    scientificName: string;
+    commonName: string | null;
+    taxonGroup: TaxonGroup;
+    onList: boolean;
+  }>(sql`
     SELECT t.id, t.scientific_name AS "scientificName", t.taxon_group::text AS "taxonGroup",
       (SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = t.id) AS "commonName",
       EXISTS (SELECT 1 FROM event_species es WHERE es.event_id = ${scope.eventId} AND es.taxon_id = t.id) AS "onList"

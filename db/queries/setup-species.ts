@@ -19,12 +19,32 @@ export type SpeciesNotice = {
   code: "newTaxon" | "alreadyListed" | "nameKept" | "nameAdded" | "sensitivityRaised" | "sensitivityKept";
   values?: Record<string, string | number>;
 };
-export type SpeciesSummary = { rows: number; newTaxa: number; addedToList: number; alreadyListed: number; namesAdded: number; namesKept: number };
-export type SpeciesImportResult = { problems: CsvProblem[]; notices: SpeciesNotice[]; summary: SpeciesSummary; saved: boolean };
+export type SpeciesSummary = {
+  rows: number;
+  newTaxa: number;
+  addedToList: number;
+  alreadyListed: number;
+  namesAdded: number;
+  namesKept: number;
+};
+export type SpeciesImportResult = {
+  problems: CsvProblem[];
+  notices: SpeciesNotice[];
+  summary: SpeciesSummary;
+  saved: boolean;
+};
 
 const LEVEL = { open: 0, generalised: 1, restricted: 2 } as const;
 
-type Existing = { id: string; scientific_name: string; rank: string; taxon_group: string; sensitivity: keyof typeof LEVEL; names: Record<string, string> | null; listed: boolean };
+type Existing = {
+  id: string;
+  scientific_name: string;
+  rank: string;
+  taxon_group: string;
+  sensitivity: keyof typeof LEVEL;
+  names: Record<string, string> | null;
+  listed: boolean;
+};
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
 async function existingTaxa(tx: Tx, eventId: string, names: string[]): Promise<Map<string, Existing>> {
@@ -41,7 +61,14 @@ async function existingTaxa(tx: Tx, eventId: string, names: string[]): Promise<M
 function compare(rows: SpeciesRow[], existing: Map<string, Existing>) {
   const problems: CsvProblem[] = [];
   const notices: SpeciesNotice[] = [];
-  const summary: SpeciesSummary = { rows: rows.length, newTaxa: 0, addedToList: 0, alreadyListed: 0, namesAdded: 0, namesKept: 0 };
+  const summary: SpeciesSummary = {
+    rows: rows.length,
+    newTaxa: 0,
+    addedToList: 0,
+    alreadyListed: 0,
+    namesAdded: 0,
+    namesKept: 0,
+  };
   for (const row of rows) {
     const found = existing.get(row.scientificName.toLowerCase());
     if (!found) {
@@ -52,11 +79,21 @@ function compare(rows: SpeciesRow[], existing: Map<string, Existing>) {
       continue;
     }
     if (found.taxon_group !== row.taxonGroup) {
-      problems.push({ line: row.line, column: "taxon_group", code: "groupConflict", values: { name: found.scientific_name, stored: found.taxon_group, given: row.taxonGroup } });
+      problems.push({
+        line: row.line,
+        column: "taxon_group",
+        code: "groupConflict",
+        values: { name: found.scientific_name, stored: found.taxon_group, given: row.taxonGroup },
+      });
       continue;
     }
     if (found.rank !== row.rank) {
-      problems.push({ line: row.line, column: "rank", code: "rankConflict", values: { name: found.scientific_name, stored: found.rank, given: row.rank } });
+      problems.push({
+        line: row.line,
+        column: "rank",
+        code: "rankConflict",
+        values: { name: found.scientific_name, stored: found.rank, given: row.rank },
+      });
       continue;
     }
     if (found.listed) {
@@ -74,8 +111,18 @@ function compare(rows: SpeciesRow[], existing: Map<string, Existing>) {
       }
     }
     if (row.sensitivity && row.sensitivity !== found.sensitivity) {
-      if (LEVEL[row.sensitivity] > LEVEL[found.sensitivity]) notices.push({ line: row.line, code: "sensitivityRaised", values: { stored: found.sensitivity, given: row.sensitivity } });
-      else notices.push({ line: row.line, code: "sensitivityKept", values: { stored: found.sensitivity, given: row.sensitivity } });
+      if (LEVEL[row.sensitivity] > LEVEL[found.sensitivity])
+        notices.push({
+          line: row.line,
+          code: "sensitivityRaised",
+          values: { stored: found.sensitivity, given: row.sensitivity },
+        });
+      else
+        notices.push({
+          line: row.line,
+          code: "sensitivityKept",
+          values: { stored: found.sensitivity, given: row.sensitivity },
+        });
     }
   }
   return { problems, notices, summary };
@@ -90,7 +137,11 @@ export async function importSpecies(eventId: string, rows: SpeciesRow[], save: b
   return getDb().transaction(async (tx) => {
     // One import per event at a time.
     await tx.execute(sql`SELECT id FROM events WHERE id = ${eventId} FOR UPDATE`);
-    const existing = await existingTaxa(tx, eventId, rows.map((r) => r.scientificName));
+    const existing = await existingTaxa(
+      tx,
+      eventId,
+      rows.map((r) => r.scientificName),
+    );
     const { problems, notices, summary } = compare(rows, existing);
     if (!save || problems.length) return { problems, notices, summary, saved: false };
 
@@ -109,9 +160,13 @@ export async function importSpecies(eventId: string, rows: SpeciesRow[], save: b
         await tx.execute(sql`UPDATE taxa SET sensitivity = ${row.sensitivity} WHERE id = ${taxonId}`);
       }
       for (const [locale, name] of Object.entries(row.names)) {
-        await tx.execute(sql`INSERT INTO taxon_names (taxon_id, locale, name) VALUES (${taxonId}, ${locale}, ${name}) ON CONFLICT DO NOTHING`);
+        await tx.execute(
+          sql`INSERT INTO taxon_names (taxon_id, locale, name) VALUES (${taxonId}, ${locale}, ${name}) ON CONFLICT DO NOTHING`,
+        );
       }
-      await tx.execute(sql`INSERT INTO event_species (event_id, taxon_id) VALUES (${eventId}, ${taxonId}) ON CONFLICT DO NOTHING`);
+      await tx.execute(
+        sql`INSERT INTO event_species (event_id, taxon_id) VALUES (${eventId}, ${taxonId}) ON CONFLICT DO NOTHING`,
+      );
     }
     return { problems, notices, summary, saved: true };
   });
@@ -119,7 +174,14 @@ export async function importSpecies(eventId: string, rows: SpeciesRow[], save: b
 
 /** The event's species list with names in every language, for the setup page. */
 export async function listEventSpecies(eventId: string) {
-  const { rows } = await getDb().execute<{ id: string; scientificName: string; rank: string; taxonGroup: string; sensitivity: string; names: Record<string, string> | null }>(sql`
+  const { rows } = await getDb().execute<{
+    id: string;
+    scientificName: string;
+    rank: string;
+    taxonGroup: string;
+    sensitivity: string;
+    names: Record<string, string> | null;
+  }>(sql`
     SELECT t.id, t.scientific_name AS "scientificName", t.rank, t.taxon_group AS "taxonGroup", t.sensitivity,
            (SELECT jsonb_object_agg(n.locale, n.name) FROM taxon_names n WHERE n.taxon_id = t.id) AS names
     FROM event_species es JOIN taxa t ON t.id = es.taxon_id

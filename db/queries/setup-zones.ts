@@ -1,6 +1,7 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import type { AreaInput, GeoProblem, Geometry, ZoneInput } from "@/lib/geo/geojson";
+import type { ArealGeometry as Geometry } from "@/lib/geo/areal";
+import type { AreaInput, GeoProblem, ZoneInput } from "@/lib/geo/geojson";
 import { getDb } from "../client";
 import { sessionZonesSql } from "./results";
 
@@ -20,7 +21,9 @@ async function loadInput(tx: Tx, area: AreaInput, zones: ZoneInput[]) {
     { feature: area.feature, kind: "area", name: "", geometry: area.geometry },
     ...zones.map((z) => ({ feature: z.feature, kind: "zone", name: z.name, geometry: z.geometry })),
   ];
-  await tx.execute(sql`CREATE TEMP TABLE upload_geom (feature int, kind text, name text, geom geometry) ON COMMIT DROP`);
+  await tx.execute(
+    sql`CREATE TEMP TABLE upload_geom (feature int, kind text, name text, geom geometry) ON COMMIT DROP`,
+  );
   await tx.execute(sql`
     INSERT INTO upload_geom
     SELECT (x->>'feature')::int, x->>'kind', x->>'name', ST_SetSRID(ST_Force2D(ST_GeomFromGeoJSON(x->>'geometry')), 4326)
@@ -41,7 +44,13 @@ async function checks(tx: Tx, eventId: string, area: AreaInput, zones: ZoneInput
   }
   const { rows: invalid } = await tx.execute<{ feature: number; reason: string }>(sql`
     SELECT feature, ST_IsValidReason(geom) AS reason FROM upload_geom WHERE NOT ST_IsValid(geom) ORDER BY feature`);
-  for (const r of invalid) problems.push({ feature: r.feature, name: nameOf.get(r.feature), code: "invalidGeometry", values: { reason: r.reason } });
+  for (const r of invalid)
+    problems.push({
+      feature: r.feature,
+      name: nameOf.get(r.feature),
+      code: "invalidGeometry",
+      values: { reason: r.reason },
+    });
   if (invalid.length) return problems; // Within and overlap are meaningless on invalid shapes.
 
   const { rows: outside } = await tx.execute<{ feature: number; outside_m2: number }>(sql`
@@ -49,20 +58,34 @@ async function checks(tx: Tx, eventId: string, area: AreaInput, zones: ZoneInput
     FROM upload_geom z, upload_geom a
     WHERE z.kind = 'zone' AND a.kind = 'area' AND NOT ST_Within(z.geom, a.geom)
     ORDER BY z.feature`);
-  for (const r of outside) problems.push({ feature: r.feature, name: nameOf.get(r.feature), code: "outsideArea", values: { squareMetres: r.outside_m2 } });
+  for (const r of outside)
+    problems.push({
+      feature: r.feature,
+      name: nameOf.get(r.feature),
+      code: "outsideArea",
+      values: { squareMetres: r.outside_m2 },
+    });
 
   const { rows: overlaps } = await tx.execute<{ a: number; b: number }>(sql`
     SELECT x.feature AS a, y.feature AS b FROM upload_geom x JOIN upload_geom y
       ON x.kind = 'zone' AND y.kind = 'zone' AND x.feature < y.feature AND x.geom && y.geom AND ST_Relate(x.geom, y.geom, '2********')
     ORDER BY 1, 2`);
-  for (const r of overlaps) problems.push({ feature: r.b, name: nameOf.get(r.b), code: "overlapsZone", values: { other: nameOf.get(r.a) ?? String(r.a + 1) } });
+  for (const r of overlaps)
+    problems.push({
+      feature: r.b,
+      name: nameOf.get(r.b),
+      code: "overlapsZone",
+      values: { other: nameOf.get(r.a) ?? String(r.a + 1) },
+    });
 
   const { rows: dropped } = await tx.execute<{ name: string; records: number }>(sql`
     SELECT z.name, ((SELECT count(*) FROM sightings s WHERE s.zone_id = z.id) + (SELECT count(*) FROM count_sessions c WHERE c.zone_id = z.id))::int AS records
     FROM zones z
     WHERE z.event_id = ${eventId} AND NOT EXISTS (SELECT 1 FROM upload_geom u WHERE u.kind = 'zone' AND lower(u.name) = lower(z.name))
     ORDER BY z.name`);
-  for (const r of dropped) if (r.records > 0) problems.push({ feature: null, name: r.name, code: "zoneHasRecords", values: { records: r.records } });
+  for (const r of dropped)
+    if (r.records > 0)
+      problems.push({ feature: null, name: r.name, code: "zoneHasRecords", values: { records: r.records } });
   return problems;
 }
 
@@ -97,7 +120,12 @@ export async function reassignZones(tx: Tx, eventId: string): Promise<{ sighting
   return { sightings: moved.rowCount ?? 0, sessions: sessions.rowCount ?? 0 };
 }
 
-export async function uploadAreaAndZones(eventId: string, area: AreaInput, zones: ZoneInput[], save: boolean): Promise<ZonesUploadResult> {
+export async function uploadAreaAndZones(
+  eventId: string,
+  area: AreaInput,
+  zones: ZoneInput[],
+  save: boolean,
+): Promise<ZonesUploadResult> {
   return getDb().transaction(async (tx) => {
     await tx.execute(sql`SELECT id FROM events WHERE id = ${eventId} FOR UPDATE`);
     const problems = await checks(tx, eventId, area, zones);
@@ -113,29 +141,48 @@ export async function uploadAreaAndZones(eventId: string, area: AreaInput, zones
     };
     if (!save || problems.length) return { problems, saved: false, summary };
 
-    await tx.execute(sql`UPDATE events SET area = (SELECT geom FROM upload_geom WHERE kind = 'area') WHERE id = ${eventId}`);
+    await tx.execute(
+      sql`UPDATE events SET area = (SELECT geom FROM upload_geom WHERE kind = 'area') WHERE id = ${eventId}`,
+    );
     for (const z of zones) {
       const existing = byName.get(z.name.toLowerCase());
       const geom = sql`(SELECT geom FROM upload_geom WHERE feature = ${z.feature})`;
       if (existing) {
-        await tx.execute(sql`UPDATE zones SET name = ${z.name}, habitat = ${z.habitat}, description = ${z.description}, geom = ${geom} WHERE id = ${existing.id}`);
+        await tx.execute(
+          sql`UPDATE zones SET name = ${z.name}, habitat = ${z.habitat}, description = ${z.description}, geom = ${geom} WHERE id = ${existing.id}`,
+        );
       } else {
-        await tx.execute(sql`INSERT INTO zones (event_id, name, habitat, description, geom) VALUES (${eventId}, ${z.name}, ${z.habitat}, ${z.description}, ${geom})`);
+        await tx.execute(
+          sql`INSERT INTO zones (event_id, name, habitat, description, geom) VALUES (${eventId}, ${z.name}, ${z.habitat}, ${z.description}, ${geom})`,
+        );
       }
     }
     // Only zones without records get here (checked above, inside this transaction).
-    for (const z of current) if (!incoming.has(z.name.toLowerCase())) await tx.execute(sql`DELETE FROM zones WHERE id = ${z.id}`);
+    for (const z of current)
+      if (!incoming.has(z.name.toLowerCase())) await tx.execute(sql`DELETE FROM zones WHERE id = ${z.id}`);
     const moved = await reassignZones(tx, eventId);
     return { problems, saved: true, summary, moved };
   });
 }
 
-export type StoredZone = { id: string; name: string; habitat: string; description: string; areaHa: number; records: number; geometry: Geometry };
+export type StoredZone = {
+  id: string;
+  name: string;
+  habitat: string;
+  description: string;
+  areaHa: number;
+  records: number;
+  geometry: Geometry;
+};
 
 /** The event's area and zones as GeoJSON geometries, for the preview and the setup page. */
 export async function areaAndZones(eventId: string): Promise<{ area: Geometry | null; zones: StoredZone[] }> {
   const db = getDb();
-  const { rows: [event] } = await db.execute<{ area: Geometry | null }>(sql`SELECT ST_AsGeoJSON(area, 7)::json AS area FROM events WHERE id = ${eventId}`);
+  const {
+    rows: [event],
+  } = await db.execute<{ area: Geometry | null }>(
+    sql`SELECT ST_AsGeoJSON(area, 7)::json AS area FROM events WHERE id = ${eventId}`,
+  );
   const { rows } = await db.execute<StoredZone>(sql`
     SELECT z.id, z.name, z.habitat, z.description, ST_AsGeoJSON(z.geom, 7)::json AS geometry,
            round((ST_Area(z.geom::geography) / 10000)::numeric, 1)::float8 AS "areaHa",

@@ -1,141 +1,171 @@
 import "server-only";
 import { and, eq, inArray, sql } from "drizzle-orm";
-import type { z } from "zod";
-import {
-  sessionRecord, sightingRecord, type SessionRecord, type SightingRecord, type SyncAck,
-} from "@/lib/sync/records";
-import { zodFieldProblems } from "@/lib/http/errors";
-import { translator } from "@/lib/i18n/translator";
-import type { Locale } from "@/lib/i18n/routing";
+import type { RecordOutcome, RecordRef, RefusalCode } from "@/lib/sync/acks";
+import type { ReviewState, SessionRecord, SightingRecord } from "@/lib/sync/records";
 import { getDb, type Db } from "../client";
 import { countSessions, events, reviews, sightings, taxa, zones } from "../schema";
-import { eventAccess } from "./auth";
 import { refreshCheckMarks } from "./check-marks";
 
-// The server half of the field log's sync (issue 5): each record of a batch is parsed and
-// judged on its own, the good ones are stored in one transaction, and every record gets
-// its own acknowledgement (created / already_had / updated / refused + translated reason).
+// The server half of the field log's sync (issue 5), below the handler: records already
+// parsed with the contract's schemas (lib/sync/records.ts) are judged each on its own, the
+// good ones are stored in one transaction, and every record gets its own outcome
+// (created / already_had / updated, or refused with a code and the field at fault). Codes
+// only: the handler (server/sync/answer.ts) turns them into text in the person's language.
 // Ids are made on the device, so a resent batch changes nothing and answers already_had.
+//
+// The caller has already checked that the person may record at the event (a member,
+// volunteer or above): membership is not checked again here.
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
-type ReviewState = "pending" | "approved" | "rejected" | "returned";
-type Reason =
-  | "event_not_open" | "not_member" | "unknown_taxon" | "unknown_zone" | "kind_not_allowed"
-  | "ends_before_start" | "complete_needs_end" | "unknown_session" | "description_required"
-  | "future_time" | "id_taken" | "changed_after_send" | "not_returned" | "stale_version" | "store_failed";
+
+/** A parsed record and its position in its array of the batch. */
+export type Indexed<R> = { index: number; record: R };
+export type StoreOutcome = RecordRef & RecordOutcome;
 
 export type IngestInput = {
-  userId: string;
-  isAdmin: boolean;
+  userId: string; // a member of the event (checked by the caller)
   eventId: string;
-  locale: Locale;
-  sessions: unknown[];
-  sightings: unknown[];
+  sessions: Indexed<SessionRecord>[];
+  sightings: Indexed<SightingRecord>[];
   now?: Date;
 };
 
 // A device clock a little ahead of the server's is normal; a time far ahead is a mistake.
 // 10 minutes is common practice for clock skew, not a published figure.
 const FUTURE_SKEW_MS = 10 * 60_000;
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 // `real` columns hold single-precision floats: compare at that precision.
-const sameReal = (a: number | null, b: number | null) => (a === null || b === null ? a === b : Math.fround(a) === Math.fround(b));
-const sameTime = (a: Date | null, iso: string | null) => (a === null || iso === null ? a === null && iso === null : a.getTime() === Date.parse(iso));
+const sameReal = (a: number | null, b: number | null) =>
+  a === null || b === null ? a === b : Math.fround(a) === Math.fround(b);
+const sameTime = (a: Date | null, iso: string | null) =>
+  a === null || iso === null ? a === null && iso === null : a.getTime() === Date.parse(iso);
+const lower = (id: string | null) => id?.toLowerCase() ?? null;
 
-function readableId(raw: unknown): string | null {
-  const id = (raw as { id?: unknown } | null)?.id;
-  return typeof id === "string" && UUID.test(id) ? id.toLowerCase() : null;
-}
+type Good<R> = { index: number; rec: R };
+type Kind = StoreOutcome["kind"];
+const refused = (
+  kind: Kind,
+  index: number,
+  id: string,
+  code: RefusalCode,
+  field: string,
+  values?: Record<string, string | number>,
+): StoreOutcome => ({ kind, id, index, outcome: "refused", code, field, ...(values ? { values } : {}) });
 
-export async function ingestBatch(input: IngestInput): Promise<SyncAck[]> {
-  const t = translator(input.locale, "FieldSync");
+export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
   const now = input.now ?? new Date();
-  const acks: SyncAck[] = [];
-  const refuse = (kind: SyncAck["kind"], index: number, id: string | null, reason: Reason, field: string, values: Record<string, string | number> = {}): SyncAck =>
-    ({ kind, id, index, outcome: "refused", reason: t(`reason.${reason}`, values), field });
-  const refuseZod = (kind: SyncAck["kind"], index: number, raw: unknown, error: z.ZodError): SyncAck => {
-    const [problem] = zodFieldProblems(error, input.locale);
-    return { kind, id: readableId(raw), index, outcome: "refused", reason: problem?.message ?? t("reason.store_failed"), field: problem?.field ?? "(record)" };
-  };
+  // Ids compare as text below: one spelling for every uuid.
+  const sessionsIn = input.sessions.map(({ index, record: r }) => ({
+    index,
+    rec: { ...r, id: r.id.toLowerCase(), zoneId: lower(r.zoneId) },
+  }));
+  const sightingsIn = input.sightings.map(({ index, record: r }) => ({
+    index,
+    rec: {
+      ...r,
+      id: r.id.toLowerCase(),
+      sessionId: lower(r.sessionId),
+      taxonId: lower(r.taxonId),
+      zoneId: lower(r.zoneId),
+    },
+  }));
 
   const db = getDb();
-  const [event] = await db.select({ status: events.status, sessionKinds: events.sessionKinds }).from(events).where(eq(events.id, input.eventId)).limit(1);
-  const access = event ? await eventAccess(input.userId, input.eventId) : null;
-  const member = Boolean(input.isAdmin || access?.role || access?.isOrganisationOrganiser);
-  if (!event || !member || event.status !== "open") {
-    const reason: Reason = !event || !member ? "not_member" : "event_not_open";
-    input.sessions.forEach((raw, i) => acks.push(refuse("session", i, readableId(raw), reason, "eventId")));
-    input.sightings.forEach((raw, i) => acks.push(refuse("sighting", i, readableId(raw), reason, "eventId")));
-    return acks;
+  const [event] = await db
+    .select({ status: events.status, sessionKinds: events.sessionKinds })
+    .from(events)
+    .where(eq(events.id, input.eventId))
+    .limit(1);
+  if (!event || event.status !== "open") {
+    return [
+      ...sessionsIn.map(({ index, rec }) => refused("session", index, rec.id, "event_not_open", "eventId")),
+      ...sightingsIn.map(({ index, rec }) => refused("sighting", index, rec.id, "event_not_open", "eventId")),
+    ];
   }
 
-  // ---- parse and judge each record alone (no database writes yet)
-  const eventZones = new Set((await db.select({ id: zones.id }).from(zones).where(eq(zones.eventId, input.eventId))).map((z) => z.id));
-  const sessionAcks: SyncAck[] = [];
-  const goodSessions: { index: number; rec: SessionRecord }[] = [];
-  input.sessions.forEach((raw, index) => {
-    const parsed = sessionRecord.safeParse(raw);
-    if (!parsed.success) return void sessionAcks.push(refuseZod("session", index, raw, parsed.error));
-    const rec = { ...parsed.data, id: parsed.data.id.toLowerCase() };
+  // ---- judge each record alone (no database writes yet)
+  const eventZones = new Set(
+    (await db.select({ id: zones.id }).from(zones).where(eq(zones.eventId, input.eventId))).map((z) => z.id),
+  );
+  const sessionOutcomes: StoreOutcome[] = [];
+  const goodSessions = sessionsIn.filter(({ index, rec }) => {
     const bad = judgeSession(rec, event.sessionKinds, eventZones);
-    if (bad) return void sessionAcks.push(refuse("session", index, rec.id, bad[0], bad[1]));
-    goodSessions.push({ index, rec });
+    if (bad) sessionOutcomes.push(refused("session", index, rec.id, bad[0], bad[1]));
+    return !bad;
   });
 
-  const sightingAcks: SyncAck[] = [];
-  const parsedSightings: { index: number; rec: SightingRecord }[] = [];
-  input.sightings.forEach((raw, index) => {
-    const parsed = sightingRecord.safeParse(raw);
-    if (!parsed.success) return void sightingAcks.push(refuseZod("sighting", index, raw, parsed.error));
-    const rec = { ...parsed.data, id: parsed.data.id.toLowerCase() };
-    if (rec.taxonId === null && rec.description.trim() === "") return void sightingAcks.push(refuse("sighting", index, rec.id, "description_required", "description"));
-    if (Date.parse(rec.observedAt) > now.getTime() + FUTURE_SKEW_MS) return void sightingAcks.push(refuse("sighting", index, rec.id, "future_time", "observedAt"));
-    parsedSightings.push({ index, rec });
-  });
-  const taxonIds = [...new Set(parsedSightings.map((s) => s.rec.taxonId).filter((x): x is string => x !== null))];
-  const knownTaxa = new Set(taxonIds.length ? (await db.select({ id: taxa.id }).from(taxa).where(inArray(taxa.id, taxonIds))).map((r) => r.id) : []);
-  const goodSightings = parsedSightings.filter(({ index, rec }) => {
-    if (rec.taxonId === null || knownTaxa.has(rec.taxonId)) return true;
-    sightingAcks.push(refuse("sighting", index, rec.id, "unknown_taxon", "taxonId"));
-    return false;
+  const sightingOutcomes: StoreOutcome[] = [];
+  const taxonIds = [...new Set(sightingsIn.map((s) => s.rec.taxonId).filter((x): x is string => x !== null))];
+  const knownTaxa = new Set(
+    taxonIds.length
+      ? (await db.select({ id: taxa.id }).from(taxa).where(inArray(taxa.id, taxonIds))).map((r) => r.id)
+      : [],
+  );
+  const goodSightings = sightingsIn.filter(({ index, rec }) => {
+    const bad = judgeSighting(rec, knownTaxa, now);
+    if (bad) sightingOutcomes.push(refused("sighting", index, rec.id, bad[0], bad[1]));
+    return !bad;
   });
 
   // ---- store: one transaction for the batch, sessions before sightings
   await db.transaction(async (tx) => {
-    sessionAcks.push(...(await storeSessions(tx, input, goodSessions, refuse)));
+    sessionOutcomes.push(...(await storeSessions(tx, input, goodSessions)));
     // The session a sighting names must be the same person's, at the same event (maybe sent just above).
-    const named = [...new Set(goodSightings.map((s) => s.rec.sessionId).filter((x): x is string => x !== null).map((x) => x.toLowerCase()))];
-    const ownSessions = new Set(named.length ? (await tx.select({ id: countSessions.id }).from(countSessions)
-      .where(and(inArray(countSessions.id, named), eq(countSessions.userId, input.userId), eq(countSessions.eventId, input.eventId)))).map((r) => r.id) : []);
+    const named = [...new Set(goodSightings.map((s) => s.rec.sessionId).filter((x): x is string => x !== null))];
+    const ownSessions = new Set(
+      named.length
+        ? (
+            await tx
+              .select({ id: countSessions.id })
+              .from(countSessions)
+              .where(
+                and(
+                  inArray(countSessions.id, named),
+                  eq(countSessions.userId, input.userId),
+                  eq(countSessions.eventId, input.eventId),
+                ),
+              )
+          ).map((r) => r.id)
+        : [],
+    );
     const storable = goodSightings.filter(({ index, rec }) => {
-      if (rec.sessionId === null || ownSessions.has(rec.sessionId.toLowerCase())) return true;
-      sightingAcks.push(refuse("sighting", index, rec.id, "unknown_session", "sessionId"));
+      if (rec.sessionId === null || ownSessions.has(rec.sessionId)) return true;
+      sightingOutcomes.push(refused("sighting", index, rec.id, "unknown_session", "sessionId"));
       return false;
     });
-    sightingAcks.push(...(await storeSightings(tx, input, storable, refuse)));
+    sightingOutcomes.push(...(await storeSightings(tx, input, storable)));
   });
 
-  const byIndex = (a: SyncAck, b: SyncAck) => a.index - b.index;
-  return [...sessionAcks.sort(byIndex), ...sightingAcks.sort(byIndex)];
+  const byIndex = (a: StoreOutcome, b: StoreOutcome) => a.index - b.index;
+  return [...sessionOutcomes.sort(byIndex), ...sightingOutcomes.sort(byIndex)];
 }
 
-function judgeSession(rec: SessionRecord, kinds: string[], eventZones: Set<string>): [Reason, string] | null {
+function judgeSession(rec: SessionRecord, kinds: string[], eventZones: Set<string>): [RefusalCode, string] | null {
   if (!kinds.includes(rec.kind)) return ["kind_not_allowed", "kind"];
-  if (rec.zoneId !== null && !eventZones.has(rec.zoneId.toLowerCase())) return ["unknown_zone", "zoneId"];
-  if (rec.endedAt !== null && Date.parse(rec.endedAt) <= Date.parse(rec.startedAt)) return ["ends_before_start", "endedAt"];
+  if (rec.zoneId !== null && !eventZones.has(rec.zoneId)) return ["unknown_zone", "zoneId"];
+  if (rec.endedAt !== null && Date.parse(rec.endedAt) <= Date.parse(rec.startedAt))
+    return ["ends_before_start", "endedAt"];
   if (rec.allSpeciesNoted && rec.endedAt === null) return ["complete_needs_end", "allSpeciesNoted"];
   return null;
 }
 
-type Refuse = (kind: SyncAck["kind"], index: number, id: string | null, reason: Reason, field: string, values?: Record<string, string | number>) => SyncAck;
+function judgeSighting(rec: SightingRecord, knownTaxa: Set<string>, now: Date): [RefusalCode, string] | null {
+  if (rec.taxonId === null && rec.description.trim() === "") return ["description_required", "description"];
+  if (Date.parse(rec.observedAt) > now.getTime() + FUTURE_SKEW_MS) return ["future_time", "observedAt"];
+  if (rec.taxonId !== null && !knownTaxa.has(rec.taxonId)) return ["unknown_taxon", "taxonId"];
+  return null;
+}
 
 /**
  * Inserts many rows in one statement inside a savepoint; if PostgreSQL refuses the
  * statement, falls back to one savepoint per row so that one bad row refuses only itself.
  * Returns the ids actually inserted and the indexes of rows that failed.
  */
-async function insertEach<R extends { id: string }>(tx: Tx, rows: R[], insert: (tx: Tx, rows: R[]) => Promise<string[]>): Promise<{ inserted: Set<string>; failed: Set<string> }> {
+async function insertEach<R extends { id: string }>(
+  tx: Tx,
+  rows: R[],
+  insert: (tx: Tx, rows: R[]) => Promise<string[]>,
+): Promise<{ inserted: Set<string>; failed: Set<string> }> {
   const inserted = new Set<string>();
   const failed = new Set<string>();
   if (!rows.length) return { inserted, failed };
@@ -154,26 +184,77 @@ async function insertEach<R extends { id: string }>(tx: Tx, rows: R[], insert: (
   return { inserted, failed };
 }
 
-async function storeSessions(tx: Tx, input: IngestInput, good: { index: number; rec: SessionRecord }[], refuse: Refuse): Promise<SyncAck[]> {
-  const acks: SyncAck[] = [];
+async function storeSessions(tx: Tx, input: IngestInput, good: Good<SessionRecord>[]): Promise<StoreOutcome[]> {
+  const acks: StoreOutcome[] = [];
   const toRow = (r: SessionRecord) => ({
-    id: r.id, eventId: input.eventId, userId: input.userId, zoneId: r.zoneId?.toLowerCase() ?? null, kind: r.kind,
-    startedAt: new Date(r.startedAt), endedAt: r.endedAt ? new Date(r.endedAt) : null,
-    allSpeciesNoted: r.allSpeciesNoted, distanceM: r.distanceM, notes: r.notes,
+    id: r.id,
+    eventId: input.eventId,
+    userId: input.userId,
+    zoneId: r.zoneId,
+    kind: r.kind,
+    startedAt: new Date(r.startedAt),
+    endedAt: r.endedAt ? new Date(r.endedAt) : null,
+    allSpeciesNoted: r.allSpeciesNoted,
+    distanceM: r.distanceM,
+    notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(tx, good.map((g) => g.rec), async (sp, rows) =>
-    (await sp.insert(countSessions).values(rows.map(toRow)).onConflictDoNothing({ target: countSessions.id }).returning({ id: countSessions.id })).map((r) => r.id));
+  const { inserted, failed } = await insertEach(
+    tx,
+    good.map((g) => g.rec),
+    async (sp, rows) =>
+      (
+        await sp
+          .insert(countSessions)
+          .values(rows.map(toRow))
+          .onConflictDoNothing({ target: countSessions.id })
+          .returning({ id: countSessions.id })
+      ).map((r) => r.id),
+  );
   const rest = good.filter((g) => !inserted.has(g.rec.id) && !failed.has(g.rec.id));
-  const existing = new Map((rest.length ? await tx.select().from(countSessions).where(inArray(countSessions.id, rest.map((g) => g.rec.id))).for("update") : []).map((r) => [r.id, r]));
+  const existing = new Map(
+    (rest.length
+      ? await tx
+          .select()
+          .from(countSessions)
+          .where(
+            inArray(
+              countSessions.id,
+              rest.map((g) => g.rec.id),
+            ),
+          )
+          .for("update")
+      : []
+    ).map((r) => [r.id, r]),
+  );
   const claimed = new Set<string>();
   for (const { index, rec } of good) {
-    if (failed.has(rec.id)) { acks.push(refuse("session", index, rec.id, "store_failed", "(record)")); continue; }
-    if (inserted.has(rec.id) && !claimed.has(rec.id)) { claimed.add(rec.id); acks.push({ kind: "session", id: rec.id, index, outcome: "created" }); continue; }
-    const row = existing.get(rec.id) ?? (await tx.select().from(countSessions).where(eq(countSessions.id, rec.id)).limit(1))[0];
-    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) { acks.push(refuse("session", index, rec.id, "id_taken", "id")); continue; }
-    const same = row.kind === rec.kind && row.zoneId === (rec.zoneId?.toLowerCase() ?? null) && sameTime(row.startedAt, rec.startedAt)
-      && sameTime(row.endedAt, rec.endedAt) && row.allSpeciesNoted === rec.allSpeciesNoted && sameReal(row.distanceM, rec.distanceM) && row.notes === rec.notes;
-    if (same) { acks.push({ kind: "session", id: rec.id, index, outcome: "already_had" }); continue; }
+    if (failed.has(rec.id)) {
+      acks.push(refused("session", index, rec.id, "store_failed", "(record)"));
+      continue;
+    }
+    if (inserted.has(rec.id) && !claimed.has(rec.id)) {
+      claimed.add(rec.id);
+      acks.push({ kind: "session", id: rec.id, index, outcome: "created" });
+      continue;
+    }
+    const row =
+      existing.get(rec.id) ?? (await tx.select().from(countSessions).where(eq(countSessions.id, rec.id)).limit(1))[0];
+    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) {
+      acks.push(refused("session", index, rec.id, "id_taken", "id"));
+      continue;
+    }
+    const same =
+      row.kind === rec.kind &&
+      row.zoneId === rec.zoneId &&
+      sameTime(row.startedAt, rec.startedAt) &&
+      sameTime(row.endedAt, rec.endedAt) &&
+      row.allSpeciesNoted === rec.allSpeciesNoted &&
+      sameReal(row.distanceM, rec.distanceM) &&
+      row.notes === rec.notes;
+    if (same) {
+      acks.push({ kind: "session", id: rec.id, index, outcome: "already_had" });
+      continue;
+    }
     // A session is sent when it starts and again when it ends: its owner may update it.
     const { id: _id, eventId: _e, userId: _u, ...changes } = toRow(rec);
     try {
@@ -181,14 +262,14 @@ async function storeSessions(tx: Tx, input: IngestInput, good: { index: number; 
       acks.push({ kind: "session", id: rec.id, index, outcome: "updated" });
     } catch (err) {
       console.error("[sync] session not updated", rec.id, (err as Error).message);
-      acks.push(refuse("session", index, rec.id, "store_failed", "(record)"));
+      acks.push(refused("session", index, rec.id, "store_failed", "(record)"));
     }
   }
   return acks;
 }
 
-async function storeSightings(tx: Tx, input: IngestInput, good: { index: number; rec: SightingRecord }[], refuse: Refuse): Promise<SyncAck[]> {
-  const acks: SyncAck[] = [];
+async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRecord>[]): Promise<StoreOutcome[]> {
+  const acks: StoreOutcome[] = [];
   if (!good.length) return acks;
   // The zone is decided here with PostGIS, whatever the device guessed: the smallest zone
   // that covers the point (ST_Covers counts a point on the boundary as inside).
@@ -204,57 +285,129 @@ async function storeSightings(tx: Tx, input: IngestInput, good: { index: number;
   for (const r of zoneRows.rows) zoneOf.set(good[Number(r.i) - 1]!.rec.id, r.zone_id);
 
   const fields = (r: SightingRecord) => ({
-    sessionId: r.sessionId?.toLowerCase() ?? null, taxonId: r.taxonId?.toLowerCase() ?? null, description: r.description,
-    count: r.count, countIsEstimate: r.countIsEstimate, observedAt: new Date(r.observedAt),
-    location: sql`ST_SetSRID(ST_MakePoint(${r.longitude}, ${r.latitude}), 4326)` as unknown as string,
-    accuracyM: r.accuracyM, zoneId: zoneOf.get(r.id) ?? null, notes: r.notes,
+    sessionId: r.sessionId,
+    taxonId: r.taxonId,
+    description: r.description,
+    count: r.count,
+    countIsEstimate: r.countIsEstimate,
+    observedAt: new Date(r.observedAt),
+    location: { longitude: r.longitude, latitude: r.latitude },
+    accuracyM: r.accuracyM,
+    zoneId: zoneOf.get(r.id) ?? null,
+    notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(tx, good.map((g) => g.rec), async (sp, rows) =>
-    (await sp.insert(sightings).values(rows.map((r) => ({ id: r.id, eventId: input.eventId, userId: input.userId, ...fields(r) })))
-      .onConflictDoNothing({ target: sightings.id }).returning({ id: sightings.id })).map((r) => r.id));
+  const { inserted, failed } = await insertEach(
+    tx,
+    good.map((g) => g.rec),
+    async (sp, rows) =>
+      (
+        await sp
+          .insert(sightings)
+          .values(rows.map((r) => ({ id: r.id, eventId: input.eventId, userId: input.userId, ...fields(r) })))
+          .onConflictDoNothing({ target: sightings.id })
+          .returning({ id: sightings.id })
+      ).map((r) => r.id),
+  );
 
   const rest = good.filter((g) => !inserted.has(g.rec.id) && !failed.has(g.rec.id)).map((g) => g.rec.id);
-  const readExisting = (ids: string[]) => tx.select({
-    id: sightings.id, userId: sightings.userId, eventId: sightings.eventId, sessionId: sightings.sessionId, taxonId: sightings.taxonId,
-    description: sightings.description, count: sightings.count, countIsEstimate: sightings.countIsEstimate, observedAt: sightings.observedAt,
-    longitude: sql<number>`ST_X(${sightings.location})`, latitude: sql<number>`ST_Y(${sightings.location})`,
-    accuracyM: sightings.accuracyM, notes: sightings.notes, reviewState: sightings.reviewState, version: sightings.version,
-  }).from(sightings).where(inArray(sightings.id, ids)).for("update");
+  const readExisting = (ids: string[]) =>
+    tx
+      .select({
+        id: sightings.id,
+        userId: sightings.userId,
+        eventId: sightings.eventId,
+        sessionId: sightings.sessionId,
+        taxonId: sightings.taxonId,
+        description: sightings.description,
+        count: sightings.count,
+        countIsEstimate: sightings.countIsEstimate,
+        observedAt: sightings.observedAt,
+        longitude: sql<number>`ST_X(${sightings.location})`,
+        latitude: sql<number>`ST_Y(${sightings.location})`,
+        accuracyM: sightings.accuracyM,
+        notes: sightings.notes,
+        reviewState: sightings.reviewState,
+        version: sightings.version,
+      })
+      .from(sightings)
+      .where(inArray(sightings.id, ids))
+      .for("update");
   const existing = new Map((rest.length ? await readExisting(rest) : []).map((r) => [r.id, r]));
   const claimed = new Set<string>();
   const touched: string[] = [];
   for (const { index, rec } of good) {
-    if (failed.has(rec.id)) { acks.push(refuse("sighting", index, rec.id, "store_failed", "(record)")); continue; }
+    if (failed.has(rec.id)) {
+      acks.push(refused("sighting", index, rec.id, "store_failed", "(record)"));
+      continue;
+    }
     if (inserted.has(rec.id) && !claimed.has(rec.id)) {
-      claimed.add(rec.id); touched.push(rec.id);
+      claimed.add(rec.id);
+      touched.push(rec.id);
       acks.push({ kind: "sighting", id: rec.id, index, outcome: "created", reviewState: "pending" });
       continue;
     }
     const row = existing.get(rec.id) ?? (await readExisting([rec.id]))[0];
     // Never overwrite another person's record, nor move a record between events.
-    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) { acks.push(refuse("sighting", index, rec.id, "id_taken", "id")); continue; }
+    if (!row || row.userId !== input.userId || row.eventId !== input.eventId) {
+      acks.push(refused("sighting", index, rec.id, "id_taken", "id"));
+      continue;
+    }
     const f = fields(rec);
-    const same = row.sessionId === f.sessionId && row.taxonId === f.taxonId && row.description === f.description && row.count === f.count
-      && row.countIsEstimate === f.countIsEstimate && row.observedAt.getTime() === f.observedAt.getTime()
-      && Number(row.longitude) === rec.longitude && Number(row.latitude) === rec.latitude && sameReal(row.accuracyM, rec.accuracyM) && row.notes === f.notes;
-    if (same) { acks.push({ kind: "sighting", id: rec.id, index, outcome: "already_had", reviewState: row.reviewState as ReviewState }); continue; }
-    if (!rec.answer) { acks.push(refuse("sighting", index, rec.id, "changed_after_send", "id")); continue; }
-    if (row.reviewState !== "returned") { acks.push(refuse("sighting", index, rec.id, "not_returned", "answer")); continue; }
-    if (rec.answer.toVersion !== row.version) { acks.push(refuse("sighting", index, rec.id, "stale_version", "answer.toVersion", { version: row.version })); continue; }
+    const same =
+      row.sessionId === f.sessionId &&
+      row.taxonId === f.taxonId &&
+      row.description === f.description &&
+      row.count === f.count &&
+      row.countIsEstimate === f.countIsEstimate &&
+      row.observedAt.getTime() === f.observedAt.getTime() &&
+      Number(row.longitude) === rec.longitude &&
+      Number(row.latitude) === rec.latitude &&
+      sameReal(row.accuracyM, rec.accuracyM) &&
+      row.notes === f.notes;
+    if (same) {
+      acks.push({
+        kind: "sighting",
+        id: rec.id,
+        index,
+        outcome: "already_had",
+        reviewState: row.reviewState as ReviewState,
+      });
+      continue;
+    }
+    if (!rec.answer) {
+      acks.push(refused("sighting", index, rec.id, "changed_after_send", "id"));
+      continue;
+    }
+    if (row.reviewState !== "returned") {
+      acks.push(refused("sighting", index, rec.id, "not_returned", "answer"));
+      continue;
+    }
+    if (rec.answer.toVersion !== row.version) {
+      acks.push(refused("sighting", index, rec.id, "stale_version", "answer.toVersion", { version: row.version }));
+      continue;
+    }
     try {
       await tx.transaction(async (sp) => {
-        await sp.update(sightings).set({ ...f, reviewState: "pending", version: row.version + 1, updatedAt: new Date() }).where(eq(sightings.id, rec.id));
+        await sp
+          .update(sightings)
+          .set({ ...f, reviewState: "pending", version: row.version + 1, updatedAt: new Date() })
+          .where(eq(sightings.id, rec.id));
         const retaxon = row.taxonId !== f.taxonId;
         await sp.insert(reviews).values({
-          sightingId: rec.id, reviewerId: input.userId, fromState: "returned", toState: "pending",
-          fromTaxonId: retaxon ? row.taxonId : null, toTaxonId: retaxon ? f.taxonId : null, message: rec.answer!.message,
+          sightingId: rec.id,
+          reviewerId: input.userId,
+          fromState: "returned",
+          toState: "pending",
+          fromTaxonId: retaxon ? row.taxonId : null,
+          toTaxonId: retaxon ? f.taxonId : null,
+          message: rec.answer!.message,
         });
       });
       touched.push(rec.id);
       acks.push({ kind: "sighting", id: rec.id, index, outcome: "updated", reviewState: "pending" });
     } catch (err) {
       console.error("[sync] sighting not updated", rec.id, (err as Error).message);
-      acks.push(refuse("sighting", index, rec.id, "store_failed", "(record)"));
+      acks.push(refused("sighting", index, rec.id, "store_failed", "(record)"));
     }
   }
   // The reviewers' automatic hints, in the same transaction as the records themselves.

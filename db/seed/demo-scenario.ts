@@ -1,5 +1,6 @@
 // The demo scenario of design.md: invented people, places and records. Demo only.
 import type { SeedTaxon } from "./taxa";
+import { REJECT_REASONS, type EventRole, type Habitat, type TaxonGroup } from "@/lib/domain";
 
 export const DEMO_ORG = { slug: "friends-of-harrowmere-vale", name: "Friends of Harrowmere Vale" };
 
@@ -14,43 +15,101 @@ export const DEMO_EVENT = {
   startsAt: new Date("2026-06-20T05:00:00Z"),
   endsAt: new Date("2026-06-22T05:00:00Z"),
   languages: ["en", "es", "fr"],
+  status: "closed" as const,
+  joinCode: "HARROW-MIDSUMMER",
+  accuracyLimitM: 50,
 };
 
 type Ring = [number, number][];
-const rect = (w: number, s: number, e: number, n: number): Ring => [[w, s], [e, s], [e, n], [w, n], [w, s]];
+const rect = (w: number, s: number, e: number, n: number): Ring => [
+  [w, s],
+  [e, s],
+  [e, n],
+  [w, n],
+  [w, s],
+];
 
 // A fictional reserve; coordinates are [longitude, latitude] (GeoJSON order, WGS84).
 export const DEMO_AREA: Ring = [
-  [-1.8200, 52.1000], [-1.8040, 52.1000], [-1.8000, 52.1020], [-1.8000, 52.1100],
-  [-1.8100, 52.1102], [-1.8200, 52.1100], [-1.8200, 52.1000],
+  [-1.82, 52.1],
+  [-1.804, 52.1],
+  [-1.8, 52.102],
+  [-1.8, 52.11],
+  [-1.81, 52.1102],
+  [-1.82, 52.11],
+  [-1.82, 52.1],
 ];
 
 export type DemoZone = {
-  key: string; name: string; habitat: "interior" | "edge"; description: string;
-  ring: Ring; box: [number, number, number, number]; pools: SeedTaxon["habitat"][];
+  key: string;
+  name: string;
+  habitat: Extract<Habitat, "interior" | "edge">;
+  description: string;
+  ring: Ring;
+  box: [number, number, number, number];
+  pools: SeedTaxon["habitat"][];
 };
 
 // Edge zones draw from both neighbouring habitats, as edges do.
 export const DEMO_ZONES: DemoZone[] = [
-  { key: "meadow", name: "Harrowmere Meadow", habitat: "interior", description: "Grassland interior: unimproved hay meadow.",
-    box: [-1.8195, 52.1035, -1.8110, 52.1095], ring: rect(-1.8195, 52.1035, -1.8110, 52.1095), pools: ["grassland", "any"] },
-  { key: "alder", name: "Alder Fringe", habitat: "edge", description: "Woodland edge: alder and hazel where the meadow meets the wood.",
-    box: [-1.8110, 52.1035, -1.8085, 52.1095], ring: rect(-1.8110, 52.1035, -1.8085, 52.1095), pools: ["woodland", "grassland", "any"] },
-  { key: "beech", name: "Beechwood Heart", habitat: "interior", description: "Woodland interior: closed-canopy beech.",
-    box: [-1.8085, 52.1035, -1.8005, 52.1095], ring: rect(-1.8085, 52.1035, -1.8005, 52.1095), pools: ["woodland", "any"] },
-  { key: "millpond", name: "Millpond Margin", habitat: "edge", description: "Wetland edge: reedbed and wet grassland around the old millpond.",
-    box: [-1.8150, 52.1005, -1.8050, 52.1035], ring: rect(-1.8150, 52.1005, -1.8050, 52.1035), pools: ["wetland", "grassland", "any"] },
+  {
+    key: "meadow",
+    name: "Harrowmere Meadow",
+    habitat: "interior",
+    description: "Grassland interior: unimproved hay meadow.",
+    box: [-1.8195, 52.1035, -1.811, 52.1095],
+    ring: rect(-1.8195, 52.1035, -1.811, 52.1095),
+    pools: ["grassland", "any"],
+  },
+  {
+    key: "alder",
+    name: "Alder Fringe",
+    habitat: "edge",
+    description: "Woodland edge: alder and hazel where the meadow meets the wood.",
+    box: [-1.811, 52.1035, -1.8085, 52.1095],
+    ring: rect(-1.811, 52.1035, -1.8085, 52.1095),
+    pools: ["woodland", "grassland", "any"],
+  },
+  {
+    key: "beech",
+    name: "Beechwood Heart",
+    habitat: "interior",
+    description: "Woodland interior: closed-canopy beech.",
+    box: [-1.8085, 52.1035, -1.8005, 52.1095],
+    ring: rect(-1.8085, 52.1035, -1.8005, 52.1095),
+    pools: ["woodland", "any"],
+  },
+  {
+    key: "millpond",
+    name: "Millpond Margin",
+    habitat: "edge",
+    description: "Wetland edge: reedbed and wet grassland around the old millpond.",
+    box: [-1.815, 52.1005, -1.805, 52.1035],
+    ring: rect(-1.815, 52.1005, -1.805, 52.1035),
+    pools: ["wetland", "grassland", "any"],
+  },
 ];
 
 export type DemoPerson = {
-  key: string; name: string; email: string; locale: "en" | "es" | "fr";
-  role: "organiser" | "coordinator" | "volunteer"; groups?: ("birds")[];
+  key: string;
+  name: string;
+  email: string;
+  locale: "en" | "es" | "fr";
+  role: EventRole;
+  groups?: TaxonGroup[];
 };
 
 export const DEMO_PEOPLE: DemoPerson[] = [
   { key: "organiser", name: "Maren Oakley", email: "organiser@example.org", locale: "en", role: "organiser" },
   { key: "coord-all", name: "Tomás Ferreira", email: "coordinator@example.org", locale: "es", role: "coordinator" },
-  { key: "coord-birds", name: "Hélène Marchand", email: "birds@example.org", locale: "fr", role: "coordinator", groups: ["birds"] },
+  {
+    key: "coord-birds",
+    name: "Hélène Marchand",
+    email: "birds@example.org",
+    locale: "fr",
+    role: "coordinator",
+    groups: ["birds"],
+  },
   { key: "vol-1", name: "Priya Nandakumar", email: "volunteer1@example.org", locale: "en", role: "volunteer" },
   { key: "vol-2", name: "Owen Pritchard", email: "volunteer2@example.org", locale: "en", role: "volunteer" },
   { key: "vol-3", name: "Lucía Robles", email: "volunteer3@example.org", locale: "es", role: "volunteer" },
@@ -61,7 +120,7 @@ export const DEMO_PEOPLE: DemoPerson[] = [
 
 export const DEMO_PASSWORD = "harrowmere-demo";
 
-export const REJECT_REASONS = ["misidentified", "duplicate", "outside_event", "insufficient_evidence"] as const;
+export const SEED_REJECT_REASONS = REJECT_REASONS.filter((r) => r !== "other");
 export const RETURN_QUESTIONS = [
   "Could you add a photo of the underside of the leaves? It would separate this from a close relative.",
   "Was this a sighting or a call only? Please say in the notes.",
@@ -79,11 +138,32 @@ export const SECOND_EVENT = {
   startsAt: new Date("2026-11-28T08:00:00Z"),
   endsAt: new Date("2026-12-13T17:00:00Z"),
   languages: ["en", "es", "fr"],
+  status: "open" as const,
+  joinCode: "KESTREL-WINTER",
+  accuracyLimitM: 100,
 };
-export const SECOND_AREA: Ring = [[-2.1000, 53.3000], [-2.0900, 53.3000], [-2.0900, 53.3060], [-2.1000, 53.3060], [-2.1000, 53.3000]];
+export const SECOND_AREA: Ring = [
+  [-2.1, 53.3],
+  [-2.09, 53.3],
+  [-2.09, 53.306],
+  [-2.1, 53.306],
+  [-2.1, 53.3],
+];
 export const SECOND_ZONES = [
-  { key: "crest", name: "Heather Crest", habitat: "interior" as const, description: "Heath interior: open heather on the ridge.", ring: rect(-2.1000, 53.3030, -2.0900, 53.3060) },
-  { key: "gorse", name: "Gorse Margin", habitat: "edge" as const, description: "Heath edge: gorse scrub where the heath meets rough pasture.", ring: rect(-2.1000, 53.3000, -2.0900, 53.3030) },
+  {
+    key: "crest",
+    name: "Heather Crest",
+    habitat: "interior" as const,
+    description: "Heath interior: open heather on the ridge.",
+    ring: rect(-2.1, 53.303, -2.09, 53.306),
+  },
+  {
+    key: "gorse",
+    name: "Gorse Margin",
+    habitat: "edge" as const,
+    description: "Heath edge: gorse scrub where the heath meets rough pasture.",
+    ring: rect(-2.1, 53.3, -2.09, 53.303),
+  },
 ];
 export const SECOND_PEOPLE: DemoPerson[] = [
   { key: "moor-organiser", name: "Idris Bevan", email: "moor-organiser@example.org", locale: "en", role: "organiser" },
@@ -101,6 +181,7 @@ export const SETUP_EVENT = {
   startsAt: new Date("2027-10-16T08:00:00Z"),
   endsAt: new Date("2027-10-17T16:00:00Z"),
   languages: ["en", "es", "fr"],
+  status: "draft" as const,
   joinCode: "HARROW-AUTUMN",
   // Demo people (by key) who already hold a role there.
   members: [

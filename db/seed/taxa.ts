@@ -14,17 +14,8 @@
  * Accipiter gentilis is kept here as the widely used name.
  */
 
-export type TaxonGroup =
-  | "birds"
-  | "vascular_plants"
-  | "insects"
-  | "fungi"
-  | "mammals"
-  | "amphibians_reptiles"
-  | "molluscs"
-  | "other";
-export type TaxonRank = "species" | "subspecies" | "genus";
-export type Sensitivity = "open" | "generalised" | "restricted";
+import type { Sensitivity, TaxonGroup, TaxonRank } from "@/lib/domain";
+
 export type HabitatAffinity = "grassland" | "woodland" | "wetland" | "any";
 export type SeedTaxon = {
   scientificName: string;
@@ -58,7 +49,15 @@ export const SEED_TAXA: readonly SeedTaxon[] = [
   sp("birds", "Parus major", "Great tit", "Carbonero común", "Mésange charbonnière", "woodland", 5),
   sp("birds", "Cyanistes caeruleus", "Eurasian blue tit", "Herrerillo común", "Mésange bleue", "woodland", 5),
   sp("birds", "Sitta europaea", "Eurasian nuthatch", "Trepador azul", "Sittelle torchepot", "woodland", 3),
-  sp("birds", "Certhia brachydactyla", "Short-toed treecreeper", "Agateador europeo", "Grimpereau des jardins", "woodland", 2),
+  sp(
+    "birds",
+    "Certhia brachydactyla",
+    "Short-toed treecreeper",
+    "Agateador europeo",
+    "Grimpereau des jardins",
+    "woodland",
+    2,
+  ),
   sp("birds", "Troglodytes troglodytes", "Eurasian wren", "Chochín común", "Troglodyte mignon", "any", 4),
   sp("birds", "Prunella modularis", "Dunnock", "Acentor común", "Accenteur mouchet", "any", 3),
   sp("birds", "Sylvia atricapilla", "Eurasian blackcap", "Curruca capirotada", "Fauvette à tête noire", "woodland", 4),
@@ -88,29 +87,79 @@ export const SEED_TAXA: readonly SeedTaxon[] = [
   sp("birds", "Apus apus", "Common swift", "Vencejo común", "Martinet noir", "any", 3),
   sp("birds", "Buteo buteo", "Common buzzard", "Busardo ratonero", "Buse variable", "grassland", 3),
   sp("birds", "Falco tinnunculus", "Common kestrel", "Cernícalo vulgar", "Faucon crécerelle", "grassland", 2),
-  sp("birds", "Accipiter gentilis", "Northern goshawk", "Azor común", "Autour des palombes", "woodland", 1, "restricted"),
+  sp(
+    "birds",
+    "Accipiter gentilis",
+    "Northern goshawk",
+    "Azor común",
+    "Autour des palombes",
+    "woodland",
+    1,
+    "restricted",
+  ),
   sp("birds", "Ardea cinerea", "Grey heron", "Garza real", "Héron cendré", "wetland", 3),
   sp("birds", "Anas platyrhynchos", "Mallard", "Ánade azulón", "Canard colvert", "wetland", 4),
   sp("birds", "Gallinula chloropus", "Common moorhen", "Gallineta común", "Gallinule poule-d'eau", "wetland", 3),
   sp("birds", "Fulica atra", "Eurasian coot", "Focha común", "Foulque macroule", "wetland", 3),
   sp("birds", "Alcedo atthis", "Common kingfisher", "Martín pescador común", "Martin-pêcheur d'Europe", "wetland", 2),
   sp("birds", "Cygnus olor", "Mute swan", "Cisne vulgar", "Cygne tuberculé", "wetland", 2),
-  sp("birds", "Acrocephalus scirpaceus", "Common reed warbler", "Carricero común", "Rousserolle effarvatte", "wetland", 3),
+  sp(
+    "birds",
+    "Acrocephalus scirpaceus",
+    "Common reed warbler",
+    "Carricero común",
+    "Rousserolle effarvatte",
+    "wetland",
+    3,
+  ),
 
   // ── Vascular plants (40) ──────────────────────────────────────────────────
   sp("vascular_plants", "Urtica dioica", "Common nettle", "Ortiga mayor", "Grande ortie", "any", 5),
-  sp("vascular_plants", "Cypripedium calceolus", "Lady's-slipper orchid", "Zapatito de dama", "Sabot de Vénus", "woodland", 1, "restricted"),
+  sp(
+    "vascular_plants",
+    "Cypripedium calceolus",
+    "Lady's-slipper orchid",
+    "Zapatito de dama",
+    "Sabot de Vénus",
+    "woodland",
+    1,
+    "restricted",
+  ),
   sp("vascular_plants", "Ranunculus acris", "Meadow buttercup", "Hierba belida", "Renoncule âcre", "grassland", 5),
   sp("vascular_plants", "Bellis perennis", "Common daisy", "Margarita común", "Pâquerette", "grassland", 5),
   sp("vascular_plants", "Trifolium pratense", "Red clover", "Trébol rojo", "Trèfle des prés", "grassland", 5),
   sp("vascular_plants", "Trifolium repens", "White clover", "Trébol blanco", "Trèfle blanc", "grassland", 4),
-  sp("vascular_plants", "Plantago lanceolata", "Ribwort plantain", "Llantén menor", "Plantain lancéolé", "grassland", 5),
+  sp(
+    "vascular_plants",
+    "Plantago lanceolata",
+    "Ribwort plantain",
+    "Llantén menor",
+    "Plantain lancéolé",
+    "grassland",
+    5,
+  ),
   sp("vascular_plants", "Achillea millefolium", "Yarrow", "Milenrama", "Achillée millefeuille", "grassland", 4),
   sp("vascular_plants", "Leucanthemum vulgare", "Oxeye daisy", "Margarita mayor", "Marguerite commune", "grassland", 4),
-  sp("vascular_plants", "Knautia arvensis", "Field scabious", "Escabiosa de campo", "Knautie des champs", "grassland", 3),
+  sp(
+    "vascular_plants",
+    "Knautia arvensis",
+    "Field scabious",
+    "Escabiosa de campo",
+    "Knautie des champs",
+    "grassland",
+    3,
+  ),
   sp("vascular_plants", "Dactylis glomerata", "Cock's-foot", "Dáctilo", "Dactyle aggloméré", "grassland", 5),
   sp("vascular_plants", "Holcus lanatus", "Yorkshire fog", "Heno blanco", "Houlque laineuse", "grassland", 4),
-  sp("vascular_plants", "Lotus corniculatus", "Common bird's-foot trefoil", "Cuernecillo", "Lotier corniculé", "grassland", 4),
+  sp(
+    "vascular_plants",
+    "Lotus corniculatus",
+    "Common bird's-foot trefoil",
+    "Cuernecillo",
+    "Lotier corniculé",
+    "grassland",
+    4,
+  ),
   sp("vascular_plants", "Prunella vulgaris", "Selfheal", "Hierba de las heridas", "Brunelle commune", "grassland", 3),
   sp("vascular_plants", "Rumex acetosa", "Common sorrel", "Acedera", "Grande oseille", "grassland", 4),
   sp("vascular_plants", "Quercus robur", "Pedunculate oak", "Roble carballo", "Chêne pédonculé", "woodland", 4),
@@ -122,11 +171,35 @@ export const SEED_TAXA: readonly SeedTaxon[] = [
   sp("vascular_plants", "Sambucus nigra", "Elder", "Saúco", "Sureau noir", "woodland", 3),
   sp("vascular_plants", "Hedera helix", "Common ivy", "Hiedra", "Lierre grimpant", "woodland", 5),
   sp("vascular_plants", "Anemone nemorosa", "Wood anemone", "Anémona de bosque", "Anémone des bois", "woodland", 4),
-  sp("vascular_plants", "Hyacinthoides non-scripta", "Common bluebell", "Jacinto de los bosques", "Jacinthe des bois", "woodland", 3),
+  sp(
+    "vascular_plants",
+    "Hyacinthoides non-scripta",
+    "Common bluebell",
+    "Jacinto de los bosques",
+    "Jacinthe des bois",
+    "woodland",
+    3,
+  ),
   sp("vascular_plants", "Oxalis acetosella", "Wood sorrel", "Aleluya", "Oxalide petite-oseille", "woodland", 3),
   sp("vascular_plants", "Galium odoratum", "Sweet woodruff", "Asperilla olorosa", "Aspérule odorante", "woodland", 3),
-  sp("vascular_plants", "Geranium robertianum", "Herb-Robert", "Hierba de San Roberto", "Géranium herbe-à-Robert", "woodland", 3),
-  sp("vascular_plants", "Ficaria verna", "Lesser celandine", "Celidonia menor", "Ficaire fausse-renoncule", "woodland", 4),
+  sp(
+    "vascular_plants",
+    "Geranium robertianum",
+    "Herb-Robert",
+    "Hierba de San Roberto",
+    "Géranium herbe-à-Robert",
+    "woodland",
+    3,
+  ),
+  sp(
+    "vascular_plants",
+    "Ficaria verna",
+    "Lesser celandine",
+    "Celidonia menor",
+    "Ficaire fausse-renoncule",
+    "woodland",
+    4,
+  ),
   sp("vascular_plants", "Dryopteris filix-mas", "Male fern", "Helecho macho", "Fougère mâle", "woodland", 3),
   sp("vascular_plants", "Allium ursinum", "Wild garlic", "Ajo de oso", "Ail des ours", "woodland", 4),
   sp("vascular_plants", "Phragmites australis", "Common reed", "Carrizo", "Roseau commun", "wetland", 5),
@@ -155,19 +228,67 @@ export const SEED_TAXA: readonly SeedTaxon[] = [
   sp("insects", "Apis mellifera", "Western honey bee", "Abeja melífera", "Abeille domestique", "any", 5),
   sp("insects", "Bombus terrestris", "Buff-tailed bumblebee", "Abejorro común", "Bourdon terrestre", "any", 5),
   sp("insects", "Bombus pascuorum", "Common carder bee", "Abejorro pardo", "Bourdon des champs", "grassland", 4), // descriptive es
-  sp("insects", "Bombus lapidarius", "Red-tailed bumblebee", "Abejorro de cola roja", "Bourdon des pierres", "grassland", 3), // descriptive es
+  sp(
+    "insects",
+    "Bombus lapidarius",
+    "Red-tailed bumblebee",
+    "Abejorro de cola roja",
+    "Bourdon des pierres",
+    "grassland",
+    3,
+  ), // descriptive es
   sp("insects", "Episyrphus balteatus", "Marmalade hoverfly", "Sírfido balteado", "Syrphe ceinturé", "any", 4), // descriptive es
   sp("insects", "Anax imperator", "Emperor dragonfly", "Emperador", "Anax empereur", "wetland", 3),
-  sp("insects", "Calopteryx splendens", "Banded demoiselle", "Caballito del diablo de bandas", "Caloptéryx éclatant", "wetland", 3), // descriptive es
+  sp(
+    "insects",
+    "Calopteryx splendens",
+    "Banded demoiselle",
+    "Caballito del diablo de bandas",
+    "Caloptéryx éclatant",
+    "wetland",
+    3,
+  ), // descriptive es
   sp("insects", "Libellula depressa", "Broad-bodied chaser", "Libélula deprimida", "Libellule déprimée", "wetland", 3),
-  sp("insects", "Ischnura elegans", "Blue-tailed damselfly", "Caballito del diablo de cola azul", "Agrion élégant", "wetland", 4), // descriptive es
-  sp("insects", "Coccinella septempunctata", "Seven-spot ladybird", "Mariquita de siete puntos", "Coccinelle à sept points", "grassland", 5),
+  sp(
+    "insects",
+    "Ischnura elegans",
+    "Blue-tailed damselfly",
+    "Caballito del diablo de cola azul",
+    "Agrion élégant",
+    "wetland",
+    4,
+  ), // descriptive es
+  sp(
+    "insects",
+    "Coccinella septempunctata",
+    "Seven-spot ladybird",
+    "Mariquita de siete puntos",
+    "Coccinelle à sept points",
+    "grassland",
+    5,
+  ),
   sp("insects", "Lucanus cervus", "European stag beetle", "Ciervo volante", "Lucane cerf-volant", "woodland", 2),
   sp("insects", "Carabus violaceus", "Violet ground beetle", "Carábido violeta", "Carabe violet", "woodland", 3), // descriptive es
-  sp("insects", "Rhagonycha fulva", "Common red soldier beetle", "Escarabajo soldado rojo", "Téléphore fauve", "grassland", 4), // descriptive es
+  sp(
+    "insects",
+    "Rhagonycha fulva",
+    "Common red soldier beetle",
+    "Escarabajo soldado rojo",
+    "Téléphore fauve",
+    "grassland",
+    4,
+  ), // descriptive es
   sp("insects", "Oedemera nobilis", "Swollen-thighed beetle", "Edemérido verde", "Œdémère noble", "grassland", 3), // descriptive es
   sp("insects", "Chorthippus brunneus", "Field grasshopper", "Saltamontes pardo", "Criquet duettiste", "grassland", 4), // descriptive es
-  sp("insects", "Pholidoptera griseoaptera", "Dark bush-cricket", "Saltamontes de matorral oscuro", "Decticelle cendrée", "woodland", 3), // descriptive es
+  sp(
+    "insects",
+    "Pholidoptera griseoaptera",
+    "Dark bush-cricket",
+    "Saltamontes de matorral oscuro",
+    "Decticelle cendrée",
+    "woodland",
+    3,
+  ), // descriptive es
   sp("insects", "Pyrrhocoris apterus", "Firebug", "Chinche roja", "Gendarme", "any", 3),
   sp("insects", "Panorpa communis", "Common scorpionfly", "Mosca escorpión", "Panorpe commune", "woodland", 3),
 
@@ -178,7 +299,15 @@ export const SEED_TAXA: readonly SeedTaxon[] = [
   sp("fungi", "Fomes fomentarius", "Tinder fungus", "Yesquero", "Amadouvier", "woodland", 3),
   sp("fungi", "Trametes versicolor", "Turkey tail", "Cola de pavo", "Tramète versicolore", "woodland", 5),
   sp("fungi", "Auricularia auricula-judae", "Jelly ear", "Oreja de Judas", "Oreille-de-Judas", "woodland", 4),
-  sp("fungi", "Armillaria mellea", "Honey fungus", "Armilaria color de miel", "Armillaire couleur de miel", "woodland", 3),
+  sp(
+    "fungi",
+    "Armillaria mellea",
+    "Honey fungus",
+    "Armilaria color de miel",
+    "Armillaire couleur de miel",
+    "woodland",
+    3,
+  ),
   sp("fungi", "Laccaria amethystina", "Amethyst deceiver", "Lacaria amatista", "Laccaire améthyste", "woodland", 3),
   sp("fungi", "Coprinus comatus", "Shaggy ink cap", "Barbuda", "Coprin chevelu", "grassland", 3),
   sp("fungi", "Marasmius oreades", "Fairy ring champignon", "Senderuela", "Marasme des Oréades", "grassland", 4),
@@ -201,7 +330,15 @@ export const SEED_TAXA: readonly SeedTaxon[] = [
   sp("amphibians_reptiles", "Lissotriton vulgaris", "Smooth newt", "Tritón común", "Triton ponctué", "wetland", 3),
   sp("amphibians_reptiles", "Ichthyosaura alpestris", "Alpine newt", "Tritón alpino", "Triton alpestre", "wetland", 2),
   sp("amphibians_reptiles", "Anguis fragilis", "Slow worm", "Lución", "Orvet fragile", "grassland", 2),
-  sp("amphibians_reptiles", "Zootoca vivipara", "Viviparous lizard", "Lagartija de turbera", "Lézard vivipare", "grassland", 3),
+  sp(
+    "amphibians_reptiles",
+    "Zootoca vivipara",
+    "Viviparous lizard",
+    "Lagartija de turbera",
+    "Lézard vivipare",
+    "grassland",
+    3,
+  ),
   sp("amphibians_reptiles", "Natrix natrix", "Grass snake", "Culebra de collar", "Couleuvre à collier", "wetland", 2),
 
   // ── Molluscs (5) ──────────────────────────────────────────────────────────

@@ -50,7 +50,7 @@ export function chao1BiasCorrected(p: FrequencyProfile): Estimate {
     (f1 * (2 * f1 - 1) ** 2) / (4 * g * g) +
     (f1 * f1 * f2 * (f1 - 1) ** 2) / (4 * g ** 4) -
     (f1 * f1 * (f1 + f2) ** 2) / (4 * g ** 4 * estimate);
-  return logNormalInterval(S, estimate, variance);
+  return logNormalInterval(S, estimate, variance, p);
 }
 
 /**
@@ -99,10 +99,10 @@ export function aceEstimate(p: FrequencyProfile): Estimate {
     sRare += v;
     nRare += (i + 1) * v;
   });
-  if (nRare === 0) return { estimate: S, se: 0, lower: S, upper: S };
+  if (nRare === 0) return logNormalInterval(S, S, 0, p); // no rare species: observed, with the fallback interval
   if (p.f1 >= nRare) return chao1BiasCorrected(p);
   const r = coverageEstimator(rare, S - sRare, { unitsFactor: 1, squaredDenominator: false });
-  return logNormalInterval(S, r.value, deltaVariance(r.grad, rare, r.value));
+  return logNormalInterval(S, r.value, deltaVariance(r.grad, rare, r.value), p);
 }
 
 /**
@@ -115,7 +115,12 @@ export function sampleCoverage(p: FrequencyProfile): number {
 }
 
 /** Shannon (natural log), Gini–Simpson, inverse Simpson and Pielou's J, as vegan `diversity`. */
-export function classicIndices(p: FrequencyProfile): { shannon: number; simpson: number; inverseSimpson: number; evenness: number } {
+export function classicIndices(p: FrequencyProfile): {
+  shannon: number;
+  simpson: number;
+  inverseSimpson: number;
+  evenness: number;
+} {
   if (p.total <= 0) return { shannon: 0, simpson: 0, inverseSimpson: 0, evenness: 0 };
   const shannon = shannonEntropy(p);
   const d = simpsonConcentration(p);

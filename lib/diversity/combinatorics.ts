@@ -5,7 +5,7 @@
 const HALF_LN_2PI = 0.9189385332046728; // ln(2π)/2
 
 /** Stirling-series remainder of ln Γ(z) for z ≥ 15 (Abramowitz & Stegun 1964, 6.1.41). */
-function stirlingTail(z: number): number {
+export function stirlingTail(z: number): number {
   const r = 1 / z;
   const r2 = r * r;
   return r * (1 / 12 - r2 * (1 / 360 - r2 * (1 / 1260 - r2 * (1 / 1680 - r2 * (1 / 1188 - r2 * (691 / 360360))))));
@@ -200,4 +200,15 @@ export function logSeriesTail(n: number, A: number): number {
   }
   // Σ_{j≥0} x^{j+1}/(n+j) = e^{λ(n−1)} Σ_{r≥n} e^{−λr}/r = e^{−λ} · (scaled sum).
   return x * sum;
+}
+
+/**
+ * ln[Γ(x + a)/Γ(x)] for x > 0, x + a > 0 and real a, without cancelling two large log-gamma
+ * values: for x ≥ 15 the Stirling difference (x+a−½)·log1p(a/x) + a(ln x − 1) + tail(x+a) − tail(x)
+ * (Abramowitz & Stegun 1964, 6.1.41), as in lnFactorialRatio.
+ */
+export function lnGammaRatio(x: number, a: number): number {
+  if (a === 0) return 0;
+  if (x < 15 || x + a < 15) return lnGamma(x + a) - lnGamma(x);
+  return (x + a - 0.5) * Math.log1p(a / x) + a * (Math.log(x) - 1) + stirlingTail(x + a) - stirlingTail(x);
 }

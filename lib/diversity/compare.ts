@@ -19,7 +19,12 @@ export type ZoneComparison = { size: number; coverage: number; zones: Record<str
 
 export type CompareInput =
   | { kind: "abundance"; zones: Readonly<Record<string, readonly number[]>>; size?: number; coverage?: number }
-  | { kind: "incidence"; zones: Readonly<Record<string, readonly (readonly number[])[]>>; size?: number; coverage?: number };
+  | {
+      kind: "incidence";
+      zones: Readonly<Record<string, readonly (readonly number[])[]>>;
+      size?: number;
+      coverage?: number;
+    };
 
 /** Rarefied coverage at integer effort m ≤ N (Chao & Jost 2012), via the curve engine. */
 function coverageAt(p: FrequencyProfile, m: number): number {

@@ -2,11 +2,21 @@
 // the one-call diversityResults.
 
 import { describe, expect, it } from "vitest";
-import { abundanceCurve, compareZones, diversityResults, ENGINE_VERSION, incidenceCurve, incidenceStats } from "./index";
+import {
+  abundanceCurve,
+  compareZones,
+  diversityResults,
+  ENGINE_VERSION,
+  incidenceCurve,
+  incidenceStats,
+} from "./index";
 import { pooled, reference } from "../../tests/fixtures/vegan/fixture";
 
 const bci = reference.data.BCI;
-const bciCounts = pooled(bci, bci.map((_, i) => i + 1));
+const bciCounts = pooled(
+  bci,
+  bci.map((_, i) => i + 1),
+);
 
 describe("diversityResults", () => {
   const r = diversityResults({ units: bci, curvePoints: 30 });
@@ -24,7 +34,9 @@ describe("diversityResults", () => {
     expect(c[c.length - 1]?.size).toBe(2 * 21457);
     const observed = c.filter((p) => p.kind === "observed");
     expect(observed.map((p) => [p.size, p.richness])).toEqual([[21457, 225]]);
-    expect(c.every((p) => (p.size < 21457 ? p.kind === "rarefied" : p.size > 21457 ? p.kind === "extrapolated" : true))).toBe(true);
+    expect(
+      c.every((p) => (p.size < 21457 ? p.kind === "rarefied" : p.size > 21457 ? p.kind === "extrapolated" : true)),
+    ).toBe(true);
     expect(c.filter((p) => p.kind === "extrapolated").every((p) => p.seConditional === null)).toBe(true);
     expect(c.filter((p) => p.kind === "rarefied").every((p) => typeof p.seConditional === "number")).toBe(true);
   });
@@ -78,7 +90,11 @@ describe("compareZones", () => {
     if (!edge || !interior) throw new Error("zones missing");
     expect(edge.atSize.kind).toBe("extrapolated");
     expect(interior.atSize.kind).toBe("extrapolated");
-    const at25 = compareZones({ kind: "incidence", zones: { edge: bci.slice(0, 20), interior: bci.slice(20) }, size: 25 });
+    const at25 = compareZones({
+      kind: "incidence",
+      zones: { edge: bci.slice(0, 20), interior: bci.slice(20) },
+      size: 25,
+    });
     expect(at25.zones.edge?.atSize.kind).toBe("extrapolated");
     expect(at25.zones.interior?.atSize.kind).toBe("rarefied");
     expect(edge.atCoverage.coverage).toBeCloseTo(cmp.coverage, 2);

@@ -110,13 +110,65 @@ function heckVariance(p: FrequencyProfile, m: number, logs: Float64Array): numbe
 }
 
 /**
+ * Σ_t n_tc n_tc' for every pair of incidence classes c ≥ c' (n_tc = species of class c in
+ * unit t), packed lower-triangular: species pairs grouped by their two frequencies, with
+ * their shared units summed (Σ over pairs of shared units is all the correlation sum needs).
+ * Built once per data set; null when it would be larger than the detections themselves.
+ */
+type ClassPairs = { K: number; packed: Float64Array };
+const classPairCache = new WeakMap<IncidenceData, ClassPairs | null>();
+
+function classPairs(d: IncidenceData, force = false): ClassPairs | null {
+  const cached = classPairCache.get(d);
+  if (cached || (cached === null && !force)) return cached;
+  const K = d.profile.values.length;
+  const T = d.units;
+  const size = (K * (K + 1)) / 2;
+  let result: ClassPairs | null = null;
+  if (force || (size <= 4 * (d.rowStart[T] as number) + 1024 && size <= 8_000_000)) {
+    const packed = new Float64Array(size);
+    const inUnit = new Float64Array(K);
+    const present = new Int32Array(K);
+    const { rowStart, nzClass } = d;
+    for (let t = 0; t < T; t++) {
+      let m = 0;
+      const end = rowStart[t + 1] as number;
+      for (let j = rowStart[t] as number; j < end; j++) {
+        const cls = nzClass[j] as number;
+        if (inUnit[cls] === 0) present[m++] = cls;
+        inUnit[cls] = (inUnit[cls] as number) + 1;
+      }
+      for (let a = 0; a < m; a++) {
+        const ca = present[a] as number;
+        const na = inUnit[ca] as number;
+        for (let b = 0; b < m; b++) {
+          const cb = present[b] as number;
+          if (cb > ca) continue;
+          const idx = (ca * (ca + 1)) / 2 + cb;
+          packed[idx] = (packed[idx] as number) + na * (inUnit[cb] as number);
+        }
+      }
+      for (let a = 0; a < m; a++) inUnit[present[a] as number] = 0;
+    }
+    result = { K, packed };
+  }
+  classPairCache.set(d, result);
+  return result;
+}
+
+/**
  * vegan `specaccum(method = "exact")` sd (conditioned = TRUE; J. Oksanen, unpublished, per the vegan vignette):
  * sd² = Σ V_i + 2 Σ_{i<j} r_ij sqrt(V_i V_j), V_i = α_i(1−α_i), r_ij the Pearson correlation
  * of the incidence columns. With u_i = sqrt(V_i/(Y_i(T−Y_i))), 2Σ_{i<j} r_ij sqrt(V_iV_j) =
- * T(Σ_t G_t² − Σ_i Y_i u_i²) − (Σ_i Y_i u_i)² + Σ_i Y_i² u_i², G_t = Σ_{i in unit t} u_i:
- * one pass over the detections instead of a species × species matrix.
+ * T(Σ_t G_t² − Σ_i Y_i u_i²) − (Σ_i Y_i u_i)² + Σ_i Y_i² u_i², G_t = Σ_{i in unit t} u_i.
+ * u depends on the species only through its class c (its Y), so Σ_t G_t² = Σ_{c,c'} u_c u_c'
+ * Σ_t n_tc n_tc': per point, a sum over the active class pairs (`classPairs`) or one pass
+ * over the detections, whichever is shorter; both give the same number.
  */
-function veganAccumulationVariance(d: IncidenceData, logs: Float64Array): number {
+/** Which sum gives Σ_t G_t²: "auto" picks the shorter; the others exist for the equality test. */
+export type AccumulationPath = "auto" | "detections" | "pairs";
+
+function veganAccumulationVariance(d: IncidenceData, logs: Float64Array, path: AccumulationPath = "auto"): number {
   const p = d.profile;
   const T = d.units;
   const K = logs.length;
@@ -125,7 +177,7 @@ function veganAccumulationVariance(d: IncidenceData, logs: Float64Array): number
   let yu2 = 0;
   let yu = 0;
   let y2u2 = 0;
-  let any = false;
+  let lastActive = -1;
   for (let c = 0; c < K; c++) {
     const a = Math.exp(logs[c] as number);
     const V = a * (1 - a);
@@ -134,19 +186,33 @@ function veganAccumulationVariance(d: IncidenceData, logs: Float64Array): number
     sumV += q * V;
     const uc = y < T && V > 0 ? Math.sqrt(V / (y * (T - y))) : 0;
     u[c] = uc;
-    if (uc > 0) any = true;
+    if (uc > 0) lastActive = c;
     yu2 += q * y * uc * uc;
     yu += q * y * uc;
     y2u2 += q * y * y * uc * uc;
   }
-  if (!any) return Math.max(sumV, 0);
+  if (lastActive < 0) return Math.max(sumV, 0);
   let g2 = 0;
-  const { rowStart, nzClass } = d;
-  for (let t = 0; t < T; t++) {
-    let g = 0;
-    const end = rowStart[t + 1] as number;
-    for (let j = rowStart[t] as number; j < end; j++) g += u[nzClass[j] as number] as number;
-    g2 += g * g;
+  const pairs = path === "detections" ? null : classPairs(d, path === "pairs");
+  const pairTerms = ((lastActive + 1) * (lastActive + 2)) / 2;
+  if (pairs && (path === "pairs" || pairTerms < (d.rowStart[T] as number))) {
+    const { packed } = pairs;
+    for (let ca = 0; ca <= lastActive; ca++) {
+      const ua = u[ca] as number;
+      if (ua === 0) continue;
+      const base = (ca * (ca + 1)) / 2;
+      let off = 0;
+      for (let cb = 0; cb < ca; cb++) off += (packed[base + cb] as number) * (u[cb] as number);
+      g2 += ua * (2 * off + (packed[base + ca] as number) * ua);
+    }
+  } else {
+    const { rowStart, nzClass } = d;
+    for (let t = 0; t < T; t++) {
+      let g = 0;
+      const end = rowStart[t + 1] as number;
+      for (let j = rowStart[t] as number; j < end; j++) g += u[nzClass[j] as number] as number;
+      g2 += g * g;
+    }
   }
   return Math.max(sumV + T * (g2 - yu2) - yu * yu + y2u2, 0);
 }
@@ -179,13 +245,33 @@ function extrapolate(p: FrequencyProfile, mStar: number): Extrapolated {
   return { richness: s.v, variance, coverage };
 }
 
-function point(size: number, kind: CurveKind, richness: number, variance: number, coverage: number, seConditional: number | null): CurvePoint {
+function point(
+  size: number,
+  kind: CurveKind,
+  richness: number,
+  variance: number,
+  coverage: number,
+  seConditional: number | null,
+): CurvePoint {
   const se = Math.sqrt(Math.max(variance, 0));
-  return { size, kind, richness, se, lower: Math.max(0, richness - Z95 * se), upper: richness + Z95 * se, coverage, seConditional };
+  return {
+    size,
+    kind,
+    richness,
+    se,
+    lower: Math.max(0, richness - Z95 * se),
+    upper: richness + Z95 * se,
+    coverage,
+    seConditional,
+  };
 }
 
 /** Richness, unconditional 95% band and coverage at any effort (interpolated or extrapolated). */
-export function curvePoint(p: FrequencyProfile, size: number, conditional?: (m: number, logs: Float64Array) => number): CurvePoint {
+export function curvePoint(
+  p: FrequencyProfile,
+  size: number,
+  conditional?: (m: number, logs: Float64Array) => number,
+): CurvePoint {
   const N = p.size;
   if (N === 0) return point(size, size === 0 ? "observed" : "extrapolated", 0, 0, 0, size === 0 ? 0 : null);
   if (size <= N) {
@@ -219,7 +305,10 @@ export function incidenceCurveFromData(d: IncidenceData, sizes: readonly number[
 }
 
 /** vegan `rarefy(x, sample, se = TRUE)`: Hurlbert (1971) richness and Heck et al. (1975) se; S_obs, se 0 beyond n. */
-export function rarefyProfile(p: FrequencyProfile, sizes: readonly number[]): { size: number; richness: number; se: number }[] {
+export function rarefyProfile(
+  p: FrequencyProfile,
+  sizes: readonly number[],
+): { size: number; richness: number; se: number }[] {
   return sizes.map((m) => {
     if (m >= p.size) return { size: m, richness: p.observed, se: 0 };
     const logs = absenceLogs(p, m);
@@ -233,7 +322,11 @@ export function rarefyProfile(p: FrequencyProfile, sizes: readonly number[]): { 
  * Mao Tau / vegan `specaccum(method = "exact")` richness and its default (conditional) sd;
  * lower/upper: τ ± z·σ with σ² = Σ_j (1 − α_jt)² Q_j − τ²/Ŝ, Ŝ = Chao2 (Colwell, Mao & Chang 2004).
  */
-export function accumulateData(d: IncidenceData, at: readonly number[]): { units: number; richness: number; sd: number; lower: number; upper: number }[] {
+export function accumulateData(
+  d: IncidenceData,
+  at: readonly number[],
+  path: AccumulationPath = "auto",
+): { units: number; richness: number; sd: number; lower: number; upper: number }[] {
   const p = d.profile;
   const shat = chaoRichness(p).estimate;
   return at.map((t) => {
@@ -242,7 +335,7 @@ export function accumulateData(d: IncidenceData, at: readonly number[]): { units
     return {
       units: t,
       richness: r.richness,
-      sd: Math.sqrt(veganAccumulationVariance(d, r.logs)),
+      sd: Math.sqrt(veganAccumulationVariance(d, r.logs, path)),
       lower: Math.max(0, r.richness - Z95 * se),
       upper: r.richness + Z95 * se,
     };

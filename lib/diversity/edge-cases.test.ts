@@ -16,7 +16,8 @@ import {
 
 function numbersIn(value: unknown, path = "$"): [string, number][] {
   if (typeof value === "number") return [[path, value]];
-  if (value && typeof value === "object") return Object.entries(value).flatMap(([k, v]) => numbersIn(v, `${path}.${k}`));
+  if (value && typeof value === "object")
+    return Object.entries(value).flatMap(([k, v]) => numbersIn(v, `${path}.${k}`));
   return [];
 }
 
@@ -48,7 +49,15 @@ describe("input validation", () => {
   it("rejects ragged or malformed sampling units", () => {
     expectInputError(() => incidenceStats([[1, 0], [1]]), "ragged-units", "units[1]");
     expectInputError(() => incidenceStats([[1, 0], []]), "ragged-units", "units[1]");
-    expectInputError(() => incidenceStats([[1, 0], [0, -2]]), "negative", "units[1][1]");
+    expectInputError(
+      () =>
+        incidenceStats([
+          [1, 0],
+          [0, -2],
+        ]),
+      "negative",
+      "units[1][1]",
+    );
     expectInputError(() => incidenceStats([[0.5]]), "not-integer", "units[0][0]");
     expectInputError(() => incidenceStats([5 as unknown as number[]]), "not-an-array", "units[0]");
     expectInputError(() => accumulation([[1, 1]], [2]), "invalid-option", "at[0]");
@@ -59,7 +68,11 @@ describe("input validation", () => {
     expectInputError(() => rarefaction([1, 2], [-1]), "negative", "sizes[0]");
     expectInputError(() => abundanceCurve([1, 2], { points: 1 }), "invalid-option", "options.points");
     expectInputError(() => diversityResults({ counts: [1], curvePoints: 0 }), "invalid-option", "curvePoints");
-    expectInputError(() => compareZones({ kind: "abundance", zones: { a: [1, 2] }, coverage: 1 }), "invalid-option", "coverage");
+    expectInputError(
+      () => compareZones({ kind: "abundance", zones: { a: [1, 2] }, coverage: 1 }),
+      "invalid-option",
+      "coverage",
+    );
   });
 });
 
@@ -77,7 +90,14 @@ describe("empty data gives zeros", () => {
   });
 
   it("incidence: no units, units without species, units with no detections", () => {
-    for (const units of [[], [[], []], [[0, 0], [0, 0]]]) {
+    for (const units of [
+      [],
+      [[], []],
+      [
+        [0, 0],
+        [0, 0],
+      ],
+    ]) {
       const s = incidenceStats(units);
       for (const [path, v] of numbersIn(s)) {
         if (path === "$.units") continue;
@@ -104,7 +124,10 @@ describe("degenerate samples", () => {
   it("one species", () => {
     const s = abundanceStats([7]);
     expect([s.observed, s.shannon, s.simpson, s.inverseSimpson, s.evenness]).toEqual([1, 0, 0, 1, 0]);
-    expect(s.chao1).toEqual({ estimate: 1, se: 0, lower: 1, upper: 1 });
+    // Log-normal interval degenerates (no undetected species): Poisson-type fallback of
+    // methods.md §1, hand-computed: P = e^−7, var_obs = e^−7 − e^−14 − (7e^−7)²/7.
+    expect(s.chao1).toMatchObject({ estimate: 1, se: 0, lower: 1, intervalMethod: "poisson-fallback" });
+    expect(s.chao1.upper).toBeCloseTo(1.0599360435, 9);
     expect(s.hill.q1.observed).toBe(1);
     expect(s.hill.q2.estimate).toBe(1);
   });
@@ -127,21 +150,29 @@ describe("degenerate samples", () => {
 
   it("no rare species: ACE is the observed richness with se 0 (vegan gives NaN)", () => {
     const s = abundanceStats([11, 20, 35]);
-    expect(s.ace).toEqual({ estimate: 3, se: 0, lower: 3, upper: 3 });
+    expect(s.ace).toMatchObject({ estimate: 3, se: 0, lower: 3, intervalMethod: "poisson-fallback" });
+    expect(s.ace.upper).toBeCloseTo(3.008026978, 9); // fallback interval, hand-computed as in methods.md §1
     expect(s.coverage).toBe(1);
   });
 
-  it("f1 = 1, f2 = 0: estimate equals observed, so the interval is the point", () => {
+  it("f1 = 1, f2 = 0: estimate equals observed; the degenerate log-normal interval is replaced by the fallback", () => {
     const s = abundanceStats([1, 5, 9]);
     expect(s.chao1.estimate).toBe(3);
-    expect([s.chao1.lower, s.chao1.upper]).toEqual([3, 3]);
+    // Hand-computed (methods.md §1): P = (e^−1 + e^−5 + e^−9)/3, var_obs over k = 1, 5, 9, n = 15.
+    for (const e of [s.chao1, s.chao1Classic]) {
+      expect(e.intervalMethod).toBe("poisson-fallback");
+      expect(e.lower).toBe(3);
+      expect(e.upper).toBeCloseTo(4.498982204, 9);
+    }
     const curve = abundanceCurve([1, 5, 9], { sizes: [15, 30] });
     expect(curve.map((p) => p.richness)).toEqual([3, 3]);
   });
 
   it("a single sampling unit carries no information on unseen species", () => {
     const s = incidenceStats([[1, 3, 0, 2]]);
-    expect(s.chao2).toEqual({ estimate: 3, se: 0, lower: 3, upper: 3 });
+    // (T−1)/T = 0: no undetected species, se 0; the interval is the fallback convention.
+    expect(s.chao2).toMatchObject({ estimate: 3, se: 0, lower: 3, intervalMethod: "poisson-fallback" });
+    expect(s.chao2.upper).toBeGreaterThan(3);
     expect(s.jack1.estimate).toBe(3);
     expect(s.jack2.estimate).toBe(3);
     expect(s.ice.estimate).toBe(3);

@@ -62,12 +62,17 @@ export function checkCounts(values: readonly number[], label = "counts"): number
  * (rows = sampling units, columns = species). Returns the row length (0 for no units).
  */
 export function checkUnits(units: readonly (readonly number[])[], label = "units"): number {
-  if (!Array.isArray(units)) throw new DiversityInputError("not-an-array", label, "expected an array of sampling units");
+  if (!Array.isArray(units))
+    throw new DiversityInputError("not-an-array", label, "expected an array of sampling units");
   let width = -1;
   for (let t = 0; t < units.length; t++) {
     const row = units[t];
     if (!Array.isArray(row)) {
-      throw new DiversityInputError("not-an-array", `${label}[${t}]`, "each sampling unit must be an array of counts per species");
+      throw new DiversityInputError(
+        "not-an-array",
+        `${label}[${t}]`,
+        "each sampling unit must be an array of counts per species",
+      );
     }
     if (width < 0) width = row.length;
     else if (row.length !== width) {

@@ -6,9 +6,16 @@
 import { harmonicDifference, logSeriesTail } from "./combinatorics";
 import type { FrequencyProfile } from "./profile";
 import { multinomial, Rng } from "./random";
-import { chaoRichness, undetectedChao, Z95 } from "./richness";
+import { chaoRichness, undetectedChao, Z95, type IntervalMethod } from "./richness";
 
-export type HillValue = { observed: number; estimate: number; se: number; lower: number; upper: number };
+export type HillValue = {
+  observed: number;
+  estimate: number;
+  se: number;
+  lower: number;
+  upper: number;
+  intervalMethod: IntervalMethod;
+};
 export type HillSummary = Record<"q0" | "q1" | "q2", HillValue>;
 
 export type BootstrapOptions = { replicates?: number; seed?: number };
@@ -131,16 +138,17 @@ function sampleSd(values: number[]): number {
 }
 
 function bootInterval(observed: number, estimate: number, se: number): HillValue {
-  if (!Number.isFinite(estimate)) return { observed, estimate, se, lower: observed, upper: Infinity };
+  if (!Number.isFinite(estimate))
+    return { observed, estimate, se, lower: observed, upper: Infinity, intervalMethod: "bootstrap" };
   const lower = Math.min(estimate, Math.max(observed, estimate - Z95 * se));
-  return { observed, estimate, se, lower, upper: estimate + Z95 * se };
+  return { observed, estimate, se, lower, upper: estimate + Z95 * se, intervalMethod: "bootstrap" };
 }
 
 /** Observed and asymptotic Hill numbers of an abundance profile, with 95% intervals. */
 export function hillNumbers(p: FrequencyProfile, coverage: number, options: BootstrapOptions = {}): HillSummary {
   const n = p.size;
   if (n === 0 || p.observed === 0) {
-    const zero: HillValue = { observed: 0, estimate: 0, se: 0, lower: 0, upper: 0 };
+    const zero: HillValue = { observed: 0, estimate: 0, se: 0, lower: 0, upper: 0, intervalMethod: "none" };
     return { q0: { ...zero }, q1: { ...zero }, q2: { ...zero } };
   }
   const chao = chaoRichness(p);

@@ -142,11 +142,11 @@ export function iceEstimate(d: IncidenceData): Estimate {
     sInfr += v;
     nInfr += (i + 1) * v;
   });
-  if (nInfr === 0) return { estimate: S, se: 0, lower: S, upper: S };
+  if (nInfr === 0) return logNormalInterval(S, S, 0, p); // no infrequent species: observed, with the fallback interval
   const m = d.infrequentUnits;
   if (p.f1 >= nInfr || m <= 1) return chaoRichness(p);
   const r = coverageEstimator(rare, S - sInfr, { unitsFactor: m / (m - 1), squaredDenominator: true });
-  return logNormalInterval(S, r.value, deltaVariance(r.grad, rare, r.value));
+  return logNormalInterval(S, r.value, deltaVariance(r.grad, rare, r.value), p);
 }
 
 /**
@@ -175,7 +175,7 @@ export function jackknife2(d: IncidenceData): Estimate {
   const T = d.units;
   const S = p.observed;
   if (T === 0 || S === 0) return { ...ZERO_ESTIMATE };
-  if (T === 1) return { estimate: S, se: 0, lower: S, upper: S };
+  if (T === 1) return { estimate: S, se: 0, lower: S, upper: S, intervalMethod: "none" }; // one unit: no information on unseen species
   const a = (2 * T - 3) / T;
   const b = ((T - 2) * (T - 2)) / (T * (T - 1));
   const estimate = S + p.f1 * a - p.f2 * b;

@@ -52,7 +52,13 @@ describe("log-space combinatorics", () => {
   });
 
   it("harmonicDifference matches direct sums", () => {
-    for (const [a, b] of [[1, 2], [1, 100], [7, 5000], [16, 17], [40, 1_000_000]] as const) {
+    for (const [a, b] of [
+      [1, 2],
+      [1, 100],
+      [7, 5000],
+      [16, 17],
+      [40, 1_000_000],
+    ] as const) {
       let s = 0;
       for (let j = b - 1; j >= a; j--) s += 1 / j;
       expect(Math.abs(harmonicDifference(a, b) - s)).toBeLessThanOrEqual(1e-13 * s);
@@ -60,7 +66,14 @@ describe("log-space combinatorics", () => {
   });
 
   it("logSeriesTail (all three branches) matches the series Σ (1−A)^{j+1}/(n+j)", () => {
-    for (const [n, A] of [[5000, 1e-3], [300, 0.01], [1_000_000, 2e-5], [250, 0.019], [150, 0.005], [5000, 0.05]] as const) {
+    for (const [n, A] of [
+      [5000, 1e-3],
+      [300, 0.01],
+      [1_000_000, 2e-5],
+      [250, 0.019],
+      [150, 0.005],
+      [5000, 0.05],
+    ] as const) {
       // Reference: each term from exp((j+1)·log1p(−A)), Kahan-compensated sum.
       const lx = Math.log1p(-A);
       let s = 0;
@@ -100,7 +113,12 @@ describe("counts into the millions stay exact", () => {
 describe("seeded random numbers", () => {
   it("binomial draws have the right mean and variance", () => {
     const rng = new Rng(42);
-    for (const [N, p] of [[1000, 0.3], [50, 0.9], [1_000_000, 1e-4], [20, 0.05]] as const) {
+    for (const [N, p] of [
+      [1000, 0.3],
+      [50, 0.9],
+      [1_000_000, 1e-4],
+      [20, 0.05],
+    ] as const) {
       const draws = Array.from({ length: 20000 }, () => binomial(rng, N, p));
       const mean = draws.reduce((a, b) => a + b, 0) / draws.length;
       const variance = draws.reduce((a, b) => a + (b - mean) ** 2, 0) / (draws.length - 1);

@@ -2,12 +2,29 @@
 
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { abundanceCurve, abundanceStats, accumulation, incidenceCurve, incidenceStats, rarefaction, type Estimate } from "./index";
+import {
+  abundanceCurve,
+  abundanceStats,
+  accumulation,
+  incidenceCurve,
+  incidenceStats,
+  rarefaction,
+  type Estimate,
+} from "./index";
 
-const countsArb = fc.array(fc.oneof(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 60 })), { minLength: 1, maxLength: 30 });
-const unitsArb = fc
-  .tuple(fc.integer({ min: 1, max: 8 }), fc.integer({ min: 1, max: 14 }))
-  .chain(([T, S]) => fc.array(fc.array(fc.oneof(fc.constant(0), fc.constant(0), fc.integer({ min: 0, max: 4 })), { minLength: S, maxLength: S }), { minLength: T, maxLength: T }));
+const countsArb = fc.array(fc.oneof(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 60 })), {
+  minLength: 1,
+  maxLength: 30,
+});
+const unitsArb = fc.tuple(fc.integer({ min: 1, max: 8 }), fc.integer({ min: 1, max: 14 })).chain(([T, S]) =>
+  fc.array(
+    fc.array(fc.oneof(fc.constant(0), fc.constant(0), fc.integer({ min: 0, max: 4 })), {
+      minLength: S,
+      maxLength: S,
+    }),
+    { minLength: T, maxLength: T },
+  ),
+);
 
 const total = (c: readonly number[]): number => c.reduce((a, b) => a + b, 0);
 const slack = 1e-9;
@@ -27,7 +44,8 @@ describe("properties", () => {
         const r = rarefaction(counts, sizes);
         const observed = counts.filter((c) => c > 0).length;
         expect(r[n]?.richness).toBeCloseTo(observed, 9);
-        for (let i = 1; i < r.length; i++) expect(r[i]?.richness ?? 0).toBeGreaterThanOrEqual((r[i - 1]?.richness ?? 0) - 1e-12);
+        for (let i = 1; i < r.length; i++)
+          expect(r[i]?.richness ?? 0).toBeGreaterThanOrEqual((r[i - 1]?.richness ?? 0) - 1e-12);
       }),
     );
   });
@@ -113,12 +131,16 @@ describe("properties", () => {
 
   it("adding a sampling unit never lowers the observed richness", () => {
     fc.assert(
-      fc.property(unitsArb, fc.array(fc.integer({ min: 0, max: 3 }), { minLength: 14, maxLength: 14 }), (units, extra) => {
-        const width = units[0]?.length ?? 0;
-        const before = incidenceStats(units).observed;
-        const after = incidenceStats([...units, extra.slice(0, width)]).observed;
-        expect(after).toBeGreaterThanOrEqual(before);
-      }),
+      fc.property(
+        unitsArb,
+        fc.array(fc.integer({ min: 0, max: 3 }), { minLength: 14, maxLength: 14 }),
+        (units, extra) => {
+          const width = units[0]?.length ?? 0;
+          const before = incidenceStats(units).observed;
+          const after = incidenceStats([...units, extra.slice(0, width)]).observed;
+          expect(after).toBeGreaterThanOrEqual(before);
+        },
+      ),
     );
   });
 

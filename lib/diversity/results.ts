@@ -44,10 +44,16 @@ export function diversityResults(input: DiversityInput): DiversityResults {
   if (!(factor >= 1 && factor <= 100)) {
     throw invalidOption("extrapolationFactor", `extrapolationFactor must lie between 1 and 100 (got ${factor})`);
   }
-  if (input.units !== undefined && input.unitLists !== undefined) throw invalidOption("unitLists", "give units or unitLists, not both");
-  if (input.unitLists !== undefined && input.counts === undefined) throw invalidOption("counts", "unitLists needs counts (individuals per species)");
-  const inc = input.units !== undefined ? incidenceData(input.units)
-    : input.unitLists !== undefined ? incidenceDataFromLists(input.unitLists, input.counts!.length) : null;
+  if (input.units !== undefined && input.unitLists !== undefined)
+    throw invalidOption("unitLists", "give units or unitLists, not both");
+  if (input.unitLists !== undefined && input.counts === undefined)
+    throw invalidOption("counts", "unitLists needs counts (individuals per species)");
+  const inc =
+    input.units !== undefined
+      ? incidenceData(input.units)
+      : input.unitLists !== undefined
+        ? incidenceDataFromLists(input.unitLists, input.counts!.length)
+        : null;
   let counts = input.counts;
   if (counts === undefined) {
     const sums: number[] = [];
@@ -57,7 +63,9 @@ export function diversityResults(input: DiversityInput): DiversityResults {
   const ab = abundanceProfile(counts);
   const n = ab.size;
   const rarefactionCurve = abundanceCurveFromProfile(ab, curveSizes(n, points, Math.round(factor * n)));
-  const accumulationCurve = inc ? incidenceCurveFromData(inc, curveSizes(inc.units, points, Math.round(factor * inc.units))) : [];
+  const accumulationCurve = inc
+    ? incidenceCurveFromData(inc, curveSizes(inc.units, points, Math.round(factor * inc.units)))
+    : [];
   return {
     engineVersion: ENGINE_VERSION,
     abundance: abundanceStatsFromProfile(ab, input.bootstrap),

@@ -96,7 +96,11 @@ describe("zones at equal effort (BCI plots 1–25 against 26–50; R formulas)",
       expectClose(got.atSize.se, z.at_size[key].se, `zone ${key} se at size (R formula)`);
       expectClose(got.atCoverage.size, z.at_coverage[key].size, `zone ${key} size at coverage 0.99 (R search)`);
       expectClose(got.atCoverage.richness, z.at_coverage[key].richness, `zone ${key} richness at coverage (R formula)`);
-      expectClose(got.atCoverage.coverage, z.at_coverage[key].coverage ?? NaN, `zone ${key} coverage reached (R formula)`);
+      expectClose(
+        got.atCoverage.coverage,
+        z.at_coverage[key].coverage ?? NaN,
+        `zone ${key} coverage reached (R formula)`,
+      );
     }
   });
 });

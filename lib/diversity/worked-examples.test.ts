@@ -7,7 +7,9 @@ import { reference } from "../../tests/fixtures/vegan/fixture";
 
 /** |a − b| ≤ half a unit in the last printed digit. */
 function expectPrinted(actual: number, printed: number, decimals: number, label: string): void {
-  expect(Math.abs(actual - printed), `${label}: got ${actual}, printed ${printed}`).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-12);
+  expect(Math.abs(actual - printed), `${label}: got ${actual}, printed ${printed}`).toBeLessThanOrEqual(
+    0.5 * 10 ** -decimals + 1e-12,
+  );
 }
 
 describe("Chao et al. (2014), spider data, 'Girdled' treatment (Sackett et al. 2011; values from memory)", () => {
@@ -150,6 +152,8 @@ describe("small hand-checkable vectors (methods.md §13e; computed by its author
     expectPrinted(s.ice.estimate, 14, 6, "ICE classic form");
     const acc = accumulation(units);
     [2.8, 4.2, 5.3, 6.2, 7].forEach((v, i) => expectPrinted(acc[i]?.richness ?? NaN, v, 6, `Mao Tau h = ${i + 1}`));
-    [0.4, 0.412421, 0.387298, 0.4, 0].forEach((v, i) => expectPrinted(acc[i]?.sd ?? NaN, v, 6, `vegan sd h = ${i + 1}`));
+    [0.4, 0.412421, 0.387298, 0.4, 0].forEach((v, i) =>
+      expectPrinted(acc[i]?.sd ?? NaN, v, 6, `vegan sd h = ${i + 1}`),
+    );
   });
 });

@@ -10,7 +10,10 @@ export function registerServiceWorker(locale: string): Promise<ServiceWorkerRegi
   if (typeof window === "undefined" || !("serviceWorker" in navigator)) return Promise.resolve(undefined);
   registered ??= new Workbox("/sw.js", { scope: "/" }).register().catch(() => undefined);
   // Remember the language, so the installed app opens the field log in it when offline.
-  void caches?.open(PAGE_CACHE).then((c) => c.put(LAST_LOCALE_KEY, new Response(locale))).catch(() => undefined);
+  void caches
+    ?.open(PAGE_CACHE)
+    .then((c) => c.put(LAST_LOCALE_KEY, new Response(locale)))
+    .catch(() => undefined);
   return registered;
 }
 
@@ -18,7 +21,8 @@ export function registerServiceWorker(locale: string): Promise<ServiceWorkerRegi
 export async function requestBackgroundSync(): Promise<void> {
   try {
     const reg = await navigator.serviceWorker?.ready;
-    const sync = (reg as ServiceWorkerRegistration & { sync?: { register(tag: string): Promise<void> } } | undefined)?.sync;
+    const sync = (reg as (ServiceWorkerRegistration & { sync?: { register(tag: string): Promise<void> } }) | undefined)
+      ?.sync;
     await sync?.register(SYNC_TAG);
   } catch {
     // Not supported, or not allowed: the page's own triggers still run.

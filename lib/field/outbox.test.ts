@@ -3,7 +3,18 @@ import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import type { SightingRecord } from "@/lib/sync/records";
 import { openFieldDb } from "./db";
-import { applyAcks, eventRecords, InvalidRecord, makeDueNow, releaseBatch, resetInFlight, saveSession, saveSighting, takeBatch } from "./outbox";
+import {
+  applyAcks,
+  eventRecords,
+  InvalidRecord,
+  makeDueNow,
+  refuseBatch,
+  releaseBatch,
+  resetInFlight,
+  saveSession,
+  saveSighting,
+  takeBatch,
+} from "./outbox";
 
 // The outbox over IndexedDB (fake-indexeddb: an in-memory implementation of the
 // IndexedDB API, run through the real idb wrapper and our real outbox code).
@@ -11,8 +22,19 @@ const EVENT = "11111111-1111-4111-8111-111111111111";
 
 function sighting(over: Partial<SightingRecord> = {}): SightingRecord {
   return {
-    id: randomUUID(), sessionId: null, taxonId: randomUUID(), description: "", count: 2, countIsEstimate: false,
-    observedAt: "2026-12-02T10:00:00.000Z", latitude: 53.301, longitude: -2.095, accuracyM: 8, zoneId: null, notes: "", photoIds: [],
+    id: randomUUID(),
+    sessionId: null,
+    taxonId: randomUUID(),
+    description: "",
+    count: 2,
+    countIsEstimate: false,
+    observedAt: "2026-12-02T10:00:00.000Z",
+    latitude: 53.301,
+    longitude: -2.095,
+    accuracyM: 8,
+    zoneId: null,
+    notes: "",
+    photoIds: [],
     ...over,
   };
 }
@@ -23,14 +45,25 @@ describe("field outbox", () => {
   it("refuses to queue a record the server would refuse, naming the field", async () => {
     const db = await freshDb();
     await expect(saveSighting(db, EVENT, sighting({ count: 0 }), "Mallard")).rejects.toThrow(InvalidRecord);
-    const err = (await saveSighting(db, EVENT, sighting({ latitude: 91 }), "Mallard").catch((e: unknown) => e)) as InvalidRecord;
+    const err = (await saveSighting(db, EVENT, sighting({ latitude: 91 }), "Mallard").catch(
+      (e: unknown) => e,
+    )) as InvalidRecord;
     expect(err.issues[0]?.field).toBe("latitude");
     expect((await eventRecords(db, EVENT)).sightings).toHaveLength(0);
   });
 
   it("keeps a saved record waiting, then sending, then sent once acknowledged", async () => {
     const db = await freshDb();
-    const session = await saveSession(db, EVENT, { id: randomUUID(), zoneId: null, kind: "walk", startedAt: "2026-12-02T09:00:00Z", endedAt: null, allSpeciesNoted: false, distanceM: null, notes: "" });
+    const session = await saveSession(db, EVENT, {
+      id: randomUUID(),
+      zoneId: null,
+      kind: "walk",
+      startedAt: "2026-12-02T09:00:00Z",
+      endedAt: null,
+      allSpeciesNoted: false,
+      distanceM: null,
+      notes: "",
+    });
     const s = await saveSighting(db, EVENT, sighting({ sessionId: session.id }), "Mallard");
     expect(s.state).toBe("waiting");
 
@@ -61,7 +94,14 @@ describe("field outbox", () => {
     const batch = await takeBatch(db, EVENT);
     await applyAcks(db, batch, [
       { kind: "sighting", id: good.id, index: 0, outcome: "already_had" },
-      { kind: "sighting", id: bad.id, index: 1, outcome: "refused", reason: "This taxon is not known.", field: "taxonId" },
+      {
+        kind: "sighting",
+        id: bad.id,
+        index: 1,
+        outcome: "refused",
+        reason: "This taxon is not known.",
+        field: "taxonId",
+      },
     ]);
     expect((await db.get("sightings", good.id))?.state).toBe("sent");
     const refused = await db.get("sightings", bad.id);
@@ -105,7 +145,7 @@ describe("field outbox", () => {
     const b = await saveSighting(db, EVENT, sighting(), "Mallard", [], 2);
     const batch = await takeBatch(db, EVENT);
     await applyAcks(db, batch, [{ kind: "sighting", id: a.id, index: 0, outcome: "created" }]);
-    expect((await db.get("sightings", b.id))).toMatchObject({ state: "waiting", attempts: 1 });
+    expect(await db.get("sightings", b.id)).toMatchObject({ state: "waiting", attempts: 1 });
     await makeDueNow(db);
     await takeBatch(db, EVENT);
     expect((await db.get("sightings", b.id))?.state).toBe("sending");
@@ -120,5 +160,47 @@ describe("field outbox", () => {
     const batch = await takeBatch(db, EVENT);
     await applyAcks(db, batch, [{ kind: "sighting", id: randomUUID(), index: 0, outcome: "created" }], 10);
     expect((await db.get("sightings", s.id))?.state).toBe("waiting");
+  });
+
+  it("shows the server's reason on every record of a batch refused whole, but keeps an edit made meanwhile waiting", async () => {
+    const db = await freshDb();
+    const session = await saveSession(db, EVENT, {
+      id: randomUUID(),
+      zoneId: null,
+      kind: "walk",
+      startedAt: "2026-12-02T09:00:00Z",
+      endedAt: null,
+      allSpeciesNoted: false,
+      distanceM: null,
+      notes: "",
+    });
+    const a = await saveSighting(db, EVENT, sighting(), "Mallard", [], 1);
+    const b = await saveSighting(db, EVENT, sighting(), "Mallard", [], 2);
+    const batch = await takeBatch(db, EVENT);
+    await saveSighting(db, EVENT, { ...b.record, count: 7 }, "Mallard");
+    await refuseBatch(db, batch, "You are not allowed to do this.");
+    expect(await db.get("sessions", session.id)).toMatchObject({
+      state: "failed",
+      reason: "You are not allowed to do this.",
+    });
+    expect(await db.get("sightings", a.id)).toMatchObject({
+      state: "failed",
+      reason: "You are not allowed to do this.",
+      sendingRev: undefined,
+    });
+    expect(await db.get("sightings", b.id)).toMatchObject({ state: "waiting", record: { count: 7 } });
+  });
+
+  it("counts what the server stored and refused, and updates the review state it tells", async () => {
+    const db = await freshDb();
+    const a = await saveSighting(db, EVENT, sighting(), "Mallard", [], 1);
+    const b = await saveSighting(db, EVENT, sighting(), "Mallard", [], 2);
+    const batch = await takeBatch(db, EVENT);
+    const counts = await applyAcks(db, batch, [
+      { kind: "sighting", id: b.id, index: 1, outcome: "refused", reason: "No.", field: "id" },
+      { kind: "sighting", id: a.id, index: 0, outcome: "already_had", reviewState: "approved" },
+    ]);
+    expect(counts).toEqual({ sent: 1, refused: 1 });
+    expect(await db.get("sightings", a.id)).toMatchObject({ state: "sent", reviewState: "approved" });
   });
 });

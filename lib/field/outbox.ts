@@ -1,4 +1,11 @@
-import { sessionRecord, sightingRecord, MAX_BATCH_RECORDS, type SessionRecord, type SightingRecord, type SyncAck } from "@/lib/sync/records";
+import type { SyncAck } from "@/lib/sync/acks";
+import {
+  sessionRecord,
+  sightingRecord,
+  MAX_BATCH_RECORDS,
+  type SessionRecord,
+  type SightingRecord,
+} from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import type { LocalPhoto, LocalSession, LocalSighting, TransientProblem } from "./types";
@@ -12,20 +19,39 @@ export class InvalidRecord extends Error {
   }
 }
 
-function check<T>(schema: { safeParse(v: unknown): { success: true; data: T } | { success: false; error: { issues: { path: PropertyKey[]; code: string }[] } } }, value: unknown): T {
+function check<T>(
+  schema: {
+    safeParse(
+      v: unknown,
+    ): { success: true; data: T } | { success: false; error: { issues: { path: PropertyKey[]; code: string }[] } };
+  },
+  value: unknown,
+): T {
   const parsed = schema.safeParse(value);
-  if (!parsed.success) throw new InvalidRecord(parsed.error.issues.map((i) => ({ field: i.path.map(String).join("."), code: i.code })));
+  if (!parsed.success)
+    throw new InvalidRecord(parsed.error.issues.map((i) => ({ field: i.path.map(String).join("."), code: i.code })));
   return parsed.data;
 }
 
 /** Saves (or replaces, after an edit) a count session; it waits to be sent. */
-export async function saveSession(db: FieldDatabase, eventId: string, input: SessionRecord, now = Date.now()): Promise<LocalSession> {
+export async function saveSession(
+  db: FieldDatabase,
+  eventId: string,
+  input: SessionRecord,
+  now = Date.now(),
+): Promise<LocalSession> {
   const record = check<SessionRecord>(sessionRecord, input);
   const tx = db.transaction("sessions", "readwrite");
   const before = await tx.store.get(record.id);
   const entry: LocalSession = {
-    kind: "session", id: record.id, eventId, record,
-    state: "waiting", rev: (before?.rev ?? 0) + 1, attempts: 0, nextTryAt: 0,
+    kind: "session",
+    id: record.id,
+    eventId,
+    record,
+    state: "waiting",
+    rev: (before?.rev ?? 0) + 1,
+    attempts: 0,
+    nextTryAt: 0,
     savedAt: before?.savedAt ?? now,
   };
   await tx.store.put(entry);
@@ -35,22 +61,42 @@ export async function saveSession(db: FieldDatabase, eventId: string, input: Ses
 
 /** Saves (or replaces, after an edit) a sighting, and its new photos, in one transaction. */
 export async function saveSighting(
-  db: FieldDatabase, eventId: string, input: SightingRecord, taxonLabel: string, photos: Omit<LocalPhoto, "state" | "attempts" | "nextTryAt" | "savedAt" | "eventId" | "sightingId">[] = [], now = Date.now(),
+  db: FieldDatabase,
+  eventId: string,
+  input: SightingRecord,
+  taxonLabel: string,
+  photos: Omit<LocalPhoto, "state" | "attempts" | "nextTryAt" | "savedAt" | "eventId" | "sightingId">[] = [],
+  now = Date.now(),
 ): Promise<LocalSighting> {
-  const record = check<SightingRecord>(sightingRecord, { ...input, photoIds: [...new Set([...(input.photoIds ?? []), ...photos.map((p) => p.id)])] });
+  const record = check<SightingRecord>(sightingRecord, {
+    ...input,
+    photoIds: [...new Set([...(input.photoIds ?? []), ...photos.map((p) => p.id)])],
+  });
   const tx = db.transaction(["sightings", "photos"], "readwrite");
   const store = tx.objectStore("sightings");
   const before = await store.get(record.id);
   const entry: LocalSighting = {
     ...(before ?? {}),
-    kind: "sighting", id: record.id, eventId, record, taxonLabel,
-    state: "waiting", rev: (before?.rev ?? 0) + 1, attempts: 0, nextTryAt: 0,
-    problem: undefined, reason: undefined, field: undefined, sendingRev: undefined,
+    kind: "sighting",
+    id: record.id,
+    eventId,
+    record,
+    taxonLabel,
+    state: "waiting",
+    rev: (before?.rev ?? 0) + 1,
+    attempts: 0,
+    nextTryAt: 0,
+    problem: undefined,
+    reason: undefined,
+    field: undefined,
+    sendingRev: undefined,
     savedAt: before?.savedAt ?? now,
   };
   await store.put(entry);
   for (const p of photos) {
-    await tx.objectStore("photos").put({ ...p, eventId, sightingId: record.id, state: "waiting", attempts: 0, nextTryAt: 0, savedAt: now });
+    await tx
+      .objectStore("photos")
+      .put({ ...p, eventId, sightingId: record.id, state: "waiting", attempts: 0, nextTryAt: 0, savedAt: now });
   }
   await tx.done;
   return entry;
@@ -62,11 +108,22 @@ export type Batch = { sessions: LocalSession[]; sightings: LocalSighting[] };
  * Takes the records that are due and marks them "sending", in one transaction so two
  * senders never take the same record. Sessions go first: a sighting may point at one.
  */
-export async function takeBatch(db: FieldDatabase, eventId: string, now = Date.now(), max = MAX_BATCH_RECORDS): Promise<Batch> {
+export async function takeBatch(
+  db: FieldDatabase,
+  eventId: string,
+  now = Date.now(),
+  max = MAX_BATCH_RECORDS,
+): Promise<Batch> {
   const tx = db.transaction(["sessions", "sightings"], "readwrite");
   const due = <T extends LocalSession | LocalSighting>(r: T) => r.state === "waiting" && r.nextTryAt <= now;
-  const sessions = (await tx.objectStore("sessions").index("byEvent").getAll(eventId)).filter(due).sort((a, b) => a.savedAt - b.savedAt).slice(0, max);
-  const sightings = (await tx.objectStore("sightings").index("byEvent").getAll(eventId)).filter(due).sort((a, b) => a.savedAt - b.savedAt).slice(0, max - sessions.length);
+  const sessions = (await tx.objectStore("sessions").index("byEvent").getAll(eventId))
+    .filter(due)
+    .sort((a, b) => a.savedAt - b.savedAt)
+    .slice(0, max);
+  const sightings = (await tx.objectStore("sightings").index("byEvent").getAll(eventId))
+    .filter(due)
+    .sort((a, b) => a.savedAt - b.savedAt)
+    .slice(0, max - sessions.length);
   for (const s of sessions) await tx.objectStore("sessions").put({ ...s, state: "sending", sendingRev: s.rev });
   for (const s of sightings) await tx.objectStore("sightings").put({ ...s, state: "sending", sendingRev: s.rev });
   await tx.done;
@@ -82,83 +139,135 @@ export function batchBody(batch: Batch): { sessions: SessionRecord[]; sightings:
 
 const STORED = new Set(["created", "already_had", "updated"]);
 
+type Taken = LocalSession | LocalSighting;
+
+/**
+ * The one way a batch's records change after it went out: each record of the batch is read
+ * again (it may have been edited meanwhile) and `next` says what it becomes, or null to
+ * leave it as it is. One transaction for the whole batch.
+ */
+async function settleBatch(db: FieldDatabase, batch: Batch, next: (current: Taken, taken: Taken) => Taken | null) {
+  const tx = db.transaction(["sessions", "sightings"], "readwrite");
+  for (const taken of [...batch.sessions, ...batch.sightings]) {
+    const store = tx.objectStore(taken.kind === "session" ? "sessions" : "sightings") as unknown as {
+      get(id: string): Promise<Taken | undefined>;
+      put(v: Taken): Promise<unknown>;
+    };
+    const current = await store.get(taken.id);
+    const changed = current ? next(current, taken) : null;
+    if (changed) await store.put(changed);
+  }
+  await tx.done;
+}
+
+/** A record still in flight goes back to waiting, to be tried again after a back-off. */
+function tryLater<T extends Taken>(
+  current: T,
+  problem: TransientProblem,
+  now: number,
+  random?: () => number,
+): T | null {
+  if (current.state !== "sending") return null; // edited meanwhile: it already waits, as the edit
+  const attempts = current.attempts + 1;
+  return {
+    ...current,
+    state: "waiting",
+    sendingRev: undefined,
+    attempts,
+    nextTryAt: now + backoffDelay(attempts, random),
+    problem,
+  };
+}
+
 /**
  * Applies the server's answer. Only acknowledged records leave the outbox (as "sent"); a
  * refused one is "failed" with its reason; a record edited while its batch was in flight
  * goes back to "waiting" so the edit is sent too; a record without an answer waits again.
  */
-export async function applyAcks(db: FieldDatabase, batch: Batch, acks: SyncAck[], now = Date.now()): Promise<{ sent: number; refused: number }> {
-  const tx = db.transaction(["sessions", "sightings"], "readwrite");
+export async function applyAcks(
+  db: FieldDatabase,
+  batch: Batch,
+  acks: SyncAck[],
+  now = Date.now(),
+): Promise<{ sent: number; refused: number }> {
+  const answers = new Map<string, SyncAck>();
+  for (const ack of acks) {
+    const taken = (ack.kind === "session" ? batch.sessions : batch.sightings)[ack.index];
+    const key = `${ack.kind}:${taken?.id}`;
+    if (taken && (ack.id === null || ack.id === taken.id) && !answers.has(key)) answers.set(key, ack);
+  }
   let sent = 0;
   let refused = 0;
-  const answered = new Set<string>();
-  for (const ack of acks) {
-    const list = ack.kind === "session" ? batch.sessions : batch.sightings;
-    const taken = list[ack.index];
-    if (!taken || (ack.id !== null && ack.id !== taken.id)) continue;
-    answered.add(`${ack.kind}:${taken.id}`);
-    const store = ack.kind === "session" ? tx.objectStore("sessions") : tx.objectStore("sightings");
-    const current = await store.get(taken.id);
-    if (!current) continue;
+  await settleBatch(db, batch, (current, taken) => {
+    const ack = answers.get(`${taken.kind}:${taken.id}`);
+    if (!ack) return tryLater(current, "server", now);
     const edited = current.rev !== taken.sendingRev;
-    let next: typeof current;
-    if (STORED.has(ack.outcome)) {
-      sent++;
-      next = edited
-        ? { ...current, state: "waiting", sendingRev: undefined, attempts: 0, nextTryAt: 0 }
-        : { ...current, state: "sent", sendingRev: undefined, attempts: 0, nextTryAt: 0, problem: undefined, reason: undefined, field: undefined, sentAt: now };
-      if (current.kind === "sighting" && ack.reviewState) (next as LocalSighting).reviewState = ack.reviewState;
-      if (current.kind === "sighting" && !edited && (next as LocalSighting).record.answer) {
-        // The answer went with this version; a later edit is a new conversation.
-        (next as LocalSighting).question = undefined;
-      }
-    } else {
+    if (!STORED.has(ack.outcome)) {
       refused++;
-      next = edited
+      return edited
         ? { ...current, state: "waiting", sendingRev: undefined }
-        : { ...current, state: "failed", sendingRev: undefined, reason: ack.reason ?? "", field: ack.field, problem: undefined };
+        : {
+            ...current,
+            state: "failed",
+            sendingRev: undefined,
+            reason: ack.reason ?? "",
+            field: ack.field,
+            problem: undefined,
+          };
     }
-    await (store as unknown as { put(v: typeof next): Promise<unknown> }).put(next);
-  }
-  for (const [kind, list] of [["session", batch.sessions], ["sighting", batch.sightings]] as const) {
-    for (const taken of list) {
-      if (answered.has(`${kind}:${taken.id}`)) continue;
-      const store = kind === "session" ? tx.objectStore("sessions") : tx.objectStore("sightings");
-      const current = await store.get(taken.id);
-      if (current?.state === "sending") {
-        const attempts = current.attempts + 1;
-        await (store as unknown as { put(v: unknown): Promise<unknown> }).put({ ...current, state: "waiting", sendingRev: undefined, attempts, nextTryAt: now + backoffDelay(attempts), problem: "server" });
-      }
+    sent++;
+    const next: Taken = edited
+      ? { ...current, state: "waiting", sendingRev: undefined, attempts: 0, nextTryAt: 0 }
+      : {
+          ...current,
+          state: "sent",
+          sendingRev: undefined,
+          attempts: 0,
+          nextTryAt: 0,
+          problem: undefined,
+          reason: undefined,
+          field: undefined,
+          sentAt: now,
+        };
+    if (next.kind === "sighting") {
+      if (ack.reviewState) next.reviewState = ack.reviewState;
+      // The answer went with this version; a later edit is a new conversation.
+      if (!edited && next.record.answer) next.question = undefined;
     }
-  }
-  await tx.done;
+    return next;
+  });
   return { sent, refused };
 }
 
 /** The whole batch did not go through for a reason that is not the records' fault: wait, then try again. */
-export async function releaseBatch(db: FieldDatabase, batch: Batch, problem: TransientProblem, now = Date.now(), random?: () => number) {
-  const tx = db.transaction(["sessions", "sightings"], "readwrite");
-  for (const [name, list] of [["sessions", batch.sessions], ["sightings", batch.sightings]] as const) {
-    const store = tx.objectStore(name);
-    for (const taken of list) {
-      const current = await store.get(taken.id);
-      if (!current || current.state !== "sending") continue;
-      const attempts = current.attempts + 1;
-      await (store as unknown as { put(v: unknown): Promise<unknown> }).put({ ...current, state: "waiting", sendingRev: undefined, attempts, nextTryAt: now + backoffDelay(attempts, random), problem });
-    }
-  }
-  await tx.done;
+export async function releaseBatch(
+  db: FieldDatabase,
+  batch: Batch,
+  problem: TransientProblem,
+  now = Date.now(),
+  random?: () => number,
+) {
+  await settleBatch(db, batch, (current) => tryLater(current, problem, now, random));
 }
 
 /** The server refused the whole batch (not a member any more, the event closed): each record shows why. */
 export async function refuseBatch(db: FieldDatabase, batch: Batch, reason: string) {
-  const tx = db.transaction(["sessions", "sightings"], "readwrite");
-  for (const [name, list] of [["sessions", batch.sessions], ["sightings", batch.sightings]] as const) {
-    const store = tx.objectStore(name);
-    for (const taken of list) {
-      const current = await store.get(taken.id);
-      if (!current || current.state !== "sending") continue;
-      await (store as unknown as { put(v: unknown): Promise<unknown> }).put({ ...current, state: "failed", sendingRev: undefined, reason, problem: undefined });
+  await settleBatch(db, batch, (current) =>
+    current.state === "sending"
+      ? { ...current, state: "failed", sendingRev: undefined, reason, problem: undefined }
+      : null,
+  );
+}
+
+/** Walks every session, sighting and photo on the device; `next` returns the new value, or null to leave one alone. */
+async function rewriteEvery(db: FieldDatabase, next: (v: LocalSession | LocalSighting | LocalPhoto) => object | null) {
+  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
+  for (const name of ["sessions", "sightings", "photos"] as const) {
+    let cursor = await tx.objectStore(name).openCursor();
+    while (cursor) {
+      const changed = next(cursor.value);
+      if (changed) await cursor.update(changed as never);
+      cursor = await cursor.continue();
     }
   }
   await tx.done;
@@ -169,29 +278,14 @@ export async function refuseBatch(db: FieldDatabase, batch: Batch, reason: strin
  * Call only while holding the sync lock (lib/field/sync.ts), when nothing is in flight.
  */
 export async function resetInFlight(db: FieldDatabase) {
-  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
-  for (const name of ["sessions", "sightings", "photos"] as const) {
-    let cursor = await tx.objectStore(name).openCursor();
-    while (cursor) {
-      if (cursor.value.state === "sending") await cursor.update({ ...cursor.value, state: "waiting", sendingRev: undefined } as never);
-      cursor = await cursor.continue();
-    }
-  }
-  await tx.done;
+  await rewriteEvery(db, (v) => (v.state === "sending" ? { ...v, state: "waiting", sendingRev: undefined } : null));
 }
 
 /** "Try again now": the network came back, or the person asked. */
 export async function makeDueNow(db: FieldDatabase, eventId?: string) {
-  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
-  for (const name of ["sessions", "sightings", "photos"] as const) {
-    let cursor = await tx.objectStore(name).openCursor();
-    while (cursor) {
-      const v = cursor.value;
-      if ((!eventId || v.eventId === eventId) && v.state === "waiting" && v.nextTryAt > 0) await cursor.update({ ...v, nextTryAt: 0 } as never);
-      cursor = await cursor.continue();
-    }
-  }
-  await tx.done;
+  await rewriteEvery(db, (v) =>
+    (!eventId || v.eventId === eventId) && v.state === "waiting" && v.nextTryAt > 0 ? { ...v, nextTryAt: 0 } : null,
+  );
 }
 
 export async function eventRecords(db: FieldDatabase, eventId: string) {

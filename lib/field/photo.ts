@@ -3,7 +3,15 @@
 // metadata). The server checks type and size again and strips metadata itself.
 export const MAX_SIDE_PX = 1600;
 
-export type PreparedPhoto = { id: string; blob: Blob; contentType: "image/jpeg" | "image/png" | "image/webp"; sizeBytes: number; sha256: string; width: number; height: number };
+export type PreparedPhoto = {
+  id: string;
+  blob: Blob;
+  contentType: "image/jpeg" | "image/png" | "image/webp";
+  sizeBytes: number;
+  sha256: string;
+  width: number;
+  height: number;
+};
 
 export async function sha256Hex(blob: Blob): Promise<string> {
   const digest = await crypto.subtle.digest("SHA-256", await blob.arrayBuffer());
@@ -22,6 +30,16 @@ export async function preparePhoto(file: File | Blob): Promise<PreparedPhoto> {
   if (!ctx) throw new Error("no_canvas");
   ctx.drawImage(bitmap, 0, 0, width, height);
   bitmap.close();
-  const blob = await new Promise<Blob>((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("encode_failed"))), "image/jpeg", 0.82));
-  return { id: crypto.randomUUID(), blob, contentType: "image/jpeg", sizeBytes: blob.size, sha256: await sha256Hex(blob), width, height };
+  const blob = await new Promise<Blob>((resolve, reject) =>
+    canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("encode_failed"))), "image/jpeg", 0.82),
+  );
+  return {
+    id: crypto.randomUUID(),
+    blob,
+    contentType: "image/jpeg",
+    sizeBytes: blob.size,
+    sha256: await sha256Hex(blob),
+    width,
+    height,
+  };
 }

@@ -5,7 +5,11 @@ import type { PackSpecies } from "./types";
 
 const species: PackSpecies[] = SEED_TAXA.map((t, i) => ({
   id: `00000000-0000-4000-8000-${String(i).padStart(12, "0")}`,
-  scientificName: t.scientificName, rank: "species", taxonGroup: t.group, sensitivity: t.sensitivity ?? "open", onList: true,
+  scientificName: t.scientificName,
+  rank: "species",
+  taxonGroup: t.group,
+  sensitivity: t.sensitivity ?? "open",
+  onList: true,
   names: { en: t.names.en, es: t.names.es, fr: t.names.fr },
 }));
 const idOf = (scientific: string) => species.find((s) => s.scientificName === scientific)!.id;
@@ -44,7 +48,12 @@ describe("offline species search", () => {
     for (let i = 0; i < 5; i++) usage = recordUsage(usage, idOf("Anas platyrhynchos"), old);
     usage = recordUsage(usage, idOf("Ardea cinerea"));
     const after = en.search("", usage);
-    expect(after.slice(0, 2).map((h) => h.scientificName).sort()).toEqual(["Anas platyrhynchos", "Ardea cinerea"]);
+    expect(
+      after
+        .slice(0, 2)
+        .map((h) => h.scientificName)
+        .sort(),
+    ).toEqual(["Anas platyrhynchos", "Ardea cinerea"]);
     expect(before[0]?.scientificName).not.toBe(after[0]?.scientificName);
     expect(after.length).toBe(before.length);
   });

@@ -5,14 +5,28 @@ import type { PackSpecies } from "./types";
 // (then the event's other languages) and scientific names, forgiving accents, case and
 // small typos; the species this person records most, and most lately, come first.
 
-export type SpeciesHit = { taxonId: string; label: string; scientificName: string; otherNames: string[]; onList: boolean; sensitivity: PackSpecies["sensitivity"]; taxonGroup: string };
+export type SpeciesHit = {
+  taxonId: string;
+  label: string;
+  scientificName: string;
+  otherNames: string[];
+  onList: boolean;
+  sensitivity: PackSpecies["sensitivity"];
+  taxonGroup: string;
+};
 
 /** Usage per taxon on this device: how often, and when last. */
 export type Usage = Record<string, { n: number; last: number }>;
 
 /** Lower case, accents off ("Héron" → "heron", "Ánade" → "anade"), ß and œ spelled out. */
 export function fold(text: string): string {
-  return text.normalize("NFD").replace(/\p{M}+/gu, "").toLowerCase().replace(/ß/g, "ss").replace(/œ/g, "oe").replace(/æ/g, "ae");
+  return text
+    .normalize("NFD")
+    .replace(/\p{M}+/gu, "")
+    .toLowerCase()
+    .replace(/ß/g, "ss")
+    .replace(/œ/g, "oe")
+    .replace(/æ/g, "ae");
 }
 
 export function speciesLabel(s: PackSpecies, locale: string): string {
@@ -33,9 +47,15 @@ export function usageScore(u: { n: number; last: number } | undefined, now = Dat
 export function buildSpeciesIndex(species: PackSpecies[], locale: string): SpeciesIndex {
   const byId = new Map(species.map((s) => [s.id, s]));
   const hit = (s: PackSpecies): SpeciesHit => ({
-    taxonId: s.id, label: speciesLabel(s, locale), scientificName: s.scientificName,
-    otherNames: Object.entries(s.names).filter(([l]) => l !== locale).map(([, n]) => n),
-    onList: s.onList, sensitivity: s.sensitivity, taxonGroup: s.taxonGroup,
+    taxonId: s.id,
+    label: speciesLabel(s, locale),
+    scientificName: s.scientificName,
+    otherNames: Object.entries(s.names)
+      .filter(([l]) => l !== locale)
+      .map(([, n]) => n),
+    onList: s.onList,
+    sensitivity: s.sensitivity,
+    taxonGroup: s.taxonGroup,
   });
   const mini = new MiniSearch<Doc>({
     fields: ["common", "scientific", "others"],
@@ -49,9 +69,22 @@ export function buildSpeciesIndex(species: PackSpecies[], locale: string): Speci
       combineWith: "AND",
     },
   });
-  mini.addAll(species.map((s) => ({ id: s.id, common: speciesLabel(s, locale), scientific: s.scientificName, others: Object.entries(s.names).filter(([l]) => l !== locale).map(([, n]) => n).join(" ") })));
+  mini.addAll(
+    species.map((s) => ({
+      id: s.id,
+      common: speciesLabel(s, locale),
+      scientific: s.scientificName,
+      others: Object.entries(s.names)
+        .filter(([l]) => l !== locale)
+        .map(([, n]) => n)
+        .join(" "),
+    })),
+  );
 
-  const alphabetical = [...species].sort((a, b) => Number(b.onList) - Number(a.onList) || speciesLabel(a, locale).localeCompare(speciesLabel(b, locale), locale));
+  const alphabetical = [...species].sort(
+    (a, b) =>
+      Number(b.onList) - Number(a.onList) || speciesLabel(a, locale).localeCompare(speciesLabel(b, locale), locale),
+  );
 
   return {
     search(query, usage = {}, limit = 30) {
@@ -59,12 +92,18 @@ export function buildSpeciesIndex(species: PackSpecies[], locale: string): Speci
       const now = Date.now();
       if (!q) {
         // No query: the person's recent and frequent species, then the list A–Z.
-        const used = species.filter((s) => usage[s.id]).sort((a, b) => usageScore(usage[b.id], now) - usageScore(usage[a.id], now));
+        const used = species
+          .filter((s) => usage[s.id])
+          .sort((a, b) => usageScore(usage[b.id], now) - usageScore(usage[a.id], now));
         const rest = alphabetical.filter((s) => !usage[s.id]);
         return [...used, ...rest].slice(0, limit).map(hit);
       }
       let results = mini.search(q, { boostDocument: (id) => 1 + usageScore(usage[String(id)], now) / 2 });
-      if (results.length === 0) results = mini.search(q, { combineWith: "OR", boostDocument: (id) => 1 + usageScore(usage[String(id)], now) / 2 });
+      if (results.length === 0)
+        results = mini.search(q, {
+          combineWith: "OR",
+          boostDocument: (id) => 1 + usageScore(usage[String(id)], now) / 2,
+        });
       return results.slice(0, limit).flatMap((r) => {
         const s = byId.get(String(r.id));
         return s ? [hit(s)] : [];

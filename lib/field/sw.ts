@@ -25,14 +25,16 @@ cleanupOutdatedCaches();
 // so the Content-Security-Policy in the cache names the same nonce as the cached page's
 // scripts. Redirects (to sign-in) and errors are never kept.
 const keepGoodPages = {
-  cacheWillUpdate: async ({ response }: { response: Response }) => (response.ok && response.type === "basic" && !response.redirected ? response : null),
+  cacheWillUpdate: async ({ response }: { response: Response }) =>
+    response.ok && response.type === "basic" && !response.redirected ? response : null,
   cacheKeyWillBeUsed: async ({ request }: { request: Request }) => {
     const url = new URL(request.url);
     return `${url.origin}${url.pathname.replace(/\/$/, "")}`;
   },
 };
 registerRoute(
-  ({ request, url }) => request.mode === "navigate" && url.origin === self.location.origin && FIELD_PAGE.test(url.pathname),
+  ({ request, url }) =>
+    request.mode === "navigate" && url.origin === self.location.origin && FIELD_PAGE.test(url.pathname),
   new NetworkFirst({ cacheName: PAGE_CACHE, networkTimeoutSeconds: 4, plugins: [keepGoodPages] }),
 );
 
@@ -48,7 +50,8 @@ registerRoute(
       const cache = await caches.open(PAGE_CACHE);
       const last = await (await cache.match(LAST_LOCALE_KEY))?.text();
       for (const path of [`/${last}/field`, ...FIELD_PAGES]) {
-        if (await cache.match(new URL(path, self.location.origin).href)) return Response.redirect(`${path}${url.search}`, 302);
+        if (await cache.match(new URL(path, self.location.origin).href))
+          return Response.redirect(`${path}${url.search}`, 302);
       }
       return Response.error();
     }
@@ -63,19 +66,23 @@ precacheAndRoute(self.__WB_MANIFEST, { ignoreURLParametersMatching: [/^utm_/, /^
 // is dropped rather than kept: a page from an older build would ask for files this
 // version no longer precaches.
 self.addEventListener("install", (event) => {
-  event.waitUntil((async () => {
-    const cache = await caches.open(PAGE_CACHE);
-    await Promise.all(FIELD_PAGES.map(async (path) => {
-      const key = new URL(path, self.location.origin).href;
-      try {
-        const res = await fetch(path, { credentials: "same-origin", redirect: "manual", cache: "no-store" });
-        if (res.ok && res.type === "basic") await cache.put(key, res);
-        else await cache.delete(key);
-      } catch {
-        // Offline during install: keep what is there.
-      }
-    }));
-  })());
+  event.waitUntil(
+    (async () => {
+      const cache = await caches.open(PAGE_CACHE);
+      await Promise.all(
+        FIELD_PAGES.map(async (path) => {
+          const key = new URL(path, self.location.origin).href;
+          try {
+            const res = await fetch(path, { credentials: "same-origin", redirect: "manual", cache: "no-store" });
+            if (res.ok && res.type === "basic") await cache.put(key, res);
+            else await cache.delete(key);
+          } catch {
+            // Offline during install: keep what is there.
+          }
+        }),
+      );
+    })(),
+  );
 });
 
 async function notifyPages() {

@@ -1,20 +1,31 @@
-import { sightingRecord, type SyncAck } from "@/lib/sync/records";
+import { api, ApiClientError } from "@/lib/http/client";
+import type { SyncAck, SyncResponse } from "@/lib/sync/acks";
+import type { MineResponse, MySighting } from "@/lib/sync/mine";
+import { sightingRecord } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import { applyAcks, batchBody, refuseBatch, releaseBatch, resetInFlight, takeBatch } from "./outbox";
-import type { EventPack, LocalPhoto, MineItem, ReviewState, StoredPack, TransientProblem } from "./types";
+import type { EventPack, LocalPhoto, MineItem, StoredPack, TransientProblem } from "./types";
 
 // Sending the outbox: one sender at a time per device (Web Locks, shared by the tabs and
 // the service worker), batches of sessions and sightings, then photos of acknowledged
 // sightings, then a fresh list of the person's own records with their review states.
 // Runs in a page and in the service worker (Background Sync): no React, no DOM.
 
-export type SyncReport = { ran: boolean; sent: number; refused: number; photosSent: number; problem?: TransientProblem };
+export type SyncReport = {
+  ran: boolean;
+  sent: number;
+  refused: number;
+  photosSent: number;
+  problem?: TransientProblem;
+};
 
 const LOCK = "ecotone-field-sync";
 const MAX_ROUNDS = 20;
 
-type LockManagerLike = { request<T>(name: string, opts: { ifAvailable: boolean }, cb: (lock: unknown) => Promise<T>): Promise<T> };
+type LockManagerLike = {
+  request<T>(name: string, opts: { ifAvailable: boolean }, cb: (lock: unknown) => Promise<T>): Promise<T>;
+};
 
 async function withLock<T>(fallback: T, fn: () => Promise<T>): Promise<T> {
   const locks = (globalThis.navigator as { locks?: LockManagerLike } | undefined)?.locks;
@@ -29,13 +40,21 @@ function problemFor(status: number): TransientProblem | null {
   return null;
 }
 
-async function errorMessage(res: Response): Promise<string> {
-  const body = (await res.json().catch(() => null)) as { error?: { message?: string; fields?: { field: string; message: string }[] } } | null;
-  const field = body?.error?.fields?.[0];
-  return [body?.error?.message, field ? `${field.field}: ${field.message}` : null].filter(Boolean).join(" — ") || `HTTP ${res.status}`;
+/** The reason kept with a refused record: the server's message and the first field at fault. */
+function refusalText(error: ApiClientError): string {
+  const field = error.fields[0];
+  return (
+    [error.message, field ? `${field.field}: ${field.message}` : null].filter(Boolean).join(" — ") ||
+    `HTTP ${error.status}`
+  );
 }
 
-const json = { "content-type": "application/json" };
+/** No answer, or a 2xx answer cut off before its body was read: the server may have acted. */
+const noAnswer = (error: ApiClientError) => error.code === "network";
+const cutAnswer = (error: ApiClientError) => error.code === "unreadable" && error.status >= 200 && error.status < 300;
+
+// The photo handlers' answers (app/api/events/[eventId]/photos/schema.ts).
+type PhotoPlan = { outcome: "upload"; uploadUrl: string; headers: Record<string, string> } | { outcome: "already_had" };
 
 // A request that hangs must not hold the outbox: give up and try again later.
 const API_TIMEOUT_MS = 60_000;
@@ -43,36 +62,43 @@ const UPLOAD_TIMEOUT_MS = 180_000;
 const timeout = (ms: number) => (typeof AbortSignal.timeout === "function" ? AbortSignal.timeout(ms) : undefined);
 
 /** Sends what is due for one event. `onProgress` runs after each stored batch and photo, so the screen can follow. */
-export async function syncEvent(db: FieldDatabase, eventId: string, now: () => number = Date.now, onProgress?: () => void): Promise<SyncReport> {
+export async function syncEvent(
+  db: FieldDatabase,
+  eventId: string,
+  now: () => number = Date.now,
+  onProgress?: () => void,
+): Promise<SyncReport> {
   return withLock<SyncReport>({ ran: false, sent: 0, refused: 0, photosSent: 0 }, async () => {
     await resetInFlight(db); // we hold the lock: anything "sending" is left over from a crash
     const report: SyncReport = { ran: true, sent: 0, refused: 0, photosSent: 0 };
     for (let round = 0; round < MAX_ROUNDS; round++) {
       const batch = await takeBatch(db, eventId, now());
       if (batch.sessions.length + batch.sightings.length === 0) break;
-      let res: Response;
-      try {
-        res = await fetch(`/api/events/${eventId}/sync`, { method: "POST", headers: json, body: JSON.stringify(batchBody(batch)), credentials: "same-origin", signal: timeout(API_TIMEOUT_MS) });
-      } catch {
+      const res = await api.call<SyncResponse>(`/api/events/${eventId}/sync`, {
+        method: "POST",
+        body: batchBody(batch),
+        signal: timeout(API_TIMEOUT_MS),
+      });
+      if (!res.ok && noAnswer(res.error)) {
         await releaseBatch(db, batch, "offline", now());
         report.problem = "offline";
         return report;
       }
-      if (res.ok) {
-        const body = (await res.json().catch(() => null)) as { acks?: SyncAck[] } | null;
-        const r = await applyAcks(db, batch, Array.isArray(body?.acks) ? body.acks : [], now());
+      if (res.ok || cutAnswer(res.error)) {
+        // A cut answer acknowledges nothing: every record of the batch waits and goes again.
+        const r = await applyAcks(db, batch, res.ok ? res.data.acks : [], now());
         report.sent += r.sent;
         report.refused += r.refused;
         onProgress?.();
         continue;
       }
-      const problem = problemFor(res.status);
+      const problem = problemFor(res.error.status);
       if (problem) {
         await releaseBatch(db, batch, problem, now());
         report.problem = problem;
         return report;
       }
-      await refuseBatch(db, batch, await errorMessage(res));
+      await refuseBatch(db, batch, refusalText(res.error));
       report.refused += batch.sessions.length + batch.sightings.length;
     }
     const photos = await sendPhotos(db, eventId, now, onProgress);
@@ -87,8 +113,15 @@ export async function syncEvent(db: FieldDatabase, eventId: string, now: () => n
 }
 
 /** Photos go after their sighting is acknowledged: register, PUT the bytes to the presigned URL, confirm. */
-async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number, onProgress?: () => void): Promise<{ sent: number; problem?: TransientProblem }> {
-  const photos = (await db.getAllFromIndex("photos", "byEvent", eventId)).filter((p) => p.state === "waiting" && p.nextTryAt <= now());
+async function sendPhotos(
+  db: FieldDatabase,
+  eventId: string,
+  now: () => number,
+  onProgress?: () => void,
+): Promise<{ sent: number; problem?: TransientProblem }> {
+  const photos = (await db.getAllFromIndex("photos", "byEvent", eventId)).filter(
+    (p) => p.state === "waiting" && p.nextTryAt <= now(),
+  );
   let sent = 0;
   for (const photo of photos) {
     const sighting = await db.get("sightings", photo.sightingId);
@@ -98,106 +131,191 @@ async function sendPhotos(db: FieldDatabase, eventId: string, now: () => number,
     const current = (await db.get("photos", photo.id)) ?? photo;
     if (outcome.ok) {
       sent++;
-      await db.put("photos", { ...current, state: "sent", sentAt: now(), attempts: 0, nextTryAt: 0, problem: undefined, reason: undefined });
+      await db.put("photos", {
+        ...current,
+        state: "sent",
+        sentAt: now(),
+        attempts: 0,
+        nextTryAt: 0,
+        problem: undefined,
+        reason: undefined,
+      });
       onProgress?.();
     } else if (outcome.refused !== undefined) {
       await db.put("photos", { ...current, state: "failed", reason: outcome.refused, problem: undefined });
     } else {
       const attempts = current.attempts + 1;
-      await db.put("photos", { ...current, state: "waiting", attempts, nextTryAt: now() + backoffDelay(attempts), problem: outcome.problem });
+      await db.put("photos", {
+        ...current,
+        state: "waiting",
+        attempts,
+        nextTryAt: now() + backoffDelay(attempts),
+        problem: outcome.problem,
+      });
       return { sent, problem: outcome.problem };
     }
   }
   return { sent };
 }
 
-type UploadOutcome = { ok: true } | { ok: false; refused: string; problem?: undefined } | { ok: false; refused?: undefined; problem: TransientProblem };
+type UploadOutcome =
+  | { ok: true }
+  | { ok: false; refused: string; problem?: undefined }
+  | { ok: false; refused?: undefined; problem: TransientProblem };
 
 async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOutcome> {
-  const fail = async (res: Response): Promise<UploadOutcome> => {
-    const problem = problemFor(res.status);
-    return problem ? { ok: false, problem } : { ok: false, refused: await errorMessage(res) };
+  const fail = (error: ApiClientError): UploadOutcome => {
+    if (noAnswer(error)) return { ok: false, problem: "offline" };
+    const problem = problemFor(error.status);
+    return problem ? { ok: false, problem } : { ok: false, refused: refusalText(error) };
   };
+  const meta = {
+    id: photo.id,
+    sightingId: photo.sightingId,
+    contentType: photo.contentType,
+    sizeBytes: photo.sizeBytes,
+    sha256: photo.sha256,
+    width: photo.width,
+    height: photo.height,
+  };
+  const start = await api.call<PhotoPlan>(`/api/events/${eventId}/photos`, {
+    method: "POST",
+    body: meta,
+    signal: timeout(API_TIMEOUT_MS),
+  });
+  if (!start.ok) return cutAnswer(start.error) ? { ok: false, problem: "offline" } : fail(start.error);
+  const plan = start.data;
+  if (plan.outcome === "already_had") return { ok: true };
+  // The bytes go to the photo store's presigned URL: not one of our handlers, so a plain fetch.
+  let put: Response;
   try {
-    const meta = { id: photo.id, sightingId: photo.sightingId, contentType: photo.contentType, sizeBytes: photo.sizeBytes, sha256: photo.sha256, width: photo.width, height: photo.height };
-    const start = await fetch(`/api/events/${eventId}/photos`, { method: "POST", headers: json, body: JSON.stringify(meta), credentials: "same-origin", signal: timeout(API_TIMEOUT_MS) });
-    if (!start.ok) return fail(start);
-    const plan = (await start.json()) as { uploadUrl?: string; headers?: Record<string, string>; outcome?: string };
-    if (plan.outcome === "already_had") return { ok: true };
-    if (!plan.uploadUrl) return { ok: false, problem: "server" };
-    const put = await fetch(plan.uploadUrl, { method: "PUT", headers: plan.headers ?? { "content-type": photo.contentType }, body: photo.blob, credentials: "omit", signal: timeout(UPLOAD_TIMEOUT_MS) });
-    if (!put.ok) return put.status >= 500 ? { ok: false, problem: "server" } : { ok: false, refused: `HTTP ${put.status}` };
-    const confirm = await fetch(`/api/events/${eventId}/photos/${photo.id}/confirm`, { method: "POST", headers: json, body: "{}", credentials: "same-origin", signal: timeout(UPLOAD_TIMEOUT_MS) });
-    if (!confirm.ok) return fail(confirm);
-    const done = (await confirm.json().catch(() => ({}))) as { outcome?: string; reason?: string };
-    if (done.outcome === "refused") return { ok: false, refused: done.reason ?? "" };
-    return { ok: true };
+    put = await fetch(plan.uploadUrl, {
+      method: "PUT",
+      headers: plan.headers,
+      body: photo.blob,
+      credentials: "omit",
+      signal: timeout(UPLOAD_TIMEOUT_MS),
+    });
   } catch {
     return { ok: false, problem: "offline" };
   }
+  if (!put.ok)
+    return put.status >= 500 ? { ok: false, problem: "server" } : { ok: false, refused: `HTTP ${put.status}` };
+  const confirm = await api.call(`/api/events/${eventId}/photos/${photo.id}/confirm`, {
+    method: "POST",
+    body: {},
+    signal: timeout(UPLOAD_TIMEOUT_MS),
+  });
+  // A cut answer after a 2xx: the server has the photo (it says "already had" next time).
+  if (!confirm.ok && !cutAnswer(confirm.error)) return fail(confirm.error);
+  return { ok: true };
 }
 
 /** The fields of a sighting record, out of one row of GET …/sightings/mine. */
-function pickRecord(row: unknown): Record<string, unknown> {
-  const x = (row ?? {}) as Record<string, unknown>;
+function pickRecord(x: MySighting): Record<string, unknown> {
   return {
-    id: x.id, sessionId: x.sessionId ?? null, taxonId: x.taxonId ?? null, description: x.description ?? "", count: x.count,
-    countIsEstimate: x.countIsEstimate ?? false, observedAt: x.observedAt, latitude: x.latitude, longitude: x.longitude,
-    accuracyM: x.accuracyM, zoneId: x.zoneId ?? null, notes: x.notes ?? "", photoIds: [],
+    id: x.id,
+    sessionId: x.sessionId,
+    taxonId: x.taxonId,
+    description: x.description,
+    count: x.count,
+    countIsEstimate: x.countIsEstimate,
+    observedAt: x.observedAt,
+    latitude: x.latitude,
+    longitude: x.longitude,
+    accuracyM: x.accuracyM,
+    zoneId: x.zoneId,
+    notes: x.notes,
+    photoIds: [],
   };
 }
 
 /** The person's own sightings with their review state; returned ones carry the coordinator's question. */
 export async function refreshMine(db: FieldDatabase, eventId: string): Promise<MineItem[] | null> {
-  const res = await fetch(`/api/events/${eventId}/sightings/mine`, { credentials: "same-origin", cache: "no-store" });
-  if (!res.ok) return null;
-  const body = (await res.json()) as { sightings?: unknown[] } | unknown[];
-  const raw = Array.isArray(body) ? body : Array.isArray(body.sightings) ? body.sightings : [];
-  const items: MineItem[] = raw.flatMap((r) => {
-    const x = r as Record<string, unknown>;
-    if (typeof x.id !== "string" || typeof x.reviewState !== "string") return [];
-    const q = x.question ?? (x.returnQuestion as unknown) ?? null;
-    return [{ id: x.id, reviewState: x.reviewState as ReviewState, version: Number(x.version ?? 1), question: typeof q === "string" ? q : null, taxonId: (x.taxonId as string | null) ?? null, count: x.count as number | undefined, observedAt: x.observedAt as string | undefined }];
-  });
+  const res = await api.call<MineResponse>(`/api/events/${eventId}/sightings/mine`, { cache: "no-store" });
+  if (!res.ok) {
+    if (noAnswer(res.error) || cutAnswer(res.error)) throw res.error;
+    return null;
+  }
+  const raw = res.data.sightings;
+  const items: MineItem[] = raw.map((x) => ({
+    id: x.id,
+    reviewState: x.reviewState,
+    version: x.version,
+    question: x.question,
+    taxonId: x.taxonId,
+    count: x.count,
+    observedAt: x.observedAt,
+  }));
   await db.put("mine", { eventId, fetchedAt: Date.now(), items });
   const stored = await db.get("packs", eventId);
   const locale = (globalThis.document?.documentElement.lang || globalThis.navigator?.language || "en").slice(0, 2);
   const tx = db.transaction("sightings", "readwrite");
-  const rawById = new Map(raw.map((r) => [(r as { id?: unknown }).id, r]));
-  for (const item of items) {
+  for (const [i, item] of items.entries()) {
+    const row = raw[i]!;
     const local = await tx.store.get(item.id);
     if (!local) {
       // Sent from another phone, or before this one was cleared: kept as a sent record so
       // its review state shows, and a returned one can be answered from here.
-      const parsed = sightingRecord.safeParse(pickRecord(rawById.get(item.id)));
+      const parsed = sightingRecord.safeParse(pickRecord(row));
       if (!parsed.success) continue;
       const species = stored?.pack.species.find((sp) => sp.id === parsed.data.taxonId);
-      const label = species ? (species.names[locale] ?? species.names.en ?? species.scientificName) : ((rawById.get(item.id) as { scientificName?: string }).scientificName ?? parsed.data.description);
+      const label = species
+        ? (species.names[locale] ?? species.names.en ?? species.scientificName)
+        : (row.scientificName ?? parsed.data.description);
       const at = Date.parse(parsed.data.observedAt);
       await tx.store.put({
-        kind: "sighting", id: item.id, eventId, state: "sent", rev: 0, attempts: 0, nextTryAt: 0, savedAt: at, sentAt: at,
-        record: parsed.data, taxonLabel: label, reviewState: item.reviewState, serverVersion: item.version,
+        kind: "sighting",
+        id: item.id,
+        eventId,
+        state: "sent",
+        rev: 0,
+        attempts: 0,
+        nextTryAt: 0,
+        savedAt: at,
+        sentAt: at,
+        record: parsed.data,
+        taxonLabel: label,
+        reviewState: item.reviewState,
+        serverVersion: item.version,
         question: item.reviewState === "returned" ? (item.question ?? undefined) : undefined,
       });
       continue;
     }
     // A local edit waiting to go out keeps its own text; the states still update.
-    await tx.store.put({ ...local, reviewState: item.reviewState, serverVersion: item.version, question: item.reviewState === "returned" ? (item.question ?? local.question) : local.record.answer ? local.question : undefined });
+    await tx.store.put({
+      ...local,
+      reviewState: item.reviewState,
+      serverVersion: item.version,
+      question:
+        item.reviewState === "returned"
+          ? (item.question ?? local.question)
+          : local.record.answer
+            ? local.question
+            : undefined,
+    });
   }
   await tx.done;
   return items;
 }
 
 /** Downloads the event pack when it changed (ETag), and keeps it for offline use. */
-export async function refreshPack(db: FieldDatabase, eventId: string): Promise<{ changed: boolean; pack: StoredPack | null }> {
+export async function refreshPack(
+  db: FieldDatabase,
+  eventId: string,
+): Promise<{ changed: boolean; pack: StoredPack | null }> {
   const stored = await db.get("packs", eventId);
-  const headers: Record<string, string> = {};
-  if (stored?.etag) headers["if-none-match"] = stored.etag;
-  const res = await fetch(`/api/events/${eventId}/pack`, { headers, credentials: "same-origin", cache: "no-cache" });
-  if (res.status === 304 && stored) return { changed: false, pack: stored };
-  if (!res.ok) return { changed: false, pack: stored ?? null };
-  const pack = (await res.json()) as EventPack;
-  const next: StoredPack = { eventId, etag: res.headers.get("etag"), pack, fetchedAt: Date.now() };
+  let res: Awaited<ReturnType<typeof api.getIfChanged<EventPack>>>;
+  try {
+    res = await api.getIfChanged<EventPack>(`/api/events/${eventId}/pack`, stored?.etag ?? null, { cache: "no-cache" });
+  } catch (err) {
+    // No answer (or a cut one) is thrown: the caller learns it is offline. A refusal keeps what is stored.
+    if (err instanceof ApiClientError && !noAnswer(err) && !cutAnswer(err))
+      return { changed: false, pack: stored ?? null };
+    throw err;
+  }
+  if (!res.changed) return { changed: false, pack: stored ?? null };
+  const next: StoredPack = { eventId, etag: res.etag, pack: res.data, fetchedAt: Date.now() };
   await db.put("packs", next);
   return { changed: true, pack: next };
 }

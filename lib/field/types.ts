@@ -1,10 +1,16 @@
-import type { SessionRecord, SightingRecord } from "@/lib/sync/records";
-import type { EventPack as ServerPack, PackSpecies as ServerSpecies } from "@/db/queries/pack";
+import type { MySighting } from "@/lib/sync/mine";
+import type { EventPack } from "@/lib/sync/pack";
+import type { DeviceState } from "@/lib/domain";
+import type { ReviewState, SessionRecord, SightingRecord } from "@/lib/sync/records";
+
+// The server's half of what the phone keeps (records, pack, review states) is the sync
+// contract in lib/sync; re-exported here for the field log's screens.
+export type { ArealGeometry, EventPack, PackSpecies, ZoneCollection, ZoneFeature } from "@/lib/sync/pack";
+export type { ReviewState } from "@/lib/sync/records";
 
 // What the device keeps in IndexedDB. Every record goes to the outbox first and is sent
 // later; its device state (design.md "Words") says where it is on that way.
-export type DeviceState = "waiting" | "sending" | "sent" | "failed";
-export type ReviewState = "pending" | "approved" | "rejected" | "returned";
+export type { DeviceState } from "@/lib/domain";
 
 /** Why the last try did not go through, when it was not the record's fault. */
 export type TransientProblem = "offline" | "server" | "signin" | "busy";
@@ -54,26 +60,22 @@ export type LocalPhoto = {
   sentAt?: number;
 };
 
-// The event pack as the server sends it (GET /api/events/{id}/pack, db/queries/pack.ts).
-
-export type PackSpecies = ServerSpecies;
-export type PolygonGeometry = { type: "Polygon"; coordinates: number[][][] } | { type: "MultiPolygon"; coordinates: number[][][][] };
-export type ZoneFeature = { type: "Feature"; id: string; properties: { name: string; habitat: string; description?: string }; geometry: PolygonGeometry };
-export type ZoneCollection = { type: "FeatureCollection"; features: ZoneFeature[] };
-export type EventPack = Omit<ServerPack, "zones"> & { zones: ZoneCollection };
+// The event pack as last downloaded, with its ETag.
 export type StoredPack = { eventId: string; etag: string | null; pack: EventPack; fetchedAt: number };
 
-/** One of the person's own sightings as the server has it (GET …/sightings/mine). */
-export type MineItem = {
-  id: string;
-  reviewState: ReviewState;
-  version: number;
-  question?: string | null;
-  taxonId?: string | null;
-  count?: number;
-  observedAt?: string;
-};
+/** One of the person's own sightings as the server has it (GET …/sightings/mine), the parts the phone keeps. */
+export type MineItem = Pick<
+  MySighting,
+  "id" | "reviewState" | "version" | "question" | "taxonId" | "count" | "observedAt"
+>;
 export type StoredMine = { eventId: string; fetchedAt: number; items: MineItem[] };
 
 /** Events the person may record in, as the field log page last listed them. */
-export type KnownEvent = { id: string; name: string; timeZone: string; startsAt: string; endsAt: string; status: string };
+export type KnownEvent = {
+  id: string;
+  name: string;
+  timeZone: string;
+  startsAt: string;
+  endsAt: string;
+  status: string;
+};

@@ -3,7 +3,11 @@ import type { ZoneCollection, ZoneFeature } from "./types";
 
 // The zone a point falls in, found on the device (the server confirms with PostGIS).
 // GeoJSON positions are [longitude, latitude] (RFC 7946, section 3.1.1).
-export function zoneAt(zones: ZoneCollection | null | undefined, latitude: number, longitude: number): ZoneFeature | null {
+export function zoneAt(
+  zones: ZoneCollection | null | undefined,
+  latitude: number,
+  longitude: number,
+): ZoneFeature | null {
   if (!zones) return null;
   for (const f of zones.features) {
     if (booleanPointInPolygon([longitude, latitude], f.geometry)) return f;
@@ -11,26 +15,13 @@ export function zoneAt(zones: ZoneCollection | null | undefined, latitude: numbe
   return null;
 }
 
-/** The bounding box of all zones: [west, south, east, north]. */
-export function bounds(zones: ZoneCollection): [number, number, number, number] | null {
-  let w = Infinity, s = Infinity, e = -Infinity, n = -Infinity;
-  const visit = (ring: number[][]) => {
-    for (const [x, y] of ring) {
-      if (x === undefined || y === undefined) continue;
-      w = Math.min(w, x); e = Math.max(e, x); s = Math.min(s, y); n = Math.max(n, y);
-    }
-  };
-  for (const f of zones.features) {
-    if (f.geometry.type === "Polygon") f.geometry.coordinates.forEach(visit);
-    else f.geometry.coordinates.forEach((p) => p.forEach(visit));
-  }
-  return Number.isFinite(w) ? [w, s, e, n] : null;
-}
-
 const EARTH_RADIUS_M = 6_371_008.8; // mean Earth radius (IUGG), from memory
 
 /** Great-circle distance in metres (haversine formula). */
-export function distanceM(a: { latitude: number; longitude: number }, b: { latitude: number; longitude: number }): number {
+export function distanceM(
+  a: { latitude: number; longitude: number },
+  b: { latitude: number; longitude: number },
+): number {
   const rad = Math.PI / 180;
   const dLat = (b.latitude - a.latitude) * rad;
   const dLon = (b.longitude - a.longitude) * rad;

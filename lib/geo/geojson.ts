@@ -3,26 +3,53 @@
 // "zone inside the area" are then checked by PostGIS (db/queries/setup-zones.ts).
 // Pure: no database, no framework.
 
-export const HABITATS = ["interior", "edge", "wetland", "open_water", "grassland", "woodland", "urban", "other"] as const;
-export type HabitatCode = (typeof HABITATS)[number];
+import { HABITATS, type Habitat } from "@/lib/domain";
+import type { ArealGeometry as Geometry } from "./areal";
+
 export const MAX_FEATURES = 200;
 export const MAX_POSITIONS = 100_000;
 export const MAX_ZONE_NAME = 120;
 
-export type Geometry = { type: "Polygon"; coordinates: number[][][] } | { type: "MultiPolygon"; coordinates: number[][][][] };
-
 export type GeoProblemCode =
-  | "notFeatureCollection" | "noFeatures" | "tooManyFeatures" | "tooManyPositions" | "crsNotWgs84"
-  | "notFeature" | "noGeometry" | "wrongGeometryType" | "badCoordinates" | "badPosition" | "longitudeRange" | "latitudeRange"
-  | "ringTooShort" | "ringNotClosed" | "missingName" | "nameTooLong" | "duplicateName" | "missingHabitat" | "unknownHabitat"
-  | "unknownKind" | "noArea" | "twoAreas" | "noZones"
+  | "notFeatureCollection"
+  | "noFeatures"
+  | "tooManyFeatures"
+  | "tooManyPositions"
+  | "crsNotWgs84"
+  | "notFeature"
+  | "noGeometry"
+  | "wrongGeometryType"
+  | "badCoordinates"
+  | "badPosition"
+  | "longitudeRange"
+  | "latitudeRange"
+  | "ringTooShort"
+  | "ringNotClosed"
+  | "missingName"
+  | "nameTooLong"
+  | "duplicateName"
+  | "missingHabitat"
+  | "unknownHabitat"
+  | "unknownKind"
+  | "noArea"
+  | "twoAreas"
+  | "noZones"
   // From PostGIS (db/queries/setup-zones.ts):
-  | "invalidGeometry" | "outsideArea" | "overlapsZone" | "zoneHasRecords" | "unreadableGeometry";
+  | "invalidGeometry"
+  | "outsideArea"
+  | "overlapsZone"
+  | "zoneHasRecords"
+  | "unreadableGeometry";
 
 /** One problem; `feature` is the 0-based index in `features` (null: the whole file). */
-export type GeoProblem = { feature: number | null; name?: string; code: GeoProblemCode; values?: Record<string, string | number> };
+export type GeoProblem = {
+  feature: number | null;
+  name?: string;
+  code: GeoProblemCode;
+  values?: Record<string, string | number>;
+};
 
-export type ZoneInput = { feature: number; name: string; habitat: HabitatCode; description: string; geometry: Geometry };
+export type ZoneInput = { feature: number; name: string; habitat: Habitat; description: string; geometry: Geometry };
 export type AreaInput = { feature: number; geometry: Geometry };
 export type ParsedUpload = { area: AreaInput | null; zones: ZoneInput[]; problems: GeoProblem[] };
 
@@ -37,7 +64,8 @@ function crsIsWgs84(crs: unknown): boolean {
 
 /** Checks a position (RFC 7946 §3.1.1: two or three numbers, longitude first). */
 function positionProblem(p: unknown): GeoProblemCode | null {
-  if (!Array.isArray(p) || p.length < 2 || p.length > 3 || !p.every((n) => typeof n === "number" && Number.isFinite(n))) return "badPosition";
+  if (!Array.isArray(p) || p.length < 2 || p.length > 3 || !p.every((n) => typeof n === "number" && Number.isFinite(n)))
+    return "badPosition";
   const [lon, lat] = p as number[];
   if (lon! < -180 || lon! > 180) return "longitudeRange";
   if (lat! < -90 || lat! > 90) return "latitudeRange";
@@ -45,7 +73,10 @@ function positionProblem(p: unknown): GeoProblemCode | null {
 }
 
 /** Problems of one Polygon's rings (RFC 7946 §3.1.6: closed, at least four positions). */
-function ringsProblems(rings: unknown, count: { n: number }): { code: GeoProblemCode; values?: Record<string, string | number> }[] {
+function ringsProblems(
+  rings: unknown,
+  count: { n: number },
+): { code: GeoProblemCode; values?: Record<string, string | number> }[] {
   if (!Array.isArray(rings) || rings.length === 0) return [{ code: "badCoordinates" }];
   const out: { code: GeoProblemCode; values?: Record<string, string | number> }[] = [];
   rings.forEach((ring, r) => {
@@ -58,7 +89,10 @@ function ringsProblems(rings: unknown, count: { n: number }): { code: GeoProblem
       const problem = positionProblem(ring[i]);
       if (problem) {
         const p = ring[i] as number[];
-        out.push({ code: problem, values: { ring: r + 1, position: i + 1, value: Array.isArray(p) ? p.slice(0, 3).join(", ") : String(p) } });
+        out.push({
+          code: problem,
+          values: { ring: r + 1, position: i + 1, value: Array.isArray(p) ? p.slice(0, 3).join(", ") : String(p) },
+        });
         return;
       }
     }
@@ -84,15 +118,22 @@ export function parseAreaAndZones(input: unknown): ParsedUpload {
   }
   if (input.crs !== undefined && !crsIsWgs84(input.crs)) problems.push({ feature: null, code: "crsNotWgs84" });
   const features = input.features as unknown[];
-  if (features.length === 0) return { area: null, zones: [], problems: [...problems, { feature: null, code: "noFeatures" }] };
-  if (features.length > MAX_FEATURES) return { area: null, zones: [], problems: [...problems, { feature: null, code: "tooManyFeatures", values: { maximum: MAX_FEATURES } }] };
+  if (features.length === 0)
+    return { area: null, zones: [], problems: [...problems, { feature: null, code: "noFeatures" }] };
+  if (features.length > MAX_FEATURES)
+    return {
+      area: null,
+      zones: [],
+      problems: [...problems, { feature: null, code: "tooManyFeatures", values: { maximum: MAX_FEATURES } }],
+    };
 
   let area: AreaInput | null = null;
   const zones: ZoneInput[] = [];
   const names = new Map<string, number>();
   const count = { n: 0 };
   features.forEach((f, i) => {
-    const at = (code: GeoProblemCode, values?: Record<string, string | number>, name?: string) => problems.push({ feature: i, code, values, name });
+    const at = (code: GeoProblemCode, values?: Record<string, string | number>, name?: string) =>
+      problems.push({ feature: i, code, values, name });
     if (!isObject(f) || f.type !== "Feature") return at("notFeature");
     const props = isObject(f.properties) ? f.properties : {};
     const kind = props.kind === undefined ? "zone" : String(props.kind).trim().toLowerCase();
@@ -106,7 +147,12 @@ export function parseAreaAndZones(input: unknown): ParsedUpload {
       at("wrongGeometryType", { found: String(geometry.type) }, label || undefined);
       geomOk = false;
     } else {
-      const polys = geometry.type === "Polygon" ? [geometry.coordinates] : Array.isArray(geometry.coordinates) && geometry.coordinates.length ? geometry.coordinates : [null];
+      const polys =
+        geometry.type === "Polygon"
+          ? [geometry.coordinates]
+          : Array.isArray(geometry.coordinates) && geometry.coordinates.length
+            ? geometry.coordinates
+            : [null];
       for (const rings of polys) {
         for (const p of ringsProblems(rings, count)) {
           at(p.code, p.values, label || undefined);
@@ -128,17 +174,32 @@ export function parseAreaAndZones(input: unknown): ParsedUpload {
       if (first !== undefined) at("duplicateName", { first: first + 1 }, label);
       else names.set(label.toLowerCase(), i);
     }
-    const habitatRaw = typeof props.habitat === "string" ? props.habitat.trim().toLowerCase().replace(/[\s-]+/g, "_") : "";
+    const habitatRaw =
+      typeof props.habitat === "string"
+        ? props.habitat
+            .trim()
+            .toLowerCase()
+            .replace(/[\s-]+/g, "_")
+        : "";
     if (!habitatRaw) at("missingHabitat", undefined, label || undefined);
-    else if (!(HABITATS as readonly string[]).includes(habitatRaw)) at("unknownHabitat", { value: String(props.habitat), allowed: HABITATS.join(", ") }, label || undefined);
+    else if (!(HABITATS as readonly string[]).includes(habitatRaw))
+      at("unknownHabitat", { value: String(props.habitat), allowed: HABITATS.join(", ") }, label || undefined);
     const description = typeof props.description === "string" ? props.description.trim().slice(0, 1000) : "";
     if (geomOk && label && label.length <= MAX_ZONE_NAME && (HABITATS as readonly string[]).includes(habitatRaw)) {
-      zones.push({ feature: i, name: label, habitat: habitatRaw as HabitatCode, description, geometry: geometry as Geometry });
+      zones.push({
+        feature: i,
+        name: label,
+        habitat: habitatRaw as Habitat,
+        description,
+        geometry: geometry as Geometry,
+      });
     }
   });
-  if (count.n > MAX_POSITIONS) problems.push({ feature: null, code: "tooManyPositions", values: { maximum: MAX_POSITIONS } });
+  if (count.n > MAX_POSITIONS)
+    problems.push({ feature: null, code: "tooManyPositions", values: { maximum: MAX_POSITIONS } });
   if (!area) problems.push({ feature: null, code: "noArea" });
-  if (!features.some((f) => isObject(f) && (!isObject(f.properties) || (f.properties.kind ?? "zone") === "zone"))) problems.push({ feature: null, code: "noZones" });
+  if (!features.some((f) => isObject(f) && (!isObject(f.properties) || (f.properties.kind ?? "zone") === "zone")))
+    problems.push({ feature: null, code: "noZones" });
   const a = area as AreaInput | null;
   return { area: a && a.geometry ? a : null, zones, problems };
 }

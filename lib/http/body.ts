@@ -1,13 +1,25 @@
 import { z } from "zod";
-import { ApiError, apiTranslator, requestLocale, zodFieldProblems } from "./errors";
+import { ApiError, apiTranslator, requestLocale, zodApiError, type MessageKeys } from "./errors";
 
 export const MAX_JSON_BYTES = 1_000_000;
 
+export type BodyOptions = {
+  maxBytes?: number;
+  /** The namespace of the message keys the schema's issues carry (a schema shared with a form), e.g. "Setup.errors". */
+  messages?: MessageKeys;
+};
+
 /**
- * Reads and validates a JSON body: never a cast (conventions, "things to avoid").
- * Too large, not JSON, or not matching the schema: a 400/413-style answer naming the field.
+ * The one request-body reader: reads and validates a JSON body, never a cast (conventions,
+ * "things to avoid"). Too large, not JSON, or not matching the schema: a 400 naming each
+ * wrong field, in the caller's language.
  */
-export async function parseJson<T extends z.ZodType>(request: Request, schema: T, maxBytes = MAX_JSON_BYTES): Promise<z.infer<T>> {
+export async function parseJson<T extends z.ZodType>(
+  request: Request,
+  schema: T,
+  options: BodyOptions = {},
+): Promise<z.infer<T>> {
+  const { maxBytes = MAX_JSON_BYTES, messages } = options;
   const locale = requestLocale(request);
   const text = await readBody(request, maxBytes, locale);
   let data: unknown;
@@ -17,7 +29,7 @@ export async function parseJson<T extends z.ZodType>(request: Request, schema: T
     throw new ApiError("bad_request", [{ field: "(body)", message: apiTranslator(locale)("field.notJson") }]);
   }
   const parsed = schema.safeParse(data);
-  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, locale));
+  if (!parsed.success) throw zodApiError(parsed.error, locale, messages);
   return parsed.data;
 }
 
@@ -29,7 +41,8 @@ export async function parseJson<T extends z.ZodType>(request: Request, schema: T
  */
 async function readBody(request: Request, maxBytes: number, locale: ReturnType<typeof requestLocale>): Promise<string> {
   const t = apiTranslator(locale);
-  const tooLarge = () => new ApiError("bad_request", [{ field: "(body)", message: t("field.tooLarge", { maximum: maxBytes }) }]);
+  const tooLarge = () =>
+    new ApiError("bad_request", [{ field: "(body)", message: t("field.tooLarge", { maximum: maxBytes }) }]);
   const declared = Number(request.headers.get("content-length") ?? NaN);
   if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge();
   if (!request.body) return "";

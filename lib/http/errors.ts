@@ -1,7 +1,9 @@
+import { createTranslator } from "next-intl";
 import { z } from "zod";
 import { env } from "@/lib/env";
 import { isLocale, routing, type Locale } from "@/lib/i18n/routing";
-import { translator } from "@/lib/i18n/translator";
+import { catalogues, translator } from "@/lib/i18n/translator";
+import { NUL_ISSUE } from "@/lib/validation/text";
 
 // One error type for every route handler (conventions, habit 5): a code maps to an
 // HTTP status and a translated message a person can act on.
@@ -20,6 +22,9 @@ export const errorStatus = {
 export type ErrorCode = keyof typeof errorStatus;
 
 export type FieldProblem = { field: string; message: string };
+
+/** The body of every error answer (errorResponse writes it; lib/http/client.ts reads it). */
+export type ApiErrorBody = { error: { code: ErrorCode; message: string; fields: FieldProblem[] } };
 
 export class ApiError extends Error {
   constructor(
@@ -48,18 +53,73 @@ export function apiTranslator(locale: Locale) {
   return translator(locale, "ApiErrors");
 }
 
-/** Field problems from a zod error, in the person's language, naming the field. */
-export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProblem[] {
+type Catalogue = (typeof catalogues)["en"];
+/** A namespace of message keys that schemas may use as their zod messages, e.g. "Setup.errors". */
+export type MessageKeys = {
+  [N in keyof Catalogue & string]: {
+    [M in keyof Catalogue[N] & string]: Catalogue[N][M] extends Record<string, string> ? `${N}.${M}` : never;
+  }[keyof Catalogue[N] & string];
+}[keyof Catalogue & string];
+
+function keyedMessage(namespace: MessageKeys | undefined, message: string, locale: Locale): string | null {
+  if (!namespace) return null;
+  const [top, sub] = namespace.split(".") as [keyof Catalogue, string];
+  const keys = (catalogues.en[top] as Record<string, Record<string, string>>)[sub];
+  if (!keys || !Object.hasOwn(keys, message)) return null;
+  return createTranslator({ locale, messages: catalogues[locale], namespace: namespace as never })(message as never);
+}
+
+type Expected = "int" | "number" | "boolean" | "string" | "array" | "object";
+const EXPECTED = new Set<string>(["int", "number", "boolean", "string", "array", "object"]);
+
+/**
+ * A refused input as an ApiError: 422 when a value of the right type holds a character that
+ * cannot be stored (NUL), 400 for every other shape problem; each problem names its field.
+ */
+export function zodApiError(error: z.ZodError, locale: Locale, messages?: MessageKeys): ApiError {
+  const code = error.issues.some((i) => i.code === "custom" && i.message === NUL_ISSUE)
+    ? "unprocessable"
+    : "bad_request";
+  return new ApiError(code, zodFieldProblems(error, locale, messages));
+}
+
+/**
+ * Field problems from a zod error, in the person's language, naming the field. A schema
+ * shared with a form may give its issues message keys of one namespace (`messages`, e.g.
+ * "Setup.errors"): those are translated as they are; any other issue gets the general text.
+ */
+export function zodFieldProblems(error: z.ZodError, locale: Locale, messages?: MessageKeys): FieldProblem[] {
   const t = apiTranslator(locale);
   return error.issues.map((issue) => {
     const at = issue.path.map(String);
     // An unknown key is named as the field itself, so the caller sees which one to drop.
-    const field = issue.code === "unrecognized_keys" ? [...at, issue.keys.join(",")].join(".") : at.length ? at.join(".") : "(body)";
+    const field =
+      issue.code === "unrecognized_keys"
+        ? [...at, issue.keys.join(",")].join(".")
+        : at.length
+          ? at.join(".")
+          : "(body)";
+    const keyed = keyedMessage(messages, issue.message, locale);
+    if (keyed !== null) return { field, message: keyed };
     let message: string;
     switch (issue.code) {
-      case "invalid_type":
-        message = issue.input === undefined ? t("field.required") : t("field.wrongType", { expected: String(issue.expected) });
+      case "invalid_type": {
+        // Zod 4 leaves the input out of its issues; its own message still says what arrived.
+        const received =
+          "input" in issue
+            ? issue.input === null
+              ? "null"
+              : typeof issue.input
+            : /received (\w+)/.exec(issue.message)?.[1];
+        const expected = String(issue.expected);
+        message =
+          received === "undefined"
+            ? t("field.required")
+            : EXPECTED.has(expected)
+              ? t(`field.expected.${expected as Expected}`)
+              : t("field.wrongType", { expected });
         break;
+      }
       case "too_small":
         message = t("field.tooSmall", { minimum: String(issue.minimum) });
         break;
@@ -72,6 +132,9 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProble
       case "invalid_value":
         message = t("field.notAllowed", { allowed: issue.values.map(String).join(", ") });
         break;
+      case "custom":
+        message = issue.message === NUL_ISSUE ? t("field.invalidChar") : t("field.invalid");
+        break;
       default:
         message = t("field.invalid");
     }
@@ -81,10 +144,10 @@ export function zodFieldProblems(error: z.ZodError, locale: Locale): FieldProble
 
 export function errorResponse(error: ApiError, locale: Locale): Response {
   const t = apiTranslator(locale);
-  return Response.json(
-    { error: { code: error.code, message: t(`code.${error.code}`, error.values), fields: error.fields } },
-    { status: errorStatus[error.code], headers: { "Cache-Control": "no-store" } },
-  );
+  const body: ApiErrorBody = {
+    error: { code: error.code, message: t(`code.${error.code}`, error.values), fields: error.fields },
+  };
+  return Response.json(body, { status: errorStatus[error.code], headers: { "Cache-Control": "no-store" } });
 }
 
 /**
@@ -99,7 +162,7 @@ export function handle<Ctx>(fn: (request: Request, ctx: Ctx) => Promise<Response
       return await fn(request, ctx);
     } catch (err) {
       if (err instanceof ApiError) return errorResponse(err, locale);
-      if (err instanceof z.ZodError) return errorResponse(new ApiError("bad_request", zodFieldProblems(err, locale)), locale);
+      if (err instanceof z.ZodError) return errorResponse(zodApiError(err, locale), locale);
       console.error("[api] unhandled error", request.method, new URL(request.url).pathname, err);
       return errorResponse(new ApiError("internal"), locale);
     }
@@ -127,9 +190,9 @@ export function assertSameOrigin(request: Request): void {
 }
 
 /** Parses URL query parameters with a strict zod schema (unknown parameters are refused). */
-export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.infer<T> {
+export function parseQuery<T extends z.ZodType>(request: Request, schema: T, messages?: MessageKeys): z.infer<T> {
   const params = Object.fromEntries(new URL(request.url).searchParams);
   const parsed = schema.safeParse(params);
-  if (!parsed.success) throw new ApiError("bad_request", zodFieldProblems(parsed.error, requestLocale(request)));
+  if (!parsed.success) throw zodApiError(parsed.error, requestLocale(request), messages);
   return parsed.data;
 }

@@ -21,5 +21,8 @@ export function jsonWithEtag(request: Request, value: unknown): Response {
   const etag = `"${createHash("sha256").update(body).digest("base64url")}"`;
   const headers = { ETag: etag, "Cache-Control": "private, no-cache", Vary: "Cookie" };
   if (ifNoneMatchHits(request.headers.get("if-none-match"), etag)) return new Response(null, { status: 304, headers });
-  return new Response(body, { status: 200, headers: { ...headers, "Content-Type": "application/json; charset=utf-8" } });
+  return new Response(body, {
+    status: 200,
+    headers: { ...headers, "Content-Type": "application/json; charset=utf-8" },
+  });
 }

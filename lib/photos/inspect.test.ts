@@ -3,7 +3,9 @@ import { describe, expect, it } from "vitest";
 import { inspectPhoto, sniffType } from "./inspect";
 
 const picture = (format: "jpeg" | "png" | "webp", width = 30, height = 20) =>
-  sharp({ create: { width, height, channels: 3, background: { r: 40, g: 90, b: 50 } } }).toFormat(format).toBuffer();
+  sharp({ create: { width, height, channels: 3, background: { r: 40, g: 90, b: 50 } } })
+    .toFormat(format)
+    .toBuffer();
 
 describe("inspectPhoto", () => {
   it("reads the type and size of JPEG, PNG and WebP pictures from their bytes", async () => {
@@ -20,7 +22,10 @@ describe("inspectPhoto", () => {
   });
 
   it("reports the size as seen when EXIF turns the picture a quarter", async () => {
-    const turned = await sharp(await picture("jpeg", 30, 20)).withMetadata({ orientation: 6 }).jpeg().toBuffer();
+    const turned = await sharp(await picture("jpeg", 30, 20))
+      .withMetadata({ orientation: 6 })
+      .jpeg()
+      .toBuffer();
     expect(inspectPhoto(turned)).toEqual({ type: "image/jpeg", width: 20, height: 30 });
   });
 });

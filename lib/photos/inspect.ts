@@ -17,6 +17,17 @@ export function sniffType(bytes: Uint8Array): PhotoType | null {
   return null;
 }
 
+/**
+ * The most pixels a photo may have, by its header and when decoded: 40 megapixels is above
+ * every phone camera's still size in common use (common practice) and far under sharp's own
+ * default limit (about 268 megapixels), so a file whose header claims 50,000 × 50,000 pixels
+ * (a decompression bomb) is refused before anything decodes it.
+ */
+export const MAX_PHOTO_PIXELS = 40_000_000;
+
+/** Whether a picture of this size may be decoded at all. */
+export const withinPixelLimit = (width: number, height: number, limit = MAX_PHOTO_PIXELS) => width * height <= limit;
+
 export type PhotoFacts = { type: PhotoType; width: number; height: number };
 
 /** Type and pixel size of a picture, or null when the bytes are not a readable JPEG, PNG or WebP. */

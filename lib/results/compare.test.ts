@@ -12,7 +12,8 @@ describe("comparison at equal coverage", () => {
     ];
     for (const counts of samples) {
       const p = profileOf({ kind: "abundance", counts });
-      for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995]) expect(sizeAtCoverage(p, c), `${c}`).toBe(sizeForCoverage(p, c));
+      for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995])
+        expect(sizeAtCoverage(p, c), `${c}`).toBe(sizeForCoverage(p, c));
     }
   });
 
@@ -25,11 +26,25 @@ describe("comparison at equal coverage", () => {
   });
 
   it("compares on complete sessions when counts are not of individuals, and says 'more' only on an interval above 0", () => {
-    const taxa: ResultsTaxon[] = Array.from({ length: 40 }, (_, i) => ({ id: `p${i}`, scientificName: `Planta s${i}`, rank: "species", group: "vascular_plants", sensitivity: "open", names: {}, countUnit: "clumps" }));
-    const zones = [{ id: "e", name: "Edge", habitat: "edge" }, { id: "i", name: "Inside", habitat: "interior" }];
+    const taxa: ResultsTaxon[] = Array.from({ length: 40 }, (_, i) => ({
+      id: `p${i}`,
+      scientificName: `Planta s${i}`,
+      rank: "species",
+      group: "vascular_plants",
+      sensitivity: "open",
+      names: {},
+      countUnit: "clumps",
+    }));
+    const zones = [
+      { id: "e", name: "Edge", habitat: "edge" },
+      { id: "i", name: "Inside", habitat: "interior" },
+    ];
     // Hand-made: the edge's 12 sessions each hold 8 of 40 species in rotation; the interior's hold the same 3.
     const sessions = [
-      ...Array.from({ length: 12 }, (_, u) => ({ zoneId: "e", taxa: Array.from({ length: 8 }, (_, k) => (u * 3 + k) % 40) })),
+      ...Array.from({ length: 12 }, (_, u) => ({
+        zoneId: "e",
+        taxa: Array.from({ length: 8 }, (_, k) => (u * 3 + k) % 40),
+      })),
       ...Array.from({ length: 12 }, () => ({ zoneId: "i", taxa: [0, 1, 2] })),
     ];
     const counts = sessions.flatMap((s) => s.taxa.map((t) => ({ zoneId: s.zoneId, taxon: t, individuals: 2 })));

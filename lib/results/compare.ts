@@ -12,12 +12,19 @@ import { sizeForCoverage } from "@/lib/diversity/compare";
 import { curvePoint } from "@/lib/diversity/curves";
 import { undetectedChao } from "@/lib/diversity/richness";
 
-export type Sample = { kind: "abundance"; counts: readonly number[] } | { kind: "incidence"; frequencies: readonly number[]; units: number };
+export type Sample =
+  | { kind: "abundance"; counts: readonly number[] }
+  | { kind: "incidence"; frequencies: readonly number[]; units: number };
 
 const Z95 = 1.959963984540054;
 
 export function profileOf(s: Sample): FrequencyProfile {
-  if (s.kind === "abundance") return buildProfile("abundance", s.counts, s.counts.reduce((a, b) => a + b, 0));
+  if (s.kind === "abundance")
+    return buildProfile(
+      "abundance",
+      s.counts,
+      s.counts.reduce((a, b) => a + b, 0),
+    );
   return buildProfile("incidence", s.frequencies, s.units);
 }
 
@@ -133,9 +140,16 @@ export function differenceInterval(estimateA: number, estimateB: number, a: Floa
 }
 
 /** The difference a − b of richness at coverage c, with its bootstrap interval (fixed seeds: `seed` for a, `seed + 1` for b). */
-export function differenceAtCoverage(a: Sample, b: Sample, c: number, options: { replicates: number; seed: number }): Difference {
+export function differenceAtCoverage(
+  a: Sample,
+  b: Sample,
+  c: number,
+  options: { replicates: number; seed: number },
+): Difference {
   return differenceInterval(
-    richnessAtCoverage(profileOf(a), c), richnessAtCoverage(profileOf(b), c),
-    bootstrapAtCoverage(a, c, options), bootstrapAtCoverage(b, c, { ...options, seed: options.seed + 1 }),
+    richnessAtCoverage(profileOf(a), c),
+    richnessAtCoverage(profileOf(b), c),
+    bootstrapAtCoverage(a, c, options),
+    bootstrapAtCoverage(b, c, { ...options, seed: options.seed + 1 }),
   );
 }

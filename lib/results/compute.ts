@@ -6,14 +6,18 @@
 // individuals get incidence-based estimates only, and a block below the sufficiency
 // thresholds (settings.ts) is "too few records", without estimates.
 import {
-  diversityResults, ENGINE_VERSION,
-  type AbundanceStats, type CurvePoint, type IncidenceStats,
+  diversityResults,
+  ENGINE_VERSION,
+  type AbundanceStats,
+  type CurvePoint,
+  type IncidenceStats,
 } from "@/lib/diversity/index";
 import { curvePoint } from "@/lib/diversity/curves";
 import { sizeForCoverage } from "@/lib/diversity/compare";
 import { bootstrapAtCoverage, differenceInterval, profileOf, type Sample } from "./compare";
 import { resolveRanks, type RankStatus } from "./ranks";
 import { COMPARISON_BOOTSTRAP, countUnitOf, SUFFICIENCY, type CountUnit } from "./settings";
+import type { Sensitivity } from "@/lib/domain";
 
 export const NO_ZONE = "00000000-0000-0000-0000-000000000000";
 export const CURVE_POINTS = 40;
@@ -23,14 +27,19 @@ export type ResultsTaxon = {
   scientificName: string;
   rank: string;
   group: string;
-  sensitivity: "open" | "generalised" | "restricted";
+  sensitivity: Sensitivity;
   names: Record<string, string>;
   /** What this taxon's counts mean in the event (settings.ts); individuals when absent. */
   countUnit?: CountUnit;
 };
 
 /** Sightings not (yet) in the results: waiting for review, or returned to their recorder. */
-export type Pending = { pending: number; returned: number; pendingInCompleteSessions: number; returnedInCompleteSessions: number };
+export type Pending = {
+  pending: number;
+  returned: number;
+  pendingInCompleteSessions: number;
+  returnedInCompleteSessions: number;
+};
 
 export type ResultsInput = {
   zones: { id: string; name: string; habitat: string }[];
@@ -74,10 +83,13 @@ export type ZoneResult = { id: string; name: string; habitat: string } & Block;
 export type AtEffort = { richness: number; lower: number; upper: number; size: number; kind: CurvePoint["kind"] };
 
 export type ComparisonSentence = {
-  a: string; b: string;
+  a: string;
+  b: string;
   verdict: "more" | "fewer" | "noClearDifference";
   /** Richness of a minus b at the common coverage, with its bootstrap 95% interval. */
-  difference: number; lower: number; upper: number;
+  difference: number;
+  lower: number;
+  upper: number;
 };
 
 export type Comparison = {
@@ -94,7 +106,12 @@ export type Comparison = {
   sentences: ComparisonSentence[];
 };
 
-export type SpeciesRow = ResultsTaxon & { individuals: number; byZone: Record<string, number>; rankStatus: RankStatus; countUnit: CountUnit };
+export type SpeciesRow = ResultsTaxon & {
+  individuals: number;
+  byZone: Record<string, number>;
+  rankStatus: RankStatus;
+  countUnit: CountUnit;
+};
 
 export type Results = {
   engineVersion: string;
@@ -110,7 +127,12 @@ export type Results = {
 type Prepared = { block: Block; sample: { abundance: number[]; frequencies: number[]; units: number } };
 
 /** One block: ranks resolved on its own records, then the engine on what may be estimated. */
-function block(taxa: readonly ResultsTaxon[], counts: readonly number[], sessionTaxa: readonly (readonly number[])[], status?: RankStatus[]): Prepared {
+function block(
+  taxa: readonly ResultsTaxon[],
+  counts: readonly number[],
+  sessionTaxa: readonly (readonly number[])[],
+  status?: RankStatus[],
+): Prepared {
   const ranks = resolveRanks(taxa, (i) => (counts[i] ?? 0) > 0);
   if (status) status.push(...ranks.status);
   const unitCounts = new Array<number>(ranks.units).fill(0);
@@ -133,7 +155,9 @@ function block(taxa: readonly ResultsTaxon[], counts: readonly number[], session
     const unit = taxa[i]!.countUnit ?? "individuals";
     if (unit !== "individuals") units.add(unit);
   }
-  const lists = sessionTaxa.map((list) => [...new Set(list.map((i) => ranks.unitOf[i]!).filter((u) => u >= 0))].sort((a, b) => a - b));
+  const lists = sessionTaxa.map((list) =>
+    [...new Set(list.map((i) => ranks.unitOf[i]!).filter((u) => u >= 0))].sort((a, b) => a - b),
+  );
   const frequencies = new Array<number>(ranks.units).fill(0);
   for (const l of lists) for (const u of l) frequencies[u]!++;
   const T = lists.length;
@@ -144,14 +168,26 @@ function block(taxa: readonly ResultsTaxon[], counts: readonly number[], session
   if (individuals - leftOut.individuals < SUFFICIENCY.minIndividuals) reasons.push("individuals");
   if (T < SUFFICIENCY.minCompleteSessions) reasons.push("sessions");
   const r = diversityResults({ counts: unitCounts, unitLists: T ? lists : undefined, curvePoints: CURVE_POINTS });
-  if (!reasons.includes("countUnits") && !reasons.includes("individuals") && r.abundance.coverage < SUFFICIENCY.minCoverage) reasons.push("coverage");
-  if (!reasons.includes("sessions") && r.incidence && r.incidence.coverage < SUFFICIENCY.minCoverage) reasons.push("incidenceCoverage");
+  if (
+    !reasons.includes("countUnits") &&
+    !reasons.includes("individuals") &&
+    r.abundance.coverage < SUFFICIENCY.minCoverage
+  )
+    reasons.push("coverage");
+  if (!reasons.includes("sessions") && r.incidence && r.incidence.coverage < SUFFICIENCY.minCoverage)
+    reasons.push("incidenceCoverage");
   const abundanceOk = !reasons.some((x) => x === "countUnits" || x === "individuals" || x === "coverage");
   const incidenceOk = r.incidence !== null && !reasons.some((x) => x === "sessions" || x === "incidenceCoverage");
   return {
     block: {
-      observed: ranks.units, individuals, leftOut, folded, completeSessions: T, countUnits,
-      tooFew: !abundanceOk && !incidenceOk, reasons,
+      observed: ranks.units,
+      individuals,
+      leftOut,
+      folded,
+      completeSessions: T,
+      countUnits,
+      tooFew: !abundanceOk && !incidenceOk,
+      reasons,
       abundance: abundanceOk ? r.abundance : null,
       incidence: incidenceOk ? r.incidence : null,
       rarefaction: abundanceOk ? r.rarefactionCurve : [],
@@ -161,7 +197,13 @@ function block(taxa: readonly ResultsTaxon[], counts: readonly number[], session
   };
 }
 
-const atEffort = (p: CurvePoint): AtEffort => ({ richness: p.richness, lower: p.lower, upper: p.upper, size: p.size, kind: p.kind });
+const atEffort = (p: CurvePoint): AtEffort => ({
+  richness: p.richness,
+  lower: p.lower,
+  upper: p.upper,
+  size: p.size,
+  kind: p.kind,
+});
 
 /** Pairs to put in words: each edge zone against each interior zone, else the richest against the poorest. */
 function pairs(zones: Comparison["zones"]): [Comparison["zones"][number], Comparison["zones"][number]][] {
@@ -183,11 +225,14 @@ function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepare
   };
   const ok = (b: Block) => (kind === "abundance" ? b.abundance !== null : b.incidence !== null);
   const compared = zones.filter((z) => ok(prepared.get(z.id)!.block));
-  const leftOut = zones.filter((z) => !ok(prepared.get(z.id)!.block)).map((z) => {
-    const b = prepared.get(z.id)!.block;
-    const mine: Reason[] = kind === "abundance" ? ["countUnits", "individuals", "coverage"] : ["sessions", "incidenceCoverage"];
-    return { ...z, reasons: b.reasons.filter((r) => mine.includes(r)) };
-  });
+  const leftOut = zones
+    .filter((z) => !ok(prepared.get(z.id)!.block))
+    .map((z) => {
+      const b = prepared.get(z.id)!.block;
+      const mine: Reason[] =
+        kind === "abundance" ? ["countUnits", "individuals", "coverage"] : ["sessions", "incidenceCoverage"];
+      return { ...z, reasons: b.reasons.filter((r) => mine.includes(r)) };
+    });
   const base = { kind, replicates: COMPARISON_BOOTSTRAP.replicates, seed: COMPARISON_BOOTSTRAP.seed, leftOut };
   if (compared.length < 2) return { ...base, size: 0, coverage: 0, zones: [], sentences: [] };
   const profiles = new Map(compared.map((z) => [z.id, profileOf(sampleOf(z.id))]));
@@ -197,7 +242,11 @@ function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepare
   const coverage = Math.min(...[...profiles.values()].map((p) => curvePoint(p, 2 * p.size).coverage));
   const rows = compared.map((z) => {
     const p = profiles.get(z.id)!;
-    return { ...z, atSize: atEffort(curvePoint(p, size)), atCoverage: atEffort(curvePoint(p, sizeForCoverage(p, coverage))) };
+    return {
+      ...z,
+      atSize: atEffort(curvePoint(p, size)),
+      atCoverage: atEffort(curvePoint(p, sizeForCoverage(p, coverage))),
+    };
   });
   // Each zone is redrawn once (its own seed: the common seed plus its place among the
   // compared zones) and its replicates serve every pair it is in.
@@ -206,7 +255,10 @@ function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepare
     let r = replicates.get(id);
     if (!r) {
       const seed = COMPARISON_BOOTSTRAP.seed + compared.findIndex((z) => z.id === id);
-      replicates.set(id, (r = bootstrapAtCoverage(sampleOf(id), coverage, { replicates: COMPARISON_BOOTSTRAP.replicates, seed })));
+      replicates.set(
+        id,
+        (r = bootstrapAtCoverage(sampleOf(id), coverage, { replicates: COMPARISON_BOOTSTRAP.replicates, seed })),
+      );
     }
     return r;
   };
@@ -232,21 +284,46 @@ export function computeResults(input: ResultsInput): Results {
     row[c.zoneId] = (row[c.zoneId] ?? 0) + c.individuals;
   }
   const status: RankStatus[] = [];
-  const event = block(taxa, total, input.sessions.map((s) => s.taxa), status);
-  const prepared = new Map(input.zones.map((z) => [z.id, block(taxa, perZone.get(z.id)!, input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa))]));
+  const event = block(
+    taxa,
+    total,
+    input.sessions.map((s) => s.taxa),
+    status,
+  );
+  const prepared = new Map(
+    input.zones.map((z) => [
+      z.id,
+      block(
+        taxa,
+        perZone.get(z.id)!,
+        input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
+      ),
+    ]),
+  );
   const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...prepared.get(z.id)!.block }));
   const kind = event.block.countUnits.length === 0 ? "abundance" : "incidence";
   const comparison = input.zones.length >= 2 ? compare(kind, input.zones, prepared) : null;
 
   const species: SpeciesRow[] = taxa
-    .map((t, i) => ({ ...t, countUnit: t.countUnit, individuals: total[i] ?? 0, byZone: byZone[i]!, rankStatus: status[i]! }))
+    .map((t, i) => ({
+      ...t,
+      countUnit: t.countUnit,
+      individuals: total[i] ?? 0,
+      byZone: byZone[i]!,
+      rankStatus: status[i]!,
+    }))
     .filter((s) => s.individuals > 0)
     .sort((a, b) => b.individuals - a.individuals || a.scientificName.localeCompare(b.scientificName));
 
   return {
     engineVersion: ENGINE_VERSION,
     rules: { sufficiency: SUFFICIENCY, comparison: COMPARISON_BOOTSTRAP },
-    totals: { individuals: event.block.individuals, species: event.block.observed, completeSessions: input.sessions.length, leftOutIndividuals: event.block.leftOut.individuals },
+    totals: {
+      individuals: event.block.individuals,
+      species: event.block.observed,
+      completeSessions: input.sessions.length,
+      leftOutIndividuals: event.block.leftOut.individuals,
+    },
     pending: input.pending ?? null,
     event: event.block,
     zones,
@@ -259,7 +336,9 @@ export function computeResults(input: ResultsInput): Results {
 export function canonicalJson(value: unknown): string {
   return JSON.stringify(value, (_k, v: unknown) =>
     v && typeof v === "object" && !Array.isArray(v)
-      ? Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)))
+      ? Object.fromEntries(
+          Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)),
+        )
       : v,
   );
 }

@@ -4,21 +4,40 @@
 // withheld from every located output (design.md: exact locations never reach the public).
 import { strToU8, zipSync } from "fflate";
 import type { Results } from "./compute";
+import type { Sensitivity } from "@/lib/domain";
 
 export type PublicOccurrence = {
-  id: string; observedAt: Date; lon: number; lat: number; accuracyM: number;
-  taxonId: string; count: number; sensitivity: "open" | "generalised" | "restricted";
+  id: string;
+  observedAt: Date;
+  lon: number;
+  lat: number;
+  accuracyM: number;
+  taxonId: string;
+  count: number;
+  sensitivity: Sensitivity;
 };
 
 export const GRID_DEGREES = 0.1;
 
 export type Located = {
-  id: string; eventDate: string; scientificName: string; taxonRank: string; vernacularName: string; individualCount: number;
-  lon: number; lat: number; uncertaintyM: number; generalised: boolean;
+  id: string;
+  eventDate: string;
+  scientificName: string;
+  taxonRank: string;
+  vernacularName: string;
+  individualCount: number;
+  lon: number;
+  lat: number;
+  uncertaintyM: number;
+  generalised: boolean;
 };
 
 /** Cell centre and the uncertainty that covers the whole cell (half its diagonal) plus the record's own. */
-export function generalise(lon: number, lat: number, accuracyM: number): { lon: number; lat: number; uncertaintyM: number } {
+export function generalise(
+  lon: number,
+  lat: number,
+  accuracyM: number,
+): { lon: number; lat: number; uncertaintyM: number } {
   const cLat = Math.round((Math.floor(lat / GRID_DEGREES) + 0.5) * GRID_DEGREES * 1000) / 1000;
   const cLon = Math.round((Math.floor(lon / GRID_DEGREES) + 0.5) * GRID_DEGREES * 1000) / 1000;
   // 111.32 km per degree of latitude (common practice, spherical Earth).
@@ -29,7 +48,11 @@ export function generalise(lon: number, lat: number, accuracyM: number): { lon: 
 }
 
 /** Occurrences safe to publish: restricted ones withheld, generalised ones coarsened. */
-export function publicOccurrences(results: Results, occurrences: readonly PublicOccurrence[], locale: string): { rows: Located[]; withheld: number } {
+export function publicOccurrences(
+  results: Results,
+  occurrences: readonly PublicOccurrence[],
+  locale: string,
+): { rows: Located[]; withheld: number } {
   const taxa = new Map(results.species.map((s) => [s.id, s]));
   let withheld = 0;
   const rows: Located[] = [];
@@ -41,25 +64,55 @@ export function publicOccurrences(results: Results, occurrences: readonly Public
     const t = taxa.get(o.taxonId);
     const g = o.sensitivity === "generalised" ? generalise(o.lon, o.lat, o.accuracyM) : null;
     rows.push({
-      id: o.id, eventDate: o.observedAt.toISOString(), scientificName: t?.scientificName ?? "", taxonRank: t?.rank ?? "species",
-      vernacularName: t?.names[locale] ?? t?.names.en ?? "", individualCount: o.count,
-      lon: g ? g.lon : o.lon, lat: g ? g.lat : o.lat, uncertaintyM: g ? g.uncertaintyM : o.accuracyM, generalised: Boolean(g),
+      id: o.id,
+      eventDate: o.observedAt.toISOString(),
+      scientificName: t?.scientificName ?? "",
+      taxonRank: t?.rank ?? "species",
+      vernacularName: t?.names[locale] ?? t?.names.en ?? "",
+      individualCount: o.count,
+      lon: g ? g.lon : o.lon,
+      lat: g ? g.lat : o.lat,
+      uncertaintyM: g ? g.uncertaintyM : o.accuracyM,
+      generalised: Boolean(g),
     });
   }
   return { rows, withheld };
 }
 
-/** RFC 4180 field quoting. */
+// Formula injection (CWE-1236): a spreadsheet reads a text cell that starts with one of
+// these as a formula. Such text cells get a leading apostrophe (the usual rule, OWASP's
+// "CSV Injection" page, from memory); numbers are written as numbers and never changed.
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/** A text cell made safe to open in a spreadsheet; numbers pass through untouched. */
+export function spreadsheetSafe(v: string | number): string {
+  if (typeof v === "number") return String(v);
+  return FORMULA_START.test(v) ? `'${v}` : v;
+}
+
+/** RFC 4180 field quoting, after the formula rule. */
 function csvField(v: string | number): string {
-  const s = String(v);
+  const s = spreadsheetSafe(v);
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
 /** Species list with counts, whole event and per zone (no locations at all). */
 export function speciesCsv(results: Results, locale: string): string {
-  const header = ["scientificName", "vernacularName", "taxonRank", "taxonGroup", "individualCount", ...results.zones.map((z) => z.name)];
+  const header = [
+    "scientificName",
+    "vernacularName",
+    "taxonRank",
+    "taxonGroup",
+    "individualCount",
+    ...results.zones.map((z) => z.name),
+  ];
   const lines = results.species.map((s) => [
-    s.scientificName, s.names[locale] ?? s.names.en ?? "", s.rank, s.group, s.individuals, ...results.zones.map((z) => s.byZone[z.id] ?? 0),
+    s.scientificName,
+    s.names[locale] ?? s.names.en ?? "",
+    s.rank,
+    s.group,
+    s.individuals,
+    ...results.zones.map((z) => s.byZone[z.id] ?? 0),
   ]);
   return [header, ...lines].map((row) => row.map(csvField).join(",")).join("\r\n") + "\r\n";
 }
@@ -73,8 +126,13 @@ export function occurrencesGeoJson(rows: readonly Located[]): string {
       id: r.id,
       geometry: { type: "Point", coordinates: [r.lon, r.lat] },
       properties: {
-        occurrenceID: `urn:uuid:${r.id}`, scientificName: r.scientificName, vernacularName: r.vernacularName,
-        individualCount: r.individualCount, eventDate: r.eventDate, coordinateUncertaintyInMeters: r.uncertaintyM, generalised: r.generalised,
+        occurrenceID: `urn:uuid:${r.id}`,
+        scientificName: r.scientificName,
+        vernacularName: r.vernacularName,
+        individualCount: r.individualCount,
+        eventDate: r.eventDate,
+        coordinateUncertaintyInMeters: r.uncertaintyM,
+        generalised: r.generalised,
       },
     })),
   });
@@ -84,24 +142,59 @@ export function occurrencesGeoJson(rows: readonly Located[]): string {
 // https://dwc.tdwg.org/text/: a tab-separated core file described by meta.xml; terms from
 // the Darwin Core quick reference, https://dwc.tdwg.org/terms/).
 export const DWC_TERMS = [
-  "occurrenceID", "basisOfRecord", "eventDate", "scientificName", "taxonRank", "vernacularName", "individualCount",
-  "occurrenceStatus", "decimalLatitude", "decimalLongitude", "geodeticDatum", "coordinateUncertaintyInMeters",
-  "identificationVerificationStatus", "dataGeneralizations", "datasetName",
+  "occurrenceID",
+  "basisOfRecord",
+  "eventDate",
+  "scientificName",
+  "taxonRank",
+  "vernacularName",
+  "individualCount",
+  "occurrenceStatus",
+  "decimalLatitude",
+  "decimalLongitude",
+  "geodeticDatum",
+  "coordinateUncertaintyInMeters",
+  "identificationVerificationStatus",
+  "dataGeneralizations",
+  "datasetName",
 ] as const;
-export const DWC_REQUIRED = ["occurrenceID", "basisOfRecord", "eventDate", "scientificName", "taxonRank", "individualCount", "decimalLatitude", "decimalLongitude", "coordinateUncertaintyInMeters", "identificationVerificationStatus"] as const;
+export const DWC_REQUIRED = [
+  "occurrenceID",
+  "basisOfRecord",
+  "eventDate",
+  "scientificName",
+  "taxonRank",
+  "individualCount",
+  "decimalLatitude",
+  "decimalLongitude",
+  "coordinateUncertaintyInMeters",
+  "identificationVerificationStatus",
+] as const;
 
 const xml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
-const tsv = (s: string | number) => String(s).replace(/[\t\r\n]+/g, " ");
+// The formula rule first (a leading tab or CR is one of its characters), then no tab or line break inside a field.
+const tsv = (s: string | number) => spreadsheetSafe(s).replace(/[\t\r\n]+/g, " ");
 
 export function occurrenceTxt(rows: readonly Located[], datasetName: string): string {
   const lines = rows.map((r) => {
     const v: Record<(typeof DWC_TERMS)[number], string | number> = {
-      occurrenceID: `urn:uuid:${r.id}`, basisOfRecord: "HumanObservation", eventDate: r.eventDate, scientificName: r.scientificName,
-      taxonRank: r.taxonRank, vernacularName: r.vernacularName, individualCount: r.individualCount, occurrenceStatus: "present",
-      decimalLatitude: r.lat, decimalLongitude: r.lon, geodeticDatum: "EPSG:4326", coordinateUncertaintyInMeters: r.uncertaintyM,
+      occurrenceID: `urn:uuid:${r.id}`,
+      basisOfRecord: "HumanObservation",
+      eventDate: r.eventDate,
+      scientificName: r.scientificName,
+      taxonRank: r.taxonRank,
+      vernacularName: r.vernacularName,
+      individualCount: r.individualCount,
+      occurrenceStatus: "present",
+      decimalLatitude: r.lat,
+      decimalLongitude: r.lon,
+      geodeticDatum: "EPSG:4326",
+      coordinateUncertaintyInMeters: r.uncertaintyM,
       // Approved by an event coordinator: our review state, in the term's free-text sense.
       identificationVerificationStatus: "verified by event coordinator",
-      dataGeneralizations: r.generalised ? `Coordinates generalised to the centre of a ${GRID_DEGREES}-degree grid cell (sensitive taxon)` : "",
+      dataGeneralizations: r.generalised
+        ? `Coordinates generalised to the centre of a ${GRID_DEGREES}-degree grid cell (sensitive taxon)`
+        : "",
       datasetName,
     };
     return DWC_TERMS.map((t) => tsv(v[t])).join("\t");
@@ -110,7 +203,9 @@ export function occurrenceTxt(rows: readonly Located[], datasetName: string): st
 }
 
 export function metaXml(): string {
-  const fields = DWC_TERMS.map((t, i) => `    <field index="${i}" term="http://rs.tdwg.org/dwc/terms/${t}"/>`).join("\n");
+  const fields = DWC_TERMS.map((t, i) => `    <field index="${i}" term="http://rs.tdwg.org/dwc/terms/${t}"/>`).join(
+    "\n",
+  );
   return `<?xml version="1.0" encoding="UTF-8"?>
 <archive xmlns="http://rs.tdwg.org/dwc/text/" metadata="eml.xml">
   <core encoding="UTF-8" fieldsTerminatedBy="\\t" linesTerminatedBy="\\n" fieldsEnclosedBy="" ignoreHeaderLines="1" rowType="http://rs.tdwg.org/dwc/terms/Occurrence">
@@ -125,7 +220,15 @@ ${fields}
 }
 
 /** Dataset metadata in Ecological Metadata Language 2.1.1 (the profile the text guide names). */
-export function emlXml(d: { id: string; title: string; organisation: string; version: number; publishedAt: Date; withheld: number; abstract: string }): string {
+export function emlXml(d: {
+  id: string;
+  title: string;
+  organisation: string;
+  version: number;
+  publishedAt: Date;
+  withheld: number;
+  abstract: string;
+}): string {
   return `<?xml version="1.0" encoding="UTF-8"?>
 <eml:eml xmlns:eml="eml://ecoinformatics.org/eml-2.1.1" packageId="urn:uuid:${d.id}" system="ecotone" scope="system" xml:lang="en">
   <dataset>
@@ -140,9 +243,12 @@ export function emlXml(d: { id: string; title: string; organisation: string; ver
 }
 
 export function darwinCoreArchive(rows: readonly Located[], meta: Parameters<typeof emlXml>[0]): Uint8Array {
-  return zipSync({
-    "occurrence.txt": strToU8(occurrenceTxt(rows, meta.title)),
-    "meta.xml": strToU8(metaXml()),
-    "eml.xml": strToU8(emlXml(meta)),
-  }, { level: 6, mtime: meta.publishedAt });
+  return zipSync(
+    {
+      "occurrence.txt": strToU8(occurrenceTxt(rows, meta.title)),
+      "meta.xml": strToU8(metaXml()),
+      "eml.xml": strToU8(emlXml(meta)),
+    },
+    { level: 6, mtime: meta.publishedAt },
+  );
 }

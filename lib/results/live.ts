@@ -24,7 +24,13 @@ export type BlockLead = {
 export type ZoneLead = { id: string; name: string; habitat: string } & BlockLead;
 
 export function blockLead(b: Block): BlockLead {
-  const base = { observed: b.observed, individuals: b.individuals, completeSessions: b.completeSessions, tooFew: b.tooFew, reasons: b.reasons };
+  const base = {
+    observed: b.observed,
+    individuals: b.individuals,
+    completeSessions: b.completeSessions,
+    tooFew: b.tooFew,
+    reasons: b.reasons,
+  };
   let richness: Richness | null = null;
   let coverage: number | null = null;
   let coverageKind: BlockLead["coverageKind"] = null;
@@ -40,7 +46,10 @@ export function blockLead(b: Block): BlockLead {
     coverageKind = "incidence";
   }
   return {
-    ...base, richness, coverage, coverageKind,
+    ...base,
+    richness,
+    coverage,
+    coverageKind,
     completeness: richness && richness.estimate > 0 ? b.observed / richness.estimate : null,
     undetected: richness ? Math.max(0, richness.estimate - b.observed) : null,
   };
@@ -52,11 +61,15 @@ export function blockLead(b: Block): BlockLead {
  */
 export function completeness(results: Results) {
   const zones: ZoneLead[] = results.zones.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat, ...blockLead(z) }));
-  zones.sort((a, b) =>
-    Number(b.tooFew) - Number(a.tooFew) ||
-    Number(b.individuals === 0) - Number(a.individuals === 0) ||
-    (1 - (b.coverage ?? 0)) - (1 - (a.coverage ?? 0)) ||
-    (b.undetected ?? 0) - (a.undetected ?? 0) ||
-    a.name.localeCompare(b.name));
+  zones.sort(
+    (a, b) =>
+      Number(b.tooFew) - Number(a.tooFew) ||
+      Number(b.individuals === 0) - Number(a.individuals === 0) ||
+      1 - (b.coverage ?? 0) - (1 - (a.coverage ?? 0)) ||
+      (b.undetected ?? 0) - (a.undetected ?? 0) ||
+      a.name.localeCompare(b.name),
+  );
   return { event: blockLead(results.event), zones, pending: results.pending };
 }
+
+export type LiveCompleteness = ReturnType<typeof completeness>;

@@ -3,8 +3,21 @@ import { computeResults, type ResultsInput, type ResultsTaxon } from "./compute"
 import { genusKey, resolveRanks, speciesKey } from "./ranks";
 import { SUFFICIENCY } from "./settings";
 
-const tx = (id: string, scientificName: string, rank = "species", group = "insects", countUnit?: ResultsTaxon["countUnit"]): ResultsTaxon =>
-  ({ id, scientificName, rank, group, sensitivity: "open", names: { en: scientificName }, ...(countUnit ? { countUnit } : {}) });
+const tx = (
+  id: string,
+  scientificName: string,
+  rank = "species",
+  group = "insects",
+  countUnit?: ResultsTaxon["countUnit"],
+): ResultsTaxon => ({
+  id,
+  scientificName,
+  rank,
+  group,
+  sensitivity: "open",
+  names: { en: scientificName },
+  ...(countUnit ? { countUnit } : {}),
+});
 
 describe("taxon ranks (one worked case per branch, hand-computed)", () => {
   it("derives genus and species from the name's first words", () => {
@@ -13,7 +26,11 @@ describe("taxon ranks (one worked case per branch, hand-computed)", () => {
   });
 
   it("folds a subspecies into its species (recorded or not)", () => {
-    const taxa = [tx("a", "Bombus terrestris"), tx("b", "Bombus terrestris audax", "subspecies"), tx("c", "Pieris rapae rapae", "variety")];
+    const taxa = [
+      tx("a", "Bombus terrestris"),
+      tx("b", "Bombus terrestris audax", "subspecies"),
+      tx("c", "Pieris rapae rapae", "variety"),
+    ];
     const r = resolveRanks(taxa, () => true);
     expect(r.units).toBe(2); // B. terrestris (with audax), P. rapae
     expect(r.unitOf[1]).toBe(r.unitOf[0]);
@@ -43,9 +60,15 @@ describe("taxon ranks (one worked case per branch, hand-computed)", () => {
   it("decides per block: a genus left out in the event may count in a zone without its species", () => {
     const taxa = [tx("g", "Bombus", "genus"), tx("s", "Bombus pascuorum")];
     const input: ResultsInput = {
-      zones: [{ id: "z1", name: "One", habitat: "edge" }, { id: "z2", name: "Two", habitat: "interior" }],
+      zones: [
+        { id: "z1", name: "One", habitat: "edge" },
+        { id: "z2", name: "Two", habitat: "interior" },
+      ],
       taxa,
-      counts: [{ zoneId: "z1", taxon: 0, individuals: 3 }, { zoneId: "z2", taxon: 1, individuals: 2 }],
+      counts: [
+        { zoneId: "z1", taxon: 0, individuals: 3 },
+        { zoneId: "z2", taxon: 1, individuals: 2 },
+      ],
       sessions: [],
     };
     const r = computeResults(input);
@@ -61,7 +84,19 @@ describe("taxon ranks (one worked case per branch, hand-computed)", () => {
 describe("units, sufficiency and honest comparisons", () => {
   it("empty complete sessions change T but not the observed richness", () => {
     const taxa = [tx("a", "Aus bus"), tx("b", "Aus cus")];
-    const base: ResultsInput = { zones: [], taxa, counts: [{ zoneId: "x", taxon: 0, individuals: 2 }, { zoneId: "x", taxon: 1, individuals: 1 }], sessions: [{ zoneId: "x", taxa: [0, 1] }, { zoneId: "x", taxa: [0] }, { zoneId: "x", taxa: [0] }] };
+    const base: ResultsInput = {
+      zones: [],
+      taxa,
+      counts: [
+        { zoneId: "x", taxon: 0, individuals: 2 },
+        { zoneId: "x", taxon: 1, individuals: 1 },
+      ],
+      sessions: [
+        { zoneId: "x", taxa: [0, 1] },
+        { zoneId: "x", taxa: [0] },
+        { zoneId: "x", taxa: [0] },
+      ],
+    };
     const more = { ...base, sessions: [...base.sessions, { zoneId: "x", taxa: [] }, { zoneId: "x", taxa: [] }] };
     const a = computeResults(base);
     const b = computeResults(more);
@@ -71,7 +106,12 @@ describe("units, sufficiency and honest comparisons", () => {
   });
 
   it("a block with one individual is too few records: no estimates, no 100% coverage", () => {
-    const r = computeResults({ zones: [], taxa: [tx("a", "Aus bus")], counts: [{ zoneId: "x", taxon: 0, individuals: 1 }], sessions: [] });
+    const r = computeResults({
+      zones: [],
+      taxa: [tx("a", "Aus bus")],
+      counts: [{ zoneId: "x", taxon: 0, individuals: 1 }],
+      sessions: [],
+    });
     expect(r.event.tooFew).toBe(true);
     expect(r.event.reasons).toEqual(expect.arrayContaining(["individuals", "sessions"]));
     expect(r.event.abundance).toBeNull();
@@ -95,10 +135,15 @@ describe("units, sufficiency and honest comparisons", () => {
     const taxa = Array.from({ length: 30 }, (_, i) => tx(`t${i}`, `Genus s${i}`));
     const counts: ResultsInput["counts"] = [];
     // Two zones drawn alike (hand-made): the same 12 species with the same counts, one extra singleton each.
-    for (let i = 0; i < 12; i++) for (const z of ["e", "i"]) counts.push({ zoneId: z, taxon: i, individuals: 1 + (i % 4) });
+    for (let i = 0; i < 12; i++)
+      for (const z of ["e", "i"]) counts.push({ zoneId: z, taxon: i, individuals: 1 + (i % 4) });
     counts.push({ zoneId: "e", taxon: 20, individuals: 1 }, { zoneId: "i", taxon: 21, individuals: 1 });
     counts.push({ zoneId: "few", taxon: 25, individuals: 3 });
-    const zones = [{ id: "e", name: "Edge", habitat: "edge" }, { id: "i", name: "Inside", habitat: "interior" }, { id: "few", name: "Few", habitat: "other" }];
+    const zones = [
+      { id: "e", name: "Edge", habitat: "edge" },
+      { id: "i", name: "Inside", habitat: "interior" },
+      { id: "few", name: "Few", habitat: "other" },
+    ];
     const r = computeResults({ zones, taxa, counts, sessions: [] });
     const c = r.comparison!;
     expect(c.zones.map((z) => z.id)).toEqual(["e", "i"]);

@@ -23,7 +23,13 @@ export type RankResolution = {
   status: RankStatus[];
 };
 
-const words = (name: string) => name.trim().toLowerCase().replace(/\s+/g, " ").split(" ").filter((w) => w !== "×" && w !== "x");
+const words = (name: string) =>
+  name
+    .trim()
+    .toLowerCase()
+    .replace(/\s+/g, " ")
+    .split(" ")
+    .filter((w) => w !== "×" && w !== "x");
 export const genusKey = (name: string) => words(name)[0] ?? "";
 export const speciesKey = (name: string) => words(name).slice(0, 2).join(" ");
 

@@ -19,7 +19,8 @@ export const isSessionRecord = (r: InputRecord) => r[1] === SESSION_RECORD;
 /** sha256 over the records sorted by sighting id, one JSON array per line. */
 export function inputHash(records: readonly InputRecord[]): string {
   const h = createHash("sha256");
-  for (const r of [...records].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0))) h.update(`${JSON.stringify(r)}\n`);
+  for (const r of [...records].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0)))
+    h.update(`${JSON.stringify(r)}\n`);
   return h.digest("hex");
 }
 
@@ -43,7 +44,8 @@ export function inputFromRecords(
   const sessions = new Map<string, { zoneId: string; taxa: Set<number> }>();
   for (const [, state, taxonId, count, zoneKey, sessionId, sessionZone] of records) {
     if (state === SESSION_RECORD) {
-      if (sessionId && !sessions.has(sessionId)) sessions.set(sessionId, { zoneId: sessionZone ?? NO_ZONE, taxa: new Set<number>() });
+      if (sessionId && !sessions.has(sessionId))
+        sessions.set(sessionId, { zoneId: sessionZone ?? NO_ZONE, taxa: new Set<number>() });
       continue;
     }
     const taxon = index.get(taxonId)!;
@@ -61,7 +63,9 @@ export function inputFromRecords(
     zones,
     taxa,
     counts: [...counts.values()],
-    sessions: [...sessions.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([, s]) => ({ zoneId: s.zoneId, taxa: [...s.taxa].sort((a, b) => a - b) })),
+    sessions: [...sessions.entries()]
+      .sort(([a], [b]) => (a < b ? -1 : 1))
+      .map(([, s]) => ({ zoneId: s.zoneId, taxa: [...s.taxa].sort((a, b) => a - b) })),
   };
 }
 
@@ -102,10 +106,21 @@ export function diffRecords(
   const taxaAfter = new Set(after.map((r) => r[2]));
   const sum = (rs: readonly InputRecord[]) => rs.reduce((s, r) => s + r[3], 0);
   return {
-    previousVersion, added, removed, changed,
-    speciesBefore: taxaBefore.size, speciesAfter: taxaAfter.size,
-    individualsBefore: sum(before), individualsAfter: sum(after),
-    newTaxa: [...taxaAfter].filter((t) => !taxaBefore.has(t)).map(nameOf).sort(),
-    lostTaxa: [...taxaBefore].filter((t) => !taxaAfter.has(t)).map(nameOf).sort(),
+    previousVersion,
+    added,
+    removed,
+    changed,
+    speciesBefore: taxaBefore.size,
+    speciesAfter: taxaAfter.size,
+    individualsBefore: sum(before),
+    individualsAfter: sum(after),
+    newTaxa: [...taxaAfter]
+      .filter((t) => !taxaBefore.has(t))
+      .map(nameOf)
+      .sort(),
+    lostTaxa: [...taxaBefore]
+      .filter((t) => !taxaAfter.has(t))
+      .map(nameOf)
+      .sort(),
   };
 }

@@ -4,15 +4,31 @@ import { generalise, speciesCsv } from "./exports";
 import { diffRecords, inputFromRecords, inputHash, type InputRecord } from "./records";
 
 const taxon = (id: string, sensitivity: ResultsTaxon["sensitivity"] = "open"): ResultsTaxon => ({
-  id, scientificName: `Genus ${id}`, rank: "species", group: "insects", sensitivity, names: { en: `Name "${id}", common` },
+  id,
+  scientificName: `Genus ${id}`,
+  rank: "species",
+  group: "insects",
+  sensitivity,
+  names: { en: `Name "${id}", common` },
 });
-const zones = [{ id: "z-edge", name: "Fringe", habitat: "edge" }, { id: "z-int", name: "Heart", habitat: "interior" }];
+const zones = [
+  { id: "z-edge", name: "Fringe", habitat: "edge" },
+  { id: "z-int", name: "Heart", habitat: "interior" },
+];
 
 function records(): InputRecord[] {
   const out: InputRecord[] = [];
   let n = 0;
   const add = (taxonId: string, count: number, zone: string, session: string | null) =>
-    out.push([`00000000-0000-0000-0000-${String(++n).padStart(12, "0")}`, "approved", taxonId, count, zone, session, session ? zone : null]);
+    out.push([
+      `00000000-0000-0000-0000-${String(++n).padStart(12, "0")}`,
+      "approved",
+      taxonId,
+      count,
+      zone,
+      session,
+      session ? zone : null,
+    ]);
   // The edge zone: many species, several seen once; the interior: few, common ones.
   for (let i = 0; i < 12; i++) add(`t${i}`, 1 + (i % 3), "z-edge", `s-e${i % 4}`);
   for (let i = 0; i < 8; i++) add(`t${i % 3}`, 5, "z-int", `s-i${i % 4}`);
@@ -39,7 +55,9 @@ describe("lib/results", () => {
   it("hashes the records independently of their order and lists what changed", () => {
     const rs = records();
     expect(inputHash([...rs].reverse())).toBe(inputHash(rs));
-    const next = rs.slice(1).concat([["00000000-0000-0000-0000-999999999999", "approved", "t19", 1, "z-edge", null, null]]);
+    const next = rs
+      .slice(1)
+      .concat([["00000000-0000-0000-0000-999999999999", "approved", "t19", 1, "z-edge", null, null]]);
     next[0] = [...next[0]!] as InputRecord;
     next[0][3] = 40;
     const d = diffRecords(1, rs, next, (id) => `Genus ${id}`);
@@ -57,7 +75,9 @@ describe("lib/results", () => {
   it("quotes CSV fields that hold commas or quotes (RFC 4180)", () => {
     const r = computeResults(inputFromRecords(records(), zones, meta));
     const csv = speciesCsv(r, "en");
-    expect(csv.split("\r\n")[0]).toBe("scientificName,vernacularName,taxonRank,taxonGroup,individualCount,Fringe,Heart");
+    expect(csv.split("\r\n")[0]).toBe(
+      "scientificName,vernacularName,taxonRank,taxonGroup,individualCount,Fringe,Heart",
+    );
     expect(csv).toContain('"Name ""t0"", common"');
   });
 });

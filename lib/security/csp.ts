@@ -2,7 +2,12 @@
 // request's nonce ('strict-dynamic' lets Next's own chunks load from them); styles allow
 // inline attributes, which React and chart libraries set. Extra origins (an object store
 // serving photos) are added to img-src and connect-src only.
-export function contentSecurityPolicy(opts: { nonce: string; dev: boolean; https: boolean; extraOrigins?: string[] }): string {
+export function contentSecurityPolicy(opts: {
+  nonce: string;
+  dev: boolean;
+  https: boolean;
+  extraOrigins?: string[];
+}): string {
   const extra = (opts.extraOrigins ?? []).join(" ");
   const directives = [
     "default-src 'self'",

@@ -8,28 +8,43 @@ describe("species CSV", () => {
     expect(problems).toEqual([]);
     expect(locales).toEqual(["en", "es", "fr"]);
     expect(rows).toHaveLength(6);
-    expect(rows[3]).toMatchObject({ line: 5, scientificName: "Hericium erinaceus", sensitivity: "restricted", names: { es: "Melena de león" } });
-    expect(rows[5]).toMatchObject({ line: 7, scientificName: "Ulex europaeus", taxonGroup: "vascular_plants", sensitivity: null });
+    expect(rows[3]).toMatchObject({
+      line: 5,
+      scientificName: "Hericium erinaceus",
+      sensitivity: "restricted",
+      names: { es: "Melena de león" },
+    });
+    expect(rows[5]).toMatchObject({
+      line: 7,
+      scientificName: "Ulex europaeus",
+      taxonGroup: "vascular_plants",
+      sensitivity: null,
+    });
   });
 
   it("names exactly the three bad lines of the bad example: unknown group, missing rank, duplicate", () => {
     const { rows, problems } = parseSpeciesCsv(readFileSync("tests/fixtures/setup/species-bad.csv", "utf8"));
     expect(problemLines(problems)).toEqual([3, 5, 7]);
     expect(problems.map((p) => [p.line, p.column, p.code])).toEqual([
-      [3, "taxon_group", "unknownGroup"], [5, "rank", "missingValue"], [7, "scientific_name", "duplicateName"],
+      [3, "taxon_group", "unknownGroup"],
+      [5, "rank", "missingValue"],
+      [7, "scientific_name", "duplicateName"],
     ]);
     expect(problems[2]!.values).toMatchObject({ first: 2 });
     expect(rows.map((r) => r.line)).toEqual([2, 4, 6, 8]);
   });
 
   it("counts lines as a text editor does, across blank lines, CRLF and a value spanning two lines", () => {
-    const text = "scientific_name,rank,taxon_group\r\n\r\nAmanita muscaria,species,fungi\r\n\"Boletus\nedulis\",species,fungi\r\nRussula emetica,species,fungus\r\n";
+    const text =
+      'scientific_name,rank,taxon_group\r\n\r\nAmanita muscaria,species,fungi\r\n"Boletus\nedulis",species,fungi\r\nRussula emetica,species,fungus\r\n';
     const { problems } = parseSpeciesCsv(text);
     expect(problems.map((p) => p.line)).toEqual([6]);
   });
 
   it("accepts semicolons and a byte-order mark, as spreadsheets export them", () => {
-    const { rows, problems } = parseSpeciesCsv("\uFEFFscientific_name;rank;taxon_group;common_name_fr\nCalluna vulgaris;species;vascular_plants;Callune\n");
+    const { rows, problems } = parseSpeciesCsv(
+      "\uFEFFscientific_name;rank;taxon_group;common_name_fr\nCalluna vulgaris;species;vascular_plants;Callune\n",
+    );
     expect(problems).toEqual([]);
     expect(rows[0]).toMatchObject({ scientificName: "Calluna vulgaris", names: { fr: "Callune" } });
   });
@@ -44,6 +59,9 @@ describe("species CSV", () => {
 
   it("reports an empty file and a line with the wrong number of values", () => {
     expect(parseSpeciesCsv("  \n").problems[0]!.code).toBe("empty");
-    expect(parseSpeciesCsv("scientific_name,rank,taxon_group\nAmanita muscaria,species\n").problems[0]).toMatchObject({ line: 2, code: "wrongFieldCount" });
+    expect(parseSpeciesCsv("scientific_name,rank,taxon_group\nAmanita muscaria,species\n").problems[0]).toMatchObject({
+      line: 2,
+      code: "wrongFieldCount",
+    });
   });
 });

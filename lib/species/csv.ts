@@ -1,15 +1,16 @@
 import Papa from "papaparse";
+import {
+  SENSITIVITIES,
+  TAXON_GROUPS,
+  TAXON_RANKS,
+  type Sensitivity,
+  type TaxonGroup,
+  type TaxonRank,
+} from "@/lib/domain";
 
 // Species-list CSV: one taxon per line. Parsed with papaparse; every problem carries the
 // line number a person sees in their spreadsheet or text editor (1 = the header line),
 // so a report can say exactly which lines to fix. Pure: no database, no framework.
-
-export const TAXON_GROUPS = ["birds", "vascular_plants", "insects", "fungi", "mammals", "amphibians_reptiles", "molluscs", "other"] as const;
-export const TAXON_RANKS = ["family", "genus", "species", "subspecies", "variety", "form"] as const;
-export const SENSITIVITIES = ["open", "generalised", "restricted"] as const;
-export type TaxonGroupCode = (typeof TAXON_GROUPS)[number];
-export type TaxonRankCode = (typeof TAXON_RANKS)[number];
-export type SensitivityCode = (typeof SENSITIVITIES)[number];
 
 export const REQUIRED_COLUMNS = ["scientific_name", "rank", "taxon_group"] as const;
 export const OPTIONAL_COLUMNS = ["sensitivity"] as const;
@@ -18,19 +19,36 @@ export const MAX_ROWS = 5000;
 export const MAX_NAME_LENGTH = 200;
 
 export type CsvProblemCode =
-  | "empty" | "tooManyRows" | "unreadable" | "missingColumn" | "unknownColumn" | "duplicateColumn"
-  | "missingValue" | "unknownGroup" | "unknownRank" | "unknownSensitivity" | "tooLong" | "duplicateName" | "wrongFieldCount"
+  | "empty"
+  | "tooManyRows"
+  | "unreadable"
+  | "missingColumn"
+  | "unknownColumn"
+  | "duplicateColumn"
+  | "missingValue"
+  | "unknownGroup"
+  | "unknownRank"
+  | "unknownSensitivity"
+  | "tooLong"
+  | "duplicateName"
+  | "wrongFieldCount"
   // Against the site's shared taxa (db/queries/setup-species.ts):
-  | "groupConflict" | "rankConflict";
+  | "groupConflict"
+  | "rankConflict";
 
-export type CsvProblem = { line: number; column?: string; code: CsvProblemCode; values?: Record<string, string | number> };
+export type CsvProblem = {
+  line: number;
+  column?: string;
+  code: CsvProblemCode;
+  values?: Record<string, string | number>;
+};
 
 export type SpeciesRow = {
   line: number;
   scientificName: string;
-  rank: TaxonRankCode;
-  taxonGroup: TaxonGroupCode;
-  sensitivity: SensitivityCode | null; // null: not given in the file
+  rank: TaxonRank;
+  taxonGroup: TaxonGroup;
+  sensitivity: Sensitivity | null; // null: not given in the file
   names: Record<string, string>; // locale → common name
 };
 
@@ -38,7 +56,10 @@ export type ParsedSpecies = { rows: SpeciesRow[]; problems: CsvProblem[]; locale
 
 const norm = (s: string) => s.trim().replace(/\s+/g, " ");
 // "Vascular plants", "vascular-plants" and "VASCULAR_PLANTS" all mean vascular_plants.
-const code = (s: string) => norm(s).toLowerCase().replace(/[\s-]+/g, "_");
+const code = (s: string) =>
+  norm(s)
+    .toLowerCase()
+    .replace(/[\s-]+/g, "_");
 
 export function parseSpeciesCsv(text: string): ParsedSpecies {
   const problems: CsvProblem[] = [];
@@ -61,7 +82,11 @@ export function parseSpeciesCsv(text: string): ParsedSpecies {
     step: (result, parser) => {
       // Skip the blank lines papaparse passed over before this row.
       let start = consumed;
-      while (start < body.length && (body[start] === "\n" || body[start] === "\r" || body[start] === " " || body[start] === "\t")) start++;
+      while (
+        start < body.length &&
+        (body[start] === "\n" || body[start] === "\r" || body[start] === " " || body[start] === "\t")
+      )
+        start++;
       advance(start);
       const rowLine = line;
       for (const e of result.errors) {
@@ -76,7 +101,12 @@ export function parseSpeciesCsv(text: string): ParsedSpecies {
       }
     },
   });
-  if (tooMany) return { rows: [], problems: [{ line: records.at(-1)!.line, code: "tooManyRows", values: { maximum: MAX_ROWS } }], locales: [] };
+  if (tooMany)
+    return {
+      rows: [],
+      problems: [{ line: records.at(-1)!.line, code: "tooManyRows", values: { maximum: MAX_ROWS } }],
+      locales: [],
+    };
   if (records.length === 0) return { rows: [], problems: [{ line: 1, code: "empty" }], locales: [] };
 
   // Header: known columns only, each once.
@@ -89,7 +119,10 @@ export function parseSpeciesCsv(text: string): ParsedSpecies {
     seen.add(c);
     const m = COMMON_NAME.exec(c);
     if (m) locales.push(m[1]!);
-    else if (!(REQUIRED_COLUMNS as readonly string[]).includes(c) && !(OPTIONAL_COLUMNS as readonly string[]).includes(c)) {
+    else if (
+      !(REQUIRED_COLUMNS as readonly string[]).includes(c) &&
+      !(OPTIONAL_COLUMNS as readonly string[]).includes(c)
+    ) {
       problems.push({ line: header.line, column: header.cells[i] || `#${i + 1}`, code: "unknownColumn" });
     }
   });
@@ -105,7 +138,11 @@ export function parseSpeciesCsv(text: string): ParsedSpecies {
   for (const rec of records.slice(1)) {
     const before = problems.length;
     if (rec.cells.length !== columns.length) {
-      problems.push({ line: rec.line, code: "wrongFieldCount", values: { expected: columns.length, found: rec.cells.length } });
+      problems.push({
+        line: rec.line,
+        code: "wrongFieldCount",
+        values: { expected: columns.length, found: rec.cells.length },
+      });
       continue;
     }
     const scientificName = at(rec.cells, "scientific_name");
@@ -113,26 +150,69 @@ export function parseSpeciesCsv(text: string): ParsedSpecies {
     const group = code(at(rec.cells, "taxon_group"));
     const sens = columns.includes("sensitivity") ? code(at(rec.cells, "sensitivity")) : "";
     if (!scientificName) problems.push({ line: rec.line, column: "scientific_name", code: "missingValue" });
-    else if (scientificName.length > MAX_NAME_LENGTH) problems.push({ line: rec.line, column: "scientific_name", code: "tooLong", values: { maximum: MAX_NAME_LENGTH } });
+    else if (scientificName.length > MAX_NAME_LENGTH)
+      problems.push({
+        line: rec.line,
+        column: "scientific_name",
+        code: "tooLong",
+        values: { maximum: MAX_NAME_LENGTH },
+      });
     if (!rank) problems.push({ line: rec.line, column: "rank", code: "missingValue" });
-    else if (!(TAXON_RANKS as readonly string[]).includes(rank)) problems.push({ line: rec.line, column: "rank", code: "unknownRank", values: { value: at(rec.cells, "rank"), allowed: TAXON_RANKS.join(", ") } });
+    else if (!(TAXON_RANKS as readonly string[]).includes(rank))
+      problems.push({
+        line: rec.line,
+        column: "rank",
+        code: "unknownRank",
+        values: { value: at(rec.cells, "rank"), allowed: TAXON_RANKS.join(", ") },
+      });
     if (!group) problems.push({ line: rec.line, column: "taxon_group", code: "missingValue" });
-    else if (!(TAXON_GROUPS as readonly string[]).includes(group)) problems.push({ line: rec.line, column: "taxon_group", code: "unknownGroup", values: { value: at(rec.cells, "taxon_group"), allowed: TAXON_GROUPS.join(", ") } });
-    if (sens && !(SENSITIVITIES as readonly string[]).includes(sens)) problems.push({ line: rec.line, column: "sensitivity", code: "unknownSensitivity", values: { value: at(rec.cells, "sensitivity"), allowed: SENSITIVITIES.join(", ") } });
+    else if (!(TAXON_GROUPS as readonly string[]).includes(group))
+      problems.push({
+        line: rec.line,
+        column: "taxon_group",
+        code: "unknownGroup",
+        values: { value: at(rec.cells, "taxon_group"), allowed: TAXON_GROUPS.join(", ") },
+      });
+    if (sens && !(SENSITIVITIES as readonly string[]).includes(sens))
+      problems.push({
+        line: rec.line,
+        column: "sensitivity",
+        code: "unknownSensitivity",
+        values: { value: at(rec.cells, "sensitivity"), allowed: SENSITIVITIES.join(", ") },
+      });
     const names: Record<string, string> = {};
     for (const l of locales) {
       const v = at(rec.cells, `common_name_${l}`);
-      if (v.length > MAX_NAME_LENGTH) problems.push({ line: rec.line, column: `common_name_${l}`, code: "tooLong", values: { maximum: MAX_NAME_LENGTH } });
+      if (v.length > MAX_NAME_LENGTH)
+        problems.push({
+          line: rec.line,
+          column: `common_name_${l}`,
+          code: "tooLong",
+          values: { maximum: MAX_NAME_LENGTH },
+        });
       else if (v) names[l] = v;
     }
     if (scientificName) {
       const key = scientificName.toLowerCase();
       const first = firstLineOf.get(key);
-      if (first !== undefined) problems.push({ line: rec.line, column: "scientific_name", code: "duplicateName", values: { name: scientificName, first } });
+      if (first !== undefined)
+        problems.push({
+          line: rec.line,
+          column: "scientific_name",
+          code: "duplicateName",
+          values: { name: scientificName, first },
+        });
       else firstLineOf.set(key, rec.line);
     }
     if (problems.length === before) {
-      rows.push({ line: rec.line, scientificName, rank: rank as TaxonRankCode, taxonGroup: group as TaxonGroupCode, sensitivity: (sens || null) as SensitivityCode | null, names });
+      rows.push({
+        line: rec.line,
+        scientificName,
+        rank: rank as TaxonRank,
+        taxonGroup: group as TaxonGroup,
+        sensitivity: (sens || null) as Sensitivity | null,
+        names,
+      });
     }
   }
   return { rows, problems, locales };

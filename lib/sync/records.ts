@@ -1,4 +1,6 @@
 import { z } from "zod";
+import { SESSION_KINDS, type ReviewState } from "@/lib/domain";
+import { freeText } from "@/lib/validation/text";
 
 // The field log's sync batch: the one contract between the device (lib/field, IndexedDB
 // outbox) and the server (the sync route handler). Ids are made on the device (uuid v4),
@@ -10,57 +12,60 @@ import { z } from "zod";
 
 export const MAX_BATCH_RECORDS = 100;
 
-const isoInstant = z.iso.datetime({ offset: true });
-const text = (max: number) => z.string().max(max).default("");
+/** A sighting's review state, as the server tells the phone (acknowledgements, "mine"). */
+export type { ReviewState };
 
-export const sessionRecord = z.object({
-  id: z.uuid(),
-  zoneId: z.uuid().nullable(),
-  kind: z.enum(["timed_count", "walk", "plot_search"]),
-  startedAt: isoInstant,
-  endedAt: isoInstant.nullable(),
-  allSpeciesNoted: z.boolean(), // only true once ended: "all species noted"
-  distanceM: z.number().finite().min(0).max(100_000).nullable(), // walks
-  notes: text(2000),
-}).strict();
+const isoInstant = z.iso.datetime({ offset: true });
+const text = (max: number) => freeText().max(max).default(""); // no NUL: PostgreSQL text cannot hold it
+
+export const sessionRecord = z
+  .object({
+    id: z.uuid(),
+    zoneId: z.uuid().nullable(),
+    kind: z.enum(SESSION_KINDS),
+    startedAt: isoInstant,
+    endedAt: isoInstant.nullable(),
+    allSpeciesNoted: z.boolean(), // only true once ended: "all species noted"
+    distanceM: z.number().finite().min(0).max(100_000).nullable(), // walks
+    notes: text(2000),
+  })
+  .strict();
 export type SessionRecord = z.infer<typeof sessionRecord>;
 
-export const sightingRecord = z.object({
-  id: z.uuid(),
-  sessionId: z.uuid().nullable(),
-  taxonId: z.uuid().nullable(), // null: unidentified, then description is required
-  description: text(2000),
-  count: z.number().int().min(1).max(1_000_000),
-  countIsEstimate: z.boolean(), // "about"
-  observedAt: isoInstant,
-  latitude: z.number().finite().min(-90).max(90),
-  longitude: z.number().finite().min(-180).max(180),
-  accuracyM: z.number().finite().min(0).max(100_000),
-  zoneId: z.uuid().nullable(), // the device's guess (point in polygon); the server decides with PostGIS
-  notes: text(2000),
-  photoIds: z.array(z.uuid()).max(10).default([]), // photos follow through the photo handlers
-  // A returned sighting edited and resent: the version the volunteer edited and their answer.
-  answer: z.object({ toVersion: z.number().int().min(1), message: z.string().min(1).max(2000) }).strict().optional(),
-}).strict();
+export const sightingRecord = z
+  .object({
+    id: z.uuid(),
+    sessionId: z.uuid().nullable(),
+    taxonId: z.uuid().nullable(), // null: unidentified, then description is required
+    description: text(2000),
+    count: z.number().int().min(1).max(1_000_000),
+    countIsEstimate: z.boolean(), // "about"
+    observedAt: isoInstant,
+    latitude: z.number().finite().min(-90).max(90),
+    longitude: z.number().finite().min(-180).max(180),
+    accuracyM: z.number().finite().min(0).max(100_000),
+    zoneId: z.uuid().nullable(), // the device's guess (point in polygon); the server decides with PostGIS
+    notes: text(2000),
+    photoIds: z.array(z.uuid()).max(10).default([]), // photos follow through the photo handlers
+    // A returned sighting edited and resent: the version the volunteer edited and their answer.
+    answer: z
+      .object({ toVersion: z.number().int().min(1), message: freeText().min(1).max(2000) })
+      .strict()
+      .optional(),
+  })
+  .strict();
 export type SightingRecord = z.infer<typeof sightingRecord>;
 
-export const syncBatch = z.object({
-  sessions: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
-  sightings: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
-}).strict().refine((b) => b.sessions.length + b.sightings.length <= MAX_BATCH_RECORDS, {
-  message: "too_many_records", path: ["sightings"],
-});
+export const syncBatch = z
+  .object({
+    sessions: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
+    sightings: z.array(z.unknown()).max(MAX_BATCH_RECORDS).default([]),
+  })
+  .strict()
+  .refine((b) => b.sessions.length + b.sightings.length <= MAX_BATCH_RECORDS, {
+    message: "too_many_records",
+    path: ["sightings"],
+  });
 // Records are arrays of unknown at the batch level on purpose: each record is parsed on its
 // own with sessionRecord / sightingRecord, so one bad record never refuses its neighbours.
-
-export type SyncOutcome = "created" | "already_had" | "updated" | "refused";
-export type SyncAck = {
-  kind: "session" | "sighting";
-  id: string | null; // null only when a refused record had no readable id
-  index: number; // position in its array in the batch
-  outcome: SyncOutcome;
-  reason?: string; // translated, for refused records
-  field?: string; // the field at fault, for refused records
-  reviewState?: "pending" | "approved" | "rejected" | "returned";
-};
-export type SyncResponse = { acks: SyncAck[] };
+export type SyncBatch = z.infer<typeof syncBatch>;

@@ -13,7 +13,14 @@ export function isTimeZone(tz: string): boolean {
 /** The zone's offset from UTC at `instant`, in milliseconds. */
 function offsetAt(instant: number, tz: string): number {
   const parts = new Intl.DateTimeFormat("en-US", {
-    timeZone: tz, hourCycle: "h23", year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit",
+    timeZone: tz,
+    hourCycle: "h23",
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+    hour: "2-digit",
+    minute: "2-digit",
+    second: "2-digit",
   }).formatToParts(new Date(instant));
   const get = (type: string) => Number(parts.find((p) => p.type === type)?.value);
   const asUtc = Date.UTC(get("year"), get("month") - 1, get("day"), get("hour"), get("minute"), get("second"));
@@ -38,4 +45,12 @@ export function zonedLocalToUtc(local: string, tz: string): Date {
 export function utcToZonedLocal(instant: Date, tz: string): string {
   const shifted = new Date(instant.getTime() + offsetAt(instant.getTime(), tz));
   return shifted.toISOString().slice(0, 16);
+}
+
+/** An event's wall-clock dates ("2026-06-20T06:00") as instants in its time zone. */
+export function eventInstants(v: { startsLocal: string; endsLocal: string; timeZone: string }): {
+  startsAt: Date;
+  endsAt: Date;
+} {
+  return { startsAt: zonedLocalToUtc(v.startsLocal, v.timeZone), endsAt: zonedLocalToUtc(v.endsLocal, v.timeZone) };
 }

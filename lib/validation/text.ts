@@ -4,7 +4,14 @@ import { z } from "zod";
 // refused here with a message (a key under Setup.errors) rather than failing in the database.
 export const hasNoNul = (s: string) => !s.includes("\u0000");
 
-export const plainText = (max: number) => z.string().max(max, { error: "tooLong" }).refine(hasNoNul, { error: "invalidChar" });
+/** The message of the issue a NUL raises; lib/http/errors.ts answers it with a 422 naming the field. */
+export const NUL_ISSUE = "invalidChar";
+
+/** Any free text: a string with no U+0000 (chain .trim(), .min(), .max() after it). */
+export const freeText = () => z.string().refine(hasNoNul, { error: NUL_ISSUE });
+
+export const plainText = (max: number) =>
+  z.string().max(max, { error: "tooLong" }).refine(hasNoNul, { error: NUL_ISSUE });
 
 /** "YYYY-MM-DDTHH:mm" that names a real day and time (no 30 February, no 25:61). */
 export function isRealLocalDateTime(s: string): boolean {

@@ -1,14 +1,15 @@
 import "server-only";
 import { getServerSession } from "next-auth";
 import { eventAccess, findUserById, isOrganisationOrganiser, type EventAccess } from "@/db/queries/auth";
+import { SITE_ADMIN, type EffectiveRole, type EventRole, type TaxonGroup } from "@/lib/domain";
 import { ApiError } from "@/lib/http/errors";
+import { isUuid } from "@/lib/http/params";
 import { authOptions } from "@/server/auth/options";
 
 // The one authorisation helper (conventions, habit 4). Every route handler and every
 // signed-in page goes through these; 401 without a session, 403 with the wrong role.
 
 export type SessionUser = NonNullable<Awaited<ReturnType<typeof findUserById>>>;
-export type EventRole = "organiser" | "coordinator" | "volunteer";
 
 const rank: Record<EventRole, number> = { volunteer: 1, coordinator: 2, organiser: 3 };
 
@@ -25,17 +26,11 @@ export async function requireUser(): Promise<SessionUser> {
   return user;
 }
 
-export async function requireAdmin(): Promise<SessionUser> {
-  const user = await requireUser();
-  if (!user.isAdmin) throw new ApiError("forbidden");
-  return user;
-}
-
-export type EventPermit = { user: SessionUser; access: EventAccess; role: EventRole | "admin"; taxonGroups: string[] };
+export type EventPermit = { user: SessionUser; access: EventAccess; role: EffectiveRole; taxonGroups: TaxonGroup[] };
 
 /** The person's effective role in the event: admin, organiser (of the event's organisation, or by event role), then their event role. */
-export function effectiveRole(user: Pick<SessionUser, "isAdmin">, access: EventAccess): EventRole | "admin" | null {
-  if (user.isAdmin) return "admin";
+export function effectiveRole(user: Pick<SessionUser, "isAdmin">, access: EventAccess): EffectiveRole | null {
+  if (user.isAdmin) return SITE_ADMIN;
   if (access.isOrganisationOrganiser || access.role === "organiser") return "organiser";
   return access.role;
 }
@@ -51,11 +46,11 @@ export async function requireEventRole(eventId: string, minimum: EventRole): Pro
 
 /** requireEventRole's check for a person already known (a signed-in user, or a test's person). */
 export async function eventPermitFor(user: SessionUser, eventId: string, minimum: EventRole): Promise<EventPermit> {
-  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(eventId)) throw new ApiError("not_found"); // never a malformed uuid to PostgreSQL
+  if (!isUuid(eventId)) throw new ApiError("not_found"); // never a malformed uuid to PostgreSQL (handlers parse theirs first)
   const access = await eventAccess(user.id, eventId);
   if (!access) throw new ApiError("not_found");
   const role = effectiveRole(user, access);
-  if (!role || (role !== "admin" && rank[role] < rank[minimum])) throw new ApiError("forbidden");
+  if (!role || (role !== SITE_ADMIN && rank[role] < rank[minimum])) throw new ApiError("forbidden");
   // Only coordinators carry taxon-group limits; organisers and admins see everything.
   return { user, access, role, taxonGroups: role === "coordinator" ? access.taxonGroups : [] };
 }
@@ -63,6 +58,7 @@ export async function eventPermitFor(user: SessionUser, eventId: string, minimum
 export async function requireOrganisationOrganiser(organisationId: string): Promise<SessionUser> {
   const user = await requireUser();
   if (user.isAdmin) return user;
-  if (!/^[0-9a-f-]{36}$/i.test(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId))) throw new ApiError("forbidden");
+  if (!isUuid(organisationId) || !(await isOrganisationOrganiser(user.id, organisationId)))
+    throw new ApiError("forbidden");
   return user;
 }

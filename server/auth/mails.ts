@@ -13,7 +13,21 @@ export function signInMail(locale: Locale, url: string) {
   };
 }
 
-export function invitationMail(locale: Locale, opts: { url: string; eventName: string; role: string; inviter: string | null }) {
+/** The answer to a sign-in link asked for an address with no account and no invitation. */
+export function noAccountMail(locale: Locale) {
+  const t = translator(locale, "Mail");
+  const paragraphs = [t("noAccount.intro"), t("noAccount.howToJoin"), t("noAccount.ignore")];
+  return {
+    subject: t("noAccount.subject"),
+    text: `${paragraphs.join("\n\n")}\n\n${t("footer")}`,
+    html: mailHtml({ lang: locale, paragraphs, footer: t("footer") }),
+  };
+}
+
+export function invitationMail(
+  locale: Locale,
+  opts: { url: string; eventName: string; role: string; inviter: string | null },
+) {
   const t = translator(locale, "Mail");
   const intro = opts.inviter
     ? t("invitation.intro", { inviter: opts.inviter, event: opts.eventName, role: opts.role })
@@ -22,6 +36,11 @@ export function invitationMail(locale: Locale, opts: { url: string; eventName: s
   return {
     subject: t("invitation.subject", { event: opts.eventName }),
     text: `${paragraphs[0]}\n\n${opts.url}\n\n${paragraphs[1]}\n\n${t("footer")}`,
-    html: mailHtml({ lang: locale, paragraphs, action: { label: t("invitation.action"), url: opts.url }, footer: t("footer") }),
+    html: mailHtml({
+      lang: locale,
+      paragraphs,
+      action: { label: t("invitation.action"), url: opts.url },
+      footer: t("footer"),
+    }),
   };
 }

@@ -2,11 +2,12 @@ import "server-only";
 import { redirect } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { ApiError } from "@/lib/http/errors";
-import { getSessionUser, requireEventRole, type EventRole, type SessionUser } from "@/server/auth/guard";
+import type { EventRole } from "@/lib/domain";
+import { getSessionUser, requireEventRole, type SessionUser } from "@/server/auth/guard";
 
 // Page-side faces of the one guard: no session sends the person to sign in and back;
-// the wrong role shows the localised "not allowed" page (thrown as an ApiError that
-// the page renders through forbidden()).
+// too low a role (or an event hidden from the person) gives null, and the page shows its
+// own translated "not allowed" message in place of its content.
 
 export async function requirePageUser(locale: Locale, returnTo: string): Promise<SessionUser> {
   const user = await getSessionUser();

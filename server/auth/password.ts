@@ -12,12 +12,16 @@ export const PASSWORD_MIN = 10;
 export const PASSWORD_MAX_BYTES = 72;
 
 /** Problems with a new password, as message keys under "Account.passwordRules". */
-export function passwordProblems(password: string, email?: string): ("tooShort" | "tooLong" | "sameAsEmail" | "tooCommon")[] {
+export function passwordProblems(
+  password: string,
+  email?: string,
+): ("tooShort" | "tooLong" | "sameAsEmail" | "tooCommon")[] {
   const problems: ("tooShort" | "tooLong" | "sameAsEmail" | "tooCommon")[] = [];
   if ([...password].length < PASSWORD_MIN) problems.push("tooShort");
   if (new TextEncoder().encode(password).length > PASSWORD_MAX_BYTES) problems.push("tooLong");
   if (email && password.trim().toLowerCase() === email.trim().toLowerCase()) problems.push("sameAsEmail");
-  if (/^(.)\1+$/.test(password) || /^(0123456789|1234567890|password\d*|qwertyuiop|iloveyou\d*)$/i.test(password)) problems.push("tooCommon");
+  if (/^(.)\1+$/.test(password) || /^(0123456789|1234567890|password\d*|qwertyuiop|iloveyou\d*)$/i.test(password))
+    problems.push("tooCommon");
   return problems;
 }
 

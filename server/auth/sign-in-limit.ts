@@ -1,5 +1,7 @@
 import "server-only";
 import { countRecentAttempts, recordAttempts } from "@/db/queries/auth";
+import { env } from "@/lib/env";
+import { clientAddress } from "@/lib/http/client-address";
 
 // Sign-in tries per 15 minutes: 5 per address (guessing one person's password), 60 per
 // IP address (a whole field team may share one mobile network's address).
@@ -7,9 +9,9 @@ export const WINDOW_MS = 15 * 60_000;
 export const LIMIT_PER_ADDRESS = 5;
 export const LIMIT_PER_IP = 60;
 
+/** The real client address (lib/http/client-address.ts): X-Forwarded-For only through TRUSTED_PROXIES. */
 export function clientIp(headers: Headers): string {
-  const forwarded = headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  return forwarded || headers.get("x-real-ip") || "local";
+  return clientAddress(headers, env().TRUSTED_PROXIES);
 }
 
 const keysFor = (email: string, ip: string) => ({ email: `email:${email.trim().toLowerCase()}`, ip: `ip:${ip}` });

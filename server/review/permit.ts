@@ -4,8 +4,6 @@ import { eventPermitFor, requireUser, type SessionUser } from "@/server/auth/gua
 import { requestLocale } from "@/lib/http/errors";
 import type { Locale } from "@/lib/i18n/routing";
 
-export const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 /** A coordinator (or organiser, or admin) of the event; a coordinator limited to taxon groups sees only those. */
 export async function requireReviewPermit(eventId: string, request: Request) {
   return reviewPermitFor(await requireUser(), eventId, requestLocale(request));

@@ -5,7 +5,9 @@ import S3rver from "s3rver";
 
 /** CORS for browser uploads to presigned URLs: exactly the app's origins, as S3 wants them. */
 export function corsXml(origins: string[]): string {
-  const rules = origins.map((o) => `
+  const rules = origins
+    .map(
+      (o) => `
   <CORSRule>
     <AllowedOrigin>${o}</AllowedOrigin>
     <AllowedMethod>PUT</AllowedMethod>
@@ -14,7 +16,9 @@ export function corsXml(origins: string[]): string {
     <AllowedHeader>*</AllowedHeader>
     <ExposeHeader>ETag</ExposeHeader>
     <MaxAgeSeconds>3000</MaxAgeSeconds>
-  </CORSRule>`).join("");
+  </CORSRule>`,
+    )
+    .join("");
   return `<CORSConfiguration xmlns="http://s3.amazonaws.com/doc/2006-03-01/">${rules}\n</CORSConfiguration>`;
 }
 
@@ -27,9 +31,18 @@ export function loopbackOrigins(appUrl: string): string[] {
   return [...out];
 }
 
-export async function startS3Fake(opts: { port: number; directory: string; bucket: string; appUrls: string[]; silent?: boolean }): Promise<S3rver> {
+export async function startS3Fake(opts: {
+  port: number;
+  directory: string;
+  bucket: string;
+  appUrls: string[];
+  silent?: boolean;
+}): Promise<S3rver> {
   const server = new S3rver({
-    address: "127.0.0.1", port: opts.port, silent: opts.silent ?? true, directory: opts.directory,
+    address: "127.0.0.1",
+    port: opts.port,
+    silent: opts.silent ?? true,
+    directory: opts.directory,
     configureBuckets: [{ name: opts.bucket, configs: [corsXml(opts.appUrls.flatMap(loopbackOrigins))] }],
   });
   await server.run();

@@ -1,5 +1,12 @@
 import "server-only";
-import { DeleteObjectCommand, GetObjectCommand, NoSuchKey, PutObjectCommand, S3Client, S3ServiceException } from "@aws-sdk/client-s3";
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  NoSuchKey,
+  PutObjectCommand,
+  S3Client,
+  S3ServiceException,
+} from "@aws-sdk/client-s3";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
 import { env } from "@/lib/env";
 
@@ -11,10 +18,13 @@ const globalForS3 = globalThis as unknown as { ecotoneS3?: { server: S3Client; p
 function client(endpoint: string): S3Client {
   const e = env();
   return new S3Client({
-    region: e.S3_REGION, endpoint, forcePathStyle: e.S3_FORCE_PATH_STYLE,
+    region: e.S3_REGION,
+    endpoint,
+    forcePathStyle: e.S3_FORCE_PATH_STYLE,
     credentials: { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY },
     // Without these the SDK signs a checksum of an empty body into presigned PUT URLs.
-    requestChecksumCalculation: "WHEN_REQUIRED", responseChecksumValidation: "WHEN_REQUIRED",
+    requestChecksumCalculation: "WHEN_REQUIRED",
+    responseChecksumValidation: "WHEN_REQUIRED",
   });
 }
 
@@ -26,12 +36,6 @@ function clients() {
   return globalForS3.ecotoneS3;
 }
 
-/** The origin browsers talk to for photos (for the CSP and CORS). */
-export function photoStoreOrigin(): string {
-  const e = env();
-  return new URL(e.S3_PUBLIC_ENDPOINT ?? e.S3_ENDPOINT).origin;
-}
-
 /**
  * A presigned PUT for one object. The headers (type and x-amz-meta-*) are signed, so the
  * uploader must send exactly these; they carry what the device declared, for the check on confirm.
@@ -41,7 +45,8 @@ export async function presignPut(key: string, contentType: string, meta: Record<
   const headers: Record<string, string> = { "Content-Type": contentType };
   for (const [k, v] of Object.entries(meta)) headers[`x-amz-meta-${k}`] = v;
   const uploadUrl = await getSignedUrl(clients().public, command, {
-    expiresIn, unhoistableHeaders: new Set(Object.keys(headers).map((h) => h.toLowerCase())),
+    expiresIn,
+    unhoistableHeaders: new Set(Object.keys(headers).map((h) => h.toLowerCase())),
   });
   return { uploadUrl, headers, expiresAt: new Date(Date.now() + expiresIn * 1000).toISOString() };
 }
@@ -64,13 +69,16 @@ export async function readObject(key: string, maxBytes: number): Promise<StoredO
     if (bytes.length > maxBytes) return "too_large";
     return { bytes, contentType: out.ContentType, meta: out.Metadata ?? {} };
   } catch (err) {
-    if (err instanceof NoSuchKey || (err instanceof S3ServiceException && err.$metadata.httpStatusCode === 404)) return null;
+    if (err instanceof NoSuchKey || (err instanceof S3ServiceException && err.$metadata.httpStatusCode === 404))
+      return null;
     throw err;
   }
 }
 
 export async function writeObject(key: string, bytes: Buffer, contentType: string): Promise<void> {
-  await clients().server.send(new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: bytes, ContentType: contentType }));
+  await clients().server.send(
+    new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: bytes, ContentType: contentType }),
+  );
 }
 
 export async function deleteObject(key: string): Promise<void> {

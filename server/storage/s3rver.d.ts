@@ -1,7 +1,14 @@
 // s3rver 3.7 ships no types; only what server/storage/s3-fake.ts uses.
 declare module "s3rver" {
   type BucketConfig = { name: string; configs: (string | Buffer)[] };
-  type Options = { address?: string; port?: number; silent?: boolean; directory?: string; resetOnClose?: boolean; configureBuckets?: BucketConfig[] };
+  type Options = {
+    address?: string;
+    port?: number;
+    silent?: boolean;
+    directory?: string;
+    resetOnClose?: boolean;
+    configureBuckets?: BucketConfig[];
+  };
   export default class S3rver {
     constructor(options: Options);
     run(): Promise<{ address: string; port: number }>;

@@ -33,8 +33,14 @@ export async function startChaosProxy(opts: {
     };
     client.on("error", end);
     upstream.on("error", end);
-    client.on("close", () => { sockets.delete(client); upstream.destroy(); });
-    upstream.on("close", () => { sockets.delete(upstream); client.end(); });
+    client.on("close", () => {
+      sockets.delete(client);
+      upstream.destroy();
+    });
+    upstream.on("close", () => {
+      sockets.delete(upstream);
+      client.end();
+    });
 
     let sentUp = 0;
     client.on("data", (chunk: Buffer) => {
@@ -52,7 +58,10 @@ export async function startChaosProxy(opts: {
       if (fate === "cut-response") return end(); // the server acted; the device never hears it
       if (fate === "delay") {
         upstream.pause();
-        setTimeout(() => { if (!client.destroyed) client.write(chunk); upstream.resume(); }, opts.delayMs);
+        setTimeout(() => {
+          if (!client.destroyed) client.write(chunk);
+          upstream.resume();
+        }, opts.delayMs);
         return;
       }
       client.write(chunk);
@@ -62,9 +71,10 @@ export async function startChaosProxy(opts: {
   return {
     port: opts.listenPort,
     counts,
-    close: () => new Promise<void>((resolve) => {
-      for (const s of sockets) s.destroy();
-      server.close(() => resolve());
-    }),
+    close: () =>
+      new Promise<void>((resolve) => {
+        for (const s of sockets) s.destroy();
+        server.close(() => resolve());
+      }),
   };
 }

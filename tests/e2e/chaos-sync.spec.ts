@@ -52,29 +52,45 @@ const SEED = Number(process.env.CHAOS_SEED ?? 20261202);
 const random = seededRandom(SEED); // so a failing run can be replayed
 
 /** One HTTP request on its own connection (no keep-alive), with the device's patience. */
-function send(method: string, port: number, path: string, body: unknown, headers: Record<string, string>, timeoutMs: number)
-  : Promise<{ status: number; json: unknown }> {
+function send(
+  method: string,
+  port: number,
+  path: string,
+  body: unknown,
+  headers: Record<string, string>,
+  timeoutMs: number,
+): Promise<{ status: number; json: unknown }> {
   return new Promise((resolve, reject) => {
     const payload = body === undefined ? undefined : Buffer.from(JSON.stringify(body));
-    const req = http.request({
-      host: "127.0.0.1", port, path, method, agent: false, timeout: timeoutMs,
-      headers: {
-        connection: "close", origin: `http://127.0.0.1:${PROXY_PORT}`, ...headers,
-        ...(payload ? { "content-type": "application/json", "content-length": String(payload.length) } : {}),
+    const req = http.request(
+      {
+        host: "127.0.0.1",
+        port,
+        path,
+        method,
+        agent: false,
+        timeout: timeoutMs,
+        headers: {
+          connection: "close",
+          origin: `http://127.0.0.1:${PROXY_PORT}`,
+          ...headers,
+          ...(payload ? { "content-type": "application/json", "content-length": String(payload.length) } : {}),
+        },
       },
-    }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => {
-        const text = Buffer.concat(chunks).toString("utf8");
-        try {
-          resolve({ status: res.statusCode ?? 0, json: text ? JSON.parse(text) : null });
-        } catch {
-          reject(new Error(`unreadable answer (${res.statusCode}): ${text.slice(0, 80)}`));
-        }
-      });
-      res.on("error", reject);
-    });
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () => {
+          const text = Buffer.concat(chunks).toString("utf8");
+          try {
+            resolve({ status: res.statusCode ?? 0, json: text ? JSON.parse(text) : null });
+          } catch {
+            reject(new Error(`unreadable answer (${res.statusCode}): ${text.slice(0, 80)}`));
+          }
+        });
+        res.on("error", reject);
+      },
+    );
     req.on("timeout", () => req.destroy(new Error("device gave up waiting")));
     req.on("error", reject);
     if (payload) req.write(payload);
@@ -87,27 +103,42 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 /** An organisation and open event of their own (so no other test's counts move), 100 volunteers, 30 taxa. */
 async function prepareEvent(pg: Client) {
   const now = Date.now();
-  const org = await pg.query<{ id: string }>("INSERT INTO organisations (slug, name) VALUES ($1, 'Chaos sync trust') RETURNING id", [`chaos-${now}`]);
+  const org = await pg.query<{ id: string }>(
+    "INSERT INTO organisations (slug, name) VALUES ($1, 'Chaos sync trust') RETURNING id",
+    [`chaos-${now}`],
+  );
   const event = await pg.query<{ id: string }>(
     `INSERT INTO events (organisation_id, slug, name, status, starts_at, ends_at, time_zone, area)
      VALUES ($1, $2, 'Chaos sync count', 'open', $3, $4, 'Europe/London',
              ST_SetSRID(ST_GeomFromText('POLYGON((-1.30 51.70,-1.20 51.70,-1.20 51.76,-1.30 51.76,-1.30 51.70))'), 4326))
      RETURNING id`,
-    [org.rows[0]!.id, `chaos-${now}`, new Date(now - 86_400_000), new Date(now + 86_400_000)]);
+    [org.rows[0]!.id, `chaos-${now}`, new Date(now - 86_400_000), new Date(now + 86_400_000)],
+  );
   const eventId = event.rows[0]!.id;
   const zones = await pg.query<{ id: string }>(
     `INSERT INTO zones (event_id, name, habitat, geom) VALUES
        ($1, 'West', 'edge', ST_SetSRID(ST_GeomFromText('POLYGON((-1.30 51.70,-1.25 51.70,-1.25 51.76,-1.30 51.76,-1.30 51.70))'), 4326)),
        ($1, 'East', 'interior', ST_SetSRID(ST_GeomFromText('POLYGON((-1.25 51.70,-1.20 51.70,-1.20 51.76,-1.25 51.76,-1.25 51.70))'), 4326))
-     RETURNING id`, [eventId]);
-  const taxa = await pg.query<{ id: string }>("SELECT id FROM taxa WHERE sensitivity = 'open' ORDER BY scientific_name LIMIT 30");
-  await pg.query("INSERT INTO event_species (event_id, taxon_id) SELECT $1, unnest($2::uuid[])", [eventId, taxa.rows.map((t) => t.id)]);
+     RETURNING id`,
+    [eventId],
+  );
+  const taxa = await pg.query<{ id: string }>(
+    "SELECT id FROM taxa WHERE sensitivity = 'open' ORDER BY scientific_name LIMIT 30",
+  );
+  await pg.query("INSERT INTO event_species (event_id, taxon_id) SELECT $1, unnest($2::uuid[])", [
+    eventId,
+    taxa.rows.map((t) => t.id),
+  ]);
   const users = await pg.query<{ id: string; email: string }>(
     `INSERT INTO users (email, name)
      SELECT 'chaos-device-' || g || '-' || $1 || '@example.org', 'Device ' || g FROM generate_series(1, $2) g
-     RETURNING id, email`, [now, DEVICES]);
-  await pg.query("INSERT INTO event_members (event_id, user_id, role) SELECT $1, unnest($2::uuid[]), 'volunteer'",
-    [eventId, users.rows.map((u) => u.id)]);
+     RETURNING id, email`,
+    [now, DEVICES],
+  );
+  await pg.query("INSERT INTO event_members (event_id, user_id, role) SELECT $1, unnest($2::uuid[]), 'volunteer'", [
+    eventId,
+    users.rows.map((u) => u.id),
+  ]);
   return { eventId, zoneIds: zones.rows.map((z) => z.id), taxonIds: taxa.rows.map((t) => t.id), users: users.rows };
 }
 
@@ -119,9 +150,14 @@ function makeDevice(n: number, cookie: string, ctx: Awaited<ReturnType<typeof pr
   for (let i = 0; i < sessionCount; i++) {
     const startedAt = new Date(start + i * 3_600_000);
     sessions.push({
-      id: randomUUID(), zoneId: ctx.zoneIds[i % ctx.zoneIds.length]!, kind: i % 2 ? "walk" : "timed_count",
-      startedAt: startedAt.toISOString(), endedAt: new Date(startedAt.getTime() + 1_800_000).toISOString(),
-      allSpeciesNoted: true, distanceM: i % 2 ? 850 : null, notes: "",
+      id: randomUUID(),
+      zoneId: ctx.zoneIds[i % ctx.zoneIds.length]!,
+      kind: i % 2 ? "walk" : "timed_count",
+      startedAt: startedAt.toISOString(),
+      endedAt: new Date(startedAt.getTime() + 1_800_000).toISOString(),
+      allSpeciesNoted: true,
+      distanceM: i % 2 ? 850 : null,
+      notes: "",
     });
   }
   const sightings: Sighting[] = [];
@@ -131,10 +167,18 @@ function makeDevice(n: number, cookie: string, ctx: Awaited<ReturnType<typeof pr
     const id = randomUUID();
     const lon = -1.295 + random() * 0.09;
     sightings.push({
-      id, sessionId: inSession?.id ?? null, taxonId: ctx.taxonIds[Math.floor(random() * ctx.taxonIds.length)]!,
-      description: "", count: 1 + Math.floor(random() * 6), countIsEstimate: random() < 0.1,
-      observedAt: new Date(start + i * 120_000).toISOString(), latitude: 51.705 + random() * 0.05, longitude: lon,
-      accuracyM: 5 + Math.round(random() * 20), zoneId: null, notes: i % 7 ? "" : `device ${n} note ${i}`,
+      id,
+      sessionId: inSession?.id ?? null,
+      taxonId: ctx.taxonIds[Math.floor(random() * ctx.taxonIds.length)]!,
+      description: "",
+      count: 1 + Math.floor(random() * 6),
+      countIsEstimate: random() < 0.1,
+      observedAt: new Date(start + i * 120_000).toISOString(),
+      latitude: 51.705 + random() * 0.05,
+      longitude: lon,
+      accuracyM: 5 + Math.round(random() * 20),
+      zoneId: null,
+      notes: i % 7 ? "" : `device ${n} note ${i}`,
       photoIds: [],
     });
     if (i === 7 || (n % 10 === 0 && i === 31)) {
@@ -160,7 +204,11 @@ async function runDevice(d: Device, eventId: string, tally: Tally) {
     const sessions = d.sessions.filter((s) => !d.acked.has(s.id));
     const size = 20 + Math.floor(random() * 31);
     const sightings = d.sightings
-      .filter((s) => !d.acked.has(s.id) && (!s.sessionId || d.acked.has(s.sessionId) || sessions.some((x) => x.id === s.sessionId)))
+      .filter(
+        (s) =>
+          !d.acked.has(s.id) &&
+          (!s.sessionId || d.acked.has(s.sessionId) || sessions.some((x) => x.id === s.sessionId)),
+      )
       .slice(0, size - sessions.length);
     if (sessions.length + sightings.length === 0) break;
     const body = { sessions, sightings };
@@ -184,10 +232,13 @@ async function runDevice(d: Device, eventId: string, tally: Tally) {
       // Now and then the device sends the very same batch again (it lost track of the ack).
       if (random() < 0.15) {
         d.repeats += 1;
-        const again = await send("POST", PROXY_PORT, `/api/events/${eventId}/sync`, body, headers, PATIENCE_MS).catch(() => null);
-        const acks = (again?.status === 200 ? (again.json as { acks: { id: string; outcome: string }[] }).acks : []);
+        const again = await send("POST", PROXY_PORT, `/api/events/${eventId}/sync`, body, headers, PATIENCE_MS).catch(
+          () => null,
+        );
+        const acks = again?.status === 200 ? (again.json as { acks: { id: string; outcome: string }[] }).acks : [];
         for (const ack of acks) {
-          if (ack.outcome !== "already_had") tally.unexpected.push(`device ${d.n}: repeated ${ack.id} answered ${ack.outcome}`);
+          if (ack.outcome !== "already_had")
+            tally.unexpected.push(`device ${d.n}: repeated ${ack.id} answered ${ack.outcome}`);
         }
       }
     } catch {
@@ -200,24 +251,44 @@ async function runDevice(d: Device, eventId: string, tally: Tally) {
     while (!d.photosDone.has(photo.id)) {
       try {
         const meta = {
-          id: photo.id, sightingId: photo.sightingId, contentType: "image/png", sizeBytes: photo.bytes.length,
-          sha256: createHash("sha256").update(photo.bytes).digest("hex"), width: PNG_SIZE.width, height: PNG_SIZE.height,
+          id: photo.id,
+          sightingId: photo.sightingId,
+          contentType: "image/png",
+          sizeBytes: photo.bytes.length,
+          sha256: createHash("sha256").update(photo.bytes).digest("hex"),
+          width: PNG_SIZE.width,
+          height: PNG_SIZE.height,
         };
         const presign = await send("POST", PROXY_PORT, `/api/events/${eventId}/photos`, meta, headers, PATIENCE_MS);
         if (presign.status === 429 || presign.status >= 500) throw new Error(`presign ${presign.status}`);
         if (presign.status !== 200) {
-          tally.unexpected.push(`device ${d.n}: presign ${presign.status} ${JSON.stringify(presign.json).slice(0, 200)}`);
+          tally.unexpected.push(
+            `device ${d.n}: presign ${presign.status} ${JSON.stringify(presign.json).slice(0, 200)}`,
+          );
           return;
         }
         const p = presign.json as { uploadUrl?: string; headers?: Record<string, string>; outcome?: string };
         if (p.uploadUrl) {
-          const put = await fetch(p.uploadUrl, { method: "PUT", headers: p.headers ?? {}, body: new Uint8Array(photo.bytes) });
+          const put = await fetch(p.uploadUrl, {
+            method: "PUT",
+            headers: p.headers ?? {},
+            body: new Uint8Array(photo.bytes),
+          });
           if (!put.ok) throw new Error(`PUT ${put.status}`);
         }
-        const confirm = await send("POST", PROXY_PORT, `/api/events/${eventId}/photos/${photo.id}/confirm`, {}, headers, PATIENCE_MS);
+        const confirm = await send(
+          "POST",
+          PROXY_PORT,
+          `/api/events/${eventId}/photos/${photo.id}/confirm`,
+          {},
+          headers,
+          PATIENCE_MS,
+        );
         if (confirm.status === 429 || confirm.status >= 500) throw new Error(`confirm ${confirm.status}`);
         if (confirm.status !== 200) {
-          tally.unexpected.push(`device ${d.n}: confirm ${confirm.status} ${JSON.stringify(confirm.json).slice(0, 200)}`);
+          tally.unexpected.push(
+            `device ${d.n}: confirm ${confirm.status} ${JSON.stringify(confirm.json).slice(0, 200)}`,
+          );
           return;
         }
         d.photosDone.add(photo.id);
@@ -232,15 +303,24 @@ async function runDevice(d: Device, eventId: string, tally: Tally) {
 function startServer(): Promise<ChildProcess> {
   const child = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(SERVER_PORT)], {
     env: {
-      ...process.env, DATABASE_URL, APP_URL: `http://127.0.0.1:${PROXY_PORT}`, AUTH_SECRET: SECRET, NEXT_TELEMETRY_DISABLED: "1",
-      S3_ENDPOINT: `http://127.0.0.1:${S3_PORT}`, S3_BUCKET: BUCKET, CSP_EXTRA_ORIGINS: `http://127.0.0.1:${S3_PORT}`,
+      ...process.env,
+      DATABASE_URL,
+      APP_URL: `http://127.0.0.1:${PROXY_PORT}`,
+      AUTH_SECRET: SECRET,
+      NEXT_TELEMETRY_DISABLED: "1",
+      S3_ENDPOINT: `http://127.0.0.1:${S3_PORT}`,
+      S3_BUCKET: BUCKET,
+      CSP_EXTRA_ORIGINS: `http://127.0.0.1:${S3_PORT}`,
     },
     stdio: ["ignore", "ignore", "pipe"],
   });
   child.stderr?.on("data", (c: Buffer) => process.stderr.write(`[chaos server] ${c}`));
   return (async () => {
     for (let i = 0; i < 240; i++) {
-      const up = await send("GET", SERVER_PORT, "/api/health", undefined, {}, 1_000).then((r) => r.status === 200, () => false);
+      const up = await send("GET", SERVER_PORT, "/api/health", undefined, {}, 1_000).then(
+        (r) => r.status === 200,
+        () => false,
+      );
       if (up) return child;
       await sleep(250);
     }
@@ -251,14 +331,23 @@ function startServer(): Promise<ChildProcess> {
 
 test("100 devices sync 5,000 sightings through dropped connections and a server restart, exactly once", async () => {
   test.setTimeout(720_000);
-  PNG = await sharp({ create: { ...PNG_SIZE, channels: 3, background: { r: 60, g: 110, b: 70 } } }).png().toBuffer();
+  PNG = await sharp({ create: { ...PNG_SIZE, channels: 3, background: { r: 60, g: 110, b: 70 } } })
+    .png()
+    .toBuffer();
   const pg = new Client({ connectionString: DATABASE_URL });
   await pg.connect();
   const s3dir = mkdtempSync(path.join(tmpdir(), "ecotone-chaos-s3-"));
-  const s3 = await startS3Fake({ port: S3_PORT, directory: s3dir, bucket: BUCKET, appUrls: [`http://127.0.0.1:${PROXY_PORT}`] });
+  const s3 = await startS3Fake({
+    port: S3_PORT,
+    directory: s3dir,
+    bucket: BUCKET,
+    appUrls: [`http://127.0.0.1:${PROXY_PORT}`],
+  });
   let server = await startServer();
   const proxy = await startChaosProxy({
-    listenPort: PROXY_PORT, targetPort: SERVER_PORT, delayMs: PATIENCE_MS + 2_000,
+    listenPort: PROXY_PORT,
+    targetPort: SERVER_PORT,
+    delayMs: PATIENCE_MS + 2_000,
     fate: (): Fate => {
       const r = random();
       return r < 0.1 ? "cut-request" : r < 0.2 ? "cut-response" : r < 0.27 ? "delay" : "pass";
@@ -266,17 +355,27 @@ test("100 devices sync 5,000 sightings through dropped connections and a server 
   });
   try {
     const ctx = await prepareEvent(pg);
-    const devices = await Promise.all(ctx.users.map(async (u, n) => {
-      const token = await encode({ token: { sub: u.id, email: u.email, name: `Device ${n + 1}` }, secret: SECRET });
-      return makeDevice(n + 1, `next-auth.session-token=${token}`, ctx);
-    }));
+    const devices = await Promise.all(
+      ctx.users.map(async (u, n) => {
+        const token = await encode({ token: { sub: u.id, email: u.email, name: `Device ${n + 1}` }, secret: SECRET });
+        return makeDevice(n + 1, `next-auth.session-token=${token}`, ctx);
+      }),
+    );
     const total = devices.reduce((sum, d) => sum + d.sessions.length + d.sightings.length, 0);
     const tally: Tally = { acked: 0, refused: [], unexpected: [], serverErrors: 0 };
     let settled = false;
-    const run = Promise.all(devices.map((d) => runDevice(d, ctx.eventId, tally))).finally(() => { settled = true; });
-    const progress = setInterval(() => console.log(`chaos: ${tally.acked}/${total} acknowledged, ` +
-      `${devices.reduce((n, d) => n + d.photosDone.size, 0)} photos, fates ${JSON.stringify(proxy.counts)}, ` +
-      `${tally.unexpected.length + tally.refused.length} problems`), 15_000);
+    const run = Promise.all(devices.map((d) => runDevice(d, ctx.eventId, tally))).finally(() => {
+      settled = true;
+    });
+    const progress = setInterval(
+      () =>
+        console.log(
+          `chaos: ${tally.acked}/${total} acknowledged, ` +
+            `${devices.reduce((n, d) => n + d.photosDone.size, 0)} photos, fates ${JSON.stringify(proxy.counts)}, ` +
+            `${tally.unexpected.length + tally.refused.length} problems`,
+        ),
+      15_000,
+    );
 
     // Once, mid-run: the app server dies without warning and is started again.
     while (tally.acked < total * 0.4 && !settled) await sleep(50);
@@ -300,37 +399,59 @@ test("100 devices sync 5,000 sightings through dropped connections and a server 
 
     // Every device's outbox would be empty: every record acknowledged, every photo confirmed.
     for (const d of devices) {
-      expect(d.sessions.concat(d.sightings).filter((r) => !d.acked.has(r.id)).map((r) => r.id)).toEqual([]);
+      expect(
+        d.sessions
+          .concat(d.sightings)
+          .filter((r) => !d.acked.has(r.id))
+          .map((r) => r.id),
+      ).toEqual([]);
       expect(d.photos.filter((p) => !d.photosDone.has(p.id)).length).toBe(0);
     }
     // Exactly the devices' records, once each.
     const sent = devices.flatMap((d) => d.sightings.map((s) => s.id)).sort();
-    const stored = await pg.query<{ id: string }>("SELECT id FROM sightings WHERE event_id = $1 ORDER BY id", [ctx.eventId]);
+    const stored = await pg.query<{ id: string }>("SELECT id FROM sightings WHERE event_id = $1 ORDER BY id", [
+      ctx.eventId,
+    ]);
     expect(stored.rows.length).toBe(DEVICES * PER_DEVICE);
     expect(stored.rows.map((r) => r.id)).toEqual(sent);
     const sameContent = await pg.query<{ n: string }>(
       `SELECT count(*) AS n FROM (SELECT user_id, observed_at, taxon_id FROM sightings WHERE event_id = $1
-         GROUP BY 1, 2, 3 HAVING count(*) > 1) d`, [ctx.eventId]);
+         GROUP BY 1, 2, 3 HAVING count(*) > 1) d`,
+      [ctx.eventId],
+    );
     expect(Number(sameContent.rows[0]!.n)).toBe(0);
-    const sessions = await pg.query<{ n: string }>("SELECT count(*) AS n FROM count_sessions WHERE event_id = $1", [ctx.eventId]);
+    const sessions = await pg.query<{ n: string }>("SELECT count(*) AS n FROM count_sessions WHERE event_id = $1", [
+      ctx.eventId,
+    ]);
     expect(Number(sessions.rows[0]!.n)).toBe(devices.reduce((n, d) => n + d.sessions.length, 0));
-    const inSessions = await pg.query<{ n: string }>("SELECT count(*) AS n FROM sightings WHERE event_id = $1 AND session_id IS NOT NULL", [ctx.eventId]);
-    expect(Number(inSessions.rows[0]!.n)).toBe(devices.reduce((n, d) => n + d.sightings.filter((s) => s.sessionId).length, 0));
+    const inSessions = await pg.query<{ n: string }>(
+      "SELECT count(*) AS n FROM sightings WHERE event_id = $1 AND session_id IS NOT NULL",
+      [ctx.eventId],
+    );
+    expect(Number(inSessions.rows[0]!.n)).toBe(
+      devices.reduce((n, d) => n + d.sightings.filter((s) => s.sessionId).length, 0),
+    );
 
     // Every photo is recorded once and its bytes are in the S3 fake.
     const photos = await pg.query<{ storage_key: string; size_bytes: number }>(
-      `SELECT p.storage_key, p.size_bytes FROM photos p JOIN sightings s ON s.id = p.sighting_id WHERE s.event_id = $1`, [ctx.eventId]);
+      `SELECT p.storage_key, p.size_bytes FROM photos p JOIN sightings s ON s.id = p.sighting_id WHERE s.event_id = $1`,
+      [ctx.eventId],
+    );
     expect(photos.rows.length).toBe(devices.reduce((n, d) => n + d.photos.length, 0));
     const s3client = new S3Client({
-      endpoint: `http://127.0.0.1:${S3_PORT}`, region: "us-east-1", forcePathStyle: true,
+      endpoint: `http://127.0.0.1:${S3_PORT}`,
+      region: "us-east-1",
+      forcePathStyle: true,
       credentials: { accessKeyId: "S3RVER", secretAccessKey: "S3RVER" },
     });
     for (const p of photos.rows) {
       const head = await s3client.send(new HeadObjectCommand({ Bucket: BUCKET, Key: p.storage_key }));
       expect(head.ContentLength).toBe(p.size_bytes);
     }
-    console.log(`chaos: ${total} records from ${DEVICES} devices; proxy fates ${JSON.stringify(proxy.counts)}; ` +
-      `${devices.reduce((n, d) => n + d.repeats, 0)} repeated batches; restart after ${ackedAtRestart} acknowledgements`);
+    console.log(
+      `chaos: ${total} records from ${DEVICES} devices; proxy fates ${JSON.stringify(proxy.counts)}; ` +
+        `${devices.reduce((n, d) => n + d.repeats, 0)} repeated batches; restart after ${ackedAtRestart} acknowledgements`,
+    );
   } finally {
     await proxy.close();
     server.kill("SIGKILL");

@@ -1,8 +1,7 @@
 import path from "node:path";
-import { Client } from "pg";
 import { chromium, type Page } from "@playwright/test";
 import { DEMO, expect, signInWithPassword, test } from "./support";
-import { E2E_DB_URL, withE2eDb } from "./demo-ids";
+import { withE2eDb } from "./demo-ids";
 
 // The field log's whole offline day (issue 5): Chromium with the network cut by the
 // browser context, the real service worker, IndexedDB, the real sync handler and database.
@@ -12,7 +11,6 @@ const EVENT = "Kestrel Moor Winter Count";
 test.describe.configure({ timeout: 240_000 });
 // Inside the demo's "Heather Crest" zone on Kestrel Moor.
 test.use({ geolocation: { latitude: 53.3045, longitude: -2.095, accuracy: 8 }, permissions: ["geolocation"] });
-
 
 async function openFieldLog(page: Page) {
   await page.goto("/en/field");
@@ -24,10 +22,19 @@ async function openFieldLog(page: Page) {
   await expect(page.getByRole("button", { name: "Add sighting" })).toBeEnabled({ timeout: 20_000 });
   // The service worker controls the page and has kept the field log page for offline use.
   await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 20_000 });
-  await page.waitForFunction(async () => Boolean(await (await caches.open("ecotone-field-pages")).match("/en/field")), undefined, { timeout: 20_000 });
+  await page.waitForFunction(
+    async () => Boolean(await (await caches.open("ecotone-field-pages")).match("/en/field")),
+    undefined,
+    { timeout: 20_000 },
+  );
 }
 
-async function addSighting(page: Page, query: string, pick: RegExp, opts: { count?: number; about?: boolean; photo?: string; notes?: string } = {}) {
+async function addSighting(
+  page: Page,
+  query: string,
+  pick: RegExp,
+  opts: { count?: number; about?: boolean; photo?: string; notes?: string } = {},
+) {
   await page.getByRole("button", { name: "Add sighting" }).click();
   const form = page.getByRole("form", { name: "New sighting" });
   await form.getByRole("searchbox", { name: "Species" }).fill(query);
@@ -46,11 +53,23 @@ async function addSighting(page: Page, query: string, pick: RegExp, opts: { coun
   await expect(form).toBeHidden();
 }
 
-test("a volunteer's offline session and five sightings survive a reload, are sent once online, and are never stored twice", async ({ page, context }) => {
+test("a volunteer's offline session and five sightings survive a reload, are sent once online, and are never stored twice", async ({
+  page,
+  context,
+}) => {
   await signInWithPassword(page, DEMO.volunteer);
-  const eventId = await withE2eDb(async (c) => (await c.query(`SELECT id FROM events WHERE slug = 'kestrel-moor-winter-count'`)).rows[0].id as string);
-  const before = await withE2eDb(async (c) => (await c.query(
-    `SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number);
+  const eventId = await withE2eDb(
+    async (c) => (await c.query(`SELECT id FROM events WHERE slug = 'kestrel-moor-winter-count'`)).rows[0].id as string,
+  );
+  const before = await withE2eDb(
+    async (c) =>
+      (
+        await c.query(
+          `SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`,
+          [DEMO.volunteer, eventId],
+        )
+      ).rows[0].n as number,
+  );
 
   await openFieldLog(page);
   await expect(page.getByRole("region", { name: "Before you go out" })).toContainText("ticks");
@@ -62,7 +81,10 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   await page.getByRole("button", { name: "Start session" }).click();
   await expect(page.getByRole("heading", { name: "Walk running" })).toBeVisible();
 
-  await addSighting(page, "kestrle", /Common kestrel/, { photo: path.join(__dirname, "../fixtures/field/moor-sighting.jpg"), notes: "Hovering over the ridge" });
+  await addSighting(page, "kestrle", /Common kestrel/, {
+    photo: path.join(__dirname, "../fixtures/field/moor-sighting.jpg"),
+    notes: "Hovering over the ridge",
+  });
   await addSighting(page, "robin", /European robin/, { count: 2 });
   await addSighting(page, "Turdus merula", /Common blackbird/, { count: 3 });
   await addSighting(page, "chaffinch", /Common chaffinch/, { count: 12, about: true });
@@ -91,24 +113,50 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   // The photo follows its sighting (the server checks its bytes and makes a thumbnail).
   await expect(page.getByText("Everything is sent.")).toBeVisible({ timeout: 90_000 });
   await expect(page.getByRole("list", { name: "On this phone" })).toHaveCount(0);
-  await expect(page.getByRole("list", { name: "Sent" }).getByRole("listitem").first()).toContainText("Awaiting check");
+  await expect(page.getByRole("list", { name: "Sent" }).getByRole("listitem").first()).toContainText("Pending");
 
   const ids = await page.evaluate(async () => {
     const open = indexedDB.open("ecotone-field");
-    const idb: IDBDatabase = await new Promise((res, rej) => { open.onsuccess = () => res(open.result); open.onerror = () => rej(open.error); });
-    const all = (store: string) => new Promise<{ id: string; record: unknown; state: string }[]>((res) => { const r = idb.transaction(store).objectStore(store).getAll(); r.onsuccess = () => res(r.result); });
+    const idb: IDBDatabase = await new Promise((res, rej) => {
+      open.onsuccess = () => res(open.result);
+      open.onerror = () => rej(open.error);
+    });
+    const all = (store: string) =>
+      new Promise<{ id: string; record: unknown; state: string }[]>((res) => {
+        const r = idb.transaction(store).objectStore(store).getAll();
+        r.onsuccess = () => res(r.result);
+      });
     return { sessions: await all("sessions"), sightings: await all("sightings"), photos: await all("photos") };
   });
   const sessionId = ids.sessions[0]!.id;
   const sightingIds = ids.sightings.map((s) => s.id).sort();
 
   const stored = await withE2eDb(async (c) => ({
-    sessions: (await c.query(`SELECT id, kind, all_species_noted, distance_m, ended_at IS NOT NULL AS ended, zone_id IS NOT NULL AS zoned FROM count_sessions WHERE id = $1`, [sessionId])).rows,
-    sightings: (await c.query(`SELECT id::text FROM sightings WHERE session_id = $1 ORDER BY id`, [sessionId])).rows.map((r) => r.id as string),
-    total: (await c.query(`SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number,
-    chaffinch: (await c.query(`SELECT s.count, s.count_is_estimate, z.name AS zone FROM sightings s JOIN taxa t ON t.id = s.taxon_id LEFT JOIN zones z ON z.id = s.zone_id WHERE s.session_id = $1 AND t.scientific_name = 'Fringilla coelebs'`, [sessionId])).rows[0],
+    sessions: (
+      await c.query(
+        `SELECT id, kind, all_species_noted, distance_m, ended_at IS NOT NULL AS ended, zone_id IS NOT NULL AS zoned FROM count_sessions WHERE id = $1`,
+        [sessionId],
+      )
+    ).rows,
+    sightings: (
+      await c.query(`SELECT id::text FROM sightings WHERE session_id = $1 ORDER BY id`, [sessionId])
+    ).rows.map((r) => r.id as string),
+    total: (
+      await c.query(
+        `SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`,
+        [DEMO.volunteer, eventId],
+      )
+    ).rows[0].n as number,
+    chaffinch: (
+      await c.query(
+        `SELECT s.count, s.count_is_estimate, z.name AS zone FROM sightings s JOIN taxa t ON t.id = s.taxon_id LEFT JOIN zones z ON z.id = s.zone_id WHERE s.session_id = $1 AND t.scientific_name = 'Fringilla coelebs'`,
+        [sessionId],
+      )
+    ).rows[0],
   }));
-  expect(stored.sessions).toEqual([{ id: sessionId, kind: "walk", all_species_noted: true, distance_m: 850, ended: true, zoned: true }]);
+  expect(stored.sessions).toEqual([
+    { id: sessionId, kind: "walk", all_species_noted: true, distance_m: 850, ended: true, zoned: true },
+  ]);
   expect(stored.sightings).toEqual(sightingIds);
   expect(stored.sightings).toHaveLength(5);
   expect(stored.total).toBe(before + 5);
@@ -118,8 +166,15 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   expect(ids.photos).toHaveLength(1);
   const photoId = ids.photos[0]!.id;
   expect(ids.photos[0]!.state).toBe("sent");
-  const photoRows = await withE2eDb(async (c) => (await c.query(
-    `SELECT p.id::text, p.content_type, t.scientific_name FROM photos p JOIN sightings s ON s.id = p.sighting_id JOIN taxa t ON t.id = s.taxon_id WHERE s.session_id = $1`, [sessionId])).rows);
+  const photoRows = await withE2eDb(
+    async (c) =>
+      (
+        await c.query(
+          `SELECT p.id::text, p.content_type, t.scientific_name FROM photos p JOIN sightings s ON s.id = p.sighting_id JOIN taxa t ON t.id = s.taxon_id WHERE s.session_id = $1`,
+          [sessionId],
+        )
+      ).rows,
+  );
   expect(photoRows).toEqual([{ id: photoId, content_type: "image/jpeg", scientific_name: "Falco tinnunculus" }]);
   const link = await page.request.get(`/api/events/${eventId}/photos/${photoId}?size=full`, { maxRedirects: 0 });
   expect(link.status()).toBe(302);
@@ -132,16 +187,33 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   await context.setOffline(false);
   await page.getByRole("heading", { level: 2, name: EVENT }).waitFor();
   // The same batch sent again by hand: every record is answered "already had".
-  const resend = await page.evaluate(async ({ eventId, sessions, sightings }) => {
-    const res = await fetch(`/api/events/${eventId}/sync`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ sessions, sightings }) });
-    return { status: res.status, body: await res.json() };
-  }, { eventId, sessions: ids.sessions.map((s) => s.record), sightings: ids.sightings.map((s) => s.record) });
+  const resend = await page.evaluate(
+    async ({ eventId, sessions, sightings }) => {
+      const res = await fetch(`/api/events/${eventId}/sync`, {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ sessions, sightings }),
+      });
+      return { status: res.status, body: await res.json() };
+    },
+    { eventId, sessions: ids.sessions.map((s) => s.record), sightings: ids.sightings.map((s) => s.record) },
+  );
   expect(resend.status).toBe(200);
   expect(resend.body.acks).toHaveLength(6);
   expect(new Set(resend.body.acks.map((a: { outcome: string }) => a.outcome))).toEqual(new Set(["already_had"]));
   const after = await withE2eDb(async (c) => ({
-    total: (await c.query(`SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number,
-    sessions: (await c.query(`SELECT count(*)::int AS n FROM count_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`, [DEMO.volunteer, eventId])).rows[0].n as number,
+    total: (
+      await c.query(
+        `SELECT count(*)::int AS n FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`,
+        [DEMO.volunteer, eventId],
+      )
+    ).rows[0].n as number,
+    sessions: (
+      await c.query(
+        `SELECT count(*)::int AS n FROM count_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = $1 AND s.event_id = $2`,
+        [DEMO.volunteer, eventId],
+      )
+    ).rows[0].n as number,
   }));
   expect(after.total).toBe(before + 5);
   expect(after.sessions).toBe(1);
@@ -152,9 +224,13 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
 test("Chromium finds the field log installable, and it opens offline after the browser restarts", async ({}, testInfo) => {
   const dir = testInfo.outputPath("profile");
   const use = testInfo.project.use;
-  const launch = () => chromium.launchPersistentContext(dir, {
-    ...use.launchOptions, baseURL: use.baseURL, geolocation: { latitude: 53.3045, longitude: -2.095, accuracy: 8 }, permissions: ["geolocation"],
-  });
+  const launch = () =>
+    chromium.launchPersistentContext(dir, {
+      ...use.launchOptions,
+      baseURL: use.baseURL,
+      geolocation: { latitude: 53.3045, longitude: -2.095, accuracy: 8 },
+      permissions: ["geolocation"],
+    });
   let context = await launch();
   let page = context.pages()[0] ?? (await context.newPage());
   await signInWithPassword(page, DEMO.volunteer);
@@ -176,6 +252,8 @@ test("Chromium finds the field log installable, and it opens offline after the b
   await expect(page.getByRole("heading", { level: 2, name: EVENT })).toBeVisible();
   await expect(page.getByText("No connection — records stay safe on this phone")).toBeVisible();
   await addSighting(page, "dunnock", /Dunnock/);
-  await expect(page.getByRole("list", { name: "On this phone" }).getByRole("listitem").filter({ hasText: "Dunnock" })).toContainText("Waiting");
+  await expect(
+    page.getByRole("list", { name: "On this phone" }).getByRole("listitem").filter({ hasText: "Dunnock" }),
+  ).toContainText("Waiting");
   await context.close();
 });

@@ -1,19 +1,42 @@
 import fc from "fast-check";
 import { Client } from "pg";
 import { expect, test } from "@playwright/test";
-import { DEMO_PASSWORD } from "../../db/seed/demo-scenario";
 import { demoIds, E2E_DB_URL as DB_URL } from "./demo-ids";
 import { ROUTES } from "./route-table";
+import { signInWithPassword } from "./support";
 
 // Hostile and malformed bodies for every JSON handler in the route table, sent by the
 // most trusted demo person (the organiser) so that the guard lets them reach the
 // validation. Never a 5xx; always a structured 4xx naming the field; and when every
 // answer was a refusal, no table has a single row more or less.
-const TABLES = ["users", "events", "zones", "taxa", "taxon_names", "event_species", "event_members", "count_sessions", "sightings", "photos", "reviews", "reports", "invitations", "membership_log"];
+const TABLES = [
+  "users",
+  "events",
+  "zones",
+  "taxa",
+  "taxon_names",
+  "event_species",
+  "event_members",
+  "count_sessions",
+  "sightings",
+  "photos",
+  "reviews",
+  "reports",
+  "invitations",
+  "membership_log",
+];
 
 const sqlAndHtml = fc.constantFrom(
-  "'; DROP TABLE sightings; --", "\" OR 1=1 --", "<script>alert(1)</script>", "<img src=x onerror=alert(1)>",
-  "../../etc/passwd", "%00", "\u0000", "{{7*7}}", "${jndi:ldap://x}", "Robert'); DELETE FROM reviews;--",
+  "'; DROP TABLE sightings; --",
+  '" OR 1=1 --',
+  "<script>alert(1)</script>",
+  "<img src=x onerror=alert(1)>",
+  "../../etc/passwd",
+  "%00",
+  "\u0000",
+  "{{7*7}}",
+  "${jndi:ldap://x}",
+  "Robert'); DELETE FROM reviews;--",
 );
 const hostileValue: fc.Arbitrary<unknown> = fc.oneof(
   fc.anything({ maxDepth: 3 }),
@@ -31,13 +54,16 @@ function paths(value: unknown, prefix: string[] = []): string[][] {
   if (value && typeof value === "object" && !Array.isArray(value)) {
     return Object.entries(value).flatMap(([k, v]) => [[...prefix, k], ...paths(v, [...prefix, k])]);
   }
-  if (Array.isArray(value)) return value.flatMap((v, i) => [[...prefix, String(i)], ...paths(v, [...prefix, String(i)])]);
+  if (Array.isArray(value))
+    return value.flatMap((v, i) => [[...prefix, String(i)], ...paths(v, [...prefix, String(i)])]);
   return [];
 }
 
 function withValueAt(body: unknown, at: string[], value: unknown): unknown {
   if (at.length === 0) return value;
-  const copy: Record<string, unknown> = Array.isArray(body) ? ([...body] as never) : { ...(body as Record<string, unknown>) };
+  const copy: Record<string, unknown> = Array.isArray(body)
+    ? ([...body] as never)
+    : { ...(body as Record<string, unknown>) };
   copy[at[0]!] = withValueAt((body as Record<string, unknown>)?.[at[0]!], at.slice(1), value);
   return copy;
 }
@@ -57,15 +83,9 @@ async function tableCounts(): Promise<Record<string, number>> {
   }
 }
 
-
 test("every JSON handler answers hostile input with a structured 4xx and writes nothing", async ({ page, baseURL }) => {
   test.setTimeout(300_000);
-  await page.goto("/en/sign-in");
-  const form = page.getByRole("form", { name: "Sign in with a password" });
-  await form.getByLabel("E-mail address").fill("organiser@example.org");
-  await form.getByLabel("Password").fill(DEMO_PASSWORD);
-  await form.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/account/);
+  await signInWithPassword(page, "organiser@example.org");
 
   const ids = await demoIds();
   const before = await tableCounts();
@@ -73,7 +93,8 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
   // the other browser tests can still sign in.
   const admin = new Client({ connectionString: DB_URL });
   await admin.connect();
-  const saved = (await admin.query("SELECT password_hash FROM users WHERE email = 'organiser@example.org'")).rows[0].password_hash;
+  const saved = (await admin.query("SELECT password_hash FROM users WHERE email = 'organiser@example.org'")).rows[0]
+    .password_hash;
   test.info().attach("note", { body: "organiser password restored after the run" });
   const jsonRoutes = ROUTES.filter((r) => r.method !== "GET" && r.body);
   expect(jsonRoutes.length).toBeGreaterThan(0);
@@ -89,7 +110,8 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
     const bodies = fc.sample(fc.oneof(mutated, hostileValue), { numRuns: 30, seed: 20261202 });
     for (const body of bodies) {
       const res = await page.request.fetch(route.path(ids), {
-        method: route.method, headers: { "content-type": "application/json", origin: baseURL! },
+        method: route.method,
+        headers: { "content-type": "application/json", origin: baseURL! },
         data: JSON.stringify(body) ?? "null",
       });
       const status = res.status();
@@ -97,8 +119,15 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
       if (status >= 500) problems.push(label);
       else if (status >= 400) {
         const json = await res.json().catch(() => null);
-        if (!json?.error?.code || typeof json.error.message !== "string") problems.push(`${label} (no structured error)`);
-        else if ((status === 400 || status === 422) && !(json.error.fields?.length > 0 && json.error.fields.every((f: { field?: string }) => typeof f.field === "string" && f.field.length > 0))) {
+        if (!json?.error?.code || typeof json.error.message !== "string")
+          problems.push(`${label} (no structured error)`);
+        else if (
+          (status === 400 || status === 422) &&
+          !(
+            json.error.fields?.length > 0 &&
+            json.error.fields.every((f: { field?: string }) => typeof f.field === "string" && f.field.length > 0)
+          )
+        ) {
           problems.push(`${label} (no field named)`);
         }
         const text = JSON.stringify(json);
@@ -113,4 +142,44 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
   await admin.end();
   expect(problems).toEqual([]);
   if (accepted === 0) expect(await tableCounts()).toEqual(before);
+});
+
+test("a malformed id in any path (36 dashes, loose hex) is a structured 404, never a 5xx", async ({
+  page,
+  baseURL,
+}) => {
+  await signInWithPassword(page, "organiser@example.org");
+
+  const ids = await demoIds();
+  const uuidKeys = (Object.keys(ids) as (keyof typeof ids)[]).filter((k) => /^[0-9a-f-]{36}$/i.test(ids[k]));
+  // 36 dashes passed the old loose pattern /^[0-9a-f-]{36}$/ and reached PostgreSQL; the others are near misses.
+  const malformed = ["-".repeat(36), "0000000g-0000-4000-8000-000000000000", `${ids.eventId}x`, "0".repeat(36)];
+  const problems: string[] = [];
+  let tried = 0;
+  for (const route of ROUTES.filter((r) => /\[\w+Id\]/.test(r.file))) {
+    const good = route.path(ids);
+    const variants = new Set<string>();
+    for (const bad of malformed) {
+      for (const k of uuidKeys) {
+        const path = route.path({ ...ids, [k]: bad });
+        if (path !== good) variants.add(path);
+      }
+      if (good.includes("00000000-0000-0000-0000-000000000000"))
+        variants.add(good.replace("00000000-0000-0000-0000-000000000000", bad));
+    }
+    expect(variants.size, `${route.method} ${route.file} has an id in its path`).toBeGreaterThan(0);
+    for (const path of variants) {
+      tried++;
+      const res = await page.request.fetch(path, {
+        method: route.method,
+        headers: { "content-type": "application/json", origin: baseURL! },
+        data: route.body ? JSON.stringify(route.body(ids)) : undefined,
+      });
+      const json = await res.json().catch(() => null);
+      if (res.status() !== 404 || json?.error?.code !== "not_found")
+        problems.push(`${route.method} ${path} → ${res.status()} ${JSON.stringify(json)?.slice(0, 120)}`);
+    }
+  }
+  expect(tried).toBeGreaterThan(20);
+  expect(problems).toEqual([]);
 });

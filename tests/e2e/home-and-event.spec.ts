@@ -12,7 +12,9 @@ test("the English home page lists the demo event with its organiser, zones and s
   await expect(card).toContainText("Recording closed");
 });
 
-test("the Spanish home page shows the demo event in Spanish, and the switcher goes back to English", async ({ page }) => {
+test("the Spanish home page shows the demo event in Spanish, and the switcher goes back to English", async ({
+  page,
+}) => {
   await page.goto("/es");
   await expect(page.getByRole("heading", { level: 1, name: "Eventos de censo" })).toBeVisible();
   await expect(page.getByRole("heading", { name: EVENT })).toBeVisible();
@@ -23,7 +25,9 @@ test("the Spanish home page shows the demo event in Spanish, and the switcher go
   await expect(page.getByRole("heading", { level: 1, name: "Survey events" })).toBeVisible();
 });
 
-test("the event page shows dates in the event's time zone, the zones and the field-safety caution", async ({ page }) => {
+test("the event page shows dates in the event's time zone, the zones and the field-safety caution", async ({
+  page,
+}) => {
   await page.goto("/en");
   await page.getByRole("link", { name: `Open event page: ${EVENT}` }).click();
   await expect(page.getByRole("heading", { level: 1, name: EVENT })).toBeVisible();
@@ -47,7 +51,10 @@ test("the French event page shows the caution in French", async ({ page }) => {
   await expect(page.locator("html")).toHaveAttribute("lang", "fr");
 });
 
-test("unknown addresses get a clean 404: a page in the person's language, JSON under /api", async ({ page, request }) => {
+test("unknown addresses get a clean 404: a page in the person's language, JSON under /api", async ({
+  page,
+  request,
+}) => {
   const res = await page.goto("/es/no-existe");
   expect(res?.status()).toBe(404);
   await expect(page.getByRole("heading", { name: "Página no encontrada" })).toBeVisible();

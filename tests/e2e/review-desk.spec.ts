@@ -8,18 +8,26 @@ import { DEMO, expect, signInWithPassword, test } from "./support";
 // return with a question; bulk approve of a filtered set of ten; the volunteers' digests.
 const caseId = (key: string) => demoId(`review-case:${key}`);
 
-
-test("a coordinator limited to birds decides the queue by keyboard and the volunteers get their digests", async ({ page, mail, browser }) => {
+test("a coordinator limited to birds decides the queue by keyboard and the volunteers get their digests", async ({
+  page,
+  mail,
+  browser,
+}) => {
   test.setTimeout(180_000);
   await signInWithPassword(page, DEMO.birdsCoordinator);
   // The birds coordinator also helps at the autumn foray: open the desk of the midsummer count.
-  await page.getByRole("listitem").filter({ hasText: "Harrowmere Vale Midsummer Count" }).getByRole("link", { name: "Open the review desk" }).click();
+  await page
+    .getByRole("listitem")
+    .filter({ hasText: "Harrowmere Vale Midsummer Count" })
+    .getByRole("link", { name: "Open the review desk" })
+    .click();
   await expect(page.getByRole("heading", { level: 1, name: "Review desk" })).toBeVisible();
   await expect(page.getByText("You review these taxon groups only: Birds.")).toBeVisible();
   await expect(page.getByText("Times are shown in the event's time zone (Europe/London).")).toBeVisible();
   // The keys are documented on screen.
   const keys = page.getByRole("complementary", { name: "Keyboard" });
-  for (const k of ["next sighting", "approve", "reject with a reason", "return with a question", "re-identify"]) await expect(keys).toContainText(k);
+  for (const k of ["next sighting", "approve", "reject with a reason", "return with a question", "re-identify"])
+    await expect(keys).toContainText(k);
 
   const queue = page.getByRole("table", { name: "Queue" });
   const rows = queue.getByRole("row").filter({ has: page.getByRole("cell") });
@@ -49,7 +57,9 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   await admin.query("UPDATE sightings SET version = version + 1 WHERE id = $1", [caseId("outside-area:3")]);
   await admin.end();
   await page.keyboard.press("a");
-  await expect(page.getByRole("status")).toContainText("Not saved, shown as it was: Someone else decided this sighting first: it is now Pending (version 2).");
+  await expect(page.getByRole("status")).toContainText(
+    "Not saved, shown as it was: Someone else decided this sighting first: it is now Pending (version 2).",
+  );
   await expect(rows).toHaveCount(3);
   await expect(rows.first()).toHaveAttribute("aria-selected", "true");
   // The desk reloaded the sighting; the second try goes through.
@@ -93,18 +103,39 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   const db = new Client({ connectionString: E2E_DB_URL });
   await db.connect();
   try {
-    const { rows: decided } = await db.query<{ id: string; state: string; to_state: string; reason: string; message: string; reviewer: string }>(`
+    const { rows: decided } = await db.query<{
+      id: string;
+      state: string;
+      to_state: string;
+      reason: string;
+      message: string;
+      reviewer: string;
+    }>(
+      `
       SELECT s.id, s.review_state AS state, r.to_state, r.reason, r.message, u.email AS reviewer
       FROM sightings s JOIN reviews r ON r.sighting_id = s.id JOIN users u ON u.id = r.reviewer_id WHERE s.id = ANY($1::uuid[])`,
-      [[caseId("outside-area:1"), caseId("outside-area:2"), caseId("outside-area:3")]]);
+      [[caseId("outside-area:1"), caseId("outside-area:2"), caseId("outside-area:3")]],
+    );
     const by = Object.fromEntries(decided.map((d) => [d.id, d]));
-    expect(by[caseId("outside-area:3")]).toMatchObject({ state: "approved", to_state: "approved", reviewer: DEMO.birdsCoordinator });
-    expect(by[caseId("outside-area:2")]).toMatchObject({ state: "rejected", reason: "outside_event", message: "The lane is outside the reserve boundary." });
+    expect(by[caseId("outside-area:3")]).toMatchObject({
+      state: "approved",
+      to_state: "approved",
+      reviewer: DEMO.birdsCoordinator,
+    });
+    expect(by[caseId("outside-area:2")]).toMatchObject({
+      state: "rejected",
+      reason: "outside_event",
+      message: "The lane is outside the reserve boundary.",
+    });
     expect(by[caseId("outside-area:1")]).toMatchObject({ state: "returned", message: question });
-    const bulk = await db.query<{ n: number }>(`SELECT count(*)::int AS n FROM sightings WHERE id = ANY($1::uuid[]) AND review_state = 'approved'`,
-      [Array.from({ length: 10 }, (_, i) => caseId(`poor-accuracy:${i + 1}`))]);
+    const bulk = await db.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM sightings WHERE id = ANY($1::uuid[]) AND review_state = 'approved'`,
+      [Array.from({ length: 10 }, (_, i) => caseId(`poor-accuracy:${i + 1}`))],
+    );
     expect(bulk.rows[0]!.n).toBe(10);
-    const plant = await db.query<{ review_state: string }>(`SELECT review_state FROM sightings WHERE id = $1`, [caseId("poor-accuracy:plant")]);
+    const plant = await db.query<{ review_state: string }>(`SELECT review_state FROM sightings WHERE id = $1`, [
+      caseId("poor-accuracy:plant"),
+    ]);
     expect(plant.rows[0]!.review_state).toBe("pending");
   } finally {
     await db.end();
@@ -117,7 +148,9 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   const returned = await mail.waitFor("volunteer1@example.org", (m) => m.text.includes(question), 45_000);
   expect(returned.text).toMatch(/Returned with a question: European robin \(Erithacus rubecula\)/);
   const rejected = await mail.waitFor("volunteer2@example.org", (m) => /Not accepted/.test(m.text), 45_000);
-  expect(rejected.text).toMatch(/Not accepted: Common blackbird \(Turdus merula\) ×2, .*Reason: Outside the event \(place or time\)/);
+  expect(rejected.text).toMatch(
+    /Not accepted: Common blackbird \(Turdus merula\) ×2, .*Reason: Outside the event \(place or time\)/,
+  );
   expect(rejected.text).toContain("Coordinator's note: The lane is outside the reserve boundary.");
   const approved = await mail.waitFor("volunteer3@example.org", (m) => /Aprobada/.test(m.text), 45_000); // Lucía reads Spanish
   expect(approved.text).toMatch(/Aprobada: .*Fringilla coelebs/);
@@ -138,9 +171,20 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   await expect(asked).toContainText("Coordinator's question:");
   await expect(asked).toContainText("European robin");
   await expect(field.getByText("Times are shown in the event's time zone (Europe/London).")).toBeVisible();
-  const observed = await withE2eDb((c) => c.query<{ at: Date }>("SELECT observed_at AS at FROM sightings WHERE id = $1", [caseId("outside-area:1")]));
-  const londonTime = await field.evaluate((iso) => new Intl.DateTimeFormat("en", { hour: "2-digit", minute: "2-digit", day: "numeric", month: "short", timeZone: "Europe/London" }).format(new Date(iso)),
-    observed.rows[0]!.at.toISOString());
+  const observed = await withE2eDb((c) =>
+    c.query<{ at: Date }>("SELECT observed_at AS at FROM sightings WHERE id = $1", [caseId("outside-area:1")]),
+  );
+  const londonTime = await field.evaluate(
+    (iso) =>
+      new Intl.DateTimeFormat("en", {
+        hour: "2-digit",
+        minute: "2-digit",
+        day: "numeric",
+        month: "short",
+        timeZone: "Europe/London",
+      }).format(new Date(iso)),
+    observed.rows[0]!.at.toISOString(),
+  );
   await expect(asked).toContainText(londonTime);
   await phone.close();
 });

@@ -1,7 +1,7 @@
 import { expect, test, type APIRequestContext, type Browser } from "@playwright/test";
-import { DEMO_PASSWORD } from "../../db/seed/demo-scenario";
 import { demoIds } from "./demo-ids";
 import { ROUTES, type Who } from "./route-table";
+import { signInWithPassword } from "./support";
 
 // Every handler × every kind of person: no session → 401; the wrong role, or a member of
 // another event → 403 (or 404, which hides whether the event exists); the right role →
@@ -15,17 +15,11 @@ const PEOPLE: Record<Exclude<Who, "anonymous">, string> = {
   outsider: "moor-volunteer@example.org",
 };
 
-
 async function contextFor(browser: Browser, baseURL: string, who: Who): Promise<APIRequestContext> {
   const ctx = await browser.newContext({ baseURL });
   if (who !== "anonymous") {
     const page = await ctx.newPage();
-    await page.goto("/en/sign-in");
-    const form = page.getByRole("form", { name: "Sign in with a password" });
-    await form.getByLabel("E-mail address").fill(PEOPLE[who]);
-    await form.getByLabel("Password").fill(DEMO_PASSWORD);
-    await form.getByRole("button", { name: "Sign in" }).click();
-    await page.waitForURL(/\/account/);
+    await signInWithPassword(page, PEOPLE[who]);
     await page.close();
   }
   return ctx.request;

@@ -1,4 +1,5 @@
 import { expect, test } from "@playwright/test";
+import { signInWithPassword } from "./support";
 
 test("pages are served under a nonce-based Content-Security-Policy that they actually run under", async ({ page }) => {
   const violations: string[] = [];
@@ -25,12 +26,7 @@ test("pages are served under a nonce-based Content-Security-Policy that they act
 });
 
 test("session cookies are HttpOnly and SameSite", async ({ page }) => {
-  await page.goto("/en/sign-in");
-  const form = page.getByRole("form", { name: "Sign in with a password" });
-  await form.getByLabel("E-mail address").fill("volunteer3@example.org");
-  await form.getByLabel("Password").fill("harrowmere-demo");
-  await form.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/account/);
+  await signInWithPassword(page, "volunteer3@example.org");
   const session = (await page.context().cookies()).find((c) => c.name.endsWith("next-auth.session-token"));
   expect(session).toBeDefined();
   expect(session!.httpOnly).toBe(true);

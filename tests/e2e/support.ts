@@ -1,4 +1,4 @@
-import { test as base, expect, type Page } from "@playwright/test";
+import { test as base, expect, type Locator, type Page } from "@playwright/test";
 import { DEMO_PASSWORD } from "../../db/seed/demo-scenario";
 import { MailCatcher } from "../support/mail-catcher";
 
@@ -27,12 +27,86 @@ export const DEMO = {
   password: DEMO_PASSWORD,
 };
 
+// The sign-in page's words as a person reads them, in each language.
+const SIGN_IN_WORDS = {
+  en: {
+    passwordForm: "Sign in with a password",
+    linkForm: "E-mail me a sign-in link",
+    email: "E-mail address",
+    password: "Password",
+    signIn: "Sign in",
+    sendLink: "Send the link",
+  },
+  es: {
+    passwordForm: "Entrar con contraseña",
+    linkForm: "Enviarme un enlace para entrar",
+    email: "Correo electrónico",
+    password: "Contraseña",
+    signIn: "Entrar",
+    sendLink: "Enviar el enlace",
+  },
+  fr: {
+    passwordForm: "Se connecter avec un mot de passe",
+    linkForm: "Recevoir un lien de connexion",
+    email: "Adresse e-mail",
+    password: "Mot de passe",
+    signIn: "Se connecter",
+    sendLink: "Envoyer le lien",
+  },
+} as const;
+
+/** The sign-in page (/<locale>/sign-in) and its two forms, found by their roles and labels. */
+export class SignInPage {
+  readonly words: (typeof SIGN_IN_WORDS)[keyof typeof SIGN_IN_WORDS];
+
+  constructor(
+    readonly page: Page,
+    readonly locale: keyof typeof SIGN_IN_WORDS = "en",
+  ) {
+    this.words = SIGN_IN_WORDS[locale];
+  }
+
+  async open(): Promise<this> {
+    await this.page.goto(`/${this.locale}/sign-in`);
+    return this;
+  }
+
+  get passwordForm(): Locator {
+    return this.page.getByRole("form", { name: this.words.passwordForm });
+  }
+
+  get linkForm(): Locator {
+    return this.page.getByRole("form", { name: this.words.linkForm });
+  }
+
+  /** Types an address and a password into the password form and sends it. */
+  async submitPassword(email: string, password: string): Promise<void> {
+    const form = this.passwordForm;
+    await form.getByLabel(this.words.email).fill(email);
+    await form.getByLabel(this.words.password, { exact: true }).fill(password);
+    await form.getByRole("button", { name: this.words.signIn, exact: true }).click();
+  }
+
+  /** Asks for a sign-in link by e-mail. */
+  async askForLink(email: string): Promise<void> {
+    await this.linkForm.getByLabel(this.words.email).fill(email);
+    await this.linkForm.getByRole("button", { name: this.words.sendLink }).click();
+  }
+
+  /** Signs in with a password and waits for the account page, as a person would. */
+  async signIn(email: string, password: string = DEMO_PASSWORD): Promise<void> {
+    await this.open();
+    await this.submitPassword(email, password);
+    await this.page.waitForURL(/\/account/);
+  }
+}
+
 /** Signs in through the real form, as a person would. */
-export async function signInWithPassword(page: Page, email: string, password = DEMO_PASSWORD, locale = "en") {
-  await page.goto(`/${locale}/sign-in`);
-  const form = page.getByRole("form", { name: locale === "en" ? "Sign in with a password" : /contraseña|mot de passe/ });
-  await form.getByLabel(locale === "en" ? "E-mail address" : /Correo|Adresse/).fill(email);
-  await form.getByLabel(locale === "en" ? "Password" : /Contraseña|Mot de passe/).fill(password);
-  await form.getByRole("button").click();
-  await page.waitForURL(/\/account/);
+export async function signInWithPassword(
+  page: Page,
+  email: string,
+  password = DEMO_PASSWORD,
+  locale: keyof typeof SIGN_IN_WORDS = "en",
+) {
+  await new SignInPage(page, locale).signIn(email, password);
 }

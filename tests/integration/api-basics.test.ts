@@ -15,7 +15,10 @@ describe("GET /api/health", () => {
   });
 
   it("answers an unknown parameter with a 400 naming it, in the caller's language", async () => {
-    const res = await health(new Request("http://localhost/api/health?verbose=1", { headers: { "accept-language": "es-ES,es;q=0.9" } }), noCtx);
+    const res = await health(
+      new Request("http://localhost/api/health?verbose=1", { headers: { "accept-language": "es-ES,es;q=0.9" } }),
+      noCtx,
+    );
     expect(res.status).toBe(400);
     const body = await res.json();
     expect(body.error.code).toBe("bad_request");
@@ -33,7 +36,10 @@ describe("GET /api/health", () => {
 
 describe("unknown /api addresses", () => {
   it("get a JSON 404 in French when asked", async () => {
-    const res = await unknownApi(new Request("http://localhost/api/no-such-thing", { headers: { cookie: "NEXT_LOCALE=fr" } }), noCtx);
+    const res = await unknownApi(
+      new Request("http://localhost/api/no-such-thing", { headers: { cookie: "NEXT_LOCALE=fr" } }),
+      noCtx,
+    );
     expect(res.status).toBe(404);
     expect(res.headers.get("content-type")).toMatch(/application\/json/);
     expect((await res.json()).error).toMatchObject({ code: "not_found", message: "Rien n'existe à cette adresse." });
@@ -42,14 +48,23 @@ describe("unknown /api addresses", () => {
 
 describe("same-origin check on state-changing calls", () => {
   it("refuses a POST from another site before the handler runs", async () => {
-    const res = await healthPost(new Request("http://localhost:3000/api/health", { method: "POST", headers: { origin: "https://evil.example" } }), noCtx);
+    const res = await healthPost(
+      new Request("http://localhost:3000/api/health", { method: "POST", headers: { origin: "https://evil.example" } }),
+      noCtx,
+    );
     expect(res.status).toBe(403);
-    const res2 = await healthPost(new Request("http://localhost:3000/api/health", { method: "POST", headers: { "sec-fetch-site": "cross-site" } }), noCtx);
+    const res2 = await healthPost(
+      new Request("http://localhost:3000/api/health", { method: "POST", headers: { "sec-fetch-site": "cross-site" } }),
+      noCtx,
+    );
     expect(res2.status).toBe(403);
   });
 
   it("lets the same origin through to the handler (here: 405, the handler's own answer)", async () => {
-    const res = await healthPost(new Request("http://localhost:3000/api/health", { method: "POST", headers: { origin: "http://localhost:3000" } }), noCtx);
+    const res = await healthPost(
+      new Request("http://localhost:3000/api/health", { method: "POST", headers: { origin: "http://localhost:3000" } }),
+      noCtx,
+    );
     expect(res.status).toBe(405);
   });
 });

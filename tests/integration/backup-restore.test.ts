@@ -28,16 +28,29 @@ describe("backup and restore with pg_dump / pg_restore", () => {
     execFileSync(`${BIN}/psql`, [...conn, "-d", target.pathname.slice(1), "-c", "CREATE EXTENSION postgis"]);
     // PostGIS's own objects (the extension, its spatial_ref_sys rows) come with CREATE EXTENSION.
     const list = execFileSync(`${BIN}/pg_restore`, ["-l", dump], { encoding: "utf8" })
-      .split("\n").filter((l) => !/EXTENSION|spatial_ref_sys/.test(l)).join("\n");
+      .split("\n")
+      .filter((l) => !/EXTENSION|spatial_ref_sys/.test(l))
+      .join("\n");
     const listFile = `${dump}.list`;
     writeFileSync(listFile, list);
-    execFileSync(`${BIN}/pg_restore`, [...conn, "-d", target.pathname.slice(1), "--no-owner", "--role=ecotone", "--exit-on-error", "-L", listFile, dump]);
+    execFileSync(`${BIN}/pg_restore`, [
+      ...conn,
+      "-d",
+      target.pathname.slice(1),
+      "--no-owner",
+      "--role=ecotone",
+      "--exit-on-error",
+      "-L",
+      listFile,
+      dump,
+    ]);
 
     const counts = async (url: string) => {
       const c = new Client({ connectionString: url });
       await c.connect();
       try {
-        const { rows } = await c.query(`SELECT (SELECT count(*) FROM sightings)::int AS sightings, (SELECT count(*) FROM reviews)::int AS reviews,
+        const { rows } =
+          await c.query(`SELECT (SELECT count(*) FROM sightings)::int AS sightings, (SELECT count(*) FROM reviews)::int AS reviews,
           (SELECT count(*) FROM zones)::int AS zones, (SELECT md5(string_agg(id::text || review_state || ST_AsText(location), ',' ORDER BY id)) FROM sightings) AS fingerprint`);
         return rows[0];
       } finally {

@@ -9,9 +9,13 @@ import { db } from "./helpers";
 describe("demo scenario seed", () => {
   it("is deterministic and idempotent: a second run changes nothing", async () => {
     const first = await seedDemo(db() as never);
-    const snapshot = await db().execute(sql`SELECT md5(string_agg(id::text || review_state || count, ',' ORDER BY id)) AS h FROM sightings WHERE event_id = (SELECT id FROM events WHERE slug = ${DEMO_EVENT.slug})`);
+    const snapshot = await db().execute(
+      sql`SELECT md5(string_agg(id::text || review_state || count, ',' ORDER BY id)) AS h FROM sightings WHERE event_id = (SELECT id FROM events WHERE slug = ${DEMO_EVENT.slug})`,
+    );
     const second = await seedDemo(db() as never);
-    const again = await db().execute(sql`SELECT md5(string_agg(id::text || review_state || count, ',' ORDER BY id)) AS h FROM sightings WHERE event_id = (SELECT id FROM events WHERE slug = ${DEMO_EVENT.slug})`);
+    const again = await db().execute(
+      sql`SELECT md5(string_agg(id::text || review_state || count, ',' ORDER BY id)) AS h FROM sightings WHERE event_id = (SELECT id FROM events WHERE slug = ${DEMO_EVENT.slug})`,
+    );
     expect(second).toEqual(first);
     expect(again.rows[0]).toEqual(snapshot.rows[0]);
     expect(first.sightings).toBeGreaterThanOrEqual(200);
@@ -30,13 +34,20 @@ describe("demo scenario seed", () => {
     // Scoped to the demo event's list: other test files add shared taxa of their own.
     expect(rows[0]).toEqual({
       zones: ["Alder Fringe:edge", "Beechwood Heart:interior", "Harrowmere Meadow:interior", "Millpond Margin:edge"],
-      taxa: 150, named: 150, sensitive: 2,
+      taxa: 150,
+      named: 150,
+      sensitive: 2,
     });
   });
 
   it("places every sighting inside its zone and inside the event area, within the event's 48 hours (but the crafted review cases)", async () => {
     const crafted = REVIEW_CASES.map((c) => reviewCaseId(c.key));
-    const { rows } = await db().execute<{ outside_zone: number; outside_area: number; outside_time: number; zones_outside_area: number }>(sql`
+    const { rows } = await db().execute<{
+      outside_zone: number;
+      outside_area: number;
+      outside_time: number;
+      zones_outside_area: number;
+    }>(sql`
       SELECT count(*) FILTER (WHERE NOT ST_Within(s.location, z.geom))::int AS outside_zone,
              count(*) FILTER (WHERE NOT ST_Within(s.location, e.area))::int AS outside_area,
              count(*) FILTER (WHERE s.observed_at NOT BETWEEN e.starts_at AND e.ends_at)::int AS outside_time,

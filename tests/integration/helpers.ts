@@ -4,36 +4,83 @@ import * as s from "@/db/schema";
 
 export const db = () => getDb();
 
-export const pointSql = (lon: number, lat: number) => sql`ST_SetSRID(ST_MakePoint(${lon}, ${lat}), 4326)` as unknown as string;
+export const lonLat = (longitude: number, latitude: number) => ({ longitude, latitude });
 export const polygonSql = (ring: [number, number][]) =>
-  sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify({ type: "Polygon", coordinates: [ring] })}), 4326)` as unknown as string;
+  sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify({ type: "Polygon", coordinates: [ring] })}), 4326)`;
 
 /** A minimal valid organisation, person, event, zone and taxon to hang test rows on. */
 export async function makeFixture(tag: string) {
-  const [org] = await db().insert(s.organisations).values({ slug: `org-${tag}`, name: `Org ${tag}` }).returning();
-  const [user] = await db().insert(s.users).values({ email: `${tag}@example.org`, name: `Person ${tag}` }).returning();
-  const [event] = await db().insert(s.events).values({
-    organisationId: org!.id, slug: `event-${tag}`, name: `Event ${tag}`, status: "open",
-    startsAt: new Date("2026-06-20T05:00:00Z"), endsAt: new Date("2026-06-22T05:00:00Z"), timeZone: "Europe/London",
-    area: polygonSql([[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]]),
-  }).returning();
-  const [zone] = await db().insert(s.zones).values({
-    eventId: event!.id, name: "Zone A", habitat: "edge", geom: polygonSql([[0, 0], [0.5, 0], [0.5, 0.5], [0, 0.5], [0, 0]]),
-  }).returning();
-  const [taxon] = await db().insert(s.taxa).values({ scientificName: `Testus ${tag}`, taxonGroup: "birds" }).returning();
+  const [org] = await db()
+    .insert(s.organisations)
+    .values({ slug: `org-${tag}`, name: `Org ${tag}` })
+    .returning();
+  const [user] = await db()
+    .insert(s.users)
+    .values({ email: `${tag}@example.org`, name: `Person ${tag}` })
+    .returning();
+  const [event] = await db()
+    .insert(s.events)
+    .values({
+      organisationId: org!.id,
+      slug: `event-${tag}`,
+      name: `Event ${tag}`,
+      status: "open",
+      startsAt: new Date("2026-06-20T05:00:00Z"),
+      endsAt: new Date("2026-06-22T05:00:00Z"),
+      timeZone: "Europe/London",
+      area: polygonSql([
+        [0, 0],
+        [1, 0],
+        [1, 1],
+        [0, 1],
+        [0, 0],
+      ]),
+    })
+    .returning();
+  const [zone] = await db()
+    .insert(s.zones)
+    .values({
+      eventId: event!.id,
+      name: "Zone A",
+      habitat: "edge",
+      geom: polygonSql([
+        [0, 0],
+        [0.5, 0],
+        [0.5, 0.5],
+        [0, 0.5],
+        [0, 0],
+      ]),
+    })
+    .returning();
+  const [taxon] = await db()
+    .insert(s.taxa)
+    .values({ scientificName: `Testus ${tag}`, taxonGroup: "birds" })
+    .returning();
   return { org: org!, user: user!, event: event!, zone: zone!, taxon: taxon! };
 }
 
-export function sightingValues(f: Awaited<ReturnType<typeof makeFixture>>, over: Partial<typeof s.sightings.$inferInsert> = {}) {
+export function sightingValues(
+  f: Awaited<ReturnType<typeof makeFixture>>,
+  over: Partial<typeof s.sightings.$inferInsert> = {},
+) {
   return {
-    id: crypto.randomUUID(), eventId: f.event.id, userId: f.user.id, taxonId: f.taxon.id, count: 1,
-    observedAt: new Date("2026-06-20T09:00:00Z"), location: pointSql(0.2, 0.2), accuracyM: 10, zoneId: f.zone.id,
+    id: crypto.randomUUID(),
+    eventId: f.event.id,
+    userId: f.user.id,
+    taxonId: f.taxon.id,
+    count: 1,
+    observedAt: new Date("2026-06-20T09:00:00Z"),
+    location: lonLat(0.2, 0.2),
+    accuracyM: 10,
+    zoneId: f.zone.id,
     ...over,
   } satisfies typeof s.sightings.$inferInsert;
 }
 
 /** Runs `fn` and returns PostgreSQL's refusal (SQLSTATE code and constraint), or fails. */
-export async function refusal(fn: () => Promise<unknown>): Promise<{ code: string; constraint?: string; message: string }> {
+export async function refusal(
+  fn: () => Promise<unknown>,
+): Promise<{ code: string; constraint?: string; message: string }> {
   try {
     await fn();
   } catch (err) {

@@ -21,7 +21,9 @@ afterAll(async () => {
 });
 
 type JournalEntry = { idx: number; version: string; when: number; tag: string; breakpoints: boolean };
-const current = JSON.parse(fs.readFileSync(path.join(migrationsFolder, "meta/_journal.json"), "utf8")) as { entries: JournalEntry[] };
+const current = JSON.parse(fs.readFileSync(path.join(migrationsFolder, "meta/_journal.json"), "utf8")) as {
+  entries: JournalEntry[];
+};
 
 // The journal as it stood before its `when` values were put in order (commit 3e4f16f):
 // 0007 and 0008 came after 0005 in the list but carried smaller `when` values.
@@ -40,7 +42,11 @@ const oldJournal: [string, number][] = [
 function folderWith(entries: [string, number][]): string {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "ecotone-migrations-"));
   fs.cpSync(migrationsFolder, dir, { recursive: true });
-  const journal = { version: "7", dialect: "postgresql", entries: entries.map(([tag, when], idx) => ({ idx, version: "7", when, tag, breakpoints: true })) };
+  const journal = {
+    version: "7",
+    dialect: "postgresql",
+    entries: entries.map(([tag, when], idx) => ({ idx, version: "7", when, tag, breakpoints: true })),
+  };
   fs.writeFileSync(path.join(dir, "meta/_journal.json"), JSON.stringify(journal, null, 2));
   return dir;
 }
@@ -100,67 +106,108 @@ async function writeData(c: Client): Promise<void> {
              ST_GeomFromText('POLYGON((0 51, 0.1 51, 0.1 51.1, 0 51.1, 0 51))', 4326))`,
     [ids.event, ids.org],
   );
-  await c.query("INSERT INTO event_members (event_id, user_id, role) VALUES ($1, $2, 'organiser')", [ids.event, ids.user]);
+  await c.query("INSERT INTO event_members (event_id, user_id, role) VALUES ($1, $2, 'organiser')", [
+    ids.event,
+    ids.user,
+  ]);
   await c.query(
     `INSERT INTO zones (id, event_id, name, habitat, geom)
      VALUES ($1, $2, 'Meadow', 'grassland', ST_GeomFromText('POLYGON((0 51, 0.05 51, 0.05 51.05, 0 51.05, 0 51))', 4326))`,
     [ids.zone, ids.event],
   );
-  await c.query("INSERT INTO taxa (id, scientific_name, taxon_group) VALUES ($1, 'Quercus robur', 'vascular_plants'), ($2, 'Troglodytes troglodytes', 'birds')", [ids.oak, ids.wren]);
-  await c.query("INSERT INTO count_sessions (id, event_id, user_id, kind, started_at) VALUES ($1, $2, $3, 'walk', '2026-05-01T07:00Z')", [ids.session, ids.event, ids.user]);
+  await c.query(
+    "INSERT INTO taxa (id, scientific_name, taxon_group) VALUES ($1, 'Quercus robur', 'vascular_plants'), ($2, 'Troglodytes troglodytes', 'birds')",
+    [ids.oak, ids.wren],
+  );
+  await c.query(
+    "INSERT INTO count_sessions (id, event_id, user_id, kind, started_at) VALUES ($1, $2, $3, 'walk', '2026-05-01T07:00Z')",
+    [ids.session, ids.event, ids.user],
+  );
   const sighting = `INSERT INTO sightings (id, event_id, user_id, session_id, taxon_id, count, observed_at, location, accuracy_m, zone_id, review_state)
     VALUES ($1, $2, $3, $4, $5, $6, '2026-05-01T08:00Z', ST_SetSRID(ST_MakePoint(0.01, 51.01), 4326), 5, $7, $8)`;
   await c.query(sighting, [ids.s1, ids.event, ids.user, ids.session, ids.oak, 3, ids.zone, "approved"]);
   await c.query(sighting, [ids.s2, ids.event, ids.user, ids.session, ids.oak, 2, ids.zone, "approved"]);
   await c.query(sighting, [ids.s3, ids.event, ids.user, null, ids.wren, 1, null, "approved"]);
   await c.query(sighting, [ids.s4, ids.event, ids.user, ids.session, ids.wren, 7, ids.zone, "pending"]);
-  await c.query("INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, reason) VALUES ($1, $2, 'pending', 'approved', 'clear photo')", [ids.s1, ids.user]);
+  await c.query(
+    "INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, reason) VALUES ($1, $2, 'pending', 'approved', 'clear photo')",
+    [ids.s1, ids.user],
+  );
   await c.query("INSERT INTO review_notices (review_id, volunteer_id) SELECT id, $1 FROM reviews", [ids.user]);
 }
 
 async function expectUpgradedData(c: Client): Promise<void> {
   // Everything written before the upgrade is still there.
-  expect((await c.query("SELECT name FROM organisations WHERE id = $1", [ids.org])).rows).toEqual([{ name: "Upgrade Trust" }]);
+  expect((await c.query("SELECT name FROM organisations WHERE id = $1", [ids.org])).rows).toEqual([
+    { name: "Upgrade Trust" },
+  ]);
   expect((await c.query("SELECT name, ST_AsText(area) AS area FROM events WHERE id = $1", [ids.event])).rows).toEqual([
     { name: "Upgrade day", area: "POLYGON((0 51,0.1 51,0.1 51.1,0 51.1,0 51))" },
   ]);
-  expect((await c.query("SELECT name, GeometryType(geom) AS kind FROM zones WHERE id = $1", [ids.zone])).rows).toEqual([{ name: "Meadow", kind: "POLYGON" }]);
-  expect((await c.query("SELECT count(*)::int AS n FROM taxa WHERE id IN ($1, $2)", [ids.oak, ids.wren])).rows[0].n).toBe(2);
-  expect((await c.query("SELECT id, review_state FROM sightings WHERE event_id = $1 ORDER BY id", [ids.event])).rows).toEqual([
+  expect((await c.query("SELECT name, GeometryType(geom) AS kind FROM zones WHERE id = $1", [ids.zone])).rows).toEqual([
+    { name: "Meadow", kind: "POLYGON" },
+  ]);
+  expect(
+    (await c.query("SELECT count(*)::int AS n FROM taxa WHERE id IN ($1, $2)", [ids.oak, ids.wren])).rows[0].n,
+  ).toBe(2);
+  expect(
+    (await c.query("SELECT id, review_state FROM sightings WHERE event_id = $1 ORDER BY id", [ids.event])).rows,
+  ).toEqual([
     { id: ids.s1, review_state: "approved" },
     { id: ids.s2, review_state: "approved" },
     { id: ids.s3, review_state: "approved" },
     { id: ids.s4, review_state: "pending" },
   ]);
-  expect((await c.query("SELECT to_state, reason FROM reviews WHERE sighting_id = $1", [ids.s1])).rows).toEqual([{ to_state: "approved", reason: "clear photo" }]);
+  expect((await c.query("SELECT to_state, reason FROM reviews WHERE sighting_id = $1", [ids.s1])).rows).toEqual([
+    { to_state: "approved", reason: "clear photo" },
+  ]);
   expect((await c.query("SELECT count(*)::int AS n FROM review_notices")).rows[0].n).toBe(1);
 
   // 0007 filled its aggregates from the approved sightings already there (the pending one not).
   const noZone = "00000000-0000-0000-0000-000000000000";
   expect(
-    (await c.query("SELECT zone_key, taxon_id, individuals::int, sightings FROM result_taxon_counts WHERE event_id = $1 ORDER BY taxon_id, zone_key", [ids.event])).rows,
+    (
+      await c.query(
+        "SELECT zone_key, taxon_id, individuals::int, sightings FROM result_taxon_counts WHERE event_id = $1 ORDER BY taxon_id, zone_key",
+        [ids.event],
+      )
+    ).rows,
   ).toEqual([
     { zone_key: ids.zone, taxon_id: ids.oak, individuals: 5, sightings: 2 },
     { zone_key: noZone, taxon_id: ids.wren, individuals: 1, sightings: 1 },
   ]);
-  expect((await c.query("SELECT session_id, taxon_id, sightings FROM result_session_taxa WHERE event_id = $1", [ids.event])).rows).toEqual([
-    { session_id: ids.session, taxon_id: ids.oak, sightings: 2 },
-  ]);
-  expect((await c.query("SELECT count(*)::int AS n FROM result_stamps WHERE event_id = $1", [ids.event])).rows[0].n).toBe(1);
+  expect(
+    (await c.query("SELECT session_id, taxon_id, sightings FROM result_session_taxa WHERE event_id = $1", [ids.event]))
+      .rows,
+  ).toEqual([{ session_id: ids.session, taxon_id: ids.oak, sightings: 2 }]);
+  expect(
+    (await c.query("SELECT count(*)::int AS n FROM result_stamps WHERE event_id = $1", [ids.event])).rows[0].n,
+  ).toBe(1);
 
   // The aggregate triggers work on the upgraded database: approving the pending sighting counts it.
   await c.query("UPDATE sightings SET review_state = 'approved', version = version + 1 WHERE id = $1", [ids.s4]);
-  expect((await c.query("SELECT individuals::int, sightings FROM result_taxon_counts WHERE event_id = $1 AND zone_key = $2 AND taxon_id = $3", [ids.event, ids.zone, ids.wren])).rows).toEqual([
-    { individuals: 7, sightings: 1 },
-  ]);
+  expect(
+    (
+      await c.query(
+        "SELECT individuals::int, sightings FROM result_taxon_counts WHERE event_id = $1 AND zone_key = $2 AND taxon_id = $3",
+        [ids.event, ids.zone, ids.wren],
+      )
+    ).rows,
+  ).toEqual([{ individuals: 7, sightings: 1 }]);
 
   // 0008: zones may now be multipolygons, and still only areas.
   await c.query("UPDATE zones SET geom = ST_Multi(geom) WHERE id = $1", [ids.zone]);
-  await expect(c.query("UPDATE zones SET geom = ST_SetSRID(ST_MakePoint(0, 51), 4326) WHERE id = $1", [ids.zone])).rejects.toThrow(/zones_geom_areal/);
+  await expect(
+    c.query("UPDATE zones SET geom = ST_SetSRID(ST_MakePoint(0, 51), 4326) WHERE id = $1", [ids.zone]),
+  ).rejects.toThrow(/zones_geom_areal/);
 
   // Reviews stay append-only.
-  await expect(c.query("UPDATE reviews SET reason = 'changed' WHERE sighting_id = $1", [ids.s1])).rejects.toThrow(/append-only: UPDATE refused/);
-  await expect(c.query("DELETE FROM reviews WHERE sighting_id = $1", [ids.s1])).rejects.toThrow(/append-only: DELETE refused/);
+  await expect(c.query("UPDATE reviews SET reason = 'changed' WHERE sighting_id = $1", [ids.s1])).rejects.toThrow(
+    /append-only: UPDATE refused/,
+  );
+  await expect(c.query("DELETE FROM reviews WHERE sighting_id = $1", [ids.s1])).rejects.toThrow(
+    /append-only: DELETE refused/,
+  );
 }
 
 async function recorded(c: Client): Promise<number[]> {
@@ -180,7 +227,10 @@ describe("upgrading an existing database with runMigrations", () => {
   });
 
   it("brings a database at 0005 to the latest with its data, aggregates and append-only reviews", async () => {
-    const url = await databaseAt("at5", upTo("0005_review_notices").map((e) => [e.tag, e.when]));
+    const url = await databaseAt(
+      "at5",
+      upTo("0005_review_notices").map((e) => [e.tag, e.when]),
+    );
     await withClient(url, async (c) => {
       expect(await tableExists(c, "result_taxon_counts")).toBe(false);
       await writeData(c);

@@ -29,13 +29,19 @@ describe("e-mail outbox", () => {
 
     await catcher.start();
     // Let the back-off pass, as the clock would.
-    await db().update(emailOutbox).set({ sendAfter: sql`now() - interval '1 second'` }).where(eq(emailOutbox.toAddress, to));
+    await db()
+      .update(emailOutbox)
+      .set({ sendAfter: sql`now() - interval '1 second'` })
+      .where(eq(emailOutbox.toAddress, to));
     const up = await drainOutbox();
     expect(up.sent).toBeGreaterThanOrEqual(2);
     const delivered = await catcher.waitFor(to, (m) => m.subject === "Second");
     expect(delivered.text.trim()).toBe("two");
     const done = await db().select().from(emailOutbox).where(eq(emailOutbox.toAddress, to));
-    expect(done.map((m) => [m.status, m.attempts])).toEqual([["sent", 2], ["sent", 2]]);
+    expect(done.map((m) => [m.status, m.attempts])).toEqual([
+      ["sent", 2],
+      ["sent", 2],
+    ]);
 
     // Sent mails are not sent again.
     const again = await drainOutbox();

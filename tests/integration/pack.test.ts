@@ -13,26 +13,46 @@ let offList: typeof s.taxa.$inferSelect;
 
 beforeAll(async () => {
   f = await makeFixture("pack");
-  await db().update(s.events).set({ languages: ["en", "fr"] }).where(eq(s.events.id, f.event.id));
+  await db()
+    .update(s.events)
+    .set({ languages: ["en", "fr"] })
+    .where(eq(s.events.id, f.event.id));
   await db().insert(s.eventSpecies).values({ eventId: f.event.id, taxonId: f.taxon.id });
-  await db().insert(s.taxonNames).values([
-    { taxonId: f.taxon.id, locale: "en", name: "Test bird" }, { taxonId: f.taxon.id, locale: "fr", name: "Oiseau test" },
-    { taxonId: f.taxon.id, locale: "es", name: "Ave de prueba" }, { taxonId: f.taxon.id, locale: "de", name: "Testvogel" },
-  ]);
-  [offList] = await db().insert(s.taxa).values({ scientificName: "Offlistus packi", taxonGroup: "fungi", sensitivity: "generalised" }).returning() as [typeof s.taxa.$inferSelect];
+  await db()
+    .insert(s.taxonNames)
+    .values([
+      { taxonId: f.taxon.id, locale: "en", name: "Test bird" },
+      { taxonId: f.taxon.id, locale: "fr", name: "Oiseau test" },
+      { taxonId: f.taxon.id, locale: "es", name: "Ave de prueba" },
+      { taxonId: f.taxon.id, locale: "de", name: "Testvogel" },
+    ]);
+  [offList] = (await db()
+    .insert(s.taxa)
+    .values({ scientificName: "Offlistus packi", taxonGroup: "fungi", sensitivity: "generalised" })
+    .returning()) as [typeof s.taxa.$inferSelect];
 });
 
 describe("the event pack", () => {
   it("holds the settings, the zones as an RFC 7946 FeatureCollection and the species with names in the event's languages", async () => {
     const pack = (await getEventPack(f.event.id))!;
     expect(pack.event).toMatchObject({
-      id: f.event.id, status: "open", timeZone: "Europe/London", languages: ["en", "fr"], accuracyLimitM: 100,
-      sessionKinds: ["timed_count", "walk", "plot_search"], photoRules: { requiredForSensitive: true, requiredOffList: true },
+      id: f.event.id,
+      status: "open",
+      timeZone: "Europe/London",
+      languages: ["en", "fr"],
+      accuracyLimitM: 100,
+      sessionKinds: ["timed_count", "walk", "plot_search"],
+      photoRules: { requiredForSensitive: true, requiredOffList: true },
       startsAt: "2026-06-20T05:00:00.000Z",
     });
     expect(pack.zones.type).toBe("FeatureCollection");
     const [zone] = pack.zones.features;
-    expect(zone).toMatchObject({ type: "Feature", id: f.zone.id, properties: { name: "Zone A", habitat: "edge" }, geometry: { type: "Polygon" } });
+    expect(zone).toMatchObject({
+      type: "Feature",
+      id: f.zone.id,
+      properties: { name: "Zone A", habitat: "edge" },
+      geometry: { type: "Polygon" },
+    });
     // RFC 7946 section 3.1.6: the exterior ring is counter-clockwise (positive signed area), first = last position.
     const ring = (zone!.geometry.coordinates as number[][][])[0]!;
     expect(ring[0]).toEqual(ring.at(-1));
@@ -40,10 +60,21 @@ describe("the event pack", () => {
     expect(signedArea).toBeGreaterThan(0);
 
     const bird = pack.species.find((t) => t.id === f.taxon.id);
-    expect(bird).toMatchObject({ onList: true, sensitivity: "open", taxonGroup: "birds", names: { en: "Test bird", fr: "Oiseau test" } });
+    expect(bird).toMatchObject({
+      onList: true,
+      sensitivity: "open",
+      taxonGroup: "birds",
+      names: { en: "Test bird", fr: "Oiseau test" },
+    });
     expect(Object.keys(bird!.names)).toEqual(["en", "fr"]);
-    expect(pack.species.find((t) => t.id === offList.id)).toMatchObject({ onList: false, sensitivity: "generalised", names: {} });
-    expect(pack.species.findIndex((t) => t.id === f.taxon.id)).toBeLessThan(pack.species.findIndex((t) => t.id === offList.id));
+    expect(pack.species.find((t) => t.id === offList.id)).toMatchObject({
+      onList: false,
+      sensitivity: "generalised",
+      names: {},
+    });
+    expect(pack.species.findIndex((t) => t.id === f.taxon.id)).toBeLessThan(
+      pack.species.findIndex((t) => t.id === offList.id),
+    );
   });
 
   it("answers 304 to the same ETag, and a new ETag once the event changes", async () => {
@@ -54,13 +85,19 @@ describe("the event pack", () => {
     expect(etag).toMatch(/^"[\w-]{43}"$/); // strong: no W/ prefix
     expect((await first.json()).event.id).toBe(f.event.id);
 
-    const again = jsonWithEtag(new Request(url, { headers: { "if-none-match": etag } }), await getEventPack(f.event.id));
+    const again = jsonWithEtag(
+      new Request(url, { headers: { "if-none-match": etag } }),
+      await getEventPack(f.event.id),
+    );
     expect(again.status).toBe(304);
     expect(await again.text()).toBe("");
     expect(again.headers.get("etag")).toBe(etag);
 
     await db().update(s.zones).set({ name: "Zone A (north)" }).where(eq(s.zones.id, f.zone.id));
-    const changed = jsonWithEtag(new Request(url, { headers: { "if-none-match": etag } }), await getEventPack(f.event.id));
+    const changed = jsonWithEtag(
+      new Request(url, { headers: { "if-none-match": etag } }),
+      await getEventPack(f.event.id),
+    );
     expect(changed.status).toBe(200);
     expect(changed.headers.get("etag")).not.toBe(etag);
   });

@@ -17,12 +17,25 @@ const me = () => ({ userId: f.user.id, eventId: f.event.id, locale: "en" as cons
 
 async function photoWithGps(width = 64, height = 48) {
   return sharp({ create: { width, height, channels: 3, background: { r: 60, g: 110, b: 70 } } })
-    .withExif({ IFD0: { Make: "FieldPhone" }, IFD3: { GPSLatitudeRef: "N", GPSLatitude: "51/1 30/1 0/1", GPSLongitudeRef: "W", GPSLongitude: "0/1 7/1 0/1" } })
-    .jpeg().toBuffer();
+    .withExif({
+      IFD0: { Make: "FieldPhone" },
+      IFD3: { GPSLatitudeRef: "N", GPSLatitude: "51/1 30/1 0/1", GPSLongitudeRef: "W", GPSLongitude: "0/1 7/1 0/1" },
+    })
+    .jpeg()
+    .toBuffer();
 }
 
 async function upload(bytes: Uint8Array, over: Record<string, unknown> = {}) {
-  const declared = { id: crypto.randomUUID(), sightingId, contentType: "image/jpeg" as const, sizeBytes: bytes.length, sha256: sha(bytes), width: 64, height: 48, ...over };
+  const declared = {
+    id: crypto.randomUUID(),
+    sightingId,
+    contentType: "image/jpeg" as const,
+    sizeBytes: bytes.length,
+    sha256: sha(bytes),
+    width: 64,
+    height: 48,
+    ...over,
+  };
   const answer = await requestPhotoUpload(me(), declared);
   if (answer.outcome !== "upload") throw new Error("expected an upload URL");
   const put = await fetch(answer.uploadUrl, { method: "PUT", headers: answer.headers, body: new Uint8Array(bytes) });
@@ -32,8 +45,15 @@ async function upload(bytes: Uint8Array, over: Record<string, unknown> = {}) {
 
 beforeAll(async () => {
   f = await makeFixture("photos");
-  [other] = await db().insert(s.users).values({ email: "photos-other@example.org" }).returning() as [typeof s.users.$inferSelect];
-  await db().insert(s.eventMembers).values([{ eventId: f.event.id, userId: f.user.id, role: "volunteer" }, { eventId: f.event.id, userId: other.id, role: "volunteer" }]);
+  [other] = (await db().insert(s.users).values({ email: "photos-other@example.org" }).returning()) as [
+    typeof s.users.$inferSelect,
+  ];
+  await db()
+    .insert(s.eventMembers)
+    .values([
+      { eventId: f.event.id, userId: f.user.id, role: "volunteer" },
+      { eventId: f.event.id, userId: other.id, role: "volunteer" },
+    ]);
   const [row] = await db().insert(s.sightings).values(sightingValues(f)).returning();
   sightingId = row!.id;
 });
@@ -49,11 +69,18 @@ describe("a sighting's photo", () => {
     const [row] = await db().select().from(s.photos).where(eq(s.photos.id, declared.id));
     expect(row).toMatchObject({ sightingId, contentType: "image/jpeg", width: 64, height: 48 });
     // The sighting's check marks follow: an off-list record with a photo is no longer "photo missing".
-    const [sighting] = await db().select({ marks: s.sightings.checkMarks }).from(s.sightings).where(eq(s.sightings.id, sightingId));
+    const [sighting] = await db()
+      .select({ marks: s.sightings.checkMarks })
+      .from(s.sightings)
+      .where(eq(s.sightings.id, sightingId));
     expect(sighting!.marks).toEqual(["not_on_list"]);
 
     // What is stored is read back through a presigned GET, as the review desk will.
-    const full = Buffer.from(await (await fetch(await photoLink({ ...me(), role: "volunteer", taxonGroups: [] }, declared.id, "full"))).arrayBuffer());
+    const full = Buffer.from(
+      await (
+        await fetch(await photoLink({ ...me(), role: "volunteer", taxonGroups: [] }, declared.id, "full"))
+      ).arrayBuffer(),
+    );
     expect(sha(full)).toBe(row!.sha256);
     const meta = await sharp(full).metadata();
     expect(meta.exif).toBeUndefined();
@@ -72,7 +99,8 @@ describe("a sighting's photo", () => {
     const notImage = new TextEncoder().encode("<html><body>definitely not a photo</body></html>");
     const { declared } = await upload(notImage);
     await expect(confirmPhoto(me(), declared.id)).rejects.toMatchObject({
-      code: "unprocessable", fields: [{ field: "contentType", message: "This file is not a JPEG, PNG or WebP picture." }],
+      code: "unprocessable",
+      fields: [{ field: "contentType", message: "This file is not a JPEG, PNG or WebP picture." }],
     });
     expect(await db().select().from(s.photos).where(eq(s.photos.id, declared.id))).toHaveLength(0);
   });
@@ -80,9 +108,13 @@ describe("a sighting's photo", () => {
   it("is refused when the bytes that arrived are not the ones declared (checksum, type, pixel size)", async () => {
     const bytes = await photoWithGps();
     const wrongSum = await upload(bytes, { sha256: "0".repeat(64) });
-    await expect(confirmPhoto({ ...me(), locale: "fr" }, wrongSum.declared.id)).rejects.toMatchObject({ fields: [{ field: "sha256", message: expect.stringMatching(/somme de contrôle/) }] });
+    await expect(confirmPhoto({ ...me(), locale: "fr" }, wrongSum.declared.id)).rejects.toMatchObject({
+      fields: [{ field: "sha256", message: expect.stringMatching(/somme de contrôle/) }],
+    });
     const wrongType = await upload(bytes, { contentType: "image/png" });
-    await expect(confirmPhoto(me(), wrongType.declared.id)).rejects.toMatchObject({ fields: [{ field: "contentType" }] });
+    await expect(confirmPhoto(me(), wrongType.declared.id)).rejects.toMatchObject({
+      fields: [{ field: "contentType" }],
+    });
     const wrongSize = await upload(bytes, { width: 640, height: 480 });
     await expect(confirmPhoto(me(), wrongSize.declared.id)).rejects.toMatchObject({ fields: [{ field: "width" }] });
   });
@@ -90,18 +122,47 @@ describe("a sighting's photo", () => {
   it("can be confirmed only once uploaded, only for one's own sighting, and is seen only by its author and reviewers", async () => {
     await expect(confirmPhoto(me(), crypto.randomUUID())).rejects.toMatchObject({ fields: [{ field: "id" }] });
     const bytes = await photoWithGps();
-    await expect(requestPhotoUpload({ ...me(), userId: other.id }, { id: crypto.randomUUID(), sightingId, contentType: "image/jpeg", sizeBytes: bytes.length, sha256: sha(bytes), width: 64, height: 48 }))
-      .rejects.toMatchObject({ code: "unprocessable", fields: [{ field: "sightingId" }] });
-    await expect(requestPhotoUpload(me(), { id: crypto.randomUUID(), sightingId, contentType: "image/jpeg", sizeBytes: 30_000_000, sha256: sha(bytes), width: 64, height: 48 }))
-      .rejects.toMatchObject({ fields: [{ field: "sizeBytes" }] });
+    await expect(
+      requestPhotoUpload(
+        { ...me(), userId: other.id },
+        {
+          id: crypto.randomUUID(),
+          sightingId,
+          contentType: "image/jpeg",
+          sizeBytes: bytes.length,
+          sha256: sha(bytes),
+          width: 64,
+          height: 48,
+        },
+      ),
+    ).rejects.toMatchObject({ code: "unprocessable", fields: [{ field: "sightingId" }] });
+    await expect(
+      requestPhotoUpload(me(), {
+        id: crypto.randomUUID(),
+        sightingId,
+        contentType: "image/jpeg",
+        sizeBytes: 30_000_000,
+        sha256: sha(bytes),
+        width: 64,
+        height: 48,
+      }),
+    ).rejects.toMatchObject({ fields: [{ field: "sizeBytes" }] });
 
     const { declared } = await upload(bytes);
     // Another volunteer cannot confirm (nor see) someone else's upload.
-    await expect(confirmPhoto({ ...me(), userId: other.id }, declared.id)).rejects.toMatchObject({ fields: [{ field: "id" }] });
+    await expect(confirmPhoto({ ...me(), userId: other.id }, declared.id)).rejects.toMatchObject({
+      fields: [{ field: "id" }],
+    });
     await confirmPhoto(me(), declared.id);
     await expect(confirmPhoto({ ...me(), userId: other.id }, declared.id)).rejects.toMatchObject({ code: "conflict" });
-    await expect(photoLink({ ...me(), userId: other.id, role: "volunteer", taxonGroups: [] }, declared.id, "thumb")).rejects.toMatchObject({ code: "forbidden" });
-    await expect(photoLink({ ...me(), userId: other.id, role: "coordinator", taxonGroups: ["fungi"] }, declared.id, "thumb")).rejects.toMatchObject({ code: "forbidden" });
-    expect(await photoLink({ ...me(), userId: other.id, role: "coordinator", taxonGroups: ["birds"] }, declared.id, "thumb")).toMatch(/-thumb\.jpg\?/);
+    await expect(
+      photoLink({ ...me(), userId: other.id, role: "volunteer", taxonGroups: [] }, declared.id, "thumb"),
+    ).rejects.toMatchObject({ code: "forbidden" });
+    await expect(
+      photoLink({ ...me(), userId: other.id, role: "coordinator", taxonGroups: ["fungi"] }, declared.id, "thumb"),
+    ).rejects.toMatchObject({ code: "forbidden" });
+    expect(
+      await photoLink({ ...me(), userId: other.id, role: "coordinator", taxonGroups: ["birds"] }, declared.id, "thumb"),
+    ).toMatch(/-thumb\.jpg\?/);
   });
 });

@@ -1,15 +1,22 @@
 import { sql } from "drizzle-orm";
 import { strFromU8, unzipSync } from "fflate";
 import { beforeAll, describe, expect, it } from "vitest";
-import { checkReport, getReport, publishReport, reportOccurrences } from "@/db/queries/reports";
+import { getReport, reportOccurrences } from "@/db/queries/reports";
+import { checkReport } from "@/server/results/check";
+import { publishReport } from "@/server/results/publish";
 import { loadInputRecords, loadResultsInput } from "@/db/queries/results";
 import * as s from "@/db/schema";
 import { seedDemo } from "@/db/seed/demo";
 import { DEMO_EVENT } from "@/db/seed/demo-scenario";
 import { SENSITIVE_DEMO_RECORDS } from "@/db/seed/sensitive";
 import { canonicalJson, computeResults } from "@/lib/results/compute";
-import { DWC_REQUIRED, darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
-import { publishMail } from "@/server/results/publish-mail";
+import {
+  DWC_REQUIRED,
+  darwinCoreArchive,
+  occurrencesGeoJson,
+  publicOccurrences,
+  speciesCsv,
+} from "@/lib/results/exports";
 import { inputFromRecords, inputHash } from "@/lib/results/records";
 import { resultsKey, taxaMeta } from "@/db/queries/results";
 import { currentResults } from "@/server/results/current";
@@ -22,7 +29,8 @@ beforeAll(async () => {
   await seedDemo(db());
   const [e] = (await db().execute<{ id: string }>(sql`SELECT id FROM events WHERE slug = ${DEMO_EVENT.slug}`)).rows;
   eventId = e!.id;
-  const [u] = (await db().execute<{ id: string }>(sql`SELECT id FROM users WHERE email = 'organiser@example.org'`)).rows;
+  const [u] = (await db().execute<{ id: string }>(sql`SELECT id FROM users WHERE email = 'organiser@example.org'`))
+    .rows;
   organiserId = u!.id;
 });
 
@@ -41,27 +49,61 @@ async function aggregates(event: string) {
 describe("results aggregates (migration 0007 triggers)", () => {
   it("stay equal to a plain GROUP BY over approved sightings through inserts, approvals, re-identification and deletes", async () => {
     const f = await makeFixture("agg");
-    const [other] = await db().insert(s.taxa).values({ scientificName: "Testus aggregatus", taxonGroup: "insects" }).returning();
-    const [session] = await db().insert(s.countSessions).values({
-      id: crypto.randomUUID(), eventId: f.event.id, userId: f.user.id, zoneId: f.zone.id, kind: "timed_count",
-      startedAt: new Date("2026-06-20T09:00:00Z"), endedAt: new Date("2026-06-20T09:20:00Z"), allSpeciesNoted: true,
-    }).returning();
-    const rows = Array.from({ length: 12 }, (_, i) => sightingValues(f, { count: i + 1, reviewState: i % 3 === 0 ? "pending" : "approved", sessionId: i < 6 ? session!.id : null, zoneId: i % 4 === 0 ? null : f.zone.id }));
+    const [other] = await db()
+      .insert(s.taxa)
+      .values({ scientificName: "Testus aggregatus", taxonGroup: "insects" })
+      .returning();
+    const [session] = await db()
+      .insert(s.countSessions)
+      .values({
+        id: crypto.randomUUID(),
+        eventId: f.event.id,
+        userId: f.user.id,
+        zoneId: f.zone.id,
+        kind: "timed_count",
+        startedAt: new Date("2026-06-20T09:00:00Z"),
+        endedAt: new Date("2026-06-20T09:20:00Z"),
+        allSpeciesNoted: true,
+      })
+      .returning();
+    const rows = Array.from({ length: 12 }, (_, i) =>
+      sightingValues(f, {
+        count: i + 1,
+        reviewState: i % 3 === 0 ? "pending" : "approved",
+        sessionId: i < 6 ? session!.id : null,
+        zoneId: i % 4 === 0 ? null : f.zone.id,
+      }),
+    );
     await db().insert(s.sightings).values(rows);
     expect(await aggregates(f.event.id)).toEqual(await plainGroupBy(f.event.id));
-    await db().update(s.sightings).set({ reviewState: "approved" }).where(sql`event_id = ${f.event.id} AND review_state = 'pending'`);
+    await db()
+      .update(s.sightings)
+      .set({ reviewState: "approved" })
+      .where(sql`event_id = ${f.event.id} AND review_state = 'pending'`);
     expect(await aggregates(f.event.id)).toEqual(await plainGroupBy(f.event.id));
-    await db().update(s.sightings).set({ taxonId: other!.id }).where(sql`id = ${rows[1]!.id}`);
-    await db().update(s.sightings).set({ reviewState: "rejected" }).where(sql`id = ${rows[2]!.id}`);
+    await db()
+      .update(s.sightings)
+      .set({ taxonId: other!.id })
+      .where(sql`id = ${rows[1]!.id}`);
+    await db()
+      .update(s.sightings)
+      .set({ reviewState: "rejected" })
+      .where(sql`id = ${rows[2]!.id}`);
     expect(await aggregates(f.event.id)).toEqual(await plainGroupBy(f.event.id));
-    await db().delete(s.sightings).where(sql`id = ${rows[3]!.id}`);
+    await db()
+      .delete(s.sightings)
+      .where(sql`id = ${rows[3]!.id}`);
     expect(await aggregates(f.event.id)).toEqual(await plainGroupBy(f.event.id));
-    const pairs = await db().execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM result_session_taxa WHERE event_id = ${f.event.id}`);
+    const pairs = await db().execute<{ n: number }>(
+      sql`SELECT count(*)::int AS n FROM result_session_taxa WHERE event_id = ${f.event.id}`,
+    );
     const direct = await db().execute<{ n: number }>(sql`
       SELECT count(DISTINCT (session_id, taxon_id))::int AS n FROM sightings WHERE event_id = ${f.event.id} AND review_state = 'approved' AND session_id IS NOT NULL`);
     expect(pairs.rows[0]!.n).toBe(direct.rows[0]!.n);
     // Nothing left at zero.
-    const zero = await db().execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM result_taxon_counts WHERE sightings <= 0`);
+    const zero = await db().execute<{ n: number }>(
+      sql`SELECT count(*)::int AS n FROM result_taxon_counts WHERE sightings <= 0`,
+    );
     expect(zero.rows[0]!.n).toBe(0);
   });
 
@@ -80,20 +122,38 @@ describe("results aggregates (migration 0007 triggers)", () => {
 describe("current results cache", () => {
   it("is reused while nothing changed and recomputed after an approval or a session's complete flag changes", async () => {
     const f = await makeFixture("cache");
-    const [session] = await db().insert(s.countSessions).values({
-      id: crypto.randomUUID(), eventId: f.event.id, userId: f.user.id, zoneId: f.zone.id, kind: "plot_search",
-      startedAt: new Date("2026-06-20T09:00:00Z"), endedAt: new Date("2026-06-20T09:30:00Z"), allSpeciesNoted: false,
-    }).returning();
-    const rows = [sightingValues(f, { count: 3, reviewState: "approved", sessionId: session!.id }), sightingValues(f, { count: 2, sessionId: session!.id })];
+    const [session] = await db()
+      .insert(s.countSessions)
+      .values({
+        id: crypto.randomUUID(),
+        eventId: f.event.id,
+        userId: f.user.id,
+        zoneId: f.zone.id,
+        kind: "plot_search",
+        startedAt: new Date("2026-06-20T09:00:00Z"),
+        endedAt: new Date("2026-06-20T09:30:00Z"),
+        allSpeciesNoted: false,
+      })
+      .returning();
+    const rows = [
+      sightingValues(f, { count: 3, reviewState: "approved", sessionId: session!.id }),
+      sightingValues(f, { count: 2, sessionId: session!.id }),
+    ];
     await db().insert(s.sightings).values(rows);
     const first = await currentResults(f.event.id);
     expect(await currentResults(f.event.id)).toBe(first);
     expect(first.results.totals.individuals).toBe(3);
-    await db().update(s.sightings).set({ reviewState: "approved" }).where(sql`id = ${rows[1]!.id}`);
+    await db()
+      .update(s.sightings)
+      .set({ reviewState: "approved" })
+      .where(sql`id = ${rows[1]!.id}`);
     const second = await currentResults(f.event.id);
     expect(second.results.totals.individuals).toBe(5);
     const key = await resultsKey(f.event.id);
-    await db().update(s.countSessions).set({ allSpeciesNoted: true }).where(sql`id = ${session!.id}`);
+    await db()
+      .update(s.countSessions)
+      .set({ allSpeciesNoted: true })
+      .where(sql`id = ${session!.id}`);
     expect(await resultsKey(f.event.id)).not.toBe(key);
     expect((await currentResults(f.event.id)).results.totals.completeSessions).toBe(1);
   });
@@ -101,7 +161,7 @@ describe("current results cache", () => {
 
 describe("reports", () => {
   it("publish numbered versions that the database refuses to change, list what changed, and re-compute to the same numbers", async () => {
-    const v1 = await publishReport(eventId, organiserId, publishMail, { confirmPending: true });
+    const v1 = await publishReport(eventId, organiserId, { confirmPending: true });
     const r1 = await getReport(eventId, v1.version, { withInputs: true });
     expect(r1!.inputHash).toBe(inputHash(r1!.inputRecords));
 
@@ -116,12 +176,19 @@ describe("reports", () => {
     expect(check).toMatchObject({ same: true, hashSame: true });
 
     // One more approval, then version 2 says what changed.
-    const [pending] = (await db().execute<{ id: string }>(sql`
-      SELECT id FROM sightings WHERE event_id = ${eventId} AND review_state = 'pending' AND taxon_id IS NOT NULL ORDER BY id LIMIT 1`)).rows;
+    const [pending] = (
+      await db().execute<{ id: string }>(sql`
+      SELECT id FROM sightings WHERE event_id = ${eventId} AND review_state = 'pending' AND taxon_id IS NOT NULL ORDER BY id LIMIT 1`)
+    ).rows;
     // Approved as the review desk records it: the state and an append-only review row.
-    await db().update(s.sightings).set({ reviewState: "approved" }).where(sql`id = ${pending!.id}`);
-    await db().insert(s.reviews).values({ sightingId: pending!.id, reviewerId: organiserId, fromState: "pending", toState: "approved" });
-    const v2 = await publishReport(eventId, organiserId, publishMail, { confirmPending: true });
+    await db()
+      .update(s.sightings)
+      .set({ reviewState: "approved" })
+      .where(sql`id = ${pending!.id}`);
+    await db()
+      .insert(s.reviews)
+      .values({ sightingId: pending!.id, reviewerId: organiserId, fromState: "pending", toState: "approved" });
+    const v2 = await publishReport(eventId, organiserId, { confirmPending: true });
     expect(v2.version).toBe(v1.version + 1);
     const r2 = await getReport(eventId, v2.version);
     expect(r2!.changes).toMatchObject({ previousVersion: v1.version, added: 1, removed: 0, changed: 0 });
@@ -139,15 +206,27 @@ describe("reports", () => {
   });
 
   it("Darwin Core Archive: meta.xml names occurrence.txt's columns in order and every row has the required terms", async () => {
-    const v = await publishReport(eventId, organiserId, publishMail, { confirmPending: true });
+    const v = await publishReport(eventId, organiserId, { confirmPending: true });
     const report = (await getReport(eventId, v.version, { withInputs: true }))!;
     const { rows, withheld } = publicOccurrences(report.results, await reportOccurrences(report), "en");
-    const zip = unzipSync(darwinCoreArchive(rows, { id: report.id, title: "Harrowmere", organisation: "Friends", version: v.version, publishedAt: report.publishedAt, withheld, abstract: "Approved sightings." }));
+    const zip = unzipSync(
+      darwinCoreArchive(rows, {
+        id: report.id,
+        title: "Harrowmere",
+        organisation: "Friends",
+        version: v.version,
+        publishedAt: report.publishedAt,
+        withheld,
+        abstract: "Approved sightings.",
+      }),
+    );
     expect(Object.keys(zip).sort()).toEqual(["eml.xml", "meta.xml", "occurrence.txt"]);
     const meta = strFromU8(zip["meta.xml"]!);
     const lines = strFromU8(zip["occurrence.txt"]!).trimEnd().split("\n");
     const header = lines[0]!.split("\t");
-    const fields = [...meta.matchAll(/<field index="(\d+)" term="http:\/\/rs\.tdwg\.org\/dwc\/terms\/(\w+)"\/>/g)].map((m) => [Number(m[1]), m[2]] as const);
+    const fields = [...meta.matchAll(/<field index="(\d+)" term="http:\/\/rs\.tdwg\.org\/dwc\/terms\/(\w+)"\/>/g)].map(
+      (m) => [Number(m[1]), m[2]] as const,
+    );
     expect(fields.length).toBe(header.length);
     for (const [i, term] of fields) expect(header[i]).toBe(term);
     expect(meta).toContain("<location>occurrence.txt</location>");
@@ -165,13 +244,23 @@ describe("reports", () => {
   });
 
   it("no public output holds the exact coordinates of a sensitive taxon", async () => {
-    const v = await publishReport(eventId, organiserId, publishMail, { confirmPending: true });
+    const v = await publishReport(eventId, organiserId, { confirmPending: true });
     const report = (await getReport(eventId, v.version, { withInputs: true }))!;
     const occurrences = await reportOccurrences(report);
     expect(occurrences.filter((o) => o.sensitivity !== "open").length).toBe(SENSITIVE_DEMO_RECORDS.length);
     const { rows, withheld } = publicOccurrences(report.results, occurrences, "es");
     expect(withheld).toBe(2);
-    const zip = unzipSync(darwinCoreArchive(rows, { id: report.id, title: "t", organisation: "o", version: v.version, publishedAt: report.publishedAt, withheld, abstract: "Approved sightings." }));
+    const zip = unzipSync(
+      darwinCoreArchive(rows, {
+        id: report.id,
+        title: "t",
+        organisation: "o",
+        version: v.version,
+        publishedAt: report.publishedAt,
+        withheld,
+        abstract: "Approved sightings.",
+      }),
+    );
     const outputs = {
       csv: speciesCsv(report.results, "es"),
       geojson: occurrencesGeoJson(rows),
@@ -187,7 +276,12 @@ describe("reports", () => {
       }
     }
     // The generalised badgers are there, at a grid cell centre with a wide uncertainty; restricted taxa are not.
-    const geo = JSON.parse(outputs.geojson) as { features: { geometry: { coordinates: [number, number] }; properties: { scientificName: string; coordinateUncertaintyInMeters: number; generalised: boolean } }[] };
+    const geo = JSON.parse(outputs.geojson) as {
+      features: {
+        geometry: { coordinates: [number, number] };
+        properties: { scientificName: string; coordinateUncertaintyInMeters: number; generalised: boolean };
+      }[];
+    };
     const badgers = geo.features.filter((f) => f.properties.scientificName === "Meles meles");
     expect(badgers.length).toBe(2);
     for (const b of badgers) {

@@ -2,14 +2,15 @@ import { eq, inArray, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { findUserById } from "@/db/queries/auth";
 import { refreshCheckMarks } from "@/db/queries/check-marks";
-import { bulkApprove, decide, queueCounts, reviewQueue, sightingDetail, type ReviewScope } from "@/db/queries/review";
+import { bulkApprove, decide, queueCounts, reviewQueue, sightingDetail } from "@/db/queries/review";
 import { composeDigests } from "@/db/queries/review-digest";
 import * as s from "@/db/schema";
 import { ApiError, errorStatus } from "@/lib/http/errors";
 import { renderDigest } from "@/server/review/digest-mail";
 import { queueFilters } from "@/lib/review/filters";
 import { reviewPermitFor } from "@/server/review/permit";
-import { db, makeFixture, pointSql, refusal, sightingValues } from "./helpers";
+import { db, makeFixture, lonLat, refusal, sightingValues } from "./helpers";
+import type { EventRole, TaxonGroup } from "@/lib/domain";
 
 // The review desk's data layer and its guard, on the real database: who may review what,
 // decisions appended to the history with the state kept in step, optimistic concurrency,
@@ -22,22 +23,34 @@ const birds: string[] = [];
 const plants: string[] = [];
 const noFilters = queueFilters.parse({});
 
-async function person(key: string, eventId: string, role: "coordinator" | "volunteer" | "organiser", groups: ("birds" | "vascular_plants")[] = []) {
-  const [u] = await db().insert(s.users).values({ email: `${key}@desk.example.org`, name: key, locale: "fr" }).returning();
+async function person(key: string, eventId: string, role: EventRole, groups: TaxonGroup[] = []) {
+  const [u] = await db()
+    .insert(s.users)
+    .values({ email: `${key}@desk.example.org`, name: key, locale: "fr" })
+    .returning();
   await db().insert(s.eventMembers).values({ eventId, userId: u!.id, role, taxonGroups: groups });
   people[key] = u!.id;
   return (await findUserById(u!.id))!;
 }
 
-const scopeOf = async (key: string, eventId = f.event.id) => (await reviewPermitFor((await findUserById(people[key]!))!, eventId, "en")).scope;
+const scopeOf = async (key: string, eventId = f.event.id) =>
+  (await reviewPermitFor((await findUserById(people[key]!))!, eventId, "en")).scope;
 const stateOf = async (id: string) => (await db().select().from(s.sightings).where(eq(s.sightings.id, id)))[0]!;
 
 beforeAll(async () => {
   f = await makeFixture("desk");
   other = await makeFixture("desk-other");
-  const [p] = await db().insert(s.taxa).values({ scientificName: "Plantus deskensis", taxonGroup: "vascular_plants" }).returning();
+  const [p] = await db()
+    .insert(s.taxa)
+    .values({ scientificName: "Plantus deskensis", taxonGroup: "vascular_plants" })
+    .returning();
   plant = p!.id;
-  await db().insert(s.eventSpecies).values([{ eventId: f.event.id, taxonId: f.taxon.id }, { eventId: f.event.id, taxonId: plant }]);
+  await db()
+    .insert(s.eventSpecies)
+    .values([
+      { eventId: f.event.id, taxonId: f.taxon.id },
+      { eventId: f.event.id, taxonId: plant },
+    ]);
   await db().insert(s.eventMembers).values({ eventId: f.event.id, userId: f.user.id, role: "volunteer" });
   await person("all", f.event.id, "coordinator");
   await person("birder", f.event.id, "coordinator", ["birds"]);
@@ -45,17 +58,27 @@ beforeAll(async () => {
   await person("volunteer2", f.event.id, "volunteer");
   const rows = [];
   for (let i = 0; i < 30; i++) {
-    const row = sightingValues(f, { observedAt: new Date(Date.parse("2026-06-20T06:00:00Z") + i * 3_600_000), location: pointSql(0.1 + i * 0.01, 0.2) });
+    const row = sightingValues(f, {
+      observedAt: new Date(Date.parse("2026-06-20T06:00:00Z") + i * 3_600_000),
+      location: lonLat(0.1 + i * 0.01, 0.2),
+    });
     birds.push(row.id);
     rows.push(row);
   }
   for (let i = 0; i < 5; i++) {
-    const row = sightingValues(f, { taxonId: plant, userId: people.volunteer2!, observedAt: new Date(Date.parse("2026-06-20T06:30:00Z") + i * 3_600_000) });
+    const row = sightingValues(f, {
+      taxonId: plant,
+      userId: people.volunteer2!,
+      observedAt: new Date(Date.parse("2026-06-20T06:30:00Z") + i * 3_600_000),
+    });
     plants.push(row.id);
     rows.push(row);
   }
   await db().insert(s.sightings).values(rows);
-  await refreshCheckMarks(db(), rows.map((r) => r.id));
+  await refreshCheckMarks(
+    db(),
+    rows.map((r) => r.id),
+  );
 });
 
 describe("who may review", () => {
@@ -81,7 +104,9 @@ describe("who may review", () => {
     expect(errorStatus[refused.outcome as "forbidden"]).toBe(403);
     expect((await stateOf(plants[0]!)).reviewState).toBe("pending");
     // Nor may they move a bird into another group by re-identifying it.
-    expect(await decide(birder, people.birder!, birds[29]!, { action: "reidentify", version: 1, taxonId: plant })).toEqual({ outcome: "bad_taxon", why: "out_of_scope" });
+    expect(
+      await decide(birder, people.birder!, birds[29]!, { action: "reidentify", version: 1, taxonId: plant }),
+    ).toEqual({ outcome: "bad_taxon", why: "out_of_scope" });
 
     const all = await scopeOf("all");
     expect((await reviewQueue(all, noFilters, null, 200)).items).toHaveLength(35);
@@ -89,7 +114,9 @@ describe("who may review", () => {
 
   it("answers a sighting of another event as not found, not as a decision", async () => {
     const [foreign] = await db().insert(s.sightings).values(sightingValues(other)).returning();
-    expect(await decide(await scopeOf("all"), people.all!, foreign!.id, { action: "approve", version: 1 })).toEqual({ outcome: "not_found" });
+    expect(await decide(await scopeOf("all"), people.all!, foreign!.id, { action: "approve", version: 1 })).toEqual({
+      outcome: "not_found",
+    });
   });
 });
 
@@ -116,18 +143,52 @@ describe("decisions", () => {
 
   it("stores a rejection's reason, a returned sighting's question and a re-identification with the original taxon in the history", async () => {
     const all = await scopeOf("all");
-    expect(await decide(all, people.all!, birds[1]!, { action: "reject", version: 1, reason: "duplicate", message: "Same bird as the one at 07:00." })).toMatchObject({ outcome: "ok" });
-    expect(await decide(all, people.all!, birds[2]!, { action: "return", version: 1, message: "Was this seen or only heard?" })).toMatchObject({ outcome: "ok" });
-    expect(await decide(all, people.all!, birds[3]!, { action: "reidentify", version: 1, taxonId: plant })).toMatchObject({ outcome: "ok", sighting: { taxonId: plant, reviewState: "pending", version: 2 } });
+    expect(
+      await decide(all, people.all!, birds[1]!, {
+        action: "reject",
+        version: 1,
+        reason: "duplicate",
+        message: "Same bird as the one at 07:00.",
+      }),
+    ).toMatchObject({ outcome: "ok" });
+    expect(
+      await decide(all, people.all!, birds[2]!, {
+        action: "return",
+        version: 1,
+        message: "Was this seen or only heard?",
+      }),
+    ).toMatchObject({ outcome: "ok" });
+    expect(
+      await decide(all, people.all!, birds[3]!, { action: "reidentify", version: 1, taxonId: plant }),
+    ).toMatchObject({ outcome: "ok", sighting: { taxonId: plant, reviewState: "pending", version: 2 } });
     // The same decision twice (with the version seen before) is a conflict, never a silent overwrite.
-    expect(await decide(all, people.all!, birds[2]!, { action: "approve", version: 1 })).toEqual({ outcome: "conflict", current: { reviewState: "returned", version: 2 } });
-    expect(await decide(all, people.all!, birds[2]!, { action: "return", version: 2, message: "again?" })).toEqual({ outcome: "unchanged" });
+    expect(await decide(all, people.all!, birds[2]!, { action: "approve", version: 1 })).toEqual({
+      outcome: "conflict",
+      current: { reviewState: "returned", version: 2 },
+    });
+    expect(await decide(all, people.all!, birds[2]!, { action: "return", version: 2, message: "again?" })).toEqual({
+      outcome: "unchanged",
+    });
 
-    const rows = await db().select().from(s.reviews).where(inArray(s.reviews.sightingId, [birds[1]!, birds[2]!, birds[3]!]));
+    const rows = await db()
+      .select()
+      .from(s.reviews)
+      .where(inArray(s.reviews.sightingId, [birds[1]!, birds[2]!, birds[3]!]));
     const by = Object.fromEntries(rows.map((r) => [r.sightingId, r]));
-    expect(by[birds[1]!]).toMatchObject({ fromState: "pending", toState: "rejected", reason: "duplicate", message: "Same bird as the one at 07:00.", reviewerId: people.all });
+    expect(by[birds[1]!]).toMatchObject({
+      fromState: "pending",
+      toState: "rejected",
+      reason: "duplicate",
+      message: "Same bird as the one at 07:00.",
+      reviewerId: people.all,
+    });
     expect(by[birds[2]!]).toMatchObject({ toState: "returned", message: "Was this seen or only heard?" });
-    expect(by[birds[3]!]).toMatchObject({ fromState: "pending", toState: "pending", fromTaxonId: f.taxon.id, toTaxonId: plant });
+    expect(by[birds[3]!]).toMatchObject({
+      fromState: "pending",
+      toState: "pending",
+      fromTaxonId: f.taxon.id,
+      toTaxonId: plant,
+    });
     expect((await stateOf(birds[1]!)).reviewState).toBe("rejected");
     expect((await stateOf(birds[2]!)).reviewState).toBe("returned");
 
@@ -135,7 +196,11 @@ describe("decisions", () => {
     expect(detail.check).toBe("ok");
     if (detail.check === "ok") {
       expect(detail.history).toHaveLength(1);
-      expect(detail.history[0]).toMatchObject({ fromTaxon: "Testus desk", toTaxon: "Plantus deskensis", reviewerName: "all" });
+      expect(detail.history[0]).toMatchObject({
+        fromTaxon: "Testus desk",
+        toTaxon: "Plantus deskensis",
+        reviewerName: "all",
+      });
       expect(detail.sighting.scientificName).toBe("Plantus deskensis");
       expect(detail.map.zones).toHaveLength(1);
       expect(detail.nearby.length).toBeGreaterThan(0);
@@ -147,9 +212,15 @@ describe("decisions", () => {
     const filters = queueFilters.parse({ from: "2026-06-21", to: "2026-06-21" }); // 24 hours of birds, one an hour
     const before = await queueCounts(birder, filters);
     expect(before.pending).toBeGreaterThan(10);
-    expect(await bulkApprove(birder, people.birder!, filters, before.pending - 1)).toEqual({ outcome: "count_changed", count: before.pending });
+    expect(await bulkApprove(birder, people.birder!, filters, before.pending - 1)).toEqual({
+      outcome: "count_changed",
+      count: before.pending,
+    });
     expect((await queueCounts(birder, filters)).pending).toBe(before.pending);
-    expect(await bulkApprove(birder, people.birder!, filters, before.pending)).toEqual({ outcome: "ok", approved: before.pending });
+    expect(await bulkApprove(birder, people.birder!, filters, before.pending)).toEqual({
+      outcome: "ok",
+      approved: before.pending,
+    });
     const after = await queueCounts(birder, filters);
     expect(after.pending).toBe(0);
     expect(after.approved).toBe(before.approved + before.pending);
@@ -162,8 +233,12 @@ describe("decisions", () => {
     expect(later.length).toBe(snapshot.length + 1);
     expect(later.slice(0, snapshot.length)).toEqual(snapshot);
     const first = snapshot[0]!;
-    expect(await refusal(() => db().update(s.reviews).set({ reason: "changed" }).where(eq(s.reviews.id, first.id)))).toMatchObject({ code: "23000" });
-    expect(await refusal(() => db().delete(s.reviews).where(eq(s.reviews.id, first.id)))).toMatchObject({ code: "23000" });
+    expect(
+      await refusal(() => db().update(s.reviews).set({ reason: "changed" }).where(eq(s.reviews.id, first.id))),
+    ).toMatchObject({ code: "23000" });
+    expect(await refusal(() => db().delete(s.reviews).where(eq(s.reviews.id, first.id)))).toMatchObject({
+      code: "23000",
+    });
     // Every sighting's state is the last decision's.
     const { rows } = await db().execute<{ n: number }>(sql`
       SELECT count(*)::int AS n FROM sightings x
@@ -180,13 +255,21 @@ describe("the queue", () => {
       const seen: string[] = [];
       let cursor: string | null = null;
       do {
-        const page: Awaited<ReturnType<typeof reviewQueue>> = await reviewQueue(all, { ...noFilters, order }, cursor, 7);
+        const page: Awaited<ReturnType<typeof reviewQueue>> = await reviewQueue(
+          all,
+          { ...noFilters, order },
+          cursor,
+          7,
+        );
         seen.push(...page.items.map((i) => i.id));
         cursor = page.nextCursor;
       } while (cursor);
       expect(new Set(seen).size).toBe(35);
       expect(seen).toHaveLength(35);
-      const times = (await db().select({ id: s.sightings.id, at: s.sightings.observedAt }).from(s.sightings).where(inArray(s.sightings.id, seen)));
+      const times = await db()
+        .select({ id: s.sightings.id, at: s.sightings.observedAt })
+        .from(s.sightings)
+        .where(inArray(s.sightings.id, seen));
       const at = new Map(times.map((t) => [t.id, t.at.getTime()]));
       const ordered = seen.map((id) => at.get(id)!);
       expect(ordered).toEqual([...ordered].sort((a, b) => (order === "newest" ? b - a : a - b)));
@@ -195,16 +278,22 @@ describe("the queue", () => {
 
   it("filters by state, check mark, volunteer, zone, photo and taxon group", async () => {
     const all = await scopeOf("all");
-    const ids = async (q: Record<string, string>) => (await reviewQueue(all, queueFilters.parse(q), null, 200)).items.map((i) => i.id).sort();
+    const ids = async (q: Record<string, string>) =>
+      (await reviewQueue(all, queueFilters.parse(q), null, 200)).items.map((i) => i.id).sort();
     expect(await ids({ state: "returned" })).toEqual([birds[2]!]);
-    expect(await ids({ volunteer: people.volunteer2!, state: "pending" })).toEqual(plants.filter((p) => p !== plants[1]).sort());
+    expect(await ids({ volunteer: people.volunteer2!, state: "pending" })).toEqual(
+      plants.filter((p) => p !== plants[1]).sort(),
+    );
     expect(await ids({ group: "vascular_plants" })).toEqual([...plants, birds[3]!].sort());
     expect(await ids({ zone: "none" })).toEqual([]);
     expect(await ids({ photo: "yes" })).toEqual([]);
     expect((await ids({ photo: "no" })).length).toBe(35);
     // Points from x = 0.1 to 0.39; the event area is the unit square, so none is outside it.
     expect(await ids({ marks: "outside_area" })).toEqual([]);
-    const [far] = await db().insert(s.sightings).values(sightingValues(f, { location: pointSql(2, 2), zoneId: null, observedAt: new Date("2026-06-21T23:59:00Z") })).returning();
+    const [far] = await db()
+      .insert(s.sightings)
+      .values(sightingValues(f, { location: lonLat(2, 2), zoneId: null, observedAt: new Date("2026-06-21T23:59:00Z") }))
+      .returning();
     await refreshCheckMarks(db(), [far!.id]);
     expect(await ids({ marks: "outside_area" })).toEqual([far!.id]);
     expect(await ids({ marks: "outside_area,poor_accuracy" })).toEqual([]);
@@ -231,7 +320,10 @@ describe("the volunteer's digest", () => {
     expect(notices.every((n) => n.digestId === mail.id)).toBe(true);
     // Nothing left to gather: a second round makes no second mail.
     expect(await composeDigests(0, renderDigest)).toBe(0);
-    const fr = await db().select().from(s.emailOutbox).where(eq(s.emailOutbox.toAddress, "volunteer2@desk.example.org"));
+    const fr = await db()
+      .select()
+      .from(s.emailOutbox)
+      .where(eq(s.emailOutbox.toAddress, "volunteer2@desk.example.org"));
     expect(fr[0]!.subject).toMatch(/décision/);
   });
 });

@@ -1,7 +1,7 @@
 import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import * as s from "@/db/schema";
-import { db, makeFixture, pointSql, polygonSql, refusal, sightingValues } from "./helpers";
+import { db, makeFixture, lonLat, polygonSql, refusal, sightingValues } from "./helpers";
 
 // Each test tries a bad row and expects PostgreSQL itself to refuse it (SQLSTATE codes:
 // 23514 check_violation, 23503 foreign_key_violation, 23505 unique_violation,
@@ -15,87 +15,184 @@ describe("sightings", () => {
   it("accepts a valid sighting", async () => {
     const row = sightingValues(f);
     await db().insert(s.sightings).values(row);
-    const [back] = await db().select({ x: sql<number>`ST_X(${s.sightings.location})`, state: s.sightings.reviewState })
-      .from(s.sightings).where(eq(s.sightings.id, row.id));
+    const [back] = await db()
+      .select({ x: sql<number>`ST_X(${s.sightings.location})`, state: s.sightings.reviewState })
+      .from(s.sightings)
+      .where(eq(s.sightings.id, row.id));
     expect(back).toEqual({ x: 0.2, state: "pending" });
   });
 
+  it("writes a point as longitude and latitude in WGS 84 and reads it back the same", async () => {
+    const row = sightingValues(f, { location: lonLat(-2.487, 51.403) });
+    const [inserted] = await db().insert(s.sightings).values(row).returning({ location: s.sightings.location });
+    expect(inserted!.location).toEqual({ longitude: -2.487, latitude: 51.403 });
+    const [back] = await db()
+      .select({
+        location: s.sightings.location,
+        srid: sql<number>`ST_SRID(${s.sightings.location})`,
+        x: sql<number>`ST_X(${s.sightings.location})`,
+      })
+      .from(s.sightings)
+      .where(eq(s.sightings.id, row.id));
+    expect(back).toEqual({ location: { longitude: -2.487, latitude: 51.403 }, srid: 4326, x: -2.487 });
+  });
+
   it("refuses a count of 0", async () => {
-    const r = await refusal(() => db().insert(s.sightings).values(sightingValues(f, { count: 0 })));
+    const r = await refusal(() =>
+      db()
+        .insert(s.sightings)
+        .values(sightingValues(f, { count: 0 })),
+    );
     expect(r).toMatchObject({ code: "23514", constraint: "sightings_count_positive" });
   });
 
   it("refuses a negative location accuracy", async () => {
-    const r = await refusal(() => db().insert(s.sightings).values(sightingValues(f, { accuracyM: -1 })));
+    const r = await refusal(() =>
+      db()
+        .insert(s.sightings)
+        .values(sightingValues(f, { accuracyM: -1 })),
+    );
     expect(r).toMatchObject({ code: "23514", constraint: "sightings_accuracy_nonneg" });
   });
 
   it("refuses a sighting for an unknown event", async () => {
-    const r = await refusal(() => db().insert(s.sightings).values(sightingValues(f, { eventId: crypto.randomUUID() })));
+    const r = await refusal(() =>
+      db()
+        .insert(s.sightings)
+        .values(sightingValues(f, { eventId: crypto.randomUUID() })),
+    );
     expect(r).toMatchObject({ code: "23503", constraint: "sightings_event_id_events_id_fk" });
   });
 
   it("refuses a second sighting with the same device-made id", async () => {
     const row = sightingValues(f);
     await db().insert(s.sightings).values(row);
-    const r = await refusal(() => db().insert(s.sightings).values({ ...row, count: 2 }));
+    const r = await refusal(() =>
+      db()
+        .insert(s.sightings)
+        .values({ ...row, count: 2 }),
+    );
     expect(r).toMatchObject({ code: "23505", constraint: "sightings_pkey" });
     const [kept] = await db().select({ count: s.sightings.count }).from(s.sightings).where(eq(s.sightings.id, row.id));
     expect(kept?.count).toBe(1);
   });
 
   it("refuses points outside the WGS84 range", async () => {
-    for (const [lon, lat] of [[181, 10], [-180.5, 10], [10, 91], [10, -90.01]] as const) {
-      const r = await refusal(() => db().insert(s.sightings).values(sightingValues(f, { location: pointSql(lon, lat) })));
+    for (const [lon, lat] of [
+      [181, 10],
+      [-180.5, 10],
+      [10, 91],
+      [10, -90.01],
+    ] as const) {
+      const r = await refusal(() =>
+        db()
+          .insert(s.sightings)
+          .values(sightingValues(f, { location: lonLat(lon, lat) })),
+      );
       expect(r, `(${lon}, ${lat})`).toMatchObject({ code: "23514", constraint: "sightings_location_wgs84" });
     }
   });
 
   it("refuses an unidentified sighting with no description", async () => {
-    const r = await refusal(() => db().insert(s.sightings).values(sightingValues(f, { taxonId: null, description: "  " })));
+    const r = await refusal(() =>
+      db()
+        .insert(s.sightings)
+        .values(sightingValues(f, { taxonId: null, description: "  " })),
+    );
     expect(r).toMatchObject({ code: "23514", constraint: "sightings_identified_or_described" });
   });
 
   it("refuses a review state that does not exist", async () => {
-    const r = await refusal(() => db().execute(sql`INSERT INTO sightings (id, event_id, user_id, taxon_id, count, observed_at, location, accuracy_m, review_state)
-      VALUES (${crypto.randomUUID()}, ${f.event.id}, ${f.user.id}, ${f.taxon.id}, 1, now(), ST_SetSRID(ST_MakePoint(0.1, 0.1), 4326), 5, 'maybe')`));
+    const r = await refusal(() =>
+      db()
+        .execute(sql`INSERT INTO sightings (id, event_id, user_id, taxon_id, count, observed_at, location, accuracy_m, review_state)
+      VALUES (${crypto.randomUUID()}, ${f.event.id}, ${f.user.id}, ${f.taxon.id}, 1, now(), ST_SetSRID(ST_MakePoint(0.1, 0.1), 4326), 5, 'maybe')`),
+    );
     expect(r.code).toBe("22P02");
   });
 });
 
 describe("events and count sessions", () => {
   it("refuses an event that ends before it starts", async () => {
-    const r = await refusal(() => db().insert(s.events).values({
-      organisationId: f.org.id, slug: "backwards", name: "Backwards", startsAt: new Date("2026-06-22T00:00:00Z"),
-      endsAt: new Date("2026-06-20T00:00:00Z"), timeZone: "Europe/London",
-    }));
+    const r = await refusal(() =>
+      db()
+        .insert(s.events)
+        .values({
+          organisationId: f.org.id,
+          slug: "backwards",
+          name: "Backwards",
+          startsAt: new Date("2026-06-22T00:00:00Z"),
+          endsAt: new Date("2026-06-20T00:00:00Z"),
+          timeZone: "Europe/London",
+        }),
+    );
     expect(r).toMatchObject({ code: "23514", constraint: "events_ends_after_starts" });
   });
 
   it("refuses a count session that ends before it starts", async () => {
-    const r = await refusal(() => db().insert(s.countSessions).values({
-      id: crypto.randomUUID(), eventId: f.event.id, userId: f.user.id, kind: "walk",
-      startedAt: new Date("2026-06-20T10:00:00Z"), endedAt: new Date("2026-06-20T09:00:00Z"),
-    }));
+    const r = await refusal(() =>
+      db()
+        .insert(s.countSessions)
+        .values({
+          id: crypto.randomUUID(),
+          eventId: f.event.id,
+          userId: f.user.id,
+          kind: "walk",
+          startedAt: new Date("2026-06-20T10:00:00Z"),
+          endedAt: new Date("2026-06-20T09:00:00Z"),
+        }),
+    );
     expect(r).toMatchObject({ code: "23514", constraint: "count_sessions_ends_after_starts" });
   });
 
   it("refuses an 'all species noted' session that has not ended", async () => {
-    const r = await refusal(() => db().insert(s.countSessions).values({
-      id: crypto.randomUUID(), eventId: f.event.id, userId: f.user.id, kind: "timed_count",
-      startedAt: new Date("2026-06-20T10:00:00Z"), allSpeciesNoted: true,
-    }));
+    const r = await refusal(() =>
+      db()
+        .insert(s.countSessions)
+        .values({
+          id: crypto.randomUUID(),
+          eventId: f.event.id,
+          userId: f.user.id,
+          kind: "timed_count",
+          startedAt: new Date("2026-06-20T10:00:00Z"),
+          allSpeciesNoted: true,
+        }),
+    );
     expect(r).toMatchObject({ code: "23514", constraint: "count_sessions_complete_needs_end" });
   });
 
   it("refuses a self-intersecting zone polygon", async () => {
-    const bowtie: [number, number][] = [[0, 0], [0.4, 0.4], [0.4, 0], [0, 0.4], [0, 0]];
-    const r = await refusal(() => db().insert(s.zones).values({ eventId: f.event.id, name: "Bowtie", habitat: "edge", geom: polygonSql(bowtie) }));
+    const bowtie: [number, number][] = [
+      [0, 0],
+      [0.4, 0.4],
+      [0.4, 0],
+      [0, 0.4],
+      [0, 0],
+    ];
+    const r = await refusal(() =>
+      db()
+        .insert(s.zones)
+        .values({ eventId: f.event.id, name: "Bowtie", habitat: "edge", geom: polygonSql(bowtie) }),
+    );
     expect(r).toMatchObject({ code: "23514", constraint: "zones_geom_valid" });
   });
 
   it("refuses two zones with the same name in one event", async () => {
-    const r = await refusal(() => db().insert(s.zones).values({ eventId: f.event.id, name: "Zone A", habitat: "interior", geom: polygonSql([[0.6, 0.6], [0.9, 0.6], [0.9, 0.9], [0.6, 0.6]]) }));
+    const r = await refusal(() =>
+      db()
+        .insert(s.zones)
+        .values({
+          eventId: f.event.id,
+          name: "Zone A",
+          habitat: "interior",
+          geom: polygonSql([
+            [0.6, 0.6],
+            [0.9, 0.6],
+            [0.9, 0.9],
+            [0.6, 0.6],
+          ]),
+        }),
+    );
     expect(r).toMatchObject({ code: "23505", constraint: "zones_event_name_key" });
   });
 
@@ -109,8 +206,13 @@ describe("append-only history", () => {
   it("keeps every review decision: UPDATE and DELETE are refused", async () => {
     const row = sightingValues(f);
     await db().insert(s.sightings).values(row);
-    const [review] = await db().insert(s.reviews).values({ sightingId: row.id, reviewerId: f.user.id, fromState: "pending", toState: "approved" }).returning();
-    const upd = await refusal(() => db().update(s.reviews).set({ toState: "rejected" }).where(eq(s.reviews.id, review!.id)));
+    const [review] = await db()
+      .insert(s.reviews)
+      .values({ sightingId: row.id, reviewerId: f.user.id, fromState: "pending", toState: "approved" })
+      .returning();
+    const upd = await refusal(() =>
+      db().update(s.reviews).set({ toState: "rejected" }).where(eq(s.reviews.id, review!.id)),
+    );
     expect(upd.code).toBe("23000");
     expect(upd.message).toMatch(/append-only/);
     const del = await refusal(() => db().delete(s.reviews).where(eq(s.reviews.id, review!.id)));
@@ -120,16 +222,40 @@ describe("append-only history", () => {
   });
 
   it("never changes a published report", async () => {
-    const [report] = await db().insert(s.reports).values({
-      eventId: f.event.id, version: 1, publishedBy: f.user.id, engineVersion: "test", inputHash: "a".repeat(64),
-      inputRecords: [], results: { observed: 3 }, methodNotes: {},
-    }).returning();
-    const upd = await refusal(() => db().update(s.reports).set({ results: { observed: 4 } }).where(eq(s.reports.id, report!.id)));
+    const [report] = await db()
+      .insert(s.reports)
+      .values({
+        eventId: f.event.id,
+        version: 1,
+        publishedBy: f.user.id,
+        engineVersion: "test",
+        inputHash: "a".repeat(64),
+        inputRecords: [],
+        results: { observed: 3 },
+        methodNotes: {},
+      })
+      .returning();
+    const upd = await refusal(() =>
+      db()
+        .update(s.reports)
+        .set({ results: { observed: 4 } })
+        .where(eq(s.reports.id, report!.id)),
+    );
     expect(upd.code).toBe("23000");
-    const dup = await refusal(() => db().insert(s.reports).values({
-      eventId: f.event.id, version: 1, publishedBy: f.user.id, engineVersion: "test", inputHash: "b".repeat(64),
-      inputRecords: [], results: {}, methodNotes: {},
-    }));
+    const dup = await refusal(() =>
+      db()
+        .insert(s.reports)
+        .values({
+          eventId: f.event.id,
+          version: 1,
+          publishedBy: f.user.id,
+          engineVersion: "test",
+          inputHash: "b".repeat(64),
+          inputRecords: [],
+          results: {},
+          methodNotes: {},
+        }),
+    );
     expect(dup).toMatchObject({ code: "23505", constraint: "reports_event_version_key" });
   });
 });

@@ -40,7 +40,10 @@ describe("species-list import", () => {
 
   it("refuses a whole file when one line contradicts a shared taxon, even with the other lines valid", async () => {
     const f = await makeFixture("species-conflict");
-    await db().insert(s.taxa).values({ scientificName: "Erica conflicta", taxonGroup: "vascular_plants" }).onConflictDoNothing();
+    await db()
+      .insert(s.taxa)
+      .values({ scientificName: "Erica conflicta", taxonGroup: "vascular_plants" })
+      .onConflictDoNothing();
     const before = await counts(f.event.id);
     const csv = "scientific_name,rank,taxon_group\nNewus fungus,species,fungi\nErica conflicta,species,insects\n";
     const result = await importFile(f.event.id, csv, true);
@@ -54,34 +57,58 @@ describe("species-list import", () => {
     const first = await importFile(f.event.id, fixture("species.csv"), true);
     expect(first).toMatchObject({ saved: true, problems: [], summary: { newTaxa: 3, addedToList: 6 } });
     // Amanita muscaria keeps the demo's Spanish name; the file's is not applied.
-    expect("notices" in first && first.notices.filter((n) => n.code === "nameKept").map((n) => [n.line, n.values?.stored])).toEqual([
-      [2, "Falsa oronja"], [3, "Boleto comestible"], [4, "Golden chanterelle"],
+    expect(
+      "notices" in first && first.notices.filter((n) => n.code === "nameKept").map((n) => [n.line, n.values?.stored]),
+    ).toEqual([
+      [2, "Falsa oronja"],
+      [3, "Boleto comestible"],
+      [4, "Golden chanterelle"],
     ]);
     const once = await counts(f.event.id);
     expect(once.listed).toBe(6);
     const second = await importFile(f.event.id, fixture("species.csv"), true);
-    expect(second).toMatchObject({ saved: true, summary: { alreadyListed: 6, addedToList: 0, newTaxa: 0, namesAdded: 0 } });
+    expect(second).toMatchObject({
+      saved: true,
+      summary: { alreadyListed: 6, addedToList: 0, newTaxa: 0, namesAdded: 0 },
+    });
     expect(await counts(f.event.id)).toEqual(once);
     const list = await listEventSpecies(f.event.id);
-    expect(list.find((t) => t.scientificName === "Hericium erinaceus")).toMatchObject({ sensitivity: "restricted", names: { en: "Bearded tooth", es: "Melena de león" } });
+    expect(list.find((t) => t.scientificName === "Hericium erinaceus")).toMatchObject({
+      sensitivity: "restricted",
+      names: { en: "Bearded tooth", es: "Melena de león" },
+    });
   });
 
   it("never renames a shared taxon or lowers its sensitivity; adds only missing names and raises sensitivity", async () => {
     const other = await makeFixture("species-other-event");
-    await importFile(other.event.id, "scientific_name,rank,taxon_group,sensitivity,common_name_en\nLactarius shareus,species,fungi,generalised,Shared milkcap\nBoletus shareus,species,fungi,,Shared bolete\n", true);
+    await importFile(
+      other.event.id,
+      "scientific_name,rank,taxon_group,sensitivity,common_name_en\nLactarius shareus,species,fungi,generalised,Shared milkcap\nBoletus shareus,species,fungi,,Shared bolete\n",
+      true,
+    );
     const mine = await makeFixture("species-mine");
-    const csv = "scientific_name,rank,taxon_group,sensitivity,common_name_en,common_name_fr\nlactarius shareus,species,fungi,open,My milkcap,Lactaire partagé\nBoletus shareus,species,fungi,restricted,,\n";
+    const csv =
+      "scientific_name,rank,taxon_group,sensitivity,common_name_en,common_name_fr\nlactarius shareus,species,fungi,open,My milkcap,Lactaire partagé\nBoletus shareus,species,fungi,restricted,,\n";
     const checked = await importFile(mine.event.id, csv, false);
     expect(checked.saved).toBe(false);
     expect("notices" in checked && checked.notices.map((n) => [n.line, n.code])).toEqual([
-      [2, "nameKept"], [2, "nameAdded"], [2, "sensitivityKept"], [3, "sensitivityRaised"],
+      [2, "nameKept"],
+      [2, "nameAdded"],
+      [2, "sensitivityKept"],
+      [3, "sensitivityRaised"],
     ]);
-    expect((await listEventSpecies(mine.event.id))).toEqual([]);
+    expect(await listEventSpecies(mine.event.id)).toEqual([]);
     await importFile(mine.event.id, csv, true);
     // The other event still shows its own English name; the French one was missing and is added.
     const theirs = await listEventSpecies(other.event.id);
-    expect(theirs.find((t) => t.scientificName === "Lactarius shareus")).toMatchObject({ sensitivity: "generalised", names: { en: "Shared milkcap", fr: "Lactaire partagé" } });
+    expect(theirs.find((t) => t.scientificName === "Lactarius shareus")).toMatchObject({
+      sensitivity: "generalised",
+      names: { en: "Shared milkcap", fr: "Lactaire partagé" },
+    });
     expect(theirs.find((t) => t.scientificName === "Boletus shareus")).toMatchObject({ sensitivity: "restricted" });
-    expect((await listEventSpecies(mine.event.id)).map((t) => t.scientificName)).toEqual(["Boletus shareus", "Lactarius shareus"]);
+    expect((await listEventSpecies(mine.event.id)).map((t) => t.scientificName)).toEqual([
+      "Boletus shareus",
+      "Lactarius shareus",
+    ]);
   });
 });

@@ -1,5 +1,5 @@
 import { readFileSync } from "node:fs";
-import { eq, sql } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { areaAndZones, uploadAreaAndZones } from "@/db/queries/setup-zones";
 import * as s from "@/db/schema";
@@ -34,7 +34,9 @@ describe("area and zones upload (PostGIS checks)", () => {
     const stored = await areaAndZones(f.event.id);
     expect(stored.area?.type).toBe("Polygon");
     expect(stored.zones.map((z) => [z.name, z.habitat, z.geometry.type])).toEqual([
-      ["Dew Pond", "wetland", "Polygon"], ["Gorse Bank", "edge", "Polygon"], ["Oak Copse", "woodland", "MultiPolygon"],
+      ["Dew Pond", "wetland", "Polygon"],
+      ["Gorse Bank", "edge", "Polygon"],
+      ["Oak Copse", "woodland", "MultiPolygon"],
     ]);
     // Oak Copse is two squares of 0.005° × 0.004° and 0.005° × 0.003° at 51.4° N: about 24 ha together.
     expect(stored.zones.find((z) => z.name === "Oak Copse")!.areaHa).toBeGreaterThan(20);
@@ -51,7 +53,15 @@ describe("area and zones upload (PostGIS checks)", () => {
 
     // With the bow tie fixed, the zone that runs past the area's edge is named.
     const json = file("zones-bad.geojson");
-    json.features[3].geometry.coordinates = [[[-2.499, 51.405], [-2.492, 51.405], [-2.492, 51.409], [-2.499, 51.409], [-2.499, 51.405]]];
+    json.features[3].geometry.coordinates = [
+      [
+        [-2.499, 51.405],
+        [-2.492, 51.405],
+        [-2.492, 51.409],
+        [-2.499, 51.409],
+        [-2.499, 51.405],
+      ],
+    ];
     const again = await upload(f.event.id, json, true);
     expect(again.saved).toBe(false);
     expect(again.problems.map((p) => [p.feature, p.name, p.code])).toEqual([[2, "Oak Copse", "outsideArea"]]);
@@ -64,9 +74,19 @@ describe("area and zones upload (PostGIS checks)", () => {
   it("refuses zones that overlap one another", async () => {
     const f = await emptyEvent("zones-overlap");
     const json = file("zones.geojson");
-    json.features[3].geometry.coordinates = [[[-2.495, 51.402], [-2.492, 51.402], [-2.492, 51.409], [-2.495, 51.409], [-2.495, 51.402]]];
+    json.features[3].geometry.coordinates = [
+      [
+        [-2.495, 51.402],
+        [-2.492, 51.402],
+        [-2.492, 51.409],
+        [-2.495, 51.409],
+        [-2.495, 51.402],
+      ],
+    ];
     const result = await upload(f.event.id, json, true);
-    expect(result.problems.map((p) => [p.feature, p.code, p.values?.other])).toEqual([[3, "overlapsZone", "Gorse Bank"]]);
+    expect(result.problems.map((p) => [p.feature, p.code, p.values?.other])).toEqual([
+      [3, "overlapsZone", "Gorse Bank"],
+    ]);
     expect((await areaAndZones(f.event.id)).zones).toEqual([]);
   });
 
@@ -80,15 +100,22 @@ describe("area and zones upload (PostGIS checks)", () => {
     const merged = await upload(f.event.id, json, true);
     expect(merged).toMatchObject({ saved: true, summary: { zones: 2, added: 0, updated: 2, removed: 1 } });
     const after = (await areaAndZones(f.event.id)).zones;
-    expect(after.map((z) => [z.name, z.habitat])).toEqual([["Gorse Bank", "grassland"], ["Oak Copse", "woodland"]]);
+    expect(after.map((z) => [z.name, z.habitat])).toEqual([
+      ["Gorse Bank", "grassland"],
+      ["Oak Copse", "woodland"],
+    ]);
     expect(after.some((z) => z.id === pond.id)).toBe(false);
 
     // A zone with a sighting in it cannot vanish.
     const copse = after.find((z) => z.name === "Oak Copse")!;
-    await db().insert(s.sightings).values(sightingValues(f, { zoneId: copse.id, location: sql`ST_SetSRID(ST_MakePoint(-2.487, 51.403), 4326)` as never }));
+    await db()
+      .insert(s.sightings)
+      .values(sightingValues(f, { zoneId: copse.id, location: { longitude: -2.487, latitude: 51.403 } }));
     json.features.splice(2, 1); // Oak Copse left out
     const refused = await upload(f.event.id, json, true);
-    expect(refused.problems.map((p) => [p.name, p.code, p.values?.records])).toEqual([["Oak Copse", "zoneHasRecords", 1]]);
+    expect(refused.problems.map((p) => [p.name, p.code, p.values?.records])).toEqual([
+      ["Oak Copse", "zoneHasRecords", 1],
+    ]);
     expect((await areaAndZones(f.event.id)).zones.map((z) => z.name)).toEqual(["Gorse Bank", "Oak Copse"]);
   });
 });

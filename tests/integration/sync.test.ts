@@ -1,104 +1,226 @@
 import { and, eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
+import { findUserById } from "@/db/queries/auth";
 import { ingestBatch } from "@/db/queries/sync";
 import * as s from "@/db/schema";
+import { ApiError } from "@/lib/http/errors";
+import { catalogues } from "@/lib/i18n/translator";
+import { REFUSAL_CODES } from "@/lib/sync/acks";
+import { sessionRecord, sightingRecord, type SessionRecord, type SightingRecord } from "@/lib/sync/records";
+import { eventPermitFor } from "@/server/auth/guard";
+import { answerBatch } from "@/server/sync/answer";
 import { db, makeFixture, polygonSql } from "./helpers";
 
-// The server half of the field log's sync, against the real database: what a phone sends
-// and what it is told back, and what ends up stored.
+// The server half of the field log's sync, against the real database, in its two layers:
+// the data layer (db/queries/sync.ts) takes parsed records and answers with outcome codes;
+// the handler's part (the guard, then server/sync/answer.ts) parses each record and answers
+// the phone with acknowledgements whose reasons are in the person's language.
 type Fixture = Awaited<ReturnType<typeof makeFixture>>;
 let f: Fixture;
 let other: typeof s.users.$inferSelect;
 let wetZone: typeof s.zones.$inferSelect;
+const NOW = new Date("2026-06-21T00:00:00Z");
 
-const session = (over: Record<string, unknown> = {}) => ({
-  id: crypto.randomUUID(), zoneId: f.zone.id, kind: "timed_count", startedAt: "2026-06-20T08:00:00Z",
-  endedAt: "2026-06-20T08:30:00Z", allSpeciesNoted: true, distanceM: null, notes: "", ...over,
-});
-const sighting = (over: Record<string, unknown> = {}) => ({
-  id: crypto.randomUUID(), sessionId: null, taxonId: f.taxon.id, description: "", count: 2, countIsEstimate: false,
-  observedAt: "2026-06-20T08:10:00Z", latitude: 0.2, longitude: 0.2, accuracyM: 8.3, zoneId: null, notes: "", photoIds: [], ...over,
-});
-const ingest = (sessions: unknown[], sightings: unknown[], who = f.user.id, locale: "en" | "es" | "fr" = "en", eventId = f.event.id) =>
-  ingestBatch({ userId: who, isAdmin: false, eventId, locale, sessions, sightings, now: new Date("2026-06-21T00:00:00Z") });
+const session = (over: Record<string, unknown> = {}): SessionRecord =>
+  sessionRecord.parse({
+    id: crypto.randomUUID(),
+    zoneId: f.zone.id,
+    kind: "timed_count",
+    startedAt: "2026-06-20T08:00:00Z",
+    endedAt: "2026-06-20T08:30:00Z",
+    allSpeciesNoted: true,
+    distanceM: null,
+    notes: "",
+    ...over,
+  });
+const sighting = (over: Record<string, unknown> = {}): SightingRecord =>
+  sightingRecord.parse({
+    id: crypto.randomUUID(),
+    sessionId: null,
+    taxonId: f.taxon.id,
+    description: "",
+    count: 2,
+    countIsEstimate: false,
+    observedAt: "2026-06-20T08:10:00Z",
+    latitude: 0.2,
+    longitude: 0.2,
+    accuracyM: 8.3,
+    zoneId: null,
+    notes: "",
+    photoIds: [],
+    ...over,
+  });
+const indexed = <R>(records: R[]) => records.map((record, index) => ({ index, record }));
+/** The data layer alone: typed records in, outcome codes out. */
+const ingest = (sessions: SessionRecord[], sightings: SightingRecord[], who = f.user.id) =>
+  ingestBatch({
+    userId: who,
+    eventId: f.event.id,
+    sessions: indexed(sessions),
+    sightings: indexed(sightings),
+    now: NOW,
+  });
+/** As the sync handler answers after its guard: raw records in, translated acknowledgements out. */
+async function answer(sessions: unknown[], sightings: unknown[], who = f.user.id, locale: "en" | "es" | "fr" = "en") {
+  const user = (await findUserById(who))!;
+  await eventPermitFor(user, f.event.id, "volunteer");
+  return answerBatch({ userId: who, eventId: f.event.id, locale, now: NOW }, { sessions, sightings });
+}
 const countOf = async (table: typeof s.sightings | typeof s.countSessions, userId: string) =>
-  (await db().select({ n: sql<number>`count(*)::int` }).from(table).where(eq(table.userId, userId)))[0]!.n;
+  (
+    await db()
+      .select({ n: sql<number>`count(*)::int` })
+      .from(table)
+      .where(eq(table.userId, userId))
+  )[0]!.n;
 
 beforeAll(async () => {
   f = await makeFixture("sync");
-  [other] = await db().insert(s.users).values({ email: "sync-other@example.org" }).returning() as [typeof s.users.$inferSelect];
-  await db().insert(s.eventMembers).values([{ eventId: f.event.id, userId: f.user.id, role: "volunteer" }, { eventId: f.event.id, userId: other.id, role: "volunteer" }]);
-  [wetZone] = await db().insert(s.zones).values({
-    eventId: f.event.id, name: "Wet corner", habitat: "wetland", geom: polygonSql([[0.6, 0.6], [0.9, 0.6], [0.9, 0.9], [0.6, 0.9], [0.6, 0.6]]),
-  }).returning() as [typeof s.zones.$inferSelect];
+  [other] = (await db().insert(s.users).values({ email: "sync-other@example.org" }).returning()) as [
+    typeof s.users.$inferSelect,
+  ];
+  await db()
+    .insert(s.eventMembers)
+    .values([
+      { eventId: f.event.id, userId: f.user.id, role: "volunteer" },
+      { eventId: f.event.id, userId: other.id, role: "volunteer" },
+    ]);
+  [wetZone] = (await db()
+    .insert(s.zones)
+    .values({
+      eventId: f.event.id,
+      name: "Wet corner",
+      habitat: "wetland",
+      geom: polygonSql([
+        [0.6, 0.6],
+        [0.9, 0.6],
+        [0.9, 0.9],
+        [0.6, 0.9],
+        [0.6, 0.6],
+      ]),
+    })
+    .returning()) as [typeof s.zones.$inferSelect];
 });
 
-describe("a sync batch", () => {
-  it("stores the good records and refuses the bad one alone, with its reason and field", async () => {
+describe("the sync data layer", () => {
+  it("stores the good records and refuses the bad one alone, with its code and field", async () => {
     const sess = session();
     const good1 = sighting({ sessionId: sess.id, zoneId: wetZone.id }); // device guessed the wrong zone
     const good2 = sighting({ latitude: 0.7, longitude: 0.7, taxonId: null, description: "small brown moth" });
     const badTaxon = sighting({ taxonId: crypto.randomUUID() });
-    const badCount = sighting({ count: 0 });
-    const acks = await ingest([sess], [good1, badTaxon, good2, badCount]);
+    const outcomes = await ingest([sess], [good1, badTaxon, good2]);
 
-    expect(acks.map((a) => [a.kind, a.index, a.outcome])).toEqual([
-      ["session", 0, "created"], ["sighting", 0, "created"], ["sighting", 1, "refused"], ["sighting", 2, "created"], ["sighting", 3, "refused"],
+    expect(outcomes).toEqual([
+      { kind: "session", id: sess.id, index: 0, outcome: "created" },
+      { kind: "sighting", id: good1.id, index: 0, outcome: "created", reviewState: "pending" },
+      { kind: "sighting", id: badTaxon.id, index: 1, outcome: "refused", code: "unknown_taxon", field: "taxonId" },
+      { kind: "sighting", id: good2.id, index: 2, outcome: "created", reviewState: "pending" },
     ]);
-    expect(acks[2]).toMatchObject({ id: badTaxon.id, field: "taxonId", reason: expect.stringMatching(/species is not known/) });
-    expect(acks[4]).toMatchObject({ id: badCount.id, field: "count", reason: "Must be at least 1." });
 
-    const stored = await db().select({ id: s.sightings.id, zoneId: s.sightings.zoneId, sessionId: s.sightings.sessionId, state: s.sightings.reviewState })
-      .from(s.sightings).where(eq(s.sightings.userId, f.user.id));
+    const stored = await db()
+      .select({
+        id: s.sightings.id,
+        zoneId: s.sightings.zoneId,
+        sessionId: s.sightings.sessionId,
+        state: s.sightings.reviewState,
+      })
+      .from(s.sightings)
+      .where(eq(s.sightings.userId, f.user.id));
     expect(stored).toHaveLength(2);
     // The server decides the zone with PostGIS, whatever the device guessed.
-    expect(stored.find((r) => r.id === good1.id)).toMatchObject({ zoneId: f.zone.id, sessionId: sess.id, state: "pending" });
+    expect(stored.find((r) => r.id === good1.id)).toMatchObject({
+      zoneId: f.zone.id,
+      sessionId: sess.id,
+      state: "pending",
+    });
     expect(stored.find((r) => r.id === good2.id)).toMatchObject({ zoneId: wetZone.id });
     // The reviewers' check marks are computed in the same transaction (the fixture's taxon is not on the species list).
-    const [marked] = await db().select({ marks: s.sightings.checkMarks }).from(s.sightings).where(eq(s.sightings.id, good1.id));
+    const [marked] = await db()
+      .select({ marks: s.sightings.checkMarks })
+      .from(s.sightings)
+      .where(eq(s.sightings.id, good1.id));
     expect(marked!.marks).toEqual(["not_on_list", "photo_missing"]);
     expect(await countOf(s.countSessions, f.user.id)).toBe(1);
 
     // The same batch resent (a lost answer): nothing more is stored, each record is "already had".
-    const again = await ingest([sess], [good1, badTaxon, good2, badCount]);
-    expect(again.map((a) => a.outcome)).toEqual(["already_had", "already_had", "refused", "already_had", "refused"]);
+    const again = await ingest([sess], [good1, badTaxon, good2]);
+    expect(again.map((o) => o.outcome)).toEqual(["already_had", "already_had", "refused", "already_had"]);
     expect(await countOf(s.sightings, f.user.id)).toBe(2);
     expect(await countOf(s.countSessions, f.user.id)).toBe(1);
   });
 
-  it("answers in the person's language", async () => {
-    const [ack] = await ingest([], [sighting({ taxonId: null, description: "  " })], f.user.id, "es");
-    expect(ack).toMatchObject({ outcome: "refused", field: "description", reason: "Un avistamiento sin identificar necesita una descripción." });
+  it("judges each record by the event's rules, answering a code and the field at fault", async () => {
+    const outcomes = await ingest(
+      [
+        session({ zoneId: crypto.randomUUID() }),
+        session({ endedAt: "2026-06-20T07:00:00Z" }),
+        session({ endedAt: null, allSpeciesNoted: true }),
+      ],
+      [
+        sighting({ taxonId: null, description: "  " }),
+        sighting({ observedAt: "2026-06-22T00:00:00Z" }),
+        sighting({ sessionId: crypto.randomUUID() }),
+      ],
+    );
+    expect(outcomes.map((o) => [o.kind, o.index, o.outcome === "refused" ? [o.code, o.field] : o.outcome])).toEqual([
+      ["session", 0, ["unknown_zone", "zoneId"]],
+      ["session", 1, ["ends_before_start", "endedAt"]],
+      ["session", 2, ["complete_needs_end", "allSpeciesNoted"]],
+      ["sighting", 0, ["description_required", "description"]],
+      ["sighting", 1, ["future_time", "observedAt"]],
+      ["sighting", 2, ["unknown_session", "sessionId"]],
+    ]);
+  });
+
+  it("takes ids in any case and answers in lower case", async () => {
+    const sess = session();
+    const shouting = { ...sess, id: sess.id.toUpperCase(), zoneId: f.zone.id.toUpperCase() };
+    const rec = sighting({ sessionId: sess.id.toUpperCase(), taxonId: f.taxon.id.toUpperCase() });
+    const outcomes = await ingest([shouting], [{ ...rec, id: rec.id.toUpperCase() }]);
+    expect(outcomes.map((o) => [o.id, o.outcome])).toEqual([
+      [sess.id, "created"],
+      [rec.id, "created"],
+    ]);
   });
 
   it("lets the owner end a session sent when it started, and refuses a session of a kind the event does not use", async () => {
     const started = session({ endedAt: null, allSpeciesNoted: false });
     expect((await ingest([started], []))[0]!.outcome).toBe("created");
-    expect((await ingest([{ ...started, endedAt: "2026-06-20T09:00:00Z", allSpeciesNoted: true }], []))[0]!.outcome).toBe("updated");
+    expect(
+      (await ingest([{ ...started, endedAt: "2026-06-20T09:00:00Z", allSpeciesNoted: true }], []))[0]!.outcome,
+    ).toBe("updated");
     const [row] = await db().select().from(s.countSessions).where(eq(s.countSessions.id, started.id));
     expect(row!.allSpeciesNoted).toBe(true);
-    await db().update(s.events).set({ sessionKinds: ["walk"] }).where(eq(s.events.id, f.event.id));
+    await db()
+      .update(s.events)
+      .set({ sessionKinds: ["walk"] })
+      .where(eq(s.events.id, f.event.id));
     try {
-      expect((await ingest([session()], []))[0]).toMatchObject({ outcome: "refused", field: "kind" });
+      expect((await ingest([session()], []))[0]).toMatchObject({
+        outcome: "refused",
+        code: "kind_not_allowed",
+        field: "kind",
+      });
     } finally {
-      await db().update(s.events).set({ sessionKinds: ["timed_count", "walk", "plot_search"] }).where(eq(s.events.id, f.event.id));
+      await db()
+        .update(s.events)
+        .set({ sessionKinds: ["timed_count", "walk", "plot_search"] })
+        .where(eq(s.events.id, f.event.id));
     }
   });
 
-  it("refuses every record for an event that is not open, and from a person who is not a member", async () => {
+  it("refuses every record for an event that is not open", async () => {
     const before = await countOf(s.sightings, f.user.id);
     await db().update(s.events).set({ status: "closed" }).where(eq(s.events.id, f.event.id));
     try {
-      const acks = await ingest([session()], [sighting()]);
-      expect(acks.map((a) => [a.outcome, a.field])).toEqual([["refused", "eventId"], ["refused", "eventId"]]);
-      expect(acks[1]!.reason).toMatch(/not open/);
+      const outcomes = await ingest([session()], [sighting()]);
+      expect(outcomes.map((o) => o.outcome === "refused" && [o.code, o.field])).toEqual([
+        ["event_not_open", "eventId"],
+        ["event_not_open", "eventId"],
+      ]);
     } finally {
       await db().update(s.events).set({ status: "open" }).where(eq(s.events.id, f.event.id));
     }
-    const [stranger] = await db().insert(s.users).values({ email: "sync-stranger@example.org" }).returning();
-    const acks = await ingest([], [sighting()], stranger!.id);
-    expect(acks[0]).toMatchObject({ outcome: "refused", field: "eventId", reason: expect.stringMatching(/not a member/) });
-    expect(await countOf(s.sightings, stranger!.id)).toBe(0);
     expect(await countOf(s.sightings, f.user.id)).toBe(before);
   });
 
@@ -107,19 +229,29 @@ describe("a sync batch", () => {
     await ingest([], [mine]);
     const theirSession = session();
     await ingest([theirSession], [], other.id);
-    const acks = await ingest([], [{ ...mine, count: 99 }], other.id);
-    expect(acks.map((a) => [a.outcome, a.field])).toEqual([["refused", "id"]]);
-    expect((await ingest([], [sighting({ sessionId: theirSession.id })]))[0]).toMatchObject({ outcome: "refused", field: "sessionId" });
+    const outcomes = await ingest([], [{ ...mine, count: 99 }], other.id);
+    expect(outcomes).toEqual([
+      { kind: "sighting", id: mine.id, index: 0, outcome: "refused", code: "id_taken", field: "id" },
+    ]);
+    expect((await ingest([], [sighting({ sessionId: theirSession.id })]))[0]).toMatchObject({
+      outcome: "refused",
+      code: "unknown_session",
+      field: "sessionId",
+    });
     const [row] = await db().select().from(s.sightings).where(eq(s.sightings.id, mine.id));
     expect(row).toMatchObject({ userId: f.user.id, count: 3 });
     const sameContent = await ingest([], [mine], other.id);
-    expect(sameContent[0]).toMatchObject({ outcome: "refused", field: "id" });
+    expect(sameContent[0]).toMatchObject({ outcome: "refused", code: "id_taken", field: "id" });
   });
 
   it("refuses a changed resend of a sighting that nobody returned", async () => {
     const rec = sighting();
     await ingest([], [rec]);
-    expect((await ingest([], [{ ...rec, count: 5 }]))[0]).toMatchObject({ outcome: "refused", field: "id" });
+    expect((await ingest([], [{ ...rec, count: 5 }]))[0]).toMatchObject({
+      outcome: "refused",
+      code: "changed_after_send",
+      field: "id",
+    });
   });
 
   it("takes the answer to a returned sighting: back to pending, one history row, version bumped; a stale answer is refused", async () => {
@@ -127,20 +259,117 @@ describe("a sync batch", () => {
     await ingest([], [rec]);
     const [coordinator] = await db().insert(s.users).values({ email: "sync-coord@example.org" }).returning();
     await db().update(s.sightings).set({ reviewState: "returned", version: 2 }).where(eq(s.sightings.id, rec.id));
-    await db().insert(s.reviews).values({ sightingId: rec.id, reviewerId: coordinator!.id, fromState: "pending", toState: "returned", message: "How many exactly?" });
+    await db().insert(s.reviews).values({
+      sightingId: rec.id,
+      reviewerId: coordinator!.id,
+      fromState: "pending",
+      toState: "returned",
+      message: "How many exactly?",
+    });
 
     const stale = await ingest([], [{ ...rec, count: 4, answer: { toVersion: 1, message: "Four" } }]);
-    expect(stale[0]).toMatchObject({ outcome: "refused", field: "answer.toVersion", reason: expect.stringMatching(/version 2/) });
+    expect(stale[0]).toMatchObject({
+      outcome: "refused",
+      code: "stale_version",
+      field: "answer.toVersion",
+      values: { version: 2 },
+    });
 
-    const answer = { ...rec, count: 4, answer: { toVersion: 2, message: "Four, seen together" } };
-    expect((await ingest([], [answer]))[0]).toMatchObject({ outcome: "updated", reviewState: "pending" });
+    const answered = { ...rec, count: 4, answer: { toVersion: 2, message: "Four, seen together" } };
+    expect((await ingest([], [answered]))[0]).toMatchObject({ outcome: "updated", reviewState: "pending" });
     const [row] = await db().select().from(s.sightings).where(eq(s.sightings.id, rec.id));
     expect(row).toMatchObject({ count: 4, reviewState: "pending", version: 3 });
-    const history = await db().select().from(s.reviews).where(and(eq(s.reviews.sightingId, rec.id), eq(s.reviews.reviewerId, f.user.id)));
-    expect(history).toEqual([expect.objectContaining({ fromState: "returned", toState: "pending", message: "Four, seen together" })]);
+    const history = await db()
+      .select()
+      .from(s.reviews)
+      .where(and(eq(s.reviews.sightingId, rec.id), eq(s.reviews.reviewerId, f.user.id)));
+    expect(history).toEqual([
+      expect.objectContaining({ fromState: "returned", toState: "pending", message: "Four, seen together" }),
+    ]);
 
     // The answer resent after a lost acknowledgement changes nothing.
-    expect((await ingest([], [answer]))[0]).toMatchObject({ outcome: "already_had", reviewState: "pending" });
+    expect((await ingest([], [answered]))[0]).toMatchObject({ outcome: "already_had", reviewState: "pending" });
     expect(await db().select().from(s.reviews).where(eq(s.reviews.sightingId, rec.id))).toHaveLength(2);
+    // A sighting no longer returned takes no answer.
+    expect((await ingest([], [{ ...answered, count: 5, answer: { toVersion: 3, message: "Five" } }]))[0]).toMatchObject(
+      { code: "not_returned", field: "answer" },
+    );
+  });
+});
+
+describe("the sync handler's answer", () => {
+  it("parses each record alone: a record that fails its schema is refused alone, in batch order, with the schema's reason", async () => {
+    const sess = session();
+    const good = sighting({ sessionId: sess.id });
+    const badTaxon = sighting({ taxonId: crypto.randomUUID() });
+    const badCount = { ...sighting(), count: 0 };
+    const acks = await answer([sess, { id: "not-a-uuid" }], [good, badCount, badTaxon]);
+    expect(acks).toEqual([
+      { kind: "session", id: sess.id, index: 0, outcome: "created" },
+      {
+        kind: "session",
+        id: null,
+        index: 1,
+        outcome: "refused",
+        field: expect.any(String),
+        reason: expect.any(String),
+      },
+      { kind: "sighting", id: good.id, index: 0, outcome: "created", reviewState: "pending" },
+      {
+        kind: "sighting",
+        id: badCount.id,
+        index: 1,
+        outcome: "refused",
+        field: "count",
+        reason: "Must be at least 1.",
+      },
+      {
+        kind: "sighting",
+        id: badTaxon.id,
+        index: 2,
+        outcome: "refused",
+        field: "taxonId",
+        reason: "This species is not known to the server. Choose it again from the species list.",
+      },
+    ]);
+  });
+
+  it("answers in the person's language, with the values the reason names", async () => {
+    const [ack] = await answer([], [sighting({ taxonId: null, description: "  " })], f.user.id, "es");
+    expect(ack).toMatchObject({
+      outcome: "refused",
+      field: "description",
+      reason: "Un avistamiento sin identificar necesita una descripción.",
+    });
+
+    const rec = sighting();
+    await answer([], [rec]);
+    await db().update(s.sightings).set({ reviewState: "returned", version: 4 }).where(eq(s.sightings.id, rec.id));
+    const [stale] = await answer(
+      [],
+      [{ ...rec, count: 9, answer: { toVersion: 2, message: "Neuf" } }],
+      f.user.id,
+      "fr",
+    );
+    expect(stale).toMatchObject({
+      outcome: "refused",
+      field: "answer.toVersion",
+      reason: expect.stringMatching(/version 4/),
+    });
+  });
+
+  it("lets only members in: a stranger is refused before any record is read", async () => {
+    const [stranger] = await db().insert(s.users).values({ email: "sync-stranger@example.org" }).returning();
+    const refusal = await answer([], [sighting()], stranger!.id).catch((e: unknown) => e);
+    expect(refusal).toBeInstanceOf(ApiError);
+    expect((refusal as ApiError).code).toBe("forbidden");
+    expect(await countOf(s.sightings, stranger!.id)).toBe(0);
+  });
+
+  it("has a reason in every language for every refusal code", () => {
+    for (const locale of ["en", "es", "fr"] as const) {
+      const reasons = catalogues[locale].FieldSync.reason as Record<string, string>;
+      expect(Object.keys(reasons).sort()).toEqual([...REFUSAL_CODES].sort());
+    }
   });
 });

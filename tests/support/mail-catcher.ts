@@ -19,8 +19,16 @@ export class MailCatcher {
       onData: (stream, _session, callback) => {
         simpleParser(stream)
           .then((m: ParsedMail) => {
-            const to = (Array.isArray(m.to) ? m.to : m.to ? [m.to] : []).flatMap((a) => a.value.map((v) => (v.address ?? "").toLowerCase()));
-            this.mails.push({ to, subject: m.subject ?? "", text: m.text ?? "", html: typeof m.html === "string" ? m.html : "", date: new Date() });
+            const to = (Array.isArray(m.to) ? m.to : m.to ? [m.to] : []).flatMap((a) =>
+              a.value.map((v) => (v.address ?? "").toLowerCase()),
+            );
+            this.mails.push({
+              to,
+              subject: m.subject ?? "",
+              text: m.text ?? "",
+              html: typeof m.html === "string" ? m.html : "",
+              date: new Date(),
+            });
             callback();
           })
           .catch((err: Error) => callback(err));
@@ -37,14 +45,20 @@ export class MailCatcher {
   }
 
   /** Waits for a mail to `address` that matches, newest first. */
-  async waitFor(address: string, match: (m: CaughtMail) => boolean = () => true, timeoutMs = 15_000): Promise<CaughtMail> {
+  async waitFor(
+    address: string,
+    match: (m: CaughtMail) => boolean = () => true,
+    timeoutMs = 15_000,
+  ): Promise<CaughtMail> {
     const deadline = Date.now() + timeoutMs;
     while (Date.now() < deadline) {
       const found = [...this.mails].reverse().find((m) => m.to.includes(address.toLowerCase()) && match(m));
       if (found) return found;
       await new Promise((r) => setTimeout(r, 100));
     }
-    throw new Error(`no mail to ${address} within ${timeoutMs} ms (have: ${this.mails.map((m) => `${m.to.join(",")}: ${m.subject}`).join("; ") || "none"})`);
+    throw new Error(
+      `no mail to ${address} within ${timeoutMs} ms (have: ${this.mails.map((m) => `${m.to.join(",")}: ${m.subject}`).join("; ") || "none"})`,
+    );
   }
 
   /** The first link into the app found in a mail's text. */

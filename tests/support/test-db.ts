@@ -12,7 +12,8 @@ function adminUrl(url: string): string {
 
 function testDatabaseName(url: string): string {
   const name = new URL(url).pathname.slice(1);
-  if (!/^ecotone_(test|e2e)\w*$/.test(name)) throw new Error(`Refusing to recreate or drop "${name}": test databases are named ecotone_test* or ecotone_e2e*`);
+  if (!/^ecotone_(test|e2e)\w*$/.test(name))
+    throw new Error(`Refusing to recreate or drop "${name}": test databases are named ecotone_test* or ecotone_e2e*`);
   return name;
 }
 

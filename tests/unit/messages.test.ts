@@ -8,12 +8,18 @@ const dir = path.join(process.cwd(), "messages");
 const load = (locale: string): Tree => JSON.parse(readFileSync(path.join(dir, `${locale}.json`), "utf8"));
 const keys = (t: Tree, prefix = ""): string[] =>
   Object.entries(t).flatMap(([k, v]) => (typeof v === "string" ? [prefix + k] : keys(v, `${prefix}${k}.`)));
-const leaf = (t: Tree, key: string) => key.split(".").reduce<string | Tree>((node, k) => (node as Tree)[k]!, t) as string;
+const leaf = (t: Tree, key: string) =>
+  key.split(".").reduce<string | Tree>((node, k) => (node as Tree)[k]!, t) as string;
 const placeholders = (text: string) => [...text.matchAll(/\{(\w+)[,}]/g)].map((m) => m[1]).sort();
 
 describe("message catalogues", () => {
   it("has one catalogue per supported locale and no others", () => {
-    expect(readdirSync(dir).filter((f) => f.endsWith(".json")).map((f) => f.replace(".json", "")).sort()).toEqual([...locales].sort());
+    expect(
+      readdirSync(dir)
+        .filter((f) => f.endsWith(".json"))
+        .map((f) => f.replace(".json", ""))
+        .sort(),
+    ).toEqual([...locales].sort());
   });
 
   const reference = keys(load("en")).sort();
@@ -21,8 +27,14 @@ describe("message catalogues", () => {
     it(`${locale}: has exactly the English keys, each non-empty, with the same placeholders`, () => {
       const tree = load(locale);
       const own = keys(tree).sort();
-      expect(own.filter((k) => !reference.includes(k)), "keys not in en.json").toEqual([]);
-      expect(reference.filter((k) => !own.includes(k)), "keys missing").toEqual([]);
+      expect(
+        own.filter((k) => !reference.includes(k)),
+        "keys not in en.json",
+      ).toEqual([]);
+      expect(
+        reference.filter((k) => !own.includes(k)),
+        "keys missing",
+      ).toEqual([]);
       const en = load("en");
       for (const k of own) {
         expect(leaf(tree, k).trim().length > 0 || k === "Event.sensitiveNote", `${locale}:${k} is empty`).toBe(true);
@@ -35,7 +47,12 @@ describe("message catalogues", () => {
     const en = load("en");
     for (const locale of ["es", "fr"]) {
       const tree = load(locale);
-      const same = reference.filter((k) => leaf(tree, k) === leaf(en, k) && !k.startsWith("LocaleSwitcher.") && !/appName|dates|zones$|Habitat\.(interior|other)/.test(k));
+      const same = reference.filter(
+        (k) =>
+          leaf(tree, k) === leaf(en, k) &&
+          !k.startsWith("LocaleSwitcher.") &&
+          !/appName|dates|zones$|Habitat\.(interior|other)/.test(k),
+      );
       // A handful of cognates are legitimately identical ("Zones", "Interior").
       expect(same.length, `${locale} copies English: ${same.join(", ")}`).toBeLessThan(6);
     }

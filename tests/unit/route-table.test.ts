@@ -17,20 +17,29 @@ const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
 
 function exportedMethods(file: string): string[] {
   const src = readFileSync(file, "utf8");
-  return METHODS.filter((m) =>
-    new RegExp(`export (const|async function|function) ${m}\\b`).test(src) || new RegExp(`export \\{[^}]*\\b(as )?${m}\\b[^}]*\\}`).test(src));
+  return METHODS.filter(
+    (m) =>
+      new RegExp(`export (const|async function|function) ${m}\\b`).test(src) ||
+      new RegExp(`export \\{[^}]*\\b(as )?${m}\\b[^}]*\\}`).test(src),
+  );
 }
 
 describe("route table", () => {
   const files = routeFiles(path.join(process.cwd(), "app/api")).map((f) => path.relative(process.cwd(), f));
 
   it("lists every exported handler of every route file", () => {
-    const missing = files.flatMap((f) => exportedMethods(f).filter((m) => !ROUTES.some((r) => r.file === f && r.method === m)).map((m) => `${m} ${f}`));
+    const missing = files.flatMap((f) =>
+      exportedMethods(f)
+        .filter((m) => !ROUTES.some((r) => r.file === f && r.method === m))
+        .map((m) => `${m} ${f}`),
+    );
     expect(missing).toEqual([]);
   });
 
   it("names only handlers that exist", () => {
-    const stale = ROUTES.filter((r) => !files.includes(r.file) || !exportedMethods(r.file).includes(r.method)).map((r) => `${r.method} ${r.file}`);
+    const stale = ROUTES.filter((r) => !files.includes(r.file) || !exportedMethods(r.file).includes(r.method)).map(
+      (r) => `${r.method} ${r.file}`,
+    );
     expect(stale).toEqual([]);
   });
 

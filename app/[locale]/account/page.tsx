@@ -12,7 +12,11 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
   setRequestLocale(locale);
   const user = await requirePageUser(locale, "/account");
   const [t, tRole, tGroup, tDesk, roles] = await Promise.all([
-    getTranslations("Account"), getTranslations("Role"), getTranslations("TaxonGroup"), getTranslations("ReviewDesk"), rolesOf(user.id),
+    getTranslations("Account"),
+    getTranslations("Role"),
+    getTranslations("TaxonGroup"),
+    getTranslations("ReviewDesk"),
+    rolesOf(user.id),
   ]);
   type Group = Parameters<typeof tGroup>[0];
   return (
@@ -22,17 +26,30 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
         <p className="text-ink-soft">{t("details", { email: user.email })}</p>
       </header>
       <section aria-labelledby="roles-title" className="space-y-2">
-        <h2 id="roles-title" className="text-2xl font-bold text-reed-900">{t("rolesTitle")}</h2>
-        {roles.length === 0 ? <p>{t("noRoles")}</p> : (
+        <h2 id="roles-title" className="text-2xl font-bold text-reed-900">
+          {t("rolesTitle")}
+        </h2>
+        {roles.length === 0 ? (
+          <p>{t("noRoles")}</p>
+        ) : (
           <ul className="space-y-2">
             {roles.map((r) => (
               <li key={r.eventId} className="rounded-lg border border-reed-200 bg-white/70 p-3">
                 <Link href={`/events/${r.eventSlug}`} className="font-semibold text-reed-800 underline">
                   {t("roleIn", { role: tRole(r.role), event: r.eventName })}
                 </Link>
-                {r.taxonGroups.length ? <span className="block text-sm text-ink-soft">{t("groupsLimit", { groups: r.taxonGroups.map((g) => tGroup(g as Group)).join(", ") })}</span> : null}
+                {r.taxonGroups.length ? (
+                  <span className="block text-sm text-ink-soft">
+                    {t("groupsLimit", { groups: r.taxonGroups.map((g) => tGroup(g as Group)).join(", ") })}
+                  </span>
+                ) : null}
                 {r.role !== "volunteer" ? (
-                  <Link href={`/events/${r.eventSlug}/review`} className="mt-1 inline-flex min-h-touch items-center font-semibold text-reed-800 underline">{tDesk("openDesk")}</Link>
+                  <Link
+                    href={`/events/${r.eventSlug}/review`}
+                    className="mt-1 inline-flex min-h-touch items-center font-semibold text-reed-800 underline"
+                  >
+                    {tDesk("openDesk")}
+                  </Link>
                 ) : null}
               </li>
             ))}
@@ -40,9 +57,11 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
         )}
       </section>
       <section aria-labelledby="password-title" className="space-y-2">
-        <h2 id="password-title" className="text-2xl font-bold text-reed-900">{t("passwordTitle")}</h2>
+        <h2 id="password-title" className="text-2xl font-bold text-reed-900">
+          {t("passwordTitle")}
+        </h2>
         <p>{user.hasPassword ? t("passwordHasOne") : t("passwordNone")}</p>
-        <PasswordForm />
+        <PasswordForm hasPassword={user.hasPassword} />
       </section>
     </div>
   );

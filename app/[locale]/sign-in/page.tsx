@@ -1,20 +1,13 @@
 import { getTranslations, setRequestLocale } from "next-intl/server";
+import { callbackOrAccount } from "@/lib/auth/callback-url";
 import { env } from "@/lib/env";
 import type { Locale } from "@/lib/i18n/routing";
 import { SignInForms } from "./_components/sign-in-forms";
 
 type Props = { params: Promise<{ locale: Locale }>; searchParams: Promise<{ callbackUrl?: string; error?: string }> };
 
-/** Only paths on this site are followed after sign-in. */
-function safeCallback(locale: Locale, raw: string | undefined): string {
-  if (raw) {
-    try {
-      const u = new URL(raw, env().APP_URL);
-      if (u.origin === new URL(env().APP_URL).origin) return u.pathname + u.search;
-    } catch {}
-  }
-  return `/${locale}/account`;
-}
+/** Only normalised paths on this site are followed after sign-in (lib/auth/callback-url.ts). */
+const safeCallback = (locale: Locale, raw: string | undefined) => callbackOrAccount(raw, env().APP_URL, locale);
 
 export default async function SignInPage({ params, searchParams }: Props) {
   const { locale } = await params;

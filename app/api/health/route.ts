@@ -9,7 +9,10 @@ export const GET = handle(async (request) => {
   parseQuery(request, healthQuery);
   const db = await checkDatabase();
   if (!db.ok) {
-    return Response.json({ status: "degraded", database: { reachable: false } }, { status: 503, headers: { "Cache-Control": "no-store" } });
+    return Response.json(
+      { status: "degraded", database: { reachable: false } },
+      { status: 503, headers: { "Cache-Control": "no-store" } },
+    );
   }
   return Response.json(
     { status: "ok", database: { reachable: true, latencyMs: db.latencyMs, postgis: db.postgis } },

@@ -13,7 +13,11 @@ export default async function SetupHome({ params }: { params: Promise<{ locale: 
   const { locale } = await params;
   setRequestLocale(locale);
   const user = await requirePageUser(locale, "/setup");
-  const [t, format, orgs] = await Promise.all([getTranslations("Setup"), getFormatter(), organisationsForSetup(user.id, user.isAdmin)]);
+  const [t, format, orgs] = await Promise.all([
+    getTranslations("Setup"),
+    getFormatter(),
+    organisationsForSetup(user.id, user.isAdmin),
+  ]);
   if (orgs.length === 0) return <NotAllowed />;
   const creatable = orgs.filter((o) => o.canCreate).map((o) => ({ id: o.id, name: o.name }));
   return (
@@ -24,14 +28,25 @@ export default async function SetupHome({ params }: { params: Promise<{ locale: 
       </header>
       {orgs.map((o) => (
         <section key={o.id} aria-labelledby={`org-${o.id}`} className="space-y-2">
-          <h2 id={`org-${o.id}`} className="text-2xl font-bold text-reed-900">{o.name}</h2>
-          {o.events.length === 0 ? <p>{t("noEvents")}</p> : (
+          <h2 id={`org-${o.id}`} className="text-2xl font-bold text-reed-900">
+            {o.name}
+          </h2>
+          {o.events.length === 0 ? (
+            <p>{t("noEvents")}</p>
+          ) : (
             <ul className="grid gap-2 sm:grid-cols-2">
               {o.events.map((e) => (
-                <li key={e.id} className="flex flex-wrap items-center justify-between gap-2 rounded-lg border border-reed-200 bg-white/70 p-3">
+                <li
+                  key={e.id}
+                  className="flex flex-wrap items-center justify-between gap-2 rounded-lg border border-reed-200 bg-white/70 p-3"
+                >
                   <span>
-                    <Link href={`/events/${e.slug}/setup`} className="font-semibold text-reed-800 underline">{e.name}</Link>
-                    <span className="block text-sm text-ink-soft">{format.dateTime(e.startsAt, { dateStyle: "medium", timeZone: e.timeZone })}</span>
+                    <Link href={`/events/${e.slug}/setup`} className="font-semibold text-reed-800 underline">
+                      {e.name}
+                    </Link>
+                    <span className="block text-sm text-ink-soft">
+                      {format.dateTime(e.startsAt, { dateStyle: "medium", timeZone: e.timeZone })}
+                    </span>
                   </span>
                   <EventStatusBadge status={e.status} />
                 </li>

@@ -11,12 +11,18 @@ export const dynamic = "force-dynamic";
 export default async function JoinPage({ params }: { params: Promise<{ locale: Locale; code: string }> }) {
   const { locale, code } = await params;
   setRequestLocale(locale);
-  const [t, event, user] = await Promise.all([getTranslations("Join"), eventByJoinCode(decodeURIComponent(code).slice(0, 32)), getSessionUser()]);
+  const [t, event, user] = await Promise.all([
+    getTranslations("Join"),
+    eventByJoinCode(decodeURIComponent(code).slice(0, 32)),
+    getSessionUser(),
+  ]);
   if (!event) {
     return (
       <div className="max-w-prose space-y-2">
         <h1 className="text-3xl font-bold text-reed-900">{t("title")}</h1>
-        <p role="alert" className="font-semibold text-signal">✕ {t("unknownCode")}</p>
+        <p role="alert" className="font-semibold text-signal">
+          ✕ {t("unknownCode")}
+        </p>
       </div>
     );
   }
@@ -26,8 +32,17 @@ export default async function JoinPage({ params }: { params: Promise<{ locale: L
         <h1 className="text-3xl font-bold text-reed-900">{t("joinEvent", { event: event.name })}</h1>
         <p className="text-ink-soft">{t("organisedBy", { organisation: event.organisationName })}</p>
       </header>
-      {event.status === "closed" ? <p role="alert" className="font-semibold text-signal">✕ {t("closed")}</p> : (
-        <JoinForm code={decodeURIComponent(code).slice(0, 32)} locale={locale} signedInAs={user?.email ?? null} eventSlug={event.slug} />
+      {event.status === "closed" ? (
+        <p role="alert" className="font-semibold text-signal">
+          ✕ {t("closed")}
+        </p>
+      ) : (
+        <JoinForm
+          code={decodeURIComponent(code).slice(0, 32)}
+          locale={locale}
+          signedInAs={user?.email ?? null}
+          eventSlug={event.slug}
+        />
       )}
       <SafetyNotice />
     </div>

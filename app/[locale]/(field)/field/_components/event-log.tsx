@@ -5,7 +5,7 @@ import { useMemo, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
 import { buildSpeciesIndex } from "@/lib/field/search";
 import type { KnownEvent, LocalSighting } from "@/lib/field/types";
-import { DeviceBadge, ReviewBadge } from "./badges";
+import { DeviceStateMark, ReviewStateMark } from "@/components/state-mark";
 import type { SyncStatus } from "./field-app";
 import { SessionPanel } from "./session-panel";
 import { SightingForm } from "./sighting-form";
@@ -32,7 +32,10 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   const [editing, setEditing] = useState<LocalSighting | "new" | null>(null);
   const position = usePosition(true);
   const zones = data.pack?.pack.zones ?? null;
-  const index = useMemo(() => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale) : null), [data.pack, locale]);
+  const index = useMemo(
+    () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale) : null),
+    [data.pack, locale],
+  );
   const activeSession = data.sessions.find((s) => s.record.endedAt === null) ?? null;
   const zoneName = (id: string | null) => zones?.features.find((f) => f.id === id)?.properties.name ?? null;
 
@@ -56,7 +59,6 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       <SightingForm
         db={db}
         eventId={event.id}
-        locale={locale}
         index={index}
         zones={zones}
         position={position}
@@ -69,53 +71,140 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   }
 
   // Times in the event's own time zone, as everywhere else in Ecotone (design.md).
-  const when = (iso: string) => format.dateTime(new Date(iso), { hour: "2-digit", minute: "2-digit", day: "numeric", month: "short", timeZone: event.timeZone });
+  const when = (iso: string) =>
+    format.dateTime(new Date(iso), {
+      hour: "2-digit",
+      minute: "2-digit",
+      day: "numeric",
+      month: "short",
+      timeZone: event.timeZone,
+    });
 
   return (
     <div className="space-y-6">
       <header className="space-y-2">
         <div className="flex flex-wrap items-center justify-between gap-2">
           <h2 className="text-xl font-bold text-reed-900">{event.name}</h2>
-          {onSwitchEvent ? <button type="button" onClick={onSwitchEvent} className="min-h-touch rounded-lg px-3 font-semibold text-reed-800 underline">{t("switchEvent")}</button> : null}
+          {onSwitchEvent ? (
+            <button
+              type="button"
+              onClick={onSwitchEvent}
+              className="min-h-touch rounded-lg px-3 font-semibold text-reed-800 underline"
+            >
+              {t("switchEvent")}
+            </button>
+          ) : null}
         </div>
-        {event.status !== "open" ? <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 font-semibold text-heath-900">{t("eventNotOpen")}</p> : null}
-        <div role="status" aria-live="polite" className="flex flex-wrap items-center gap-x-3 gap-y-1 rounded-lg border-2 border-reed-700 bg-white p-3">
-          <span className="font-bold">{online ? <><span aria-hidden="true">● </span>{t("online")}</> : <><span aria-hidden="true">○ </span>{t("offline")}</>}</span>
+        {event.status !== "open" ? (
+          <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 font-semibold text-heath-900">
+            {t("eventNotOpen")}
+          </p>
+        ) : null}
+        <div
+          role="status"
+          aria-live="polite"
+          className="flex flex-wrap items-center gap-x-3 gap-y-1 rounded-lg border-2 border-reed-700 bg-white p-3"
+        >
+          <span className="font-bold">
+            {online ? (
+              <>
+                <span aria-hidden="true">● </span>
+                {t("online")}
+              </>
+            ) : (
+              <>
+                <span aria-hidden="true">○ </span>
+                {t("offline")}
+              </>
+            )}
+          </span>
           <span>{waitingCount === 0 ? t("outboxEmpty") : t("outboxCount", { count: waitingCount })}</span>
           {sync.running ? <span>{t("sendingNow")}</span> : null}
-          {!sync.running && waitingCount > 0 && problem ? <span className="text-heath-900">{t(`problem.${problem}`)}</span> : null}
+          {!sync.running && waitingCount > 0 && problem ? (
+            <span className="text-heath-900">{t(`problem.${problem}`)}</span>
+          ) : null}
         </div>
-        {!data.pack && data.loaded ? <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900">{online ? t("packLoading") : t("packMissing")}</p> : null}
+        {!data.pack && data.loaded ? (
+          <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900">
+            {online ? t("packLoading") : t("packMissing")}
+          </p>
+        ) : null}
         <p className="text-ink-soft">{t("timesIn", { zone: event.timeZone })}</p>
-        <p><a href="#safety" className="inline-flex min-h-touch items-center font-semibold text-reed-800 underline">{t("safetyLink")}</a></p>
+        <p>
+          <a href="#safety" className="inline-flex min-h-touch items-center font-semibold text-reed-800 underline">
+            {t("safetyLink")}
+          </a>
+        </p>
       </header>
 
-      <SessionPanel db={db} eventId={event.id} zones={zones} position={position} session={activeSession} sightingsInSession={activeSession ? data.sightings.filter((s) => s.record.sessionId === activeSession.id).length : 0} onSaved={saved} />
+      <SessionPanel
+        db={db}
+        eventId={event.id}
+        zones={zones}
+        position={position}
+        session={activeSession}
+        sightingsInSession={
+          activeSession ? data.sightings.filter((s) => s.record.sessionId === activeSession.id).length : 0
+        }
+        onSaved={saved}
+      />
 
       <section aria-labelledby="outbox-title" className="space-y-3">
         <div className="flex flex-wrap items-center justify-between gap-2">
-          <h2 id="outbox-title" className="text-xl font-bold text-reed-900">{t("outboxTitle")}</h2>
-          {waitingCount > 0 && online ? <button type="button" onClick={onSyncNow} disabled={sync.running} className={`${bigButton} border-2 border-reed-700 text-reed-800 disabled:opacity-60`}>{t("sendNow")}</button> : null}
+          <h2 id="outbox-title" className="text-xl font-bold text-reed-900">
+            {t("outboxTitle")}
+          </h2>
+          {waitingCount > 0 && online ? (
+            <button
+              type="button"
+              onClick={onSyncNow}
+              disabled={sync.running}
+              className={`${bigButton} border-2 border-reed-700 text-reed-800 disabled:opacity-60`}
+            >
+              {t("sendNow")}
+            </button>
+          ) : null}
         </div>
-        {waitingCount === 0 ? <p>{t("outboxEmptyLong")}</p> : (
+        {waitingCount === 0 ? (
+          <p>{t("outboxEmptyLong")}</p>
+        ) : (
           <ul aria-label={t("outboxTitle")} className="space-y-2">
             {outboxSessions.map((s) => (
               <li key={s.id} className="rounded-xl border-2 border-reed-200 bg-white p-3">
                 <div className="flex flex-wrap items-center justify-between gap-2">
-                  <span className="font-bold">{t(`sessionKind.${s.record.kind}`)}{zoneName(s.record.zoneId) ? ` · ${zoneName(s.record.zoneId)}` : ""}</span>
-                  <DeviceBadge state={s.state} />
+                  <span className="font-bold">
+                    {t(`sessionKind.${s.record.kind}`)}
+                    {zoneName(s.record.zoneId) ? ` · ${zoneName(s.record.zoneId)}` : ""}
+                  </span>
+                  <DeviceStateMark state={s.state} />
                 </div>
-                <p className="text-ink-soft">{s.record.endedAt ? t("sessionEndedAt", { time: when(s.record.endedAt) }) : t("sessionRunningSince", { time: when(s.record.startedAt) })}</p>
+                <p className="text-ink-soft">
+                  {s.record.endedAt
+                    ? t("sessionEndedAt", { time: when(s.record.endedAt) })
+                    : t("sessionRunningSince", { time: when(s.record.startedAt) })}
+                </p>
                 {s.state === "failed" ? <p className="font-semibold text-signal">{s.reason}</p> : null}
               </li>
             ))}
             {outboxSightings.map((s) => (
-              <SightingRow key={s.id} s={s} zone={zoneName(s.record.zoneId)} when={when(s.record.observedAt)} photos={data.photos.filter((p) => p.sightingId === s.id).length} onEdit={() => setEditing(s)} />
+              <SightingRow
+                key={s.id}
+                s={s}
+                zone={zoneName(s.record.zoneId)}
+                when={when(s.record.observedAt)}
+                photos={data.photos.filter((p) => p.sightingId === s.id).length}
+                onEdit={() => setEditing(s)}
+              />
             ))}
             {loosePhotos.map((p) => (
-              <li key={p.id} className="flex flex-wrap items-center justify-between gap-2 rounded-xl border-2 border-reed-200 bg-white p-3">
-                <span className="font-bold">{t("photoOf", { name: data.sightings.find((s) => s.id === p.sightingId)?.taxonLabel ?? "" })}</span>
-                <DeviceBadge state={p.state} />
+              <li
+                key={p.id}
+                className="flex flex-wrap items-center justify-between gap-2 rounded-xl border-2 border-reed-200 bg-white p-3"
+              >
+                <span className="font-bold">
+                  {t("photoOf", { name: data.sightings.find((s) => s.id === p.sightingId)?.taxonLabel ?? "" })}
+                </span>
+                <DeviceStateMark state={p.state} />
                 {p.state === "failed" ? <p className="w-full font-semibold text-signal">{p.reason}</p> : null}
               </li>
             ))}
@@ -124,18 +213,39 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       </section>
 
       <section aria-labelledby="sent-title" className="space-y-3">
-        <h2 id="sent-title" className="text-xl font-bold text-reed-900">{t("sentTitle")}</h2>
-        {sent.length === 0 ? <p>{t("sentEmpty")}</p> : (
+        <h2 id="sent-title" className="text-xl font-bold text-reed-900">
+          {t("sentTitle")}
+        </h2>
+        {sent.length === 0 ? (
+          <p>{t("sentEmpty")}</p>
+        ) : (
           <ul aria-label={t("sentTitle")} className="space-y-2">
-            {sent.map((s) => <SightingRow key={s.id} s={s} zone={zoneName(s.record.zoneId)} when={when(s.record.observedAt)} photos={data.photos.filter((p) => p.sightingId === s.id).length} onEdit={() => setEditing(s)} />)}
+            {sent.map((s) => (
+              <SightingRow
+                key={s.id}
+                s={s}
+                zone={zoneName(s.record.zoneId)}
+                when={when(s.record.observedAt)}
+                photos={data.photos.filter((p) => p.sightingId === s.id).length}
+                onEdit={() => setEditing(s)}
+              />
+            ))}
           </ul>
         )}
       </section>
 
       <div className="fixed inset-x-0 bottom-0 z-20 border-t-2 border-reed-800 bg-paper/95 p-3">
         <div className="mx-auto flex max-w-xl">
-          <button type="button" onClick={() => setEditing("new")} disabled={!data.pack || event.status !== "open"} className={`${bigButton} min-h-[56px] w-full bg-reed-700 text-paper disabled:opacity-60`}>
-            <span aria-hidden="true" className="text-2xl leading-none">+</span>{t("addSighting")}
+          <button
+            type="button"
+            onClick={() => setEditing("new")}
+            disabled={!data.pack || event.status !== "open"}
+            className={`${bigButton} min-h-[56px] w-full bg-reed-700 text-paper disabled:opacity-60`}
+          >
+            <span aria-hidden="true" className="text-2xl leading-none">
+              +
+            </span>
+            {t("addSighting")}
           </button>
         </div>
       </div>
@@ -143,27 +253,63 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   );
 }
 
-function SightingRow({ s, zone, when, photos, onEdit }: { s: LocalSighting; zone: string | null; when: string; photos: number; onEdit: () => void }) {
+function SightingRow({
+  s,
+  zone,
+  when,
+  photos,
+  onEdit,
+}: {
+  s: LocalSighting;
+  zone: string | null;
+  when: string;
+  photos: number;
+  onEdit: () => void;
+}) {
   const t = useTranslations("FieldLog");
   const returned = s.reviewState === "returned" && s.state === "sent";
   const editable = s.state === "waiting" || s.state === "failed" || returned;
   return (
     <li className={`rounded-xl border-2 bg-white p-3 ${returned ? "border-heath-700" : "border-reed-200"}`}>
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <span className="text-lg font-bold">{s.taxonLabel} <span className="font-normal">· {s.record.countIsEstimate ? t("aboutCount", { count: s.record.count }) : s.record.count}</span></span>
+        <span className="text-lg font-bold">
+          {s.taxonLabel}{" "}
+          <span className="font-normal">
+            · {s.record.countIsEstimate ? t("aboutCount", { count: s.record.count }) : s.record.count}
+          </span>
+        </span>
         <span className="flex flex-wrap gap-1">
-          {s.state === "sent" && s.reviewState ? <ReviewBadge state={s.reviewState} /> : <DeviceBadge state={s.state} />}
+          {s.state === "sent" && s.reviewState ? (
+            <ReviewStateMark state={s.reviewState} size="large" />
+          ) : (
+            <DeviceStateMark state={s.state} />
+          )}
         </span>
       </div>
-      <p className="text-ink-soft">{[when, zone, photos ? t("photoCount", { count: photos }) : null].filter(Boolean).join(" · ")}</p>
-      {s.state === "failed" ? <p className="font-semibold text-signal"><span aria-hidden="true">✕ </span>{s.reason}</p> : null}
-      {s.question ? <p className="mt-1 rounded-lg bg-heath-50 p-2 text-heath-900"><span className="font-bold">{t("question")}</span> {s.question}</p> : null}
+      <p className="text-ink-soft">
+        {[when, zone, photos ? t("photoCount", { count: photos }) : null].filter(Boolean).join(" · ")}
+      </p>
+      {s.state === "failed" ? (
+        <p className="font-semibold text-signal">
+          <span aria-hidden="true">✕ </span>
+          {s.reason}
+        </p>
+      ) : null}
+      {s.question ? (
+        <p className="mt-1 rounded-lg bg-heath-50 p-2 text-heath-900">
+          <span className="font-bold">{t("question")}</span> {s.question}
+        </p>
+      ) : null}
       {editable ? (
-        <button type="button" onClick={onEdit} className="mt-2 inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800" aria-label={`${returned ? t("answer") : t("edit")}: ${s.taxonLabel}`}>
+        <button
+          type="button"
+          onClick={onEdit}
+          className="mt-2 inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800"
+          aria-label={`${returned ? t("answer") : t("edit")}: ${s.taxonLabel}`}
+        >
           {returned ? t("answer") : t("edit")}
         </button>
       ) : null}
     </li>
   );
 }
-

@@ -27,13 +27,18 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
   useEffect(() => {
     void registerServiceWorker(locale);
     setOnline(navigator.onLine);
-    openFieldDb().then(async (d) => {
-      setDb(d);
-      const fromUrl = new URLSearchParams(window.location.search).get("event");
-      const last = (await d.get("meta", LAST_EVENT)) as string | undefined;
-      const pick = [fromUrl, last].find((id) => id && events.some((e) => e.id === id)) ?? (events.length === 1 ? events[0]!.id : null);
-      setEventId(pick ?? null);
-    }, () => setDbError(true));
+    openFieldDb().then(
+      async (d) => {
+        setDb(d);
+        const fromUrl = new URLSearchParams(window.location.search).get("event");
+        const last = (await d.get("meta", LAST_EVENT)) as string | undefined;
+        const pick =
+          [fromUrl, last].find((id) => id && events.some((e) => e.id === id)) ??
+          (events.length === 1 ? events[0]!.id : null);
+        setEventId(pick ?? null);
+      },
+      () => setDbError(true),
+    );
   }, [locale, events]);
 
   const runSync = useCallback(async () => {
@@ -64,7 +69,16 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     const open = async () => {
       if (navigator.onLine) {
         // navigator.onLine can say "online" with no way out; a failed fetch is the truth.
-        const r = await refreshPack(db, eventId).then((x) => { setOnline(true); return x; }, () => { setOnline(false); return null; });
+        const r = await refreshPack(db, eventId).then(
+          (x) => {
+            setOnline(true);
+            return x;
+          },
+          () => {
+            setOnline(false);
+            return null;
+          },
+        );
         if (r?.changed) setPackVersion((v) => v + 1);
       }
       await runSync();
@@ -91,20 +105,35 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     void runSync();
   }, [runSync]);
 
-  if (dbError) return <p role="alert" className="rounded-lg border-2 border-signal bg-signal-soft p-4 font-semibold text-signal">{t("noStorage")}</p>;
+  if (dbError)
+    return (
+      <p role="alert" className="rounded-lg border-2 border-signal bg-signal-soft p-4 font-semibold text-signal">
+        {t("noStorage")}
+      </p>
+    );
   if (!db) return <p className="text-ink-soft">{t("loading")}</p>;
 
   if (!eventId) {
     return (
       <section aria-labelledby="pick-title" className="space-y-3">
-        <h2 id="pick-title" className="text-xl font-bold text-reed-900">{t("pickEvent")}</h2>
-        {events.length === 0 ? <p>{t("noEvents")}</p> : (
+        <h2 id="pick-title" className="text-xl font-bold text-reed-900">
+          {t("pickEvent")}
+        </h2>
+        {events.length === 0 ? (
+          <p>{t("noEvents")}</p>
+        ) : (
           <ul className="space-y-3">
             {events.map((e) => (
               <li key={e.id}>
-                <button type="button" onClick={() => setEventId(e.id)} className="flex min-h-touch w-full flex-col items-start rounded-xl border-2 border-reed-700 bg-white p-4 text-left text-lg font-bold text-reed-900">
+                <button
+                  type="button"
+                  onClick={() => setEventId(e.id)}
+                  className="flex min-h-touch w-full flex-col items-start rounded-xl border-2 border-reed-700 bg-white p-4 text-left text-lg font-bold text-reed-900"
+                >
                   {e.name}
-                  <span className="text-base font-normal text-ink-soft">{e.status === "open" ? t("eventOpen") : t("eventClosed")}</span>
+                  <span className="text-base font-normal text-ink-soft">
+                    {e.status === "open" ? t("eventOpen") : t("eventClosed")}
+                  </span>
                 </button>
               </li>
             ))}

@@ -7,14 +7,22 @@ import { saveSession } from "@/lib/field/outbox";
 import type { LocalSession, ZoneCollection } from "@/lib/field/types";
 import { walkDistanceM, zoneAt, type Fix } from "@/lib/field/zones";
 import type { PositionState } from "./use-position";
+import { SESSION_KINDS as KINDS, type SessionKind as Kind } from "@/lib/domain";
 
-type Kind = "timed_count" | "walk" | "plot_search";
-const KINDS: Kind[] = ["timed_count", "walk", "plot_search"];
 const trackKey = (id: string) => `track:${id}`;
 
-type Props = { db: FieldDatabase; eventId: string; zones: ZoneCollection | null; position: PositionState; session: LocalSession | null; sightingsInSession: number; onSaved: () => void };
+type Props = {
+  db: FieldDatabase;
+  eventId: string;
+  zones: ZoneCollection | null;
+  position: PositionState;
+  session: LocalSession | null;
+  sightingsInSession: number;
+  onSaved: () => void;
+};
 
-const choice = "flex min-h-touch cursor-pointer items-center gap-3 rounded-xl border-2 border-reed-700 bg-white px-4 py-2 font-semibold has-[:checked]:bg-reed-700 has-[:checked]:text-paper";
+const choice =
+  "flex min-h-touch cursor-pointer items-center gap-3 rounded-xl border-2 border-reed-700 bg-white px-4 py-2 font-semibold has-[:checked]:bg-reed-700 has-[:checked]:text-paper";
 
 /** Start a count session in a zone; end it with the "all species noted" answer and its effort. */
 export function SessionPanel({ db, eventId, zones, position, session, sightingsInSession, onSaved }: Props) {
@@ -36,7 +44,11 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
   // A walk's route: the position fixes while it runs, kept on the device.
   useEffect(() => {
     if (!session || session.record.kind !== "walk" || !position.fix) return;
-    const fix: Fix = { latitude: position.fix.latitude, longitude: position.fix.longitude, accuracyM: position.fix.accuracyM };
+    const fix: Fix = {
+      latitude: position.fix.latitude,
+      longitude: position.fix.longitude,
+      accuracyM: position.fix.accuracyM,
+    };
     void (async () => {
       const track = ((await db.get("meta", trackKey(session.id))) as Fix[] | undefined) ?? [];
       await db.put("meta", [...track, fix], trackKey(session.id));
@@ -46,7 +58,16 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
   const start = async () => {
     setError(null);
     const chosen = zoneId || here?.id || null;
-    await saveSession(db, eventId, { id: crypto.randomUUID(), zoneId: chosen, kind, startedAt: new Date().toISOString(), endedAt: null, allSpeciesNoted: false, distanceM: null, notes: "" });
+    await saveSession(db, eventId, {
+      id: crypto.randomUUID(),
+      zoneId: chosen,
+      kind,
+      startedAt: new Date().toISOString(),
+      endedAt: null,
+      allSpeciesNoted: false,
+      distanceM: null,
+      notes: "",
+    });
     onSaved();
   };
 
@@ -81,28 +102,91 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
     const zone = zones?.features.find((f) => f.id === session.record.zoneId)?.properties.name;
     return (
       <section aria-labelledby="session-title" className="space-y-3 rounded-xl border-2 border-reed-700 bg-reed-50 p-4">
-        <h2 id="session-title" className="text-xl font-bold text-reed-900">{t("session.running", { kind: t(`sessionKind.${session.record.kind}`) })}</h2>
-        <p className="text-lg">{[zone ?? t("session.noZone"), t("session.minutes", { count: minutes }), t("session.sightings", { count: sightingsInSession })].join(" · ")}</p>
+        <h2 id="session-title" className="text-xl font-bold text-reed-900">
+          {t("session.running", { kind: t(`sessionKind.${session.record.kind}`) })}
+        </h2>
+        <p className="text-lg">
+          {[
+            zone ?? t("session.noZone"),
+            t("session.minutes", { count: minutes }),
+            t("session.sightings", { count: sightingsInSession }),
+          ].join(" · ")}
+        </p>
         {!ending ? (
-          <button type="button" onClick={() => void beginEnd()} className="inline-flex min-h-touch items-center rounded-xl bg-heath-700 px-5 text-lg font-bold text-paper">{t("session.end")}</button>
+          <button
+            type="button"
+            onClick={() => void beginEnd()}
+            className="inline-flex min-h-touch items-center rounded-xl bg-heath-700 px-5 text-lg font-bold text-paper"
+          >
+            {t("session.end")}
+          </button>
         ) : (
-          <form aria-label={t("session.endTitle")} onSubmit={(e) => { e.preventDefault(); void end(); }} className="space-y-3">
+          <form
+            aria-label={t("session.endTitle")}
+            onSubmit={(e) => {
+              e.preventDefault();
+              void end();
+            }}
+            className="space-y-3"
+          >
             <fieldset className="space-y-2">
               <legend className="font-bold">{t("session.allNotedQuestion")}</legend>
               <p className="text-ink-soft">{t("session.allNotedHint")}</p>
-              <label className={choice}><input type="radio" name="allNoted" value="yes" checked={allNoted === "yes"} onChange={() => setAllNoted("yes")} className="h-5 w-5" />{t("session.allNotedYes")}</label>
-              <label className={choice}><input type="radio" name="allNoted" value="no" checked={allNoted === "no"} onChange={() => setAllNoted("no")} className="h-5 w-5" />{t("session.allNotedNo")}</label>
+              <label className={choice}>
+                <input
+                  type="radio"
+                  name="allNoted"
+                  value="yes"
+                  checked={allNoted === "yes"}
+                  onChange={() => setAllNoted("yes")}
+                  className="h-5 w-5"
+                />
+                {t("session.allNotedYes")}
+              </label>
+              <label className={choice}>
+                <input
+                  type="radio"
+                  name="allNoted"
+                  value="no"
+                  checked={allNoted === "no"}
+                  onChange={() => setAllNoted("no")}
+                  className="h-5 w-5"
+                />
+                {t("session.allNotedNo")}
+              </label>
             </fieldset>
             {session.record.kind === "walk" ? (
               <label className="block space-y-1">
                 <span className="font-bold">{t("session.distance")}</span>
-                <input type="number" inputMode="numeric" min={0} value={distance} onChange={(e) => setDistance(e.target.value)} className="block min-h-touch w-40 rounded-lg border-2 border-reed-700 bg-white px-3 text-lg" />
+                <input
+                  type="number"
+                  inputMode="numeric"
+                  min={0}
+                  value={distance}
+                  onChange={(e) => setDistance(e.target.value)}
+                  className="block min-h-touch w-40 rounded-lg border-2 border-reed-700 bg-white px-3 text-lg"
+                />
               </label>
             ) : null}
-            {error ? <p role="alert" className="font-semibold text-signal">✕ {error}</p> : null}
+            {error ? (
+              <p role="alert" className="font-semibold text-signal">
+                ✕ {error}
+              </p>
+            ) : null}
             <div className="flex flex-wrap gap-2">
-              <button type="submit" className="inline-flex min-h-touch items-center rounded-xl bg-reed-700 px-5 text-lg font-bold text-paper">{t("session.confirmEnd")}</button>
-              <button type="button" onClick={() => setEnding(false)} className="inline-flex min-h-touch items-center rounded-xl border-2 border-reed-700 px-5 font-semibold text-reed-800">{t("cancel")}</button>
+              <button
+                type="submit"
+                className="inline-flex min-h-touch items-center rounded-xl bg-reed-700 px-5 text-lg font-bold text-paper"
+              >
+                {t("session.confirmEnd")}
+              </button>
+              <button
+                type="button"
+                onClick={() => setEnding(false)}
+                className="inline-flex min-h-touch items-center rounded-xl border-2 border-reed-700 px-5 font-semibold text-reed-800"
+              >
+                {t("cancel")}
+              </button>
             </div>
           </form>
         )}
@@ -112,26 +196,53 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
 
   return (
     <section aria-labelledby="start-title" className="space-y-3 rounded-xl border-2 border-reed-200 bg-white p-4">
-      <h2 id="start-title" className="text-xl font-bold text-reed-900">{t("session.startTitle")}</h2>
+      <h2 id="start-title" className="text-xl font-bold text-reed-900">
+        {t("session.startTitle")}
+      </h2>
       <p className="text-ink-soft">{t("session.startHint")}</p>
       <fieldset className="grid gap-2">
         <legend className="mb-1 font-bold">{t("session.kind")}</legend>
         {KINDS.map((k) => (
           <label key={k} className={choice}>
-            <input type="radio" name="kind" value={k} checked={kind === k} onChange={() => setKind(k)} className="h-5 w-5" />
+            <input
+              type="radio"
+              name="kind"
+              value={k}
+              checked={kind === k}
+              onChange={() => setKind(k)}
+              className="h-5 w-5"
+            />
             {t(`sessionKind.${k}`)}
           </label>
         ))}
       </fieldset>
       <label className="block space-y-1">
         <span className="font-bold">{t("zone")}</span>
-        <select value={zoneId} onChange={(e) => setZoneId(e.target.value)} className="block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg">
+        <select
+          value={zoneId}
+          onChange={(e) => setZoneId(e.target.value)}
+          className="block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg"
+        >
           <option value="">{here ? t("zoneHere", { zone: here.properties.name }) : t("zoneUnknown")}</option>
-          {zones?.features.map((f) => <option key={f.id} value={f.id}>{f.properties.name}</option>)}
+          {zones?.features.map((f) => (
+            <option key={f.id} value={f.id}>
+              {f.properties.name}
+            </option>
+          ))}
         </select>
       </label>
-      {error ? <p role="alert" className="font-semibold text-signal">✕ {error}</p> : null}
-      <button type="button" onClick={() => void start()} className="inline-flex min-h-touch items-center rounded-xl bg-reed-700 px-5 text-lg font-bold text-paper">{t("session.start")}</button>
+      {error ? (
+        <p role="alert" className="font-semibold text-signal">
+          ✕ {error}
+        </p>
+      ) : null}
+      <button
+        type="button"
+        onClick={() => void start()}
+        className="inline-flex min-h-touch items-center rounded-xl bg-reed-700 px-5 text-lg font-bold text-paper"
+      >
+        {t("session.start")}
+      </button>
     </section>
   );
 }

@@ -9,13 +9,12 @@ import { preparePhoto, type PreparedPhoto } from "@/lib/field/photo";
 import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/lib/field/search";
 import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
 import { zoneAt } from "@/lib/field/zones";
+import { ZoneMap } from "@/components/zone-map";
 import type { PositionState } from "./use-position";
-import { ZoneMap } from "./zone-map";
 
 type Props = {
   db: FieldDatabase;
   eventId: string;
-  locale: string;
   index: SpeciesIndex | null;
   zones: ZoneCollection | null;
   position: PositionState;
@@ -29,7 +28,8 @@ type Place = { latitude: number; longitude: number; accuracyM: number; manual: b
 type Errors = Partial<Record<"species" | "description" | "count" | "location" | "answer" | "time" | "form", string>>;
 
 const USAGE = "usage";
-const input = "block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg text-ink aria-[invalid=true]:border-signal";
+const input =
+  "block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg text-ink aria-[invalid=true]:border-signal";
 const label = "block text-lg font-bold";
 
 function toLocalInput(iso: string) {
@@ -39,18 +39,22 @@ function toLocalInput(iso: string) {
 }
 
 /** Adding (or editing, or answering) a sighting in a few taps. */
-export function SightingForm({ db, eventId, locale, index, zones, position, session, editing, onCancel, onSaved }: Props) {
+export function SightingForm({ db, eventId, index, zones, position, session, editing, onCancel, onSaved }: Props) {
   const t = useTranslations("FieldLog");
   const prior = editing?.record;
   const [query, setQuery] = useState("");
   const [usage, setUsage] = useState<Usage>({});
-  const [species, setSpecies] = useState<{ taxonId: string; label: string } | null>(prior?.taxonId ? { taxonId: prior.taxonId, label: editing!.taxonLabel } : null);
+  const [species, setSpecies] = useState<{ taxonId: string; label: string } | null>(
+    prior?.taxonId ? { taxonId: prior.taxonId, label: editing!.taxonLabel } : null,
+  );
   const [unidentified, setUnidentified] = useState(Boolean(prior && !prior.taxonId));
   const [description, setDescription] = useState(prior?.description ?? "");
   const [count, setCount] = useState(prior?.count ?? 1);
   const [about, setAbout] = useState(prior?.countIsEstimate ?? false);
   const [time, setTime] = useState(() => toLocalInput(prior?.observedAt ?? new Date().toISOString()));
-  const [place, setPlace] = useState<Place | null>(prior ? { latitude: prior.latitude, longitude: prior.longitude, accuracyM: prior.accuracyM, manual: true } : null);
+  const [place, setPlace] = useState<Place | null>(
+    prior ? { latitude: prior.latitude, longitude: prior.longitude, accuracyM: prior.accuracyM, manual: true } : null,
+  );
   const [zoneChoice, setZoneChoice] = useState<string>(prior?.zoneId ?? "");
   const [showMap, setShowMap] = useState(false);
   const [notes, setNotes] = useState(prior?.notes ?? "");
@@ -104,45 +108,117 @@ export function SightingForm({ db, eventId, locale, index, zones, position, sess
       sessionId: prior ? prior.sessionId : (session?.id ?? null),
       taxonId: unidentified ? null : species!.taxonId,
       description: unidentified ? description.trim() : "",
-      count, countIsEstimate: about,
+      count,
+      countIsEstimate: about,
       observedAt: observed.toISOString(),
-      latitude: where.latitude, longitude: where.longitude, accuracyM: where.accuracyM,
-      zoneId, notes: notes.trim(), photoIds: prior?.photoIds ?? [],
+      latitude: where.latitude,
+      longitude: where.longitude,
+      accuracyM: where.accuracyM,
+      zoneId,
+      notes: notes.trim(),
+      photoIds: prior?.photoIds ?? [],
       ...(answering ? { answer: { toVersion: editing!.serverVersion ?? 1, message: answer.trim() } } : {}),
     };
     setSaving(true);
     try {
-      await saveSighting(db, eventId, record, unidentified ? t("unidentified") : species!.label, photos.map(({ url: _url, ...p }) => p));
+      await saveSighting(
+        db,
+        eventId,
+        record,
+        unidentified ? t("unidentified") : species!.label,
+        photos.map(({ url: _url, ...p }) => p),
+      );
       if (!unidentified && species) await db.put("meta", recordUsage(usage, species.taxonId), USAGE);
       onSaved();
     } catch (err) {
       setSaving(false);
-      setErrors({ form: err instanceof InvalidRecord ? t("errors.invalid", { fields: err.issues.map((i) => i.field).join(", ") }) : t("errors.save") });
+      setErrors({
+        form:
+          err instanceof InvalidRecord
+            ? t("errors.invalid", { fields: err.issues.map((i) => i.field).join(", ") })
+            : t("errors.save"),
+      });
     }
   };
 
   return (
-    <form aria-label={editing ? t("editTitle") : t("addTitle")} noValidate onSubmit={(e) => { e.preventDefault(); void save(); }} className="space-y-5">
-      <h2 className="text-2xl font-bold text-reed-900">{answering ? t("answerTitle") : editing ? t("editTitle") : t("addTitle")}</h2>
-      {answering && editing?.question ? <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900"><span className="font-bold">{t("question")}</span> {editing.question}</p> : null}
-      {session && !prior ? <p className="rounded-lg bg-reed-50 p-2 font-semibold text-reed-900">{t("inSession", { kind: t(`sessionKind.${session.record.kind}`) })}</p> : null}
+    <form
+      aria-label={editing ? t("editTitle") : t("addTitle")}
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        void save();
+      }}
+      className="space-y-5"
+    >
+      <h2 className="text-2xl font-bold text-reed-900">
+        {answering ? t("answerTitle") : editing ? t("editTitle") : t("addTitle")}
+      </h2>
+      {answering && editing?.question ? (
+        <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900">
+          <span className="font-bold">{t("question")}</span> {editing.question}
+        </p>
+      ) : null}
+      {session && !prior ? (
+        <p className="rounded-lg bg-reed-50 p-2 font-semibold text-reed-900">
+          {t("inSession", { kind: t(`sessionKind.${session.record.kind}`) })}
+        </p>
+      ) : null}
 
       <div className="space-y-2">
         {species && !unidentified ? (
           <div className="flex flex-wrap items-center justify-between gap-2 rounded-xl border-2 border-reed-700 bg-reed-50 p-3">
-            <p><span className="block text-sm font-bold">{t("species")}</span><span className="text-xl font-bold">{species.label}</span></p>
-            <button type="button" onClick={() => { setSpecies(null); setQuery(""); }} className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800">{t("changeSpecies")}</button>
+            <p>
+              <span className="block text-sm font-bold">{t("species")}</span>
+              <span className="text-xl font-bold">{species.label}</span>
+            </p>
+            <button
+              type="button"
+              onClick={() => {
+                setSpecies(null);
+                setQuery("");
+              }}
+              className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800"
+            >
+              {t("changeSpecies")}
+            </button>
           </div>
         ) : !unidentified ? (
           <>
-            <label htmlFor="species-search" className={label}>{t("species")}</label>
-            <input id="species-search" ref={searchRef} type="search" autoComplete="off" value={query} onChange={(e) => setQuery(e.target.value)} placeholder={t("speciesPlaceholder")} aria-invalid={Boolean(errors.species)} aria-describedby={errors.species ? "species-error" : undefined} className={input} />
-            {errors.species ? <p id="species-error" role="alert" className="font-semibold text-signal">✕ {errors.species}</p> : null}
+            <label htmlFor="species-search" className={label}>
+              {t("species")}
+            </label>
+            <input
+              id="species-search"
+              ref={searchRef}
+              type="search"
+              autoComplete="off"
+              value={query}
+              onChange={(e) => setQuery(e.target.value)}
+              placeholder={t("speciesPlaceholder")}
+              aria-invalid={Boolean(errors.species)}
+              aria-describedby={errors.species ? "species-error" : undefined}
+              className={input}
+            />
+            {errors.species ? (
+              <p id="species-error" role="alert" className="font-semibold text-signal">
+                ✕ {errors.species}
+              </p>
+            ) : null}
             <ul aria-label={t("speciesResults")} className="max-h-80 space-y-1 overflow-y-auto">
               {hits.map((h) => (
                 <li key={h.taxonId}>
-                  <button type="button" onClick={() => setSpecies({ taxonId: h.taxonId, label: h.label })} className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-left">
-                    <span className="text-lg font-bold">{h.label}{!h.onList ? <span className="ml-2 text-sm font-semibold text-heath-900">({t("notOnList")})</span> : null}</span>
+                  <button
+                    type="button"
+                    onClick={() => setSpecies({ taxonId: h.taxonId, label: h.label })}
+                    className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-left"
+                  >
+                    <span className="text-lg font-bold">
+                      {h.label}
+                      {!h.onList ? (
+                        <span className="ml-2 text-sm font-semibold text-heath-900">({t("notOnList")})</span>
+                      ) : null}
+                    </span>
                     <span className="italic text-ink-soft">{h.scientificName}</span>
                   </button>
                 </li>
@@ -152,15 +228,36 @@ export function SightingForm({ db, eventId, locale, index, zones, position, sess
           </>
         ) : null}
         <label className="flex min-h-touch items-center gap-3 font-semibold">
-          <input type="checkbox" checked={unidentified} onChange={(e) => setUnidentified(e.target.checked)} className="h-6 w-6" />
+          <input
+            type="checkbox"
+            checked={unidentified}
+            onChange={(e) => setUnidentified(e.target.checked)}
+            className="h-6 w-6"
+          />
           {t("unidentifiedToggle")}
         </label>
         {unidentified ? (
           <div className="space-y-1">
-            <label htmlFor="description" className={label}>{t("description")}</label>
-            <p id="description-hint" className="text-ink-soft">{t("descriptionHint")}</p>
-            <textarea id="description" value={description} onChange={(e) => setDescription(e.target.value)} rows={3} aria-invalid={Boolean(errors.description)} aria-describedby="description-hint" className={`${input} py-2`} />
-            {errors.description ? <p role="alert" className="font-semibold text-signal">✕ {errors.description}</p> : null}
+            <label htmlFor="description" className={label}>
+              {t("description")}
+            </label>
+            <p id="description-hint" className="text-ink-soft">
+              {t("descriptionHint")}
+            </p>
+            <textarea
+              id="description"
+              value={description}
+              onChange={(e) => setDescription(e.target.value)}
+              rows={3}
+              aria-invalid={Boolean(errors.description)}
+              aria-describedby="description-hint"
+              className={`${input} py-2`}
+            />
+            {errors.description ? (
+              <p role="alert" className="font-semibold text-signal">
+                ✕ {errors.description}
+              </p>
+            ) : null}
           </div>
         ) : null}
       </div>
@@ -168,55 +265,151 @@ export function SightingForm({ db, eventId, locale, index, zones, position, sess
       <fieldset className="space-y-2">
         <legend className={label}>{t("count")}</legend>
         <div className="flex items-center gap-2">
-          <button type="button" onClick={() => setCount((c) => Math.max(1, c - 1))} aria-label={t("countLess")} className="h-14 w-14 rounded-xl border-2 border-reed-700 bg-white text-3xl font-bold text-reed-900">−</button>
-          <input type="number" inputMode="numeric" min={1} aria-label={t("count")} value={count} onChange={(e) => setCount(Math.max(0, Math.floor(Number(e.target.value) || 0)))} aria-invalid={Boolean(errors.count)} className="h-14 w-24 rounded-xl border-2 border-reed-700 bg-white text-center text-2xl font-bold" />
-          <button type="button" onClick={() => setCount((c) => c + 1)} aria-label={t("countMore")} className="h-14 w-14 rounded-xl border-2 border-reed-700 bg-white text-3xl font-bold text-reed-900">+</button>
+          <button
+            type="button"
+            onClick={() => setCount((c) => Math.max(1, c - 1))}
+            aria-label={t("countLess")}
+            className="h-14 w-14 rounded-xl border-2 border-reed-700 bg-white text-3xl font-bold text-reed-900"
+          >
+            −
+          </button>
+          <input
+            type="number"
+            inputMode="numeric"
+            min={1}
+            aria-label={t("count")}
+            value={count}
+            onChange={(e) => setCount(Math.max(0, Math.floor(Number(e.target.value) || 0)))}
+            aria-invalid={Boolean(errors.count)}
+            className="h-14 w-24 rounded-xl border-2 border-reed-700 bg-white text-center text-2xl font-bold"
+          />
+          <button
+            type="button"
+            onClick={() => setCount((c) => c + 1)}
+            aria-label={t("countMore")}
+            className="h-14 w-14 rounded-xl border-2 border-reed-700 bg-white text-3xl font-bold text-reed-900"
+          >
+            +
+          </button>
         </div>
         <label className="flex min-h-touch items-center gap-3 font-semibold">
           <input type="checkbox" checked={about} onChange={(e) => setAbout(e.target.checked)} className="h-6 w-6" />
           {t("about")}
         </label>
-        {errors.count ? <p role="alert" className="font-semibold text-signal">✕ {errors.count}</p> : null}
+        {errors.count ? (
+          <p role="alert" className="font-semibold text-signal">
+            ✕ {errors.count}
+          </p>
+        ) : null}
       </fieldset>
 
       <div className="space-y-2">
         <p className={label}>{t("where")}</p>
         <p role="status" className="text-lg">
           {where
-            ? t(where.manual ? "placedByHand" : "placedByPhone", { lat: where.latitude.toFixed(5), lon: where.longitude.toFixed(5), accuracy: Math.round(where.accuracyM) })
-            : position.error ? t(`locationError.${position.error}`) : t("locating")}
+            ? t(where.manual ? "placedByHand" : "placedByPhone", {
+                lat: where.latitude.toFixed(5),
+                lon: where.longitude.toFixed(5),
+                accuracy: Math.round(where.accuracyM),
+              })
+            : position.error
+              ? t(`locationError.${position.error}`)
+              : t("locating")}
         </p>
-        {errors.location ? <p role="alert" className="font-semibold text-signal">✕ {errors.location}</p> : null}
+        {errors.location ? (
+          <p role="alert" className="font-semibold text-signal">
+            ✕ {errors.location}
+          </p>
+        ) : null}
         <div className="flex flex-wrap gap-2">
-          {zones ? <button type="button" onClick={() => setShowMap((v) => !v)} aria-expanded={showMap} className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800">{showMap ? t("hideMap") : t("placeByHand")}</button> : null}
-          {place && fix ? <button type="button" onClick={() => setPlace(null)} className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800">{t("usePhonePosition")}</button> : null}
+          {zones ? (
+            <button
+              type="button"
+              onClick={() => setShowMap((v) => !v)}
+              aria-expanded={showMap}
+              className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800"
+            >
+              {showMap ? t("hideMap") : t("placeByHand")}
+            </button>
+          ) : null}
+          {place && fix ? (
+            <button
+              type="button"
+              onClick={() => setPlace(null)}
+              className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800"
+            >
+              {t("usePhonePosition")}
+            </button>
+          ) : null}
         </div>
-        {showMap && zones ? <ZoneMap zones={zones} point={where} onPlace={(p) => setPlace({ ...p, manual: true })} /> : null}
+        {showMap && zones ? (
+          <figure className="space-y-1">
+            <ZoneMap
+              zones={zones.features.map((f) => ({ id: f.id, name: f.properties.name, geometry: f.geometry }))}
+              point={where ? { latitude: where.latitude, longitude: where.longitude } : null}
+              label={t("mapLabel")}
+              onPlace={(p) => setPlace({ ...p, manual: true })}
+              className="w-full touch-none rounded-lg border-2 border-reed-700 bg-white"
+            />
+            <figcaption className="text-sm text-ink-soft">{t("mapHint")}</figcaption>
+          </figure>
+        ) : null}
         <label className="block space-y-1">
           <span className="font-bold">{t("zone")}</span>
           <select value={zoneChoice} onChange={(e) => setZoneChoice(e.target.value)} className={input}>
             <option value="">{autoZone ? t("zoneHere", { zone: autoZone.properties.name }) : t("zoneUnknown")}</option>
-            {zones?.features.map((f) => <option key={f.id} value={f.id}>{f.properties.name}</option>)}
+            {zones?.features.map((f) => (
+              <option key={f.id} value={f.id}>
+                {f.properties.name}
+              </option>
+            ))}
           </select>
         </label>
       </div>
 
       <div className="space-y-1">
-        <label htmlFor="observed-at" className={label}>{t("when")}</label>
-        <input id="observed-at" type="datetime-local" value={time} onChange={(e) => setTime(e.target.value)} aria-invalid={Boolean(errors.time)} className={input} />
-        {errors.time ? <p role="alert" className="font-semibold text-signal">✕ {errors.time}</p> : null}
+        <label htmlFor="observed-at" className={label}>
+          {t("when")}
+        </label>
+        <input
+          id="observed-at"
+          type="datetime-local"
+          value={time}
+          onChange={(e) => setTime(e.target.value)}
+          aria-invalid={Boolean(errors.time)}
+          className={input}
+        />
+        {errors.time ? (
+          <p role="alert" className="font-semibold text-signal">
+            ✕ {errors.time}
+          </p>
+        ) : null}
       </div>
 
       <div className="space-y-2">
-        <label htmlFor="photo" className={label}>{t("photos")}</label>
-        <input id="photo" type="file" accept="image/jpeg,image/png,image/webp" capture="environment" multiple onChange={(e) => void addPhotos(e.target.files)} className="block min-h-touch w-full text-lg file:mr-3 file:min-h-touch file:rounded-lg file:border-2 file:border-reed-700 file:bg-white file:px-4 file:font-semibold" />
+        <label htmlFor="photo" className={label}>
+          {t("photos")}
+        </label>
+        <input
+          id="photo"
+          type="file"
+          accept="image/jpeg,image/png,image/webp"
+          capture="environment"
+          multiple
+          onChange={(e) => void addPhotos(e.target.files)}
+          className="block min-h-touch w-full text-lg file:mr-3 file:min-h-touch file:rounded-lg file:border-2 file:border-reed-700 file:bg-white file:px-4 file:font-semibold"
+        />
         {photoBusy ? <p role="status">{t("photoPreparing")}</p> : null}
         {photos.length ? (
           <ul className="flex flex-wrap gap-2" aria-label={t("photosChosen")}>
             {photos.map((p, i) => (
               <li key={p.id}>
                 {/* eslint-disable-next-line @next/next/no-img-element */}
-                <img src={p.url} alt={t("photoAlt", { n: i + 1 })} className="h-20 w-20 rounded-lg border-2 border-reed-700 object-cover" />
+                <img
+                  src={p.url}
+                  alt={t("photoAlt", { n: i + 1 })}
+                  className="h-20 w-20 rounded-lg border-2 border-reed-700 object-cover"
+                />
               </li>
             ))}
           </ul>
@@ -224,24 +417,61 @@ export function SightingForm({ db, eventId, locale, index, zones, position, sess
       </div>
 
       <div className="space-y-1">
-        <label htmlFor="notes" className={label}>{t("notes")}</label>
-        <textarea id="notes" value={notes} onChange={(e) => setNotes(e.target.value)} rows={2} className={`${input} py-2`} />
+        <label htmlFor="notes" className={label}>
+          {t("notes")}
+        </label>
+        <textarea
+          id="notes"
+          value={notes}
+          onChange={(e) => setNotes(e.target.value)}
+          rows={2}
+          className={`${input} py-2`}
+        />
       </div>
 
       {answering ? (
         <div className="space-y-1">
-          <label htmlFor="answer" className={label}>{t("yourAnswer")}</label>
-          <textarea id="answer" value={answer} onChange={(e) => setAnswer(e.target.value)} rows={3} aria-invalid={Boolean(errors.answer)} className={`${input} py-2`} />
-          {errors.answer ? <p role="alert" className="font-semibold text-signal">✕ {errors.answer}</p> : null}
+          <label htmlFor="answer" className={label}>
+            {t("yourAnswer")}
+          </label>
+          <textarea
+            id="answer"
+            value={answer}
+            onChange={(e) => setAnswer(e.target.value)}
+            rows={3}
+            aria-invalid={Boolean(errors.answer)}
+            className={`${input} py-2`}
+          />
+          {errors.answer ? (
+            <p role="alert" className="font-semibold text-signal">
+              ✕ {errors.answer}
+            </p>
+          ) : null}
         </div>
       ) : null}
 
-      {errors.form ? <p role="alert" className="font-semibold text-signal">✕ {errors.form}</p> : null}
+      {errors.form ? (
+        <p role="alert" className="font-semibold text-signal">
+          ✕ {errors.form}
+        </p>
+      ) : null}
 
       <div className="fixed inset-x-0 bottom-0 z-20 border-t-2 border-reed-800 bg-paper/95 p-3">
         <div className="mx-auto flex max-w-xl gap-2">
-          <button type="button" onClick={onCancel} className="inline-flex min-h-[56px] items-center justify-center rounded-xl border-2 border-reed-700 bg-white px-5 text-lg font-semibold text-reed-800">{t("cancel")}</button>
-          <button type="submit" disabled={saving || photoBusy} className="inline-flex min-h-[56px] flex-1 items-center justify-center rounded-xl bg-reed-700 px-5 text-lg font-bold text-paper disabled:opacity-60">{answering ? t("sendAnswer") : t("save")}</button>
+          <button
+            type="button"
+            onClick={onCancel}
+            className="inline-flex min-h-[56px] items-center justify-center rounded-xl border-2 border-reed-700 bg-white px-5 text-lg font-semibold text-reed-800"
+          >
+            {t("cancel")}
+          </button>
+          <button
+            type="submit"
+            disabled={saving || photoBusy}
+            className="inline-flex min-h-[56px] flex-1 items-center justify-center rounded-xl bg-reed-700 px-5 text-lg font-bold text-paper disabled:opacity-60"
+          >
+            {answering ? t("sendAnswer") : t("save")}
+          </button>
         </div>
       </div>
     </form>

@@ -16,7 +16,12 @@ export function usePosition(active: boolean, onFix?: (p: Position) => void): Pos
     }
     const id = navigator.geolocation.watchPosition(
       (p) => {
-        const fix = { latitude: p.coords.latitude, longitude: p.coords.longitude, accuracyM: Math.round(p.coords.accuracy * 10) / 10, at: p.timestamp };
+        const fix = {
+          latitude: p.coords.latitude,
+          longitude: p.coords.longitude,
+          accuracyM: Math.round(p.coords.accuracy * 10) / 10,
+          at: p.timestamp,
+        };
         setState({ fix, error: null });
         onFix?.(fix);
       },

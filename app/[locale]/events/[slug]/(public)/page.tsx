@@ -22,8 +22,13 @@ export default async function EventPage({ params }: Props) {
   const event = await getPublicEventBySlug(slug);
   if (!event) notFound();
   const [t, tHabitat, tGroup, tHome, format, zoneRows, species] = await Promise.all([
-    getTranslations("Event"), getTranslations("Habitat"), getTranslations("TaxonGroup"), getTranslations("Home"),
-    getFormatter(), listZones(event.id), speciesListSummary(event.id),
+    getTranslations("Event"),
+    getTranslations("Habitat"),
+    getTranslations("TaxonGroup"),
+    getTranslations("Home"),
+    getFormatter(),
+    listZones(event.id),
+    speciesListSummary(event.id),
   ]);
   const when = (d: Date) => format.dateTime(d, { dateStyle: "full", timeStyle: "short", timeZone: event.timeZone });
 
@@ -48,7 +53,9 @@ export default async function EventPage({ params }: Props) {
       <SafetyNotice />
 
       <section aria-labelledby="zones-title" className="space-y-3">
-        <h2 id="zones-title" className="text-2xl font-bold text-reed-900">{t("zonesTitle")}</h2>
+        <h2 id="zones-title" className="text-2xl font-bold text-reed-900">
+          {t("zonesTitle")}
+        </h2>
         <p className="max-w-prose text-ink-soft">{t("zonesIntro")}</p>
         {zoneRows.length === 0 ? (
           <p>{t("noZones")}</p>
@@ -58,7 +65,8 @@ export default async function EventPage({ params }: Props) {
               <li key={z.id} className="rounded-lg border border-reed-200 bg-white/70 p-3">
                 <h3 className="font-bold">{z.name}</h3>
                 <p className="text-sm">
-                  {t("zoneHabitat", { habitat: tHabitat(z.habitat) })} · {format.number(z.areaHa, { maximumFractionDigits: 1 })} ha
+                  {t("zoneHabitat", { habitat: tHabitat(z.habitat) })} ·{" "}
+                  {format.number(z.areaHa, { maximumFractionDigits: 1 })} ha
                 </p>
                 {z.description ? <p className="text-sm text-ink-soft">{z.description}</p> : null}
               </li>
@@ -68,7 +76,9 @@ export default async function EventPage({ params }: Props) {
       </section>
 
       <section aria-labelledby="species-title" className="space-y-3">
-        <h2 id="species-title" className="text-2xl font-bold text-reed-900">{t("speciesTitle")}</h2>
+        <h2 id="species-title" className="text-2xl font-bold text-reed-900">
+          {t("speciesTitle")}
+        </h2>
         <p>{t("speciesCount", { count: species.total })}</p>
         {species.byGroup.length > 0 ? (
           <table className="w-full max-w-md text-left">
@@ -76,14 +86,18 @@ export default async function EventPage({ params }: Props) {
             <tbody>
               {species.byGroup.map((g) => (
                 <tr key={g.group} className="border-b border-reed-100">
-                  <th scope="row" className="py-1 font-normal">{tGroup(g.group)}</th>
+                  <th scope="row" className="py-1 font-normal">
+                    {tGroup(g.group)}
+                  </th>
                   <td className="py-1 text-right tabular-nums">{format.number(g.count)}</td>
                 </tr>
               ))}
             </tbody>
           </table>
         ) : null}
-        {species.sensitive > 0 ? <p className="max-w-prose text-sm text-ink-soft">{t("sensitiveNote", { count: species.sensitive })}</p> : null}
+        {species.sensitive > 0 ? (
+          <p className="max-w-prose text-sm text-ink-soft">{t("sensitiveNote", { count: species.sensitive })}</p>
+        ) : null}
       </section>
     </article>
   );

@@ -6,12 +6,26 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { joinInput, type JoinInput } from "@/app/api/join/schema";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
+import { api, ApiClientError } from "@/lib/http/client";
 import { Link } from "@/lib/i18n/navigation";
 
-export function JoinForm({ code, locale, signedInAs, eventSlug }: { code: string; locale: string; signedInAs: string | null; eventSlug: string }) {
+type Outcome = "joined" | "alreadyMember" | "mailed";
+
+export function JoinForm({
+  code,
+  locale,
+  signedInAs,
+  eventSlug,
+}: {
+  code: string;
+  locale: string;
+  signedInAs: string | null;
+  eventSlug: string;
+}) {
   const t = useTranslations("Join");
   const tErr = useTranslations("Setup.errors");
-  const [outcome, setOutcome] = useState<"joined" | "alreadyMember" | "mailed" | null>(null);
+  const tSetup = useTranslations("Setup");
+  const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
   const form = useForm<JoinInput>({
     resolver: zodResolver(joinInput),
@@ -20,42 +34,75 @@ export function JoinForm({ code, locale, signedInAs, eventSlug }: { code: string
   const { errors, isSubmitting } = form.formState;
   const submit = form.handleSubmit(async (values) => {
     setProblem(null);
-    const res = await fetch("/api/join", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(values) });
-    const body = await res.json().catch(() => ({}));
-    if (res.ok) setOutcome(body.outcome);
-    else {
-      const field = body?.error?.fields?.[0];
+    try {
+      setOutcome((await api.send<{ outcome: Outcome }>("/api/join", "POST", values)).outcome);
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      const field = err.fields[0];
       if (field?.field === "email") form.setError("email", { message: field.message });
-      else setProblem(field?.message ?? body?.error?.message ?? "");
+      else setProblem(err.problem || tSetup("genericError"));
     }
   });
 
-  if (outcome === "mailed") return <p role="status" className="rounded-lg border-2 border-reed-600 bg-reed-50 p-3 font-semibold">✓ {t("mailed")}</p>;
+  if (outcome === "mailed")
+    return (
+      <p role="status" className="rounded-lg border-2 border-reed-600 bg-reed-50 p-3 font-semibold">
+        ✓ {t("mailed")}
+      </p>
+    );
   if (outcome) {
     return (
       <div role="status" className="space-y-2 rounded-lg border-2 border-reed-600 bg-reed-50 p-3">
         <p className="font-semibold">✓ {outcome === "joined" ? t("joined") : t("alreadyMember")}</p>
-        <Link href={`/events/${eventSlug}`} className="underline">{t("toEvent")}</Link>
+        <Link href={`/events/${eventSlug}`} className="underline">
+          {t("toEvent")}
+        </Link>
       </div>
     );
   }
   const emailError = errors.email?.message;
   return (
-    <form onSubmit={submit} noValidate aria-labelledby="join-title" className="space-y-3 rounded-xl border border-reed-200 bg-white/70 p-4">
-      <h2 id="join-title" className="text-xl font-bold text-reed-900">{t("asVolunteer")}</h2>
-      {signedInAs ? <p>{t("signedInAs", { email: signedInAs })}</p> : (
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-labelledby="join-title"
+      className="space-y-3 rounded-xl border border-reed-200 bg-white/70 p-4"
+    >
+      <h2 id="join-title" className="text-xl font-bold text-reed-900">
+        {t("asVolunteer")}
+      </h2>
+      {signedInAs ? (
+        <p>{t("signedInAs", { email: signedInAs })}</p>
+      ) : (
         <>
           <p className="text-sm text-ink-soft">{t("intro")}</p>
-          <Field id="join-email" label={t("email")} error={emailError ? (tErr.has(emailError as never) ? tErr(emailError as never) : emailError) : undefined}>
-            <input id="join-email" type="email" autoComplete="email" className={inputClass} aria-invalid={Boolean(emailError)} {...form.register("email")} />
+          <Field
+            id="join-email"
+            label={t("email")}
+            error={emailError ? (tErr.has(emailError as never) ? tErr(emailError as never) : emailError) : undefined}
+          >
+            <input
+              id="join-email"
+              type="email"
+              autoComplete="email"
+              className={inputClass}
+              aria-invalid={Boolean(emailError)}
+              {...form.register("email")}
+            />
           </Field>
           <Field id="join-name" label={t("name")}>
             <input id="join-name" autoComplete="name" className={inputClass} {...form.register("name")} />
           </Field>
         </>
       )}
-      {problem ? <p role="alert" className="font-semibold text-signal">✕ {problem}</p> : null}
-      <button type="submit" className={buttonClass} disabled={isSubmitting}>{t("submit")}</button>
+      {problem ? (
+        <p role="alert" className="font-semibold text-signal">
+          ✕ {problem}
+        </p>
+      ) : null}
+      <button type="submit" className={buttonClass} disabled={isSubmitting}>
+        {t("submit")}
+      </button>
     </form>
   );
 }

@@ -1,10 +1,11 @@
 import { z } from "zod";
-import { listReports, PendingRecordsError, publishReport } from "@/db/queries/reports";
+import { listReports } from "@/db/queries/reports";
 import { requireEventRole } from "@/server/auth/guard";
 import { apiTranslator, handle, requestLocale } from "@/lib/http/errors";
 import { parseJson } from "@/lib/http/body";
+import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
-import { publishMail } from "@/server/results/publish-mail";
+import { PendingRecordsError, publishReport } from "@/server/results/publish";
 
 export const dynamic = "force-dynamic";
 
@@ -12,7 +13,7 @@ type Ctx = { params: Promise<{ eventId: string }> };
 
 /** Report versions of the event, newest first (organisers and coordinators). */
 export const GET = handle(async (_request, { params }: Ctx) => {
-  const { eventId } = await params;
+  const { eventId } = await parseParams(params, { eventId: pathId });
   await requireEventRole(eventId, "coordinator");
   return Response.json({ reports: await listReports(eventId) }, { headers: { "Cache-Control": "no-store" } });
 });
@@ -25,20 +26,24 @@ const PublishBody = z.object({ confirmPending: z.boolean().optional() }).strict(
  * the body says `{ "confirmPending": true }`; the report then states the numbers.
  */
 export const POST = handle(async (request, { params }: Ctx) => {
-  const { eventId } = await params;
+  const { eventId } = await parseParams(params, { eventId: pathId });
   const { user } = await requireEventRole(eventId, "organiser");
-  const hasBody = request.headers.get("content-length") !== "0" && request.headers.get("content-type")?.includes("json");
+  const hasBody =
+    request.headers.get("content-length") !== "0" && request.headers.get("content-type")?.includes("json");
   const body = hasBody ? await parseJson(request, PublishBody) : {};
   limitWrites(`publish:${user.id}`, 10, 60_000);
   try {
-    const report = await publishReport(eventId, user.id, publishMail, { confirmPending: body.confirmPending === true });
+    const report = await publishReport(eventId, user.id, { confirmPending: body.confirmPending === true });
     return Response.json(report, { status: 201 });
   } catch (err) {
     if (!(err instanceof PendingRecordsError)) throw err;
     const t = apiTranslator(requestLocale(request));
     const { pending, returned } = err.pending;
     return Response.json(
-      { error: { code: "conflict", message: t("pendingRecords", { pending, returned }), fields: [] }, pending: err.pending },
+      {
+        error: { code: "conflict", message: t("pendingRecords", { pending, returned }), fields: [] },
+        pending: err.pending,
+      },
       { status: 409, headers: { "Cache-Control": "no-store" } },
     );
   }

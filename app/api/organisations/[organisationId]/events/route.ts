@@ -1,19 +1,21 @@
 import { createEvent } from "@/db/queries/setup";
 import { requireOrganisationOrganiser } from "@/server/auth/guard";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { parseParams, pathId } from "@/lib/http/params";
+import { parseJson } from "@/lib/http/body";
 import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { eventInstants, parseSetupBody } from "@/lib/setup/api";
+import { eventInstants } from "@/lib/time/zoned";
 import { createEventInput } from "./schema";
 
 type Ctx = { params: Promise<{ organisationId: string }> };
 
 // An organiser of the organisation creates one of its events, as a draft.
 export const POST = handle<Ctx>(async (request, { params }) => {
-  const { organisationId } = await params;
+  const { organisationId } = await parseParams(params, { organisationId: pathId });
   const user = await requireOrganisationOrganiser(organisationId);
   limitWrites(`setup:${user.id}`);
-  const input = await parseSetupBody(request, createEventInput);
+  const input = await parseJson(request, createEventInput, { messages: "Setup.errors" });
   const { slug, startsLocal, endsLocal, ...rest } = input;
   const made = await createEvent(organisationId, slug, { ...rest, ...eventInstants(input) });
   if (!made) {

@@ -11,9 +11,32 @@ export const dynamic = "force-dynamic";
 type Props = { params: Promise<{ locale: Locale; slug: string }> };
 
 type Plain = Exclude<keyof LiveLabels, `reason.${string}`>;
-const KEYS: Plain[] = ["perHour", "volunteers", "lastHour", "today", "total", "backlog", "pending", "approved", "rejected", "returned",
-  "completeness", "share", "coverage", "nextTitle", "nextIntro", "zoneLine", "unsampled", "loading", "failed", "updated", "hour", "sightings",
-  "completenessNote", "coverageSample", "coverageIncidence", "tooFew", "eventTooFew", "pendingLine"];
+const KEYS: Plain[] = [
+  "perHour",
+  "volunteers",
+  "lastHour",
+  "today",
+  "total",
+  "backlog",
+  "completeness",
+  "share",
+  "coverage",
+  "nextTitle",
+  "nextIntro",
+  "zoneLine",
+  "unsampled",
+  "loading",
+  "failed",
+  "updated",
+  "hour",
+  "sightings",
+  "completenessNote",
+  "coverageSample",
+  "coverageIncidence",
+  "tooFew",
+  "eventTooFew",
+  "pendingLine",
+];
 
 export default async function LivePage({ params }: Props) {
   const { locale, slug } = await params;
@@ -26,7 +49,9 @@ export default async function LivePage({ params }: Props) {
   // Placeholders stay as {name} for the client to fill.
   const raw = (k: Plain) => t.raw(`live.${k}`) as string;
   const reasons = {
-    "reason.countUnits": t("tooFew.reasons.countUnits", { units: [t("unit.stems"), t("unit.clumps"), t("unit.colonies"), t("unit.presence")].join(", ") }),
+    "reason.countUnits": t("tooFew.reasons.countUnits", {
+      units: [t("unit.stems"), t("unit.clumps"), t("unit.colonies"), t("unit.presence")].join(", "),
+    }),
     "reason.individuals": t("tooFew.reasons.individuals", { min: SUFFICIENCY.minIndividuals }),
     "reason.coverage": t("tooFew.reasons.coverage", { min: SUFFICIENCY.minCoverage }),
     "reason.sessions": t("tooFew.reasons.sessions", { min: SUFFICIENCY.minCompleteSessions }),

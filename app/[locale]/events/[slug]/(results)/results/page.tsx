@@ -34,41 +34,85 @@ export default async function ResultsPage({ params }: Props) {
   const t = await getTranslations("Results");
   if (!permit) return <p role="alert">{t("notAllowed")}</p>;
   const [format, { results }, reports, chosenUnits, tGroup] = await Promise.all([
-    getFormatter(), currentResults(event.id), listReports(event.id), eventCountUnits(event.id), getTranslations("TaxonGroup"),
+    getFormatter(),
+    currentResults(event.id),
+    listReports(event.id),
+    eventCountUnits(event.id),
+    getTranslations("TaxonGroup"),
   ]);
   const canPublish = permit.role === "organiser" || permit.role === "admin";
   const groups = Object.keys(DEFAULT_COUNT_UNITS);
-  const unitRows = groups.map((group) => ({ group, unit: countUnitOf(group, chosenUnits), chosen: group in chosenUnits }));
+  const unitRows = groups.map((group) => ({
+    group,
+    unit: countUnitOf(group, chosenUnits),
+    chosen: group in chosenUnits,
+  }));
   return (
     <article className="space-y-8">
       <header className="space-y-2">
         <h1 className="text-3xl font-bold text-reed-900">{t("title", { event: event.name })}</h1>
-        <p className="max-w-prose text-ink-soft">{t("intro", { species: results.totals.species, individuals: results.totals.individuals, sessions: results.totals.completeSessions })}</p>
-        <p><Link href={`/events/${slug}/live`} className="font-semibold text-reed-800 underline">{t("live.link")}</Link></p>
+        <p className="max-w-prose text-ink-soft">
+          {t("intro", {
+            species: results.totals.species,
+            individuals: results.totals.individuals,
+            sessions: results.totals.completeSessions,
+          })}
+        </p>
+        <p>
+          <Link href={`/events/${slug}/live`} className="font-semibold text-reed-800 underline">
+            {t("live.link")}
+          </Link>
+        </p>
       </header>
       <EstimateCaution />
       <ResultsBody results={results} showSensitivity />
 
       {canPublish ? (
-        <CountUnitsForm eventId={event.id} rows={unitRows}
+        <CountUnitsForm
+          eventId={event.id}
+          rows={unitRows}
           groups={Object.fromEntries(groups.map((g) => [g, tGroup(g as Parameters<typeof tGroup>[0])]))}
           units={Object.fromEntries(COUNT_UNITS.map((u) => [u, t(`unit.${u}`)]))}
-          labels={{ title: t("countUnits.title"), intro: t("countUnits.intro"), group: t("countUnits.group"), unit: t("countUnits.unit"), saved: t("countUnits.saved"), failed: t("countUnits.failed"), default: t("countUnits.default") }} />
+          labels={{
+            title: t("countUnits.title"),
+            intro: t("countUnits.intro"),
+            group: t("countUnits.group"),
+            unit: t("countUnits.unit"),
+            saved: t("countUnits.saved"),
+            failed: t("countUnits.failed"),
+            default: t("countUnits.default"),
+          }}
+        />
       ) : null}
 
       <section aria-labelledby="reports-title" className="space-y-3">
-        <h2 id="reports-title" className="text-2xl font-bold text-reed-900">{t("reports.title")}</h2>
+        <h2 id="reports-title" className="text-2xl font-bold text-reed-900">
+          {t("reports.title")}
+        </h2>
         <p className="max-w-prose">{t("reports.intro")}</p>
         {canPublish ? (
-          <PublishButton eventId={event.id} label={t("reports.publish")} busyLabel={t("reports.publishing")} doneLabel={t("reports.published", { version: "{version}" })} failedLabel={t("reports.failed")}
-            confirmPending={t("reports.confirmPending", { pending: "{pending}", returned: "{returned}" })} confirm={t("reports.confirm")} cancel={t("reports.cancel")} />
+          <PublishButton
+            eventId={event.id}
+            label={t("reports.publish")}
+            busyLabel={t("reports.publishing")}
+            doneLabel={t("reports.published", { version: "{version}" })}
+            failedLabel={t("reports.failed")}
+            confirmPending={t("reports.confirmPending", { pending: "{pending}", returned: "{returned}" })}
+            confirm={t("reports.confirm")}
+            cancel={t("reports.cancel")}
+          />
         ) : null}
-        {reports.length === 0 ? <p>{t("reports.none")}</p> : (
+        {reports.length === 0 ? (
+          <p>{t("reports.none")}</p>
+        ) : (
           <ul className="space-y-2">
             {reports.map((r) => (
               <li key={r.id} className="rounded-lg border border-reed-200 bg-white/70 p-3">
-                <Link href={`/events/${slug}/reports/${r.version}`} className="font-semibold text-reed-800 underline">{t("reports.version", { version: r.version })}</Link>
-                {" · "}{format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
+                <Link href={`/events/${slug}/reports/${r.version}`} className="font-semibold text-reed-800 underline">
+                  {t("reports.version", { version: r.version })}
+                </Link>
+                {" · "}
+                {format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
                 {r.superseded ? <span className="ml-2 text-ink-soft">({t("reports.superseded")})</span> : null}
                 <span className="block font-mono text-xs text-ink-soft">sha256 {r.inputHash}</span>
               </li>

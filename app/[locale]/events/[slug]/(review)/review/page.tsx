@@ -4,8 +4,7 @@ import { getTranslations, setRequestLocale } from "next-intl/server";
 import { queueChoices, reviewEventBySlug } from "@/db/queries/review";
 import { requirePageEventRole } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
-import { REJECT_REASONS } from "@/lib/review/decisions";
-import { CHECK_MARKS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/review/filters";
+import { CHECK_MARKS, REJECT_REASONS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/domain";
 import { ReviewDesk } from "./_components/review-desk";
 
 export const dynamic = "force-dynamic";
@@ -27,18 +26,26 @@ export default async function ReviewDeskPage({ params }: Props) {
   const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/review`);
   const [t, tGroup] = await Promise.all([getTranslations("ReviewDesk"), getTranslations("TaxonGroup")]);
   if (!permit) {
-    return <p role="alert" className="rounded-lg border-2 border-signal bg-signal-soft p-4 font-semibold text-signal">{t("notAllowed")}</p>;
+    return (
+      <p role="alert" className="rounded-lg border-2 border-signal bg-signal-soft p-4 font-semibold text-signal">
+        {t("notAllowed")}
+      </p>
+    );
   }
   const scope = { eventId: event.id, taxonGroups: permit.taxonGroups, locale };
   const choices = await queueChoices(scope);
-  const groups = permit.taxonGroups.length ? TAXON_GROUPS.filter((g) => permit.taxonGroups.includes(g)) : [...TAXON_GROUPS];
+  const groups = permit.taxonGroups.length
+    ? TAXON_GROUPS.filter((g) => permit.taxonGroups.includes(g))
+    : [...TAXON_GROUPS];
   return (
     <div className="space-y-4">
       <header>
         <h1 className="text-3xl font-bold text-reed-900">{t("title")}</h1>
         <p className="text-lg">{event.name}</p>
         <p className="text-sm text-ink-soft">
-          {permit.taxonGroups.length ? t("scopeGroups", { groups: groups.map((g) => tGroup(g)).join(", ") }) : t("scopeAll")}{" "}
+          {permit.taxonGroups.length
+            ? t("scopeGroups", { groups: groups.map((g) => tGroup(g)).join(", ") })
+            : t("scopeAll")}{" "}
           {t("timeNote", { zone: event.timeZone })}
         </p>
       </header>

@@ -16,22 +16,40 @@ export default async function EventSetupLayout({ children, params }: Props) {
   if (!permit) return <NotAllowed />;
   const [t, event] = await Promise.all([getTranslations("Setup"), eventForSetup(permit.eventId)]);
   if (!event) return <NotAllowed />;
-  const tab = "inline-flex min-h-touch items-center rounded-t-lg border-2 border-b-0 border-reed-300 px-4 font-semibold text-reed-800 hover:bg-reed-50";
+  const tab =
+    "inline-flex min-h-touch items-center rounded-t-lg border-2 border-b-0 border-reed-300 px-4 font-semibold text-reed-800 hover:bg-reed-50";
   return (
     <div className="space-y-6">
       <header className="space-y-1">
-        <p className="text-sm text-ink-soft"><Link href="/setup" className="underline">{t("title")}</Link> · {event.organisationName}</p>
+        <p className="text-sm text-ink-soft">
+          <Link href="/setup" className="underline">
+            {t("title")}
+          </Link>{" "}
+          · {event.organisationName}
+        </p>
         <div className="flex flex-wrap items-center gap-3">
           <h1 className="text-3xl font-bold text-reed-900">{event.name}</h1>
           <EventStatusBadge status={event.status} />
         </div>
-        {event.status !== "draft" ? <Link href={`/events/${event.slug}`} className="text-sm underline">{t("publicPage")}</Link> : null}
+        {event.status !== "draft" ? (
+          <Link href={`/events/${event.slug}`} className="text-sm underline">
+            {t("publicPage")}
+          </Link>
+        ) : null}
       </header>
       <nav aria-label={t("tabs.label")} className="flex flex-wrap gap-1 border-b-2 border-reed-300">
-        <Link href={`/events/${slug}/setup`} className={tab}>{t("tabs.details")}</Link>
-        <Link href={`/events/${slug}/setup/zones`} className={tab}>{t("tabs.zones")}</Link>
-        <Link href={`/events/${slug}/setup/species`} className={tab}>{t("tabs.species")}</Link>
-        <Link href={`/events/${slug}/setup/people`} className={tab}>{t("tabs.people")}</Link>
+        <Link href={`/events/${slug}/setup`} className={tab}>
+          {t("tabs.details")}
+        </Link>
+        <Link href={`/events/${slug}/setup/zones`} className={tab}>
+          {t("tabs.zones")}
+        </Link>
+        <Link href={`/events/${slug}/setup/species`} className={tab}>
+          {t("tabs.species")}
+        </Link>
+        <Link href={`/events/${slug}/setup/people`} className={tab}>
+          {t("tabs.people")}
+        </Link>
       </nav>
       {children}
     </div>

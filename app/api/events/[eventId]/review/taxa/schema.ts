@@ -1,3 +1,4 @@
 import { z } from "zod";
+import { freeText } from "@/lib/validation/text";
 
-export const taxaQuery = z.object({ q: z.string().trim().min(2).max(80) }).strict();
+export const taxaQuery = z.object({ q: freeText().trim().min(2).max(80) }).strict();

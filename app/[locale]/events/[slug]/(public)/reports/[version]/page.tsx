@@ -2,7 +2,8 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
 import { getPublicEventBySlug } from "@/db/queries/events";
-import { checkReport, eventCredits, getReport } from "@/db/queries/reports";
+import { eventCredits, getReport } from "@/db/queries/reports";
+import { checkReport } from "@/server/results/check";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
 import { Link } from "@/lib/i18n/navigation";
@@ -14,7 +15,10 @@ import { HILL_BOOTSTRAP_REPLICATES } from "@/lib/diversity/index";
 // Public by design: anyone may read a published report, without signing in.
 export const dynamic = "force-dynamic";
 
-type Props = { params: Promise<{ locale: Locale; slug: string; version: string }>; searchParams?: Promise<Record<string, string | string[] | undefined>> };
+type Props = {
+  params: Promise<{ locale: Locale; slug: string; version: string }>;
+  searchParams?: Promise<Record<string, string | string[] | undefined>>;
+};
 
 async function load(slug: string, version: string) {
   const v = Number(version);
@@ -41,7 +45,10 @@ export default async function ReportPage({ params, searchParams }: Props) {
   if (!found) notFound();
   const { event, report } = found;
   const [t, format, credits, check] = await Promise.all([
-    getTranslations("Report"), getFormatter(), eventCredits(event.id), wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
+    getTranslations("Report"),
+    getFormatter(),
+    eventCredits(event.id),
+    wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
   ]);
   const r = report.results;
   // The same estimate the results page and the live board show (lib/results/live.ts).
@@ -58,23 +65,42 @@ export default async function ReportPage({ params, searchParams }: Props) {
   return (
     <article className="space-y-8">
       <header className="space-y-2">
-        <h1 className="text-3xl font-bold text-reed-900">{t("title", { event: event.name, version: report.version })}</h1>
+        <h1 className="text-3xl font-bold text-reed-900">
+          {t("title", { event: event.name, version: report.version })}
+        </h1>
         <p className="text-ink-soft">
-          {t("published", { date: format.dateTime(report.publishedAt, { dateStyle: "long", timeStyle: "short", timeZone: event.timeZone }), timeZone: event.timeZone })}
+          {t("published", {
+            date: format.dateTime(report.publishedAt, {
+              dateStyle: "long",
+              timeStyle: "short",
+              timeZone: event.timeZone,
+            }),
+            timeZone: event.timeZone,
+          })}
         </p>
         {report.version < report.latestVersion ? (
-          <p role="note" className="rounded-lg border-2 border-signal bg-signal-soft p-3 font-semibold" data-testid="superseded">
+          <p
+            role="note"
+            className="rounded-lg border-2 border-signal bg-signal-soft p-3 font-semibold"
+            data-testid="superseded"
+          >
             {t("superseded")}{" "}
-            <Link href={`/events/${slug}/reports/${report.latestVersion}`} className="underline">{t("latest", { version: report.latestVersion })}</Link>
+            <Link href={`/events/${slug}/reports/${report.latestVersion}`} className="underline">
+              {t("latest", { version: report.latestVersion })}
+            </Link>
           </p>
         ) : null}
       </header>
 
       {report.version > 1 && changes.previousVersion ? (
         <section aria-labelledby="changes-title" className="space-y-2" data-testid="changes">
-          <h2 id="changes-title" className="text-2xl font-bold text-reed-900">{t("changes.title", { previous: changes.previousVersion })}</h2>
+          <h2 id="changes-title" className="text-2xl font-bold text-reed-900">
+            {t("changes.title", { previous: changes.previousVersion })}
+          </h2>
           <ul className="list-disc pl-5">
-            <li>{t("changes.records", { added: changes.added, removed: changes.removed, changed: changes.changed })}</li>
+            <li>
+              {t("changes.records", { added: changes.added, removed: changes.removed, changed: changes.changed })}
+            </li>
             <li>{t("changes.species", { before: changes.speciesBefore, after: changes.speciesAfter })}</li>
             <li>{t("changes.individuals", { before: changes.individualsBefore, after: changes.individualsAfter })}</li>
             {changes.newTaxa.length ? <li>{t("changes.newTaxa", { taxa: changes.newTaxa.join(", ") })}</li> : null}
@@ -84,19 +110,53 @@ export default async function ReportPage({ params, searchParams }: Props) {
       ) : null}
 
       <section aria-labelledby="headline-title" className="space-y-2">
-        <h2 id="headline-title" className="text-2xl font-bold text-reed-900">{t("headline.title")}</h2>
+        <h2 id="headline-title" className="text-2xl font-bold text-reed-900">
+          {t("headline.title")}
+        </h2>
         <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-          <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t("headline.observed")}</dt><dd className="text-2xl font-bold" data-testid="headline-observed">{r.event.observed}</dd></div>
+          <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
+            <dt>{t("headline.observed")}</dt>
+            <dd className="text-2xl font-bold" data-testid="headline-observed">
+              {r.event.observed}
+            </dd>
+          </div>
           {lead.richness ? (
-            <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t("headline.estimate", { estimator: lead.richness.estimator === "chao1" ? "Chao1" : "Chao2" })}</dt><dd className="text-2xl font-bold">{n(lead.richness.estimate)}</dd><dd className="text-sm">{t("headline.intervalNamed", { method: tResults("interval.logNormal"), lower: n(lead.richness.lower), upper: n(lead.richness.upper) })}</dd></div>
+            <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
+              <dt>{t("headline.estimate", { estimator: lead.richness.estimator === "chao1" ? "Chao1" : "Chao2" })}</dt>
+              <dd className="text-2xl font-bold">{n(lead.richness.estimate)}</dd>
+              <dd className="text-sm">
+                {t("headline.intervalNamed", {
+                  method: tResults("interval.logNormal"),
+                  lower: n(lead.richness.lower),
+                  upper: n(lead.richness.upper),
+                })}
+              </dd>
+            </div>
           ) : (
-            <div className="rounded-lg border-2 border-signal bg-signal-soft p-3"><dt>{t("headline.tooFew")}</dt></div>
+            <div className="rounded-lg border-2 border-signal bg-signal-soft p-3">
+              <dt>{t("headline.tooFew")}</dt>
+            </div>
           )}
           {lead.coverage !== null ? (
-            <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t(lead.coverageKind === "incidence" ? "headline.coverageIncidence" : "headline.coverageSample")}</dt><dd className="text-2xl font-bold">{format.number(lead.coverage, { style: "percent", maximumFractionDigits: 1 })}</dd></div>
+            <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
+              <dt>{t(lead.coverageKind === "incidence" ? "headline.coverageIncidence" : "headline.coverageSample")}</dt>
+              <dd className="text-2xl font-bold">
+                {format.number(lead.coverage, { style: "percent", maximumFractionDigits: 1 })}
+              </dd>
+            </div>
           ) : null}
           {q1 ? (
-            <div className="rounded-lg border border-reed-200 bg-white/70 p-3"><dt>{t("headline.hill1")}</dt><dd className="text-2xl font-bold">{n(q1.estimate)}</dd><dd className="text-sm">{t("headline.intervalNamed", { method: tResults("interval.bootstrap", { replicates: HILL_BOOTSTRAP_REPLICATES }), lower: n(q1.lower), upper: n(q1.upper) })}</dd></div>
+            <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
+              <dt>{t("headline.hill1")}</dt>
+              <dd className="text-2xl font-bold">{n(q1.estimate)}</dd>
+              <dd className="text-sm">
+                {t("headline.intervalNamed", {
+                  method: tResults("interval.bootstrap", { replicates: HILL_BOOTSTRAP_REPLICATES }),
+                  lower: n(q1.lower),
+                  upper: n(q1.upper),
+                })}
+              </dd>
+            </div>
           ) : null}
         </dl>
       </section>
@@ -108,11 +168,19 @@ export default async function ReportPage({ params, searchParams }: Props) {
       </aside>
 
       <section aria-labelledby="downloads-title" className="space-y-2">
-        <h2 id="downloads-title" className="text-2xl font-bold text-reed-900">{t("downloads.title")}</h2>
+        <h2 id="downloads-title" className="text-2xl font-bold text-reed-900">
+          {t("downloads.title")}
+        </h2>
         <ul className="flex flex-wrap gap-3">
           {files.map((f) => (
             <li key={f.file}>
-              <a href={`/api/reports/${report.id}/${f.file}`} download className="inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800">{f.label}</a>
+              <a
+                href={`/api/reports/${report.id}/${f.file}`}
+                download
+                className="inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800"
+              >
+                {f.label}
+              </a>
             </li>
           ))}
         </ul>
@@ -121,23 +189,52 @@ export default async function ReportPage({ params, searchParams }: Props) {
       <ResultsBody results={r} showSensitivity />
 
       <section aria-labelledby="method-title" className="space-y-2">
-        <h2 id="method-title" className="text-2xl font-bold text-reed-900">{t("methods.title")}</h2>
+        <h2 id="method-title" className="text-2xl font-bold text-reed-900">
+          {t("methods.title")}
+        </h2>
         <ul className="list-disc pl-5 text-sm">
-          {report.methodNotes.map((m) => <li key={m.key}><span className="font-semibold">{m.name}</span>: {m.source}</li>)}
+          {report.methodNotes.map((m) => (
+            <li key={m.key}>
+              <span className="font-semibold">{m.name}</span>: {m.source}
+            </li>
+          ))}
         </ul>
         <p className="text-sm">{t("methods.engine", { engine: report.engineVersion })}</p>
-        {r.rules ? <p className="text-sm">{t("headline.seed", { replicates: r.rules.comparison.replicates, seed: r.rules.comparison.seed })}</p> : null}
-        <p className="break-all font-mono text-xs">{t("methods.hash", { hash: report.inputHash, records: report.inputCount })}</p>
+        {r.rules ? (
+          <p className="text-sm">
+            {t("headline.seed", { replicates: r.rules.comparison.replicates, seed: r.rules.comparison.seed })}
+          </p>
+        ) : null}
+        <p className="break-all font-mono text-xs">
+          {t("methods.hash", { hash: report.inputHash, records: report.inputCount })}
+        </p>
         {wantCheck ? (
-          <p data-testid="recompute" className="font-semibold">{check?.same && check.hashSame ? `✓ ${t("methods.checkSame")}` : `✗ ${t("methods.checkDiffers")}`}</p>
+          <p data-testid="recompute" className="font-semibold">
+            {check?.same && check.hashSame ? `✓ ${t("methods.checkSame")}` : `✗ ${t("methods.checkDiffers")}`}
+          </p>
         ) : (
-          <p><Link href={`/events/${slug}/reports/${report.version}?check=1`} className="font-semibold text-reed-800 underline">{t("methods.checkLink")}</Link></p>
+          <p>
+            <Link
+              href={`/events/${slug}/reports/${report.version}?check=1`}
+              className="font-semibold text-reed-800 underline"
+            >
+              {t("methods.checkLink")}
+            </Link>
+          </p>
         )}
       </section>
 
       <section aria-labelledby="credits-title" className="space-y-1">
-        <h2 id="credits-title" className="text-2xl font-bold text-reed-900">{t("credits.title")}</h2>
-        <p>{t("credits.body", { organisation: event.organisationName, volunteers: credits.volunteers, coordinators: credits.coordinators })}</p>
+        <h2 id="credits-title" className="text-2xl font-bold text-reed-900">
+          {t("credits.title")}
+        </h2>
+        <p>
+          {t("credits.body", {
+            organisation: event.organisationName,
+            volunteers: credits.volunteers,
+            coordinators: credits.coordinators,
+          })}
+        </p>
       </section>
     </article>
   );

@@ -9,16 +9,26 @@ import type { CreateEventInput } from "@/app/api/organisations/[organisationId]/
 import { updateEventInput, type UpdateEventInput } from "@/app/api/events/[eventId]/setup/schema";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
 import { applyServerErrors, EventFields } from "@/components/setup/event-fields";
-import { fetcher, send } from "@/lib/http/client";
+import { api, ApiClientError, fetcher } from "@/lib/http/client";
 
 type Details = UpdateEventInput & { slug: string; joinCode: string | null };
-const FIELDS = ["name", "description", "startsLocal", "endsLocal", "timeZone", "languages", "sessionKinds", "accuracyLimitM", "status"];
+const FIELDS = [
+  "name",
+  "description",
+  "startsLocal",
+  "endsLocal",
+  "timeZone",
+  "languages",
+  "sessionKinds",
+  "accuracyLimitM",
+  "status",
+];
 
 export function EventDetailsForm({ eventId }: { eventId: string }) {
   const t = useTranslations("Setup");
   const tStatus = useTranslations("Home.status");
   const url = `/api/events/${eventId}/setup`;
-  const { data, error, mutate } = useSWR<Details>(url, fetcher);
+  const { data, error, mutate } = useSWR<Details, ApiClientError>(url, fetcher);
   const [saved, setSaved] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
   const form = useForm<UpdateEventInput>({ resolver: zodResolver(updateEventInput) });
@@ -27,39 +37,78 @@ export function EventDetailsForm({ eventId }: { eventId: string }) {
   useEffect(() => {
     if (!data) return;
     form.reset({
-      name: data.name, description: data.description, startsLocal: data.startsLocal, endsLocal: data.endsLocal, timeZone: data.timeZone,
-      languages: data.languages, sessionKinds: data.sessionKinds, photoRequiredSensitive: data.photoRequiredSensitive,
-      photoRequiredOffList: data.photoRequiredOffList, accuracyLimitM: data.accuracyLimitM, status: data.status,
+      name: data.name,
+      description: data.description,
+      startsLocal: data.startsLocal,
+      endsLocal: data.endsLocal,
+      timeZone: data.timeZone,
+      languages: data.languages,
+      sessionKinds: data.sessionKinds,
+      photoRequiredSensitive: data.photoRequiredSensitive,
+      photoRequiredOffList: data.photoRequiredOffList,
+      accuracyLimitM: data.accuracyLimitM,
+      status: data.status,
     });
   }, [data, form]);
 
   const submit = form.handleSubmit(async (values) => {
     setSaved(false);
     setProblem(null);
-    const res = await send(url, "PATCH", values);
-    if (res.ok) {
-      setSaved(true);
-      await mutate();
+    try {
+      await api.send(url, "PATCH", values);
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      if (!applyServerErrors(form.setError as never, err.fields, FIELDS)) setProblem(err.message || t("genericError"));
       return;
     }
-    if (!applyServerErrors(form.setError as never, res.body.error?.fields, FIELDS)) setProblem(res.body.error?.message ?? t("genericError"));
+    setSaved(true);
+    await mutate();
   });
 
-  if (error) return <p role="alert" className="font-semibold text-signal">✕ {error.message}</p>;
+  if (error)
+    return (
+      <p role="alert" className="font-semibold text-signal">
+        ✕ {error.message || t("genericError")}
+      </p>
+    );
   if (!data) return <p role="status">{t("loading")}</p>;
   return (
     <form onSubmit={submit} noValidate aria-labelledby="details-title" className="space-y-4">
-      <h2 id="details-title" className="text-2xl font-bold text-reed-900">{t("tabs.details")}</h2>
+      <h2 id="details-title" className="text-2xl font-bold text-reed-900">
+        {t("tabs.details")}
+      </h2>
       <p className="text-sm text-ink-soft">{t("event.slugFixed", { slug: data.slug })}</p>
-      <EventFields register={form.register as unknown as UseFormRegister<Omit<CreateEventInput, "slug">>} errors={errors} />
+      <EventFields
+        register={form.register as unknown as UseFormRegister<Omit<CreateEventInput, "slug">>}
+        errors={errors}
+      />
       <Field id="event-status" label={t("event.status")} hint={t("event.statusHint")}>
-        <select id="event-status" className={`${inputClass} max-w-xs`} aria-describedby="event-status-hint" {...form.register("status")}>
-          {(["draft", "open", "closed"] as const).map((s) => <option key={s} value={s}>{tStatus(s)}</option>)}
+        <select
+          id="event-status"
+          className={`${inputClass} max-w-xs`}
+          aria-describedby="event-status-hint"
+          {...form.register("status")}
+        >
+          {(["draft", "open", "closed"] as const).map((s) => (
+            <option key={s} value={s}>
+              {tStatus(s)}
+            </option>
+          ))}
         </select>
       </Field>
-      {problem ? <p role="alert" className="font-semibold text-signal">✕ {problem}</p> : null}
-      <button type="submit" className={buttonClass} disabled={isSubmitting}>{isSubmitting ? t("saving") : t("saveDetails")}</button>
-      {saved ? <p role="status" className="font-semibold text-reed-700">✓ {t("savedDetails")}</p> : null}
+      {problem ? (
+        <p role="alert" className="font-semibold text-signal">
+          ✕ {problem}
+        </p>
+      ) : null}
+      <button type="submit" className={buttonClass} disabled={isSubmitting}>
+        {isSubmitting ? t("saving") : t("saveDetails")}
+      </button>
+      {saved ? (
+        <p role="status" className="font-semibold text-reed-700">
+          ✓ {t("savedDetails")}
+        </p>
+      ) : null}
     </form>
   );
 }

@@ -1,8 +1,7 @@
 "use client";
 
 import { useTranslations } from "next-intl";
-
-export type ReportLine = { feature: number | null; line?: number; name?: string; field: string; code: string; message: string };
+import type { ReportLine } from "@/server/setup/upload-report";
 
 // The validation report of an upload: one row per problem, naming the feature or line.
 export function ReportTable({ report, kind }: { report: ReportLine[]; kind: "geojson" | "csv" }) {
@@ -15,15 +14,25 @@ export function ReportTable({ report, kind }: { report: ReportLine[]; kind: "geo
         <caption className="sr-only">{t("caption")}</caption>
         <thead>
           <tr className="border-b border-signal/40">
-            <th scope="col" className="py-1 pr-3">{kind === "csv" ? t("line") : t("feature")}</th>
-            {kind === "geojson" ? <th scope="col" className="py-1 pr-3">{t("zone")}</th> : null}
-            <th scope="col" className="py-1">{t("problem")}</th>
+            <th scope="col" className="py-1 pr-3">
+              {kind === "csv" ? t("line") : t("feature")}
+            </th>
+            {kind === "geojson" ? (
+              <th scope="col" className="py-1 pr-3">
+                {t("zone")}
+              </th>
+            ) : null}
+            <th scope="col" className="py-1">
+              {t("problem")}
+            </th>
           </tr>
         </thead>
         <tbody>
           {report.map((r, i) => (
             <tr key={i} className="border-b border-signal/20 align-top">
-              <td className="py-1 pr-3 tabular-nums">{kind === "csv" ? r.line : r.feature === null ? t("wholeFile") : r.feature + 1}</td>
+              <td className="py-1 pr-3 tabular-nums">
+                {kind === "csv" ? r.line : r.feature === null ? t("wholeFile") : r.feature + 1}
+              </td>
               {kind === "geojson" ? <td className="py-1 pr-3">{r.name ?? ""}</td> : null}
               <td className="py-1">{r.message}</td>
             </tr>

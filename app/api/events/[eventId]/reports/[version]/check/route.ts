@@ -1,6 +1,7 @@
-import { checkReport } from "@/db/queries/reports";
+import { checkReport } from "@/server/results/check";
 import { requireEventRole } from "@/server/auth/guard";
 import { ApiError, handle } from "@/lib/http/errors";
+import { parseParams, pathId, pathVersion } from "@/lib/http/params";
 
 export const dynamic = "force-dynamic";
 
@@ -8,11 +9,9 @@ type Ctx = { params: Promise<{ eventId: string; version: string }> };
 
 /** Re-computes a report from its recorded inputs and says whether every number is the same. */
 export const GET = handle(async (_request, { params }: Ctx) => {
-  const { eventId, version } = await params;
+  const { eventId, version } = await parseParams(params, { eventId: pathId, version: pathVersion });
   await requireEventRole(eventId, "coordinator");
-  const v = Number(version);
-  if (!Number.isInteger(v) || v < 1 || v > 1_000_000) throw new ApiError("not_found");
-  const check = await checkReport(eventId, v);
+  const check = await checkReport(eventId, version);
   if (!check) throw new ApiError("not_found");
   return Response.json({ same: check.same, hashSame: check.hashSame }, { headers: { "Cache-Control": "no-store" } });
 });

@@ -1,18 +1,18 @@
 import { decide } from "@/db/queries/review";
 import { parseJson } from "@/lib/http/body";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
+import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { requireReviewPermit, UUID } from "@/server/review/permit";
+import { requireReviewPermit } from "@/server/review/permit";
 import { decisionInput } from "./schema";
 
 // A coordinator's decision on one sighting. A stale version (someone decided first) is a 409
 // saying what the sighting is now; nothing is overwritten.
 export const POST = handle(async (request, ctx: { params: Promise<{ eventId: string; sightingId: string }> }) => {
-  const { eventId, sightingId } = await ctx.params;
+  const { eventId, sightingId } = await parseParams(ctx.params, { eventId: pathId, sightingId: pathId });
   const { user, scope } = await requireReviewPermit(eventId, request);
   limitWrites(`review:${user.id}`, 240);
-  if (!UUID.test(sightingId)) throw new ApiError("not_found");
   const input = await parseJson(request, decisionInput);
   const t = translator(requestLocale(request), "ReviewDesk");
   const result = await decide(scope, user.id, sightingId, input);
@@ -20,10 +20,15 @@ export const POST = handle(async (request, ctx: { params: Promise<{ eventId: str
     case "ok":
       return Response.json({ sighting: result.sighting, reviewId: result.reviewId });
     case "conflict":
-      throw new ApiError("conflict", [{
-        field: "version",
-        message: t("errors.conflict", { state: t(`states.${result.current.reviewState}`), version: result.current.version }),
-      }]);
+      throw new ApiError("conflict", [
+        {
+          field: "version",
+          message: t("errors.conflict", {
+            state: translator(requestLocale(request), "StateMark")(`review.${result.current.reviewState}`),
+            version: result.current.version,
+          }),
+        },
+      ]);
     case "unchanged":
       throw new ApiError("unprocessable", [{ field: "action", message: t("errors.unchanged") }]);
     case "bad_taxon":

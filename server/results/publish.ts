@@ -1,0 +1,85 @@
+import "server-only";
+import { enqueueMail, type OutboxMail } from "@/db/queries/mail-queue";
+import { inReportTransaction, insertReport, latestReportInputs, reportRecipients } from "@/db/queries/reports";
+import { eventZones, loadInputRecords, pendingCounts, taxaMeta } from "@/db/queries/results";
+import { env } from "@/lib/env";
+import { toLocale, translator } from "@/lib/i18n/translator";
+import { canonicalJson, computeResults, type Pending } from "@/lib/results/compute";
+import { METHOD_NOTES } from "@/lib/results/methods";
+import { diffRecords, inputFromRecords, inputHash, type ReportChanges } from "@/lib/results/records";
+
+/** Publishing while sightings wait for review needs `confirmPending` (the number is in the report). */
+export class PendingRecordsError extends Error {
+  constructor(readonly pending: Pending) {
+    super("pending records");
+  }
+}
+
+/**
+ * Freezes the event's current results into the next report version, in one transaction
+ * under the event's report lock: inputs read in one snapshot, results computed from
+ * exactly those inputs, what changed since the previous version, and the participants'
+ * e-mails queued with the report (so a report is never published without its mails).
+ */
+export async function publishReport(
+  eventId: string,
+  userId: string,
+  options: { confirmPending?: boolean } = {},
+): Promise<{ id: string; version: number }> {
+  return inReportTransaction(eventId, async (tx) => {
+    const pending = await pendingCounts(eventId, tx);
+    if (pending.pending + pending.returned > 0 && !options.confirmPending) throw new PendingRecordsError(pending);
+    const records = await loadInputRecords(eventId, tx);
+    const zones = await eventZones(eventId, tx);
+    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
+    const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
+    const prev = await latestReportInputs(eventId, tx);
+    const version = (prev?.version ?? 0) + 1;
+    let changes: ReportChanges | Record<string, never> = {};
+    if (prev) {
+      const names = new Map<string, string>([
+        ...prev.results.species.map((s) => [s.id, s.scientificName] as const),
+        ...[...meta.values()].map((t) => [t.id, t.scientificName] as const),
+      ]);
+      changes = diffRecords(prev.version, prev.inputRecords, records, (id) => names.get(id) ?? id);
+    }
+    const id = await insertReport(
+      {
+        eventId,
+        version,
+        publishedBy: userId,
+        engineVersion: results.engineVersion,
+        inputHash: inputHash(records),
+        inputRecords: records,
+        results: JSON.parse(canonicalJson(results)),
+        methodNotes: METHOD_NOTES,
+        changes,
+      },
+      tx,
+    );
+    const people = await reportRecipients(eventId, tx);
+    await enqueueMail(
+      people.map((p) => publishMail({ version, eventName: p.eventName, eventSlug: p.eventSlug }, p)),
+      tx,
+    );
+    return { id, version };
+  });
+}
+
+/** The e-mail every participant gets when a report version is published, in their language. */
+export function publishMail(
+  report: { version: number; eventName: string; eventSlug: string },
+  person: { email: string; locale: string },
+): OutboxMail {
+  const locale = toLocale(person.locale);
+  const t = translator(locale, "Results");
+  const link = `${env().APP_URL}/${locale}/events/${report.eventSlug}/reports/${report.version}`;
+  const values = { event: report.eventName, version: report.version, link };
+  return {
+    to: person.email,
+    kind: "report_published",
+    locale,
+    subject: t("mail.subject", values),
+    text: t("mail.text", values),
+  };
+}
