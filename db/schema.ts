@@ -264,6 +264,21 @@ export const eventSpecies = pgTable(
   (t) => [primaryKey({ columns: [t.eventId, t.taxonId] })],
 );
 
+// What a count means for one taxon group in one event (lib/results/settings.ts holds the
+// defaults for groups without a row): abundance estimators need counts of individuals.
+export const countUnit = pgEnum("count_unit", ["individuals", "stems", "clumps", "colonies", "presence"]);
+export const eventCountUnits = pgTable(
+  "event_count_units",
+  {
+    eventId: uuid("event_id")
+      .notNull()
+      .references(() => events.id, { onDelete: "cascade" }),
+    taxonGroup: taxonGroup("taxon_group").notNull(),
+    unit: countUnit("unit").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.taxonGroup] })],
+);
+
 // ---------------------------------------------------------------- people in events
 export const eventMembers = pgTable(
   "event_members",

@@ -36,6 +36,12 @@ function merge(b, o, t, at) {
       out[k] = tv; // only theirs changed it
     else if (JSON.stringify(tv) !== JSON.stringify(bv)) conflicts.push(`${at}${k}`);
   }
+  // A key one side deleted and the other left as it was in the base is deleted.
+  for (const [k, ov] of Object.entries(o)) {
+    if (k in t || b?.[k] === undefined) continue;
+    if (JSON.stringify(ov) === JSON.stringify(b[k])) delete out[k];
+    else conflicts.push(`${at}${k}`);
+  }
   return out;
 }
 

@@ -3,6 +3,55 @@ import type { Results } from "@/lib/results/compute";
 import { ResultsCharts, type ChartLabels } from "./results-charts";
 import { StatsTable } from "./stats-table";
 import { ZoneComparison } from "./zone-comparison";
+import { SUFFICIENCY } from "@/lib/results/settings";
+import { ABUNDANCE_REASONS, INCIDENCE_REASONS, reasonsText } from "./reasons";
+
+/** Sightings not in the numbers yet (pending review or returned), as results and reports state them. */
+export async function PendingNotice({ pending }: { pending: Results["pending"] }) {
+  const t = await getTranslations("Results");
+  if (!pending) return null;
+  const waiting = pending.pending + pending.returned;
+  return (
+    <aside
+      className={
+        waiting ? "rounded-lg border-2 border-signal bg-signal-soft p-3" : "rounded-lg border border-reed-200 p-3"
+      }
+      aria-label={t("pending.title")}
+      data-testid="pending-notice"
+    >
+      <p className="font-bold">{t("pending.title")}</p>
+      <p>
+        {waiting
+          ? t("pending.body", {
+              pending: pending.pending,
+              returned: pending.returned,
+              pendingComplete: pending.pendingInCompleteSessions,
+              returnedComplete: pending.returnedInCompleteSessions,
+            })
+          : t("pending.none")}
+      </p>
+    </aside>
+  );
+}
+
+/** The rules that turn records into numbers, in a sentence each. */
+export async function RulesNotes() {
+  const t = await getTranslations("Results");
+  return (
+    <ul className="list-disc space-y-1 pl-5 text-sm" data-testid="rules">
+      <li>{t("notes.ranks")}</li>
+      <li>{t("notes.units")}</li>
+      <li>{t("notes.sessionZone")}</li>
+      <li>
+        {t("notes.sufficiency", {
+          individuals: SUFFICIENCY.minIndividuals,
+          sessions: SUFFICIENCY.minCompleteSessions,
+          coverage: SUFFICIENCY.minCoverage,
+        })}
+      </li>
+    </ul>
+  );
+}
 
 /** Curves, whole-event and per-zone numbers, zone comparison and species list: shared by the results page and the public report. */
 export async function ResultsBody({ results, showSensitivity }: { results: Results; showSensitivity: boolean }) {
@@ -34,6 +83,8 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
   };
   return (
     <div className="space-y-8">
+      <PendingNotice pending={results.pending} />
+      <RulesNotes />
       <section aria-labelledby="curves-title" className="space-y-3">
         <h2 id="curves-title" className="text-2xl font-bold text-reed-900">
           {t("charts.title")}
@@ -43,25 +94,47 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
           accumulation={results.event.accumulation}
           ranks={results.species.map((s) => s.individuals)}
           zones={results.zones
-            .filter((z) => z.abundance.individuals > 0)
+            .filter((z) => z.rarefaction.length > 0)
             .map((z) => ({ name: z.name, rarefaction: z.rarefaction }))}
           labels={labels}
+          rarefactionNote={
+            results.event.individuals > 0 && !results.event.abundance
+              ? t("tooFew.abundanceWithheld", {
+                  reasons: reasonsText(
+                    t,
+                    results.event.reasons.filter((r) => ABUNDANCE_REASONS.includes(r)),
+                    results.event,
+                  ),
+                })
+              : undefined
+          }
+          accumulationNote={
+            results.event.individuals > 0 && !results.event.incidence
+              ? t("tooFew.incidenceWithheld", {
+                  reasons: reasonsText(
+                    t,
+                    results.event.reasons.filter((r) => INCIDENCE_REASONS.includes(r)),
+                    results.event,
+                  ),
+                })
+              : undefined
+          }
         />
       </section>
 
-      <ZoneComparison comparison={results.comparison} />
+      <ZoneComparison comparison={results.comparison} countUnits={results.event.countUnits} />
 
       <section aria-labelledby="numbers-title" className="space-y-4">
         <h2 id="numbers-title" className="text-2xl font-bold text-reed-900">
           {t("numbersTitle")}
         </h2>
-        <StatsTable block={results.event} caption={t("wholeEvent")} sessions={results.event.incidence?.units ?? 0} />
+        <StatsTable block={results.event} caption={t("wholeEvent")} sessions={results.event.completeSessions} />
         {results.zones.map((z) => (
           <details key={z.id} className="rounded-lg border border-reed-200 bg-white/70 p-3">
             <summary className="cursor-pointer font-semibold">
               {z.name} ({tHabitat(z.habitat as Habitat)})
             </summary>
-            <StatsTable block={z} caption={t("zoneCaption", { zone: z.name })} sessions={z.incidence?.units ?? 0} />
+            <StatsTable block={z} caption={t("zoneCaption", { zone: z.name })} sessions={z.completeSessions} />
           </details>
         ))}
       </section>
@@ -80,6 +153,9 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
               <th scope="col" className="py-1 pr-3">
                 {t("col.group")}
               </th>
+              <th scope="col" className="py-1 pr-3">
+                {t("col.unit")}
+              </th>
               <th scope="col" className="py-1 text-right">
                 {t("col.individuals")}
               </th>
@@ -91,6 +167,11 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
                 <th scope="row" className="py-1 pr-3 font-normal">
                   <span className="font-semibold">{s.names[locale] ?? s.names.en ?? s.scientificName}</span>{" "}
                   <i className="text-ink-soft">{s.scientificName}</i>
+                  {s.rankStatus === "folded" || s.rankStatus === "aboveSpecies" || s.rankStatus === "leftOut" ? (
+                    <span className="ml-2 text-xs text-ink-soft" data-rank-status={s.rankStatus}>
+                      ({t(`rankStatus.${s.rankStatus}`)})
+                    </span>
+                  ) : null}
                   {showSensitivity && s.sensitivity !== "open" ? (
                     <span className="ml-2 rounded border border-heath-600 px-1 text-xs text-heath-900">
                       ⚠ {t(`sensitivity.${s.sensitivity}`)}
@@ -98,6 +179,7 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
                   ) : null}
                 </th>
                 <td className="py-1 pr-3">{tGroup(s.group as Group)}</td>
+                <td className="py-1 pr-3">{t(`unit.${s.countUnit ?? "individuals"}`)}</td>
                 <td className="py-1 text-right tabular-nums">{format.number(s.individuals)}</td>
               </tr>
             ))}

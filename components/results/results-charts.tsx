@@ -49,18 +49,20 @@ function Curve({
   title,
   xLabel,
   labels,
+  empty,
 }: {
   points: CurvePoint[];
   title: string;
   xLabel: string;
   labels: ChartLabels;
+  empty?: string;
 }) {
   const observed = points.find((p) => p.kind === "observed");
   return (
     <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={title}>
       <figcaption className="font-semibold">{title}</figcaption>
       {points.length === 0 ? (
-        <p>{labels.noData}</p>
+        <p>{empty || labels.noData}</p>
       ) : (
         <div className="h-72 w-full" role="img" aria-label={`${title}. ${labels.chartSummary}`}>
           <ResponsiveContainer width="100%" height="100%">
@@ -126,13 +128,28 @@ export function ResultsCharts(props: {
   ranks: number[];
   zones: { name: string; rarefaction: CurvePoint[] }[];
   labels: ChartLabels;
+  /** Why a curve is not drawn although there are records (too few records, counts not of individuals). */
+  rarefactionNote?: string;
+  accumulationNote?: string;
 }) {
   const { labels } = props;
   const rankRows = props.ranks.map((v, i) => ({ rank: i + 1, abundance: v }));
   return (
     <div className="grid gap-4 lg:grid-cols-2" data-testid="results-charts">
-      <Curve points={props.rarefaction} title={labels.rarefactionTitle} xLabel={labels.individuals} labels={labels} />
-      <Curve points={props.accumulation} title={labels.accumulationTitle} xLabel={labels.sessions} labels={labels} />
+      <Curve
+        points={props.rarefaction}
+        title={labels.rarefactionTitle}
+        xLabel={labels.individuals}
+        labels={labels}
+        empty={props.rarefactionNote}
+      />
+      <Curve
+        points={props.accumulation}
+        title={labels.accumulationTitle}
+        xLabel={labels.sessions}
+        labels={labels}
+        empty={props.accumulationNote}
+      />
       <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.rankTitle}>
         <figcaption className="font-semibold">{labels.rankTitle}</figcaption>
         <div className="h-72 w-full" role="img" aria-label={labels.rankTitle}>

@@ -1,8 +1,19 @@
 import { getFormatter, getLocale, getTranslations } from "next-intl/server";
 import type { Comparison } from "@/lib/results/compute";
+import { reasonsText } from "./reasons";
 
-/** Zones at equal effort (sample size and coverage), with plain-language sentences and the caution beside them. */
-export async function ZoneComparison({ comparison }: { comparison: Comparison | null }) {
+/**
+ * Zones at equal coverage (the standard, named with its value) and equal sample size, the
+ * sentences ("more"/"fewer" only when the bootstrap interval of the difference excludes 0),
+ * the zones left out for too few records, and the caution beside them.
+ */
+export async function ZoneComparison({
+  comparison,
+  countUnits = [],
+}: {
+  comparison: Comparison | null;
+  countUnits?: Parameters<typeof reasonsText>[2]["countUnits"];
+}) {
   const [t, tHabitat, format, locale] = await Promise.all([
     getTranslations("Results"),
     getTranslations("Habitat"),
@@ -11,19 +22,23 @@ export async function ZoneComparison({ comparison }: { comparison: Comparison | 
   ]);
   type Habitat = Parameters<typeof tHabitat>[0];
   const n = (v: number) => (Number.isFinite(v) ? format.number(v, { maximumFractionDigits: 1 }) : t("undefinedValue"));
+  const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
+  const c = comparison;
   return (
     <section aria-labelledby="comparison-title" className="space-y-3">
       <h2 id="comparison-title" className="text-2xl font-bold text-reed-900">
         {t("comparison.title")}
       </h2>
-      {!comparison ? (
+      {!c || c.zones.length < 2 ? (
         <p>{t("comparison.none")}</p>
       ) : (
         <>
           <p className="max-w-prose">
+            {t(c.kind === "abundance" ? "comparison.kindAbundance" : "comparison.kindIncidence")}{" "}
             {t("comparison.intro", {
-              size: comparison.size,
-              coverage: format.number(comparison.coverage, { style: "percent", maximumFractionDigits: 1 }),
+              size: c.size,
+              coverage: pct(c.coverage),
+              unit: t(c.kind === "abundance" ? "comparison.unitIndividuals" : "comparison.unitSessions"),
             })}
           </p>
           <table className="w-full text-left text-sm">
@@ -34,48 +49,65 @@ export async function ZoneComparison({ comparison }: { comparison: Comparison | 
                   {t("comparison.zone")}
                 </th>
                 <th scope="col" className="py-1 pr-3 text-right">
-                  {t("comparison.atSize", { size: comparison.size })}
+                  {t("comparison.atCoverage", { coverage: pct(c.coverage) })}
                 </th>
                 <th scope="col" className="py-1 text-right">
-                  {t("comparison.atCoverage", {
-                    coverage: format.number(comparison.coverage, { style: "percent", maximumFractionDigits: 1 }),
-                  })}
+                  {c.kind === "abundance"
+                    ? t("comparison.atSize", { size: c.size })
+                    : t("comparison.atSizeSessions", { size: c.size })}
                 </th>
               </tr>
             </thead>
             <tbody>
-              {comparison.zones.map((z) => (
+              {c.zones.map((z) => (
                 <tr key={z.id} className="border-b border-reed-100">
                   <th scope="row" className="py-1 pr-3 font-semibold">
                     {z.name} <span className="font-normal text-ink-soft">({tHabitat(z.habitat as Habitat)})</span>
                   </th>
                   <td className="py-1 pr-3 text-right tabular-nums">
-                    {n(z.atSize.richness)} ({n(z.atSize.lower)} – {n(z.atSize.upper)})
+                    {n(z.atCoverage.richness)} ({n(z.atCoverage.lower)} – {n(z.atCoverage.upper)})
                   </td>
                   <td className="py-1 text-right tabular-nums">
-                    {n(z.atCoverage.richness)} ({n(z.atCoverage.lower)} – {n(z.atCoverage.upper)})
+                    {n(z.atSize.richness)} ({n(z.atSize.lower)} – {n(z.atSize.upper)})
                   </td>
                 </tr>
               ))}
             </tbody>
           </table>
           <ul className="list-disc space-y-1 pl-5" data-testid="comparison-sentences">
-            {comparison.sentences.map((s) => {
-              const a = comparison.zones.find((z) => z.id === s.a)!;
-              const b = comparison.zones.find((z) => z.id === s.b)!;
+            {c.sentences.map((s) => {
+              const a = c.zones.find((z) => z.id === s.a)!;
+              const b = c.zones.find((z) => z.id === s.b)!;
               // Mid-sentence, the habitat word is written in lower case ("Alder Fringe (edge)").
               const lower = (h: string) => tHabitat(h as Habitat).toLocaleLowerCase(locale);
-              const values = { a: a.name, aHabitat: lower(a.habitat), b: b.name, bHabitat: lower(b.habitat) };
-              return (
-                <li key={`${s.a}-${s.b}`}>
-                  {t(`comparison.sentence.${s.verdict}`, values)}{" "}
-                  {t(s.overlap ? "comparison.overlap" : "comparison.noOverlap")}
-                </li>
-              );
+              const values = {
+                a: a.name,
+                aHabitat: lower(a.habitat),
+                b: b.name,
+                bHabitat: lower(b.habitat),
+                coverage: pct(c.coverage),
+                difference: n(Math.abs(s.difference)),
+                lower: n(s.lower),
+                upper: n(s.upper),
+                replicates: c.replicates,
+              };
+              return <li key={`${s.a}-${s.b}`}>{t(`comparison.sentence.${s.verdict}`, values)}</li>;
             })}
           </ul>
         </>
       )}
+      {c && c.leftOut.length ? (
+        <div data-testid="comparison-left-out">
+          <p className="font-semibold">{t("comparison.leftOutTitle")}</p>
+          <ul className="list-disc pl-5">
+            {c.leftOut.map((z) => (
+              <li key={z.id}>
+                {t("comparison.leftOutLine", { zone: z.name, reasons: reasonsText(t, z.reasons, { countUnits }) })}
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
       <EstimateCaution />
     </section>
   );

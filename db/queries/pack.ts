@@ -3,6 +3,8 @@ import { asc, eq, sql } from "drizzle-orm";
 import type { ArealGeometry, EventPack } from "@/lib/sync/pack";
 import { getDb } from "../client";
 import { eventSpecies, events, taxa, taxonNames, zones } from "../schema";
+import { eventCountUnits } from "./results";
+import { DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/settings";
 
 // The event pack (issue 5): everything the field log needs to work offline at one event,
 // stored on the device and refreshed only when its ETag changes. Its shape is the sync
@@ -34,6 +36,7 @@ export async function getEventPack(eventId: string): Promise<EventPack | null> {
     .where(eq(events.id, eventId))
     .limit(1);
   if (!event) return null;
+  const chosenUnits = await eventCountUnits(eventId, db);
 
   const zoneRows = await db
     .select({
@@ -78,6 +81,7 @@ export async function getEventPack(eventId: string): Promise<EventPack | null> {
       accuracyLimitM: event.accuracyLimitM,
       photoRules: { requiredForSensitive: event.photoRequiredSensitive, requiredOffList: event.photoRequiredOffList },
       area: event.area ? (JSON.parse(event.area) as ArealGeometry) : null,
+      countUnits: Object.fromEntries(Object.keys(DEFAULT_COUNT_UNITS).map((g) => [g, countUnitOf(g, chosenUnits)])),
     },
     zones: {
       type: "FeatureCollection",

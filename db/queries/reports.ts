@@ -148,7 +148,7 @@ export async function reportOccurrences(report: {
     SELECT s.id, s.observed_at AS "observedAt", ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m::float8 AS "accuracyM"
     FROM sightings s WHERE s.id = ANY(${sql.raw(`ARRAY[${ids.map((id) => `'${id.replace(/[^0-9a-f-]/gi, "")}'`).join(",")}]::uuid[]`)}) ORDER BY s.id`);
   const rec = new Map(report.inputRecords.map((x) => [x[0], x]));
-  const taxa = await taxaMeta([...new Set(report.inputRecords.map((x) => x[2]))]);
+  const taxa = await taxaMeta([...new Set(report.inputRecords.map((x) => x[2]))]); // session records' "" is skipped
   const recorded = new Map(report.results.species.map((s) => [s.id, s.sensitivity]));
   const order = { open: 0, generalised: 1, restricted: 2 } as const;
   return r.rows.map((row) => {

@@ -1,8 +1,9 @@
 import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb, type Db } from "../client";
-import { NO_ZONE, type ResultsInput, type ResultsTaxon } from "@/lib/results/compute";
-import type { InputRecord } from "@/lib/results/records";
+import { NO_ZONE, type Pending, type ResultsInput, type ResultsTaxon } from "@/lib/results/compute";
+import { SESSION_RECORD, type InputRecord } from "@/lib/results/records";
+import { COUNT_UNITS, countUnitOf, type CountUnit } from "@/lib/results/settings";
 import type { ReviewState } from "@/lib/domain";
 
 type Tx = Pick<Db, "execute">;
@@ -13,9 +14,37 @@ export async function eventZones(eventId: string, db: Tx = getDb()): Promise<Res
   return r.rows;
 }
 
-/** Taxa with their names in every language, by id. */
-export async function taxaMeta(ids: readonly string[], db: Tx = getDb()): Promise<Map<string, ResultsTaxon>> {
-  if (!ids.length) return new Map();
+const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
+
+/** The event's count units by taxon group: the organiser's choices only (defaults in lib/results/settings.ts). */
+export async function eventCountUnits(eventId: string, db: Tx = getDb()): Promise<Record<string, CountUnit>> {
+  const r = await db.execute<{ group: string; unit: CountUnit }>(sql`
+    SELECT taxon_group::text AS group, unit::text AS unit FROM event_count_units WHERE event_id = ${eventId}`);
+  return Object.fromEntries(r.rows.map((x) => [x.group, x.unit]));
+}
+
+/** Sets what counts of one taxon group mean in the event. */
+export async function setEventCountUnit(
+  eventId: string,
+  group: string,
+  unit: CountUnit,
+  db: Tx = getDb(),
+): Promise<void> {
+  if (!COUNT_UNITS.includes(unit)) throw new Error(`unknown count unit ${unit}`);
+  await db.execute(sql`
+    INSERT INTO event_count_units (event_id, taxon_group, unit) VALUES (${eventId}, ${group}::taxon_group, ${unit}::count_unit)
+    ON CONFLICT (event_id, taxon_group) DO UPDATE SET unit = excluded.unit`);
+}
+
+/** Taxa with their names in every language, by id; with `eventId`, each with its count unit in that event. */
+export async function taxaMeta(
+  ids: readonly string[],
+  db: Tx = getDb(),
+  eventId?: string,
+): Promise<Map<string, ResultsTaxon>> {
+  const valid = ids.filter(isUuid);
+  if (!valid.length) return new Map();
+  const units = eventId ? await eventCountUnits(eventId, db) : {};
   const r = await db.execute<{
     id: string;
     scientificName: string;
@@ -27,9 +56,43 @@ export async function taxaMeta(ids: readonly string[], db: Tx = getDb()): Promis
     SELECT t.id, t.scientific_name AS "scientificName", t.rank::text AS rank, t.taxon_group::text AS "group",
            t.sensitivity::text AS sensitivity, jsonb_object_agg(n.locale, n.name) FILTER (WHERE n.locale IS NOT NULL) AS names
     FROM taxa t LEFT JOIN taxon_names n ON n.taxon_id = t.id
-    WHERE t.id = ANY(${sql.raw(`ARRAY[${ids.map((id) => `'${id.replace(/[^0-9a-f-]/gi, "")}'`).join(",")}]::uuid[]`)})
+    WHERE t.id = ANY(${sql.raw(`ARRAY[${valid.map((id) => `'${id}'`).join(",")}]::uuid[]`)})
     GROUP BY t.id`);
-  return new Map(r.rows.map((t) => [t.id, { ...t, names: t.names ?? {} }]));
+  return new Map(r.rows.map((t) => [t.id, { ...t, names: t.names ?? {}, countUnit: countUnitOf(t.group, units) }]));
+}
+
+/**
+ * The zone each complete count session of the event counts in (method note "sessionZone"):
+ * the zone holding most of its sightings, whatever their review state (outside every zone
+ * is one more place); ties go to the zone it was started in, then the lowest zone id; a
+ * session without sightings stays in the zone it was started in. Columns: id, zone_id.
+ */
+export function sessionZonesSql(eventId: string, options: { completeOnly?: boolean } = {}) {
+  const complete = options.completeOnly === false ? sql`TRUE` : sql`all_species_noted`;
+  return sql`
+    WITH cs AS (SELECT id, zone_id FROM count_sessions WHERE event_id = ${eventId} AND ${complete}),
+    votes AS (
+      SELECT s.session_id, s.zone_id, count(*) AS n FROM sightings s JOIN cs ON cs.id = s.session_id
+      WHERE s.event_id = ${eventId} GROUP BY 1, 2
+    ),
+    best AS (
+      SELECT DISTINCT ON (v.session_id) v.session_id, v.zone_id FROM votes v JOIN cs ON cs.id = v.session_id
+      ORDER BY v.session_id, v.n DESC, (v.zone_id IS NOT DISTINCT FROM cs.zone_id) DESC, v.zone_id NULLS LAST
+    )
+    SELECT cs.id, CASE WHEN b.session_id IS NULL THEN cs.zone_id ELSE b.zone_id END AS zone_id
+    FROM cs LEFT JOIN best b ON b.session_id = cs.id`;
+}
+
+/** Sightings not in the results yet: pending review or returned, in all and in complete sessions. */
+export async function pendingCounts(eventId: string, db: Tx = getDb()): Promise<Pending> {
+  const r = await db.execute<Pending>(sql`
+    SELECT count(*) FILTER (WHERE s.review_state = 'pending')::int AS pending,
+           count(*) FILTER (WHERE s.review_state = 'returned')::int AS returned,
+           count(*) FILTER (WHERE s.review_state = 'pending' AND cs.all_species_noted)::int AS "pendingInCompleteSessions",
+           count(*) FILTER (WHERE s.review_state = 'returned' AND cs.all_species_noted)::int AS "returnedInCompleteSessions"
+    FROM sightings s LEFT JOIN count_sessions cs ON cs.id = s.session_id
+    WHERE s.event_id = ${eventId} AND s.review_state IN ('pending', 'returned')`);
+  return r.rows[0] ?? { pending: 0, returned: 0, pendingInCompleteSessions: 0, returnedInCompleteSessions: 0 };
 }
 
 /**
@@ -37,54 +100,71 @@ export async function taxaMeta(ids: readonly string[], db: Tx = getDb()): Promis
  * however many sightings the event holds. Taxa are ordered by id and complete sessions
  * by id (the canonical order of lib/results/records.ts).
  */
-export async function loadResultsInput(eventId: string, options: { sessions?: boolean } = {}): Promise<ResultsInput> {
+export async function loadResultsInput(
+  eventId: string,
+  options: { sessions?: boolean; pending?: boolean } = {},
+): Promise<ResultsInput> {
   const db = getDb();
-  const [zones, counts, sessions] = await Promise.all([
+  const [zones, counts, sessions, pending] = await Promise.all([
     eventZones(eventId, db),
     db.execute<{ zoneId: string; taxonId: string; individuals: number }>(sql`
       SELECT zone_key AS "zoneId", taxon_id AS "taxonId", individuals::float8 AS individuals
       FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0`),
-    // Taxa travel as their rank among the event's taxa, one short text per session.
+    // Taxa travel as their rank among the event's taxa, one short text per session. Every
+    // complete session is a row, also when nothing in it is approved (an empty unit).
     options.sessions === false
-      ? { rows: [] as { zoneId: string | null; taxa: string }[] }
-      : db.execute<{ zoneId: string | null; taxa: string }>(sql`
+      ? { rows: [] as { zoneId: string | null; taxa: string | null }[] }
+      : db.execute<{ zoneId: string | null; taxa: string | null }>(sql`
       WITH tx AS (
         SELECT taxon_id, (row_number() OVER (ORDER BY taxon_id) - 1)::int AS i
         FROM (SELECT DISTINCT taxon_id FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0) d
+      ),
+      sz AS (${sessionZonesSql(eventId)}),
+      present AS (
+        SELECT st.session_id, string_agg(tx.i::text, ',') AS taxa
+        FROM result_session_taxa st JOIN tx ON tx.taxon_id = st.taxon_id
+        WHERE st.event_id = ${eventId} AND st.sightings > 0
+        GROUP BY st.session_id
       )
-      SELECT cs.zone_id AS "zoneId", string_agg(tx.i::text, ',') AS taxa
-      FROM result_session_taxa st
-      JOIN count_sessions cs ON cs.id = st.session_id AND cs.all_species_noted
-      JOIN tx ON tx.taxon_id = st.taxon_id
-      WHERE st.event_id = ${eventId} AND st.sightings > 0
-      GROUP BY st.session_id, cs.zone_id ORDER BY st.session_id`),
+      SELECT sz.zone_id AS "zoneId", p.taxa FROM sz LEFT JOIN present p ON p.session_id = sz.id ORDER BY sz.id`),
+    options.pending === false ? null : pendingCounts(eventId, db),
   ]);
   const ids = [...new Set(counts.rows.map((c) => c.taxonId))].sort();
   const index = new Map(ids.map((id, i) => [id, i]));
-  const meta = await taxaMeta(ids, db);
+  const meta = await taxaMeta(ids, db, eventId);
   return {
+    ...(pending ? { pending } : {}),
     zones,
     taxa: ids.map((id) => meta.get(id)!),
     counts: counts.rows.map((c) => ({ zoneId: c.zoneId, taxon: index.get(c.taxonId)!, individuals: c.individuals })),
     sessions: sessions.rows.map((s) => ({
       zoneId: s.zoneId ?? NO_ZONE,
       taxa: s.taxa
-        .split(",")
-        .map(Number)
-        .sort((a, b) => a - b),
+        ? s.taxa
+            .split(",")
+            .map(Number)
+            .sort((a, b) => a - b)
+        : [],
     })),
   };
 }
 
-/** Every approved, identified sighting of the event as a report's input record, by id. */
+/**
+ * Every approved, identified sighting of the event as a report's input record, and one
+ * record per complete count session (lib/results/records.ts), by id.
+ */
 export async function loadInputRecords(eventId: string, db: Tx = getDb()): Promise<InputRecord[]> {
   const r = await db.execute<{ r: InputRecord }>(sql`
-    SELECT json_build_array(s.id, s.review_state, s.taxon_id, s.count, coalesce(s.zone_id, ${NO_ZONE}::uuid),
-             CASE WHEN cs.all_species_noted THEN s.session_id END,
-             CASE WHEN cs.all_species_noted THEN coalesce(cs.zone_id, ${NO_ZONE}::uuid) END) AS r
-    FROM sightings s LEFT JOIN count_sessions cs ON cs.id = s.session_id
-    WHERE s.event_id = ${eventId} AND s.review_state = 'approved' AND s.taxon_id IS NOT NULL
-    ORDER BY s.id`);
+    WITH sz AS (${sessionZonesSql(eventId)})
+    SELECT r FROM (
+      SELECT s.id, json_build_array(s.id, s.review_state, s.taxon_id, s.count, coalesce(s.zone_id, ${NO_ZONE}::uuid),
+               sz.id, CASE WHEN sz.id IS NOT NULL THEN coalesce(sz.zone_id, ${NO_ZONE}::uuid) END) AS r
+      FROM sightings s LEFT JOIN sz ON sz.id = s.session_id
+      WHERE s.event_id = ${eventId} AND s.review_state = 'approved' AND s.taxon_id IS NOT NULL
+      UNION ALL
+      SELECT sz.id, json_build_array(sz.id, ${SESSION_RECORD}::text, '', 0, coalesce(sz.zone_id, ${NO_ZONE}::uuid), sz.id, coalesce(sz.zone_id, ${NO_ZONE}::uuid)) AS r
+      FROM sz
+    ) x ORDER BY x.id`);
   return r.rows.map((x) => x.r);
 }
 
@@ -129,6 +209,9 @@ export async function resultsKey(eventId: string): Promise<string> {
       (SELECT count(*) || ':' || coalesce(sum(hashtext(id::text || all_species_noted::text || coalesce(zone_id::text, ''))), 0)
          FROM count_sessions WHERE event_id = ${eventId}),
       (SELECT md5(string_agg(id::text || name || habitat::text, ',' ORDER BY id)) FROM zones WHERE event_id = ${eventId}),
+      (SELECT count(*) FILTER (WHERE review_state = 'pending') || ':' || count(*) FILTER (WHERE review_state = 'returned')
+         FROM sightings WHERE event_id = ${eventId} AND review_state IN ('pending', 'returned')),
+      (SELECT string_agg(taxon_group::text || unit::text, ',' ORDER BY taxon_group) FROM event_count_units WHERE event_id = ${eventId}),
       (SELECT md5(string_agg(t.id::text || t.scientific_name || t.rank::text || t.taxon_group::text || t.sensitivity::text
                    || coalesce((SELECT string_agg(locale || name, ',' ORDER BY locale) FROM taxon_names n WHERE n.taxon_id = t.id), ''), ',' ORDER BY t.id))
          FROM taxa t WHERE t.id IN (SELECT taxon_id FROM result_taxon_counts WHERE event_id = ${eventId}))

@@ -3,6 +3,7 @@ import { sql } from "drizzle-orm";
 import type { ArealGeometry as Geometry } from "@/lib/geo/areal";
 import type { AreaInput, GeoProblem, ZoneInput } from "@/lib/geo/geojson";
 import { getDb } from "../client";
+import { sessionZonesSql } from "./results";
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
@@ -92,7 +93,32 @@ export type ZonesUploadResult = {
   problems: GeoProblem[];
   saved: boolean;
   summary: { zones: number; added: number; updated: number; removed: number };
+  /** After a save: how many existing sightings and count sessions changed zone. */
+  moved?: { sightings: number; sessions: number };
 };
+
+/**
+ * One zone per record, after the zones change: every sighting of the event goes to the
+ * zone that covers its own point (the smallest, if zones touch; as sync decides it), then
+ * every count session to the zone holding most of its sightings (results.ts sessionZonesSql).
+ */
+export async function reassignZones(tx: Tx, eventId: string): Promise<{ sightings: number; sessions: number }> {
+  const moved = await tx.execute(sql`
+    WITH target AS (
+      SELECT s.id, (
+        SELECT z.id FROM zones z WHERE z.event_id = ${eventId} AND ST_Covers(z.geom, s.location)
+        ORDER BY ST_Area(z.geom), z.id LIMIT 1
+      ) AS zone_id
+      FROM sightings s WHERE s.event_id = ${eventId}
+    )
+    UPDATE sightings s SET zone_id = t.zone_id FROM target t
+    WHERE t.id = s.id AND s.zone_id IS DISTINCT FROM t.zone_id`);
+  const sessions = await tx.execute(sql`
+    WITH sz AS (${sessionZonesSql(eventId, { completeOnly: false })})
+    UPDATE count_sessions c SET zone_id = sz.zone_id FROM sz
+    WHERE sz.id = c.id AND c.zone_id IS DISTINCT FROM sz.zone_id`);
+  return { sightings: moved.rowCount ?? 0, sessions: sessions.rowCount ?? 0 };
+}
 
 export async function uploadAreaAndZones(
   eventId: string,
@@ -134,7 +160,8 @@ export async function uploadAreaAndZones(
     // Only zones without records get here (checked above, inside this transaction).
     for (const z of current)
       if (!incoming.has(z.name.toLowerCase())) await tx.execute(sql`DELETE FROM zones WHERE id = ${z.id}`);
-    return { problems, saved: true, summary };
+    const moved = await reassignZones(tx, eventId);
+    return { problems, saved: true, summary, moved };
   });
 }
 

@@ -1,5 +1,5 @@
 import { api, ApiClientError } from "@/lib/http/client";
-import type { SyncAck, SyncResponse } from "@/lib/sync/acks";
+import type { SyncResponse } from "@/lib/sync/acks";
 import type { MineResponse, MySighting } from "@/lib/sync/mine";
 import { sightingRecord } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";

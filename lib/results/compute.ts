@@ -1,14 +1,22 @@
 // Results of an event from its aggregates (counts per taxon per zone, presence per
 // complete count session). Pure: no database, no framework, so a report can be
 // re-computed from its recorded inputs anywhere and give the same numbers.
+// Records → units → numbers (README "Statistics"): taxon ranks resolved per block
+// (ranks.ts), complete sessions are units even when empty, counts that are not of
+// individuals get incidence-based estimates only, and a block below the sufficiency
+// thresholds (settings.ts) is "too few records", without estimates.
 import {
-  compareZones,
   diversityResults,
   ENGINE_VERSION,
   type AbundanceStats,
   type CurvePoint,
   type IncidenceStats,
 } from "@/lib/diversity/index";
+import { curvePoint } from "@/lib/diversity/curves";
+import { sizeForCoverage } from "@/lib/diversity/compare";
+import { bootstrapAtCoverage, differenceInterval, profileOf, type Sample } from "./compare";
+import { resolveRanks, type RankStatus } from "./ranks";
+import { COMPARISON_BOOTSTRAP, countUnitOf, SUFFICIENCY, type CountUnit } from "./settings";
 import type { Sensitivity } from "@/lib/domain";
 
 export const NO_ZONE = "00000000-0000-0000-0000-000000000000";
@@ -21,6 +29,16 @@ export type ResultsTaxon = {
   group: string;
   sensitivity: Sensitivity;
   names: Record<string, string>;
+  /** What this taxon's counts mean in the event (settings.ts); individuals when absent. */
+  countUnit?: CountUnit;
+};
+
+/** Sightings not (yet) in the results: waiting for review, or returned to their recorder. */
+export type Pending = {
+  pending: number;
+  returned: number;
+  pendingInCompleteSessions: number;
+  returnedInCompleteSessions: number;
 };
 
 export type ResultsInput = {
@@ -28,12 +46,33 @@ export type ResultsInput = {
   taxa: ResultsTaxon[];
   /** Individuals per taxon (index into `taxa`) per zone (NO_ZONE: outside every zone). */
   counts: { zoneId: string; taxon: number; individuals: number }[];
-  /** Complete count sessions (sampling units): zone and the taxa (indices) detected. */
+  /** Complete count sessions (sampling units): zone and the taxa (indices) detected; empty lists count. */
   sessions: { zoneId: string; taxa: number[] }[];
+  /** Declared at the time of reading, not computed: carried through to the results. */
+  pending?: Pending;
 };
 
+/** Why a block has no estimates of one kind. */
+export type Reason = "countUnits" | "individuals" | "coverage" | "sessions" | "incidenceCoverage";
+
 export type Block = {
-  abundance: AbundanceStats;
+  /** Taxa counted under the rank rule. */
+  observed: number;
+  /** Every approved individual, including those of records left out of richness. */
+  individuals: number;
+  /** Records identified above species left out of richness (a species under them is recorded here). */
+  leftOut: { taxa: number; individuals: number };
+  /** Subspecies, varieties and forms folded into their species. */
+  folded: number;
+  completeSessions: number;
+  /** Count units other than individuals among the counted taxa (their presence blocks abundance estimates). */
+  countUnits: CountUnit[];
+  /** No estimate of either kind: "too few records". */
+  tooFew: boolean;
+  reasons: Reason[];
+  /** Abundance-based estimates: only for counts of individuals, with enough individuals and coverage. */
+  abundance: AbundanceStats | null;
+  /** Incidence-based estimates: only with enough complete sessions and incidence coverage. */
   incidence: IncidenceStats | null;
   rarefaction: CurvePoint[];
   accumulation: CurvePoint[];
@@ -43,38 +82,118 @@ export type ZoneResult = { id: string; name: string; habitat: string } & Block;
 
 export type AtEffort = { richness: number; lower: number; upper: number; size: number; kind: CurvePoint["kind"] };
 
-export type ComparisonSentence = { a: string; b: string; verdict: "more" | "fewer" | "similar"; overlap: boolean };
+export type ComparisonSentence = {
+  a: string;
+  b: string;
+  verdict: "more" | "fewer" | "noClearDifference";
+  /** Richness of a minus b at the common coverage, with its bootstrap 95% interval. */
+  difference: number;
+  lower: number;
+  upper: number;
+};
 
 export type Comparison = {
+  /** Abundance (individuals) when every count of the event is of individuals, else incidence (complete sessions). */
+  kind: "abundance" | "incidence";
+  /** Common sample size (individuals or sessions): the smallest compared zone's sample. */
   size: number;
+  /** Common coverage: the lowest coverage a compared zone reaches at twice its sample. */
   coverage: number;
+  replicates: number;
+  seed: number;
   zones: { id: string; name: string; habitat: string; atSize: AtEffort; atCoverage: AtEffort }[];
+  leftOut: { id: string; name: string; habitat: string; reasons: Reason[] }[];
   sentences: ComparisonSentence[];
 };
 
-export type SpeciesRow = ResultsTaxon & { individuals: number; byZone: Record<string, number> };
+export type SpeciesRow = ResultsTaxon & {
+  individuals: number;
+  byZone: Record<string, number>;
+  rankStatus: RankStatus;
+  countUnit: CountUnit;
+};
 
 export type Results = {
   engineVersion: string;
-  totals: { individuals: number; species: number; completeSessions: number };
+  rules: { sufficiency: typeof SUFFICIENCY; comparison: typeof COMPARISON_BOOTSTRAP };
+  totals: { individuals: number; species: number; completeSessions: number; leftOutIndividuals: number };
+  pending: Pending | null;
   event: Block;
   zones: ZoneResult[];
   comparison: Comparison | null;
   species: SpeciesRow[];
 };
 
-/** The engine's results for one block; each complete session goes in as its list of taxa (presence). */
-function block(counts: number[], sessionTaxa: number[][]): Block {
-  const r = diversityResults({
-    counts,
-    unitLists: sessionTaxa.length ? sessionTaxa : undefined,
-    curvePoints: CURVE_POINTS,
-  });
+type Prepared = { block: Block; sample: { abundance: number[]; frequencies: number[]; units: number } };
+
+/** One block: ranks resolved on its own records, then the engine on what may be estimated. */
+function block(
+  taxa: readonly ResultsTaxon[],
+  counts: readonly number[],
+  sessionTaxa: readonly (readonly number[])[],
+  status?: RankStatus[],
+): Prepared {
+  const ranks = resolveRanks(taxa, (i) => (counts[i] ?? 0) > 0);
+  if (status) status.push(...ranks.status);
+  const unitCounts = new Array<number>(ranks.units).fill(0);
+  const leftOut = { taxa: 0, individuals: 0 };
+  let individuals = 0;
+  let folded = 0;
+  const units = new Set<CountUnit>();
+  for (let i = 0; i < taxa.length; i++) {
+    const c = counts[i] ?? 0;
+    if (c <= 0) continue;
+    individuals += c;
+    const u = ranks.unitOf[i]!;
+    if (u < 0) {
+      leftOut.taxa++;
+      leftOut.individuals += c;
+      continue;
+    }
+    if (ranks.status[i] === "folded") folded++;
+    unitCounts[u]! += c;
+    const unit = taxa[i]!.countUnit ?? "individuals";
+    if (unit !== "individuals") units.add(unit);
+  }
+  const lists = sessionTaxa.map((list) =>
+    [...new Set(list.map((i) => ranks.unitOf[i]!).filter((u) => u >= 0))].sort((a, b) => a - b),
+  );
+  const frequencies = new Array<number>(ranks.units).fill(0);
+  for (const l of lists) for (const u of l) frequencies[u]!++;
+  const T = lists.length;
+
+  const reasons: Reason[] = [];
+  const countUnits = [...units].sort();
+  if (countUnits.length) reasons.push("countUnits");
+  if (individuals - leftOut.individuals < SUFFICIENCY.minIndividuals) reasons.push("individuals");
+  if (T < SUFFICIENCY.minCompleteSessions) reasons.push("sessions");
+  const r = diversityResults({ counts: unitCounts, unitLists: T ? lists : undefined, curvePoints: CURVE_POINTS });
+  if (
+    !reasons.includes("countUnits") &&
+    !reasons.includes("individuals") &&
+    r.abundance.coverage < SUFFICIENCY.minCoverage
+  )
+    reasons.push("coverage");
+  if (!reasons.includes("sessions") && r.incidence && r.incidence.coverage < SUFFICIENCY.minCoverage)
+    reasons.push("incidenceCoverage");
+  const abundanceOk = !reasons.some((x) => x === "countUnits" || x === "individuals" || x === "coverage");
+  const incidenceOk = r.incidence !== null && !reasons.some((x) => x === "sessions" || x === "incidenceCoverage");
   return {
-    abundance: r.abundance,
-    incidence: r.incidence,
-    rarefaction: r.rarefactionCurve,
-    accumulation: r.accumulationCurve,
+    block: {
+      observed: ranks.units,
+      individuals,
+      leftOut,
+      folded,
+      completeSessions: T,
+      countUnits,
+      tooFew: !abundanceOk && !incidenceOk,
+      reasons,
+      abundance: abundanceOk ? r.abundance : null,
+      incidence: incidenceOk ? r.incidence : null,
+      rarefaction: abundanceOk ? r.rarefactionCurve : [],
+      accumulation: incidenceOk ? r.accumulationCurve : [],
+    },
+    sample: { abundance: unitCounts, frequencies, units: T },
   };
 }
 
@@ -86,29 +205,77 @@ const atEffort = (p: CurvePoint): AtEffort => ({
   kind: p.kind,
 });
 
-/** Plain-language comparisons: each edge zone against each interior zone, at equal coverage. */
-function sentences(zones: Comparison["zones"]): ComparisonSentence[] {
+/** Pairs to put in words: each edge zone against each interior zone, else the richest against the poorest. */
+function pairs(zones: Comparison["zones"]): [Comparison["zones"][number], Comparison["zones"][number]][] {
   const edges = zones.filter((z) => z.habitat === "edge");
   const interiors = zones.filter((z) => z.habitat === "interior");
-  const pairs: [Comparison["zones"][number], Comparison["zones"][number]][] = [];
-  if (edges.length && interiors.length) for (const e of edges) for (const i of interiors) pairs.push([e, i]);
+  const out: [Comparison["zones"][number], Comparison["zones"][number]][] = [];
+  if (edges.length && interiors.length) for (const e of edges) for (const i of interiors) out.push([e, i]);
   else if (zones.length >= 2) {
     const sorted = [...zones].sort((x, y) => y.atCoverage.richness - x.atCoverage.richness);
-    pairs.push([sorted[0]!, sorted[sorted.length - 1]!]);
+    out.push([sorted[0]!, sorted[sorted.length - 1]!]);
   }
-  return pairs.map(([a, b]) => {
-    const overlap = a.atCoverage.lower <= b.atCoverage.upper && b.atCoverage.lower <= a.atCoverage.upper;
-    const diff = a.atCoverage.richness - b.atCoverage.richness;
-    const verdict = Math.abs(diff) < 0.5 ? "similar" : diff > 0 ? "more" : "fewer";
-    return { a: a.id, b: b.id, verdict, overlap };
+  return out;
+}
+
+function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepared: Map<string, Prepared>): Comparison {
+  const sampleOf = (id: string): Sample => {
+    const s = prepared.get(id)!.sample;
+    return kind === "abundance" ? { kind, counts: s.abundance } : { kind, frequencies: s.frequencies, units: s.units };
+  };
+  const ok = (b: Block) => (kind === "abundance" ? b.abundance !== null : b.incidence !== null);
+  const compared = zones.filter((z) => ok(prepared.get(z.id)!.block));
+  const leftOut = zones
+    .filter((z) => !ok(prepared.get(z.id)!.block))
+    .map((z) => {
+      const b = prepared.get(z.id)!.block;
+      const mine: Reason[] =
+        kind === "abundance" ? ["countUnits", "individuals", "coverage"] : ["sessions", "incidenceCoverage"];
+      return { ...z, reasons: b.reasons.filter((r) => mine.includes(r)) };
+    });
+  const base = { kind, replicates: COMPARISON_BOOTSTRAP.replicates, seed: COMPARISON_BOOTSTRAP.seed, leftOut };
+  if (compared.length < 2) return { ...base, size: 0, coverage: 0, zones: [], sentences: [] };
+  const profiles = new Map(compared.map((z) => [z.id, profileOf(sampleOf(z.id))]));
+  // Colwell et al. (2012) size-based: the smallest zone's sample, so no zone is extrapolated
+  // by size; Chao & Jost (2012) coverage-based: the lowest coverage any zone reaches at twice its sample.
+  const size = Math.min(...[...profiles.values()].map((p) => p.size));
+  const coverage = Math.min(...[...profiles.values()].map((p) => curvePoint(p, 2 * p.size).coverage));
+  const rows = compared.map((z) => {
+    const p = profiles.get(z.id)!;
+    return {
+      ...z,
+      atSize: atEffort(curvePoint(p, size)),
+      atCoverage: atEffort(curvePoint(p, sizeForCoverage(p, coverage))),
+    };
   });
+  // Each zone is redrawn once (its own seed: the common seed plus its place among the
+  // compared zones) and its replicates serve every pair it is in.
+  const replicates = new Map<string, Float64Array>();
+  const repsOf = (id: string) => {
+    let r = replicates.get(id);
+    if (!r) {
+      const seed = COMPARISON_BOOTSTRAP.seed + compared.findIndex((z) => z.id === id);
+      replicates.set(
+        id,
+        (r = bootstrapAtCoverage(sampleOf(id), coverage, { replicates: COMPARISON_BOOTSTRAP.replicates, seed })),
+      );
+    }
+    return r;
+  };
+  const sentences = pairs(rows).map(([a, b]): ComparisonSentence => {
+    const d = differenceInterval(a.atCoverage.richness, b.atCoverage.richness, repsOf(a.id), repsOf(b.id));
+    const verdict = d.lower > 0 ? "more" : d.upper < 0 ? "fewer" : "noClearDifference";
+    return { a: a.id, b: b.id, verdict, difference: d.difference, lower: d.lower, upper: d.upper };
+  });
+  return { ...base, size, coverage, zones: rows, sentences };
 }
 
 export function computeResults(input: ResultsInput): Results {
-  const width = input.taxa.length;
+  const taxa = input.taxa.map((t) => ({ ...t, countUnit: t.countUnit ?? countUnitOf(t.group) }));
+  const width = taxa.length;
   const total = new Array<number>(width).fill(0);
   const perZone = new Map<string, number[]>(input.zones.map((z) => [z.id, new Array<number>(width).fill(0)]));
-  const byZone: Record<string, number>[] = input.taxa.map(() => ({}));
+  const byZone: Record<string, number>[] = taxa.map(() => ({}));
   for (const c of input.counts) {
     total[c.taxon] = (total[c.taxon] ?? 0) + c.individuals;
     const z = perZone.get(c.zoneId);
@@ -116,52 +283,49 @@ export function computeResults(input: ResultsInput): Results {
     const row = byZone[c.taxon]!;
     row[c.zoneId] = (row[c.zoneId] ?? 0) + c.individuals;
   }
+  const status: RankStatus[] = [];
   const event = block(
+    taxa,
     total,
     input.sessions.map((s) => s.taxa),
+    status,
   );
-  const zones: ZoneResult[] = input.zones.map((z) => ({
-    ...z,
-    ...block(
-      perZone.get(z.id)!,
-      input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
-    ),
-  }));
+  const prepared = new Map(
+    input.zones.map((z) => [
+      z.id,
+      block(
+        taxa,
+        perZone.get(z.id)!,
+        input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
+      ),
+    ]),
+  );
+  const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...prepared.get(z.id)!.block }));
+  const kind = event.block.countUnits.length === 0 ? "abundance" : "incidence";
+  const comparison = input.zones.length >= 2 ? compare(kind, input.zones, prepared) : null;
 
-  let comparison: Comparison | null = null;
-  const sampled = input.zones.filter((z) => perZone.get(z.id)!.some((v) => v > 0));
-  if (sampled.length >= 2) {
-    // Chao & Jost (2012) coverage-based and Colwell et al. (2012) size-based comparison;
-    // the common size is the smallest zone's sample, so no zone is extrapolated by size.
-    const size = Math.min(...sampled.map((z) => perZone.get(z.id)!.reduce((a, b) => a + b, 0)));
-    const c = compareZones({
-      kind: "abundance",
-      zones: Object.fromEntries(sampled.map((z) => [z.id, perZone.get(z.id)!])),
-      size,
-    });
-    const rows = sampled.map((z) => ({
-      id: z.id,
-      name: z.name,
-      habitat: z.habitat,
-      atSize: atEffort(c.zones[z.id]!.atSize),
-      atCoverage: atEffort(c.zones[z.id]!.atCoverage),
-    }));
-    comparison = { size: c.size, coverage: c.coverage, zones: rows, sentences: sentences(rows) };
-  }
-
-  const species: SpeciesRow[] = input.taxa
-    .map((t, i) => ({ ...t, individuals: total[i] ?? 0, byZone: byZone[i]! }))
+  const species: SpeciesRow[] = taxa
+    .map((t, i) => ({
+      ...t,
+      countUnit: t.countUnit,
+      individuals: total[i] ?? 0,
+      byZone: byZone[i]!,
+      rankStatus: status[i]!,
+    }))
     .filter((s) => s.individuals > 0)
     .sort((a, b) => b.individuals - a.individuals || a.scientificName.localeCompare(b.scientificName));
 
   return {
     engineVersion: ENGINE_VERSION,
+    rules: { sufficiency: SUFFICIENCY, comparison: COMPARISON_BOOTSTRAP },
     totals: {
-      individuals: event.abundance.individuals,
-      species: event.abundance.observed,
+      individuals: event.block.individuals,
+      species: event.block.observed,
       completeSessions: input.sessions.length,
+      leftOutIndividuals: event.block.leftOut.individuals,
     },
-    event,
+    pending: input.pending ?? null,
+    event: event.block,
     zones,
     comparison,
     species,

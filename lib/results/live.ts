@@ -1,60 +1,75 @@
-// The live board's completeness figures and "where to look next", from the per-zone
-// counts alone (no curves, no bootstrap), so the board can poll cheaply.
-import { abundanceStats } from "@/lib/diversity/index";
-import type { ResultsInput } from "./compute";
+// The live board's completeness figures and "where to look next", read off the same
+// Results as the results page (one Chao1 everywhere: the Chao-group form, abundance
+// `chao1Classic`; Chao2 when the event's counts are not of individuals).
+import type { Block, Reason, Results } from "./compute";
 
-export type ZoneLead = {
-  id: string;
-  name: string;
-  habitat: string;
+export type Richness = { estimator: "chao1" | "chao2"; estimate: number; lower: number; upper: number };
+
+export type BlockLead = {
   observed: number;
-  chao1: number;
-  undetected: number;
-  coverage: number;
-  coverageDeficit: number;
   individuals: number;
+  completeSessions: number;
+  tooFew: boolean;
+  reasons: Reason[];
+  /** Estimated richness, the same number the results table prints; null when too few records. */
+  richness: Richness | null;
+  /** Completeness: observed ÷ estimated richness (a share of species). */
+  completeness: number | null;
+  /** Sample coverage (share of individuals, or of incidences, belonging to detected species). */
+  coverage: number | null;
+  coverageKind: "sample" | "incidence" | null;
+  undetected: number | null;
 };
 
-export type Completeness = ReturnType<typeof completeness>;
+export type ZoneLead = { id: string; name: string; habitat: string } & BlockLead;
 
-export function completeness(input: ResultsInput) {
-  const width = input.taxa.length;
-  const total = new Array<number>(width).fill(0);
-  const per = new Map(input.zones.map((z) => [z.id, new Array<number>(width).fill(0)]));
-  for (const c of input.counts) {
-    total[c.taxon] = (total[c.taxon] ?? 0) + c.individuals;
-    const z = per.get(c.zoneId);
-    if (z) z[c.taxon] = (z[c.taxon] ?? 0) + c.individuals;
+export function blockLead(b: Block): BlockLead {
+  const base = {
+    observed: b.observed,
+    individuals: b.individuals,
+    completeSessions: b.completeSessions,
+    tooFew: b.tooFew,
+    reasons: b.reasons,
+  };
+  let richness: Richness | null = null;
+  let coverage: number | null = null;
+  let coverageKind: BlockLead["coverageKind"] = null;
+  if (b.abundance) {
+    const c = b.abundance.chao1Classic;
+    richness = { estimator: "chao1", estimate: c.estimate, lower: c.lower, upper: c.upper };
+    coverage = b.abundance.coverage;
+    coverageKind = "sample";
+  } else if (b.incidence) {
+    const c = b.incidence.chao2;
+    richness = { estimator: "chao2", estimate: c.estimate, lower: c.lower, upper: c.upper };
+    coverage = b.incidence.coverage;
+    coverageKind = "incidence";
   }
-  const opts = { replicates: 0 };
-  const ev = abundanceStats(total, opts);
-  const zones: ZoneLead[] = input.zones.map((z) => {
-    const s = abundanceStats(per.get(z.id)!, opts);
-    const chao1 = s.chao1Classic.estimate;
-    return {
-      ...z,
-      observed: s.observed,
-      chao1,
-      undetected: Math.max(0, chao1 - s.observed),
-      coverage: s.coverage,
-      coverageDeficit: 1 - s.coverage,
-      individuals: s.individuals,
-    };
-  });
-  // Unsampled zones first, then the largest coverage deficit, then the most undetected species.
-  zones.sort(
-    (a, b) =>
-      (a.individuals === 0 ? -1 : 0) - (b.individuals === 0 ? -1 : 0) ||
-      b.coverageDeficit - a.coverageDeficit ||
-      b.undetected - a.undetected,
-  );
   return {
-    observed: ev.observed,
-    chao1: ev.chao1Classic.estimate,
-    chao1Lower: ev.chao1Classic.lower,
-    chao1Upper: ev.chao1Classic.upper,
-    share: ev.chao1Classic.estimate > 0 ? ev.observed / ev.chao1Classic.estimate : 0,
-    coverage: ev.coverage,
-    zones,
+    ...base,
+    richness,
+    coverage,
+    coverageKind,
+    completeness: richness && richness.estimate > 0 ? b.observed / richness.estimate : null,
+    undetected: richness ? Math.max(0, richness.estimate - b.observed) : null,
   };
 }
+
+/**
+ * Where to look next: blocks with too few records first (unsampled zones first among
+ * them), then the largest coverage deficit, then the most undetected species.
+ */
+export function completeness(results: Results) {
+  const zones: ZoneLead[] = results.zones.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat, ...blockLead(z) }));
+  zones.sort(
+    (a, b) =>
+      Number(b.tooFew) - Number(a.tooFew) ||
+      Number(b.individuals === 0) - Number(a.individuals === 0) ||
+      1 - (b.coverage ?? 0) - (1 - (a.coverage ?? 0)) ||
+      (b.undetected ?? 0) - (a.undetected ?? 0) ||
+      a.name.localeCompare(b.name),
+  );
+  return { event: blockLead(results.event), zones, pending: results.pending };
+}
+
+export type LiveCompleteness = ReturnType<typeof completeness>;

@@ -7,8 +7,14 @@ import { NO_ZONE, type ResultsInput, type ResultsTaxon } from "./compute";
  * One approved sighting as results use it:
  * [sighting id, review state, taxon id, count, zone (NO_ZONE if none),
  *  complete count session id or null, that session's zone (NO_ZONE if none) or null].
+ * Every complete count session is also one record of its own, so that a session with
+ * nothing approved in it still counts as a sampling unit:
+ * [session id, "session", "", 0, session's zone, session id, session's zone].
  */
 export type InputRecord = [string, string, string, number, string, string | null, string | null];
+
+export const SESSION_RECORD = "session";
+export const isSessionRecord = (r: InputRecord) => r[1] === SESSION_RECORD;
 
 /** sha256 over the records sorted by sighting id, one JSON array per line. */
 export function inputHash(records: readonly InputRecord[]): string {
@@ -27,7 +33,7 @@ export function inputFromRecords(
   zones: ResultsInput["zones"],
   taxaById: ReadonlyMap<string, ResultsTaxon>,
 ): ResultsInput {
-  const ids = [...new Set(records.map((r) => r[2]))].sort();
+  const ids = [...new Set(records.filter((r) => !isSessionRecord(r)).map((r) => r[2]))].sort();
   const index = new Map(ids.map((id, i) => [id, i]));
   const taxa = ids.map((id) => {
     const t = taxaById.get(id);
@@ -36,7 +42,12 @@ export function inputFromRecords(
   });
   const counts = new Map<string, { zoneId: string; taxon: number; individuals: number }>();
   const sessions = new Map<string, { zoneId: string; taxa: Set<number> }>();
-  for (const [, , taxonId, count, zoneKey, sessionId, sessionZone] of records) {
+  for (const [, state, taxonId, count, zoneKey, sessionId, sessionZone] of records) {
+    if (state === SESSION_RECORD) {
+      if (sessionId && !sessions.has(sessionId))
+        sessions.set(sessionId, { zoneId: sessionZone ?? NO_ZONE, taxa: new Set<number>() });
+      continue;
+    }
     const taxon = index.get(taxonId)!;
     const key = `${zoneKey}|${taxon}`;
     const c = counts.get(key) ?? { zoneId: zoneKey, taxon, individuals: 0 };
@@ -74,10 +85,13 @@ export type ReportChanges = {
 /** What a new version changes against the previous one, record by record. */
 export function diffRecords(
   previousVersion: number,
-  before: readonly InputRecord[],
-  after: readonly InputRecord[],
+  beforeAll: readonly InputRecord[],
+  afterAll: readonly InputRecord[],
   nameOf: (taxonId: string) => string,
 ): ReportChanges {
+  // Sightings only: complete sessions are inputs too, but "records" here means sightings.
+  const before = beforeAll.filter((r) => !isSessionRecord(r));
+  const after = afterAll.filter((r) => !isSessionRecord(r));
   const old = new Map(before.map((r) => [r[0], r]));
   const now = new Map(after.map((r) => [r[0], r]));
   let added = 0;

@@ -42,11 +42,13 @@ describe("lib/results", () => {
   it("computes the event, each zone and an edge-against-interior sentence from the records", () => {
     const r = computeResults(inputFromRecords(records(), zones, meta));
     expect(r.totals.species).toBe(13); // 12 edge taxa + the one outside every zone
-    expect(r.zones.find((z) => z.id === "z-edge")!.abundance.observed).toBe(12);
-    expect(r.zones.find((z) => z.id === "z-int")!.abundance.observed).toBe(3);
+    expect(r.zones.find((z) => z.id === "z-edge")!.observed).toBe(12);
+    expect(r.zones.find((z) => z.id === "z-int")!.observed).toBe(3);
     expect(r.totals.completeSessions).toBe(8);
-    expect(r.comparison!.size).toBe(Math.min(...r.zones.map((z) => z.abundance.individuals)));
+    expect(r.comparison!.size).toBe(Math.min(...r.zones.map((z) => z.individuals)));
+    expect(r.comparison!.kind).toBe("abundance");
     expect(r.comparison!.sentences).toEqual([expect.objectContaining({ a: "z-edge", b: "z-int", verdict: "more" })]);
+    expect(r.comparison!.sentences[0]!.lower).toBeGreaterThan(0);
     expect(r.species[0]!.individuals).toBeGreaterThanOrEqual(r.species.at(-1)!.individuals);
   });
 

@@ -3,6 +3,7 @@
 // Geometry is GeoJSON as RFC 7946 wants it: [longitude, latitude], WGS 84.
 import type { EventStatus, Habitat, Sensitivity, TaxonGroup, TaxonRank } from "@/lib/domain";
 import type { ArealGeometry, ZoneFeature as ArealZoneFeature } from "@/lib/geo/areal";
+import type { CountUnit } from "@/lib/results/settings";
 
 export type { ArealGeometry } from "@/lib/geo/areal";
 /** A zone as the pack carries it: the shared areal feature, always with its description. */
@@ -34,6 +35,8 @@ export type EventPack = {
     accuracyLimitM: number;
     photoRules: { requiredForSensitive: boolean; requiredOffList: boolean };
     area: ArealGeometry | null;
+    /** What a count means for each taxon group in this event (lib/results/settings.ts), for the field log to show beside the count. */
+    countUnits: Record<string, CountUnit>;
   };
   zones: ZoneCollection;
   species: PackSpecies[];

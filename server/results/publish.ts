@@ -1,12 +1,19 @@
 import "server-only";
 import { enqueueMail, type OutboxMail } from "@/db/queries/mail-queue";
 import { inReportTransaction, insertReport, latestReportInputs, reportRecipients } from "@/db/queries/reports";
-import { eventZones, loadInputRecords, taxaMeta } from "@/db/queries/results";
+import { eventZones, loadInputRecords, pendingCounts, taxaMeta } from "@/db/queries/results";
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
-import { canonicalJson, computeResults } from "@/lib/results/compute";
+import { canonicalJson, computeResults, type Pending } from "@/lib/results/compute";
 import { METHOD_NOTES } from "@/lib/results/methods";
 import { diffRecords, inputFromRecords, inputHash, type ReportChanges } from "@/lib/results/records";
+
+/** Publishing while sightings wait for review needs `confirmPending` (the number is in the report). */
+export class PendingRecordsError extends Error {
+  constructor(readonly pending: Pending) {
+    super("pending records");
+  }
+}
 
 /**
  * Freezes the event's current results into the next report version, in one transaction
@@ -14,12 +21,18 @@ import { diffRecords, inputFromRecords, inputHash, type ReportChanges } from "@/
  * exactly those inputs, what changed since the previous version, and the participants'
  * e-mails queued with the report (so a report is never published without its mails).
  */
-export async function publishReport(eventId: string, userId: string): Promise<{ id: string; version: number }> {
+export async function publishReport(
+  eventId: string,
+  userId: string,
+  options: { confirmPending?: boolean } = {},
+): Promise<{ id: string; version: number }> {
   return inReportTransaction(eventId, async (tx) => {
+    const pending = await pendingCounts(eventId, tx);
+    if (pending.pending + pending.returned > 0 && !options.confirmPending) throw new PendingRecordsError(pending);
     const records = await loadInputRecords(eventId, tx);
     const zones = await eventZones(eventId, tx);
-    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx);
-    const results = computeResults(inputFromRecords(records, zones, meta));
+    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
+    const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
     const prev = await latestReportInputs(eventId, tx);
     const version = (prev?.version ?? 0) + 1;
     let changes: ReportChanges | Record<string, never> = {};

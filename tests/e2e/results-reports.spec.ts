@@ -55,6 +55,12 @@ const resultsDigest = (version: number) =>
 
 async function publish(page: Page, expected: number) {
   await page.getByRole("button", { name: "Publish a new version" }).click();
+  // The demo always has sightings waiting for review: the button asks first, with their number.
+  const ask = page.getByRole("alertdialog", { name: "Publish with records pending" });
+  await expect(ask).toContainText(/\d+ sightings are still pending review and \d+ are returned\. Publish anyway\?/, {
+    timeout: 20_000,
+  });
+  await ask.getByRole("button", { name: "Publish with records pending" }).click();
   // Publishing re-computes from every input record and refreshes the page: allow for a loaded machine.
   await expect(page.getByRole("status").filter({ hasText: `Version ${expected} published.` })).toBeVisible({
     timeout: 20_000,
@@ -79,16 +85,27 @@ test("organiser publishes results; the public reads the Spanish report and downl
   ]) {
     await expect(page.getByRole("figure", { name })).toBeVisible();
   }
+  // The demo counts fungi as presence only (the default), so the event gets session-based
+  // estimates only and the individual-based curve says why instead of drawing.
   const rarefaction = page.getByRole("figure", { name: "Individual-based rarefaction and extrapolation" });
-  await expect(rarefaction.locator("path.recharts-curve[stroke-dasharray]").first()).toBeAttached();
-  await expect(rarefaction.getByText("observed", { exact: true })).toBeVisible();
-  // The zone comparison, with its sentence and the caution beside it.
-  await expect(page.getByRole("heading", { name: "Zones at equal effort" })).toBeVisible();
-  await expect(page.getByTestId("comparison-sentences").getByRole("listitem").first()).toContainText(
-    /At equal effort, .+ \(edge\) held .+ \(interior\)/,
+  await expect(rarefaction).toContainText("counts of presence only are not counts of individuals");
+  const accumulation = page.getByRole("figure", { name: "Sample-based accumulation (Mao Tau) and extrapolation" });
+  await expect(accumulation.locator("path.recharts-curve[stroke-dasharray]").first()).toBeAttached();
+  await expect(accumulation.getByText("observed", { exact: true })).toBeVisible();
+  // Pending records are stated; the rules are printed.
+  await expect(page.getByRole("complementary", { name: "Not yet in these numbers" })).toContainText(
+    /\d+ sightings are still pending review/,
   );
+  await expect(page.getByTestId("rules")).toContainText("Subspecies fold into their species");
+  // The zone comparison names its standard; its sentence says "more"/"fewer" only on a bootstrap interval excluding 0.
+  await expect(page.getByRole("heading", { name: "Zones at equal effort" })).toBeVisible();
+  await expect(page.getByText(/Standard: equal coverage of [\d.]+%/)).toBeVisible();
+  await expect(page.getByTestId("comparison-sentences").getByRole("listitem").first()).toContainText(
+    /At equal coverage \([\d.]+%\), (.+ held (more|fewer) species than .+95% bootstrap interval of the difference|no clear difference between .+ includes 0)/,
+  );
+  await expect(page.getByTestId("comparison-left-out")).toContainText("too few records");
   await expect(page.getByRole("complementary", { name: "Reading these estimates" }).first()).toBeVisible();
-  await expect(page.getByRole("row", { name: /Chao1/ }).first()).toBeVisible();
+  await expect(page.getByRole("row", { name: /Chao2/ }).first()).toContainText("log-normal interval");
 
   const v1 = (await latestVersion()) + 1;
   await publish(page, v1);
@@ -169,8 +186,13 @@ test("the live board shows the backlog, completeness and where to look next, pol
   await expect(board).toBeVisible();
   await expect(board.getByRole("region", { name: "Review backlog" })).toContainText(/Pending: \d+/);
   await expect(board.getByRole("region", { name: "Completeness so far" })).toContainText(
-    /of about [\d.,]+ species \(Chao1/,
+    /of about [\d.,]+ species \(Chao[12], log-normal 95% interval/,
   );
+  await expect(board.getByRole("region", { name: "Completeness so far" })).toContainText(
+    "Completeness is the share of species found",
+  );
+  // Zones with too few records head "where to look next".
+  await expect(page.getByTestId("where-next").getByRole("listitem").first()).toContainText("too few records");
   await expect(page.getByTestId("where-next").getByRole("listitem")).toHaveCount(4);
   const before = await board.getByRole("region", { name: "Review backlog" }).textContent();
   const pendingBefore = Number(/Pending: (\d+)/.exec(before ?? "")![1]);

@@ -289,6 +289,20 @@ export const ROUTES: RouteCase[] = [
     allowed: COORDINATORS,
   },
   {
+    file: "app/api/events/[eventId]/count-units/route.ts",
+    method: "GET",
+    path: (i) => `/api/events/${i.eventId}/count-units`,
+    allowed: COORDINATORS,
+  },
+  {
+    file: "app/api/events/[eventId]/count-units/route.ts",
+    method: "PUT",
+    path: (i) => `/api/events/${i.eventId}/count-units`,
+    body: () => ({ group: "other", unit: "individuals" }),
+    allowed: ORGANISERS,
+    note: "sets the default again: results unchanged",
+  },
+  {
     file: "app/api/events/[eventId]/reports/route.ts",
     method: "GET",
     path: (i) => `/api/events/${i.eventId}/reports`,
@@ -299,7 +313,7 @@ export const ROUTES: RouteCase[] = [
     method: "POST",
     path: (i) => `/api/events/${i.eventId}/reports`,
     allowed: ORGANISERS,
-    note: "publishes a new report version",
+    note: "publishes a new report version (409 while sightings are pending, without confirmPending)",
   },
   {
     file: "app/api/events/[eventId]/reports/[version]/check/route.ts",

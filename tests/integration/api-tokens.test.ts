@@ -281,7 +281,7 @@ describe("read-only API tokens", () => {
         await call(reportsGet, `/api/v1/events/${f.event.id}/reports`, secrets.event!, { eventId: f.event.id })
       ).json(),
     ).toEqual({ reports: [] });
-    await publishReport(f.event.id, f.user.id);
+    await publishReport(f.event.id, f.user.id, { confirmPending: true });
     const list = await (
       await call(reportsGet, `/api/v1/events/${f.event.id}/reports`, secrets.event!, { eventId: f.event.id })
     ).json();

@@ -111,8 +111,8 @@ describe("results aggregates (migration 0007 triggers)", () => {
     const fromAggregates = computeResults(await loadResultsInput(eventId));
     const records = await loadInputRecords(eventId);
     const input = await loadResultsInput(eventId);
-    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))]);
-    const fromRecords = computeResults(inputFromRecords(records, input.zones, meta));
+    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], db(), eventId);
+    const fromRecords = computeResults({ ...inputFromRecords(records, input.zones, meta), pending: input.pending });
     expect(canonicalJson(fromAggregates)).toBe(canonicalJson(fromRecords));
     expect(fromAggregates.totals.species).toBeGreaterThan(20);
     expect(fromAggregates.comparison?.sentences.length).toBeGreaterThan(0);
@@ -161,7 +161,7 @@ describe("current results cache", () => {
 
 describe("reports", () => {
   it("publish numbered versions that the database refuses to change, list what changed, and re-compute to the same numbers", async () => {
-    const v1 = await publishReport(eventId, organiserId);
+    const v1 = await publishReport(eventId, organiserId, { confirmPending: true });
     const r1 = await getReport(eventId, v1.version, { withInputs: true });
     expect(r1!.inputHash).toBe(inputHash(r1!.inputRecords));
 
@@ -188,7 +188,7 @@ describe("reports", () => {
     await db()
       .insert(s.reviews)
       .values({ sightingId: pending!.id, reviewerId: organiserId, fromState: "pending", toState: "approved" });
-    const v2 = await publishReport(eventId, organiserId);
+    const v2 = await publishReport(eventId, organiserId, { confirmPending: true });
     expect(v2.version).toBe(v1.version + 1);
     const r2 = await getReport(eventId, v2.version);
     expect(r2!.changes).toMatchObject({ previousVersion: v1.version, added: 1, removed: 0, changed: 0 });
@@ -206,7 +206,7 @@ describe("reports", () => {
   });
 
   it("Darwin Core Archive: meta.xml names occurrence.txt's columns in order and every row has the required terms", async () => {
-    const v = await publishReport(eventId, organiserId);
+    const v = await publishReport(eventId, organiserId, { confirmPending: true });
     const report = (await getReport(eventId, v.version, { withInputs: true }))!;
     const { rows, withheld } = publicOccurrences(report.results, await reportOccurrences(report), "en");
     const zip = unzipSync(
@@ -244,7 +244,7 @@ describe("reports", () => {
   });
 
   it("no public output holds the exact coordinates of a sensitive taxon", async () => {
-    const v = await publishReport(eventId, organiserId);
+    const v = await publishReport(eventId, organiserId, { confirmPending: true });
     const report = (await getReport(eventId, v.version, { withInputs: true }))!;
     const occurrences = await reportOccurrences(report);
     expect(occurrences.filter((o) => o.sensitivity !== "open").length).toBe(SENSITIVE_DEMO_RECORDS.length);

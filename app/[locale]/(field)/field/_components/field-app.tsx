@@ -26,9 +26,9 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
 
   useEffect(() => {
     void registerServiceWorker(locale);
-    setOnline(navigator.onLine);
     openFieldDb().then(
       async (d) => {
+        setOnline(navigator.onLine);
         setDb(d);
         const fromUrl = new URLSearchParams(window.location.search).get("event");
         const last = (await d.get("meta", LAST_EVENT)) as string | undefined;

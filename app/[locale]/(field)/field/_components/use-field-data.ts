@@ -17,22 +17,36 @@ export type FieldData = {
 
 const empty: FieldData = { sessions: [], sightings: [], photos: [], pack: null, mine: null, loaded: false };
 
+async function readEvent(db: FieldDatabase, eventId: string): Promise<FieldData> {
+  const [records, pack, mine] = await Promise.all([
+    eventRecords(db, eventId),
+    db.get("packs", eventId),
+    db.get("mine", eventId),
+  ]);
+  return { ...records, pack: pack ?? null, mine: mine ?? null, loaded: true };
+}
+
 /** Everything the device holds for one event, reloaded whenever a tab or the service worker changes it. */
 export function useFieldData(db: FieldDatabase | null, eventId: string | null) {
-  const [data, setData] = useState<FieldData>(empty);
+  // Loaded data remembers the event it belongs to: another event shows nothing until its own is read.
+  const [held, setHeld] = useState<{ eventId: string | null; data: FieldData }>({ eventId: null, data: empty });
   const reload = useCallback(async () => {
     if (!db || !eventId) return;
-    const [records, pack, mine] = await Promise.all([
-      eventRecords(db, eventId),
-      db.get("packs", eventId),
-      db.get("mine", eventId),
-    ]);
-    setData({ ...records, pack: pack ?? null, mine: mine ?? null, loaded: true });
+    setHeld({ eventId, data: await readEvent(db, eventId) });
   }, [db, eventId]);
   useEffect(() => {
-    setData(empty);
-    void reload();
-    return onChange(() => void reload());
-  }, [reload]);
-  return { data, reload };
+    if (!db || !eventId) return;
+    let live = true;
+    const load = () =>
+      void readEvent(db, eventId).then((data) => {
+        if (live) setHeld({ eventId, data });
+      });
+    load();
+    const off = onChange(load);
+    return () => {
+      live = false;
+      off();
+    };
+  }, [db, eventId]);
+  return { data: held.eventId === eventId ? held.data : empty, reload };
 }

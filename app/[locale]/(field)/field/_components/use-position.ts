@@ -8,12 +8,9 @@ export type PositionState = { fix: Position | null; error: "denied" | "unavailab
 /** The phone's position while the field log is open (Geolocation API, high accuracy). */
 export function usePosition(active: boolean, onFix?: (p: Position) => void): PositionState {
   const [state, setState] = useState<PositionState>({ fix: null, error: null });
+  const unsupported = active && typeof navigator !== "undefined" && !("geolocation" in navigator);
   useEffect(() => {
-    if (!active) return;
-    if (!("geolocation" in navigator)) {
-      setState({ fix: null, error: "unsupported" });
-      return;
-    }
+    if (!active || !("geolocation" in navigator)) return;
     const id = navigator.geolocation.watchPosition(
       (p) => {
         const fix = {
@@ -31,5 +28,5 @@ export function usePosition(active: boolean, onFix?: (p: Position) => void): Pos
     return () => navigator.geolocation.clearWatch(id);
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [active]);
-  return state;
+  return unsupported ? { fix: null, error: "unsupported" } : state;
 }

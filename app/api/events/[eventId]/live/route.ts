@@ -1,8 +1,9 @@
-import { liveFigures, loadResultsInput } from "@/db/queries/results";
+import { liveFigures } from "@/db/queries/results";
 import { requireEventRole } from "@/server/auth/guard";
 import { handle } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
 import { completeness } from "@/lib/results/live";
+import { currentResults } from "@/server/results/current";
 
 export const dynamic = "force-dynamic";
 
@@ -12,9 +13,11 @@ type Ctx = { params: Promise<{ eventId: string }> };
 export const GET = handle(async (_request, { params }: Ctx) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
   await requireEventRole(eventId, "coordinator");
-  const [figures, input] = await Promise.all([liveFigures(eventId), loadResultsInput(eventId, { sessions: false })]);
+  // The same Results as the results page (cached per change), so the board's Chao1 and
+  // coverage are the results table's numbers.
+  const [figures, { results }] = await Promise.all([liveFigures(eventId), currentResults(eventId)]);
   return Response.json(
-    { ...figures, completeness: completeness(input), at: new Date().toISOString() },
+    { ...figures, completeness: completeness(results), at: new Date().toISOString() },
     { headers: { "Cache-Control": "no-store" } },
   );
 });

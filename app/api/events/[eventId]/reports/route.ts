@@ -1,9 +1,11 @@
+import { z } from "zod";
 import { listReports } from "@/db/queries/reports";
 import { requireEventRole } from "@/server/auth/guard";
-import { handle } from "@/lib/http/errors";
+import { apiTranslator, handle, requestLocale } from "@/lib/http/errors";
+import { parseJson } from "@/lib/http/body";
 import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
-import { publishReport } from "@/server/results/publish";
+import { PendingRecordsError, publishReport } from "@/server/results/publish";
 
 export const dynamic = "force-dynamic";
 
@@ -16,11 +18,33 @@ export const GET = handle(async (_request, { params }: Ctx) => {
   return Response.json({ reports: await listReports(eventId) }, { headers: { "Cache-Control": "no-store" } });
 });
 
-/** "Publish": freezes the current results into the next report version (organisers). */
-export const POST = handle(async (_request, { params }: Ctx) => {
+const PublishBody = z.object({ confirmPending: z.boolean().optional() }).strict();
+
+/**
+ * "Publish": freezes the current results into the next report version (organisers).
+ * With sightings still pending or returned, it refuses (409, with their numbers) unless
+ * the body says `{ "confirmPending": true }`; the report then states the numbers.
+ */
+export const POST = handle(async (request, { params }: Ctx) => {
   const { eventId } = await parseParams(params, { eventId: pathId });
   const { user } = await requireEventRole(eventId, "organiser");
+  const hasBody =
+    request.headers.get("content-length") !== "0" && request.headers.get("content-type")?.includes("json");
+  const body = hasBody ? await parseJson(request, PublishBody) : {};
   limitWrites(`publish:${user.id}`, 10, 60_000);
-  const report = await publishReport(eventId, user.id);
-  return Response.json(report, { status: 201 });
+  try {
+    const report = await publishReport(eventId, user.id, { confirmPending: body.confirmPending === true });
+    return Response.json(report, { status: 201 });
+  } catch (err) {
+    if (!(err instanceof PendingRecordsError)) throw err;
+    const t = apiTranslator(requestLocale(request));
+    const { pending, returned } = err.pending;
+    return Response.json(
+      {
+        error: { code: "conflict", message: t("pendingRecords", { pending, returned }), fields: [] },
+        pending: err.pending,
+      },
+      { status: 409, headers: { "Cache-Control": "no-store" } },
+    );
+  }
 });

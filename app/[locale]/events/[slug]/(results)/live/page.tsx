@@ -4,12 +4,14 @@ import { getPublicEventBySlug } from "@/db/queries/events";
 import { requirePageEventRole } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
 import { LiveBoard, type LiveLabels } from "./_components/live-board";
+import { SUFFICIENCY } from "@/lib/results/settings";
 
 export const dynamic = "force-dynamic";
 
 type Props = { params: Promise<{ locale: Locale; slug: string }> };
 
-const KEYS: (keyof LiveLabels)[] = [
+type Plain = Exclude<keyof LiveLabels, `reason.${string}`>;
+const KEYS: Plain[] = [
   "perHour",
   "volunteers",
   "lastHour",
@@ -28,6 +30,12 @@ const KEYS: (keyof LiveLabels)[] = [
   "updated",
   "hour",
   "sightings",
+  "completenessNote",
+  "coverageSample",
+  "coverageIncidence",
+  "tooFew",
+  "eventTooFew",
+  "pendingLine",
 ];
 
 export default async function LivePage({ params }: Props) {
@@ -39,8 +47,17 @@ export default async function LivePage({ params }: Props) {
   const t = await getTranslations("Results");
   if (!permit) return <p role="alert">{t("notAllowed")}</p>;
   // Placeholders stay as {name} for the client to fill.
-  const raw = (k: keyof LiveLabels) => t.raw(`live.${k}`) as string;
-  const labels = Object.fromEntries(KEYS.map((k) => [k, raw(k)])) as LiveLabels;
+  const raw = (k: Plain) => t.raw(`live.${k}`) as string;
+  const reasons = {
+    "reason.countUnits": t("tooFew.reasons.countUnits", {
+      units: [t("unit.stems"), t("unit.clumps"), t("unit.colonies"), t("unit.presence")].join(", "),
+    }),
+    "reason.individuals": t("tooFew.reasons.individuals", { min: SUFFICIENCY.minIndividuals }),
+    "reason.coverage": t("tooFew.reasons.coverage", { min: SUFFICIENCY.minCoverage }),
+    "reason.sessions": t("tooFew.reasons.sessions", { min: SUFFICIENCY.minCompleteSessions }),
+    "reason.incidenceCoverage": t("tooFew.reasons.incidenceCoverage", { min: SUFFICIENCY.minCoverage }),
+  };
+  const labels = { ...Object.fromEntries(KEYS.map((k) => [k, raw(k)])), ...reasons } as LiveLabels;
   return (
     <article className="space-y-6">
       <h1 className="text-3xl font-bold text-reed-900">{t("live.title", { event: event.name })}</h1>

@@ -10,6 +10,9 @@ import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { currentResults } from "@/server/results/current";
 import { PublishButton } from "./_components/publish-button";
+import { CountUnitsForm } from "./_components/count-units-form";
+import { eventCountUnits } from "@/db/queries/results";
+import { COUNT_UNITS, DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/settings";
 
 export const dynamic = "force-dynamic";
 
@@ -30,12 +33,20 @@ export default async function ResultsPage({ params }: Props) {
   const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/results`);
   const t = await getTranslations("Results");
   if (!permit) return <p role="alert">{t("notAllowed")}</p>;
-  const [format, { results }, reports] = await Promise.all([
+  const [format, { results }, reports, chosenUnits, tGroup] = await Promise.all([
     getFormatter(),
     currentResults(event.id),
     listReports(event.id),
+    eventCountUnits(event.id),
+    getTranslations("TaxonGroup"),
   ]);
   const canPublish = permit.role === "organiser" || permit.role === "admin";
+  const groups = Object.keys(DEFAULT_COUNT_UNITS);
+  const unitRows = groups.map((group) => ({
+    group,
+    unit: countUnitOf(group, chosenUnits),
+    chosen: group in chosenUnits,
+  }));
   return (
     <article className="space-y-8">
       <header className="space-y-2">
@@ -56,6 +67,24 @@ export default async function ResultsPage({ params }: Props) {
       <EstimateCaution />
       <ResultsBody results={results} showSensitivity />
 
+      {canPublish ? (
+        <CountUnitsForm
+          eventId={event.id}
+          rows={unitRows}
+          groups={Object.fromEntries(groups.map((g) => [g, tGroup(g as Parameters<typeof tGroup>[0])]))}
+          units={Object.fromEntries(COUNT_UNITS.map((u) => [u, t(`unit.${u}`)]))}
+          labels={{
+            title: t("countUnits.title"),
+            intro: t("countUnits.intro"),
+            group: t("countUnits.group"),
+            unit: t("countUnits.unit"),
+            saved: t("countUnits.saved"),
+            failed: t("countUnits.failed"),
+            default: t("countUnits.default"),
+          }}
+        />
+      ) : null}
+
       <section aria-labelledby="reports-title" className="space-y-3">
         <h2 id="reports-title" className="text-2xl font-bold text-reed-900">
           {t("reports.title")}
@@ -68,6 +97,9 @@ export default async function ResultsPage({ params }: Props) {
             busyLabel={t("reports.publishing")}
             doneLabel={t("reports.published", { version: "{version}" })}
             failedLabel={t("reports.failed")}
+            confirmPending={t("reports.confirmPending", { pending: "{pending}", returned: "{returned}" })}
+            confirm={t("reports.confirm")}
+            cancel={t("reports.cancel")}
           />
         ) : null}
         {reports.length === 0 ? (

@@ -27,5 +27,5 @@ export const PUT = handle<Ctx>(async (request, { params }) => {
   if (parsed.problems.length || !parsed.area) return reportResponse(geoReport(parsed.problems, locale), locale);
   const result = await uploadAreaAndZones(eventId, parsed.area, parsed.zones, save);
   if (result.problems.length) return reportResponse(geoReport(result.problems, locale), locale, result.summary);
-  return Response.json({ ok: true, saved: result.saved, summary: result.summary, report: [] });
+  return Response.json({ ok: true, saved: result.saved, summary: result.summary, moved: result.moved, report: [] });
 });

@@ -9,6 +9,8 @@ import { EstimateCaution } from "@/components/results/zone-comparison";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import type { ReportChanges } from "@/lib/results/records";
+import { blockLead } from "@/lib/results/live";
+import { HILL_BOOTSTRAP_REPLICATES } from "@/lib/diversity/index";
 
 // Public by design: anyone may read a published report, without signing in.
 export const dynamic = "force-dynamic";
@@ -49,7 +51,10 @@ export default async function ReportPage({ params, searchParams }: Props) {
     wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
   ]);
   const r = report.results;
-  const a = r.event.abundance;
+  // The same estimate the results page and the live board show (lib/results/live.ts).
+  const lead = blockLead(r.event);
+  const q1 = r.event.abundance?.hill.q1 ?? null;
+  const tResults = await getTranslations("Results");
   const n = (v: number, d = 1) => (Number.isFinite(v) ? format.number(v, { maximumFractionDigits: d }) : "–");
   const changes = report.changes as ReportChanges;
   const files = [
@@ -112,27 +117,47 @@ export default async function ReportPage({ params, searchParams }: Props) {
           <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
             <dt>{t("headline.observed")}</dt>
             <dd className="text-2xl font-bold" data-testid="headline-observed">
-              {a.observed}
+              {r.event.observed}
             </dd>
           </div>
-          <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
-            <dt>{t("headline.chao1")}</dt>
-            <dd className="text-2xl font-bold">{n(a.chao1.estimate)}</dd>
-            <dd className="text-sm">{t("headline.interval", { lower: n(a.chao1.lower), upper: n(a.chao1.upper) })}</dd>
-          </div>
-          <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
-            <dt>{t("headline.coverage")}</dt>
-            <dd className="text-2xl font-bold">
-              {format.number(a.coverage, { style: "percent", maximumFractionDigits: 1 })}
-            </dd>
-          </div>
-          <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
-            <dt>{t("headline.hill1")}</dt>
-            <dd className="text-2xl font-bold">{n(a.hill.q1.estimate)}</dd>
-            <dd className="text-sm">
-              {t("headline.interval", { lower: n(a.hill.q1.lower), upper: n(a.hill.q1.upper) })}
-            </dd>
-          </div>
+          {lead.richness ? (
+            <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
+              <dt>{t("headline.estimate", { estimator: lead.richness.estimator === "chao1" ? "Chao1" : "Chao2" })}</dt>
+              <dd className="text-2xl font-bold">{n(lead.richness.estimate)}</dd>
+              <dd className="text-sm">
+                {t("headline.intervalNamed", {
+                  method: tResults("interval.logNormal"),
+                  lower: n(lead.richness.lower),
+                  upper: n(lead.richness.upper),
+                })}
+              </dd>
+            </div>
+          ) : (
+            <div className="rounded-lg border-2 border-signal bg-signal-soft p-3">
+              <dt>{t("headline.tooFew")}</dt>
+            </div>
+          )}
+          {lead.coverage !== null ? (
+            <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
+              <dt>{t(lead.coverageKind === "incidence" ? "headline.coverageIncidence" : "headline.coverageSample")}</dt>
+              <dd className="text-2xl font-bold">
+                {format.number(lead.coverage, { style: "percent", maximumFractionDigits: 1 })}
+              </dd>
+            </div>
+          ) : null}
+          {q1 ? (
+            <div className="rounded-lg border border-reed-200 bg-white/70 p-3">
+              <dt>{t("headline.hill1")}</dt>
+              <dd className="text-2xl font-bold">{n(q1.estimate)}</dd>
+              <dd className="text-sm">
+                {t("headline.intervalNamed", {
+                  method: tResults("interval.bootstrap", { replicates: HILL_BOOTSTRAP_REPLICATES }),
+                  lower: n(q1.lower),
+                  upper: n(q1.upper),
+                })}
+              </dd>
+            </div>
+          ) : null}
         </dl>
       </section>
 
@@ -175,6 +200,11 @@ export default async function ReportPage({ params, searchParams }: Props) {
           ))}
         </ul>
         <p className="text-sm">{t("methods.engine", { engine: report.engineVersion })}</p>
+        {r.rules ? (
+          <p className="text-sm">
+            {t("headline.seed", { replicates: r.rules.comparison.replicates, seed: r.rules.comparison.seed })}
+          </p>
+        ) : null}
         <p className="break-all font-mono text-xs">
           {t("methods.hash", { hash: report.inputHash, records: report.inputCount })}
         </p>

@@ -3,12 +3,12 @@
 import useSWR from "swr";
 import { ReviewStateMark } from "@/components/state-mark";
 import type { LiveFigures } from "@/db/queries/results";
-import type { Completeness } from "@/lib/results/live";
 import { fetcher } from "@/lib/http/client";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import type { BlockLead, LiveCompleteness } from "@/lib/results/live";
 
 // The live handler's answer (app/api/events/[eventId]/live), dates as JSON strings.
-type Live = LiveFigures & { completeness: Completeness; at: string };
+type Live = LiveFigures & { completeness: LiveCompleteness; at: string };
 
 export type LiveLabels = Record<
   | "perHour"
@@ -28,7 +28,18 @@ export type LiveLabels = Record<
   | "failed"
   | "updated"
   | "hour"
-  | "sightings",
+  | "sightings"
+  | "completenessNote"
+  | "coverageSample"
+  | "coverageIncidence"
+  | "tooFew"
+  | "eventTooFew"
+  | "pendingLine"
+  | "reason.countUnits"
+  | "reason.individuals"
+  | "reason.coverage"
+  | "reason.sessions"
+  | "reason.incidenceCoverage",
   string
 >;
 
@@ -43,6 +54,11 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
   if (error) return <p role="alert">{labels.failed}</p>;
   if (!data) return <p role="status">{labels.loading}</p>;
   const c = data.completeness;
+  const ev = c.event;
+  // Reason texts come with their thresholds filled on the server; count units named there too.
+  const why = (b: BlockLead) => b.reasons.map((r) => labels[`reason.${r}`]).join("; ");
+  const coverageLabel = (b: BlockLead) =>
+    b.coverageKind === "incidence" ? labels.coverageIncidence : labels.coverageSample;
   return (
     <div className="space-y-6" data-testid="live-board">
       <p className="text-sm text-ink-soft" role="status">
@@ -73,18 +89,31 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.completeness}>
           <h2 className="font-bold">{labels.completeness}</h2>
-          <p>
-            {fill(labels.share, {
-              observed: c.observed,
-              chao1: num(c.chao1),
-              lower: num(c.chao1Lower),
-              upper: num(c.chao1Upper),
-              share: pct(c.share),
-            })}
-          </p>
-          <p>
-            {labels.coverage}: <b>{pct(c.coverage)}</b>
-          </p>
+          {ev.richness ? (
+            <p>
+              {fill(labels.share, {
+                observed: ev.observed,
+                estimate: num(ev.richness.estimate),
+                estimator: ev.richness.estimator === "chao1" ? "Chao1" : "Chao2",
+                lower: num(ev.richness.lower),
+                upper: num(ev.richness.upper),
+                share: pct(ev.completeness ?? 0),
+              })}
+            </p>
+          ) : (
+            <p>{fill(labels.eventTooFew, { reasons: why(ev) })}</p>
+          )}
+          {ev.coverage !== null ? (
+            <p>
+              {coverageLabel(ev)}: <b>{pct(ev.coverage)}</b>
+            </p>
+          ) : null}
+          <p className="text-sm text-ink-soft">{labels.completenessNote}</p>
+          {c.pending && c.pending.pending + c.pending.returned > 0 ? (
+            <p className="text-sm">
+              {fill(labels.pendingLine, { pending: c.pending.pending, returned: c.pending.returned })}
+            </p>
+          ) : null}
         </section>
       </div>
       <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.perHour}>
@@ -114,11 +143,14 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
               <b>{z.name}</b>:{" "}
               {z.individuals === 0
                 ? labels.unsampled
-                : fill(labels.zoneLine, {
-                    coverage: pct(z.coverage),
-                    undetected: num(z.undetected),
-                    observed: z.observed,
-                  })}
+                : z.tooFew || z.coverage === null
+                  ? fill(labels.tooFew, { reasons: why(z) })
+                  : fill(labels.zoneLine, {
+                      coverageName: coverageLabel(z),
+                      coverage: pct(z.coverage),
+                      undetected: num(z.undetected ?? 0),
+                      observed: z.observed,
+                    })}
             </li>
           ))}
         </ol>

@@ -122,6 +122,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
                   rel="noopener"
                   className="block underline"
                 >
+                  {/* eslint-disable-next-line @next/next/no-img-element -- a redirect to a short-lived signed link; next/image would proxy and cache a private photo */}
                   <img
                     src={`/api/events/${eventId}/photos/${p.id}?size=thumb`}
                     alt={t("photoLine", { type: p.contentType, kb: Math.round(p.sizeBytes / 1024) })}

@@ -1,7 +1,7 @@
 "use client";
 
 import { useLocale, useTranslations } from "next-intl";
-import { useCallback, useEffect, useRef, useState } from "react";
+import { useCallback, useEffect, useEffectEvent, useState } from "react";
 import useSWR from "swr";
 import useSWRInfinite from "swr/infinite";
 import { secondaryButtonClass } from "@/components/ui/field";
@@ -65,12 +65,14 @@ export function ReviewDesk(props: Props) {
   const detailKey = current ? `${base}/sightings/${current.id}` : null;
   const detail = useSWR<DetailResponse>(detailKey, fetcher, { revalidateOnFocus: false });
 
-  // A new filter starts a new list.
-  useEffect(() => {
+  // A new filter starts a new list (state adjusted while rendering, as React advises, not in an effect).
+  const [listQuery, setListQuery] = useState(query);
+  if (listQuery !== query) {
+    setListQuery(query);
     setSelected(-1);
     setMode(null);
     setBulkOpen(false);
-  }, [query]);
+  }
 
   const move = useCallback(
     (by: number) => {
@@ -151,33 +153,32 @@ export function ReviewDesk(props: Props) {
   }, [base, counts?.pending, filters, queue, refusal, t]);
 
   // The keyboard: documented in DESK_KEYS and listed on screen.
-  const latest = useRef({ move, current, decide, busy });
-  latest.current = { move, current, decide, busy };
+  const onKey = useEffectEvent((e: KeyboardEvent) => {
+    if (e.ctrlKey || e.metaKey || e.altKey) return;
+    if (e.key === "Escape") {
+      setMode(null);
+      setBulkOpen(false);
+      return;
+    }
+    const target = e.target as HTMLElement | null;
+    if (target?.closest("input, textarea, select, [contenteditable='true']")) return;
+    const [go, item, send, working] = [move, current, decide, busy];
+    const key = e.key;
+    if (key === DESK_KEYS.next) go(1);
+    else if (key === DESK_KEYS.previous) go(-1);
+    else if (key === DESK_KEYS.help) setShowKeys((v) => !v);
+    else if (key === DESK_KEYS.bulk) setBulkOpen(true);
+    else if (item && !working && key === DESK_KEYS.approve) void send(item, { action: "approve" });
+    else if (item && key === DESK_KEYS.reject) setMode("reject");
+    else if (item && key === DESK_KEYS.returnWithQuestion) setMode("return");
+    else if (item && key === DESK_KEYS.reidentify) setMode("reidentify");
+    else return;
+    e.preventDefault();
+  });
   useEffect(() => {
-    const onKey = (e: KeyboardEvent) => {
-      if (e.ctrlKey || e.metaKey || e.altKey) return;
-      if (e.key === "Escape") {
-        setMode(null);
-        setBulkOpen(false);
-        return;
-      }
-      const target = e.target as HTMLElement | null;
-      if (target?.closest("input, textarea, select, [contenteditable='true']")) return;
-      const { move: go, current: item, decide: send, busy: working } = latest.current;
-      const key = e.key;
-      if (key === DESK_KEYS.next) go(1);
-      else if (key === DESK_KEYS.previous) go(-1);
-      else if (key === DESK_KEYS.help) setShowKeys((v) => !v);
-      else if (key === DESK_KEYS.bulk) setBulkOpen(true);
-      else if (item && !working && key === DESK_KEYS.approve) void send(item, { action: "approve" });
-      else if (item && key === DESK_KEYS.reject) setMode("reject");
-      else if (item && key === DESK_KEYS.returnWithQuestion) setMode("return");
-      else if (item && key === DESK_KEYS.reidentify) setMode("reidentify");
-      else return;
-      e.preventDefault();
-    };
-    window.addEventListener("keydown", onKey);
-    return () => window.removeEventListener("keydown", onKey);
+    const listener = (e: KeyboardEvent) => onKey(e);
+    window.addEventListener("keydown", listener);
+    return () => window.removeEventListener("keydown", listener);
   }, []);
 
   const when = (v: string) =>

@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useFormatter, useTranslations } from "next-intl";
 import { useEffect, useState } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import useSWR from "swr";
 import { inviteInput, type InviteInput } from "@/app/api/events/[eventId]/setup/members/schema";
 import {
@@ -70,7 +70,7 @@ function InviteForm({ eventId, locale, onDone }: { eventId: string; locale: stri
     resolver: zodResolver(inviteInput),
     defaultValues: { email: "", name: "", role: "volunteer", taxonGroups: [], locale: locale as InviteInput["locale"] },
   });
-  const role = form.watch("role");
+  const role = useWatch({ control: form.control, name: "role" });
   // Group limits belong to coordinators only: leaving that role clears them.
   useEffect(() => {
     if (role !== "coordinator") form.setValue("taxonGroups", []);
@@ -174,7 +174,7 @@ function MemberRow({ eventId, member, onDone }: { eventId: string; member: Membe
     resolver: zodResolver(roleChangeInput),
     defaultValues: { role: member.role, taxonGroups: member.taxonGroups },
   });
-  const role = form.watch("role");
+  const role = useWatch({ control: form.control, name: "role" });
   useEffect(() => {
     if (role !== "coordinator") form.setValue("taxonGroups", []);
   }, [role, form]);

@@ -29,7 +29,7 @@ type Props<C, S, A extends UploadAnswer<S>> = {
   /** What to show of a checked file's answer beyond its summary (the species list's notices). */
   checkedNote?: (answer: A) => ReactNode;
   preview?: (file: { name: string; content: C | null }, report: ReportLine[]) => ReactNode;
-  onSaved: () => void;
+  onSaved: (saved: A) => void;
 };
 
 export function UploadPanel<C, S extends Record<string, number>, A extends UploadAnswer<S> = UploadAnswer<S>>(
@@ -85,7 +85,7 @@ export function UploadPanel<C, S extends Record<string, number>, A extends Uploa
     setDone(saved.summary);
     setFile(null);
     setAnswer(null);
-    props.onSaved();
+    props.onSaved(saved);
   }
 
   const report = answer?.report ?? [];

@@ -1,11 +1,12 @@
 "use client";
 
 import { useTranslations } from "next-intl";
+import { useState } from "react";
 import useSWR from "swr";
 import { fetcher } from "@/lib/http/client";
 import type { ReportLine } from "@/server/setup/upload-report";
 import { PolygonPreview, type PreviewZone } from "./polygon-preview";
-import { UploadPanel } from "./upload-panel";
+import { UploadPanel, type UploadAnswer } from "./upload-panel";
 import { HABITATS } from "@/lib/domain";
 
 type Geometry = { type: string; coordinates: unknown } | null;
@@ -14,6 +15,9 @@ type Stored = {
   zones: { id: string; name: string; habitat: string; areaHa: number; records: number; geometry: Geometry }[];
 };
 type Summary = { zones: number; added: number; updated: number; removed: number };
+type Moved = { sightings: number; sessions: number };
+/** A saved upload also says how many existing records moved to the new zones. */
+type Saved = UploadAnswer<Summary> & { moved?: Moved };
 
 function fileShapes(json: unknown, report: ReportLine[]): { area: Geometry; zones: PreviewZone[] } {
   const features = (json as { features?: unknown })?.features;
@@ -40,6 +44,7 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
   const tHabitat = useTranslations("Habitat");
   const url = `/api/events/${eventId}/setup/zones`;
   const { data, mutate } = useSWR<Stored>(url, fetcher);
+  const [moved, setMoved] = useState<Moved | null>(null);
 
   // Not JSON at all: said at once, without a call.
   const read = (text: string): { content: unknown } | { problem: ReportLine } => {
@@ -52,13 +57,16 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
 
   return (
     <div className="space-y-6">
-      <UploadPanel<unknown, Summary>
+      <UploadPanel<unknown, Summary, Saved>
         kind="zones"
         url={url}
         accept=".geojson,.json,application/geo+json,application/json"
         read={read}
         body={(geojson, save) => ({ geojson, save })}
-        onSaved={() => void mutate()}
+        onSaved={(saved) => {
+          setMoved(saved.moved ?? null);
+          void mutate();
+        }}
         format={
           <ul className="ml-5 list-disc space-y-1 pt-2">
             <li>{t("formatArea")}</li>
@@ -75,6 +83,11 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
           );
         }}
       />
+      {moved ? (
+        <p role="status" className="font-semibold text-reed-700">
+          {t("moved", moved)}
+        </p>
+      ) : null}
 
       <section aria-labelledby="zones-current-title" className="space-y-3">
         <h2 id="zones-current-title" className="text-2xl font-bold text-reed-900">

@@ -1,0 +1,57 @@
+import { describe, expect, it } from "vitest";
+import { sizeForCoverage } from "@/lib/diversity/compare";
+import { computeResults, type ResultsTaxon } from "./compute";
+import { differenceAtCoverage, profileOf, sizeAtCoverage } from "./compare";
+
+describe("comparison at equal coverage", () => {
+  it("finds the same size for a coverage as the engine's bisection", () => {
+    const samples = [
+      [1, 1, 1, 2, 2, 3, 5, 8, 13, 40],
+      [50, 20, 10, 5, 3, 2, 1, 1, 1, 1, 1, 1],
+      Array.from({ length: 120 }, (_, i) => 1 + ((i * 7919) % 37)),
+    ];
+    for (const counts of samples) {
+      const p = profileOf({ kind: "abundance", counts });
+      for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995])
+        expect(sizeAtCoverage(p, c), `${c}`).toBe(sizeForCoverage(p, c));
+    }
+  });
+
+  it("gives the same interval for the same seed and a real difference a sign", () => {
+    const rich = { kind: "abundance" as const, counts: Array.from({ length: 40 }, (_, i) => 1 + (i % 5)) };
+    const poor = { kind: "abundance" as const, counts: [30, 25, 20, 10, 5, 2, 1] };
+    const d = differenceAtCoverage(rich, poor, 0.8, { replicates: 200, seed: 5 });
+    expect(d).toEqual(differenceAtCoverage(rich, poor, 0.8, { replicates: 200, seed: 5 }));
+    expect(d.lower).toBeGreaterThan(0);
+  });
+
+  it("compares on complete sessions when counts are not of individuals, and says 'more' only on an interval above 0", () => {
+    const taxa: ResultsTaxon[] = Array.from({ length: 40 }, (_, i) => ({
+      id: `p${i}`,
+      scientificName: `Planta s${i}`,
+      rank: "species",
+      group: "vascular_plants",
+      sensitivity: "open",
+      names: {},
+      countUnit: "clumps",
+    }));
+    const zones = [
+      { id: "e", name: "Edge", habitat: "edge" },
+      { id: "i", name: "Inside", habitat: "interior" },
+    ];
+    // Hand-made: the edge's 12 sessions each hold 8 of 40 species in rotation; the interior's hold the same 3.
+    const sessions = [
+      ...Array.from({ length: 12 }, (_, u) => ({
+        zoneId: "e",
+        taxa: Array.from({ length: 8 }, (_, k) => (u * 3 + k) % 40),
+      })),
+      ...Array.from({ length: 12 }, () => ({ zoneId: "i", taxa: [0, 1, 2] })),
+    ];
+    const counts = sessions.flatMap((s) => s.taxa.map((t) => ({ zoneId: s.zoneId, taxon: t, individuals: 2 })));
+    const r = computeResults({ zones, taxa, counts, sessions });
+    expect(r.comparison!.kind).toBe("incidence");
+    expect(r.event.abundance).toBeNull();
+    expect(r.comparison!.sentences[0]).toMatchObject({ a: "e", b: "i", verdict: "more" });
+    expect(r.comparison!.sentences[0]!.lower).toBeGreaterThan(0);
+  });
+});
