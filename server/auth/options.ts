@@ -55,7 +55,7 @@ export function authOptions(askedLocale?: ReturnType<typeof toLocale>): NextAuth
       signOut: "/account",
       verifyRequest: "/sign-in/check-email",
       error: "/sign-in",
-      newUser: "/account",
+      // No newUser page: a first sign-in (an invitation) goes straight to its callbackUrl.
     },
     logger: {
       error(code, meta) {

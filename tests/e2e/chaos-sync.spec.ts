@@ -357,7 +357,11 @@ test("100 devices sync 5,000 sightings through dropped connections and a server 
     const ctx = await prepareEvent(pg);
     const devices = await Promise.all(
       ctx.users.map(async (u, n) => {
-        const token = await encode({ token: { sub: u.id, email: u.email, name: `Device ${n + 1}` }, secret: SECRET });
+        // sv: the person's session version (users.session_version, 0 for a new person): a token without it counts as ended.
+        const token = await encode({
+          token: { sub: u.id, email: u.email, name: `Device ${n + 1}`, sv: 0 },
+          secret: SECRET,
+        });
         return makeDevice(n + 1, `next-auth.session-token=${token}`, ctx);
       }),
     );

@@ -156,7 +156,8 @@ test("a malformed id in any path (36 dashes, loose hex) is a structured 404, nev
   const malformed = ["-".repeat(36), "0000000g-0000-4000-8000-000000000000", `${ids.eventId}x`, "0".repeat(36)];
   const problems: string[] = [];
   let tried = 0;
-  for (const route of ROUTES.filter((r) => /\[\w+Id\]/.test(r.file))) {
+  // Methods a route never accepts answer 405 whatever the path (the token API's writes).
+  for (const route of ROUTES.filter((r) => /\[\w+Id\]/.test(r.file) && r.status !== 405)) {
     const good = route.path(ids);
     const variants = new Set<string>();
     for (const bad of malformed) {

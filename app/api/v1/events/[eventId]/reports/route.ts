@@ -12,10 +12,9 @@ type Ctx = { params: Promise<{ eventId: string }> };
 
 /** The event's published reports, newest first (who published is not shown). */
 export const GET = handle(async (request, { params }: Ctx) => {
-  // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
-  const raw = await params;
-  await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId } = await parseParams(Promise.resolve(raw), eventIdParams.shape);
+  // A malformed address is a 404 for everyone (the one path-parameter rule), then the token.
+  const { eventId } = await parseParams(params, eventIdParams.shape);
+  await requireApiToken(request, { eventId });
   const body: ReportsResponse = {
     reports: (await listReports(eventId)).map((r) => ({
       id: r.id,

@@ -11,10 +11,9 @@ type Ctx = { params: Promise<{ eventId: string }> };
 
 /** The event's current results: the same JSON the results page reads (server/results/current.ts). */
 export const GET = handle(async (request, { params }: Ctx) => {
-  // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
-  const raw = await params;
-  await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId } = await parseParams(Promise.resolve(raw), eventIdParams.shape);
+  // A malformed address is a 404 for everyone (the one path-parameter rule), then the token.
+  const { eventId } = await parseParams(params, eventIdParams.shape);
+  await requireApiToken(request, { eventId });
   const { json } = await currentResults(eventId);
   return new Response(json, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
 });

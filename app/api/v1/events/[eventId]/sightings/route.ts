@@ -31,10 +31,9 @@ function decodeCursor(cursor: string): { micros: string; id: string } | null {
  * 0.1° grid, restricted ones left out (and counted in `withheld`).
  */
 export const GET = handle(async (request, { params }: Ctx) => {
-  // The token first: a caller without one hears 401 whatever the address (an unknown or malformed event is a 404 after it).
-  const raw = await params;
-  await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId } = await parseParams(Promise.resolve(raw), eventIdParams.shape);
+  // A malformed address is a 404 for everyone (the one path-parameter rule), then the token.
+  const { eventId } = await parseParams(params, eventIdParams.shape);
+  await requireApiToken(request, { eventId });
   const q = parseQuery(request, sightingsQuery);
   const locale = requestLocale(request);
   const after = q.cursor ? decodeCursor(q.cursor) : undefined;

@@ -11,9 +11,8 @@ type Ctx = { params: Promise<{ eventId: string; version: string }> };
 
 /** One published report: its frozen results, method notes and changes, and its public downloads. */
 export const GET = handle(async (request, { params }: Ctx) => {
-  const raw = await params;
-  await requireApiToken(request, { eventId: raw.eventId });
-  const { eventId, version } = await parseParams(Promise.resolve(raw), reportParams.shape);
+  const { eventId, version } = await parseParams(params, reportParams.shape);
+  await requireApiToken(request, { eventId });
   const report = await publishedReport(eventId, version);
   if (!report) throw new ApiError("not_found");
   const files = `/api/reports/${report.id}`;
