@@ -181,6 +181,8 @@ test("a volunteer joins with the event's join link and the mailed sign-in link",
     v.getByRole("alert").filter({ hasText: "Enter an e-mail address such as name@example.org." }),
   ).toBeVisible();
   await v.getByLabel("E-mail address").fill("walker@example.org");
+  await v.getByLabel("Name to publish (your name or a pseudonym)").fill("Heath Walker");
+  await v.getByRole("checkbox", { name: /I agree that this name is published/ }).check();
   await v.getByRole("button", { name: "Join" }).click();
   await expect(v.getByRole("status")).toContainText("Check your e-mail");
   const message = await mail.waitFor(
