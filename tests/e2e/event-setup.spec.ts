@@ -192,6 +192,7 @@ test("a volunteer joins with the event's join link and the mailed sign-in link",
   await v.goto(MailCatcher.linkIn(message));
   await v.getByRole("main").getByRole("button", { name: "Sign in" }).click(); // the link opens a confirm page (mail scanners)
   await expect(v.getByRole("link", { name: "volunteer in Harrowmere Vale Autumn Fungus Foray" })).toBeVisible();
+  await expect(v.getByText("Your approved sightings are published as “Heath Walker”")).toBeVisible(); // consented at joining
   await visitor.close();
 
   await page.reload();
