@@ -3,6 +3,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { acceptPendingInvitations } from "@/db/queries/auth";
 import { eraseAccount, myData, publishedNameOf, setPublishedName } from "@/db/queries/my-data";
 import { getReport, reportOccurrences } from "@/db/queries/reports";
+import { composeDigests } from "@/db/queries/review-digest";
 import * as s from "@/db/schema";
 import { MY_SIGHTINGS_COLUMNS, mySightingsCsv } from "@/lib/account/my-data-csv";
 import { checkReport } from "@/server/results/check";
@@ -71,15 +72,13 @@ beforeAll(async () => {
       sightingValues(f, { id: ids.pending, count: 2 }),
     ]);
   for (const id of [ids.approved1, ids.approved2]) {
-    await db()
-      .insert(s.reviews)
-      .values({
-        sightingId: id,
-        reviewerId: coordinatorId,
-        fromState: "pending",
-        toState: "returned",
-        message: "Which side of the pond?",
-      });
+    await db().insert(s.reviews).values({
+      sightingId: id,
+      reviewerId: coordinatorId,
+      fromState: "pending",
+      toState: "returned",
+      message: "Which side of the pond?",
+    });
     await db()
       .insert(s.reviews)
       .values({ sightingId: id, reviewerId: coordinatorId, fromState: "returned", toState: "approved" });
@@ -212,6 +211,23 @@ describe("a volunteer's own data", () => {
     const occAfter = await reportOccurrences(after);
     expect(occAfter.map(({ recordedBy: _, ...o }) => o)).toEqual(occBefore.map(({ recordedBy: _, ...o }) => o));
     expect(occAfter.map((o) => o.recordedBy)).toEqual([erased.recorder, erased.recorder]);
+    // A decision on the erased person's pending sighting is recorded, but no digest is mailed to the tombstone.
+    const [late] = await db()
+      .insert(s.reviews)
+      .values({
+        sightingId: ids.pending,
+        reviewerId: coordinatorId,
+        fromState: "pending",
+        toState: "rejected",
+        reason: "r",
+      })
+      .returning();
+    await db().execute(sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${late!.id}, ${f.user.id})`);
+    await composeDigests(0, () => ({ subject: "s", text: "t", html: "h" }));
+    const [mailed] = (
+      await db().execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM email_outbox WHERE to_address = ${u!.email}`)
+    ).rows;
+    expect(mailed!.n).toBe(0);
     // A new version publishes the same numbers too.
     const v2 = await publishReport(f.event.id, coordinatorId);
     expect((await getReport(f.event.id, v2.version))!.results.species).toEqual(before.results.species);
