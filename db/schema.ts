@@ -79,6 +79,12 @@ export const users = pgTable(
     // Raised by sign-out, a password change or erasure: every session token carries the value it
     // was issued with, and one that no longer matches is refused (server/auth/options.ts).
     sessionVersion: integer("session_version").notNull().default(0),
+    // What is published about the person (Darwin Core's recordedBy), never their e-mail, and
+    // when they agreed to it. An erased person keeps only an anonymous recorder name here.
+    publishedName: text("published_name"),
+    publishConsentAt: timestamp("publish_consent_at", { withTimezone: true, mode: "date" }),
+    // Set when the person erased their account: the row stays as a tombstone without personal data.
+    erasedAt: timestamp("erased_at", { withTimezone: true, mode: "date" }),
     createdAt: createdAt(),
   },
   (t) => [

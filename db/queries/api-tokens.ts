@@ -163,6 +163,8 @@ export type ApiSighting = {
   scientificName: string;
   rank: string;
   names: Record<string, string>;
+  /** The name the recorder chose to publish, else an anonymous recorder id; never an e-mail (as the archive). */
+  recordedBy: string;
   /** Last change, in microseconds since 1970 (PostgreSQL's own precision, for the cursor). */
   modifiedMicros: string;
   modifiedAt: Date;
@@ -187,8 +189,9 @@ export async function approvedSightingsPage(
     SELECT s.id, s.observed_at AS "observedAt", ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m::float8 AS "accuracyM",
       s.taxon_id AS "taxonId", s.count, t.sensitivity::text AS sensitivity, t.scientific_name AS "scientificName", t.rank::text AS rank,
       coalesce((SELECT jsonb_object_agg(n.locale, n.name) FROM taxon_names n WHERE n.taxon_id = t.id), '{}'::jsonb) AS names,
-      ((extract(epoch FROM s.updated_at) * 1000000)::bigint)::text AS "modifiedMicros", s.updated_at AS "modifiedAt"
-    FROM sightings s JOIN taxa t ON t.id = s.taxon_id
+      ((extract(epoch FROM s.updated_at) * 1000000)::bigint)::text AS "modifiedMicros", s.updated_at AS "modifiedAt",
+      coalesce(u.published_name, 'recorder-' || left(md5(u.id::text), 8)) AS "recordedBy"
+    FROM sightings s JOIN taxa t ON t.id = s.taxon_id JOIN users u ON u.id = s.user_id
     WHERE s.event_id = ${eventId} AND s.review_state = 'approved' ${since} ${after}
     ORDER BY s.updated_at, s.id
     LIMIT ${options.limit}`);

@@ -208,6 +208,12 @@ export async function acceptPendingInvitations(userId: string, email: string): P
           taxonGroups: inv.taxonGroups,
         });
       }
+      // A self-service join carried the published name the person consented to on the join page.
+      if (selfService && inv.name)
+        await tx
+          .update(users)
+          .set({ publishedName: inv.name, publishConsentAt: inv.createdAt })
+          .where(and(eq(users.id, userId), isNull(users.publishConsentAt), isNull(users.erasedAt)));
       await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, inv.id));
     }
     return open.length;

@@ -132,6 +132,7 @@ export type Occurrence = {
   taxonId: string;
   count: number;
   sensitivity: Sensitivity;
+  recordedBy: string;
 };
 
 /**
@@ -144,9 +145,18 @@ export async function reportOccurrences(report: {
 }): Promise<Occurrence[]> {
   const ids = report.inputRecords.map((r) => r[0]);
   if (!ids.length) return [];
-  const r = await getDb().execute<{ id: string; observedAt: string; lon: number; lat: number; accuracyM: number }>(sql`
-    SELECT s.id, s.observed_at AS "observedAt", ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m::float8 AS "accuracyM"
-    FROM sightings s WHERE s.id = ANY(${sql.raw(`ARRAY[${ids.map((id) => `'${id.replace(/[^0-9a-f-]/gi, "")}'`).join(",")}]::uuid[]`)}) ORDER BY s.id`);
+  // recordedBy: the name the recorder chose to publish, else an anonymous recorder id; never an e-mail.
+  const r = await getDb().execute<{
+    id: string;
+    observedAt: string;
+    lon: number;
+    lat: number;
+    accuracyM: number;
+    recordedBy: string;
+  }>(sql`
+    SELECT s.id, s.observed_at AS "observedAt", ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m::float8 AS "accuracyM",
+      coalesce(u.published_name, 'recorder-' || left(md5(u.id::text), 8)) AS "recordedBy"
+    FROM sightings s JOIN users u ON u.id = s.user_id WHERE s.id = ANY(${sql.raw(`ARRAY[${ids.map((id) => `'${id.replace(/[^0-9a-f-]/gi, "")}'`).join(",")}]::uuid[]`)}) ORDER BY s.id`);
   const rec = new Map(report.inputRecords.map((x) => [x[0], x]));
   const taxa = await taxaMeta([...new Set(report.inputRecords.map((x) => x[2]))]); // session records' "" is skipped
   const recorded = new Map(report.results.species.map((s) => [s.id, s.sensitivity]));

@@ -36,6 +36,7 @@ export async function composeDigests(
   const db = getDb();
   const { rows: due } = await db.execute<{ volunteerId: string }>(sql`
     SELECT volunteer_id AS "volunteerId" FROM review_notices WHERE digest_id IS NULL
+      AND volunteer_id NOT IN (SELECT id FROM users WHERE erased_at IS NOT NULL) -- an erased account gets no mail
     GROUP BY volunteer_id HAVING min(created_at) <= now() - make_interval(secs => ${delaySeconds})`);
   let composed = 0;
   for (const { volunteerId } of due) {

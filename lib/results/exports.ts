@@ -15,6 +15,7 @@ export type PublicOccurrence = {
   taxonId: string;
   count: number;
   sensitivity: Sensitivity;
+  recordedBy: string; // the recorder's chosen published name or an anonymous recorder id, never an e-mail
 };
 
 export const GRID_DEGREES = 0.1;
@@ -30,6 +31,7 @@ export type Located = {
   lat: number;
   uncertaintyM: number;
   generalised: boolean;
+  recordedBy: string;
 };
 
 /** Cell centre and the uncertainty that covers the whole cell (half its diagonal) plus the record's own. */
@@ -74,6 +76,7 @@ export function publicOccurrences(
       lat: g ? g.lat : o.lat,
       uncertaintyM: g ? g.uncertaintyM : o.accuracyM,
       generalised: Boolean(g),
+      recordedBy: o.recordedBy,
     });
   }
   return { rows, withheld };
@@ -157,6 +160,7 @@ export const DWC_TERMS = [
   "identificationVerificationStatus",
   "dataGeneralizations",
   "datasetName",
+  "recordedBy",
 ] as const;
 export const DWC_REQUIRED = [
   "occurrenceID",
@@ -182,6 +186,7 @@ export function dwcRecord(r: Located, datasetName: string): DwcRecord {
   return {
     occurrenceID: `urn:uuid:${r.id}`,
     basisOfRecord: "HumanObservation",
+    recordedBy: r.recordedBy,
     eventDate: r.eventDate,
     scientificName: r.scientificName,
     taxonRank: r.taxonRank,

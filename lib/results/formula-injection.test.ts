@@ -51,14 +51,16 @@ describe("formula injection in the published CSV and TSV files", () => {
         lat: 52.5,
         uncertaintyM: 10,
         generalised: false,
+        recordedBy: payload(c),
       };
       const txt = occurrenceTxt([row], payload(c));
       const fields = txt.split("\n")[1]!.split("\t");
-      expect(fields).toHaveLength(15);
+      expect(fields).toHaveLength(16);
       for (const f of fields) expect(f).not.toMatch(/^[=+@\t\r]|^-(?!\d)/);
       expect(fields[3]).toMatch(/^'/); // scientificName
       expect(fields[5]).toMatch(/^'/); // vernacularName
       expect(fields[14]).toMatch(/^'/); // datasetName
+      expect(fields[15]).toMatch(/^'/); // recordedBy, a name the volunteer chose
       expect(fields[9]).toBe("-1.25"); // decimalLongitude, a number
       expect(fields[6]).toBe("2");
     });
@@ -76,6 +78,7 @@ describe("formula injection in the published CSV and TSV files", () => {
       lat: 52.5,
       uncertaintyM: 10,
       generalised: false,
+      recordedBy: "Sam",
     };
     expect(occurrenceTxt([row], "Count").split("\n")[1]).toContain(
       "\tOrchis mascula\tspecies\tEarly-purple orchid\t1\t",

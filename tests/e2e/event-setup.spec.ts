@@ -181,6 +181,8 @@ test("a volunteer joins with the event's join link and the mailed sign-in link",
     v.getByRole("alert").filter({ hasText: "Enter an e-mail address such as name@example.org." }),
   ).toBeVisible();
   await v.getByLabel("E-mail address").fill("walker@example.org");
+  await v.getByLabel("Name to publish (your name or a pseudonym)").fill("Heath Walker");
+  await v.getByRole("checkbox", { name: /I agree that this name is published/ }).check();
   await v.getByRole("button", { name: "Join" }).click();
   await expect(v.getByRole("status")).toContainText("Check your e-mail");
   const message = await mail.waitFor(
@@ -190,6 +192,7 @@ test("a volunteer joins with the event's join link and the mailed sign-in link",
   await v.goto(MailCatcher.linkIn(message));
   await v.getByRole("main").getByRole("button", { name: "Sign in" }).click(); // the link opens a confirm page (mail scanners)
   await expect(v.getByRole("link", { name: "volunteer in Harrowmere Vale Autumn Fungus Foray" })).toBeVisible();
+  await expect(v.getByText("Your approved sightings are published as “Heath Walker”")).toBeVisible(); // consented at joining
   await visitor.close();
 
   await page.reload();

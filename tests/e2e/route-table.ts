@@ -182,6 +182,27 @@ export const ROUTES: RouteCase[] = [
     body: () => ({ password: "short" }),
     allowed: SIGNED_IN,
   },
+  // A person's own data: only ever the caller's. The erasure body has a wrong confirmation, so no one is erased here.
+  {
+    file: "app/api/account/data/route.ts",
+    method: "GET",
+    path: () => "/api/account/data?format=json",
+    allowed: SIGNED_IN,
+  },
+  {
+    file: "app/api/account/published-name/route.ts",
+    method: "PUT",
+    path: () => "/api/account/published-name",
+    body: () => ({ publishedName: "", consent: true }),
+    allowed: SIGNED_IN,
+  },
+  {
+    file: "app/api/account/route.ts",
+    method: "DELETE",
+    path: () => "/api/account",
+    body: () => ({ confirm: "not-my-address@example.org" }),
+    allowed: SIGNED_IN,
+  },
   // Review desk: coordinators and organisers of the event; the birds coordinator is refused other groups' sightings.
   {
     file: "app/api/events/[eventId]/review/queue/route.ts",
@@ -471,7 +492,7 @@ ROUTES.push(
     file: "app/api/join/route.ts",
     method: "POST",
     path: () => "/api/join",
-    body: (i) => ({ code: i.setupJoinCode, locale: "en" }),
+    body: (i) => ({ code: i.setupJoinCode, locale: "en", publishedName: "Matrix walker", consent: true }),
     allowed: EVERYONE,
     note: "public: a join link; without a session it only mails a sign-in link",
   },

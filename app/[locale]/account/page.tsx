@@ -1,9 +1,11 @@
-import { getTranslations, setRequestLocale } from "next-intl/server";
+import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
 import { rolesOf } from "@/db/queries/auth";
 import { requirePageUser } from "@/server/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { PasswordForm } from "./_components/password-form";
+import { DeleteAccountForm, PublishedNameForm } from "./_components/my-data";
+import { publishedNameOf } from "@/db/queries/my-data";
 
 export const dynamic = "force-dynamic";
 
@@ -11,12 +13,15 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
   const { locale } = await params;
   setRequestLocale(locale);
   const user = await requirePageUser(locale, "/account");
-  const [t, tRole, tGroup, tDesk, roles] = await Promise.all([
+  const [t, tRole, tGroup, tDesk, tMy, format, roles, published] = await Promise.all([
     getTranslations("Account"),
     getTranslations("Role"),
     getTranslations("TaxonGroup"),
     getTranslations("ReviewDesk"),
+    getTranslations("MyData"),
+    getFormatter(),
     rolesOf(user.id),
+    publishedNameOf(user.id),
   ]);
   type Group = Parameters<typeof tGroup>[0];
   return (
@@ -62,6 +67,40 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
         </h2>
         <p>{user.hasPassword ? t("passwordHasOne") : t("passwordNone")}</p>
         <PasswordForm hasPassword={user.hasPassword} />
+      </section>
+      <section aria-labelledby="published-title" className="space-y-2">
+        <h2 id="published-title" className="text-2xl font-bold text-reed-900">
+          {tMy("publishedTitle")}
+        </h2>
+        <p>
+          {published.name && published.consentAt
+            ? tMy("publishedCurrent", {
+                name: published.name,
+                date: format.dateTime(published.consentAt, { dateStyle: "long" }),
+              })
+            : tMy("publishedNone")}
+        </p>
+        <PublishedNameForm current={published.name} />
+      </section>
+      <section aria-labelledby="data-title" className="space-y-2">
+        <h2 id="data-title" className="text-2xl font-bold text-reed-900">
+          {tMy("dataTitle")}
+        </h2>
+        <p>{tMy("dataBody")}</p>
+        <p className="flex flex-wrap gap-3">
+          <a href="/api/account/data?format=json" download className="font-semibold text-reed-800 underline">
+            {tMy("downloadJson")}
+          </a>
+          <a href="/api/account/data?format=csv" download className="font-semibold text-reed-800 underline">
+            {tMy("downloadCsv")}
+          </a>
+        </p>
+      </section>
+      <section aria-labelledby="delete-title" className="space-y-2">
+        <h2 id="delete-title" className="text-2xl font-bold text-reed-900">
+          {tMy("deleteTitle")}
+        </h2>
+        <DeleteAccountForm email={user.email} />
       </section>
     </div>
   );

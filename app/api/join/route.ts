@@ -1,6 +1,7 @@
 import { after } from "next/server";
 import { eventAccess } from "@/db/queries/auth";
 import { eventByJoinCode, inviteToEvent, joinAsVolunteer } from "@/db/queries/setup";
+import { setPublishedName } from "@/db/queries/my-data";
 import { getSessionUser } from "@/server/auth/guard";
 import { createMagicLink } from "@/server/auth/magic-link";
 import { invitationMail } from "@/server/auth/mails";
@@ -34,6 +35,7 @@ export const POST = handle(async (request) => {
       access?.role || access?.isOrganisationOrganiser
         ? "alreadyMember"
         : await joinAsVolunteer(event.id, user.id, user.email);
+    await setPublishedName(user.id, input.publishedName);
     return Response.json({ ok: true, outcome, eventSlug: event.slug, eventName: event.name });
   }
   if (!input.email) throw new ApiError("bad_request", [{ field: "email", message: t("errors.email") }]);
@@ -42,7 +44,9 @@ export const POST = handle(async (request) => {
   await inviteToEvent({
     eventId: event.id,
     email,
-    name: input.name || null,
+    // A self-service join's name is the published name consented to here; it is stored on the
+    // person when they first sign in with this address (acceptPendingInvitations).
+    name: input.publishedName,
     role: "volunteer",
     taxonGroups: [],
     actorId: null,

@@ -2,6 +2,7 @@ import { getTranslations, setRequestLocale } from "next-intl/server";
 import { eventByJoinCode } from "@/db/queries/setup";
 import { SafetyNotice } from "@/components/safety-notice";
 import { getSessionUser } from "@/server/auth/guard";
+import { publishedNameOf } from "@/db/queries/my-data";
 import type { Locale } from "@/lib/i18n/routing";
 import { JoinForm } from "./_components/join-form";
 
@@ -42,6 +43,7 @@ export default async function JoinPage({ params }: { params: Promise<{ locale: L
           locale={locale}
           signedInAs={user?.email ?? null}
           eventSlug={event.slug}
+          publishedName={user ? (await publishedNameOf(user.id)).name : null}
         />
       )}
       <SafetyNotice />

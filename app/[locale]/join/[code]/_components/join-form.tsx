@@ -16,20 +16,28 @@ export function JoinForm({
   locale,
   signedInAs,
   eventSlug,
+  publishedName,
 }: {
   code: string;
   locale: string;
   signedInAs: string | null;
   eventSlug: string;
+  publishedName: string | null;
 }) {
   const t = useTranslations("Join");
   const tErr = useTranslations("Setup.errors");
   const tSetup = useTranslations("Setup");
+  const tMy = useTranslations("MyData");
   const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
   const form = useForm<JoinInput>({
     resolver: zodResolver(joinInput),
-    defaultValues: { code, locale: locale as JoinInput["locale"], ...(signedInAs ? {} : { email: "", name: "" }) },
+    defaultValues: {
+      code,
+      locale: locale as JoinInput["locale"],
+      publishedName: publishedName ?? "",
+      ...(signedInAs ? {} : { email: "" }),
+    },
   });
   const { errors, isSubmitting } = form.formState;
   const submit = form.handleSubmit(async (values) => {
@@ -40,6 +48,7 @@ export function JoinForm({
       if (!(err instanceof ApiClientError)) throw err;
       const field = err.fields[0];
       if (field?.field === "email") form.setError("email", { message: field.message });
+      else if (field?.field === "publishedName") form.setError("publishedName", { message: field.message });
       else setProblem(err.problem || tSetup("genericError"));
     }
   });
@@ -61,6 +70,8 @@ export function JoinForm({
     );
   }
   const emailError = errors.email?.message;
+  const myError = (m: string | undefined) =>
+    m ? (tMy.has(`errors.${m}` as never) ? tMy(`errors.${m}` as never) : m) : undefined;
   return (
     <form
       onSubmit={submit}
@@ -90,11 +101,39 @@ export function JoinForm({
               {...form.register("email")}
             />
           </Field>
-          <Field id="join-name" label={t("name")}>
-            <input id="join-name" autoComplete="name" className={inputClass} {...form.register("name")} />
-          </Field>
         </>
       )}
+      <section aria-labelledby="join-publish-title" className="space-y-2 rounded-lg border border-reed-200 p-3">
+        <h3 id="join-publish-title" className="font-bold text-reed-900">
+          {tMy("publishTitle")}
+        </h3>
+        <p className="text-sm">{tMy("publishStatement")}</p>
+        <Field id="join-published-name" label={tMy("publishedName")} error={myError(errors.publishedName?.message)}>
+          <input
+            id="join-published-name"
+            autoComplete="nickname"
+            maxLength={80}
+            className={inputClass}
+            aria-invalid={Boolean(errors.publishedName)}
+            {...form.register("publishedName")}
+          />
+        </Field>
+        <label className="flex min-h-touch items-start gap-2">
+          <input
+            type="checkbox"
+            className="mt-1 size-5"
+            aria-invalid={Boolean(errors.consent)}
+            aria-describedby={errors.consent ? "join-consent-error" : undefined}
+            {...form.register("consent")}
+          />
+          <span>{tMy("consent")}</span>
+        </label>
+        {errors.consent ? (
+          <p id="join-consent-error" role="alert" className="font-semibold text-signal">
+            ✕ {myError(errors.consent.message)}
+          </p>
+        ) : null}
+      </section>
       {problem ? (
         <p role="alert" className="font-semibold text-signal">
           ✕ {problem}

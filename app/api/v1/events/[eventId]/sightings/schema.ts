@@ -33,6 +33,7 @@ export const dwcOccurrence = z
   .object({
     occurrenceID: text("urn:uuid: of the sighting; stable, so a repeated pull replaces rather than duplicates."),
     basisOfRecord: z.literal("HumanObservation"),
+    recordedBy: text("The name the recorder chose to publish, or an anonymous recorder id; never an e-mail address."),
     eventDate: text("When the sighting was made (ISO 8601, UTC)."),
     scientificName: z.string(),
     taxonRank: z.string(),
