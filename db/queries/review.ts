@@ -450,10 +450,7 @@ export async function bulkApprove(
   });
 }
 
-export type UndoResult =
-  | DecisionResult
-  | { outcome: "unknown_review" }
-  | { outcome: "not_last" };
+export type UndoResult = DecisionResult | { outcome: "unknown_review" } | { outcome: "not_last" };
 
 /**
  * Undoes a decision by appending a new one (reviews is append-only: never an edit of history):
@@ -505,12 +502,19 @@ export async function undoDecision(
       sql`DELETE FROM review_notices WHERE review_id = ${reviewId} AND digest_id IS NULL RETURNING review_id`,
     );
     if (!withdrawn.length)
-      await tx.execute(sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${review[0]!.id}, ${p.userId})`);
+      await tx.execute(
+        sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${review[0]!.id}, ${p.userId})`,
+      );
     await refreshCheckMarks(tx, [sightingId]);
     return {
       outcome: "ok",
       reviewId: review[0]!.id,
-      sighting: { id: sightingId, reviewState: last.fromState, version: updated[0]!.version, taxonId: last.fromTaxonId },
+      sighting: {
+        id: sightingId,
+        reviewState: last.fromState,
+        version: updated[0]!.version,
+        taxonId: last.fromTaxonId,
+      },
     };
   });
 }

@@ -358,10 +358,7 @@ describe("undo and the bulk rule", () => {
     );
     clean.push(...rows.slice(0, 3).map((r) => r.id));
     flagged = rows[3]!.id;
-    const [t] = await db()
-      .insert(s.taxa)
-      .values({ scientificName: "Testus alter", taxonGroup: "birds" })
-      .returning();
+    const [t] = await db().insert(s.taxa).values({ scientificName: "Testus alter", taxonGroup: "birds" }).returning();
     bird2 = t!.id;
   });
   const mine = () => queueFilters.parse({ volunteer: people.volunteer2!, group: "birds" });
@@ -446,7 +443,11 @@ describe("undo and the bulk rule", () => {
     const birder = await scopeOf("birder");
     const undone = await undoDecision(birder, people.birder!, id, (await lastReview(id)).id, v + 1);
     expect(undone).toMatchObject({ outcome: "ok", sighting: { reviewState: "pending", taxonId: f.taxon.id } });
-    expect(await lastReview(id)).toMatchObject({ reviewerId: people.birder, toState: "pending", toTaxonId: f.taxon.id });
+    expect(await lastReview(id)).toMatchObject({
+      reviewerId: people.birder,
+      toState: "pending",
+      toTaxonId: f.taxon.id,
+    });
     // A coordinator of another event cannot undo anything here.
     expect(
       await undoDecision(

@@ -12,6 +12,14 @@ export const decisionInput = z.discriminatedUnion("action", [
   z.object({ action: z.literal("reject"), version, reason: z.enum(REJECT_REASONS), message: note }).strict(),
   z.object({ action: z.literal("return"), version, message: freeText().trim().min(3).max(2000) }).strict(),
   // approve: true makes "re-identify and approve" one decision.
-  z.object({ action: z.literal("reidentify"), version, taxonId: z.uuid(), approve: z.boolean().optional(), message: note }).strict(),
+  z
+    .object({
+      action: z.literal("reidentify"),
+      version,
+      taxonId: z.uuid(),
+      approve: z.boolean().optional(),
+      message: note,
+    })
+    .strict(),
 ]);
 export type DecisionInput = z.infer<typeof decisionInput>;
