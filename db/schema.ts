@@ -1,5 +1,6 @@
 import { sql } from "drizzle-orm";
 import {
+  type AnyPgColumn,
   bigint,
   bigserial,
   boolean,
@@ -427,6 +428,8 @@ export const reviews = pgTable(
     toTaxonId: uuid("to_taxon_id").references(() => taxa.id),
     reason: text("reason").notNull().default(""),
     message: text("message").notNull().default(""), // the question to the volunteer, or their answer
+    // An undo is a decision of its own that puts back the state and taxon before the decision it names.
+    undoesId: bigint("undoes_id", { mode: "number" }).references((): AnyPgColumn => reviews.id),
   },
   (t) => [index("reviews_sighting_idx").on(t.sightingId, t.decidedAt)],
 );

@@ -247,8 +247,9 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
       toTaxon: string | null;
       reason: string;
       message: string;
+      undoesId: number | null;
     }>(sql`
-      SELECT r.id::int AS id, r.decided_at AS "decidedAt", coalesce(u.name, u.email) AS "reviewerName", r.from_state AS "fromState", r.to_state AS "toState",
+      SELECT r.id::int AS id, r.undoes_id::int AS "undoesId", r.decided_at AS "decidedAt", coalesce(u.name, u.email) AS "reviewerName", r.from_state AS "fromState", r.to_state AS "toState",
         (SELECT coalesce(${name(sql`ft.id`)} || ' (' || ft.scientific_name || ')', ft.scientific_name) FROM taxa ft WHERE ft.id = r.from_taxon_id) AS "fromTaxon",
         (SELECT coalesce(${name(sql`tt.id`)} || ' (' || tt.scientific_name || ')', tt.scientific_name) FROM taxa tt WHERE tt.id = r.to_taxon_id) AS "toTaxon",
         r.reason, r.message
@@ -297,7 +298,7 @@ export type Decision =
   | { action: "approve"; version: number; message?: string }
   | { action: "reject"; version: number; reason: string; message?: string }
   | { action: "return"; version: number; message: string }
-  | { action: "reidentify"; version: number; taxonId: string; message?: string };
+  | { action: "reidentify"; version: number; taxonId: string; approve?: boolean; message?: string };
 
 export type DecisionResult =
   | {
@@ -342,6 +343,7 @@ export async function decide(
       if (scope.taxonGroups.length && !scope.taxonGroups.includes(rows[0].group))
         return { outcome: "bad_taxon", why: "out_of_scope" };
       toTaxon = d.taxonId;
+      if (d.approve) toState = "approved"; // re-identify and approve: one decision, one row
     } else {
       toState = TO_STATE[d.action];
       if (toState === p.reviewState) return { outcome: "unchanged" };
@@ -371,19 +373,61 @@ export type BulkResult =
   | { outcome: "too_many"; count: number };
 
 /**
- * Approves every pending sighting that matches the filters, provided their number is the
- * one the reviewer confirmed (`expected`): if the set changed meanwhile, nothing is done.
+ * Bulk approval never sweeps in flagged records silently: it takes the pending sightings that
+ * match the filters and carry no check mark, plus those whose every mark the reviewer chose to
+ * include (`include`). The same rule on the server and in the confirmation's numbers.
+ */
+function bulkRule(include: readonly CheckMark[]): SQL {
+  return sql`s.check_marks <@ ${`{${include.join(",")}}`}::check_mark[]`;
+}
+
+export type BulkPreview = {
+  /** Pending sightings that match the filters. */
+  matching: number;
+  /** Those bulk approval would take, with the marks included. */
+  count: number;
+  /** Those left out for a check mark not included. */
+  leftOut: number;
+  /** Each mark carried by matching pending sightings, with how many carry it. */
+  marks: { mark: CheckMark; n: number }[];
+};
+
+/** What a bulk approval with these filters and included marks would take, and what it leaves out. */
+export async function bulkPreview(
+  scope: ReviewScope,
+  f: QueueFilters,
+  include: readonly CheckMark[],
+  db: Executor = getDb(),
+): Promise<BulkPreview> {
+  const where = filterSql(scope, { ...f, state: "pending" }, { withState: true });
+  const [totals, marks] = await Promise.all([
+    db.execute<{ matching: number; count: number }>(sql`
+      SELECT count(*)::int AS matching, (count(*) FILTER (WHERE ${bulkRule(include)}))::int AS count
+      FROM ${fromSql(scope)} WHERE ${where}`),
+    db.execute<{ mark: CheckMark; n: number }>(sql`
+      SELECT m::text AS mark, count(*)::int AS n FROM ${fromSql(scope)} CROSS JOIN LATERAL unnest(s.check_marks) AS m
+      WHERE ${where} GROUP BY 1 ORDER BY 1`),
+  ]);
+  const t = totals.rows[0] ?? { matching: 0, count: 0 };
+  return { matching: t.matching, count: t.count, leftOut: t.matching - t.count, marks: marks.rows };
+}
+
+/**
+ * Approves the pending sightings that match the filters under the bulk rule (no check mark, or
+ * only marks in `include`), provided their number is the one the reviewer confirmed
+ * (`expected`): if the set changed meanwhile, nothing is done.
  */
 export async function bulkApprove(
   scope: ReviewScope,
   reviewerId: string,
   f: QueueFilters,
   expected: number,
+  include: readonly CheckMark[] = [],
 ): Promise<BulkResult> {
   return getDb().transaction(async (tx) => {
     const { rows } = await tx.execute<{ id: string; userId: string; taxonId: string | null }>(sql`
       SELECT s.id, s.user_id AS "userId", s.taxon_id AS "taxonId" FROM ${fromSql(scope)}
-      WHERE ${filterSql(scope, { ...f, state: "pending" }, { withState: true })}
+      WHERE ${filterSql(scope, { ...f, state: "pending" }, { withState: true })} AND ${bulkRule(include)}
       ORDER BY s.id LIMIT ${MAX_BULK + 1} FOR UPDATE OF s`);
     if (rows.length > MAX_BULK) return { outcome: "too_many", count: rows.length };
     if (rows.length !== expected) return { outcome: "count_changed", count: rows.length };
@@ -403,6 +447,75 @@ export async function bulkApprove(
       SELECT a.id, s.user_id FROM added a JOIN sightings s ON s.id = a.sighting_id`);
     await refreshCheckMarks(tx, ids);
     return { outcome: "ok", approved: ids.length };
+  });
+}
+
+export type UndoResult = DecisionResult | { outcome: "unknown_review" } | { outcome: "not_last" };
+
+/**
+ * Undoes a decision by appending a new one (reviews is append-only: never an edit of history):
+ * the sighting goes back to the state and taxon it had before, its version moves on (so an
+ * older view of it is still a conflict), and the new row names the one it undoes. Only the
+ * latest decision on a sighting can be undone, and only while the sighting still shows it.
+ * A notice the volunteer has not been mailed yet is withdrawn with the decision; otherwise
+ * the undo is itself a notice.
+ */
+export async function undoDecision(
+  scope: ReviewScope,
+  reviewerId: string,
+  sightingId: string,
+  reviewId: number,
+  version: number,
+): Promise<UndoResult> {
+  return getDb().transaction(async (tx) => {
+    const place = await sightingPlace(tx, sightingId, true);
+    const check = inScope(scope, place);
+    if (check !== "ok") return { outcome: check };
+    const p = place!;
+    if (p.version !== version)
+      return { outcome: "conflict", current: { reviewState: p.reviewState, version: p.version } };
+    const { rows: latest } = await tx.execute<{
+      id: number;
+      fromState: ReviewState;
+      toState: ReviewState;
+      fromTaxonId: string | null;
+      toTaxonId: string | null;
+    }>(sql`
+      SELECT id::int AS id, from_state AS "fromState", to_state AS "toState", from_taxon_id AS "fromTaxonId", to_taxon_id AS "toTaxonId"
+      FROM reviews WHERE sighting_id = ${sightingId} ORDER BY id DESC LIMIT 1`);
+    const last = latest[0];
+    if (!last || last.id !== reviewId) {
+      const { rows: named } = await tx.execute(
+        sql`SELECT 1 FROM reviews WHERE id = ${reviewId} AND sighting_id = ${sightingId}`,
+      );
+      return { outcome: named.length ? "not_last" : "unknown_review" };
+    }
+    if (last.toState !== p.reviewState || last.toTaxonId !== p.taxonId) return { outcome: "not_last" };
+    const { rows: updated } = await tx.execute<{ version: number }>(sql`
+      UPDATE sightings SET review_state = ${last.fromState}, taxon_id = ${last.fromTaxonId}, version = version + 1, updated_at = now()
+      WHERE id = ${sightingId} RETURNING version`);
+    const { rows: review } = await tx.execute<{ id: number }>(sql`
+      INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message, undoes_id)
+      VALUES (${sightingId}, ${reviewerId}, ${last.toState}, ${last.fromState}, ${last.toTaxonId}, ${last.fromTaxonId}, '', '', ${reviewId})
+      RETURNING id::int AS id`);
+    const { rows: withdrawn } = await tx.execute(
+      sql`DELETE FROM review_notices WHERE review_id = ${reviewId} AND digest_id IS NULL RETURNING review_id`,
+    );
+    if (!withdrawn.length)
+      await tx.execute(
+        sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${review[0]!.id}, ${p.userId})`,
+      );
+    await refreshCheckMarks(tx, [sightingId]);
+    return {
+      outcome: "ok",
+      reviewId: review[0]!.id,
+      sighting: {
+        id: sightingId,
+        reviewState: last.fromState,
+        version: updated[0]!.version,
+        taxonId: last.fromTaxonId,
+      },
+    };
   });
 }
 

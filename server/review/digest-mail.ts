@@ -3,6 +3,7 @@ import type { DigestItem, DigestRecipient, RenderedMail } from "@/db/queries/rev
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
 import { escapeHtml } from "@/server/mail/html";
+import { formatEventDateTime } from "@/lib/time/regional";
 import { REJECT_REASONS, type RejectReason } from "@/lib/domain";
 
 // The volunteer's digest of review decisions, in their own language, times in each event's
@@ -12,11 +13,8 @@ export function renderDigest(to: DigestRecipient, items: DigestItem[]): Rendered
   const t = translator(locale, "ReviewDigest");
   const tReason = translator(locale, "ReviewDesk");
   const lines = items.map((it) => {
-    const when = new Intl.DateTimeFormat(locale, {
-      dateStyle: "medium",
-      timeStyle: "short",
-      timeZone: it.timeZone,
-    }).format(new Date(it.observedAt));
+    // The reader's language, written as the event's region writes it (en + Europe/London: 21 Jun 2026, 15:15).
+    const when = formatEventDateTime(it.observedAt, locale, it.timeZone, { dateStyle: "medium", timeStyle: "short" });
     const what = it.toTaxon ?? it.fromTaxon ?? it.description;
     const subject = t("record", { what, count: it.count, when, zone: it.timeZone, event: it.eventName });
     let line: string;

@@ -232,6 +232,20 @@ export const ROUTES: RouteCase[] = [
     note: "a stale version: 409 for those allowed, so nothing changes",
   },
   {
+    file: "app/api/events/[eventId]/review/sightings/[sightingId]/undo/route.ts",
+    method: "POST",
+    path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}/undo`,
+    body: () => ({ reviewId: 1, version: 999_999 }),
+    allowed: ["coordinator", "organiser"],
+    note: "a stale version: 409 for those allowed, so nothing is undone",
+  },
+  {
+    file: "app/api/events/[eventId]/review/bulk-approve/route.ts",
+    method: "GET",
+    path: (i) => `/api/events/${i.eventId}/review/bulk-approve?state=pending&include=outside_area`,
+    allowed: COORDINATORS,
+  },
+  {
     file: "app/api/events/[eventId]/review/bulk-approve/route.ts",
     method: "POST",
     path: (i) => `/api/events/${i.eventId}/review/bulk-approve`,

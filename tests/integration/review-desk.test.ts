@@ -2,7 +2,15 @@ import { eq, inArray, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { findUserById } from "@/db/queries/auth";
 import { refreshCheckMarks } from "@/db/queries/check-marks";
-import { bulkApprove, decide, queueCounts, reviewQueue, sightingDetail } from "@/db/queries/review";
+import {
+  bulkApprove,
+  bulkPreview,
+  decide,
+  queueCounts,
+  reviewQueue,
+  sightingDetail,
+  undoDecision,
+} from "@/db/queries/review";
 import { composeDigests } from "@/db/queries/review-digest";
 import * as s from "@/db/schema";
 import { ApiError, errorStatus } from "@/lib/http/errors";
@@ -211,13 +219,14 @@ describe("decisions", () => {
     const birder = await scopeOf("birder");
     const filters = queueFilters.parse({ from: "2026-06-21", to: "2026-06-21" }); // 24 hours of birds, one an hour
     const before = await queueCounts(birder, filters);
+    const every = [...new Set((await bulkPreview(birder, filters, [])).marks.map((m) => m.mark))];
     expect(before.pending).toBeGreaterThan(10);
-    expect(await bulkApprove(birder, people.birder!, filters, before.pending - 1)).toEqual({
+    expect(await bulkApprove(birder, people.birder!, filters, before.pending - 1, every)).toEqual({
       outcome: "count_changed",
       count: before.pending,
     });
     expect((await queueCounts(birder, filters)).pending).toBe(before.pending);
-    expect(await bulkApprove(birder, people.birder!, filters, before.pending)).toEqual({
+    expect(await bulkApprove(birder, people.birder!, filters, before.pending, every)).toEqual({
       outcome: "ok",
       approved: before.pending,
     });
@@ -327,3 +336,132 @@ describe("the volunteer's digest", () => {
     expect(fr[0]!.subject).toMatch(/décision/);
   });
 });
+
+describe("undo and the bulk rule", () => {
+  // Four bird sightings by volunteer2, far enough apart to be no duplicates: three without a
+  // check mark, one observed after the event (outside its dates).
+  const clean: string[] = [];
+  let flagged = "";
+  let bird2 = "";
+  beforeAll(async () => {
+    const rows = [0, 1, 2, 3].map((k) =>
+      sightingValues(f, {
+        userId: people.volunteer2!,
+        observedAt: new Date(k === 3 ? "2026-06-23T10:00:00Z" : Date.parse("2026-06-21T19:00:00Z") + k * 1_800_000),
+        location: lonLat(0.6 + k * 0.05, 0.7),
+      }),
+    );
+    await db().insert(s.sightings).values(rows);
+    await refreshCheckMarks(
+      db(),
+      rows.map((r) => r.id),
+    );
+    clean.push(...rows.slice(0, 3).map((r) => r.id));
+    flagged = rows[3]!.id;
+    const [t] = await db().insert(s.taxa).values({ scientificName: "Testus alter", taxonGroup: "birds" }).returning();
+    bird2 = t!.id;
+  });
+  const mine = () => queueFilters.parse({ volunteer: people.volunteer2!, group: "birds" });
+
+  it("bulk approval leaves a flagged sighting pending unless its mark is included, and says how many and which marks", async () => {
+    const birder = await scopeOf("birder");
+    expect((await stateOf(flagged)).checkMarks).toEqual(["outside_dates"]);
+    expect(await bulkPreview(birder, mine(), [])).toEqual({
+      matching: 4,
+      count: 3,
+      leftOut: 1,
+      marks: [{ mark: "outside_dates", n: 1 }],
+    });
+    // The server holds to the rule whatever the client counted.
+    expect(await bulkApprove(birder, people.birder!, mine(), 4)).toEqual({ outcome: "count_changed", count: 3 });
+    expect(await bulkApprove(birder, people.birder!, mine(), 3)).toEqual({ outcome: "ok", approved: 3 });
+    for (const id of clean) expect((await stateOf(id)).reviewState).toBe("approved");
+    expect((await stateOf(flagged)).reviewState).toBe("pending");
+    // Included explicitly, it goes too.
+    expect(await bulkPreview(birder, mine(), ["outside_dates"])).toMatchObject({ matching: 1, count: 1, leftOut: 0 });
+    expect(await bulkApprove(birder, people.birder!, mine(), 1, ["outside_dates"])).toEqual({
+      outcome: "ok",
+      approved: 1,
+    });
+    expect((await stateOf(flagged)).reviewState).toBe("approved");
+  });
+
+  it("undoes a decision with a new row that restores the state and taxon, never editing the history", async () => {
+    const all = await scopeOf("all");
+    const id = clean[0]!;
+    const before = await stateOf(id);
+    expect(before.reviewState).toBe("approved"); // bulk-approved above
+    const history = await db().select().from(s.reviews).where(eq(s.reviews.sightingId, id)).orderBy(s.reviews.id);
+    const lastId = history[history.length - 1]!.id;
+    // A stale version is a conflict; a decision that is not the latest cannot be undone.
+    expect(await undoDecision(all, people.all!, id, lastId, before.version - 1)).toMatchObject({
+      outcome: "conflict",
+    });
+    const undone = await undoDecision(all, people.all!, id, lastId, before.version);
+    expect(undone).toMatchObject({
+      outcome: "ok",
+      sighting: { reviewState: "pending", version: before.version + 1, taxonId: f.taxon.id },
+    });
+    const after = await db().select().from(s.reviews).where(eq(s.reviews.sightingId, id)).orderBy(s.reviews.id);
+    expect(after.slice(0, history.length)).toEqual(history);
+    expect(after[history.length]).toMatchObject({
+      reviewerId: people.all,
+      fromState: "approved",
+      toState: "pending",
+      undoesId: lastId,
+    });
+    expect((await stateOf(id)).reviewState).toBe("pending");
+    // The volunteer had not been mailed the approval yet: its notice is withdrawn, and the undo adds none.
+    const notices = await db()
+      .select()
+      .from(s.reviewNotices)
+      .where(inArray(s.reviewNotices.reviewId, [lastId, after[history.length]!.id]));
+    expect(notices).toEqual([]);
+    // Undoing the same decision again is refused: the undo is now the latest.
+    expect(await undoDecision(all, people.all!, id, lastId, before.version + 1)).toEqual({ outcome: "not_last" });
+    expect(await undoDecision(all, people.all!, id, 999_999_999, before.version + 1)).toEqual({
+      outcome: "unknown_review",
+    });
+  });
+
+  it("re-identifies and approves in one decision, which another coordinator of the group can undo later", async () => {
+    const all = await scopeOf("all");
+    const id = clean[1]!;
+    await undoDecision(all, people.all!, id, (await lastReview(id)).id, (await stateOf(id)).version); // back to pending
+    const v = (await stateOf(id)).version;
+    const count = (await db().select().from(s.reviews).where(eq(s.reviews.sightingId, id))).length;
+    const res = await decide(all, people.all!, id, { action: "reidentify", version: v, taxonId: bird2, approve: true });
+    expect(res).toMatchObject({ outcome: "ok", sighting: { reviewState: "approved", taxonId: bird2, version: v + 1 } });
+    expect((await db().select().from(s.reviews).where(eq(s.reviews.sightingId, id))).length).toBe(count + 1);
+    expect(await lastReview(id)).toMatchObject({
+      fromState: "pending",
+      toState: "approved",
+      fromTaxonId: f.taxon.id,
+      toTaxonId: bird2,
+    });
+    // Later, from the history, the birds coordinator undoes it: pending again, the first taxon back.
+    const birder = await scopeOf("birder");
+    const undone = await undoDecision(birder, people.birder!, id, (await lastReview(id)).id, v + 1);
+    expect(undone).toMatchObject({ outcome: "ok", sighting: { reviewState: "pending", taxonId: f.taxon.id } });
+    expect(await lastReview(id)).toMatchObject({
+      reviewerId: people.birder,
+      toState: "pending",
+      toTaxonId: f.taxon.id,
+    });
+    // A coordinator of another event cannot undo anything here.
+    expect(
+      await undoDecision(
+        await scopeOf("elsewhere", other.event.id),
+        people.elsewhere!,
+        id,
+        (await lastReview(id)).id,
+        v + 2,
+      ),
+    ).toEqual({ outcome: "not_found" });
+  });
+});
+
+async function lastReview(sightingId: string) {
+  const rows = await db().select().from(s.reviews).where(eq(s.reviews.sightingId, sightingId)).orderBy(s.reviews.id);
+  return rows[rows.length - 1]!;
+}

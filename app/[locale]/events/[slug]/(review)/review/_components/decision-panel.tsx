@@ -4,7 +4,7 @@ import { useTranslations } from "next-intl";
 import { useState } from "react";
 import useSWR from "swr";
 import type { QueueItem } from "@/db/queries/review";
-import { DESK_KEYS } from "@/lib/review/decisions";
+import { keyLabel } from "@/lib/review/decisions";
 import { fetcher } from "@/lib/http/client";
 import type { RejectReason } from "@/lib/domain";
 
@@ -13,7 +13,9 @@ export type DecisionBody =
   | { action: "approve"; message?: string }
   | { action: "reject"; reason: RejectReason; message?: string }
   | { action: "return"; message: string }
-  | { action: "reidentify"; taxonId: string; message?: string };
+  | { action: "reidentify"; taxonId: string; approve?: boolean; message?: string };
+/** The new taxon's name, for the toast. */
+export type DecisionLabel = { taxonName?: string };
 
 type Props = {
   item: QueueItem;
@@ -22,8 +24,9 @@ type Props = {
   reasons: RejectReason[];
   eventId: string;
   busy: boolean;
-  onDecide: (body: DecisionBody) => void;
+  onDecide: (body: DecisionBody, label?: DecisionLabel) => void;
 };
+type TaxonOption = { id: string; scientificName: string; commonName: string | null; onList: boolean };
 
 const btn = "inline-flex min-h-touch items-center gap-2 rounded-lg px-3 font-semibold disabled:opacity-60";
 const area = "block w-full rounded border-2 border-reed-700 bg-white p-2 text-sm";
@@ -35,7 +38,9 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
   const [note, setNote] = useState("");
   const [question, setQuestion] = useState("");
   const [q, setQ] = useState("");
-  const taxa = useSWR<{ taxa: { id: string; scientificName: string; commonName: string | null; onList: boolean }[] }>(
+  const [active, setActive] = useState(0);
+  const [chosen, setChosen] = useState<TaxonOption | null>(null);
+  const taxa = useSWR<{ taxa: TaxonOption[] }>(
     mode === "reidentify" && q.trim().length >= 2
       ? `/api/events/${eventId}/review/taxa?q=${encodeURIComponent(q.trim())}`
       : null,
@@ -43,50 +48,61 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
   );
   const kbd = (k: string) => <kbd className="rounded border border-current px-1 text-xs">{k}</kbd>;
   const message = note.trim() ? note.trim() : undefined;
+  const options = (taxa.data?.taxa ?? []).filter((x) => x.id !== item.taxonId);
+  const nameOf = (x: TaxonOption) => (x.commonName ? `${x.commonName} (${x.scientificName})` : x.scientificName);
+  const choose = (x: TaxonOption) => {
+    setChosen(x);
+    setQ(nameOf(x));
+    // Next: "Re-identify and approve" (Enter), or Tab to "Re-identify" alone.
+    requestAnimationFrame(() => document.getElementById("d-reidentify-approve")?.focus());
+  };
+  const reidentify = (approve: boolean) => {
+    if (chosen) onDecide({ action: "reidentify", taxonId: chosen.id, approve, message }, { taxonName: nameOf(chosen) });
+  };
 
   return (
     <div className="space-y-2">
       <h3 className="sr-only">{t("actions.title")}</h3>
-      <div className="flex flex-wrap gap-2">
+      <div id="decision-buttons" tabIndex={-1} className="flex flex-wrap gap-2">
         <button
           type="button"
           disabled={busy}
-          aria-keyshortcuts={DESK_KEYS.approve}
+          aria-keyshortcuts={keyLabel("approve")}
           className={`${btn} bg-reed-700 text-paper`}
           onClick={() => onDecide({ action: "approve" })}
         >
           <span aria-hidden="true">✓</span>
-          {t("actions.approve")} {kbd(DESK_KEYS.approve)}
+          {t("actions.approve")} {kbd(keyLabel("approve"))}
         </button>
         <button
           type="button"
           disabled={busy}
-          aria-keyshortcuts={DESK_KEYS.reject}
+          aria-keyshortcuts={keyLabel("reject")}
           className={`${btn} border-2 border-signal text-signal`}
           onClick={() => setMode("reject")}
         >
           <span aria-hidden="true">✕</span>
-          {t("actions.reject")} {kbd(DESK_KEYS.reject)}
+          {t("actions.reject")} {kbd(keyLabel("reject"))}
         </button>
         <button
           type="button"
           disabled={busy}
-          aria-keyshortcuts={DESK_KEYS.returnWithQuestion}
+          aria-keyshortcuts={keyLabel("returnWithQuestion")}
           className={`${btn} border-2 border-ink-soft text-ink`}
           onClick={() => setMode("return")}
         >
           <span aria-hidden="true">↩</span>
-          {t("actions.return")} {kbd(DESK_KEYS.returnWithQuestion)}
+          {t("actions.return")} {kbd(keyLabel("returnWithQuestion"))}
         </button>
         <button
           type="button"
           disabled={busy}
-          aria-keyshortcuts={DESK_KEYS.reidentify}
+          aria-keyshortcuts={keyLabel("reidentify")}
           className={`${btn} border-2 border-heath-700 text-heath-900`}
           onClick={() => setMode("reidentify")}
         >
           <span aria-hidden="true">⇄</span>
-          {t("actions.reidentify")} {kbd(DESK_KEYS.reidentify)}
+          {t("actions.reidentify")} {kbd(keyLabel("reidentify"))}
         </button>
       </div>
 
@@ -166,15 +182,59 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
           <label htmlFor="d-taxon" className="block text-sm font-semibold">
             {t("actions.taxonSearch")}
           </label>
+          {/* A combobox (WAI-ARIA pattern): arrows move through the list, Enter chooses. */}
           <input
             id="d-taxon"
             autoFocus
-            type="search"
+            type="text"
+            role="combobox"
+            aria-autocomplete="list"
+            aria-expanded={options.length > 0 && !chosen}
+            aria-controls="d-taxon-list"
+            aria-activedescendant={options.length && !chosen ? `d-taxon-${options[active]?.id}` : undefined}
+            aria-describedby="d-taxon-hint"
             autoComplete="off"
             className={area}
             value={q}
-            onChange={(e) => setQ(e.target.value)}
+            onChange={(e) => {
+              setQ(e.target.value);
+              setActive(0);
+              setChosen(null);
+            }}
+            onKeyDown={(e) => {
+              if (!options.length || chosen) return;
+              if (e.key === "ArrowDown") setActive((i) => Math.min(options.length - 1, i + 1));
+              else if (e.key === "ArrowUp") setActive((i) => Math.max(0, i - 1));
+              else if (e.key === "Enter" && options[active]) choose(options[active]);
+              else return;
+              e.preventDefault();
+            }}
           />
+          <p id="d-taxon-hint" className="text-xs text-ink-soft">
+            {t("actions.taxonHint")}
+          </p>
+          {taxa.data && !chosen ? (
+            options.length ? (
+              <ul id="d-taxon-list" role="listbox" aria-label={t("actions.taxonResults")} className="space-y-1">
+                {options.map((x, i) => (
+                  <li
+                    key={x.id}
+                    id={`d-taxon-${x.id}`}
+                    role="option"
+                    aria-selected={i === active}
+                    className={`cursor-pointer rounded px-2 py-1 text-sm ${i === active ? "bg-heath-100 outline outline-2 outline-heath-600" : ""}`}
+                    onMouseDown={(e) => e.preventDefault()}
+                    onClick={() => choose(x)}
+                  >
+                    {nameOf(x)}{" "}
+                    <span className="text-ink-soft">· {x.onList ? t("actions.onList") : t("actions.offList")}</span>
+                  </li>
+                ))}
+              </ul>
+            ) : (
+              <p className="text-sm">{t("actions.noTaxa")}</p>
+            )
+          ) : null}
           <label htmlFor="d-renote" className="block text-sm font-semibold">
             {t("actions.note")}
           </label>
@@ -186,38 +246,28 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
             value={note}
             onChange={(e) => setNote(e.target.value)}
           />
-          {taxa.data ? (
-            taxa.data.taxa.length ? (
-              <ul className="space-y-1">
-                {taxa.data.taxa
-                  .filter((x) => x.id !== item.taxonId)
-                  .map((x) => {
-                    const name = x.commonName ? `${x.commonName} (${x.scientificName})` : x.scientificName;
-                    return (
-                      <li key={x.id}>
-                        <button
-                          type="button"
-                          disabled={busy}
-                          className="text-left text-sm underline"
-                          aria-label={t("actions.choose", { name })}
-                          onClick={() => onDecide({ action: "reidentify", taxonId: x.id, message })}
-                        >
-                          {name}{" "}
-                          <span className="text-ink-soft">
-                            · {x.onList ? t("actions.onList") : t("actions.offList")}
-                          </span>
-                        </button>
-                      </li>
-                    );
-                  })}
-              </ul>
-            ) : (
-              <p className="text-sm">{t("actions.noTaxa")}</p>
-            )
-          ) : null}
-          <button type="button" className="text-sm underline" onClick={() => setMode(null)}>
-            {t("actions.cancel")}
-          </button>
+          <div className="flex flex-wrap gap-2">
+            <button
+              id="d-reidentify-approve"
+              type="button"
+              disabled={busy || !chosen}
+              className={`${btn} bg-reed-700 text-paper`}
+              onClick={() => reidentify(true)}
+            >
+              {t("actions.reidentifyApprove")}
+            </button>
+            <button
+              type="button"
+              disabled={busy || !chosen}
+              className={`${btn} border-2 border-heath-700 text-heath-900`}
+              onClick={() => reidentify(false)}
+            >
+              {t("actions.reidentify")}
+            </button>
+            <button type="button" className="text-sm underline" onClick={() => setMode(null)}>
+              {t("actions.cancel")}
+            </button>
+          </div>
         </div>
       ) : null}
     </div>

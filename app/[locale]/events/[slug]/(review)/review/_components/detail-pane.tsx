@@ -5,18 +5,27 @@ import type { CheckMark, ReviewState } from "@/lib/domain";
 import { ReviewStateMark } from "@/components/state-mark";
 import { MarkChips } from "./mark-chips";
 import { ZoneMap } from "@/components/zone-map";
+import { regionalLocale } from "@/lib/time/regional";
 import type { DetailResponse } from "./desk-api";
 
-type Props = { detail: DetailResponse; timeZone: string; eventId: string };
+type Props = {
+  detail: DetailResponse;
+  timeZone: string;
+  eventId: string;
+  /** Undo the latest decision (any coordinator of the sighting's group, at any time). */
+  onUndo?: (reviewId: number) => void;
+  busy?: boolean;
+};
 
 // What a reviewer needs to judge one sighting. Times in the event's time zone (said above).
-export function DetailPane({ detail, timeZone, eventId }: Props) {
+export function DetailPane({ detail, timeZone, eventId, onUndo, busy }: Props) {
   const t = useTranslations("ReviewDesk.detail");
   const tKind = useTranslations("ReviewDesk.sessionKinds");
   const tQueue = useTranslations("ReviewDesk.queue");
   const tState = useTranslations("StateMark.review");
   const tReason = useTranslations("ReviewDesk.reasons");
-  const locale = useLocale();
+  // The reader's language written as the event's region writes it (en + Europe/London: en-GB).
+  const locale = regionalLocale(useLocale(), timeZone);
   const s = detail.sighting;
   const dt = (v: string | Date, style: "short" | "medium" = "medium") =>
     new Intl.DateTimeFormat(locale, { dateStyle: style, timeStyle: "short", timeZone }).format(new Date(v));
@@ -166,9 +175,10 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
         </h3>
         {detail.history.length ? (
           <ol className="space-y-1 text-sm">
-            {detail.history.map((h) => (
+            {detail.history.map((h, i) => (
               <li key={h.id} className="border-l-4 border-reed-300 pl-2">
                 <span className="block text-ink-soft">{dt(h.decidedAt, "short")}</span>
+                {h.undoesId ? <span className="block font-semibold">{t("undoRow")}</span> : null}
                 {t("historyState", {
                   who: h.reviewerName,
                   from: tState(h.fromState as ReviewState),
@@ -180,6 +190,16 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
                 {h.reason ? <span className="block">{t("reason", { reason: reasonText(h.reason) })}</span> : null}
                 {h.message ? (
                   <span className="block whitespace-pre-line">{t("message", { message: h.message })}</span>
+                ) : null}
+                {onUndo && i === detail.history.length - 1 ? (
+                  <button
+                    type="button"
+                    disabled={busy}
+                    className="mt-1 inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-3 font-semibold text-reed-800 disabled:opacity-60"
+                    onClick={() => onUndo(h.id)}
+                  >
+                    {t("undoHistory")}
+                  </button>
                 ) : null}
               </li>
             ))}

@@ -1,18 +1,28 @@
 "use client";
 
 import { useLocale, useTranslations } from "next-intl";
-import { useCallback, useEffect, useEffectEvent, useState } from "react";
+import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { useEffect, useEffectEvent, useState } from "react";
 import useSWR from "swr";
 import useSWRInfinite from "swr/infinite";
 import { secondaryButtonClass } from "@/components/ui/field";
 import { api, ApiClientError, fetcher } from "@/lib/http/client";
 import type { QueueItem } from "@/db/queries/review";
-import { DESK_KEYS } from "@/lib/review/decisions";
+import { DESK_KEYS, keyLabel, TOAST_UNDO_MS, type DeskAction } from "@/lib/review/decisions";
+import { formatDayAndTime, formatEventDateTime } from "@/lib/time/regional";
 import type { CheckMark, RejectReason, ReviewState, TaxonGroup } from "@/lib/domain";
 import { ReviewStateMark } from "@/components/state-mark";
 import { MarkChips } from "./mark-chips";
-import { DecisionPanel, type DecisionBody, type Mode } from "./decision-panel";
-import { filterParams, type DetailResponse, type Filters, type QueueResponse } from "./desk-api";
+import { DecisionPanel, type DecisionBody, type DecisionLabel, type Mode } from "./decision-panel";
+import {
+  filterParams,
+  filtersFromSearch,
+  searchFromFilters,
+  type BulkPreviewResponse,
+  type DetailResponse,
+  type Filters,
+  type QueueResponse,
+} from "./desk-api";
 import { DetailPane } from "./detail-pane";
 import { FilterBar } from "./filter-bar";
 
@@ -29,25 +39,40 @@ type Props = {
 
 const TO_STATE = { approve: "approved", reject: "rejected", return: "returned" } as const;
 
+/** The toast after a decision: it names the record, and offers to undo it for a minute. */
+type Toast = {
+  text: string;
+  bad?: boolean;
+  undo?: { sightingId: string; reviewId: number; version: number; name: RecordName };
+};
+type RecordName = Record<"taxon" | "when" | "volunteer", string>;
+type DecisionResponse = { sighting: { id: string; version: number }; reviewId: number };
+
 export function ReviewDesk(props: Props) {
   const { eventId, timeZone } = props;
   const t = useTranslations("ReviewDesk");
   const tGroup = useTranslations("TaxonGroup");
   const locale = useLocale();
-  const [filters, setFilters] = useState<Filters>({ state: "pending", order: "newest" });
+  // The filters live in the URL: shareable, kept on reload, and the back button goes to the previous ones.
+  const router = useRouter();
+  const pathname = usePathname();
+  const search = useSearchParams();
+  const filters = filtersFromSearch(search);
+  const setFilters = (f: Filters) => {
+    const qs = searchFromFilters(f).toString();
+    router.push(qs ? `${pathname}?${qs}` : pathname, { scroll: false });
+  };
   const [selected, setSelected] = useState(-1);
   const [mode, setMode] = useState<Mode>(null);
-  const [status, setStatus] = useState<{ text: string; bad?: boolean } | null>(null);
+  const [status, setStatus] = useState<Toast | null>(null);
   const [bulkOpen, setBulkOpen] = useState(false);
+  const [include, setInclude] = useState<CheckMark[]>([]);
   const [showKeys, setShowKeys] = useState(true);
   const [busy, setBusy] = useState(false);
 
   const base = `/api/events/${eventId}/review`;
   // The server's own words for a refusal; without an answer, the network's fault.
-  const refusal = useCallback(
-    (err: unknown) => (err instanceof ApiClientError && err.problem) || t("errors.network"),
-    [t],
-  );
+  const refusal = (err: unknown) => (err instanceof ApiClientError && err.problem) || t("errors.network");
   const query = filterParams(filters).toString();
   const queue = useSWRInfinite<QueueResponse>(
     (_index, previous: QueueResponse | null) => {
@@ -72,77 +97,127 @@ export function ReviewDesk(props: Props) {
     setSelected(-1);
     setMode(null);
     setBulkOpen(false);
+    setInclude([]);
   }
 
-  const move = useCallback(
-    (by: number) => {
-      setMode(null);
-      setSelected((i) => Math.max(0, Math.min(items.length - 1, i + by)));
-    },
-    [items.length],
-  );
+  // The toast's undo lasts a minute.
+  const undoUntil = status?.undo ? status.undo.reviewId : null;
+  useEffect(() => {
+    if (undoUntil === null) return;
+    const timer = setTimeout(
+      () => setStatus((s) => (s?.undo?.reviewId === undoUntil ? { text: s.text } : s)),
+      TOAST_UNDO_MS,
+    );
+    return () => clearTimeout(timer);
+  }, [undoUntil]);
+
+  const bulkKey = bulkOpen
+    ? `${base}/bulk-approve?${query}${include.length ? `&include=${include.join(",")}` : ""}`
+    : null;
+  const preview = useSWR<BulkPreviewResponse>(bulkKey, fetcher, { revalidateOnFocus: false, keepPreviousData: true });
+
+  const move = (by: number) => {
+    setMode(null);
+    setSelected((i) => Math.max(0, Math.min(items.length - 1, i + by)));
+  };
 
   // Keep the selected row in view as the keys move through the list.
   useEffect(() => {
     if (current) document.getElementById(`row-${current.id}`)?.scrollIntoView({ block: "nearest" });
   }, [current]);
 
-  const decide = useCallback(
-    async (item: QueueItem, body: DecisionBody) => {
-      const toState: ReviewState = body.action === "reidentify" ? item.reviewState : TO_STATE[body.action];
-      // The version the coordinator is looking at: the detail pane may be fresher than the list.
-      const shown = detail.data?.sighting.id === item.id ? detail.data.sighting.version : 0;
-      const seenVersion = Math.max(item.version, shown);
-      const leaves = Boolean(filters.state && filters.state !== toState);
-      const label = t(`actions.${body.action}`);
-      const before = queue.data;
-      const optimistic = before?.map((page, i) => ({
-        ...page,
-        items: leaves
-          ? page.items.filter((x) => x.id !== item.id)
-          : page.items.map((x) => (x.id === item.id ? { ...x, reviewState: toState, version: x.version + 1 } : x)),
-        counts:
-          i === 0 && toState !== item.reviewState
-            ? {
-                ...page.counts,
-                [item.reviewState]: page.counts[item.reviewState] - 1,
-                [toState]: page.counts[toState] + 1,
-              }
-            : page.counts,
-      }));
-      setMode(null);
-      setBusy(true);
-      setStatus({ text: t("actions.working") });
-      if (!leaves) setSelected((i) => Math.min(i + 1, items.length - 1));
-      try {
-        await queue.mutate(
-          async () => {
-            await api.send(`${base}/sightings/${item.id}/decisions`, "POST", { ...body, version: seenVersion });
-            return undefined;
-          },
-          { optimisticData: optimistic, rollbackOnError: true, populateCache: false, revalidate: true },
-        );
-        setStatus({ text: t("actions.saved", { decision: label }) });
-      } catch (err) {
-        // Rolled back to what was shown; then reloaded, so a second try uses the current version.
-        setStatus({ text: t("actions.refused", { message: refusal(err) }), bad: true });
-        if (!leaves) setSelected((i) => Math.max(i - 1, 0));
-        void queue.mutate();
-      } finally {
-        setBusy(false);
-        void detail.mutate();
-      }
-    },
-    [base, detail, filters.state, items.length, queue, refusal, t],
-  );
+  const nameOf = (item: QueueItem, taxonName?: string) => ({
+    taxon: taxonName ?? item.commonName ?? item.scientificName ?? item.description,
+    when: formatDayAndTime(item.observedAt, locale, timeZone),
+    volunteer: item.volunteerName,
+  });
 
-  const bulkApprove = useCallback(async () => {
-    const n = counts?.pending ?? 0;
+  const decide = async (item: QueueItem, body: DecisionBody, label?: DecisionLabel) => {
+    const toState: ReviewState =
+      body.action === "reidentify" ? (body.approve ? "approved" : item.reviewState) : TO_STATE[body.action];
+    // The version the coordinator is looking at: the detail pane may be fresher than the list.
+    const shown = detail.data?.sighting.id === item.id ? detail.data.sighting.version : 0;
+    const seenVersion = Math.max(item.version, shown);
+    const leaves = Boolean(filters.state && filters.state !== toState);
+    const done = body.action === "reidentify" && body.approve ? "reidentifyApprove" : body.action;
+    const name = nameOf(item, label?.taxonName);
+    let answer: DecisionResponse | null = null;
+    const before = queue.data;
+    const optimistic = before?.map((page, i) => ({
+      ...page,
+      items: leaves
+        ? page.items.filter((x) => x.id !== item.id)
+        : page.items.map((x) => (x.id === item.id ? { ...x, reviewState: toState, version: x.version + 1 } : x)),
+      counts:
+        i === 0 && toState !== item.reviewState
+          ? {
+              ...page.counts,
+              [item.reviewState]: page.counts[item.reviewState] - 1,
+              [toState]: page.counts[toState] + 1,
+            }
+          : page.counts,
+    }));
+    setMode(null);
+    setBusy(true);
+    setStatus({ text: t("actions.working") });
+    if (!leaves) setSelected((i) => Math.min(i + 1, items.length - 1));
+    try {
+      await queue.mutate(
+        async () => {
+          answer = await api.send<DecisionResponse>(`${base}/sightings/${item.id}/decisions`, "POST", {
+            ...body,
+            version: seenVersion,
+          });
+          return undefined;
+        },
+        { optimisticData: optimistic, rollbackOnError: true, populateCache: false, revalidate: true },
+      );
+      const a = answer as DecisionResponse | null;
+      setStatus({
+        text: t(`actions.done.${done}`, name),
+        undo: a ? { sightingId: item.id, reviewId: a.reviewId, version: a.sighting.version, name } : undefined,
+      });
+    } catch (err) {
+      // Rolled back to what was shown; then reloaded, so a second try uses the current version.
+      setStatus({ text: t("actions.refused", { message: refusal(err) }), bad: true });
+      if (!leaves) setSelected((i) => Math.max(i - 1, 0));
+      void queue.mutate();
+    } finally {
+      setBusy(false);
+      void detail.mutate();
+    }
+  };
+
+  // Undo: a new decision that puts the sighting back as it was (from the toast, or the history).
+  const undo = async (sightingId: string, reviewId: number, version: number, name: RecordName) => {
+    setBusy(true);
+    setStatus({ text: t("actions.working") });
+    try {
+      await api.send(`${base}/sightings/${sightingId}/undo`, "POST", { reviewId, version });
+      setStatus({ text: t("actions.done.undo", name) });
+    } catch (err) {
+      setStatus({ text: t("actions.refused", { message: refusal(err) }), bad: true });
+    } finally {
+      setBusy(false);
+      await Promise.all([queue.mutate(), detail.mutate()]);
+    }
+  };
+  const undoToast = () => {
+    const u = status?.undo;
+    if (u) void undo(u.sightingId, u.reviewId, u.version, u.name);
+  };
+
+  const bulkApprove = async () => {
+    const n = preview.data?.count ?? 0;
     setBulkOpen(false);
     setBusy(true);
     setStatus({ text: t("actions.working") });
     try {
-      const res = await api.send<{ approved: number }>(`${base}/bulk-approve`, "POST", { filters, expectedCount: n });
+      const res = await api.send<{ approved: number }>(`${base}/bulk-approve`, "POST", {
+        filters: Object.fromEntries(filterParams(filters)),
+        include,
+        expectedCount: n,
+      });
       setStatus({ text: t("actions.bulkDone", { n: res.approved }) });
     } catch (err) {
       setStatus({ text: t("actions.refused", { message: refusal(err) }), bad: true });
@@ -150,24 +225,27 @@ export function ReviewDesk(props: Props) {
       setBusy(false);
       await queue.mutate();
     }
-  }, [base, counts?.pending, filters, queue, refusal, t]);
+  };
 
-  // The keyboard: documented in DESK_KEYS and listed on screen.
+  // The keyboard: one table (DESK_KEYS), used here and in the key list on screen.
   const onKey = useEffectEvent((e: KeyboardEvent) => {
     if (e.ctrlKey || e.metaKey || e.altKey) return;
-    if (e.key === "Escape") {
+    if (e.key === DESK_KEYS.close) {
       setMode(null);
       setBulkOpen(false);
       return;
     }
     const target = e.target as HTMLElement | null;
-    if (target?.closest("input, textarea, select, [contenteditable='true']")) return;
+    if (target?.closest("input, textarea, select, [contenteditable='true'], [role='dialog'], [role='alertdialog']"))
+      return;
     const [go, item, send, working] = [move, current, decide, busy];
     const key = e.key;
     if (key === DESK_KEYS.next) go(1);
     else if (key === DESK_KEYS.previous) go(-1);
     else if (key === DESK_KEYS.help) setShowKeys((v) => !v);
+    else if (key === DESK_KEYS.filters) document.getElementById("f-state")?.focus();
     else if (key === DESK_KEYS.bulk) setBulkOpen(true);
+    else if (key === DESK_KEYS.undo && !working && status?.undo) undoToast();
     else if (item && !working && key === DESK_KEYS.approve) void send(item, { action: "approve" });
     else if (item && key === DESK_KEYS.reject) setMode("reject");
     else if (item && key === DESK_KEYS.returnWithQuestion) setMode("return");
@@ -181,19 +259,10 @@ export function ReviewDesk(props: Props) {
     return () => window.removeEventListener("keydown", listener);
   }, []);
 
-  const when = (v: string) =>
-    new Intl.DateTimeFormat(locale, { dateStyle: "short", timeStyle: "short", timeZone }).format(new Date(v));
-  const keyList: [string, string][] = [
-    [DESK_KEYS.next, t("keys.next")],
-    [DESK_KEYS.previous, t("keys.previous")],
-    [DESK_KEYS.approve, t("keys.approve")],
-    [DESK_KEYS.reject, t("keys.reject")],
-    [DESK_KEYS.returnWithQuestion, t("keys.return")],
-    [DESK_KEYS.reidentify, t("keys.reidentify")],
-    [DESK_KEYS.bulk, t("keys.bulk")],
-    ["Esc", t("keys.escape")],
-    [DESK_KEYS.help, t("keys.help")],
-  ];
+  const when = (v: string) => formatEventDateTime(v, locale, timeZone);
+  const keyList = (Object.keys(DESK_KEYS) as DeskAction[]).map((a) => [keyLabel(a), t(`keys.${a}`)] as const);
+  const tState = useTranslations("StateMark.review");
+  const markName = (m: CheckMark) => t(`marks.${m}`);
 
   return (
     <div className="space-y-3">
@@ -214,10 +283,10 @@ export function ReviewDesk(props: Props) {
           type="button"
           className={secondaryButtonClass}
           onClick={() => setBulkOpen(true)}
-          aria-keyshortcuts={DESK_KEYS.bulk}
+          aria-keyshortcuts={keyLabel("bulk")}
           disabled={busy}
         >
-          {t("actions.bulk")} <kbd className="ml-2 rounded border px-1 text-xs">{DESK_KEYS.bulk}</kbd>
+          {t("actions.bulk")} <kbd className="ml-2 rounded border px-1 text-xs">{keyLabel("bulk")}</kbd>
         </button>
       </div>
 
@@ -227,51 +296,98 @@ export function ReviewDesk(props: Props) {
           aria-labelledby="bulk-question"
           className="rounded-lg border-2 border-heath-600 bg-heath-50 p-3"
         >
-          {counts && counts.pending > 0 ? (
+          {!preview.data ? (
+            <p id="bulk-question">{t("queue.loading")}</p>
+          ) : (
             <>
               <p id="bulk-question" className="font-semibold">
-                {t("actions.bulkConfirm", { n: counts.pending })}
+                {t("actions.bulkMatch", { n: preview.data.matching })}{" "}
+                {preview.data.leftOut || include.length ? t("actions.bulkLeftOut", { n: preview.data.leftOut }) : null}
               </p>
-              <div className="mt-2 flex gap-2">
+              {preview.data.marks.length ? (
+                <fieldset className="mt-2">
+                  <legend className="sr-only">{t("filters.mark")}</legend>
+                  <ul className="space-y-1 text-sm">
+                    {preview.data.marks.map(({ mark, n }) => (
+                      <li key={mark} className="flex flex-wrap items-center gap-2">
+                        <input
+                          id={`bulk-include-${mark}`}
+                          type="checkbox"
+                          className="size-5"
+                          checked={include.includes(mark)}
+                          onChange={(e) =>
+                            setInclude((v) => (e.target.checked ? [...v, mark] : v.filter((x) => x !== mark)))
+                          }
+                        />
+                        <label htmlFor={`bulk-include-${mark}`}>
+                          {t("actions.bulkInclude", { mark: markName(mark) })}
+                        </label>
+                        <span className="text-ink-soft">
+                          ({t("actions.bulkMarkCount", { mark: markName(mark), n })})
+                        </span>
+                      </li>
+                    ))}
+                  </ul>
+                </fieldset>
+              ) : null}
+              {preview.data.count > 0 ? (
+                <p className="mt-2">{t("actions.bulkConfirm", { n: preview.data.count })}</p>
+              ) : (
+                <p className="mt-2">{t("actions.bulkNone")}</p>
+              )}
+              <div className="mt-2 flex flex-wrap gap-2">
+                {preview.data.count > 0 ? (
+                  <button
+                    type="button"
+                    autoFocus
+                    disabled={preview.isValidating}
+                    className="inline-flex min-h-touch items-center rounded-lg bg-reed-700 px-4 font-semibold text-paper disabled:opacity-60"
+                    onClick={() => void bulkApprove()}
+                  >
+                    {t("actions.bulkYes", { n: preview.data.count })}
+                  </button>
+                ) : null}
                 <button
                   type="button"
-                  autoFocus
-                  className="inline-flex min-h-touch items-center rounded-lg bg-reed-700 px-4 font-semibold text-paper"
-                  onClick={() => void bulkApprove()}
+                  autoFocus={preview.data.count === 0}
+                  className={secondaryButtonClass}
+                  onClick={() => setBulkOpen(false)}
                 >
-                  {t("actions.bulkYes", { n: counts.pending })}
-                </button>
-                <button type="button" className={secondaryButtonClass} onClick={() => setBulkOpen(false)}>
                   {t("actions.cancel")}
                 </button>
               </div>
-            </>
-          ) : (
-            <>
-              <p id="bulk-question">{t("actions.bulkNone")}</p>
-              <button
-                type="button"
-                autoFocus
-                className={`${secondaryButtonClass} mt-2`}
-                onClick={() => setBulkOpen(false)}
-              >
-                {t("actions.cancel")}
-              </button>
             </>
           )}
         </div>
       ) : null}
 
-      <p
+      <div
         role="status"
         aria-live="polite"
-        className={`min-h-6 text-sm font-semibold ${status?.bad ? "text-signal" : "text-reed-800"}`}
+        className={`flex min-h-6 flex-wrap items-center gap-3 text-sm font-semibold ${status?.bad ? "text-signal" : "text-reed-800"}`}
       >
-        {status?.text ?? ""}
-      </p>
+        <span>{status?.text ?? ""}</span>
+        {status?.undo ? (
+          <button
+            type="button"
+            disabled={busy}
+            aria-keyshortcuts={keyLabel("undo")}
+            className={secondaryButtonClass}
+            onClick={undoToast}
+          >
+            {t("actions.undo")} <kbd className="ml-2 rounded border px-1 text-xs">{keyLabel("undo")}</kbd>
+          </button>
+        ) : null}
+      </div>
 
       <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-        <section aria-labelledby="queue-title" className="min-w-0">
+        <section aria-labelledby="queue-title" className={`min-w-0 ${current ? "max-lg:hidden" : ""}`}>
+          <a
+            href="#decision-buttons"
+            className="sr-only focus:not-sr-only focus:inline-block focus:rounded focus:bg-white focus:p-2 focus:font-semibold"
+          >
+            {t("queue.skip")}
+          </a>
           <h2 id="queue-title" className="sr-only">
             {t("queue.title")}
           </h2>
@@ -285,10 +401,10 @@ export function ReviewDesk(props: Props) {
                   <th scope="col" className="p-2">
                     {t("queue.taxon")}
                   </th>
-                  <th scope="col" className="p-2 text-right">
+                  <th scope="col" className="p-2 text-right max-sm:hidden">
                     {t("queue.count")}
                   </th>
-                  <th scope="col" className="p-2">
+                  <th scope="col" className="p-2 max-sm:hidden">
                     {t("queue.volunteer")}
                   </th>
                   <th scope="col" className="p-2">
@@ -302,6 +418,13 @@ export function ReviewDesk(props: Props) {
                     key={item.id}
                     id={`row-${item.id}`}
                     aria-selected={i === selected}
+                    aria-label={t("queue.rowLabel", {
+                      taxon: item.commonName ?? item.scientificName ?? t("queue.unidentified"),
+                      count: item.countIsEstimate ? t("queue.about", { count: item.count }) : String(item.count),
+                      volunteer: item.volunteerName,
+                      when: when(item.observedAt),
+                      state: tState(item.reviewState),
+                    })}
                     onClick={() => {
                       setSelected(i);
                       setMode(null);
@@ -335,12 +458,16 @@ export function ReviewDesk(props: Props) {
                         {item.zoneName ? ` · ${item.zoneName}` : ""}
                         {item.photoCount ? ` · ${t("queue.photos", { n: item.photoCount })}` : ""}
                       </span>
+                      <span className="block text-xs sm:hidden">
+                        ×{item.countIsEstimate ? t("queue.about", { count: item.count }) : item.count} ·{" "}
+                        {item.volunteerName}
+                      </span>
                       <MarkChips marks={item.checkMarks} />
                     </td>
-                    <td className="p-2 text-right tabular-nums">
+                    <td className="p-2 text-right tabular-nums max-sm:hidden">
                       {item.countIsEstimate ? t("queue.about", { count: item.count }) : item.count}
                     </td>
-                    <td className="p-2">{item.volunteerName}</td>
+                    <td className="p-2 max-sm:hidden">{item.volunteerName}</td>
                     <td className="p-2">
                       <ReviewStateMark state={item.reviewState} />
                     </td>
@@ -368,10 +495,22 @@ export function ReviewDesk(props: Props) {
 
         <section
           aria-label={t("detail.title")}
-          className="min-w-0 space-y-3 rounded-lg border border-reed-200 bg-white/70 p-3"
+          className={`min-w-0 space-y-3 rounded-lg border border-reed-200 bg-white/70 p-3 ${current ? "" : "max-lg:hidden"}`}
         >
           {current ? (
             <>
+              <button
+                type="button"
+                className={`${secondaryButtonClass} lg:hidden`}
+                onClick={() => {
+                  const id = current.id;
+                  setSelected(-1);
+                  setMode(null);
+                  requestAnimationFrame(() => document.getElementById(`row-${id}`)?.querySelector("button")?.focus());
+                }}
+              >
+                ← {t("queue.back")}
+              </button>
               <DecisionPanel
                 key={current.id}
                 item={current}
@@ -380,10 +519,19 @@ export function ReviewDesk(props: Props) {
                 reasons={props.reasons}
                 eventId={eventId}
                 busy={busy}
-                onDecide={(body) => void decide(current, body)}
+                onDecide={(body, label) => void decide(current, body, label)}
               />
               {detail.data && detail.data.sighting.id === current.id ? (
-                <DetailPane detail={detail.data} timeZone={timeZone} eventId={eventId} />
+                <DetailPane
+                  detail={detail.data}
+                  timeZone={timeZone}
+                  eventId={eventId}
+                  busy={busy}
+                  onUndo={(reviewId) => {
+                    const d = detail.data!;
+                    void undo(d.sighting.id, reviewId, d.sighting.version, nameOf(current));
+                  }}
+                />
               ) : (
                 <p>{t("detail.loading")}</p>
               )}
@@ -395,7 +543,11 @@ export function ReviewDesk(props: Props) {
       </div>
 
       {showKeys ? (
-        <aside aria-labelledby="keys-title" className="rounded-lg border border-reed-200 bg-paper-deep p-3 text-sm">
+        // Hidden on touch screens, where there is no keyboard to press them.
+        <aside
+          aria-labelledby="keys-title"
+          className="rounded-lg border border-reed-200 bg-paper-deep p-3 text-sm [@media(hover:none)]:hidden"
+        >
           <h2 id="keys-title" className="font-bold text-reed-900">
             {t("keys.title")}
           </h2>

@@ -11,6 +11,15 @@ export const decisionInput = z.discriminatedUnion("action", [
   z.object({ action: z.literal("approve"), version, message: note }).strict(),
   z.object({ action: z.literal("reject"), version, reason: z.enum(REJECT_REASONS), message: note }).strict(),
   z.object({ action: z.literal("return"), version, message: freeText().trim().min(3).max(2000) }).strict(),
-  z.object({ action: z.literal("reidentify"), version, taxonId: z.uuid(), message: note }).strict(),
+  // approve: true makes "re-identify and approve" one decision.
+  z
+    .object({
+      action: z.literal("reidentify"),
+      version,
+      taxonId: z.uuid(),
+      approve: z.boolean().optional(),
+      message: note,
+    })
+    .strict(),
 ]);
 export type DecisionInput = z.infer<typeof decisionInput>;

@@ -1,0 +1,2 @@
+ALTER TABLE "reviews" ADD COLUMN "undoes_id" bigint;--> statement-breakpoint
+ALTER TABLE "reviews" ADD CONSTRAINT "reviews_undoes_id_reviews_id_fk" FOREIGN KEY ("undoes_id") REFERENCES "public"."reviews"("id") ON DELETE no action ON UPDATE no action;
