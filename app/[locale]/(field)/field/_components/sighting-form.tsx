@@ -64,6 +64,8 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
   const [errors, setErrors] = useState<Errors>({});
   const [saving, setSaving] = useState(false);
   const answering = editing?.state === "sent" && editing.reviewState === "returned";
+  // A sent sighting edited otherwise is a correction: a new version for the server.
+  const correcting = editing?.state === "sent" && !answering;
   const searchRef = useRef<HTMLInputElement>(null);
 
   useEffect(() => {
@@ -118,6 +120,12 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
       notes: notes.trim(),
       photoIds: prior?.photoIds ?? [],
       ...(answering ? { answer: { toVersion: editing!.serverVersion ?? 1, message: answer.trim() } } : {}),
+      // A correction still waiting keeps the version it corrects when edited again.
+      ...(correcting
+        ? { correction: { toVersion: editing!.serverVersion ?? 1 } }
+        : !answering && prior?.correction
+          ? { correction: prior.correction }
+          : {}),
     };
     setSaving(true);
     try {
@@ -145,6 +153,9 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
     <form
       aria-label={editing ? t("editTitle") : t("addTitle")}
       noValidate
+      onKeyDown={(e) => {
+        if (e.key === "Escape") onCancel(); // Esc closes the form, as the desk's Esc closes its pane
+      }}
       onSubmit={(e) => {
         e.preventDefault();
         void save();
@@ -152,7 +163,7 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
       className="space-y-5"
     >
       <h2 className="text-2xl font-bold text-reed-900">
-        {answering ? t("answerTitle") : editing ? t("editTitle") : t("addTitle")}
+        {answering ? t("answerTitle") : correcting ? t("correctTitle") : editing ? t("editTitle") : t("addTitle")}
       </h2>
       {answering && editing?.question ? (
         <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900">
