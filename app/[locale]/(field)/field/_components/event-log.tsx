@@ -61,6 +61,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       <SightingForm
         db={db}
         eventId={event.id}
+        timeZone={event.timeZone}
         index={index}
         zones={zones}
         position={position}

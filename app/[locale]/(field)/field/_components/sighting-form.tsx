@@ -10,11 +10,13 @@ import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/l
 import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
 import { zoneAt } from "@/lib/field/zones";
 import { ZoneMap } from "@/components/zone-map";
+import { utcToZonedLocal, zonedLocalToUtc } from "@/lib/time/zoned";
 import type { PositionState } from "./use-position";
 
 type Props = {
   db: FieldDatabase;
   eventId: string;
+  timeZone: string; // the event's: the time field reads and writes its wall clock
   index: SpeciesIndex | null;
   zones: ZoneCollection | null;
   position: PositionState;
@@ -32,15 +34,24 @@ const input =
   "block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg text-ink aria-[invalid=true]:border-signal";
 const label = "block text-lg font-bold";
 
-function toLocalInput(iso: string) {
-  const d = new Date(iso);
-  const pad = (n: number) => String(n).padStart(2, "0");
-  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}T${pad(d.getHours())}:${pad(d.getMinutes())}`;
-}
+// The server's allowance for a phone clock ahead of its own (db/queries/sync.ts FUTURE_SKEW_MS).
+const FUTURE_SKEW_MS = 10 * 60_000;
 
 /** Adding (or editing, or answering) a sighting in a few taps. */
-export function SightingForm({ db, eventId, index, zones, position, session, editing, onCancel, onSaved }: Props) {
+export function SightingForm({
+  db,
+  eventId,
+  timeZone,
+  index,
+  zones,
+  position,
+  session,
+  editing,
+  onCancel,
+  onSaved,
+}: Props) {
   const t = useTranslations("FieldLog");
+  const tSync = useTranslations("FieldSync");
   const prior = editing?.record;
   const [query, setQuery] = useState("");
   const [usage, setUsage] = useState<Usage>({});
@@ -51,7 +62,8 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
   const [description, setDescription] = useState(prior?.description ?? "");
   const [count, setCount] = useState(prior?.count ?? 1);
   const [about, setAbout] = useState(prior?.countIsEstimate ?? false);
-  const [time, setTime] = useState(() => toLocalInput(prior?.observedAt ?? new Date().toISOString()));
+  const [initialTime] = useState(() => utcToZonedLocal(new Date(prior?.observedAt ?? Date.now()), timeZone));
+  const [time, setTime] = useState(initialTime);
   const [place, setPlace] = useState<Place | null>(
     prior ? { latitude: prior.latitude, longitude: prior.longitude, accuracyM: prior.accuracyM, manual: true } : null,
   );
@@ -100,8 +112,15 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
     if (unidentified && !description.trim()) next.description = t("errors.description");
     if (!Number.isInteger(count) || count < 1) next.count = t("errors.count");
     if (!where) next.location = t("errors.location");
-    const observed = new Date(time);
+    // An untouched time keeps its seconds, so a correction never changes it by accident.
+    let observed = new Date(NaN);
+    try {
+      observed = prior && time === initialTime ? new Date(prior.observedAt) : zonedLocalToUtc(time, timeZone);
+    } catch {
+      // not a date-time: reported just below
+    }
     if (Number.isNaN(observed.getTime())) next.time = t("errors.time");
+    else if (observed.getTime() > Date.now() + FUTURE_SKEW_MS) next.time = tSync("reason.future_time");
     if (answering && !answer.trim()) next.answer = t("errors.answer");
     setErrors(next);
     if (Object.keys(next).length > 0 || !where) return;
