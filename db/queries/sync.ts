@@ -462,7 +462,9 @@ async function storeSightings(
     }
     const f = fields(rec);
     const changes = changedFields(row, rec, f);
-    if (!changes.length) {
+    // An answer may change nothing but say something; a resent one finds the record pending.
+    const freshAnswer = rec.answer && state === "returned" && rec.answer.toVersion === row.version;
+    if (!changes.length && !freshAnswer) {
       acks.push({ kind: "sighting", id: rec.id, index, outcome: "already_had", reviewState: state });
       continue;
     }
@@ -487,19 +489,20 @@ async function storeSightings(
     try {
       await tx.transaction(async (sp) => {
         // The values it had are kept before they change (design.md "correction").
-        await sp.insert(sightingVersions).values({
-          sightingId: rec.id,
-          version: row.version,
-          sessionId: row.sessionId,
-          taxonId: row.taxonId,
-          description: row.description,
-          count: row.count,
-          countIsEstimate: row.countIsEstimate,
-          observedAt: row.observedAt,
-          location: { longitude: Number(row.longitude), latitude: Number(row.latitude) },
-          accuracyM: row.accuracyM,
-          notes: row.notes,
-        });
+        if (changes.length)
+          await sp.insert(sightingVersions).values({
+            sightingId: rec.id,
+            version: row.version,
+            sessionId: row.sessionId,
+            taxonId: row.taxonId,
+            description: row.description,
+            count: row.count,
+            countIsEstimate: row.countIsEstimate,
+            observedAt: row.observedAt,
+            location: { longitude: Number(row.longitude), latitude: Number(row.latitude) },
+            accuracyM: row.accuracyM,
+            notes: row.notes,
+          });
         await sp
           .update(sightings)
           .set({ ...f, reviewState: "pending", version: row.version + 1, updatedAt: new Date() })

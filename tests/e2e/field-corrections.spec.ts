@@ -91,8 +91,11 @@ test("a sent pending sighting is corrected on the phone and the desk shows the n
     found = await coord
       .getByText("A second one answered from the gorse")
       .first()
-      .isVisible({ timeout: 3_000 })
-      .catch(() => false);
+      .waitFor({ state: "visible", timeout: 5_000 })
+      .then(
+        () => true,
+        () => false,
+      );
   }
   expect(found).toBe(true);
   await expect(coord.getByText("Version 2")).toBeVisible();

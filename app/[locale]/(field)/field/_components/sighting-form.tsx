@@ -179,7 +179,8 @@ export function SightingForm({
         e.preventDefault();
         void save();
       }}
-      className="space-y-5"
+      // A focused field scrolls clear of the fixed Save bar (56 px button, padding and border).
+      className="space-y-5 [&_input]:scroll-mb-32 [&_select]:scroll-mb-32 [&_textarea]:scroll-mb-32"
     >
       <h2 className="text-2xl font-bold text-reed-900">
         {answering ? t("answerTitle") : correcting ? t("correctTitle") : editing ? t("editTitle") : t("addTitle")}
