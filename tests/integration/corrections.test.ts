@@ -136,6 +136,26 @@ describe("a correction of a sent sighting", () => {
   });
 });
 
+describe("an answer", () => {
+  it("is taken when it changes nothing but says something, and its resend changes nothing more", async () => {
+    const rec = sighting();
+    await ingest([rec]);
+    await decide(scope, coordinator, rec.id, { action: "return", version: 1, message: "Are you sure of the count?" });
+    const answered = { ...rec, answer: { toVersion: 2, message: "Yes, two together" } };
+    expect((await ingest([answered]))[0]).toMatchObject({ outcome: "updated", reviewState: "pending" });
+    expect((await ingest([answered]))[0]).toMatchObject({ outcome: "already_had", reviewState: "pending" });
+    const rows = await history(rec.id);
+    expect(rows.map((r) => [r.toState, r.message])).toEqual([
+      ["returned", "Are you sure of the count?"],
+      ["pending", "Yes, two together"],
+    ]);
+    // Nothing changed, so no earlier version to keep.
+    expect(await db().select().from(s.sightingVersions).where(eq(s.sightingVersions.sightingId, rec.id))).toHaveLength(
+      0,
+    );
+  });
+});
+
 describe("a withdrawal", () => {
   it("takes a pending sighting out of review and of the results; it can never be approved again", async () => {
     const before = await results();
