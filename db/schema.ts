@@ -190,10 +190,14 @@ export const events = pgTable(
     photoRequiredOffList: boolean("photo_required_off_list").notNull().default(true),
     accuracyLimitM: integer("accuracy_limit_m").notNull().default(100),
     joinCode: varchar("join_code", { length: 32 }).unique(),
+    // The review period ends here (design.md "review period"); null: 30 days after the end
+    // (lib/time/review-period.ts). Answers and corrections are taken until then.
+    reviewClosesAt: timestamp("review_closes_at", { withTimezone: true, mode: "date" }),
     createdAt: createdAt(),
   },
   (t) => [
     check("events_ends_after_starts", sql`${t.endsAt} > ${t.startsAt}`),
+    check("events_review_after_end", sql`${t.reviewClosesAt} IS NULL OR ${t.reviewClosesAt} >= ${t.endsAt}`),
     check("events_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`),
     check("events_accuracy_limit_positive", sql`${t.accuracyLimitM} > 0`),
     check("events_languages_nonempty", sql`cardinality(${t.languages}) > 0`),
@@ -358,6 +362,8 @@ export const sightings = pgTable(
     notes: text("notes").notNull().default(""),
     reviewState: reviewState("review_state").notNull().default("pending"),
     version: integer("version").notNull().default(1), // optimistic concurrency for review decisions
+    // Withdrawn by its volunteer (design.md "correction"): rejected with reason "withdrawn", never approved again.
+    withdrawnAt: timestamp("withdrawn_at", { withTimezone: true, mode: "date" }),
     checkMarks: checkMark("check_marks")
       .array()
       .notNull()
@@ -373,6 +379,7 @@ export const sightings = pgTable(
       sql`ST_X(${t.location}) BETWEEN -180 AND 180 AND ST_Y(${t.location}) BETWEEN -90 AND 90`,
     ),
     check("sightings_identified_or_described", sql`${t.taxonId} IS NOT NULL OR length(btrim(${t.description})) > 0`),
+    check("sightings_withdrawn_not_approved", sql`${t.withdrawnAt} IS NULL OR ${t.reviewState} <> 'approved'`),
     index("sightings_queue_idx").on(t.eventId, t.reviewState, t.createdAt, t.id),
     // The review queue, newest or oldest observed first, with and without a state filter.
     index("sightings_queue_observed_idx").on(t.eventId, t.reviewState, t.observedAt, t.id),
@@ -432,6 +439,32 @@ export const reviews = pgTable(
     undoesId: bigint("undoes_id", { mode: "number" }).references((): AnyPgColumn => reviews.id),
   },
   (t) => [index("reviews_sighting_idx").on(t.sightingId, t.decidedAt)],
+);
+
+/**
+ * Every earlier version of a sighting's content (design.md "correction": the history keeps
+ * every version): when the volunteer corrects a sent sighting or answers a question with
+ * changes, the values it had at `version` are kept here before the row changes. Append-only.
+ */
+export const sightingVersions = pgTable(
+  "sighting_versions",
+  {
+    sightingId: uuid("sighting_id")
+      .notNull()
+      .references(() => sightings.id, { onDelete: "restrict" }),
+    version: integer("version").notNull(), // the sighting's version while it held these values
+    sessionId: uuid("session_id"),
+    taxonId: uuid("taxon_id").references(() => taxa.id, { onDelete: "restrict" }),
+    description: text("description").notNull(),
+    count: integer("count").notNull(),
+    countIsEstimate: boolean("count_is_estimate").notNull(),
+    observedAt: timestamp("observed_at", { withTimezone: true, mode: "date" }).notNull(),
+    location: point("location").notNull(),
+    accuracyM: real("accuracy_m").notNull(),
+    notes: text("notes").notNull(),
+    replacedAt: timestamp("replaced_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.sightingId, t.version] })],
 );
 
 export const emailOutbox = pgTable(

@@ -62,6 +62,7 @@ export async function getPublicEventBySlug(slug: string) {
       endsAt: events.endsAt,
       timeZone: events.timeZone,
       languages: events.languages,
+      reviewClosesAt: events.reviewClosesAt,
       organisationName: organisations.name,
     })
     .from(events)

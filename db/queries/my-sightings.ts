@@ -41,6 +41,7 @@ export async function listMySightings(userId: string, eventId: string): Promise<
       rejectionReason: sql<
         string | null
       >`CASE WHEN ${sightings.reviewState} = 'rejected' THEN ${latest("rejected", reviews.reason)} END`,
+      withdrawn: sql<boolean>`${sightings.withdrawnAt} IS NOT NULL`,
       updatedAt: sightings.updatedAt,
     })
     .from(sightings)

@@ -3,7 +3,8 @@ import { and, eq, inArray, sql } from "drizzle-orm";
 import type { RecordOutcome, RecordRef, RefusalCode } from "@/lib/sync/acks";
 import type { ReviewState, SessionRecord, SightingRecord } from "@/lib/sync/records";
 import { getDb, type Db } from "../client";
-import { countSessions, events, reviews, sightings, taxa, zones } from "../schema";
+import { reviewOpen } from "@/lib/time/review-period";
+import { countSessions, events, reviews, sightingVersions, sightings, taxa, zones } from "../schema";
 import { refreshCheckMarks } from "./check-marks";
 
 // The server half of the field log's sync (issue 5), below the handler: records already
@@ -42,6 +43,51 @@ const sameTime = (a: Date | null, iso: string | null) =>
 const lower = (id: string | null) => id?.toLowerCase() ?? null;
 
 type Good<R> = { index: number; rec: R };
+
+/** reviews.reason of a volunteer's own change: a withdrawal, a correction. */
+export const WITHDRAWN = "withdrawn";
+export const CORRECTED = "corrected";
+
+type StoredSighting = {
+  sessionId: string | null;
+  taxonId: string | null;
+  description: string;
+  count: number;
+  countIsEstimate: boolean;
+  observedAt: Date;
+  longitude: number;
+  latitude: number;
+  accuracyM: number;
+  notes: string;
+};
+
+/**
+ * What a resent sighting changes, one line per field ("count: 2 → 4"), in the data's own
+ * terms (ids, ISO times) so that it reads the same in every language; empty when nothing changed.
+ */
+function changedFields(
+  row: StoredSighting,
+  rec: SightingRecord,
+  f: { sessionId: string | null; taxonId: string | null; observedAt: Date },
+): string[] {
+  const out: string[] = [];
+  const line = (name: string, from: unknown, to: unknown) =>
+    out.push(
+      `${name}: ${from === null || from === "" ? "—" : String(from)} → ${to === null || to === "" ? "—" : String(to)}`,
+    );
+  if (row.sessionId !== f.sessionId) line("sessionId", row.sessionId, f.sessionId);
+  if (row.taxonId !== f.taxonId) line("taxonId", row.taxonId, f.taxonId);
+  if (row.description !== rec.description) line("description", row.description, rec.description);
+  if (row.count !== rec.count) line("count", row.count, rec.count);
+  if (row.countIsEstimate !== rec.countIsEstimate) line("countIsEstimate", row.countIsEstimate, rec.countIsEstimate);
+  if (row.observedAt.getTime() !== f.observedAt.getTime())
+    line("observedAt", row.observedAt.toISOString(), f.observedAt.toISOString());
+  if (Number(row.longitude) !== rec.longitude || Number(row.latitude) !== rec.latitude)
+    line("location", `${Number(row.latitude)}, ${Number(row.longitude)}`, `${rec.latitude}, ${rec.longitude}`);
+  if (!sameReal(row.accuracyM, rec.accuracyM)) line("accuracyM", row.accuracyM, rec.accuracyM);
+  if (row.notes !== rec.notes) line("notes", row.notes, rec.notes);
+  return out;
+}
 type Kind = StoreOutcome["kind"];
 const refused = (
   kind: Kind,
@@ -72,11 +118,20 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
 
   const db = getDb();
   const [event] = await db
-    .select({ status: events.status, sessionKinds: events.sessionKinds })
+    .select({
+      status: events.status,
+      sessionKinds: events.sessionKinds,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      reviewClosesAt: events.reviewClosesAt,
+    })
     .from(events)
     .where(eq(events.id, input.eventId))
     .limit(1);
-  if (!event || event.status !== "open") {
+  // A closed event still takes answers, corrections and withdrawals of records it already
+  // has while its review period lasts; new records only while it is open.
+  const mayCreate = event?.status === "open";
+  if (!event || !reviewOpen(event, now)) {
     return [
       ...sessionsIn.map(({ index, rec }) => refused("session", index, rec.id, "event_not_open", "eventId")),
       ...sightingsIn.map(({ index, rec }) => refused("sighting", index, rec.id, "event_not_open", "eventId")),
@@ -109,7 +164,7 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
 
   // ---- store: one transaction for the batch, sessions before sightings
   await db.transaction(async (tx) => {
-    sessionOutcomes.push(...(await storeSessions(tx, input, goodSessions)));
+    sessionOutcomes.push(...(await storeSessions(tx, input, goodSessions, mayCreate)));
     // The session a sighting names must be the same person's, at the same event (maybe sent just above).
     const named = [...new Set(goodSightings.map((s) => s.rec.sessionId).filter((x): x is string => x !== null))];
     const ownSessions = new Set(
@@ -133,7 +188,7 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
       sightingOutcomes.push(refused("sighting", index, rec.id, "unknown_session", "sessionId"));
       return false;
     });
-    sightingOutcomes.push(...(await storeSightings(tx, input, storable)));
+    sightingOutcomes.push(...(await storeSightings(tx, input, storable, mayCreate, now)));
   });
 
   const byIndex = (a: StoreOutcome, b: StoreOutcome) => a.index - b.index;
@@ -184,7 +239,12 @@ async function insertEach<R extends { id: string }>(
   return { inserted, failed };
 }
 
-async function storeSessions(tx: Tx, input: IngestInput, good: Good<SessionRecord>[]): Promise<StoreOutcome[]> {
+async function storeSessions(
+  tx: Tx,
+  input: IngestInput,
+  good: Good<SessionRecord>[],
+  mayCreate: boolean,
+): Promise<StoreOutcome[]> {
   const acks: StoreOutcome[] = [];
   const toRow = (r: SessionRecord) => ({
     id: r.id,
@@ -198,17 +258,14 @@ async function storeSessions(tx: Tx, input: IngestInput, good: Good<SessionRecor
     distanceM: r.distanceM,
     notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(
-    tx,
-    good.map((g) => g.rec),
-    async (sp, rows) =>
-      (
-        await sp
-          .insert(countSessions)
-          .values(rows.map(toRow))
-          .onConflictDoNothing({ target: countSessions.id })
-          .returning({ id: countSessions.id })
-      ).map((r) => r.id),
+  const { inserted, failed } = await insertEach(tx, mayCreate ? good.map((g) => g.rec) : [], async (sp, rows) =>
+    (
+      await sp
+        .insert(countSessions)
+        .values(rows.map(toRow))
+        .onConflictDoNothing({ target: countSessions.id })
+        .returning({ id: countSessions.id })
+    ).map((r) => r.id),
   );
   const rest = good.filter((g) => !inserted.has(g.rec.id) && !failed.has(g.rec.id));
   const existing = new Map(
@@ -239,6 +296,10 @@ async function storeSessions(tx: Tx, input: IngestInput, good: Good<SessionRecor
     }
     const row =
       existing.get(rec.id) ?? (await tx.select().from(countSessions).where(eq(countSessions.id, rec.id)).limit(1))[0];
+    if (!row && !mayCreate) {
+      acks.push(refused("session", index, rec.id, "event_not_open", "eventId"));
+      continue;
+    }
     if (!row || row.userId !== input.userId || row.eventId !== input.eventId) {
       acks.push(refused("session", index, rec.id, "id_taken", "id"));
       continue;
@@ -268,7 +329,13 @@ async function storeSessions(tx: Tx, input: IngestInput, good: Good<SessionRecor
   return acks;
 }
 
-async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRecord>[]): Promise<StoreOutcome[]> {
+async function storeSightings(
+  tx: Tx,
+  input: IngestInput,
+  good: Good<SightingRecord>[],
+  mayCreate: boolean,
+  now: Date,
+): Promise<StoreOutcome[]> {
   const acks: StoreOutcome[] = [];
   if (!good.length) return acks;
   // The zone is decided here with PostGIS, whatever the device guessed: the smallest zone
@@ -296,17 +363,14 @@ async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRec
     zoneId: zoneOf.get(r.id) ?? null,
     notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(
-    tx,
-    good.map((g) => g.rec),
-    async (sp, rows) =>
-      (
-        await sp
-          .insert(sightings)
-          .values(rows.map((r) => ({ id: r.id, eventId: input.eventId, userId: input.userId, ...fields(r) })))
-          .onConflictDoNothing({ target: sightings.id })
-          .returning({ id: sightings.id })
-      ).map((r) => r.id),
+  const { inserted, failed } = await insertEach(tx, mayCreate ? good.map((g) => g.rec) : [], async (sp, rows) =>
+    (
+      await sp
+        .insert(sightings)
+        .values(rows.map((r) => ({ id: r.id, eventId: input.eventId, userId: input.userId, ...fields(r) })))
+        .onConflictDoNothing({ target: sightings.id })
+        .returning({ id: sightings.id })
+    ).map((r) => r.id),
   );
 
   const rest = good.filter((g) => !inserted.has(g.rec.id) && !failed.has(g.rec.id)).map((g) => g.rec.id);
@@ -328,6 +392,7 @@ async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRec
         notes: sightings.notes,
         reviewState: sightings.reviewState,
         version: sightings.version,
+        withdrawnAt: sightings.withdrawnAt,
       })
       .from(sightings)
       .where(inArray(sightings.id, ids))
@@ -347,47 +412,97 @@ async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRec
       continue;
     }
     const row = existing.get(rec.id) ?? (await readExisting([rec.id]))[0];
+    if (!row && !mayCreate) {
+      acks.push(refused("sighting", index, rec.id, "event_not_open", "eventId"));
+      continue;
+    }
     // Never overwrite another person's record, nor move a record between events.
     if (!row || row.userId !== input.userId || row.eventId !== input.eventId) {
       acks.push(refused("sighting", index, rec.id, "id_taken", "id"));
       continue;
     }
-    const f = fields(rec);
-    const same =
-      row.sessionId === f.sessionId &&
-      row.taxonId === f.taxonId &&
-      row.description === f.description &&
-      row.count === f.count &&
-      row.countIsEstimate === f.countIsEstimate &&
-      row.observedAt.getTime() === f.observedAt.getTime() &&
-      Number(row.longitude) === rec.longitude &&
-      Number(row.latitude) === rec.latitude &&
-      sameReal(row.accuracyM, rec.accuracyM) &&
-      row.notes === f.notes;
-    if (same) {
-      acks.push({
-        kind: "sighting",
-        id: rec.id,
-        index,
-        outcome: "already_had",
-        reviewState: row.reviewState as ReviewState,
-      });
+    const state = row.reviewState as ReviewState;
+    if (rec.withdrawal) {
+      if (row.withdrawnAt) {
+        acks.push({ kind: "sighting", id: rec.id, index, outcome: "already_had", reviewState: state });
+        continue;
+      }
+      if (state !== "pending" && state !== "returned") {
+        acks.push(refused("sighting", index, rec.id, "not_withdrawable", "withdrawal"));
+        continue;
+      }
+      if (rec.withdrawal.toVersion !== row.version) {
+        acks.push(
+          refused("sighting", index, rec.id, "stale_version", "withdrawal.toVersion", { version: row.version }),
+        );
+        continue;
+      }
+      try {
+        await tx.transaction(async (sp) => {
+          // Rejected with reason "withdrawn": out of the review queue and of the results
+          // (which count approved sightings only), and never approved again (a check constraint).
+          await sp
+            .update(sightings)
+            .set({ reviewState: "rejected", withdrawnAt: now, version: row.version + 1, updatedAt: new Date() })
+            .where(eq(sightings.id, rec.id));
+          await sp.insert(reviews).values({
+            sightingId: rec.id,
+            reviewerId: input.userId,
+            fromState: state,
+            toState: "rejected",
+            reason: WITHDRAWN,
+          });
+        });
+        acks.push({ kind: "sighting", id: rec.id, index, outcome: "updated", reviewState: "rejected" });
+      } catch (err) {
+        console.error("[sync] sighting not withdrawn", rec.id, (err as Error).message);
+        acks.push(refused("sighting", index, rec.id, "store_failed", "(record)"));
+      }
       continue;
     }
-    if (!rec.answer) {
+    const f = fields(rec);
+    const changes = changedFields(row, rec, f);
+    // An answer may change nothing but say something; a resent one finds the record pending.
+    const freshAnswer = rec.answer && state === "returned" && rec.answer.toVersion === row.version;
+    if (!changes.length && !freshAnswer) {
+      acks.push({ kind: "sighting", id: rec.id, index, outcome: "already_had", reviewState: state });
+      continue;
+    }
+    const change = rec.answer ?? rec.correction;
+    if (!change) {
       acks.push(refused("sighting", index, rec.id, "changed_after_send", "id"));
       continue;
     }
-    if (row.reviewState !== "returned") {
+    if (rec.answer && state !== "returned") {
       acks.push(refused("sighting", index, rec.id, "not_returned", "answer"));
       continue;
     }
-    if (rec.answer.toVersion !== row.version) {
-      acks.push(refused("sighting", index, rec.id, "stale_version", "answer.toVersion", { version: row.version }));
+    if (!rec.answer && (row.withdrawnAt || state === "rejected")) {
+      acks.push(refused("sighting", index, rec.id, "not_correctable", "correction"));
+      continue;
+    }
+    if (change.toVersion !== row.version) {
+      const field = rec.answer ? "answer.toVersion" : "correction.toVersion";
+      acks.push(refused("sighting", index, rec.id, "stale_version", field, { version: row.version }));
       continue;
     }
     try {
       await tx.transaction(async (sp) => {
+        // The values it had are kept before they change (design.md "correction").
+        if (changes.length)
+          await sp.insert(sightingVersions).values({
+            sightingId: rec.id,
+            version: row.version,
+            sessionId: row.sessionId,
+            taxonId: row.taxonId,
+            description: row.description,
+            count: row.count,
+            countIsEstimate: row.countIsEstimate,
+            observedAt: row.observedAt,
+            location: { longitude: Number(row.longitude), latitude: Number(row.latitude) },
+            accuracyM: row.accuracyM,
+            notes: row.notes,
+          });
         await sp
           .update(sightings)
           .set({ ...f, reviewState: "pending", version: row.version + 1, updatedAt: new Date() })
@@ -396,11 +511,13 @@ async function storeSightings(tx: Tx, input: IngestInput, good: Good<SightingRec
         await sp.insert(reviews).values({
           sightingId: rec.id,
           reviewerId: input.userId,
-          fromState: "returned",
+          fromState: state,
           toState: "pending",
           fromTaxonId: retaxon ? row.taxonId : null,
           toTaxonId: retaxon ? f.taxonId : null,
-          message: rec.answer!.message,
+          // A correction says what changed; an answer is the volunteer's own words.
+          reason: rec.answer ? "" : CORRECTED,
+          message: rec.answer ? rec.answer.message : changes.join("\n"),
         });
       });
       touched.push(rec.id);

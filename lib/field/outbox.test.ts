@@ -5,6 +5,7 @@ import type { SightingRecord } from "@/lib/sync/records";
 import { openFieldDb } from "./db";
 import {
   applyAcks,
+  deleteUnsent,
   eventRecords,
   InvalidRecord,
   makeDueNow,
@@ -14,6 +15,7 @@ import {
   saveSession,
   saveSighting,
   takeBatch,
+  withdrawSighting,
 } from "./outbox";
 
 // The outbox over IndexedDB (fake-indexeddb: an in-memory implementation of the
@@ -202,5 +204,50 @@ describe("field outbox", () => {
     ]);
     expect(counts).toEqual({ sent: 1, refused: 1 });
     expect(await db.get("sightings", a.id)).toMatchObject({ state: "sent", reviewState: "approved" });
+  });
+});
+
+describe("putting records right on the phone", () => {
+  it("deletes a record that never reached the server, with its photos, and never one the server has", async () => {
+    const db = await freshDb();
+    const waiting = await saveSighting(db, EVENT, sighting(), "Mallard");
+    const sent = await saveSighting(db, EVENT, sighting(), "Teal");
+    const batch = await takeBatch(db, EVENT, 0);
+    await applyAcks(
+      db,
+      { sessions: [], sightings: batch.sightings.filter((s) => s.id === sent.id) },
+      [{ kind: "sighting", id: sent.id, index: 0, outcome: "created", reviewState: "pending" }],
+      1,
+    );
+    await releaseBatch(db, { sessions: [], sightings: batch.sightings.filter((s) => s.id === waiting.id) }, "offline");
+    expect(await deleteUnsent(db, "sighting", sent.id)).toBe(false);
+    expect(await deleteUnsent(db, "sighting", waiting.id)).toBe(true);
+    expect((await eventRecords(db, EVENT)).sightings.map((s) => s.id)).toEqual([sent.id]);
+  });
+
+  it("withdraws a sent sighting: it waits again with the version the server had", async () => {
+    const db = await freshDb();
+    const rec = await saveSighting(db, EVENT, sighting(), "Mallard");
+    const batch = await takeBatch(db, EVENT, 0);
+    await applyAcks(
+      db,
+      batch,
+      [{ kind: "sighting", id: rec.id, index: 0, outcome: "created", reviewState: "pending" }],
+      1,
+    );
+    const withdrawn = await withdrawSighting(db, rec.id);
+    expect(withdrawn).toMatchObject({ state: "waiting", record: { withdrawal: { toVersion: 1 } } });
+    const again = await takeBatch(db, EVENT, 2);
+    await applyAcks(
+      db,
+      again,
+      [{ kind: "sighting", id: rec.id, index: 0, outcome: "updated", reviewState: "rejected" }],
+      3,
+    );
+    expect(await db.get("sightings", rec.id)).toMatchObject({
+      state: "sent",
+      reviewState: "rejected",
+      withdrawn: true,
+    });
   });
 });

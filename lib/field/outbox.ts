@@ -102,6 +102,55 @@ export async function saveSighting(
   return entry;
 }
 
+/**
+ * Withdraws a sent sighting (pending or returned): the record goes out again with a
+ * withdrawal of the version the server last said it had; the server takes it out of review
+ * and of the results.
+ */
+export async function withdrawSighting(db: FieldDatabase, id: string): Promise<LocalSighting | null> {
+  const tx = db.transaction("sightings", "readwrite");
+  const before = await tx.store.get(id);
+  if (!before || !before.sentAt) {
+    await tx.done;
+    return null;
+  }
+  const { answer: _a, correction: _c, ...rest } = before.record;
+  const entry: LocalSighting = {
+    ...before,
+    record: { ...rest, withdrawal: { toVersion: before.serverVersion ?? 1 } },
+    state: "waiting",
+    rev: before.rev + 1,
+    attempts: 0,
+    nextTryAt: 0,
+    problem: undefined,
+    reason: undefined,
+    field: undefined,
+  };
+  await tx.store.put(entry);
+  await tx.done;
+  return entry;
+}
+
+/**
+ * Deletes a record that never reached the server (waiting or refused), with its photos.
+ * A record the server has is never deleted here: withdraw it instead.
+ */
+export async function deleteUnsent(db: FieldDatabase, kind: "session" | "sighting", id: string): Promise<boolean> {
+  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
+  const store = tx.objectStore(kind === "session" ? "sessions" : "sightings");
+  const before = await store.get(id);
+  const unsent = before && !before.sentAt && before.state !== "sending" && before.state !== "sent";
+  if (unsent) {
+    await store.delete(id);
+    if (kind === "sighting") {
+      const photos = tx.objectStore("photos");
+      for (const p of await photos.getAll()) if (p.sightingId === id) await photos.delete(p.id);
+    }
+  }
+  await tx.done;
+  return Boolean(unsent);
+}
+
 export type Batch = { sessions: LocalSession[]; sightings: LocalSighting[] };
 
 /**
@@ -233,6 +282,7 @@ export async function applyAcks(
       if (ack.reviewState) next.reviewState = ack.reviewState;
       // The answer went with this version; a later edit is a new conversation.
       if (!edited && next.record.answer) next.question = undefined;
+      if (!edited && next.record.withdrawal) next.withdrawn = true;
     }
     return next;
   });

@@ -107,7 +107,10 @@ export async function syncEvent(
       report.problem = photos.problem;
       return report;
     }
-    await refreshMine(db, eventId).catch(() => undefined);
+    // Always one request at least, so the report tells whether the server answers at all.
+    await refreshMine(db, eventId).catch(() => {
+      report.problem = "offline";
+    });
     return report;
   });
 }
@@ -246,6 +249,8 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
     taxonId: x.taxonId,
     count: x.count,
     observedAt: x.observedAt,
+    rejectionReason: x.rejectionReason,
+    withdrawn: x.withdrawn,
   }));
   await db.put("mine", { eventId, fetchedAt: Date.now(), items });
   const stored = await db.get("packs", eventId);
@@ -279,6 +284,8 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
         reviewState: item.reviewState,
         serverVersion: item.version,
         question: item.reviewState === "returned" ? (item.question ?? undefined) : undefined,
+        rejectionReason: item.rejectionReason ?? undefined,
+        withdrawn: item.withdrawn,
       });
       continue;
     }
@@ -287,6 +294,8 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
       ...local,
       reviewState: item.reviewState,
       serverVersion: item.version,
+      rejectionReason: item.rejectionReason ?? undefined,
+      withdrawn: item.withdrawn,
       question:
         item.reviewState === "returned"
           ? (item.question ?? local.question)

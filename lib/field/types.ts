@@ -38,6 +38,8 @@ export type LocalSighting = Outboxed & {
   reviewState?: ReviewState;
   serverVersion?: number;
   question?: string; // a coordinator's question, for returned sightings
+  rejectionReason?: string; // the coordinator's reason (a REJECT_REASONS code, maybe with text), for rejected ones
+  withdrawn?: boolean; // withdrawn by the volunteer (the server keeps it as rejected)
 };
 export type LocalRecord = LocalSession | LocalSighting;
 
@@ -66,7 +68,7 @@ export type StoredPack = { eventId: string; etag: string | null; pack: EventPack
 /** One of the person's own sightings as the server has it (GET …/sightings/mine), the parts the phone keeps. */
 export type MineItem = Pick<
   MySighting,
-  "id" | "reviewState" | "version" | "question" | "taxonId" | "count" | "observedAt"
+  "id" | "reviewState" | "version" | "question" | "taxonId" | "count" | "observedAt" | "rejectionReason" | "withdrawn"
 >;
 export type StoredMine = { eventId: string; fetchedAt: number; items: MineItem[] };
 
@@ -78,4 +80,5 @@ export type KnownEvent = {
   startsAt: string;
   endsAt: string;
   status: string;
+  reviewClosesAt: string; // answers and corrections are taken until then (lib/time/review-period.ts)
 };

@@ -24,6 +24,8 @@ export const REFUSAL_CODES = [
   "changed_after_send",
   "not_returned",
   "stale_version",
+  "not_correctable",
+  "not_withdrawable",
   "store_failed",
 ] as const;
 export type RefusalCode = (typeof REFUSAL_CODES)[number];

@@ -22,6 +22,7 @@ export type MySighting = {
   photoIds: string[];
   question: string | null; // the latest message of a decision to 'returned', while the sighting is returned
   rejectionReason: string | null; // the reason of the latest decision to 'rejected', while it is rejected
+  withdrawn: boolean; // withdrawn by the volunteer (kept as rejected, reason "withdrawn")
   updatedAt: string;
 };
 

@@ -52,6 +52,17 @@ export const sightingRecord = z
       .object({ toVersion: z.number().int().min(1), message: freeText().min(1).max(2000) })
       .strict()
       .optional(),
+    // A sent sighting corrected by its volunteer (pending, returned or approved): the version
+    // they corrected. The server keeps the previous values and sends the record back to review.
+    correction: z
+      .object({ toVersion: z.number().int().min(1) })
+      .strict()
+      .optional(),
+    // A sent sighting withdrawn by its volunteer (pending or returned): it leaves the results.
+    withdrawal: z
+      .object({ toVersion: z.number().int().min(1) })
+      .strict()
+      .optional(),
   })
   .strict();
 export type SightingRecord = z.infer<typeof sightingRecord>;

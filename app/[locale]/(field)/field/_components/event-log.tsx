@@ -3,6 +3,8 @@
 import { useFormatter, useTranslations } from "next-intl";
 import { useMemo, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
+import { deleteUnsent, withdrawSighting } from "@/lib/field/outbox";
+import { REJECT_REASONS, type RejectReason } from "@/lib/domain";
 import { buildSpeciesIndex } from "@/lib/field/search";
 import type { KnownEvent, LocalSighting } from "@/lib/field/types";
 import { DeviceStateMark, ReviewStateMark } from "@/components/state-mark";
@@ -59,6 +61,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       <SightingForm
         db={db}
         eventId={event.id}
+        timeZone={event.timeZone}
         index={index}
         zones={zones}
         position={position}
@@ -69,6 +72,19 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       />
     );
   }
+
+  const remove = async (s: LocalSighting) => {
+    await deleteUnsent(db, "sighting", s.id);
+    await reload();
+    onSaved();
+  };
+  const withdraw = async (s: LocalSighting) => {
+    await withdrawSighting(db, s.id);
+    await reload();
+    onSaved();
+  };
+  const day = (iso: string) =>
+    format.dateTime(new Date(iso), { day: "numeric", month: "long", year: "numeric", timeZone: event.timeZone });
 
   // Times in the event's own time zone, as everywhere else in Ecotone (design.md).
   const when = (iso: string) =>
@@ -100,6 +116,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
             {t("eventNotOpen")}
           </p>
         ) : null}
+        <p className="text-ink-soft">{t("reviewUntil", { date: day(event.reviewClosesAt) })}</p>
         <div
           role="status"
           aria-live="polite"
@@ -154,7 +171,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
           <h2 id="outbox-title" className="text-xl font-bold text-reed-900">
             {t("outboxTitle")}
           </h2>
-          {waitingCount > 0 && online ? (
+          {waitingCount > 0 ? (
             <button
               type="button"
               onClick={onSyncNow}
@@ -194,6 +211,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
                 when={when(s.record.observedAt)}
                 photos={data.photos.filter((p) => p.sightingId === s.id).length}
                 onEdit={() => setEditing(s)}
+                onDelete={() => void remove(s)}
               />
             ))}
             {loosePhotos.map((p) => (
@@ -228,6 +246,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
                 when={when(s.record.observedAt)}
                 photos={data.photos.filter((p) => p.sightingId === s.id).length}
                 onEdit={() => setEditing(s)}
+                onWithdraw={() => void withdraw(s)}
               />
             ))}
           </ul>
@@ -259,16 +278,30 @@ function SightingRow({
   when,
   photos,
   onEdit,
+  onDelete,
+  onWithdraw,
 }: {
   s: LocalSighting;
   zone: string | null;
   when: string;
   photos: number;
   onEdit: () => void;
+  onDelete?: () => void;
+  onWithdraw?: () => void;
 }) {
   const t = useTranslations("FieldLog");
-  const returned = s.reviewState === "returned" && s.state === "sent";
+  const [confirming, setConfirming] = useState<"delete" | "withdraw" | null>(null);
+  const sent = s.state === "sent";
+  const returned = s.reviewState === "returned" && sent;
+  const unsent = !s.sentAt && (s.state === "waiting" || s.state === "failed");
+  // A sent sighting can be corrected while pending, returned or approved, and withdrawn while
+  // pending or returned (design.md "correction"); a rejected or withdrawn one stays as it is.
+  const correctable = sent && !s.withdrawn && (s.reviewState === "pending" || s.reviewState === "approved");
+  const withdrawable = sent && !s.withdrawn && (s.reviewState === "pending" || s.reviewState === "returned");
   const editable = s.state === "waiting" || s.state === "failed" || returned;
+  const reason = s.rejectionReason?.split(/[:\s]/)[0] ?? "";
+  const small =
+    "mt-2 inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800";
   return (
     <li className={`rounded-xl border-2 bg-white p-3 ${returned ? "border-heath-700" : "border-reed-200"}`}>
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -279,7 +312,9 @@ function SightingRow({
           </span>
         </span>
         <span className="flex flex-wrap gap-1">
-          {s.state === "sent" && s.reviewState ? (
+          {s.withdrawn && sent ? (
+            <span className="font-semibold text-ink-soft">{t("withdrawn")}</span>
+          ) : sent && s.reviewState ? (
             <ReviewStateMark state={s.reviewState} size="large" />
           ) : (
             <DeviceStateMark state={s.state} />
@@ -295,21 +330,77 @@ function SightingRow({
           {s.reason}
         </p>
       ) : null}
+      {sent && s.reviewState === "rejected" && !s.withdrawn && s.rejectionReason ? (
+        <p className="mt-1 rounded-lg bg-signal-soft p-2 text-signal">
+          <span className="font-bold">{t("rejectedBecause")}</span>{" "}
+          {REJECT_REASONS.includes(reason as RejectReason)
+            ? t(`rejectReason.${reason as RejectReason}`)
+            : s.rejectionReason}
+        </p>
+      ) : null}
       {s.question ? (
         <p className="mt-1 rounded-lg bg-heath-50 p-2 text-heath-900">
           <span className="font-bold">{t("question")}</span> {s.question}
         </p>
       ) : null}
-      {editable ? (
-        <button
-          type="button"
-          onClick={onEdit}
-          className="mt-2 inline-flex min-h-touch items-center rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800"
-          aria-label={`${returned ? t("answer") : t("edit")}: ${s.taxonLabel}`}
-        >
-          {returned ? t("answer") : t("edit")}
-        </button>
-      ) : null}
+      {confirming ? (
+        <div role="group" aria-label={t(`${confirming}Confirm`)} className="mt-2 rounded-lg border-2 border-signal p-2">
+          <p className="font-semibold">{t(`${confirming}Confirm`)}</p>
+          <div className="flex flex-wrap gap-2">
+            <button
+              type="button"
+              onClick={() => {
+                setConfirming(null);
+                (confirming === "delete" ? onDelete : onWithdraw)?.();
+              }}
+              className={`${small} border-signal bg-signal text-paper`}
+            >
+              {t(confirming === "delete" ? "deleteYes" : "withdrawYes")}
+            </button>
+            <button type="button" onClick={() => setConfirming(null)} className={small}>
+              {t("keep")}
+            </button>
+          </div>
+        </div>
+      ) : (
+        <div className="flex flex-wrap gap-2">
+          {editable ? (
+            <button
+              type="button"
+              onClick={onEdit}
+              className={small}
+              aria-label={`${returned ? t("answer") : t("edit")}: ${s.taxonLabel}`}
+            >
+              {returned ? t("answer") : t("edit")}
+            </button>
+          ) : null}
+          {correctable ? (
+            <button type="button" onClick={onEdit} className={small} aria-label={`${t("correct")}: ${s.taxonLabel}`}>
+              {t("correct")}
+            </button>
+          ) : null}
+          {withdrawable && onWithdraw ? (
+            <button
+              type="button"
+              onClick={() => setConfirming("withdraw")}
+              className={small}
+              aria-label={`${t("withdraw")}: ${s.taxonLabel}`}
+            >
+              {t("withdraw")}
+            </button>
+          ) : null}
+          {unsent && onDelete ? (
+            <button
+              type="button"
+              onClick={() => setConfirming("delete")}
+              className={small}
+              aria-label={`${t("delete")}: ${s.taxonLabel}`}
+            >
+              {t("delete")}
+            </button>
+          ) : null}
+        </div>
+      )}
     </li>
   );
 }

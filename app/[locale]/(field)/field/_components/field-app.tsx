@@ -10,6 +10,10 @@ import type { KnownEvent } from "@/lib/field/types";
 import { EventLog } from "./event-log";
 
 const PERIOD_MS = 30_000;
+// While the last try found no connection, look again this often (cheap: nothing goes out
+// when nothing is due), so records leave within seconds of the connection coming back
+// even where the browser never fires "online". Common practice for a foreground retry.
+const OFFLINE_RETRY_MS = 3_000;
 const LAST_EVENT = "lastEvent";
 
 export type SyncStatus = { running: boolean; last?: SyncReport & { at: number } };
@@ -23,6 +27,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
   const [sync, setSync] = useState<SyncStatus>({ running: false });
   const [packVersion, setPackVersion] = useState(0);
   const running = useRef(false);
+  const again = useRef(false);
 
   useEffect(() => {
     void registerServiceWorker(locale);
@@ -42,14 +47,23 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
   }, [locale, events]);
 
   const runSync = useCallback(async () => {
-    if (!db || !eventId || running.current || !navigator.onLine) return;
+    if (!db || !eventId) return;
+    if (running.current) {
+      again.current = true; // asked while a send is on its way: go once more right after
+      return;
+    }
     running.current = true;
     setSync((s) => ({ ...s, running: true }));
     try {
-      const report = await syncEvent(db, eventId, Date.now, announceChange);
-      setSync({ running: false, last: { ...report, at: Date.now() } });
-      if (report.problem === "offline") setOnline(false);
-      announceChange();
+      do {
+        again.current = false;
+        const report = await syncEvent(db, eventId, Date.now, announceChange);
+        setSync({ running: false, last: { ...report, at: Date.now() } });
+        // The status says what actually happened: an answer from the server means online.
+        if (report.problem === "offline") setOnline(false);
+        else if (report.ran) setOnline(true);
+        announceChange();
+      } while (again.current);
     } catch {
       setSync((s) => ({ ...s, running: false }));
     } finally {
@@ -84,20 +98,21 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
       await runSync();
     };
     void open();
-    const back = () => {
-      setOnline(true);
-      void makeDueNow(db).then(open);
-    };
+    const back = () => void makeDueNow(db).then(open);
     const gone = () => setOnline(false);
     window.addEventListener("online", back);
     window.addEventListener("offline", gone);
     const timer = window.setInterval(() => void runSync(), PERIOD_MS);
+    const quick = window.setInterval(() => {
+      if (!online) void makeDueNow(db, eventId).then(runSync);
+    }, OFFLINE_RETRY_MS);
     return () => {
+      window.clearInterval(quick);
       window.removeEventListener("online", back);
       window.removeEventListener("offline", gone);
       window.clearInterval(timer);
     };
-  }, [db, eventId, runSync]);
+  }, [db, eventId, runSync, online]);
 
   const afterSave = useCallback(() => {
     announceChange();

@@ -10,11 +10,13 @@ import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/l
 import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
 import { zoneAt } from "@/lib/field/zones";
 import { ZoneMap } from "@/components/zone-map";
+import { utcToZonedLocal, zonedLocalToUtc } from "@/lib/time/zoned";
 import type { PositionState } from "./use-position";
 
 type Props = {
   db: FieldDatabase;
   eventId: string;
+  timeZone: string; // the event's: the time field reads and writes its wall clock
   index: SpeciesIndex | null;
   zones: ZoneCollection | null;
   position: PositionState;
@@ -32,15 +34,24 @@ const input =
   "block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg text-ink aria-[invalid=true]:border-signal";
 const label = "block text-lg font-bold";
 
-function toLocalInput(iso: string) {
-  const d = new Date(iso);
-  const pad = (n: number) => String(n).padStart(2, "0");
-  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}T${pad(d.getHours())}:${pad(d.getMinutes())}`;
-}
+// The server's allowance for a phone clock ahead of its own (db/queries/sync.ts FUTURE_SKEW_MS).
+const FUTURE_SKEW_MS = 10 * 60_000;
 
 /** Adding (or editing, or answering) a sighting in a few taps. */
-export function SightingForm({ db, eventId, index, zones, position, session, editing, onCancel, onSaved }: Props) {
+export function SightingForm({
+  db,
+  eventId,
+  timeZone,
+  index,
+  zones,
+  position,
+  session,
+  editing,
+  onCancel,
+  onSaved,
+}: Props) {
   const t = useTranslations("FieldLog");
+  const tSync = useTranslations("FieldSync");
   const prior = editing?.record;
   const [query, setQuery] = useState("");
   const [usage, setUsage] = useState<Usage>({});
@@ -51,7 +62,8 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
   const [description, setDescription] = useState(prior?.description ?? "");
   const [count, setCount] = useState(prior?.count ?? 1);
   const [about, setAbout] = useState(prior?.countIsEstimate ?? false);
-  const [time, setTime] = useState(() => toLocalInput(prior?.observedAt ?? new Date().toISOString()));
+  const [initialTime] = useState(() => utcToZonedLocal(new Date(prior?.observedAt ?? Date.now()), timeZone));
+  const [time, setTime] = useState(initialTime);
   const [place, setPlace] = useState<Place | null>(
     prior ? { latitude: prior.latitude, longitude: prior.longitude, accuracyM: prior.accuracyM, manual: true } : null,
   );
@@ -64,6 +76,8 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
   const [errors, setErrors] = useState<Errors>({});
   const [saving, setSaving] = useState(false);
   const answering = editing?.state === "sent" && editing.reviewState === "returned";
+  // A sent sighting edited otherwise is a correction: a new version for the server.
+  const correcting = editing?.state === "sent" && !answering;
   const searchRef = useRef<HTMLInputElement>(null);
 
   useEffect(() => {
@@ -98,8 +112,15 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
     if (unidentified && !description.trim()) next.description = t("errors.description");
     if (!Number.isInteger(count) || count < 1) next.count = t("errors.count");
     if (!where) next.location = t("errors.location");
-    const observed = new Date(time);
+    // An untouched time keeps its seconds, so a correction never changes it by accident.
+    let observed = new Date(NaN);
+    try {
+      observed = prior && time === initialTime ? new Date(prior.observedAt) : zonedLocalToUtc(time, timeZone);
+    } catch {
+      // not a date-time: reported just below
+    }
     if (Number.isNaN(observed.getTime())) next.time = t("errors.time");
+    else if (observed.getTime() > Date.now() + FUTURE_SKEW_MS) next.time = tSync("reason.future_time");
     if (answering && !answer.trim()) next.answer = t("errors.answer");
     setErrors(next);
     if (Object.keys(next).length > 0 || !where) return;
@@ -118,6 +139,12 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
       notes: notes.trim(),
       photoIds: prior?.photoIds ?? [],
       ...(answering ? { answer: { toVersion: editing!.serverVersion ?? 1, message: answer.trim() } } : {}),
+      // A correction still waiting keeps the version it corrects when edited again.
+      ...(correcting
+        ? { correction: { toVersion: editing!.serverVersion ?? 1 } }
+        : !answering && prior?.correction
+          ? { correction: prior.correction }
+          : {}),
     };
     setSaving(true);
     try {
@@ -145,14 +172,18 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
     <form
       aria-label={editing ? t("editTitle") : t("addTitle")}
       noValidate
+      onKeyDown={(e) => {
+        if (e.key === "Escape") onCancel(); // Esc closes the form, as the desk's Esc closes its pane
+      }}
       onSubmit={(e) => {
         e.preventDefault();
         void save();
       }}
-      className="space-y-5"
+      // A focused field scrolls clear of the fixed Save bar (56 px button, padding and border).
+      className="space-y-5 [&_input]:scroll-mb-32 [&_select]:scroll-mb-32 [&_textarea]:scroll-mb-32"
     >
       <h2 className="text-2xl font-bold text-reed-900">
-        {answering ? t("answerTitle") : editing ? t("editTitle") : t("addTitle")}
+        {answering ? t("answerTitle") : correcting ? t("correctTitle") : editing ? t("editTitle") : t("addTitle")}
       </h2>
       {answering && editing?.question ? (
         <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900">

@@ -5,6 +5,7 @@ import { getPublicEventBySlug, listZones, speciesListSummary } from "@/db/querie
 import { EventStatusBadge } from "@/components/event-status-badge";
 import { SafetyNotice } from "@/components/safety-notice";
 import type { Locale } from "@/lib/i18n/routing";
+import { reviewClosesAt } from "@/lib/time/review-period";
 
 export const dynamic = "force-dynamic";
 
@@ -46,6 +47,12 @@ export default async function EventPage({ params }: Props) {
           <dd>
             {tHome("dates", { start: when(event.startsAt), end: when(event.endsAt) })}
             <span className="block text-sm text-ink-soft">{t("timeZone", { timeZone: event.timeZone })}</span>
+          </dd>
+          <dt className="font-semibold">{t("reviewPeriod")}</dt>
+          <dd>
+            {t("reviewPeriodUntil", {
+              date: format.dateTime(reviewClosesAt(event), { dateStyle: "full", timeZone: event.timeZone }),
+            })}
           </dd>
         </dl>
       </header>
