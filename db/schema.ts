@@ -188,6 +188,8 @@ export const events = pgTable(
       .default(sql`ARRAY['timed_count','walk','plot_search']::session_kind[]`),
     photoRequiredSensitive: boolean("photo_required_sensitive").notNull().default(true),
     photoRequiredOffList: boolean("photo_required_off_list").notNull().default(true),
+    // Restricted taxa in public outputs: "event" (listed with their event total only) or "hidden" (issue 13).
+    publicRestricted: text("public_restricted").notNull().default("event"),
     accuracyLimitM: integer("accuracy_limit_m").notNull().default(100),
     joinCode: varchar("join_code", { length: 32 }).unique(),
     // The review period ends here (design.md "review period"); null: 30 days after the end
@@ -200,6 +202,7 @@ export const events = pgTable(
     check("events_review_after_end", sql`${t.reviewClosesAt} IS NULL OR ${t.reviewClosesAt} >= ${t.endsAt}`),
     check("events_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`),
     check("events_accuracy_limit_positive", sql`${t.accuracyLimitM} > 0`),
+    check("events_public_restricted_kind", sql`${t.publicRestricted} IN ('event', 'hidden')`),
     check("events_languages_nonempty", sql`cardinality(${t.languages}) > 0`),
     check("events_area_valid", sql`${t.area} IS NULL OR ST_IsValid(${t.area})`),
     check("events_area_areal", sql`${t.area} IS NULL OR GeometryType(${t.area}) IN ('POLYGON', 'MULTIPOLYGON')`),

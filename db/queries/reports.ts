@@ -7,6 +7,7 @@ import type { METHOD_NOTES } from "@/lib/results/methods";
 import type { InputRecord, ReportChanges } from "@/lib/results/records";
 import { taxaMeta } from "./results";
 import type { Sensitivity } from "@/lib/domain";
+import { publicResults, type PublicPolicy } from "@/lib/results/public";
 
 export type ReportRow = {
   id: string;
@@ -104,13 +105,17 @@ export async function getReportById(id: string, options: { withInputs?: boolean 
   return row ? getReport(row.eventId, row.version, options) : null;
 }
 
-/** The names a report's downloads carry: the event's, its address and its organisation's. */
+/**
+ * The names a report's downloads carry (the event's, its address and its organisation's), for an
+ * event the public may see: none while it is a draft, so the files follow their page (issue 13).
+ */
 export async function reportEventNames(
   eventId: string,
 ): Promise<{ name: string; slug: string; organisation: string } | null> {
   const [event] = (
     await getDb().execute<{ name: string; slug: string; organisation: string }>(sql`
-    SELECT e.name, e.slug, o.name AS organisation FROM events e JOIN organisations o ON o.id = e.organisation_id WHERE e.id = ${eventId}`)
+    SELECT e.name, e.slug, o.name AS organisation FROM events e JOIN organisations o ON o.id = e.organisation_id
+    WHERE e.id = ${eventId} AND e.status <> 'draft'`)
   ).rows;
   return event ?? null;
 }
@@ -168,4 +173,35 @@ export async function reportOccurrences(report: {
     const b = taxa.get(taxonId)?.sensitivity ?? "open";
     return { ...row, observedAt: new Date(row.observedAt), taxonId, count, sensitivity: order[a] >= order[b] ? a : b };
   });
+}
+
+/**
+ * What the public may read of an event's results (lib/results/public.ts): the event's choice for
+ * restricted taxa and each taxon's current sensitivity (a raised one applies to past reports too).
+ */
+export async function publicPolicy(eventId: string, taxonIds: readonly string[]): Promise<PublicPolicy> {
+  const [event] = (
+    await getDb().execute<{ restricted: string }>(
+      sql`SELECT public_restricted AS restricted FROM events WHERE id = ${eventId}`,
+    )
+  ).rows;
+  const taxa = await taxaMeta(taxonIds);
+  return {
+    restricted: event?.restricted === "hidden" ? "hidden" : "event",
+    current: new Map([...taxa].map(([id, t]) => [id, t.sensitivity])),
+  };
+}
+
+/** An event's results as the public may read them. */
+export async function publicResultsOf<T extends { species: Results["species"] }>(
+  eventId: string,
+  results: T,
+): Promise<T> {
+  return publicResults(
+    results,
+    await publicPolicy(
+      eventId,
+      results.species.map((s) => s.id),
+    ),
+  );
 }

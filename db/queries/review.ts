@@ -45,14 +45,26 @@ function encodeCursor(observedAt: string, id: string): string {
 export function decodeCursor(cursor: string): { observedAt: string; id: string } | null {
   const text = Buffer.from(cursor, "base64url").toString("utf8");
   const m = text.match(
-    /^((\d{4})-(\d{2})-(\d{2}) (\d{2}):(\d{2}):(\d{2})(?:\.\d{1,6})?[+-]\d{2}(?::\d{2})?)\|([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/i,
+    /^((\d{4})-(\d{2})-(\d{2}) (\d{2}):(\d{2}):(\d{2})(?:\.\d{1,6})?[+-](\d{2})(?::(\d{2}))?)\|([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/i,
   );
   if (!m) return null;
   // Every part in range, so PostgreSQL never sees an impossible timestamp.
-  const [y, mo, d, h, mi, se] = m.slice(2, 8).map(Number) as [number, number, number, number, number, number];
+  // An absent offset minute part reads as 0.
+  const [y, mo, d, h, mi, se, oh, om] = m.slice(2, 10).map((x) => Number(x ?? 0)) as [
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+  ];
   const at = new Date(Date.UTC(y, mo - 1, d, h, mi, se));
   if (y < 1900 || at.getUTCMonth() !== mo - 1 || at.getUTCDate() !== d || h > 23 || mi > 59 || se > 59) return null;
-  return { observedAt: m[1]!, id: m[8]! };
+  // PostgreSQL takes a UTC offset up to 15:59 (its documented limit, from memory); +99 was a 500.
+  if (oh > 15 || om > 59) return null;
+  return { observedAt: m[1]!, id: m[10]! };
 }
 
 /** The WHERE clause shared by the queue, the counts and bulk approve. */

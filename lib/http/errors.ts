@@ -14,6 +14,7 @@ export const errorStatus = {
   forbidden: 403,
   not_found: 404,
   method_not_allowed: 405,
+  unsupported_media_type: 415,
   conflict: 409,
   unprocessable: 422,
   rate_limited: 429,

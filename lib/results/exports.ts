@@ -99,7 +99,10 @@ export function csvField(v: string | number): string {
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
-/** Species list with counts, whole event and per zone (no locations at all). */
+/**
+ * Species list with counts, whole event and per zone (no locations at all). A sensitive taxon's
+ * zone cells are left empty: a zone is finer than its generalisation (lib/results/public.ts).
+ */
 export function speciesCsv(results: Results, locale: string): string {
   const header = [
     "scientificName",
@@ -115,7 +118,7 @@ export function speciesCsv(results: Results, locale: string): string {
     s.rank,
     s.group,
     s.individuals,
-    ...results.zones.map((z) => s.byZone[z.id] ?? 0),
+    ...results.zones.map((z) => (s.sensitivity === "open" ? (s.byZone[z.id] ?? 0) : "")),
   ]);
   return [header, ...lines].map((row) => row.map(csvField).join(",")).join("\r\n") + "\r\n";
 }

@@ -184,3 +184,53 @@ test("a malformed id in any path (36 dashes, loose hex) is a structured 404, nev
   expect(tried).toBeGreaterThan(20);
   expect(problems).toEqual([]);
 });
+
+test("deep nesting, wrong content types and impossible cursor offsets are 4xx answers, never a 5xx", async ({
+  page,
+  baseURL,
+}) => {
+  await signInWithPassword(page, "organiser@example.org");
+  const ids = await demoIds();
+  const before = await tableCounts();
+  const problems: string[] = [];
+  const jsonRoutes = ROUTES.filter((r) => r.method !== "GET" && r.body);
+  const deep = "[".repeat(5000) + "]".repeat(5000);
+  const deepObject = `{"a":${'{"b":'.repeat(5000)}1${"}".repeat(5000)}}`;
+  for (const route of jsonRoutes) {
+    const good = JSON.stringify(route.body!(ids));
+    const shapes: { label: string; type: string; data: string; expect: number }[] = [
+      { label: "5000 nested arrays", type: "application/json", data: deep, expect: 400 },
+      { label: "5000 nested objects", type: "application/json", data: deepObject, expect: 400 },
+      { label: "text/plain", type: "text/plain;charset=UTF-8", data: good, expect: 415 },
+      { label: "form", type: "application/x-www-form-urlencoded", data: "a=1", expect: 415 },
+      { label: "octet-stream", type: "application/octet-stream", data: good, expect: 415 },
+    ];
+    for (const shape of shapes) {
+      const res = await page.request.fetch(route.path(ids), {
+        method: route.method,
+        headers: { "content-type": shape.type, origin: baseURL! },
+        data: shape.data,
+      });
+      const json = await res.json().catch(() => null);
+      const label = `${route.method} ${route.file} with ${shape.label} → ${res.status()}`;
+      if (res.status() >= 500 || !json?.error?.code) problems.push(label);
+      else if (res.status() !== shape.expect) problems.push(`${label} (expected ${shape.expect})`);
+    }
+  }
+  // The review queue's cursor: timestamps with offsets PostgreSQL cannot read (+99 answered 500).
+  const cursor = (text: string) => Buffer.from(text, "utf8").toString("base64url");
+  const uuid = "00000000-0000-4000-8000-000000000000";
+  for (const at of [
+    "2026-06-21 07:10:00+99",
+    "2026-06-21 07:10:00-16:00",
+    "2026-06-21 07:10:00+01:99",
+    "9999-12-31 23:59:59+15:59",
+  ]) {
+    const res = await page.request.get(`/api/events/${ids.eventId}/review/queue?cursor=${cursor(`${at}|${uuid}`)}`);
+    if (res.status() >= 500) problems.push(`queue cursor ${at} → ${res.status()}`);
+    else if (!at.startsWith("9999") && res.status() !== 400)
+      problems.push(`queue cursor ${at} → ${res.status()} (expected 400)`);
+  }
+  expect(problems).toEqual([]);
+  expect(await tableCounts()).toEqual(before);
+});

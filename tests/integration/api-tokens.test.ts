@@ -18,6 +18,7 @@ import * as s from "@/db/schema";
 import { DWC_TERMS, generalise } from "@/lib/results/exports";
 import { makeApiToken } from "@/server/auth/api-token-secret";
 import { currentResults } from "@/server/results/current";
+import { publicResultsOf } from "@/db/queries/reports";
 import { db, makeFixture, lonLat, sightingValues } from "./helpers";
 
 // The read-only API through its real handlers and PostgreSQL: what a records centre's
@@ -275,7 +276,10 @@ describe("read-only API tokens", () => {
     const results = await call(resultsGet, `/api/v1/events/${f.event.id}/results`, secrets.event!, {
       eventId: f.event.id,
     });
-    expect(await results.text()).toBe((await currentResults(f.event.id)).json);
+    // The results page's JSON, with sensitive taxa as public as on the report page (never by zone).
+    const own = (await currentResults(f.event.id)).results;
+    expect(await results.text()).toBe(JSON.stringify(await publicResultsOf(f.event.id, own)));
+    expect(own.species.some((s) => s.sensitivity !== "open" && Object.keys(s.byZone).length > 0)).toBe(true);
     expect(
       await (
         await call(reportsGet, `/api/v1/events/${f.event.id}/reports`, secrets.event!, { eventId: f.event.id })

@@ -1,7 +1,7 @@
 import { z } from "zod";
-import { getReportById, reportEventNames, reportOccurrences } from "@/db/queries/reports";
+import { getReportById, publicResultsOf, reportEventNames, reportOccurrences } from "@/db/queries/reports";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
-import { REPORT_FILES } from "./schema";
+import { FILE_CACHE, REPORT_FILES } from "./schema";
 import { parseParams, pathId } from "@/lib/http/params";
 import { darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
 
@@ -19,14 +19,15 @@ export const GET = handle(async (request, { params }: Ctx) => {
   const event = await reportEventNames(report.eventId);
   if (!event) throw new ApiError("not_found");
   const base = `${event.slug}-v${report.version}`;
-  // A published version never changes, so its files may be cached for as long as anyone likes.
+  // A published version's numbers never change, but its event may go back to draft or a taxon's
+  // sensitivity may be raised: shared caches keep a file five minutes at most, then ask again.
   const headers = (type: string, name: string) => ({
     "Content-Type": type,
     "Content-Disposition": `attachment; filename="${base}-${name}"`,
-    "Cache-Control": "public, max-age=31536000, immutable",
+    "Cache-Control": FILE_CACHE,
   });
   if (file === "species.csv")
-    return new Response(speciesCsv(report.results, locale), {
+    return new Response(speciesCsv(await publicResultsOf(report.eventId, report.results), locale), {
       headers: headers("text/csv; charset=utf-8", "species.csv"),
     });
   const { rows, withheld } = publicOccurrences(report.results, await reportOccurrences(report), locale);

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
 import { getPublicEventBySlug } from "@/db/queries/events";
-import { eventCredits, getReport } from "@/db/queries/reports";
+import { eventCredits, getReport, publicResultsOf } from "@/db/queries/reports";
 import { checkReport } from "@/server/results/check";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
@@ -44,13 +44,14 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const found = await load(slug, version);
   if (!found) notFound();
   const { event, report } = found;
-  const [t, format, credits, check] = await Promise.all([
+  const [t, format, credits, check, r] = await Promise.all([
     getTranslations("Report"),
     getFormatter(),
     eventCredits(event.id),
     wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
+    // Sensitive taxa never by zone, restricted ones hidden if the organiser chose so (lib/results/public.ts).
+    publicResultsOf(event.id, report.results),
   ]);
-  const r = report.results;
   // The same estimate the results page and the live board show (lib/results/live.ts).
   const lead = blockLead(r.event);
   const q1 = r.event.abundance?.hill.q1 ?? null;

@@ -1,4 +1,6 @@
 import { publishedReport } from "@/db/queries/api-tokens";
+import { publicResultsOf } from "@/db/queries/reports";
+import type { Results } from "@/lib/results/compute";
 import { ApiError, handle } from "@/lib/http/errors";
 import { parseParams } from "@/lib/http/params";
 import { requireApiToken } from "@/server/auth/guard";
@@ -23,7 +25,8 @@ export const GET = handle(async (request, { params }: Ctx) => {
     superseded: report.version < report.latestVersion,
     engineVersion: report.engineVersion,
     inputHash: report.inputHash,
-    results: report.results as ReportResponse["results"],
+    // As public as the report page: no sensitive taxon by zone (lib/results/public.ts).
+    results: (await publicResultsOf(eventId, report.results as Results)) as ReportResponse["results"],
     methodNotes: report.methodNotes,
     changes: report.changes,
     downloads: {

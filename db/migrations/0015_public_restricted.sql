@@ -1,0 +1,2 @@
+ALTER TABLE "events" ADD COLUMN "public_restricted" text DEFAULT 'event' NOT NULL;--> statement-breakpoint
+ALTER TABLE "events" ADD CONSTRAINT "events_public_restricted_kind" CHECK ("events"."public_restricted" IN ('event', 'hidden'));
