@@ -3,6 +3,8 @@ import type { Results } from "@/lib/results/compute";
 import { ResultsCharts, type ChartLabels } from "./results-charts";
 import { StatsTable } from "./stats-table";
 import { ZoneComparison } from "./zone-comparison";
+import { ZoneSimilarity } from "./zone-similarity";
+import { HillCharts, type HillChartLabels, type HillSeries } from "./hill-charts";
 import { SUFFICIENCY } from "@/lib/results/settings";
 import { ABUNDANCE_REASONS, INCIDENCE_REASONS, reasonsText } from "./reasons";
 
@@ -81,6 +83,32 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
     noData: t("charts.noData"),
     chartSummary: t("charts.summary"),
   };
+  const hillSeries: HillSeries[] = [
+    ...(results.event.hill ? [{ name: t("wholeEvent"), hill: results.event.hill }] : []),
+    ...results.zones.flatMap((z) => (z.hill ? [{ name: z.name, hill: z.hill }] : [])),
+  ];
+  const hillKind = results.event.hill?.kind ?? "abundance";
+  const hillLabels: HillChartLabels = {
+    curveTitle: [t("hill.curve0"), t("hill.curve1"), t("hill.curve2")],
+    completenessTitle: t("hill.completeness"),
+    profileTitle: t("hill.profile"),
+    size: t(hillKind === "abundance" ? "charts.individuals" : "charts.sessions"),
+    hill: t("hill.axis"),
+    coverage: t("hill.coverage"),
+    order: t("hill.order"),
+    estimate: t("hill.estimate"),
+    observed: t("hill.observed"),
+    lower: t("hill.lower"),
+    upper: t("hill.upper"),
+    part: t("hill.part"),
+    parts: { rarefied: t("hill.rarefied"), observed: t("hill.observedPart"), extrapolated: t("hill.extrapolated") },
+    extrapolatedSuffix: t("hill.extrapolatedSuffix"),
+    bandSuffix: t("hill.bandSuffix"),
+    table: t("hill.table"),
+    summary: t("hill.summary"),
+    zone: t("similarity.zone"),
+    noBands: t("hill.noBands"),
+  };
   return (
     <div className="space-y-8">
       <PendingNotice pending={results.pending} />
@@ -122,7 +150,28 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
         />
       </section>
 
+      <section aria-labelledby="hill-title" className="space-y-3">
+        <h2 id="hill-title" className="text-2xl font-bold text-reed-900">
+          {t("hill.title")}
+        </h2>
+        {hillSeries.length === 0 ? (
+          <p>{t("hill.none")}</p>
+        ) : (
+          <>
+            <p className="max-w-prose text-sm">
+              {t(hillKind === "abundance" ? "hill.introAbundance" : "hill.introIncidence", {
+                replicates: results.rules.hill?.replicates ?? 0,
+                seed: results.rules.hill?.seed ?? 0,
+              })}
+            </p>
+            <HillCharts series={hillSeries} labels={hillLabels} xLabel={hillLabels.size} />
+          </>
+        )}
+      </section>
+
       <ZoneComparison comparison={results.comparison} countUnits={results.event.countUnits} />
+
+      <ZoneSimilarity similarity={results.similarity ?? null} />
 
       <section aria-labelledby="numbers-title" className="space-y-4">
         <h2 id="numbers-title" className="text-2xl font-bold text-reed-900">

@@ -8,15 +8,23 @@
 import {
   diversityResults,
   ENGINE_VERSION,
+  hillBeta,
+  zoneSimilarity,
+  zoneSimilarityIncidence,
   type AbundanceStats,
   type CurvePoint,
+  type HillBeta,
+  type HillCurveRow,
+  type HillProfileRow,
   type IncidenceStats,
 } from "@/lib/diversity/index";
+import { hillCurveFromProfile } from "@/lib/diversity/hill-curves";
+import { hillProfileFromProfile } from "@/lib/diversity/hill-profile";
 import { curvePoint } from "@/lib/diversity/curves";
 import { sizeForCoverage } from "@/lib/diversity/compare";
 import { bootstrapAtCoverage, differenceInterval, profileOf, type Sample } from "./compare";
 import { resolveRanks, type RankStatus } from "./ranks";
-import { COMPARISON_BOOTSTRAP, countUnitOf, SUFFICIENCY, type CountUnit } from "./settings";
+import { COMPARISON_BOOTSTRAP, countUnitOf, HILL_RESULTS, SUFFICIENCY, type CountUnit } from "./settings";
 import type { Sensitivity } from "@/lib/domain";
 
 export const NO_ZONE = "00000000-0000-0000-0000-000000000000";
@@ -76,6 +84,39 @@ export type Block = {
   incidence: IncidenceStats | null;
   rarefaction: CurvePoint[];
   accumulation: CurvePoint[];
+  /** Hill numbers q = 0, 1, 2 along size and the asymptotic profile: null when the block has no estimates of the event's kind. */
+  hill: HillBlock | null;
+};
+
+/**
+ * Hill-number curves of one block (Chao et al. 2014): `curve` holds q = 0, 1, 2 at each
+ * size (individuals, or complete sessions) with its sample coverage (the
+ * sample-completeness curve); `profile` the asymptotic estimates over q from 0 to 2.
+ * Bands and intervals from HILL_RESULTS.replicates bootstrap replicates (fixed seed);
+ * `replicates` 0 on a row: no band (not yet computed, or too few data).
+ */
+export type HillBlock = {
+  kind: "abundance" | "incidence";
+  curve: HillCurveRow[];
+  profile: HillProfileRow[];
+};
+
+/** One cell of the zone × zone table (Chao et al. 2005; the diagonal compares a zone with itself). */
+export type SimilarityCell = {
+  shared: number;
+  sorensen: number;
+  jaccard: number;
+  sorensenAdjusted: number;
+  jaccardAdjusted: number;
+};
+
+/** Between zones: shared species, similarity, and multiplicative beta (Jost 2007) for q = 0, 1, 2. */
+export type Similarity = {
+  kind: "abundance" | "incidence";
+  zones: { id: string; name: string; habitat: string }[];
+  /** cells[i][j]: zone i against zone j (symmetric). */
+  cells: SimilarityCell[][];
+  beta: HillBeta[];
 };
 
 export type ZoneResult = { id: string; name: string; habitat: string } & Block;
@@ -115,22 +156,70 @@ export type SpeciesRow = ResultsTaxon & {
 
 export type Results = {
   engineVersion: string;
-  rules: { sufficiency: typeof SUFFICIENCY; comparison: typeof COMPARISON_BOOTSTRAP };
+  rules: {
+    sufficiency: typeof SUFFICIENCY;
+    comparison: typeof COMPARISON_BOOTSTRAP;
+    /** Hill curves' settings; `bands` false: computed without their bootstrap (not yet). */
+    hill: typeof HILL_RESULTS & { bands: boolean };
+  };
   totals: { individuals: number; species: number; completeSessions: number; leftOutIndividuals: number };
   pending: Pending | null;
   event: Block;
   zones: ZoneResult[];
   comparison: Comparison | null;
+  similarity: Similarity | null;
   species: SpeciesRow[];
 };
 
-type Prepared = { block: Block; sample: { abundance: number[]; frequencies: number[]; units: number } };
+type Prepared = {
+  block: Block;
+  sample: { abundance: number[]; frequencies: number[]; units: number };
+  /** The block's unit (counted taxon) of each taxon, −1 when left out. */
+  unitOf: ArrayLike<number>;
+};
+
+export type ComputeOptions = {
+  /**
+   * Bootstrap bands of the Hill curves and profile (default true). The results page's first
+   * read after a change may skip them (server/results/current.ts) and fill them in later;
+   * a report always has them.
+   */
+  bands?: boolean;
+};
+
+/** Sizes of a Hill curve: HILL_RESULTS.points from 1 to twice the sample, and the sample itself. */
+export function hillSizes(n: number): number[] {
+  if (n <= 0) return [];
+  const out = new Set<number>([n]);
+  const k = HILL_RESULTS.points - 1;
+  for (let i = 0; i <= k; i++) out.add(Math.max(1, Math.round((i / k) * 2 * n)));
+  return [...out].sort((a, b) => a - b);
+}
+
+function hillOf(kind: HillBlock["kind"], sample: Prepared["sample"], bands: boolean): HillBlock {
+  const p =
+    kind === "abundance"
+      ? profileOf({ kind, counts: sample.abundance })
+      : profileOf({ kind, frequencies: sample.frequencies, units: sample.units });
+  const replicates = bands ? HILL_RESULTS.replicates : 0;
+  return {
+    kind,
+    curve: hillCurveFromProfile(p, { sizes: hillSizes(p.size), replicates, seed: HILL_RESULTS.seed }, "hill"),
+    profile: hillProfileFromProfile(
+      p,
+      { orders: kind === "abundance" ? HILL_RESULTS.profileOrders : [0, 1, 2], replicates, seed: HILL_RESULTS.seed },
+      "hill",
+    ),
+  };
+}
 
 /** One block: ranks resolved on its own records, then the engine on what may be estimated. */
 function block(
   taxa: readonly ResultsTaxon[],
   counts: readonly number[],
   sessionTaxa: readonly (readonly number[])[],
+  hillKind: HillBlock["kind"],
+  bands: boolean,
   status?: RankStatus[],
 ): Prepared {
   const ranks = resolveRanks(taxa, (i) => (counts[i] ?? 0) > 0);
@@ -178,6 +267,8 @@ function block(
     reasons.push("incidenceCoverage");
   const abundanceOk = !reasons.some((x) => x === "countUnits" || x === "individuals" || x === "coverage");
   const incidenceOk = r.incidence !== null && !reasons.some((x) => x === "sessions" || x === "incidenceCoverage");
+  const sample = { abundance: unitCounts, frequencies, units: T };
+  const hillOk = hillKind === "abundance" ? abundanceOk : incidenceOk;
   return {
     block: {
       observed: ranks.units,
@@ -192,8 +283,10 @@ function block(
       incidence: incidenceOk ? r.incidence : null,
       rarefaction: abundanceOk ? r.rarefactionCurve : [],
       accumulation: incidenceOk ? r.accumulationCurve : [],
+      hill: hillOk ? hillOf(hillKind, sample, bands) : null,
     },
-    sample: { abundance: unitCounts, frequencies, units: T },
+    sample,
+    unitOf: ranks.unitOf,
   };
 }
 
@@ -270,7 +363,80 @@ function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepare
   return { ...base, size, coverage, zones: rows, sentences };
 }
 
-export function computeResults(input: ResultsInput): Results {
+/**
+ * The zone × zone table on the event's units (the rank rule applied to the whole event, so
+ * every zone lists the same taxa): abundance-based where every count is of individuals, else
+ * incidence-based on complete sessions. Zones with no detections of that kind are left out.
+ */
+function similarity(
+  kind: Similarity["kind"],
+  zones: ResultsInput["zones"],
+  perZone: Map<string, number[]>,
+  sessions: ResultsInput["sessions"],
+  unitOf: ArrayLike<number>,
+  width: number,
+): Similarity | null {
+  const aligned = (counts: readonly number[]) => {
+    const out = new Array<number>(width).fill(0);
+    counts.forEach((c, i) => {
+      const u = unitOf[i] ?? -1;
+      if (u >= 0 && c > 0) out[u]! += c;
+    });
+    return out;
+  };
+  const rows = (zoneId: string) =>
+    sessions
+      .filter((s) => s.zoneId === zoneId)
+      .map((s) => {
+        const row = new Array<number>(width).fill(0);
+        for (const i of s.taxa) if ((unitOf[i] ?? -1) >= 0) row[unitOf[i]!] = 1;
+        return row;
+      });
+  const data = zones
+    .map((z) => {
+      if (kind === "abundance") {
+        const counts = aligned(perZone.get(z.id)!);
+        return { zone: z, counts, units: [] as number[][], total: counts.reduce((a, b) => a + b, 0) };
+      }
+      const units = rows(z.id);
+      const counts = new Array<number>(width).fill(0);
+      for (const r of units) r.forEach((v, u) => (counts[u]! += v));
+      return { zone: z, counts, units, total: counts.reduce((a, b) => a + b, 0) };
+    })
+    .filter((d) => d.total > 0);
+  if (data.length < 2) return null;
+  const cell = (a: (typeof data)[number], b: (typeof data)[number]): SimilarityCell => {
+    const s = kind === "abundance" ? zoneSimilarity(a.counts, b.counts) : zoneSimilarityIncidence(a.units, b.units);
+    return {
+      shared: s.shared,
+      sorensen: s.sorensen,
+      jaccard: s.jaccard,
+      sorensenAdjusted: s.sorensenAdjusted,
+      jaccardAdjusted: s.jaccardAdjusted,
+    };
+  };
+  const cells: SimilarityCell[][] = data.map(() => []);
+  for (let i = 0; i < data.length; i++)
+    for (let j = i; j < data.length; j++) {
+      const c = cell(data[i]!, data[j]!);
+      cells[i]![j] = c;
+      cells[j]![i] = c;
+    }
+  return {
+    kind,
+    zones: data.map((d) => d.zone),
+    cells,
+    beta: [0, 1, 2].map((q) =>
+      hillBeta(
+        data.map((d) => d.counts),
+        q,
+      ),
+    ),
+  };
+}
+
+export function computeResults(input: ResultsInput, options: ComputeOptions = {}): Results {
+  const bands = options.bands ?? true;
   const taxa = input.taxa.map((t) => ({ ...t, countUnit: t.countUnit ?? countUnitOf(t.group) }));
   const width = taxa.length;
   const total = new Array<number>(width).fill(0);
@@ -284,10 +450,16 @@ export function computeResults(input: ResultsInput): Results {
     row[c.zoneId] = (row[c.zoneId] ?? 0) + c.individuals;
   }
   const status: RankStatus[] = [];
+  // Abundance when every counted taxon of the event is counted in individuals, else complete sessions.
+  const hillKind = taxa.some((t, i) => (total[i] ?? 0) > 0 && t.countUnit !== "individuals")
+    ? "incidence"
+    : "abundance";
   const event = block(
     taxa,
     total,
     input.sessions.map((s) => s.taxa),
+    hillKind,
+    bands,
     status,
   );
   const prepared = new Map(
@@ -297,12 +469,18 @@ export function computeResults(input: ResultsInput): Results {
         taxa,
         perZone.get(z.id)!,
         input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
+        hillKind,
+        bands,
       ),
     ]),
   );
   const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...prepared.get(z.id)!.block }));
   const kind = event.block.countUnits.length === 0 ? "abundance" : "incidence";
   const comparison = input.zones.length >= 2 ? compare(kind, input.zones, prepared) : null;
+  const between =
+    input.zones.length >= 2
+      ? similarity(kind, input.zones, perZone, input.sessions, event.unitOf, event.block.observed)
+      : null;
 
   const species: SpeciesRow[] = taxa
     .map((t, i) => ({
@@ -317,7 +495,7 @@ export function computeResults(input: ResultsInput): Results {
 
   return {
     engineVersion: ENGINE_VERSION,
-    rules: { sufficiency: SUFFICIENCY, comparison: COMPARISON_BOOTSTRAP },
+    rules: { sufficiency: SUFFICIENCY, comparison: COMPARISON_BOOTSTRAP, hill: { ...HILL_RESULTS, bands } },
     totals: {
       individuals: event.block.individuals,
       species: event.block.observed,
@@ -328,6 +506,7 @@ export function computeResults(input: ResultsInput): Results {
     event: event.block,
     zones,
     comparison,
+    similarity: between,
     species,
   };
 }

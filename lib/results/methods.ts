@@ -1,7 +1,7 @@
 // Each number's published method name, its interval's method and the sources (papers, not
 // software); the one-line note on how to read it is translated (messages:
 // Results.notes.<key>). Frozen into every report as its method notes.
-import { COMPARISON_BOOTSTRAP, SUFFICIENCY } from "./settings";
+import { COMPARISON_BOOTSTRAP, HILL_RESULTS, SUFFICIENCY } from "./settings";
 
 export const METHOD_NOTES = [
   {
@@ -124,6 +124,32 @@ export const METHOD_NOTES = [
     name: "Comparison at equal coverage",
     interval: "bootstrap",
     source: `Richness at equal sample size (Colwell et al. 2012) and equal coverage (Chao & Jost 2012); "more" or "fewer" only when the bootstrap 95% interval of the difference at equal coverage excludes 0 (${COMPARISON_BOOTSTRAP.replicates} replicates, seed ${COMPARISON_BOOTSTRAP.seed}, assemblage of Chao et al. 2014), otherwise "no clear difference"`,
+  },
+  {
+    key: "hillCurves",
+    name: "Hill numbers q = 0, 1, 2 along sample size, and sample completeness",
+    interval: "bootstrap",
+    source: `Size-based rarefaction and extrapolation of Hill numbers (Chao et al. 2014, Ecological Monographs 84:45–67), abundance-based when every count is of individuals, else incidence-based on complete sessions; sample coverage along size (Chao & Jost 2012, Ecology 93:2533–2547); ${HILL_RESULTS.points} sizes from 1 to twice the sample, none beyond (estimates past twice the sample are unreliable); bootstrap 95% bands from the estimated assemblage (Chao et al. 2014) with a fixed ${HILL_RESULTS.replicates} replicates and seed ${HILL_RESULTS.seed} (a fixed count chosen for speed: another seed may move a band limit by a few per cent on small samples)`,
+  },
+  {
+    key: "hillProfile",
+    name: "Asymptotic diversity profile",
+    interval: "bootstrap",
+    source: `Estimated Hill numbers for q from 0 to 2 (Chao et al. 2014 for q = 0, 1, 2; Chao & Jost 2015, Methods in Ecology and Evolution 6:873–882, between them); bootstrap se, ${HILL_RESULTS.replicates} replicates, seed ${HILL_RESULTS.seed}, interval estimate ± 1.96 se with its lower end raised to the observed value`,
+  },
+  {
+    key: "similarity",
+    name: "Shared species and similarity between zones",
+    interval: null,
+    source:
+      "Abundance-based (counts of individuals) or incidence-based (complete sessions) Sørensen- and Jaccard-type indices with the correction for unseen shared species (Chao, Chazdon, Colwell & Shen 2005, Ecology Letters 8:148–159), beside the classic indices; the event's rank rule applies to every zone",
+  },
+  {
+    key: "beta",
+    name: "Multiplicative beta diversity",
+    interval: null,
+    source:
+      "Jost (2007, Ecology 88:2427–2439): gamma ÷ alpha of observed Hill numbers, zones weighted equally; on relative incidence frequencies when counts are not of individuals",
   },
 ] as const;
 

@@ -43,3 +43,19 @@ export const SUFFICIENCY = {
  * "More"/"fewer" only when that interval excludes 0.
  */
 export const COMPARISON_BOOTSTRAP = { replicates: 200, seed: 20120901 } as const;
+
+/**
+ * Hill-number curves and profile on the results page and in reports (the project's own
+ * choice, for speed): a fixed number of bootstrap replicates instead of the engine's
+ * adaptive default (up to 2,000 for curves, 10,000 for the profile), with a fixed seed
+ * recorded in every report, and `points` sizes from 1 to twice the sample (plus the
+ * sample itself). With 100 replicates a band limit moves by a few per cent under another
+ * seed on small samples (lib/diversity/hill-noise.test.ts measures the engine's moves);
+ * the method notes say so.
+ */
+export const HILL_RESULTS = {
+  replicates: 100,
+  seed: 20140101,
+  points: 16,
+  profileOrders: [0, 0.25, 0.5, 0.75, 1, 1.25, 1.5, 1.75, 2],
+} as const;

@@ -1,17 +1,61 @@
 import "server-only";
+import path from "node:path";
+import { Worker } from "node:worker_threads";
 import { loadResultsInput, resultsKey } from "@/db/queries/results";
-import { computeResults, type Results } from "@/lib/results/compute";
+import { computeResults, type Results, type ResultsInput } from "@/lib/results/compute";
 
 // The event's current results, computed once per change and shared by every reader in
 // this process (the organiser, coordinators polling, the results page). The key comes
 // from the database (lib db/queries/results.ts resultsKey), so a change made through
 // any instance is seen at once; each instance computes at most once per change.
+//
+// Speed: the first read after a change computes everything except the Hill curves'
+// bootstrap bands (rules.hill.bands false, the page says they are coming); the bands are
+// then computed in a worker thread and the entry replaced when they arrive, if nothing
+// changed meanwhile. Reports never take this path: publishing computes the bands at once.
 type Entry = { key: string; results: Results; json: string };
 const cache = new Map<string, Entry>();
 const inflight = new Map<string, Promise<Entry>>();
+const banding = new Set<string>();
 const MAX_EVENTS = 20;
 
-export async function currentResults(eventId: string): Promise<Entry> {
+function store(eventId: string, entry: Entry): void {
+  cache.delete(eventId);
+  cache.set(eventId, entry);
+  if (cache.size > MAX_EVENTS) cache.delete(cache.keys().next().value!);
+}
+
+/** The full results in a worker thread (TypeScript through tsx, present wherever the app runs). */
+function computeInWorker(input: ResultsInput): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const worker = new Worker(
+      `require("tsx/cjs/api").register(); require(${JSON.stringify(path.join(process.cwd(), "lib/results/bands-worker.ts"))});`,
+      { eval: true },
+    );
+    worker.once("message", (json: string) => {
+      resolve(json);
+      void worker.terminate();
+    });
+    worker.once("error", reject);
+    worker.once("exit", (code) => reject(new Error(`results worker exited (${code})`)));
+    worker.postMessage(input);
+  });
+}
+
+function addBands(eventId: string, key: string, input: ResultsInput): void {
+  const id = `${eventId}|${key}`;
+  if (banding.has(id)) return;
+  banding.add(id);
+  computeInWorker(input)
+    .catch(() => JSON.stringify(computeResults(input)))
+    .then((json) => {
+      if (cache.get(eventId)?.key === key) store(eventId, { key, results: JSON.parse(json) as Results, json });
+    })
+    .catch(() => undefined)
+    .finally(() => banding.delete(id));
+}
+
+export async function currentResults(eventId: string, options: { bands?: "later" | "now" } = {}): Promise<Entry> {
   const key = await resultsKey(eventId);
   const hit = cache.get(eventId);
   if (hit && hit.key === key) return hit;
@@ -19,11 +63,12 @@ export async function currentResults(eventId: string): Promise<Entry> {
   let pending = inflight.get(flightKey);
   if (!pending) {
     pending = (async () => {
-      const results = computeResults(await loadResultsInput(eventId));
+      const input = await loadResultsInput(eventId);
+      const now = options.bands === "now";
+      const results = computeResults(input, { bands: now });
       const entry = { key, results, json: JSON.stringify(results) };
-      cache.delete(eventId);
-      cache.set(eventId, entry);
-      if (cache.size > MAX_EVENTS) cache.delete(cache.keys().next().value!);
+      store(eventId, entry);
+      if (!now) addBands(eventId, key, input);
       return entry;
     })().finally(() => inflight.delete(flightKey));
     inflight.set(flightKey, pending);

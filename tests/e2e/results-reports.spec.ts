@@ -99,6 +99,8 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(page.getByTestId("rules")).toContainText("Subspecies fold into their species");
   // The zone comparison names its standard; its sentence says "more"/"fewer" only on a bootstrap interval excluding 0.
   await expect(page.getByRole("heading", { name: "Zones at equal effort" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Hill numbers along sample size" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Between zones: shared species and similarity" })).toBeVisible();
   await expect(page.getByText(/Standard: equal coverage of [\d.]+%/)).toBeVisible();
   await expect(page.getByTestId("comparison-sentences").getByRole("listitem").first()).toContainText(
     /At equal coverage \([\d.]+%\), (.+ held (more|fewer) species than .+95% bootstrap interval of the difference|no clear difference between .+ includes 0)/,
@@ -117,6 +119,8 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await anon.goto(`/es/events/${SLUG}/reports/${v1}`);
   await expect(anon.getByRole("heading", { level: 1 })).toContainText(`informe, versión ${v1}`);
   await expect(anon.getByRole("heading", { name: "Zonas con igual esfuerzo" })).toBeVisible();
+  await expect(anon.getByRole("heading", { name: "Números de Hill según el tamaño de muestra" })).toBeVisible();
+  await expect(anon.getByRole("heading", { name: "Entre zonas: especies compartidas y similitud" })).toBeVisible();
   await expect(anon.getByRole("figure", { name: "Rarefacción y extrapolación por individuos" })).toBeVisible();
   await expect(anon.getByText(/Organizado por .+ voluntarios y \d+ coordinadores/)).toBeVisible();
   await expect(

@@ -1,0 +1,349 @@
+"use client";
+
+import {
+  Area,
+  CartesianGrid,
+  ComposedChart,
+  Legend,
+  Line,
+  ResponsiveContainer,
+  Tooltip,
+  XAxis,
+  YAxis,
+  type LegendType,
+} from "recharts";
+import type { HillBlock } from "@/lib/results/compute";
+
+export type HillChartLabels = {
+  curveTitle: string[]; // q = 0, 1, 2
+  completenessTitle: string;
+  profileTitle: string;
+  size: string;
+  hill: string;
+  coverage: string;
+  order: string;
+  estimate: string;
+  observed: string;
+  lower: string;
+  upper: string;
+  part: string;
+  parts: Record<HillBlock["curve"][number]["part"], string>;
+  extrapolatedSuffix: string;
+  bandSuffix: string;
+  table: string;
+  summary: string;
+  zone: string;
+  noBands: string;
+};
+
+export type HillSeries = { name: string; hill: HillBlock };
+
+// Zones told apart by colour and by marker shape (so the charts read in grey too).
+const COLOURS = ["#153a2a", "#b5761c", "#4a6fa5", "#8f3f71", "#3d463f", "#6e450f", "#2f7f7a"];
+const MARKERS: LegendType[] = ["circle", "square", "triangle", "diamond", "cross", "star", "wye"];
+
+function Marker({ cx, cy, shape, colour }: { cx?: number; cy?: number; shape: LegendType; colour: string }) {
+  if (cx === undefined || cy === undefined || !Number.isFinite(cx) || !Number.isFinite(cy)) return null;
+  const r = 3.5;
+  switch (shape) {
+    case "square":
+      return <rect x={cx - r} y={cy - r} width={2 * r} height={2 * r} fill={colour} />;
+    case "triangle":
+      return <polygon points={`${cx},${cy - r - 1} ${cx - r - 1},${cy + r} ${cx + r + 1},${cy + r}`} fill={colour} />;
+    case "diamond":
+      return (
+        <polygon
+          points={`${cx},${cy - r - 1} ${cx + r + 1},${cy} ${cx},${cy + r + 1} ${cx - r - 1},${cy}`}
+          fill={colour}
+        />
+      );
+    case "cross":
+      return (
+        <path
+          d={`M${cx - r},${cy - r}L${cx + r},${cy + r}M${cx - r},${cy + r}L${cx + r},${cy - r}`}
+          stroke={colour}
+          strokeWidth={2}
+        />
+      );
+    default:
+      return <circle cx={cx} cy={cy} r={r} fill={colour} />;
+  }
+}
+
+const dotFor = (i: number) => {
+  const shape = MARKERS[i % MARKERS.length]!;
+  const colour = COLOURS[i % COLOURS.length]!;
+  function Dot(props: { cx?: number; cy?: number; index?: number }) {
+    return <Marker key={props.index} cx={props.cx} cy={props.cy} shape={shape} colour={colour} />;
+  }
+  return Dot;
+};
+
+type Row = Record<string, number | [number, number] | null>;
+
+/** Rows keyed by x, one set of columns per series (s{i}r rarefied, s{i}e extrapolated, s{i}b band). */
+function merge(
+  series: HillSeries[],
+  pick: (
+    h: HillBlock,
+  ) => { x: number; y: number; band: [number, number] | null; extrapolated: boolean; observed: boolean }[],
+): Row[] {
+  const rows = new Map<number, Row>();
+  series.forEach((s, i) => {
+    for (const p of pick(s.hill)) {
+      const row = rows.get(p.x) ?? { x: p.x };
+      if (!p.extrapolated || p.observed) row[`s${i}r`] = p.y;
+      if (p.extrapolated || p.observed) row[`s${i}e`] = p.y;
+      if (p.band) row[`s${i}b`] = p.band;
+      rows.set(p.x, row);
+    }
+  });
+  return [...rows.values()].sort((a, b) => (a.x as number) - (b.x as number));
+}
+
+function Frame({
+  title,
+  summary,
+  children,
+  table,
+}: {
+  title: string;
+  summary: string;
+  children: React.ReactElement;
+  table: React.ReactNode;
+}) {
+  return (
+    <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={title}>
+      <figcaption className="font-semibold">{title}</figcaption>
+      <div className="h-72 w-full" role="img" aria-label={`${title}. ${summary}`}>
+        <ResponsiveContainer width="100%" height="100%">
+          {children}
+        </ResponsiveContainer>
+      </div>
+      {table}
+    </figure>
+  );
+}
+
+function SeriesLines({
+  series,
+  bands,
+  dashed,
+  labels,
+}: {
+  series: HillSeries[];
+  bands: boolean;
+  dashed: boolean;
+  labels: HillChartLabels;
+}) {
+  return (
+    <>
+      {bands
+        ? series.map((s, i) => (
+            <Area
+              key={`b${i}`}
+              dataKey={`s${i}b`}
+              name={`${s.name} ${labels.bandSuffix}`}
+              legendType="none"
+              stroke="none"
+              fill={COLOURS[i % COLOURS.length]}
+              fillOpacity={0.12}
+              connectNulls
+              isAnimationActive={false}
+            />
+          ))
+        : null}
+      {series.map((s, i) => (
+        <Line
+          key={`r${i}`}
+          dataKey={`s${i}r`}
+          name={s.name}
+          legendType={MARKERS[i % MARKERS.length]}
+          stroke={COLOURS[i % COLOURS.length]}
+          strokeWidth={2}
+          dot={dotFor(i)}
+          connectNulls
+          isAnimationActive={false}
+        />
+      ))}
+      {dashed
+        ? series.map((s, i) => (
+            <Line
+              key={`e${i}`}
+              dataKey={`s${i}e`}
+              name={`${s.name} ${labels.extrapolatedSuffix}`}
+              legendType="none"
+              stroke={COLOURS[i % COLOURS.length]}
+              strokeWidth={2}
+              strokeDasharray="6 4"
+              dot={dotFor(i)}
+              connectNulls
+              isAnimationActive={false}
+            />
+          ))
+        : null}
+    </>
+  );
+}
+
+const fmt = (v: number, digits = 2) =>
+  Number.isFinite(v) ? v.toLocaleString(undefined, { maximumFractionDigits: digits }) : "∞";
+
+/**
+ * Hill numbers q = 0, 1, 2 along sample size (solid: rarefied, dashed: extrapolated, shaded:
+ * bootstrap 95% band), the sample-completeness curve and the asymptotic profile over q,
+ * one series per block (whole event, then each zone), each chart with its table.
+ */
+export function HillCharts({
+  series,
+  labels,
+  xLabel,
+}: {
+  series: HillSeries[];
+  labels: HillChartLabels;
+  xLabel: string;
+}) {
+  const bands = series.some((s) => s.hill.curve.some((r) => r.replicates > 0));
+  const curvePoints = (q: number) => (h: HillBlock) =>
+    h.curve
+      .filter((r) => r.order === q)
+      .map((r) => ({
+        x: r.size,
+        y: r.estimate,
+        band: r.replicates > 0 ? ([r.lower, r.upper] as [number, number]) : null,
+        extrapolated: r.part === "extrapolated",
+        observed: r.part === "observed",
+      }));
+  const coveragePoints = (h: HillBlock) =>
+    h.curve
+      .filter((r) => r.order === 0)
+      .map((r) => ({
+        x: r.size,
+        y: r.coverage,
+        band: null,
+        extrapolated: r.part === "extrapolated",
+        observed: r.part === "observed",
+      }));
+  const profilePoints = (h: HillBlock) =>
+    h.profile.map((r) => ({
+      x: r.order,
+      y: r.estimate,
+      band: r.replicates > 0 && Number.isFinite(r.upper) ? ([r.lower, r.upper] as [number, number]) : null,
+      extrapolated: false,
+      observed: false,
+    }));
+  const axis = (x: string, y: string, domain?: [number, number]) => (
+    <>
+      <CartesianGrid stroke="#d5e8dc" />
+      <XAxis
+        dataKey="x"
+        type="number"
+        domain={domain ?? [0, "dataMax"]}
+        label={{ value: x, position: "insideBottom", offset: -12 }}
+      />
+      <YAxis label={{ value: y, angle: -90, position: "insideLeft" }} />
+      <Tooltip />
+      <Legend verticalAlign="top" />
+    </>
+  );
+  const curveTable = (q: number) => (
+    <details className="mt-2 text-sm">
+      <summary className="cursor-pointer">{labels.table}</summary>
+      <table className="w-full text-left tabular-nums">
+        <thead>
+          <tr className="border-b border-reed-300">
+            <th scope="col">{labels.zone}</th>
+            <th scope="col">{xLabel}</th>
+            <th scope="col">{labels.part}</th>
+            <th scope="col">{labels.estimate}</th>
+            <th scope="col">{labels.lower}</th>
+            <th scope="col">{labels.upper}</th>
+            <th scope="col">{labels.coverage}</th>
+          </tr>
+        </thead>
+        <tbody>
+          {series.flatMap((s) =>
+            s.hill.curve
+              .filter((r) => r.order === q)
+              .map((r) => (
+                <tr key={`${s.name}-${r.size}`} className="border-b border-reed-100">
+                  <th scope="row" className="font-normal">
+                    {s.name}
+                  </th>
+                  <td>{fmt(r.size, 0)}</td>
+                  <td>{labels.parts[r.part]}</td>
+                  <td>{fmt(r.estimate)}</td>
+                  <td>{r.replicates > 0 ? fmt(r.lower) : "—"}</td>
+                  <td>{r.replicates > 0 ? fmt(r.upper) : "—"}</td>
+                  <td>{fmt(r.coverage, 3)}</td>
+                </tr>
+              )),
+          )}
+        </tbody>
+      </table>
+    </details>
+  );
+  return (
+    <div className="space-y-3" data-testid="hill-charts">
+      {!bands ? <p className="text-sm">{labels.noBands}</p> : null}
+      <div className="grid gap-4 lg:grid-cols-2">
+        {[0, 1, 2].map((q) => (
+          <Frame key={q} title={labels.curveTitle[q]!} summary={labels.summary} table={curveTable(q)}>
+            <ComposedChart data={merge(series, curvePoints(q))} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+              {axis(xLabel, labels.hill)}
+              <SeriesLines series={series} bands={bands} dashed labels={labels} />
+            </ComposedChart>
+          </Frame>
+        ))}
+        <Frame title={labels.completenessTitle} summary={labels.summary} table={curveTable(0)}>
+          <ComposedChart data={merge(series, coveragePoints)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+            {axis(xLabel, labels.coverage)}
+            <SeriesLines series={series} bands={false} dashed labels={labels} />
+          </ComposedChart>
+        </Frame>
+        <Frame
+          title={labels.profileTitle}
+          summary={labels.summary}
+          table={
+            <details className="mt-2 text-sm">
+              <summary className="cursor-pointer">{labels.table}</summary>
+              <table className="w-full text-left tabular-nums">
+                <thead>
+                  <tr className="border-b border-reed-300">
+                    <th scope="col">{labels.zone}</th>
+                    <th scope="col">{labels.order}</th>
+                    <th scope="col">{labels.observed}</th>
+                    <th scope="col">{labels.estimate}</th>
+                    <th scope="col">{labels.lower}</th>
+                    <th scope="col">{labels.upper}</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {series.flatMap((s) =>
+                    s.hill.profile.map((r) => (
+                      <tr key={`${s.name}-${r.order}`} className="border-b border-reed-100">
+                        <th scope="row" className="font-normal">
+                          {s.name}
+                        </th>
+                        <td>{fmt(r.order)}</td>
+                        <td>{fmt(r.observed)}</td>
+                        <td>{fmt(r.estimate)}</td>
+                        <td>{r.replicates > 0 ? fmt(r.lower) : "—"}</td>
+                        <td>{r.replicates > 0 ? fmt(r.upper) : "—"}</td>
+                      </tr>
+                    )),
+                  )}
+                </tbody>
+              </table>
+            </details>
+          }
+        >
+          <ComposedChart data={merge(series, profilePoints)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+            {axis(labels.order, labels.hill, [0, 2])}
+            <SeriesLines series={series} bands={bands} dashed={false} labels={labels} />
+          </ComposedChart>
+        </Frame>
+      </div>
+    </div>
+  );
+}
