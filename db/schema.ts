@@ -30,6 +30,7 @@ import {
   REVIEW_STATES,
   SENSITIVITIES,
   SESSION_KINDS,
+  SIGHTING_SOURCES,
   TAXON_GROUPS,
   TAXON_RANKS,
 } from "../lib/domain";
@@ -63,6 +64,7 @@ export const sessionKind = pgEnum("session_kind", SESSION_KINDS);
 export const eventStatus = pgEnum("event_status", EVENT_STATUSES);
 export const checkMark = pgEnum("check_mark", CHECK_MARKS);
 export const outboxStatus = pgEnum("outbox_status", MAIL_STATUSES);
+export const sightingSource = pgEnum("sighting_source", SIGHTING_SOURCES);
 
 // ---------------------------------------------------------------- sign-in (next-auth's shape)
 export const users = pgTable(
@@ -340,6 +342,9 @@ export const sightings = pgTable(
       .array()
       .notNull()
       .default(sql`ARRAY[]::check_mark[]`),
+    // Where the record came from: sent from a phone, or typed in from a paper sheet by `transcribedBy`.
+    source: sightingSource("source").notNull().default("phone"),
+    transcribedBy: uuid("transcribed_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(), // received by the server
     updatedAt: timestamp("updated_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
   },

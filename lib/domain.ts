@@ -63,6 +63,10 @@ export type Habitat = (typeof HABITATS)[number];
 export const SESSION_KINDS = ["timed_count", "walk", "plot_search"] as const;
 export type SessionKind = (typeof SESSION_KINDS)[number];
 
+/** Where a sighting came from: the field log on a phone, or a transcribed paper sheet. */
+export const SIGHTING_SOURCES = ["phone", "paper_sheet"] as const;
+export type SightingSource = (typeof SIGHTING_SOURCES)[number];
+
 /** Automatic hints on a sighting for reviewers. */
 export const CHECK_MARKS = [
   "outside_area",

@@ -390,6 +390,20 @@ ROUTES.push(
     allowed: ORGANISERS,
   },
   {
+    file: "app/api/events/[eventId]/paper-sheets/route.ts",
+    method: "GET",
+    path: (i) => `/api/events/${i.eventId}/paper-sheets`,
+    allowed: COORDINATORS,
+  },
+  {
+    file: "app/api/events/[eventId]/paper-sheets/route.ts",
+    method: "PUT",
+    path: (i) => `/api/events/${i.eventId}/paper-sheets`,
+    body: () => ({ csv: "line_type,count\nsighting,1\n", save: false }),
+    allowed: COORDINATORS,
+    note: "checks only (save: false); the line has no place or time, so a coordinator gets the 422 report",
+  },
+  {
     file: "app/api/events/[eventId]/setup/members/route.ts",
     method: "GET",
     path: (i) => `/api/events/${i.setupEventId}/setup/members`,
