@@ -20,6 +20,7 @@ import {
   varchar,
 } from "drizzle-orm/pg-core";
 import {
+  ADMIN_ACTIONS,
   CHECK_MARKS,
   EVENT_ROLES,
   EVENT_STATUSES,
@@ -27,6 +28,8 @@ import {
   MAIL_STATUSES,
   MEMBERSHIP_ACTIONS,
   ORG_ROLES,
+  ORGANISATION_LOG_ACTIONS,
+  ORGANISATION_REQUEST_STATES,
   REVIEW_STATES,
   SENSITIVITIES,
   SESSION_KINDS,
@@ -81,6 +84,8 @@ export const users = pgTable(
     // Raised by sign-out, a password change or erasure: every session token carries the value it
     // was issued with, and one that no longer matches is refused (server/auth/options.ts).
     sessionVersion: integer("session_version").notNull().default(0),
+    // Set by a site admin: a locked account cannot sign in (server/auth/options.ts), and its sessions end.
+    lockedAt: timestamp("locked_at", { withTimezone: true, mode: "date" }),
     createdAt: createdAt(),
   },
   (t) => [
@@ -138,6 +143,11 @@ export const organisations = pgTable(
     id: uuid("id").primaryKey().defaultRandom(),
     slug: varchar("slug", { length: 80 }).notNull().unique(),
     name: text("name").notNull(),
+    contactEmail: text("contact_email").notNull().default(""),
+    country: varchar("country", { length: 2 }), // ISO 3166-1 alpha-2
+    description: text("description").notNull().default(""),
+    // Set by a site admin: a suspended organisation's organisers cannot create events.
+    suspendedAt: timestamp("suspended_at", { withTimezone: true, mode: "date" }),
     createdAt: createdAt(),
   },
   (t) => [check("organisations_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`)],
@@ -578,3 +588,69 @@ export const resultStamps = pgTable("result_stamps", {
   eventId: uuid("event_id").primaryKey(),
   seq: bigint("seq", { mode: "number" }).notNull().default(1),
 });
+
+// ---------------------------------------------------------------- organisations that start on their own (issue 19)
+export const organisationRequestState = pgEnum("organisation_request_state", ORGANISATION_REQUEST_STATES);
+export const organisationLogAction = pgEnum("organisation_log_action", ORGANISATION_LOG_ACTIONS);
+export const adminAction = pgEnum("admin_action", ADMIN_ACTIONS);
+
+// A signed-in person's request for a new organisation; the site admin approves (the
+// organisation is made, the person its first organiser) or declines with a reason.
+export const organisationRequests = pgTable(
+  "organisation_requests",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    requestedBy: uuid("requested_by")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    contactEmail: text("contact_email").notNull(),
+    country: varchar("country", { length: 2 }).notNull(),
+    description: text("description").notNull(),
+    state: organisationRequestState("state").notNull().default("pending"),
+    decidedBy: uuid("decided_by").references(() => users.id, { onDelete: "set null" }),
+    decidedAt: timestamp("decided_at", { withTimezone: true, mode: "date" }),
+    reason: text("reason").notNull().default(""),
+    organisationId: uuid("organisation_id").references(() => organisations.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index("organisation_requests_state_idx").on(t.state, t.createdAt),
+    index("organisation_requests_user_idx").on(t.requestedBy),
+    check("organisation_requests_country_shape", sql`${t.country} ~ '^[A-Z]{2}$'`),
+  ],
+);
+
+// Every change to an organisation and its organisers (append-only: migration trigger).
+// People are kept as plain ids and addresses, so the log outlives an erased account.
+export const organisationLog = pgTable(
+  "organisation_log",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    organisationId: uuid("organisation_id").references(() => organisations.id, { onDelete: "restrict" }),
+    requestId: uuid("request_id").references(() => organisationRequests.id, { onDelete: "restrict" }),
+    action: organisationLogAction("action").notNull(),
+    actorId: uuid("actor_id"),
+    subjectUserId: uuid("subject_user_id"),
+    subjectEmail: text("subject_email"),
+    reason: text("reason").notNull().default(""),
+    at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [index("organisation_log_org_idx").on(t.organisationId, t.at), index("organisation_log_at_idx").on(t.at)],
+);
+
+// What site admins did to people and mails (append-only: migration trigger).
+export const adminLog = pgTable(
+  "admin_log",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    actorId: uuid("actor_id").notNull(),
+    action: adminAction("action").notNull(),
+    subjectUserId: uuid("subject_user_id"),
+    subjectEmail: text("subject_email"),
+    mailId: bigint("mail_id", { mode: "number" }),
+    reason: text("reason").notNull().default(""),
+    at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [index("admin_log_at_idx").on(t.at)],
+);

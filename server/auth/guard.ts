@@ -62,3 +62,10 @@ export async function requireOrganisationOrganiser(organisationId: string): Prom
     throw new ApiError("forbidden");
   return user;
 }
+
+/** The site admin (users.is_admin): the admin console and its handlers; 403 for everyone else signed in. */
+export async function requireSiteAdmin(): Promise<SessionUser> {
+  const user = await requireUser();
+  if (!user.isAdmin) throw new ApiError("forbidden");
+  return user;
+}

@@ -13,6 +13,7 @@ const PEOPLE: Record<Exclude<Who, "anonymous">, string> = {
   birdsCoordinator: "birds@example.org",
   organiser: "organiser@example.org",
   outsider: "moor-volunteer@example.org",
+  admin: "admin@example.org",
 };
 
 async function contextFor(browser: Browser, baseURL: string, who: Who): Promise<APIRequestContext> {
@@ -28,7 +29,7 @@ async function contextFor(browser: Browser, baseURL: string, who: Who): Promise<
 test("every route handler answers each kind of person as designed", async ({ browser, baseURL }) => {
   test.setTimeout(180_000);
   const ids = await demoIds();
-  const who: Who[] = ["anonymous", "volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
+  const who: Who[] = ["anonymous", "volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider", "admin"];
   const problems: string[] = [];
   for (const person of who) {
     const request = await contextFor(browser, baseURL!, person);

@@ -2,12 +2,22 @@
 // table with every kind of person; tests/unit/route-table.test.ts fails when a handler
 // exists in app/api that is missing here. Add a row with every new handler.
 
-export type Who = "anonymous" | "volunteer" | "coordinator" | "birdsCoordinator" | "organiser" | "outsider";
-export const EVERYONE: Who[] = ["anonymous", "volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
-export const SIGNED_IN: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
-export const EVENT_MEMBERS: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser"];
-export const COORDINATORS: Who[] = ["coordinator", "birdsCoordinator", "organiser"];
-export const ORGANISERS: Who[] = ["organiser"];
+// "admin" is the site admin (users.is_admin): every event role passes for them (server/auth/guard.ts).
+export type Who = "anonymous" | "volunteer" | "coordinator" | "birdsCoordinator" | "organiser" | "outsider" | "admin";
+export const EVERYONE: Who[] = [
+  "anonymous",
+  "volunteer",
+  "coordinator",
+  "birdsCoordinator",
+  "organiser",
+  "outsider",
+  "admin",
+];
+export const SIGNED_IN: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider", "admin"];
+export const EVENT_MEMBERS: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "admin"];
+export const COORDINATORS: Who[] = ["coordinator", "birdsCoordinator", "organiser", "admin"];
+export const ORGANISERS: Who[] = ["organiser", "admin"];
+export const ADMINS: Who[] = ["admin"];
 
 /** Ids of the demo rows the paths need, read from the seeded database by the test. */
 export type Ids = {
@@ -168,7 +178,7 @@ export const ROUTES: RouteCase[] = [
     file: "app/api/events/[eventId]/review/sightings/[sightingId]/route.ts",
     method: "GET",
     path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}`,
-    allowed: ["coordinator", "organiser"],
+    allowed: ["coordinator", "organiser", "admin"],
     note: "a non-bird sighting",
   },
   {
@@ -182,7 +192,7 @@ export const ROUTES: RouteCase[] = [
     method: "POST",
     path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}/decisions`,
     body: () => ({ action: "approve", version: 999_999 }),
-    allowed: ["coordinator", "organiser"],
+    allowed: ["coordinator", "organiser", "admin"],
     note: "a stale version: 409 for those allowed, so nothing changes",
   },
   {
@@ -449,5 +459,57 @@ ROUTES.push(
     body: (i) => ({ code: i.setupJoinCode, locale: "en" }),
     allowed: EVERYONE,
     note: "public: a join link; without a session it only mails a sign-in link",
+  },
+  // Organisations that start on their own (issue 19).
+  {
+    file: "app/api/organisation-requests/route.ts",
+    method: "GET",
+    path: () => `/api/organisation-requests`,
+    allowed: SIGNED_IN,
+  },
+  {
+    file: "app/api/organisation-requests/route.ts",
+    method: "POST",
+    path: () => `/api/organisation-requests`,
+    body: () => ({ name: "" }),
+    allowed: SIGNED_IN,
+    note: "an incomplete body: the 400 shows the guard let the call through, and no request is made",
+  },
+  {
+    file: "app/api/organisations/[organisationId]/organisers/route.ts",
+    method: "GET",
+    path: (i) => `/api/organisations/${i.organisationId}/organisers`,
+    allowed: ORGANISERS,
+  },
+  {
+    file: "app/api/organisations/[organisationId]/organisers/route.ts",
+    method: "POST",
+    path: (i) => `/api/organisations/${i.organisationId}/organisers`,
+    body: () => ({ email: "organiser@example.org" }),
+    allowed: ORGANISERS,
+    note: "already an organiser: 409",
+  },
+  {
+    file: "app/api/organisations/[organisationId]/organisers/[userId]/route.ts",
+    method: "DELETE",
+    path: (i) => `/api/organisations/${i.organisationId}/organisers/${i.volunteerId}`,
+    allowed: ORGANISERS,
+    note: "not an organiser: 404",
+  },
+  {
+    file: "app/api/admin/organisation-requests/[requestId]/route.ts",
+    method: "POST",
+    path: () => `/api/admin/organisation-requests/00000000-0000-4000-8000-000000000000`,
+    body: () => ({ decision: "decline", reason: "role matrix" }),
+    allowed: ADMINS,
+    note: "no such request: 404",
+  },
+  {
+    file: "app/api/admin/organisations/[organisationId]/route.ts",
+    method: "PATCH",
+    path: (i) => `/api/admin/organisations/${i.organisationId}`,
+    body: () => ({ suspended: false, reason: "" }),
+    allowed: ADMINS,
+    note: "not suspended: 409",
   },
 );

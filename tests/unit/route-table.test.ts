@@ -47,7 +47,8 @@ describe("route table", () => {
     for (const f of files) {
       const src = readFileSync(f, "utf8");
       const publicByDesign = /Public by design/.test(src) || f.includes("[...path]");
-      if (!publicByDesign) expect(src, f).toMatch(/require(User|Admin|EventRole|OrganisationOrganiser|\w+Permit)\(/);
+      if (!publicByDesign)
+        expect(src, f).toMatch(/require(User|Admin|SiteAdmin|EventRole|OrganisationOrganiser|\w+Permit)\(/);
     }
   });
 });
