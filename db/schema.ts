@@ -654,3 +654,11 @@ export const adminLog = pgTable(
   },
   (t) => [index("admin_log_at_idx").on(t.at)],
 );
+
+// The last round of each background worker (the mail worker), for the admin console's health view.
+export const workerRuns = pgTable("worker_runs", {
+  worker: varchar("worker", { length: 40 }).primaryKey(),
+  lastRunAt: timestamp("last_run_at", { withTimezone: true, mode: "date" }).notNull(),
+  summary: text("summary").notNull().default(""),
+  lastError: text("last_error"),
+});

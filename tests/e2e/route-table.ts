@@ -512,4 +512,19 @@ ROUTES.push(
     allowed: ADMINS,
     note: "not suspended: 409",
   },
+  {
+    file: "app/api/admin/people/[userId]/route.ts",
+    method: "POST",
+    path: () => `/api/admin/people/00000000-0000-4000-8000-000000000000`,
+    body: () => ({ action: "end_sessions" }),
+    allowed: ADMINS,
+    note: "no such person: 404",
+  },
+  {
+    file: "app/api/admin/mails/[mailId]/route.ts",
+    method: "POST",
+    path: () => `/api/admin/mails/999999999`,
+    allowed: ADMINS,
+    note: "no such mail: 404",
+  },
 );
