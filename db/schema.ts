@@ -21,6 +21,7 @@ import {
   varchar,
 } from "drizzle-orm/pg-core";
 import {
+  ADMIN_ACTIONS,
   CHECK_MARKS,
   EVENT_ROLES,
   EVENT_STATUSES,
@@ -28,9 +29,12 @@ import {
   MAIL_STATUSES,
   MEMBERSHIP_ACTIONS,
   ORG_ROLES,
+  ORGANISATION_LOG_ACTIONS,
+  ORGANISATION_REQUEST_STATES,
   REVIEW_STATES,
   SENSITIVITIES,
   SESSION_KINDS,
+  SIGHTING_SOURCES,
   TAXON_GROUPS,
   TAXON_RANKS,
 } from "../lib/domain";
@@ -64,6 +68,7 @@ export const sessionKind = pgEnum("session_kind", SESSION_KINDS);
 export const eventStatus = pgEnum("event_status", EVENT_STATUSES);
 export const checkMark = pgEnum("check_mark", CHECK_MARKS);
 export const outboxStatus = pgEnum("outbox_status", MAIL_STATUSES);
+export const sightingSource = pgEnum("sighting_source", SIGHTING_SOURCES);
 
 // ---------------------------------------------------------------- sign-in (next-auth's shape)
 export const users = pgTable(
@@ -86,6 +91,8 @@ export const users = pgTable(
     publishConsentAt: timestamp("publish_consent_at", { withTimezone: true, mode: "date" }),
     // Set when the person erased their account: the row stays as a tombstone without personal data.
     erasedAt: timestamp("erased_at", { withTimezone: true, mode: "date" }),
+    // Set by a site admin: a locked account cannot sign in (server/auth/options.ts), and its sessions end.
+    lockedAt: timestamp("locked_at", { withTimezone: true, mode: "date" }),
     createdAt: createdAt(),
   },
   (t) => [
@@ -143,6 +150,11 @@ export const organisations = pgTable(
     id: uuid("id").primaryKey().defaultRandom(),
     slug: varchar("slug", { length: 80 }).notNull().unique(),
     name: text("name").notNull(),
+    contactEmail: text("contact_email").notNull().default(""),
+    country: varchar("country", { length: 2 }), // ISO 3166-1 alpha-2
+    description: text("description").notNull().default(""),
+    // Set by a site admin: a suspended organisation's organisers cannot create events.
+    suspendedAt: timestamp("suspended_at", { withTimezone: true, mode: "date" }),
     createdAt: createdAt(),
   },
   (t) => [check("organisations_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`)],
@@ -371,6 +383,9 @@ export const sightings = pgTable(
       .array()
       .notNull()
       .default(sql`ARRAY[]::check_mark[]`),
+    // Where the record came from: sent from a phone, or typed in from a paper sheet by `transcribedBy`.
+    source: sightingSource("source").notNull().default("phone"),
+    transcribedBy: uuid("transcribed_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(), // received by the server
     updatedAt: timestamp("updated_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
   },
@@ -669,3 +684,77 @@ export const apiTokens = pgTable(
     index("api_tokens_event_idx").on(t.eventId),
   ],
 );
+
+// ---------------------------------------------------------------- organisations that start on their own (issue 19)
+export const organisationRequestState = pgEnum("organisation_request_state", ORGANISATION_REQUEST_STATES);
+export const organisationLogAction = pgEnum("organisation_log_action", ORGANISATION_LOG_ACTIONS);
+export const adminAction = pgEnum("admin_action", ADMIN_ACTIONS);
+
+// A signed-in person's request for a new organisation; the site admin approves (the
+// organisation is made, the person its first organiser) or declines with a reason.
+export const organisationRequests = pgTable(
+  "organisation_requests",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    requestedBy: uuid("requested_by")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    contactEmail: text("contact_email").notNull(),
+    country: varchar("country", { length: 2 }).notNull(),
+    description: text("description").notNull(),
+    state: organisationRequestState("state").notNull().default("pending"),
+    decidedBy: uuid("decided_by").references(() => users.id, { onDelete: "set null" }),
+    decidedAt: timestamp("decided_at", { withTimezone: true, mode: "date" }),
+    reason: text("reason").notNull().default(""),
+    organisationId: uuid("organisation_id").references(() => organisations.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index("organisation_requests_state_idx").on(t.state, t.createdAt),
+    index("organisation_requests_user_idx").on(t.requestedBy),
+    check("organisation_requests_country_shape", sql`${t.country} ~ '^[A-Z]{2}$'`),
+  ],
+);
+
+// Every change to an organisation and its organisers (append-only: migration trigger).
+// People are kept as plain ids and addresses, so the log outlives an erased account.
+export const organisationLog = pgTable(
+  "organisation_log",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    organisationId: uuid("organisation_id").references(() => organisations.id, { onDelete: "restrict" }),
+    requestId: uuid("request_id").references(() => organisationRequests.id, { onDelete: "restrict" }),
+    action: organisationLogAction("action").notNull(),
+    actorId: uuid("actor_id"),
+    subjectUserId: uuid("subject_user_id"),
+    subjectEmail: text("subject_email"),
+    reason: text("reason").notNull().default(""),
+    at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [index("organisation_log_org_idx").on(t.organisationId, t.at), index("organisation_log_at_idx").on(t.at)],
+);
+
+// What site admins did to people and mails (append-only: migration trigger).
+export const adminLog = pgTable(
+  "admin_log",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    actorId: uuid("actor_id").notNull(),
+    action: adminAction("action").notNull(),
+    subjectUserId: uuid("subject_user_id"),
+    subjectEmail: text("subject_email"),
+    mailId: bigint("mail_id", { mode: "number" }),
+    reason: text("reason").notNull().default(""),
+    at: timestamp("at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+  },
+  (t) => [index("admin_log_at_idx").on(t.at)],
+);
+
+// The last round of each background worker (the mail worker), for the admin console's health view.
+export const workerRuns = pgTable("worker_runs", {
+  worker: varchar("worker", { length: 40 }).primaryKey(),
+  lastRunAt: timestamp("last_run_at", { withTimezone: true, mode: "date" }).notNull(),
+  summary: text("summary").notNull().default(""),
+  lastError: text("last_error"),
+});

@@ -63,6 +63,10 @@ export type Habitat = (typeof HABITATS)[number];
 export const SESSION_KINDS = ["timed_count", "walk", "plot_search"] as const;
 export type SessionKind = (typeof SESSION_KINDS)[number];
 
+/** Where a sighting came from: the field log on a phone, or a transcribed paper sheet. */
+export const SIGHTING_SOURCES = ["phone", "paper_sheet"] as const;
+export type SightingSource = (typeof SIGHTING_SOURCES)[number];
+
 /** Automatic hints on a sighting for reviewers. */
 export const CHECK_MARKS = [
   "outside_area",
@@ -92,6 +96,26 @@ export type RejectReason = (typeof REJECT_REASONS)[number];
 /** A mail in the e-mail queue (email_outbox). */
 export const MAIL_STATUSES = ["queued", "sending", "sent", "failed"] as const;
 export type MailStatus = (typeof MAIL_STATUSES)[number];
+
+/** A request for a new organisation, waiting for the site admin (organisation_requests). */
+export const ORGANISATION_REQUEST_STATES = ["pending", "approved", "declined"] as const;
+export type OrganisationRequestState = (typeof ORGANISATION_REQUEST_STATES)[number];
+
+/** What happened to an organisation (organisation_log, append-only). */
+export const ORGANISATION_LOG_ACTIONS = [
+  "requested",
+  "approved",
+  "declined",
+  "organiser_added",
+  "organiser_removed",
+  "suspended",
+  "reinstated",
+] as const;
+export type OrganisationLogAction = (typeof ORGANISATION_LOG_ACTIONS)[number];
+
+/** What a site admin did to a person or a mail (admin_log, append-only). */
+export const ADMIN_ACTIONS = ["account_locked", "account_unlocked", "sessions_ended", "mail_retried"] as const;
+export type AdminAction = (typeof ADMIN_ACTIONS)[number];
 
 /** Changes to who holds which role in an event (membership_log). */
 export const MEMBERSHIP_ACTIONS = ["invited", "joined", "role_changed", "removed", "invitation_revoked"] as const;

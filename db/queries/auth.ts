@@ -62,11 +62,15 @@ export async function setPasswordHash(userId: string, hash: string): Promise<voi
   await getDb().update(users).set({ passwordHash: hash }).where(eq(users.id, userId));
 }
 
-/** The person's current session version (null: no such person, e.g. erased). */
+/** The person's current session version (null: no such person, e.g. erased, or an account a site admin locked). */
 export async function sessionVersionOf(userId: string): Promise<number | null> {
   if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(userId)) return null;
-  const [row] = await getDb().select({ v: users.sessionVersion }).from(users).where(eq(users.id, userId)).limit(1);
-  return row?.v ?? null;
+  const [row] = await getDb()
+    .select({ v: users.sessionVersion, locked: users.lockedAt })
+    .from(users)
+    .where(eq(users.id, userId))
+    .limit(1);
+  return row && !row.locked ? row.v : null;
 }
 
 /** Ends every session of the person (each token carries the version it was issued with); returns the new version. */

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq, inArray, lte, or, sql } from "drizzle-orm";
 import { getDb } from "../client";
-import { emailOutbox } from "../schema";
+import { emailOutbox, workerRuns } from "../schema";
 
 export type OutboxMail = {
   to: string;
@@ -76,4 +76,13 @@ export async function requeueStaleMails(olderThan: Date): Promise<void> {
     .update(emailOutbox)
     .set({ status: "queued" })
     .where(and(eq(emailOutbox.status, "sending"), lte(emailOutbox.sendAfter, olderThan)));
+}
+
+/** The worker's round just ended (its summary, or the error that stopped it): shown on the admin console. */
+export async function recordWorkerRun(worker: string, summary: string, error: string | null): Promise<void> {
+  const row = { worker, lastRunAt: new Date(), summary, lastError: error };
+  await getDb()
+    .insert(workerRuns)
+    .values(row)
+    .onConflictDoUpdate({ target: workerRuns.worker, set: { lastRunAt: row.lastRunAt, summary, lastError: error } });
 }

@@ -4,7 +4,7 @@ import type { QueueFilters } from "@/lib/review/filters";
 import { getDb } from "../client";
 import type { events } from "../schema";
 import { refreshCheckMarks, type Executor } from "./check-marks";
-import type { CheckMark, ReviewState, Sensitivity, TaxonGroup } from "@/lib/domain";
+import type { CheckMark, ReviewState, Sensitivity, SightingSource, TaxonGroup } from "@/lib/domain";
 import type { ArealGeometry } from "@/lib/geo/areal";
 
 // The review desk's data: the queue (keyset pagination on observed time and id, so a deep
@@ -224,6 +224,8 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
       zoneId: string | null;
       zoneName: string | null;
       notes: string;
+      source: SightingSource;
+      transcriberName: string | null;
       volunteerId: string;
       volunteerName: string;
       checkMarks: CheckMark[];
@@ -239,6 +241,7 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
         ${name(sql`s.taxon_id`)} AS "commonName", t.taxon_group AS "taxonGroup", t.sensitivity::text AS sensitivity,
         s.description, s.count, s.count_is_estimate AS "countIsEstimate", s.observed_at AS "observedAt", s.created_at AS "receivedAt",
         ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m AS "accuracyM", s.zone_id AS "zoneId", z.name AS "zoneName", s.notes,
+        s.source, (SELECT coalesce(tu.name, tu.email) FROM users tu WHERE tu.id = s.transcribed_by) AS "transcriberName",
         s.user_id AS "volunteerId", coalesce(u.name, u.email) AS "volunteerName", s.check_marks::text[] AS "checkMarks",
         c.id AS "sessionId", c.kind::text AS "sessionKind", c.started_at AS "sessionStartedAt", c.ended_at AS "sessionEndedAt",
         c.all_species_noted AS "sessionAllSpecies", cz.name AS "sessionZoneName",

@@ -120,6 +120,9 @@ export const DEMO_PEOPLE: DemoPerson[] = [
 
 export const DEMO_PASSWORD = "harrowmere-demo";
 
+/** The site admin of the demo (users.is_admin): approves organisations, runs the admin console. */
+export const DEMO_ADMIN = { key: "admin", name: "Rowan Ashby", email: "admin@example.org", locale: "en" } as const;
+
 export const SEED_REJECT_REASONS = REJECT_REASONS.filter((r) => r !== "other");
 export const RETURN_QUESTIONS = [
   "Could you add a photo of the underside of the leaves? It would separate this from a close relative.",

@@ -5,6 +5,7 @@ import {
   DEMO_AREA,
   DEMO_EVENT,
   DEMO_ORG,
+  DEMO_ADMIN,
   DEMO_PEOPLE,
   DEMO_ZONES,
   RETURN_QUESTIONS,
@@ -86,6 +87,18 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
       return id;
     };
     for (const p of DEMO_PEOPLE) await addPerson(p);
+    await tx
+      .insert(s.users)
+      .values({
+        id: demoId(`user:${DEMO_ADMIN.key}`),
+        name: DEMO_ADMIN.name,
+        email: DEMO_ADMIN.email,
+        locale: DEMO_ADMIN.locale,
+        isAdmin: true,
+        emailVerified: new Date("2026-05-01T00:00:00Z"),
+        passwordHash: options.passwordHash ?? null,
+      })
+      .onConflictDoNothing();
     await tx
       .insert(s.organisationMembers)
       .values({ organisationId: orgId, userId: people.get("organiser")!, role: "organiser" })

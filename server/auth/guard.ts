@@ -65,6 +65,13 @@ export async function requireOrganisationOrganiser(organisationId: string): Prom
   return user;
 }
 
+/** The site admin (users.is_admin): the admin console and its handlers; 403 for everyone else signed in. */
+export async function requireSiteAdmin(): Promise<SessionUser> {
+  const user = await requireUser();
+  if (!user.isAdmin) throw new ApiError("forbidden");
+  return user;
+}
+
 // ---------------------------------------------------------------- read-only API tokens
 export type ApiTokenPermit = { tokenId: string; organisationId: string; eventId: string | null };
 export type ApiTokenScope = { eventId: string } | "token's own events";

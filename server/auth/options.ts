@@ -89,7 +89,7 @@ export function authOptions(askedLocale?: ReturnType<typeof toLocale>): NextAuth
           if (!parsed.success) return null;
           const { email, password } = parsed.data;
           const user = await findUserByEmail(email);
-          if (!user?.passwordHash) return null;
+          if (!user?.passwordHash || user.lockedAt) return null; // a locked account cannot sign in
           if (!(await verifyPassword(password, user.passwordHash))) return null;
           return { id: user.id, email: user.email, name: user.name };
         },
@@ -106,6 +106,13 @@ export function authOptions(askedLocale?: ReturnType<typeof toLocale>): NextAuth
           await sendMail({ to: address, ...noAccountMail(askedLocale ?? toLocale(null)) });
           return `${e.APP_URL}/api/auth/verify-request?${new URLSearchParams({ provider: "email", type: "email" })}`;
         }
+        // A locked account: no session from a magic link either (sessionVersionOf refuses it too).
+        if (
+          user.id &&
+          (await sessionVersionOf(user.id)) === null &&
+          (await findUserByEmail(user.email ?? ""))?.lockedAt
+        )
+          return false;
         return true;
       },
       async jwt({ token, user }) {

@@ -24,3 +24,9 @@ export async function requirePageEventRole(locale: Locale, eventId: string, mini
     throw err;
   }
 }
+
+/** A page of the admin console: the site admin, or null (the console's layout shows why). Every page checks for itself. */
+export async function requirePageSiteAdmin(locale: Locale, returnTo: string): Promise<SessionUser | null> {
+  const user = await requirePageUser(locale, returnTo);
+  return user.isAdmin ? user : null;
+}

@@ -3,6 +3,7 @@ import type { GeoProblem } from "@/lib/geo/geojson";
 import { apiTranslator, type ApiErrorBody } from "@/lib/http/errors";
 import type { Locale } from "@/lib/i18n/routing";
 import { translator } from "@/lib/i18n/translator";
+import type { SheetProblem } from "@/lib/paper/sheet";
 import type { CsvProblem } from "@/lib/species/csv";
 
 // The validation report of a setup upload (area and zones, species list): one translated
@@ -39,6 +40,18 @@ export function csvReport(problems: CsvProblem[], locale: Locale): ReportLine[] 
     code: p.code,
     field: p.column ? `line ${p.line}: ${p.column}` : `line ${p.line}`,
     message: t(`csvProblems.${p.code}`, { ...(p.values ?? {}), column: p.column ?? "", line: p.line } as never),
+  }));
+}
+
+/** A paper sheet's problems (lib/paper/sheet.ts, db/queries/paper-sheets.ts), one line each. */
+export function sheetReport(problems: SheetProblem[], locale: Locale): ReportLine[] {
+  const t = translator(locale, "PaperSheets");
+  return problems.map((p) => ({
+    feature: null,
+    line: p.line,
+    code: p.code,
+    field: p.column ? `line ${p.line}: ${p.column}` : `line ${p.line}`,
+    message: t(`problems.${p.code}`, { ...(p.values ?? {}), column: p.column ?? "", line: p.line } as never),
   }));
 }
 

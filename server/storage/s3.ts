@@ -2,6 +2,7 @@ import "server-only";
 import {
   DeleteObjectCommand,
   GetObjectCommand,
+  HeadBucketCommand,
   NoSuchKey,
   PutObjectCommand,
   S3Client,
@@ -83,4 +84,16 @@ export async function writeObject(key: string, bytes: Buffer, contentType: strin
 
 export async function deleteObject(key: string): Promise<void> {
   await clients().server.send(new DeleteObjectCommand({ Bucket: env().S3_BUCKET, Key: key }));
+}
+
+/** Whether the photo store answers for its bucket (the admin console's health view). */
+export async function bucketReachable(timeoutMs = 3000): Promise<boolean> {
+  try {
+    await clients().server.send(new HeadBucketCommand({ Bucket: env().S3_BUCKET }), {
+      abortSignal: AbortSignal.timeout(timeoutMs),
+    });
+    return true;
+  } catch {
+    return false;
+  }
 }

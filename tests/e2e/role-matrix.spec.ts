@@ -16,6 +16,7 @@ const PEOPLE: Record<Exclude<Who, "anonymous" | ApiTokenHolder>, string> = {
   birdsCoordinator: "birds@example.org",
   organiser: "organiser@example.org",
   outsider: "moor-volunteer@example.org",
+  admin: "admin@example.org",
 };
 
 const isTokenHolder = (who: Who): who is ApiTokenHolder => (TOKEN_HOLDERS as Who[]).includes(who);
@@ -50,6 +51,7 @@ test("every route handler answers each kind of person as designed", async ({ bro
     "birdsCoordinator",
     "organiser",
     "outsider",
+    "admin",
     ...TOKEN_HOLDERS,
   ];
   const problems: string[] = [];

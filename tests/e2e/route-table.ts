@@ -2,8 +2,9 @@
 // table with every kind of person; tests/unit/route-table.test.ts fails when a handler
 // exists in app/api that is missing here. Add a row with every new handler.
 
+// "admin" is the site admin (users.is_admin): every event role passes for them (server/auth/guard.ts).
 export type Who =
-  "anonymous" | "volunteer" | "coordinator" | "birdsCoordinator" | "organiser" | "outsider" | ApiTokenHolder;
+  "anonymous" | "volunteer" | "coordinator" | "birdsCoordinator" | "organiser" | "outsider" | "admin" | ApiTokenHolder;
 // Callers of the read-only API (issue 19), without a session: a token of the demo event, one
 // of its whole organisation, one of another event of that organisation, one of another
 // organisation's event (tests/e2e/api-tokens.ts makes them).
@@ -21,12 +22,14 @@ export const EVERYONE: Who[] = [
   "birdsCoordinator",
   "organiser",
   "outsider",
+  "admin",
   ...TOKEN_HOLDERS,
 ];
-export const SIGNED_IN: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider"];
-export const EVENT_MEMBERS: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser"];
-export const COORDINATORS: Who[] = ["coordinator", "birdsCoordinator", "organiser"];
-export const ORGANISERS: Who[] = ["organiser"];
+export const SIGNED_IN: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "outsider", "admin"];
+export const EVENT_MEMBERS: Who[] = ["volunteer", "coordinator", "birdsCoordinator", "organiser", "admin"];
+export const COORDINATORS: Who[] = ["coordinator", "birdsCoordinator", "organiser", "admin"];
+export const ORGANISERS: Who[] = ["organiser", "admin"];
+export const ADMINS: Who[] = ["admin"];
 
 /** Ids of the demo rows the paths need, read from the seeded database by the test. */
 export type Ids = {
@@ -214,7 +217,7 @@ export const ROUTES: RouteCase[] = [
     file: "app/api/events/[eventId]/review/sightings/[sightingId]/route.ts",
     method: "GET",
     path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}`,
-    allowed: ["coordinator", "organiser"],
+    allowed: ["coordinator", "organiser", "admin"],
     note: "a non-bird sighting",
   },
   {
@@ -228,7 +231,7 @@ export const ROUTES: RouteCase[] = [
     method: "POST",
     path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}/decisions`,
     body: () => ({ action: "approve", version: 999_999 }),
-    allowed: ["coordinator", "organiser"],
+    allowed: ["coordinator", "organiser", "admin"],
     note: "a stale version: 409 for those allowed, so nothing changes",
   },
   {
@@ -464,6 +467,20 @@ ROUTES.push(
     allowed: ORGANISERS,
   },
   {
+    file: "app/api/events/[eventId]/paper-sheets/route.ts",
+    method: "GET",
+    path: (i) => `/api/events/${i.eventId}/paper-sheets`,
+    allowed: COORDINATORS,
+  },
+  {
+    file: "app/api/events/[eventId]/paper-sheets/route.ts",
+    method: "PUT",
+    path: (i) => `/api/events/${i.eventId}/paper-sheets`,
+    body: () => ({ csv: "line_type,count\nsighting,1\n", save: false }),
+    allowed: COORDINATORS,
+    note: "checks only (save: false); the line has no place or time, so a coordinator gets the 422 report",
+  },
+  {
     file: "app/api/events/[eventId]/setup/members/route.ts",
     method: "GET",
     path: (i) => `/api/events/${i.setupEventId}/setup/members`,
@@ -509,6 +526,73 @@ ROUTES.push(
     body: (i) => ({ code: i.setupJoinCode, locale: "en", publishedName: "Matrix walker", consent: true }),
     allowed: EVERYONE,
     note: "public: a join link; without a session it only mails a sign-in link",
+  },
+  // Organisations that start on their own (issue 19).
+  {
+    file: "app/api/organisation-requests/route.ts",
+    method: "GET",
+    path: () => `/api/organisation-requests`,
+    allowed: SIGNED_IN,
+  },
+  {
+    file: "app/api/organisation-requests/route.ts",
+    method: "POST",
+    path: () => `/api/organisation-requests`,
+    body: () => ({ name: "" }),
+    allowed: SIGNED_IN,
+    note: "an incomplete body: the 400 shows the guard let the call through, and no request is made",
+  },
+  {
+    file: "app/api/organisations/[organisationId]/organisers/route.ts",
+    method: "GET",
+    path: (i) => `/api/organisations/${i.organisationId}/organisers`,
+    allowed: ORGANISERS,
+  },
+  {
+    file: "app/api/organisations/[organisationId]/organisers/route.ts",
+    method: "POST",
+    path: (i) => `/api/organisations/${i.organisationId}/organisers`,
+    body: () => ({ email: "organiser@example.org" }),
+    allowed: ORGANISERS,
+    note: "already an organiser: 409",
+  },
+  {
+    file: "app/api/organisations/[organisationId]/organisers/[userId]/route.ts",
+    method: "DELETE",
+    path: (i) => `/api/organisations/${i.organisationId}/organisers/${i.volunteerId}`,
+    allowed: ORGANISERS,
+    note: "not an organiser: 404",
+  },
+  {
+    file: "app/api/admin/organisation-requests/[requestId]/route.ts",
+    method: "POST",
+    path: () => `/api/admin/organisation-requests/00000000-0000-4000-8000-000000000000`,
+    body: () => ({ decision: "decline", reason: "role matrix" }),
+    allowed: ADMINS,
+    note: "no such request: 404",
+  },
+  {
+    file: "app/api/admin/organisations/[organisationId]/route.ts",
+    method: "PATCH",
+    path: (i) => `/api/admin/organisations/${i.organisationId}`,
+    body: () => ({ suspended: false, reason: "" }),
+    allowed: ADMINS,
+    note: "not suspended: 409",
+  },
+  {
+    file: "app/api/admin/people/[userId]/route.ts",
+    method: "POST",
+    path: () => `/api/admin/people/00000000-0000-4000-8000-000000000000`,
+    body: () => ({ action: "end_sessions" }),
+    allowed: ADMINS,
+    note: "no such person: 404",
+  },
+  {
+    file: "app/api/admin/mails/[mailId]/route.ts",
+    method: "POST",
+    path: () => `/api/admin/mails/999999999`,
+    allowed: ADMINS,
+    note: "no such mail: 404",
   },
 );
 

@@ -48,7 +48,7 @@ describe("route table", () => {
       const src = readFileSync(f, "utf8");
       const publicByDesign = /Public by design/.test(src) || f.includes("[...path]");
       if (!publicByDesign)
-        expect(src, f).toMatch(/require(User|Admin|EventRole|OrganisationOrganiser|ApiToken|\w+Permit)\(/);
+        expect(src, f).toMatch(/require(User|Admin|EventRole|OrganisationOrganiser|ApiToken|SiteAdmin|\w+Permit)\(/);
     }
   });
 });

@@ -13,8 +13,9 @@ export default async function SetupHome({ params }: { params: Promise<{ locale: 
   const { locale } = await params;
   setRequestLocale(locale);
   const user = await requirePageUser(locale, "/setup");
-  const [t, format, orgs] = await Promise.all([
+  const [t, tOrg, format, orgs] = await Promise.all([
     getTranslations("Setup"),
+    getTranslations("Organisations"),
     getFormatter(),
     organisationsForSetup(user.id, user.isAdmin),
   ]);
@@ -31,6 +32,11 @@ export default async function SetupHome({ params }: { params: Promise<{ locale: 
           <h2 id={`org-${o.id}`} className="text-2xl font-bold text-reed-900">
             {o.name}
           </h2>
+          {o.canCreate ? (
+            <Link href={`/organisations/${o.id}`} className="text-sm font-semibold underline">
+              {tOrg("organisersLink")}
+            </Link>
+          ) : null}
           {o.events.length === 0 ? (
             <p>{t("noEvents")}</p>
           ) : (
@@ -56,6 +62,11 @@ export default async function SetupHome({ params }: { params: Promise<{ locale: 
         </section>
       ))}
       {creatable.length ? <CreateEventForm organisations={creatable} locale={locale} /> : null}
+      <p>
+        <Link href="/organisations/new" className="font-semibold underline">
+          {tOrg("askLink")}
+        </Link>
+      </p>
     </div>
   );
 }

@@ -1,3 +1,4 @@
+import { isOrganisationSuspended } from "@/db/queries/organisations";
 import { createEvent } from "@/db/queries/setup";
 import { requireOrganisationOrganiser } from "@/server/auth/guard";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
@@ -15,6 +16,7 @@ export const POST = handle<Ctx>(async (request, { params }) => {
   const { organisationId } = await parseParams(params, { organisationId: pathId });
   const user = await requireOrganisationOrganiser(organisationId);
   limitWrites(`setup:${user.id}`);
+  if (await isOrganisationSuspended(organisationId)) throw new ApiError("forbidden"); // suspended by the site admin
   const input = await parseJson(request, createEventInput, { messages: "Setup.errors" });
   const { slug, startsLocal, endsLocal, ...rest } = input;
   const made = await createEvent(organisationId, slug, { ...rest, ...eventInstants(input) });

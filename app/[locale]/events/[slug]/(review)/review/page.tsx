@@ -3,6 +3,7 @@ import { notFound } from "next/navigation";
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import { queueChoices, reviewEventBySlug } from "@/db/queries/review";
 import { requirePageEventRole } from "@/server/auth/page";
+import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { CHECK_MARKS, REJECT_REASONS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/domain";
 import { ReviewDesk } from "./_components/review-desk";
@@ -47,6 +48,11 @@ export default async function ReviewDeskPage({ params }: Props) {
             ? t("scopeGroups", { groups: groups.map((g) => tGroup(g)).join(", ") })
             : t("scopeAll")}{" "}
           {t("timeNote", { zone: event.timeZone })}
+        </p>
+        <p className="text-sm">
+          <Link href={`/events/${slug}/review/paper`} className="underline">
+            {t("paperSheets")}
+          </Link>
         </p>
       </header>
       <ReviewDesk

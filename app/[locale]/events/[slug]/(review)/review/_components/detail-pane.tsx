@@ -67,6 +67,14 @@ export function DetailPane({ detail, timeZone, eventId, onUndo, busy }: Props) {
         <dd>{dt(s.observedAt)}</dd>
         <dt className="font-semibold">{t("received")}</dt>
         <dd>{dt(s.receivedAt)}</dd>
+        <dt className="font-semibold">{t("source")}</dt>
+        <dd>
+          {s.source === "paper_sheet"
+            ? s.transcriberName
+              ? t("transcribedBy", { name: s.transcriberName })
+              : t("sourcePaper")
+            : t("sourcePhone")}
+        </dd>
         <dt className="font-semibold">{t("location")}</dt>
         <dd>
           {num.format(s.lat)}, {num.format(s.lon)} ({t("accuracy", { m: Math.round(s.accuracyM) })})

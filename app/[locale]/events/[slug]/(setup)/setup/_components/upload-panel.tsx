@@ -16,8 +16,8 @@ export type UploadAnswer<S> = { ok: true; saved: boolean; summary: S; report: []
 type Shown<A> = { report: ReportLine[] } | { report: []; checked: A };
 
 type Props<C, S, A extends UploadAnswer<S>> = {
-  /** "zones" or "species": the message namespace under Setup, and the ids of the form. */
-  kind: "zones" | "species";
+  /** "zones" or "species" (the message namespace under Setup), or "paper" (PaperSheets.upload); also the ids of the form. */
+  kind: "zones" | "species" | "paper";
   url: string;
   accept: string;
   /** The file's content as the handler takes it, or a report line when it cannot even be read. */
@@ -36,7 +36,7 @@ export function UploadPanel<C, S extends Record<string, number>, A extends Uploa
   props: Props<C, S, A>,
 ) {
   const { kind, url } = props;
-  const t = useTranslations(`Setup.${kind}`);
+  const t = useTranslations((kind === "paper" ? "PaperSheets.upload" : `Setup.${kind}`) as "Setup.species");
   const [file, setFile] = useState<{ name: string; content: C | null } | null>(null);
   const [answer, setAnswer] = useState<Shown<A> | null>(null);
   const [busy, setBusy] = useState(false);
@@ -119,7 +119,7 @@ export function UploadPanel<C, S extends Record<string, number>, A extends Uploa
         }}
       />
       {busy ? <p role="status">{t("checking")}</p> : null}
-      {report.length ? <ReportTable report={report} kind={kind === "species" ? "csv" : "geojson"} /> : null}
+      {report.length ? <ReportTable report={report} kind={kind === "zones" ? "geojson" : "csv"} /> : null}
       {checked ? (
         <div role="status" className="space-y-2 rounded-lg border-2 border-reed-600 bg-reed-50 p-3">
           <p className="font-semibold">✓ {t("checkedOk", { name: file?.name ?? "", ...checked.summary })}</p>

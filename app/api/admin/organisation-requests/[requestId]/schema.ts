@@ -1,0 +1,1 @@
+export { organisationDecisionInput } from "@/lib/organisations/request";

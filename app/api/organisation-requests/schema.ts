@@ -1,0 +1,2 @@
+// The request form's schema is shared with the page: lib/organisations/request.ts.
+export { organisationRequestInput, type OrganisationRequestFormInput } from "@/lib/organisations/request";

@@ -1,0 +1,1 @@
+export { addOrganiserInput } from "@/lib/organisations/request";
