@@ -31,6 +31,12 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
     observedPoint: t("charts.observedPoint"),
     noData: t("charts.noData"),
     chartSummary: t("charts.summary"),
+    zonesSummary: t("charts.zonesSummary"),
+    dataTable: t("charts.dataTable"),
+    zone: t("charts.zone"),
+    part: t("charts.part"),
+    lower: t("charts.lower"),
+    upper: t("charts.upper"),
   };
   return (
     <div className="space-y-8">
