@@ -200,6 +200,13 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
         {t("session.startTitle")}
       </h2>
       <p className="text-ink-soft">{t("session.startHint")}</p>
+      <p role="note" className="rounded-lg border-2 border-heath-600 bg-heath-50 p-2 text-heath-900">
+        <span aria-hidden="true">⚠ </span>
+        {t("session.safetyReminder")}{" "}
+        <a href="#safety" className="font-semibold underline">
+          {t("safetyLink")}
+        </a>
+      </p>
       <fieldset className="grid gap-2">
         <legend className="mb-1 font-bold">{t("session.kind")}</legend>
         {KINDS.map((k) => (

@@ -44,7 +44,7 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
   const prior = editing?.record;
   const [query, setQuery] = useState("");
   const [usage, setUsage] = useState<Usage>({});
-  const [species, setSpecies] = useState<{ taxonId: string; label: string } | null>(
+  const [species, setSpecies] = useState<{ taxonId: string; label: string; sensitive?: boolean } | null>(
     prior?.taxonId ? { taxonId: prior.taxonId, label: editing!.taxonLabel } : null,
   );
   const [unidentified, setUnidentified] = useState(Boolean(prior && !prior.taxonId));
@@ -182,6 +182,12 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
             >
               {t("changeSpecies")}
             </button>
+            {species.sensitive ? (
+              <p role="note" className="w-full rounded-lg border-2 border-heath-600 bg-heath-50 p-2 text-heath-900">
+                <span aria-hidden="true">⚠ </span>
+                {t("sensitiveCaution")}
+              </p>
+            ) : null}
           </div>
         ) : !unidentified ? (
           <>
@@ -210,7 +216,9 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
                 <li key={h.taxonId}>
                   <button
                     type="button"
-                    onClick={() => setSpecies({ taxonId: h.taxonId, label: h.label })}
+                    onClick={() =>
+                      setSpecies({ taxonId: h.taxonId, label: h.label, sensitive: h.sensitivity !== "open" })
+                    }
                     className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-left"
                   >
                     <span className="text-lg font-bold">

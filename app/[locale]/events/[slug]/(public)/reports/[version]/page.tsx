@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
-import { getPublicEventBySlug } from "@/db/queries/events";
+import { eventLatitude, getPublicEventBySlug } from "@/db/queries/events";
 import { eventCredits, getReport } from "@/db/queries/reports";
 import { checkReport } from "@/server/results/check";
 import { ResultsBody } from "@/components/results/results-body";
@@ -9,6 +9,7 @@ import { EstimateCaution } from "@/components/results/zone-comparison";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import type { ReportChanges } from "@/lib/results/records";
+import { gridCellKm } from "@/lib/results/exports";
 
 // Public by design: anyone may read a published report, without signing in.
 export const dynamic = "force-dynamic";
@@ -42,10 +43,11 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const found = await load(slug, version);
   if (!found) notFound();
   const { event, report } = found;
-  const [t, format, credits, check] = await Promise.all([
+  const [t, format, credits, latitude, check] = await Promise.all([
     getTranslations("Report"),
     getFormatter(),
     eventCredits(event.id),
+    eventLatitude(event.id),
     wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
   ]);
   const r = report.results;
@@ -139,7 +141,16 @@ export default async function ReportPage({ params, searchParams }: Props) {
       <EstimateCaution />
       <aside className="rounded-lg border-2 border-heath-500 bg-heath-50 p-3">
         <p className="font-bold text-heath-900">{t("sensitive.title")}</p>
-        <p>{t("sensitive.body")}</p>
+        <p>
+          {latitude === null
+            ? t("sensitive.bodyNoPlace", {
+                northSouth: format.number(gridCellKm(0).northSouth, { maximumFractionDigits: 0 }),
+              })
+            : t("sensitive.body", {
+                northSouth: format.number(gridCellKm(latitude).northSouth, { maximumFractionDigits: 0 }),
+                eastWest: format.number(gridCellKm(latitude).eastWest, { maximumFractionDigits: 1 }),
+              })}
+        </p>
       </aside>
 
       <section aria-labelledby="downloads-title" className="space-y-2">
