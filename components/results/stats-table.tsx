@@ -44,17 +44,17 @@ export async function StatsTable({ block, caption, sessions }: { block: Block; c
         ? format.number(v, { style: "percent", maximumFractionDigits: 1 })
         : format.number(v, { maximumFractionDigits: digits });
   return (
-    <table className="w-full text-left text-sm">
-      <caption className="text-left font-semibold">{caption}</caption>
+    <table className="w-full text-start text-sm">
+      <caption className="text-start font-semibold">{caption}</caption>
       <thead>
         <tr className="border-b-2 border-reed-300">
-          <th scope="col" className="py-1 pr-3">
+          <th scope="col" className="py-1 pe-3">
             {t("col.method")}
           </th>
-          <th scope="col" className="py-1 pr-3 text-right">
+          <th scope="col" className="py-1 pe-3 text-end">
             {t("col.value")}
           </th>
-          <th scope="col" className="py-1 pr-3 text-right">
+          <th scope="col" className="py-1 pe-3 text-end">
             {t("col.interval")}
           </th>
           <th scope="col" className="py-1">
@@ -65,13 +65,13 @@ export async function StatsTable({ block, caption, sessions }: { block: Block; c
       <tbody>
         {rowsOf(block).map((r) => (
           <tr key={r.key} className="border-b border-reed-100 align-top">
-            <th scope="row" className="py-1 pr-3 font-semibold">
+            <th scope="row" className="py-1 pe-3 font-semibold">
               {name.get(r.key)}
             </th>
-            <td className="py-1 pr-3 text-right tabular-nums" data-stat={r.key}>
+            <td className="py-1 pe-3 text-end tabular-nums" data-stat={r.key}>
               {num(r.value, r.digits, r.percent)}
             </td>
-            <td className="py-1 pr-3 text-right tabular-nums">
+            <td className="py-1 pe-3 text-end tabular-nums">
               {r.lower !== undefined ? `${num(r.lower, r.digits)} – ${num(r.upper, r.digits)}` : ""}
             </td>
             <td className="py-1 text-ink-soft">{t(`notes.${r.key}`, { sessions })}</td>

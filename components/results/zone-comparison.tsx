@@ -26,17 +26,17 @@ export async function ZoneComparison({ comparison }: { comparison: Comparison | 
               coverage: format.number(comparison.coverage, { style: "percent", maximumFractionDigits: 1 }),
             })}
           </p>
-          <table className="w-full text-left text-sm">
+          <table className="w-full text-start text-sm">
             <caption className="sr-only">{t("comparison.title")}</caption>
             <thead>
               <tr className="border-b-2 border-reed-300">
-                <th scope="col" className="py-1 pr-3">
+                <th scope="col" className="py-1 pe-3">
                   {t("comparison.zone")}
                 </th>
-                <th scope="col" className="py-1 pr-3 text-right">
+                <th scope="col" className="py-1 pe-3 text-end">
                   {t("comparison.atSize", { size: comparison.size })}
                 </th>
-                <th scope="col" className="py-1 text-right">
+                <th scope="col" className="py-1 text-end">
                   {t("comparison.atCoverage", {
                     coverage: format.number(comparison.coverage, { style: "percent", maximumFractionDigits: 1 }),
                   })}
@@ -46,20 +46,20 @@ export async function ZoneComparison({ comparison }: { comparison: Comparison | 
             <tbody>
               {comparison.zones.map((z) => (
                 <tr key={z.id} className="border-b border-reed-100">
-                  <th scope="row" className="py-1 pr-3 font-semibold">
+                  <th scope="row" className="py-1 pe-3 font-semibold">
                     {z.name} <span className="font-normal text-ink-soft">({tHabitat(z.habitat as Habitat)})</span>
                   </th>
-                  <td className="py-1 pr-3 text-right tabular-nums">
+                  <td className="py-1 pe-3 text-end tabular-nums">
                     {n(z.atSize.richness)} ({n(z.atSize.lower)} – {n(z.atSize.upper)})
                   </td>
-                  <td className="py-1 text-right tabular-nums">
+                  <td className="py-1 text-end tabular-nums">
                     {n(z.atCoverage.richness)} ({n(z.atCoverage.lower)} – {n(z.atCoverage.upper)})
                   </td>
                 </tr>
               ))}
             </tbody>
           </table>
-          <ul className="list-disc space-y-1 pl-5" data-testid="comparison-sentences">
+          <ul className="list-disc space-y-1 ps-5" data-testid="comparison-sentences">
             {comparison.sentences.map((s) => {
               const a = comparison.zones.find((z) => z.id === s.a)!;
               const b = comparison.zones.find((z) => z.id === s.b)!;

@@ -219,12 +219,12 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
                     onClick={() =>
                       setSpecies({ taxonId: h.taxonId, label: h.label, sensitive: h.sensitivity !== "open" })
                     }
-                    className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-left"
+                    className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-start"
                   >
                     <span className="text-lg font-bold">
                       {h.label}
                       {!h.onList ? (
-                        <span className="ml-2 text-sm font-semibold text-heath-900">({t("notOnList")})</span>
+                        <span className="ms-2 text-sm font-semibold text-heath-900">({t("notOnList")})</span>
                       ) : null}
                     </span>
                     <span className="italic text-ink-soft">{h.scientificName}</span>
@@ -405,7 +405,7 @@ export function SightingForm({ db, eventId, index, zones, position, session, edi
           capture="environment"
           multiple
           onChange={(e) => void addPhotos(e.target.files)}
-          className="block min-h-touch w-full text-lg file:mr-3 file:min-h-touch file:rounded-lg file:border-2 file:border-reed-700 file:bg-white file:px-4 file:font-semibold"
+          className="block min-h-touch w-full text-lg file:me-3 file:min-h-touch file:rounded-lg file:border-2 file:border-reed-700 file:bg-white file:px-4 file:font-semibold"
         />
         {photoBusy ? <p role="status">{t("photoPreparing")}</p> : null}
         {photos.length ? (

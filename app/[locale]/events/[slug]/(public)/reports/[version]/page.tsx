@@ -94,7 +94,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
           <h2 id="changes-title" className="text-2xl font-bold text-reed-900">
             {t("changes.title", { previous: changes.previousVersion })}
           </h2>
-          <ul className="list-disc pl-5">
+          <ul className="list-disc ps-5">
             <li>
               {t("changes.records", { added: changes.added, removed: changes.removed, changed: changes.changed })}
             </li>
@@ -178,7 +178,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
         <h2 id="method-title" className="text-2xl font-bold text-reed-900">
           {t("methods.title")}
         </h2>
-        <ul className="list-disc pl-5 text-sm">
+        <ul className="list-disc ps-5 text-sm">
           {report.methodNotes.map((m) => (
             <li key={m.key}>
               <span className="font-semibold">{m.name}</span>: {m.source}

@@ -198,7 +198,7 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
                         <button
                           type="button"
                           disabled={busy}
-                          className="text-left text-sm underline"
+                          className="text-start text-sm underline"
                           aria-label={t("actions.choose", { name })}
                           onClick={() => onDecide({ action: "reidentify", taxonId: x.id, message })}
                         >

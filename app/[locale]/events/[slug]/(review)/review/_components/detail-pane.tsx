@@ -33,7 +33,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
       <header className="space-y-1">
         <h2 id="detail-title" className="text-xl font-bold text-reed-900">
           {s.commonName ?? s.scientificName ?? tQueue("unidentified")}
-          {s.scientificName ? <i className="ml-2 font-normal text-ink-soft">{s.scientificName}</i> : null}
+          {s.scientificName ? <i className="ms-2 font-normal text-ink-soft">{s.scientificName}</i> : null}
         </h2>
         <div className="flex flex-wrap items-center gap-2">
           <ReviewStateMark state={s.reviewState} />
@@ -167,7 +167,7 @@ export function DetailPane({ detail, timeZone, eventId }: Props) {
         {detail.history.length ? (
           <ol className="space-y-1 text-sm">
             {detail.history.map((h) => (
-              <li key={h.id} className="border-l-4 border-reed-300 pl-2">
+              <li key={h.id} className="border-s-4 border-reed-300 ps-2">
                 <span className="block text-ink-soft">{dt(h.decidedAt, "short")}</span>
                 {t("historyState", {
                   who: h.reviewerName,
