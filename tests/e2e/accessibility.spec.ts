@@ -190,7 +190,7 @@ test("results and the public report", async ({ browser }) => {
     await expect(page.getByRole("status").filter({ hasText: /Version 1 published/ })).toBeVisible({ timeout: 30_000 });
   }
   const version = await latest();
-  const visitor = await browser.newPage();
+  const visitor = await (await browser.newContext()).newPage();
   await everyWay(visitor, "public report", async (loc, m) => {
     await visitor.goto(`/${loc}/events/${SLUG}/reports/${version}`);
     await expect(visitor.getByText(m.Report.sensitive.title, { exact: true }).first()).toBeVisible();
