@@ -15,7 +15,7 @@ export async function SafetyNotice() {
         {t("title")}
       </h2>
       <p className="mt-1 text-ink-soft">{t("intro")}</p>
-      <ul className="mt-3 list-disc space-y-1 pl-5 text-ink">
+      <ul className="mt-3 list-disc space-y-1 ps-5 text-ink">
         {points.map((p) => (
           <li key={p}>{t(p)}</li>
         ))}

@@ -35,7 +35,7 @@ export const REVIEW_MARKS: Record<ReviewState, Look> = {
     ),
     cls: "border-reed-700 bg-reed-100 text-reed-900",
   },
-  // A circle struck through: not accepted.
+  // A circle struck through: refused by the server.
   rejected: {
     icon: (
       <>

@@ -6,7 +6,7 @@ import { hasLocale, NextIntlClientProvider } from "next-intl";
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import type { ReactNode } from "react";
 import { SiteHeader } from "@/components/site-header";
-import { routing } from "@/lib/i18n/routing";
+import { routing, rtlLocales } from "@/lib/i18n/routing";
 
 // Atkinson Hyperlegible Next: designed for legibility, which matters in sun and rain.
 // Shipped from the npm package; nothing is fetched at build or run time.
@@ -43,11 +43,11 @@ export default async function LocaleLayout({
   const t = await getTranslations({ locale, namespace: "Common" });
 
   return (
-    <html lang={locale} className={sans.variable}>
+    <html lang={locale} dir={rtlLocales.includes(locale) ? "rtl" : "ltr"} className={sans.variable}>
       <body className="flex min-h-screen flex-col bg-paper font-sans text-ink antialiased">
         <a
           href="#main"
-          className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-paper focus:p-2"
+          className="sr-only focus:not-sr-only focus:absolute focus:start-2 focus:top-2 focus:z-50 focus:rounded focus:bg-paper focus:p-2"
         >
           {t("skipToContent")}
         </a>

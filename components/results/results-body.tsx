@@ -82,6 +82,12 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
     observedPoint: t("charts.observedPoint"),
     noData: t("charts.noData"),
     chartSummary: t("charts.summary"),
+    zonesSummary: t("charts.zonesSummary"),
+    dataTable: t("charts.dataTable"),
+    zone: t("charts.zone"),
+    part: t("charts.part"),
+    lower: t("charts.lower"),
+    upper: t("charts.upper"),
   };
   const hillSeries: HillSeries[] = [
     ...(results.event.hill ? [{ name: t("wholeEvent"), hill: results.event.hill }] : []),
@@ -192,14 +198,14 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
         <h2 id="species-list-title" className="text-2xl font-bold text-reed-900">
           {t("speciesTitle", { count: results.species.length })}
         </h2>
-        <table className="w-full text-left text-sm">
+        <table className="w-full text-start text-sm">
           <caption className="sr-only">{t("speciesTitle", { count: results.species.length })}</caption>
           <thead>
             <tr className="border-b-2 border-reed-300">
-              <th scope="col" className="py-1 pr-3">
+              <th scope="col" className="py-1 pe-3">
                 {t("col.species")}
               </th>
-              <th scope="col" className="py-1 pr-3">
+              <th scope="col" className="py-1 pe-3">
                 {t("col.group")}
               </th>
               <th scope="col" className="py-1 pr-3">
@@ -213,7 +219,7 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
           <tbody>
             {results.species.map((s) => (
               <tr key={s.id} className="border-b border-reed-100">
-                <th scope="row" className="py-1 pr-3 font-normal">
+                <th scope="row" className="py-1 pe-3 font-normal">
                   <span className="font-semibold">{s.names[locale] ?? s.names.en ?? s.scientificName}</span>{" "}
                   <i className="text-ink-soft">{s.scientificName}</i>
                   {s.rankStatus === "folded" || s.rankStatus === "aboveSpecies" || s.rankStatus === "leftOut" ? (
@@ -222,7 +228,7 @@ export async function ResultsBody({ results, showSensitivity }: { results: Resul
                     </span>
                   ) : null}
                   {showSensitivity && s.sensitivity !== "open" ? (
-                    <span className="ml-2 rounded border border-heath-600 px-1 text-xs text-heath-900">
+                    <span className="ms-2 rounded border border-heath-600 px-1 text-xs text-heath-900">
                       ⚠ {t(`sensitivity.${s.sensitivity}`)}
                     </span>
                   ) : null}

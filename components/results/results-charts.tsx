@@ -9,10 +9,13 @@ import {
   LineChart,
   ReferenceDot,
   ResponsiveContainer,
+  Symbols,
   Tooltip,
   XAxis,
   YAxis,
 } from "recharts";
+import { useFormatter } from "next-intl";
+import { useId } from "react";
 import type { CurvePoint } from "@/lib/diversity/index";
 
 export type ChartLabels = {
@@ -31,9 +34,20 @@ export type ChartLabels = {
   observedPoint: string;
   noData: string;
   chartSummary: string;
+  zonesSummary: string;
+  dataTable: string;
+  zone: string;
+  part: string;
+  lower: string;
+  upper: string;
 };
 
-const ZONE_COLOURS = ["#225c41", "#b5761c", "#4a6fa5", "#8f3f71", "#3d463f", "#6e450f"];
+// Zones are told apart by colour and by marker (never by dashes: a dashed line means extrapolation
+// on every chart). Colours at least 3:1 against white for lines (WCAG 1.4.11).
+const ZONE_COLOURS = ["#225c41", "#9a5d0f", "#3f62a0", "#8f3f71", "#3d463f", "#b0362a"];
+const ZONE_MARKERS = ["circle", "square", "triangle", "diamond", "cross", "star", "wye"] as const;
+// Axis ticks and labels darker than Recharts' default grey so chart text reaches 4.5:1 on the card.
+const TICK = { fill: "#2b3a31" };
 
 function curveRows(points: CurvePoint[]) {
   return points.map((p) => ({
@@ -43,6 +57,62 @@ function curveRows(points: CurvePoint[]) {
     band: [p.lower, p.upper] as [number, number],
   }));
 }
+
+/** The numbers behind a chart, as its text alternative (the chart's figure points to it). */
+function DataTable({
+  id,
+  labels,
+  rows,
+  xLabel,
+  withZone,
+}: {
+  id: string;
+  labels: ChartLabels;
+  rows: { zone?: string; size: number; richness: number; lower?: number; upper?: number; part: string }[];
+  xLabel: string;
+  withZone?: boolean;
+}) {
+  const format = useFormatter();
+  const n = (v: number | undefined) => (v === undefined ? "" : format.number(v, { maximumFractionDigits: 1 }));
+  return (
+    <details className="mt-2 text-sm">
+      <summary className="cursor-pointer text-reed-800 underline">{labels.dataTable}</summary>
+      <div className="max-h-64 overflow-auto">
+        <table id={id} className="w-full text-start">
+          <thead>
+            <tr className="border-b border-reed-300">
+              {withZone ? <th scope="col">{labels.zone}</th> : null}
+              <th scope="col">{xLabel}</th>
+              <th scope="col">{labels.species}</th>
+              <th scope="col">{labels.lower}</th>
+              <th scope="col">{labels.upper}</th>
+              <th scope="col">{labels.part}</th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r, i) => (
+              <tr key={i} className="border-b border-reed-100">
+                {withZone ? <td>{r.zone}</td> : null}
+                <td className="tabular-nums">{n(r.size)}</td>
+                <td className="tabular-nums">{n(r.richness)}</td>
+                <td className="tabular-nums">{n(r.lower)}</td>
+                <td className="tabular-nums">{n(r.upper)}</td>
+                <td>{r.part}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </details>
+  );
+}
+
+const partOf = (p: CurvePoint, labels: ChartLabels) =>
+  p.kind === "extrapolated"
+    ? labels.extrapolatedPart
+    : p.kind === "observed"
+      ? labels.observedPoint
+      : labels.observedPart;
 
 function Curve({
   points,
@@ -58,65 +128,84 @@ function Curve({
   empty?: string;
 }) {
   const observed = points.find((p) => p.kind === "observed");
+  const tableId = useId();
   return (
     <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={title}>
       <figcaption className="font-semibold">{title}</figcaption>
       {points.length === 0 ? (
         <p>{empty || labels.noData}</p>
       ) : (
-        <div className="h-72 w-full" role="img" aria-label={`${title}. ${labels.chartSummary}`}>
-          <ResponsiveContainer width="100%" height="100%">
-            <ComposedChart data={curveRows(points)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-              <CartesianGrid stroke="#d5e8dc" />
-              <XAxis
-                dataKey="size"
-                type="number"
-                domain={[0, "dataMax"]}
-                label={{ value: xLabel, position: "insideBottom", offset: -12 }}
-              />
-              <YAxis label={{ value: labels.species, angle: -90, position: "insideLeft" }} />
-              <Tooltip />
-              <Legend verticalAlign="top" />
-              <Area
-                dataKey="band"
-                name={labels.band}
-                stroke="none"
-                fill="#76b08f"
-                fillOpacity={0.3}
-                isAnimationActive={false}
-              />
-              <Line
-                dataKey="interpolated"
-                name={labels.observedPart}
-                stroke="#153a2a"
-                strokeWidth={2}
-                dot={false}
-                isAnimationActive={false}
-                connectNulls={false}
-              />
-              <Line
-                dataKey="extrapolated"
-                name={labels.extrapolatedPart}
-                stroke="#153a2a"
-                strokeWidth={2}
-                strokeDasharray="6 4"
-                dot={false}
-                isAnimationActive={false}
-                connectNulls={false}
-              />
-              {observed ? (
-                <ReferenceDot
-                  x={observed.size}
-                  y={observed.richness}
-                  r={6}
-                  fill="#b5761c"
-                  stroke="#0f2a1f"
-                  label={{ value: labels.observedPoint, position: "top" }}
+        <>
+          <div
+            className="h-72 w-full"
+            dir="ltr"
+            role="img"
+            aria-label={`${title}. ${labels.chartSummary}`}
+            aria-describedby={tableId}
+          >
+            <ResponsiveContainer width="100%" height="100%">
+              <ComposedChart data={curveRows(points)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+                <CartesianGrid stroke="#d5e8dc" />
+                <XAxis
+                  dataKey="size"
+                  type="number"
+                  domain={[0, "dataMax"]}
+                  tick={TICK}
+                  label={{ value: xLabel, position: "insideBottom", offset: -12, fill: TICK.fill }}
                 />
-              ) : null}
-            </ComposedChart>
-          </ResponsiveContainer>
-        </div>
+                <YAxis
+                  tick={TICK}
+                  label={{ value: labels.species, angle: -90, position: "insideLeft", fill: TICK.fill }}
+                />
+                <Tooltip />
+                <Legend verticalAlign="top" />
+                <Area
+                  dataKey="band"
+                  name={labels.band}
+                  stroke="none"
+                  fill="#76b08f"
+                  fillOpacity={0.3}
+                  isAnimationActive={false}
+                />
+                <Line
+                  dataKey="interpolated"
+                  name={labels.observedPart}
+                  stroke="#153a2a"
+                  strokeWidth={2}
+                  dot={false}
+                  isAnimationActive={false}
+                  connectNulls={false}
+                />
+                <Line
+                  dataKey="extrapolated"
+                  name={labels.extrapolatedPart}
+                  stroke="#153a2a"
+                  strokeWidth={2}
+                  strokeDasharray="6 4"
+                  dot={false}
+                  isAnimationActive={false}
+                  connectNulls={false}
+                />
+                {observed ? (
+                  <ReferenceDot
+                    x={observed.size}
+                    y={observed.richness}
+                    r={6}
+                    fill="#b5761c"
+                    stroke="#0f2a1f"
+                    label={{ value: labels.observedPoint, position: "top", fill: TICK.fill }}
+                  />
+                ) : null}
+              </ComposedChart>
+            </ResponsiveContainer>
+          </div>
+          <DataTable
+            id={tableId}
+            labels={labels}
+            xLabel={xLabel}
+            rows={points.map((p) => ({ ...p, part: partOf(p, labels) }))}
+          />
+        </>
       )}
     </figure>
   );
@@ -134,6 +223,8 @@ export function ResultsCharts(props: {
 }) {
   const { labels } = props;
   const rankRows = props.ranks.map((v, i) => ({ rank: i + 1, abundance: v }));
+  const rankTable = useId();
+  const zonesTable = useId();
   return (
     <div className="grid gap-4 lg:grid-cols-2" data-testid="results-charts">
       <Curve
@@ -152,7 +243,7 @@ export function ResultsCharts(props: {
       />
       <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.rankTitle}>
         <figcaption className="font-semibold">{labels.rankTitle}</figcaption>
-        <div className="h-72 w-full" role="img" aria-label={labels.rankTitle}>
+        <div className="h-72 w-full" dir="ltr" role="img" aria-label={labels.rankTitle} aria-describedby={rankTable}>
           <ResponsiveContainer width="100%" height="100%">
             <LineChart data={rankRows} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
               <CartesianGrid stroke="#d5e8dc" />
@@ -160,13 +251,15 @@ export function ResultsCharts(props: {
                 dataKey="rank"
                 type="number"
                 domain={[1, "dataMax"]}
-                label={{ value: labels.rank, position: "insideBottom", offset: -12 }}
+                tick={TICK}
+                label={{ value: labels.rank, position: "insideBottom", offset: -12, fill: TICK.fill }}
               />
               <YAxis
                 scale="log"
                 domain={[1, "auto"]}
                 allowDataOverflow
-                label={{ value: labels.abundance, angle: -90, position: "insideLeft" }}
+                tick={TICK}
+                label={{ value: labels.abundance, angle: -90, position: "insideLeft", fill: TICK.fill }}
               />
               <Tooltip />
               <Line
@@ -179,10 +272,22 @@ export function ResultsCharts(props: {
             </LineChart>
           </ResponsiveContainer>
         </div>
+        <DataTable
+          id={rankTable}
+          labels={{ ...labels, species: labels.abundance }}
+          xLabel={labels.rank}
+          rows={rankRows.map((r) => ({ size: r.rank, richness: r.abundance, part: labels.observedPart }))}
+        />
       </figure>
       <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.zonesTitle}>
         <figcaption className="font-semibold">{labels.zonesTitle}</figcaption>
-        <div className="h-72 w-full" role="img" aria-label={labels.zonesTitle}>
+        <div
+          className="h-72 w-full"
+          dir="ltr"
+          role="img"
+          aria-label={`${labels.zonesTitle}. ${labels.zonesSummary}`}
+          aria-describedby={zonesTable}
+        >
           <ResponsiveContainer width="100%" height="100%">
             <LineChart margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
               <CartesianGrid stroke="#d5e8dc" />
@@ -191,27 +296,66 @@ export function ResultsCharts(props: {
                 type="number"
                 domain={[0, "dataMax"]}
                 allowDuplicatedCategory={false}
-                label={{ value: labels.individuals, position: "insideBottom", offset: -12 }}
+                tick={TICK}
+                label={{ value: labels.individuals, position: "insideBottom", offset: -12, fill: TICK.fill }}
               />
-              <YAxis label={{ value: labels.species, angle: -90, position: "insideLeft" }} />
+              <YAxis
+                tick={TICK}
+                label={{ value: labels.species, angle: -90, position: "insideLeft", fill: TICK.fill }}
+              />
               <Tooltip />
               <Legend verticalAlign="top" />
-              {props.zones.map((z, i) => (
-                <Line
-                  key={z.name}
-                  data={z.rarefaction.map((p) => ({ size: p.size, richness: p.richness }))}
-                  dataKey="richness"
-                  name={z.name}
-                  stroke={ZONE_COLOURS[i % ZONE_COLOURS.length]}
-                  strokeWidth={2}
-                  dot={false}
-                  isAnimationActive={false}
-                  strokeDasharray={i % 2 ? "8 3" : undefined}
-                />
-              ))}
+              {props.zones.flatMap((z, i) => {
+                const colour = ZONE_COLOURS[i % ZONE_COLOURS.length];
+                const marker = ZONE_MARKERS[i % ZONE_MARKERS.length];
+                const rows = curveRows(z.rarefaction);
+                const observedSize = z.rarefaction.find((p) => p.kind === "observed")?.size;
+                // The zone's marker at its observed sample (where the solid part ends and the dashed part starts).
+                const dot = (d: { cx?: number; cy?: number; payload?: { size: number }; index?: number }) =>
+                  d.payload?.size === observedSize && d.cx !== undefined && d.cy !== undefined ? (
+                    <Symbols key={`${z.name}-${d.index}`} cx={d.cx} cy={d.cy} type={marker} size={90} fill={colour} />
+                  ) : (
+                    <g key={`${z.name}-${d.index}`} />
+                  );
+                return [
+                  <Line
+                    key={`${z.name}-rarefied`}
+                    data={rows}
+                    dataKey="interpolated"
+                    name={z.name}
+                    stroke={colour}
+                    strokeWidth={2}
+                    legendType={marker}
+                    dot={dot}
+                    activeDot={false}
+                    isAnimationActive={false}
+                    connectNulls={false}
+                  />,
+                  <Line
+                    key={`${z.name}-extrapolated`}
+                    data={rows}
+                    dataKey="extrapolated"
+                    name={`${z.name} (${labels.extrapolatedPart})`}
+                    stroke={colour}
+                    strokeWidth={2}
+                    strokeDasharray="6 4"
+                    legendType="none"
+                    dot={false}
+                    isAnimationActive={false}
+                    connectNulls={false}
+                  />,
+                ];
+              })}
             </LineChart>
           </ResponsiveContainer>
         </div>
+        <DataTable
+          id={zonesTable}
+          labels={labels}
+          xLabel={labels.individuals}
+          withZone
+          rows={props.zones.flatMap((z) => z.rarefaction.map((p) => ({ ...p, zone: z.name, part: partOf(p, labels) })))}
+        />
       </figure>
     </div>
   );

@@ -41,11 +41,11 @@ export async function ZoneComparison({
               unit: t(c.kind === "abundance" ? "comparison.unitIndividuals" : "comparison.unitSessions"),
             })}
           </p>
-          <table className="w-full text-left text-sm">
+          <table className="w-full text-start text-sm">
             <caption className="sr-only">{t("comparison.title")}</caption>
             <thead>
               <tr className="border-b-2 border-reed-300">
-                <th scope="col" className="py-1 pr-3">
+                <th scope="col" className="py-1 pe-3">
                   {t("comparison.zone")}
                 </th>
                 <th scope="col" className="py-1 pr-3 text-right">
@@ -61,7 +61,7 @@ export async function ZoneComparison({
             <tbody>
               {c.zones.map((z) => (
                 <tr key={z.id} className="border-b border-reed-100">
-                  <th scope="row" className="py-1 pr-3 font-semibold">
+                  <th scope="row" className="py-1 pe-3 font-semibold">
                     {z.name} <span className="font-normal text-ink-soft">({tHabitat(z.habitat as Habitat)})</span>
                   </th>
                   <td className="py-1 pr-3 text-right tabular-nums">

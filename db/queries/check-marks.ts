@@ -15,8 +15,8 @@ import type { Db } from "../client";
 //                       Exploratory Data Analysis; from memory) taken on ln(count), because
 //                       counts are right-skewed, and never below HIGH_COUNT_FLOOR; with fewer
 //                       records, above a fixed per-group threshold (GROUP_THRESHOLDS). The log
-//                       scale, the floor and the thresholds are common practice, not a
-//                       published standard. Quartiles include the record itself: quartiles
+//                       scale and the floor are common practice, not a published standard; the
+//                       per-group thresholds are this project's own tunable choice. Quartiles include the record itself: quartiles
 //                       barely move for one extreme value, which is why they are used.
 //   not_on_list         identified to a taxon that is not on the event's species list
 //   sensitive_taxon     the taxon's sensitivity is generalised or restricted
@@ -32,7 +32,7 @@ export const HIGH_COUNT_MIN_RECORDS = 10;
 export const HIGH_COUNT_FLOOR = 5;
 export const DUPLICATE_MINUTES = 10;
 export const DUPLICATE_METRES = 50;
-/** Counts above these are marked when a taxon has too few records at the event for quartiles (common practice). */
+/** Counts above these are marked when a taxon has too few records at the event for quartiles: the project's own tunable choice, not a published or common figure. */
 // Every threshold is above HIGH_COUNT_FLOOR (a unit test checks), so counts at or below the floor need no statistics.
 export const GROUP_THRESHOLDS = {
   birds: 50,

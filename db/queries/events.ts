@@ -72,6 +72,15 @@ export async function getPublicEventBySlug(slug: string) {
   return row ?? null;
 }
 
+/** The latitude of the event's area (or of its zones) at its centroid: sizes the 0.1° cell east–west. */
+export async function eventLatitude(eventId: string): Promise<number | null> {
+  const r = await getDb().execute<{ lat: number | null }>(sql`
+    SELECT ST_Y(ST_Centroid(coalesce(e.area, (SELECT ST_Union(z.geom) FROM zones z WHERE z.event_id = e.id))))::float8 AS lat
+    FROM events e WHERE e.id = ${eventId}`);
+  const lat = r.rows[0]?.lat;
+  return lat === null || lat === undefined ? null : Number(lat);
+}
+
 export async function listZones(eventId: string) {
   return getDb()
     .select({

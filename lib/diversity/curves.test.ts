@@ -23,6 +23,9 @@ describe("diversityResults", () => {
 
   it("derives counts from the units when they are not given", () => {
     expect(r.engineVersion).toBe(ENGINE_VERSION);
+    // BCI: tree counts in 50 one-hectare plots on Barro Colorado Island (Condit et al. 2002, Science 295:666),
+    // as shipped in R vegan 2.6's data(BCI) (tests/fixtures/vegan, written by scripts/vegan-reference.R):
+    // 21,457 individuals of 225 species in 50 plots.
     expect(r.abundance.individuals).toBe(21457);
     expect(r.abundance.observed).toBe(225);
     expect(r.incidence?.units).toBe(50);

@@ -2,7 +2,7 @@
 // another seed must move every band limit by under 2%, relative to the limit.
 // Measured at the last change (seeds 20140101 vs 20140102): spider 'Girdled' curves
 // 1,800 replicates, largest move 0.68%; its profile 10,000 replicates, 0.94%; pooled BCI
-// curves 200 replicates, 0.23%, its incidence curves 200 replicates, 0.49%. At a fixed 400 replicates the Girdled curves moved 2.6%,
+// (Condit et al. 2002, via R vegan 2.6's data(BCI)) curves 200 replicates, 0.23%, its incidence curves 200 replicates, 0.49%. At a fixed 400 replicates the Girdled curves moved 2.6%,
 // at a fixed 2,000 its profile moved 3.7% (heavy-tailed q = 0 bootstrap).
 
 import { describe, expect, it } from "vitest";

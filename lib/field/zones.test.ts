@@ -29,11 +29,13 @@ describe("zone of a point, on the device", () => {
 
 describe("walk distance", () => {
   it("measures a degree of latitude as about 111 km", () => {
+    // 111.2 km per degree of latitude (a 6,371 km mean Earth radius × π/180): common practice for geodesy on a sphere.
     expect(distanceM({ latitude: 53, longitude: -2 }, { latitude: 54, longitude: -2 })).toBeGreaterThan(111_000);
     expect(distanceM({ latitude: 53, longitude: -2 }, { latitude: 54, longitude: -2 })).toBeLessThan(111_400);
   });
 
   it("adds real steps and ignores jitter and poor fixes", () => {
+    // 111,195 m per degree of latitude on the 6,371 km sphere (common practice).
     const north = (m: number, accuracyM = 5) => ({ latitude: 53.3 + m / 111_195, longitude: -2.095, accuracyM });
     // 0 → 100 m → (jitter 2 m) → (a 500 m-accuracy fix far away) → 200 m
     const d = walkDistanceM([north(0), north(100), north(102), { ...north(900), accuracyM: 500 }, north(200)]);

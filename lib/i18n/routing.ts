@@ -1,6 +1,9 @@
 import { defineRouting } from "next-intl/routing";
 
-export const locales = ["en", "es", "fr"] as const;
+export const locales = ["en", "es", "fr", "ar"] as const;
+
+// Locales written right to left: the document gets dir="rtl".
+export const rtlLocales: readonly Locale[] = ["ar"];
 export type Locale = (typeof locales)[number];
 
 export const routing = defineRouting({

@@ -1,6 +1,6 @@
 // Public downloads of a report: species list (CSV), Darwin Core Archive (zip), GeoJSON.
 // Sensitive taxa: "generalised" records are moved to the centre of a 0.1° grid cell (about
-// 11 × 7 km here) with the uncertainty widened to cover the cell; "restricted" records are
+// 11 km north–south everywhere; east–west 11 km × cos(latitude), see gridCellKm) with the uncertainty widened to cover the cell; "restricted" records are
 // withheld from every located output (design.md: exact locations never reach the public).
 import { strToU8, zipSync } from "fflate";
 import type { Results } from "./compute";
@@ -19,6 +19,14 @@ export type PublicOccurrence = {
 };
 
 export const GRID_DEGREES = 0.1;
+// 111.32 km per degree of latitude (and of longitude at the equator): common practice, spherical Earth.
+const KM_PER_DEGREE = 111.32;
+
+/** The grid cell's size in km at a latitude: north–south is the same everywhere, east–west shrinks with cos(latitude). */
+export function gridCellKm(lat: number): { northSouth: number; eastWest: number } {
+  const northSouth = GRID_DEGREES * KM_PER_DEGREE;
+  return { northSouth, eastWest: Math.max(0, northSouth * Math.cos((lat * Math.PI) / 180)) };
+}
 
 export type Located = {
   id: string;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { computeResults, NO_ZONE, type ResultsTaxon } from "./compute";
-import { generalise, speciesCsv } from "./exports";
+import { generalise, gridCellKm, speciesCsv } from "./exports";
 import { diffRecords, inputFromRecords, inputHash, type InputRecord } from "./records";
 
 const taxon = (id: string, sensitivity: ResultsTaxon["sensitivity"] = "open"): ResultsTaxon => ({
@@ -70,6 +70,15 @@ describe("lib/results", () => {
     // A 0.1° cell at 52° N is 11.1 × 6.8 km (111.32 km per degree, common practice): half its diagonal is 6.53 km.
     expect(g.uncertaintyM).toBeGreaterThan(6500);
     expect(g.uncertaintyM).toBeLessThan(6700);
+  });
+
+  it("sizes the 0.1° cell per latitude: the same north–south everywhere, narrower east–west towards the poles", () => {
+    // 111.32 km per degree (common practice); east–west × cos(latitude) on a sphere.
+    expect(gridCellKm(0)).toEqual({ northSouth: 11.132, eastWest: 11.132 });
+    expect(gridCellKm(52).eastWest).toBeCloseTo(6.85, 2); // 11.132 × cos 52° = 6.853
+    expect(gridCellKm(-60).eastWest).toBeCloseTo(5.566, 3); // cos 60° = 0.5, south as north
+    expect(gridCellKm(78).eastWest).toBeCloseTo(2.314, 3); // high Arctic: about a fifth of the equator's width
+    expect(gridCellKm(90).eastWest).toBeCloseTo(0, 6);
   });
 
   it("quotes CSV fields that hold commas or quotes (RFC 4180)", () => {

@@ -25,7 +25,7 @@ export const sessionRecord = z
     kind: z.enum(SESSION_KINDS),
     startedAt: isoInstant,
     endedAt: isoInstant.nullable(),
-    allSpeciesNoted: z.boolean(), // only true once ended: "all species noted"
+    allSpeciesNoted: z.boolean(), // the full-list answer ("Is this session's list full?"); true only once ended
     distanceM: z.number().finite().min(0).max(100_000).nullable(), // walks
     notes: text(2000),
   })

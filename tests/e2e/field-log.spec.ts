@@ -77,9 +77,9 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   await context.setOffline(true);
   await expect(page.getByText("No connection — records stay safe on this phone")).toBeVisible();
 
-  await page.getByRole("radio", { name: "Walk" }).check();
+  await page.getByRole("radio", { name: "Transect walk" }).check();
   await page.getByRole("button", { name: "Start session" }).click();
-  await expect(page.getByRole("heading", { name: "Walk running" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Transect walk running" })).toBeVisible();
 
   await addSighting(page, "kestrle", /Common kestrel/, {
     photo: path.join(__dirname, "../fixtures/field/moor-sighting.jpg"),
@@ -93,7 +93,7 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
 
   await page.getByRole("button", { name: "End session" }).click();
   const end = page.getByRole("form", { name: "End the count session" });
-  await end.getByRole("radio", { name: "Yes, all species noted" }).check();
+  await end.getByRole("radio", { name: "Yes, the list is full" }).check();
   await end.getByLabel("Distance walked (metres)").fill("850");
   await end.getByRole("button", { name: "End session" }).click();
 

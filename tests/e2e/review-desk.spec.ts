@@ -169,9 +169,9 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   expect(ten.subject).toBe("10 review decisions on your sightings");
   const returned = await mail.waitFor("volunteer1@example.org", (m) => m.text.includes(question), 45_000);
   expect(returned.text).toMatch(/Returned with a question: European robin \(Erithacus rubecula\)/);
-  const rejected = await mail.waitFor("volunteer2@example.org", (m) => /Not accepted/.test(m.text), 45_000);
+  const rejected = await mail.waitFor("volunteer2@example.org", (m) => /Rejected: /.test(m.text), 45_000);
   expect(rejected.text).toMatch(
-    /Not accepted: Common blackbird \(Turdus merula\) ×2, .*Reason: Outside the event \(place or time\)/,
+    /Rejected: Common blackbird \(Turdus merula\) ×2, .*Reason: Outside the event \(place or time\)/,
   );
   expect(rejected.text).toContain("Coordinator's note: The lane is outside the reserve boundary.");
   const approved = await mail.waitFor("volunteer3@example.org", (m) => /Aprobada/.test(m.text), 45_000); // Lucía reads Spanish

@@ -87,7 +87,7 @@ describe("automatic check marks", () => {
     // Twelve ordinary records of 2 to 6 birds.
     const usual = [2, 3, 4, 5, 6, 2, 3, 4, 5, 6, 3, 4];
     for (const [i, count] of usual.entries()) await store({ taxonId: many!.id, count, ...at(i) });
-    // 40 is still under the birds' fixed threshold (50) but far above this taxon's usual counts.
+    // 40 is still under the birds' fixed threshold (50: the project's own tunable choice, GROUP_THRESHOLDS) but far above this taxon's usual counts.
     expect(await marksOf(await store({ taxonId: many!.id, count: 40, ...at(20) }))).toEqual(["high_count"]);
     expect(await marksOf(await store({ taxonId: many!.id, count: 7, ...at(21) }))).toEqual([]);
   });

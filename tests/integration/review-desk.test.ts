@@ -320,7 +320,7 @@ describe("the volunteer's digest", () => {
     const mail = mails[0]!;
     expect(mail.kind).toBe("review_digest");
     expect(mail.subject).toMatch(/review decisions on your sightings/);
-    expect(mail.textBody).toMatch(/Not accepted: Testus desk .*Reason: Duplicate of another record/);
+    expect(mail.textBody).toMatch(/Rejected: Testus desk .*Reason: Duplicate of another record/);
     expect(mail.textBody).toMatch(/Returned with a question: .*Question: Was this seen or only heard\?/);
     expect(mail.textBody).toMatch(/Re-identified: .*Recorded as Testus desk, now Plantus deskensis/);
     expect(mail.textBody).toMatch(/Approved: /);

@@ -145,7 +145,7 @@ describe("events and count sessions", () => {
     expect(r).toMatchObject({ code: "23514", constraint: "count_sessions_ends_after_starts" });
   });
 
-  it("refuses an 'all species noted' session that has not ended", async () => {
+  it("refuses a full-list session that has not ended", async () => {
     const r = await refusal(() =>
       db()
         .insert(s.countSessions)

@@ -43,9 +43,9 @@ describe("message catalogues", () => {
     });
   }
 
-  it("has Spanish and French texts that differ from English where words are translated", () => {
+  it("has Spanish, French and Arabic texts that differ from English where words are translated", () => {
     const en = load("en");
-    for (const locale of ["es", "fr"]) {
+    for (const locale of ["es", "fr", "ar"]) {
       const tree = load(locale);
       const same = reference.filter(
         (k) =>

@@ -143,7 +143,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
                 <button
                   type="button"
                   onClick={() => setEventId(e.id)}
-                  className="flex min-h-touch w-full flex-col items-start rounded-xl border-2 border-reed-700 bg-white p-4 text-left text-lg font-bold text-reed-900"
+                  className="flex min-h-touch w-full flex-col items-start rounded-xl border-2 border-reed-700 bg-white p-4 text-start text-lg font-bold text-reed-900"
                 >
                   {e.name}
                   <span className="text-base font-normal text-ink-soft">

@@ -24,7 +24,7 @@ type Props = {
 const choice =
   "flex min-h-touch cursor-pointer items-center gap-3 rounded-xl border-2 border-reed-700 bg-white px-4 py-2 font-semibold has-[:checked]:bg-reed-700 has-[:checked]:text-paper";
 
-/** Start a count session in a zone; end it with the "all species noted" answer and its effort. */
+/** Start a count session in a zone; end it with the full-list answer ("Is this session's list full?") and its effort. */
 export function SessionPanel({ db, eventId, zones, position, session, sightingsInSession, onSaved }: Props) {
   const t = useTranslations("FieldLog");
   const [kind, setKind] = useState<Kind>("timed_count");
@@ -200,6 +200,13 @@ export function SessionPanel({ db, eventId, zones, position, session, sightingsI
         {t("session.startTitle")}
       </h2>
       <p className="text-ink-soft">{t("session.startHint")}</p>
+      <p role="note" className="rounded-lg border-2 border-heath-600 bg-heath-50 p-2 text-heath-900">
+        <span aria-hidden="true">⚠ </span>
+        {t("session.safetyReminder")}{" "}
+        <a href="#safety" className="font-semibold underline">
+          {t("safetyLink")}
+        </a>
+      </p>
       <fieldset className="grid gap-2">
         <legend className="mb-1 font-bold">{t("session.kind")}</legend>
         {KINDS.map((k) => (

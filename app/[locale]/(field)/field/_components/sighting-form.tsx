@@ -55,7 +55,7 @@ export function SightingForm({
   const prior = editing?.record;
   const [query, setQuery] = useState("");
   const [usage, setUsage] = useState<Usage>({});
-  const [species, setSpecies] = useState<{ taxonId: string; label: string } | null>(
+  const [species, setSpecies] = useState<{ taxonId: string; label: string; sensitive?: boolean } | null>(
     prior?.taxonId ? { taxonId: prior.taxonId, label: editing!.taxonLabel } : null,
   );
   const [unidentified, setUnidentified] = useState(Boolean(prior && !prior.taxonId));
@@ -213,6 +213,12 @@ export function SightingForm({
             >
               {t("changeSpecies")}
             </button>
+            {species.sensitive ? (
+              <p role="note" className="w-full rounded-lg border-2 border-heath-600 bg-heath-50 p-2 text-heath-900">
+                <span aria-hidden="true">⚠ </span>
+                {t("sensitiveCaution")}
+              </p>
+            ) : null}
           </div>
         ) : !unidentified ? (
           <>
@@ -241,13 +247,15 @@ export function SightingForm({
                 <li key={h.taxonId}>
                   <button
                     type="button"
-                    onClick={() => setSpecies({ taxonId: h.taxonId, label: h.label })}
-                    className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-left"
+                    onClick={() =>
+                      setSpecies({ taxonId: h.taxonId, label: h.label, sensitive: h.sensitivity !== "open" })
+                    }
+                    className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-start"
                   >
                     <span className="text-lg font-bold">
                       {h.label}
                       {!h.onList ? (
-                        <span className="ml-2 text-sm font-semibold text-heath-900">({t("notOnList")})</span>
+                        <span className="ms-2 text-sm font-semibold text-heath-900">({t("notOnList")})</span>
                       ) : null}
                     </span>
                     <span className="italic text-ink-soft">{h.scientificName}</span>
@@ -428,7 +436,7 @@ export function SightingForm({
           capture="environment"
           multiple
           onChange={(e) => void addPhotos(e.target.files)}
-          className="block min-h-touch w-full text-lg file:mr-3 file:min-h-touch file:rounded-lg file:border-2 file:border-reed-700 file:bg-white file:px-4 file:font-semibold"
+          className="block min-h-touch w-full text-lg file:me-3 file:min-h-touch file:rounded-lg file:border-2 file:border-reed-700 file:bg-white file:px-4 file:font-semibold"
         />
         {photoBusy ? <p role="status">{t("photoPreparing")}</p> : null}
         {photos.length ? (

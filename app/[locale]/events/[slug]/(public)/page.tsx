@@ -88,7 +88,7 @@ export default async function EventPage({ params }: Props) {
         </h2>
         <p>{t("speciesCount", { count: species.total })}</p>
         {species.byGroup.length > 0 ? (
-          <table className="w-full max-w-md text-left">
+          <table className="w-full max-w-md text-start">
             <caption className="sr-only">{t("speciesByGroup")}</caption>
             <tbody>
               {species.byGroup.map((g) => (
@@ -96,7 +96,7 @@ export default async function EventPage({ params }: Props) {
                   <th scope="row" className="py-1 font-normal">
                     {tGroup(g.group)}
                   </th>
-                  <td className="py-1 text-right tabular-nums">{format.number(g.count)}</td>
+                  <td className="py-1 text-end tabular-nums">{format.number(g.count)}</td>
                 </tr>
               ))}
             </tbody>

@@ -3,6 +3,7 @@ import { getTranslations, setRequestLocale } from "next-intl/server";
 import { getPublicEventBySlug } from "@/db/queries/events";
 import { requirePageEventRole } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
+import { EstimateCaution } from "@/components/results/zone-comparison";
 import { LiveBoard, type LiveLabels } from "./_components/live-board";
 import { SUFFICIENCY } from "@/lib/results/settings";
 
@@ -23,6 +24,7 @@ const KEYS: Plain[] = [
   "coverage",
   "nextTitle",
   "nextIntro",
+  "nextAccess",
   "zoneLine",
   "unsampled",
   "loading",
@@ -61,7 +63,8 @@ export default async function LivePage({ params }: Props) {
   return (
     <article className="space-y-6">
       <h1 className="text-3xl font-bold text-reed-900">{t("live.title", { event: event.name })}</h1>
-      <LiveBoard eventId={event.id} labels={labels} locale={locale} />
+      <EstimateCaution />
+      <LiveBoard eventId={event.id} labels={labels} locale={locale} timeZone={event.timeZone} />
     </article>
   );
 }

@@ -113,7 +113,7 @@ export default async function ResultsPage({ params }: Props) {
                 </Link>
                 {" · "}
                 {format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
-                {r.superseded ? <span className="ml-2 text-ink-soft">({t("reports.superseded")})</span> : null}
+                {r.superseded ? <span className="ms-2 text-ink-soft">({t("reports.superseded")})</span> : null}
                 <span className="block font-mono text-xs text-ink-soft">sha256 {r.inputHash}</span>
               </li>
             ))}

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
-import { getPublicEventBySlug } from "@/db/queries/events";
+import { eventLatitude, getPublicEventBySlug } from "@/db/queries/events";
 import { eventCredits, getReport, publicResultsOf } from "@/db/queries/reports";
 import { checkReport } from "@/server/results/check";
 import { ResultsBody } from "@/components/results/results-body";
@@ -11,6 +11,7 @@ import type { Locale } from "@/lib/i18n/routing";
 import type { ReportChanges } from "@/lib/results/records";
 import { blockLead } from "@/lib/results/live";
 import { HILL_BOOTSTRAP_REPLICATES } from "@/lib/diversity/index";
+import { gridCellKm } from "@/lib/results/exports";
 
 // Public by design: anyone may read a published report, without signing in.
 export const dynamic = "force-dynamic";
@@ -44,10 +45,11 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const found = await load(slug, version);
   if (!found) notFound();
   const { event, report } = found;
-  const [t, format, credits, check, r] = await Promise.all([
+  const [t, format, credits, latitude, check, r] = await Promise.all([
     getTranslations("Report"),
     getFormatter(),
     eventCredits(event.id),
+    eventLatitude(event.id),
     wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
     // Sensitive taxa never by zone, restricted ones hidden if the organiser chose so (lib/results/public.ts).
     publicResultsOf(event.id, report.results),
@@ -98,7 +100,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
           <h2 id="changes-title" className="text-2xl font-bold text-reed-900">
             {t("changes.title", { previous: changes.previousVersion })}
           </h2>
-          <ul className="list-disc pl-5">
+          <ul className="list-disc ps-5">
             <li>
               {t("changes.records", { added: changes.added, removed: changes.removed, changed: changes.changed })}
             </li>
@@ -165,7 +167,16 @@ export default async function ReportPage({ params, searchParams }: Props) {
       <EstimateCaution />
       <aside className="rounded-lg border-2 border-heath-500 bg-heath-50 p-3">
         <p className="font-bold text-heath-900">{t("sensitive.title")}</p>
-        <p>{t("sensitive.body")}</p>
+        <p>
+          {latitude === null
+            ? t("sensitive.bodyNoPlace", {
+                northSouth: format.number(gridCellKm(0).northSouth, { maximumFractionDigits: 0 }),
+              })
+            : t("sensitive.body", {
+                northSouth: format.number(gridCellKm(latitude).northSouth, { maximumFractionDigits: 0 }),
+                eastWest: format.number(gridCellKm(latitude).eastWest, { maximumFractionDigits: 1 }),
+              })}
+        </p>
       </aside>
 
       <section aria-labelledby="downloads-title" className="space-y-2">
@@ -193,7 +204,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
         <h2 id="method-title" className="text-2xl font-bold text-reed-900">
           {t("methods.title")}
         </h2>
-        <ul className="list-disc pl-5 text-sm">
+        <ul className="list-disc ps-5 text-sm">
           {report.methodNotes.map((m) => (
             <li key={m.key}>
               <span className="font-semibold">{m.name}</span>: {m.source}

@@ -22,6 +22,7 @@ export type LiveLabels = Record<
   | "coverage"
   | "nextTitle"
   | "nextIntro"
+  | "nextAccess"
   | "zoneLine"
   | "unsampled"
   | "loading"
@@ -47,10 +48,24 @@ const fill = (s: string, v: Record<string, string | number>) =>
   s.replace(/\{(\w+)\}/g, (_, k: string) => String(v[k] ?? ""));
 
 /** The live board: refreshed every 15 s while the page is open (SWR polling). */
-export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels: LiveLabels; locale: string }) {
+export function LiveBoard({
+  eventId,
+  labels,
+  locale,
+  timeZone,
+}: {
+  eventId: string;
+  labels: LiveLabels;
+  locale: string;
+  timeZone: string;
+}) {
   const { data, error } = useSWR<Live>(`/api/events/${eventId}/live`, fetcher, { refreshInterval: 15_000 });
   const pct = (v: number) => new Intl.NumberFormat(locale, { style: "percent", maximumFractionDigits: 1 }).format(v);
   const num = (v: number) => new Intl.NumberFormat(locale, { maximumFractionDigits: 1 }).format(v);
+  const hourOf = (iso: string) =>
+    new Intl.DateTimeFormat(locale, { month: "short", day: "numeric", hour: "numeric", timeZone }).format(
+      new Date(iso),
+    );
   if (error) return <p role="alert">{labels.failed}</p>;
   if (!data) return <p role="status">{labels.loading}</p>;
   const c = data.completeness;
@@ -62,19 +77,21 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
   return (
     <div className="space-y-6" data-testid="live-board">
       <p className="text-sm text-ink-soft" role="status">
-        {fill(labels.updated, { time: new Date(data.at).toLocaleTimeString(locale) })}
+        {fill(labels.updated, {
+          time: new Intl.DateTimeFormat(locale, { timeStyle: "medium", timeZone }).format(new Date(data.at)),
+        })}
       </p>
       <div className="grid gap-4 md:grid-cols-3">
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.volunteers}>
           <h2 className="font-bold">{labels.volunteers}</h2>
           <p>
-            {labels.lastHour}: <b>{data.activeVolunteers.lastHour}</b>
+            {labels.lastHour}: <b>{num(data.activeVolunteers.lastHour)}</b>
           </p>
           <p>
-            {labels.today}: <b>{data.activeVolunteers.today}</b>
+            {labels.today}: <b>{num(data.activeVolunteers.today)}</b>
           </p>
           <p>
-            {labels.total}: <b>{data.activeVolunteers.total}</b>
+            {labels.total}: <b>{num(data.activeVolunteers.total)}</b>
           </p>
         </section>
         <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.backlog}>
@@ -82,7 +99,7 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
           <ul className="space-y-1">
             {(["pending", "returned", "approved", "rejected"] as const).map((s) => (
               <li key={s}>
-                <ReviewStateMark state={s} />: <b>{data.backlog[s]}</b>
+                <ReviewStateMark state={s} />: <b>{num(data.backlog[s])}</b>
               </li>
             ))}
           </ul>
@@ -118,14 +135,12 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
       </div>
       <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.perHour}>
         <h2 className="font-bold">{labels.perHour}</h2>
-        <div className="h-56 w-full">
+        <div className="h-56 w-full" dir="ltr">
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart
-              data={data.perHour.map((h) => ({ hour: h.hour.slice(5, 13).replace("T", " "), sightings: h.sightings }))}
-            >
+            <BarChart data={data.perHour.map((h) => ({ hour: hourOf(h.hour), sightings: h.sightings }))}>
               <CartesianGrid stroke="#d5e8dc" />
-              <XAxis dataKey="hour" />
-              <YAxis allowDecimals={false} />
+              <XAxis dataKey="hour" tick={{ fill: "#2b3a31" }} />
+              <YAxis allowDecimals={false} tick={{ fill: "#2b3a31" }} />
               <Tooltip />
               <Bar dataKey="sightings" name={labels.sightings} fill="#225c41" isAnimationActive={false} />
             </BarChart>
@@ -137,7 +152,11 @@ export function LiveBoard({ eventId, labels, locale }: { eventId: string; labels
           {labels.nextTitle}
         </h2>
         <p>{labels.nextIntro}</p>
-        <ol className="list-decimal space-y-1 pl-5" data-testid="where-next">
+        <p role="note" className="rounded-lg border-2 border-heath-600 bg-heath-50 p-2 text-heath-900">
+          <span aria-hidden="true">⚠ </span>
+          {labels.nextAccess}
+        </p>
+        <ol className="list-decimal space-y-1 ps-5" data-testid="where-next">
           {c.zones.map((z) => (
             <li key={z.id}>
               <b>{z.name}</b>:{" "}

@@ -42,7 +42,7 @@ export function DetailPane({ detail, timeZone, eventId, onUndo, busy }: Props) {
       <header className="space-y-1">
         <h2 id="detail-title" className="text-xl font-bold text-reed-900">
           {s.commonName ?? s.scientificName ?? tQueue("unidentified")}
-          {s.scientificName ? <i className="ml-2 font-normal text-ink-soft">{s.scientificName}</i> : null}
+          {s.scientificName ? <i className="ms-2 font-normal text-ink-soft">{s.scientificName}</i> : null}
         </h2>
         <div className="flex flex-wrap items-center gap-2">
           <ReviewStateMark state={s.reviewState} />

@@ -393,7 +393,7 @@ export function ReviewDesk(props: Props) {
           </h2>
           <div className="max-h-[70vh] overflow-auto rounded-lg border border-reed-200 bg-white/70">
             <table className="w-full border-collapse text-sm" aria-label={t("queue.title")}>
-              <thead className="sticky top-0 bg-paper-deep text-left">
+              <thead className="sticky top-0 bg-paper-deep text-start">
                 <tr>
                   <th scope="col" className="p-2">
                     {t("queue.observed")}
@@ -434,7 +434,7 @@ export function ReviewDesk(props: Props) {
                     <td className="whitespace-nowrap p-2">
                       <button
                         type="button"
-                        className="text-left underline-offset-2 hover:underline"
+                        className="text-start underline-offset-2 hover:underline"
                         onClick={(e) => {
                           e.stopPropagation();
                           setSelected(i);
@@ -554,7 +554,7 @@ export function ReviewDesk(props: Props) {
           <ul className="mt-1 grid gap-x-6 gap-y-1 sm:grid-cols-3">
             {keyList.map(([k, label]) => (
               <li key={k}>
-                <kbd className="mr-2 inline-block min-w-6 rounded border border-reed-700 bg-white px-1 text-center font-mono">
+                <kbd className="me-2 inline-block min-w-6 rounded border border-reed-700 bg-white px-1 text-center font-mono">
                   {k}
                 </kbd>
                 {label}

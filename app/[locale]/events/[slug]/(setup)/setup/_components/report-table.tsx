@@ -10,15 +10,15 @@ export function ReportTable({ report, kind }: { report: ReportLine[]; kind: "geo
     <div role="alert" className="space-y-2 rounded-lg border-2 border-signal bg-signal-soft p-3">
       <p className="font-bold">✕ {t("title", { count: report.length })}</p>
       <p>{t("nothingSaved")}</p>
-      <table className="w-full text-left text-sm">
+      <table className="w-full text-start text-sm">
         <caption className="sr-only">{t("caption")}</caption>
         <thead>
           <tr className="border-b border-signal/40">
-            <th scope="col" className="py-1 pr-3">
+            <th scope="col" className="py-1 pe-3">
               {kind === "csv" ? t("line") : t("feature")}
             </th>
             {kind === "geojson" ? (
-              <th scope="col" className="py-1 pr-3">
+              <th scope="col" className="py-1 pe-3">
                 {t("zone")}
               </th>
             ) : null}
@@ -30,10 +30,10 @@ export function ReportTable({ report, kind }: { report: ReportLine[]; kind: "geo
         <tbody>
           {report.map((r, i) => (
             <tr key={i} className="border-b border-signal/20 align-top">
-              <td className="py-1 pr-3 tabular-nums">
+              <td className="py-1 pe-3 tabular-nums">
                 {kind === "csv" ? r.line : r.feature === null ? t("wholeFile") : r.feature + 1}
               </td>
-              {kind === "geojson" ? <td className="py-1 pr-3">{r.name ?? ""}</td> : null}
+              {kind === "geojson" ? <td className="py-1 pe-3">{r.name ?? ""}</td> : null}
               <td className="py-1">{r.message}</td>
             </tr>
           ))}

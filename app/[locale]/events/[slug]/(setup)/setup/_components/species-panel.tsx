@@ -36,7 +36,7 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
         body={(csv, save) => ({ csv, save })}
         onSaved={() => void mutate()}
         format={
-          <ul className="ml-5 list-disc space-y-1 pt-2">
+          <ul className="ms-5 list-disc space-y-1 pt-2">
             <li>{t("formatColumns")}</li>
             <li>{t("formatGroups", { list: TAXON_GROUPS.join(", ") })}</li>
             <li>{t("formatRanks", { list: TAXON_RANKS.join(", ") })}</li>
@@ -44,13 +44,13 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
           </ul>
         }
         note={
-          <p className="max-w-prose rounded-lg border-l-4 border-heath-500 bg-heath-50 p-3 text-sm">
+          <p className="max-w-prose rounded-lg border-s-4 border-heath-500 bg-heath-50 p-3 text-sm">
             {t("sharedNote")}
           </p>
         }
         checkedNote={(answer) =>
           answer.notices.length ? (
-            <ul className="ml-5 list-disc text-sm">
+            <ul className="ms-5 list-disc text-sm">
               {answer.notices.map((n, i) => (
                 <li key={i}>{t("noticeLine", { line: n.line, message: n.message })}</li>
               ))}
@@ -68,7 +68,7 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
         ) : data.species.length === 0 ? (
           <p>{t("none")}</p>
         ) : (
-          <table className="w-full text-left text-sm">
+          <table className="w-full text-start text-sm">
             <caption className="sr-only">{t("currentCaption")}</caption>
             <thead>
               <tr className="border-b border-reed-300">

@@ -68,7 +68,7 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
           void mutate();
         }}
         format={
-          <ul className="ml-5 list-disc space-y-1 pt-2">
+          <ul className="ms-5 list-disc space-y-1 pt-2">
             <li>{t("formatArea")}</li>
             <li>{t("formatZones")}</li>
             <li>{t("formatHabitats", { list: HABITATS.join(", ") })}</li>
@@ -104,16 +104,16 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
               zones={data.zones.map((z) => ({ name: z.name, habitat: z.habitat, geometry: z.geometry }))}
               title={t("previewCurrent")}
             />
-            <table className="w-full max-w-2xl text-left">
+            <table className="w-full max-w-2xl text-start">
               <caption className="sr-only">{t("currentTitle")}</caption>
               <thead>
                 <tr className="border-b border-reed-300">
                   <th scope="col">{t("colName")}</th>
                   <th scope="col">{t("colHabitat")}</th>
-                  <th scope="col" className="text-right">
+                  <th scope="col" className="text-end">
                     {t("colArea")}
                   </th>
-                  <th scope="col" className="text-right">
+                  <th scope="col" className="text-end">
                     {t("colRecords")}
                   </th>
                 </tr>
@@ -125,8 +125,8 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
                       {z.name}
                     </th>
                     <td>{tHabitat(z.habitat as never)}</td>
-                    <td className="text-right tabular-nums">{z.areaHa}</td>
-                    <td className="text-right tabular-nums">{z.records}</td>
+                    <td className="text-end tabular-nums">{z.areaHa}</td>
+                    <td className="text-end tabular-nums">{z.records}</td>
                   </tr>
                 ))}
               </tbody>
