@@ -6,6 +6,8 @@ import { requirePageEventRole } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
 import { CHECK_MARKS, REJECT_REASONS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/domain";
 import { ReviewDesk } from "./_components/review-desk";
+import { MapSettingsProvider } from "@/components/map/map-settings";
+import { mapSettings } from "@/server/map-settings";
 
 export const dynamic = "force-dynamic";
 
@@ -49,16 +51,18 @@ export default async function ReviewDeskPage({ params }: Props) {
           {t("timeNote", { zone: event.timeZone })}
         </p>
       </header>
-      <ReviewDesk
-        eventId={event.id}
-        timeZone={event.timeZone}
-        zones={choices.zones}
-        volunteers={choices.volunteers}
-        groups={groups}
-        marks={[...CHECK_MARKS]}
-        states={[...REVIEW_STATES]}
-        reasons={[...REJECT_REASONS]}
-      />
+      <MapSettingsProvider settings={mapSettings()}>
+        <ReviewDesk
+          eventId={event.id}
+          timeZone={event.timeZone}
+          zones={choices.zones}
+          volunteers={choices.volunteers}
+          groups={groups}
+          marks={[...CHECK_MARKS]}
+          states={[...REVIEW_STATES]}
+          reasons={[...REJECT_REASONS]}
+        />
+      </MapSettingsProvider>
     </div>
   );
 }
