@@ -23,8 +23,10 @@ export function createBaseMap(
     attribution: texts.attribution,
   }).addTo(map);
   if (onTiles) {
-    tiles.on("tileload", () => onTiles(true));
-    tiles.on("tileerror", () => onTiles(false));
+    // Once the visible tiles are done (loaded or failed): were there any at all?
+    let loaded = 0;
+    tiles.on("tileload", () => loaded++);
+    tiles.on("load", () => onTiles(loaded > 0));
   }
   return { map, tiles };
 }

@@ -33,19 +33,11 @@ export default function LeafletMap(props: Props) {
 
   useEffect(() => {
     if (!box.current) return;
-    let loads = 0;
-    let errors = 0;
     const { map } = createBaseMap(
       box.current,
       tileUrl,
       { zoomIn, zoomOut, attribution: attribution || demoAttribution },
-      (ok) => {
-        // Tiles are there once one loads; none are when several fail before any loads.
-        if (ok) loads++;
-        else errors++;
-        if (ok && loads === 1) tilesRef.current?.(true);
-        else if (!ok && loads === 0 && errors === 2) tilesRef.current?.(false);
-      },
+      (ok) => tilesRef.current?.(ok),
     );
     map.on("click", (e: L.LeafletMouseEvent) => {
       const place = placeRef.current;

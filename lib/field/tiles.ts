@@ -20,8 +20,8 @@ export type TileStore = { total: number; kept: number; bytes: number };
 export function offlineTileUrls(template: string, shapes: ArealGeometry[]): string[] {
   const box = bboxOfPositions(shapes.flatMap((g) => polygonsOf(g).flat(2)));
   if (!box) return [];
-  // A quarter of the area again on each side: the screen around the area's edge.
-  const grown: Bbox = padBbox(box, 0.25);
+  // Half the area again on each side: the screen around the area's edge.
+  const grown: Bbox = padBbox(box, 0.5);
   return tilesForBbox(grown, OFFLINE_MIN_ZOOM, OFFLINE_MAX_ZOOM).map((t) => tileUrl(template, t));
 }
 
