@@ -1,5 +1,5 @@
 import "server-only";
-import type { MapSettings } from "@/components/map/map-settings";
+import type { MapSettings } from "@/lib/geo/tiles";
 import { env } from "@/lib/env";
 
 /** The base map's settings for a page that shows a map (read at request time). */

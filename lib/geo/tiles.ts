@@ -9,6 +9,9 @@ export const OFFLINE_MIN_ZOOM = 13;
 export const OFFLINE_MAX_ZOOM = 17;
 const MAX_LAT = 85.0511287798; // the latitude where the Mercator square ends (from memory)
 
+/** The base map's settings a page hands to its maps (lib/env.ts MAP_TILE_URL, MAP_TILE_ATTRIBUTION). */
+export type MapSettings = { tileUrl: string; attribution: string };
+
 export type Tile = { z: number; x: number; y: number };
 /** [west, south, east, north] in degrees. */
 export type Bbox = [number, number, number, number];

@@ -53,8 +53,8 @@ export function FieldMap({ pack, sightings, here, online }: Props) {
   }));
   const size = (bytes: number) =>
     bytes < 1_000_000
-      ? t("kilobytes", { n: format.number(Math.max(1, Math.round(bytes / 1000))) })
-      : t("megabytes", { n: format.number(Math.round(bytes / 100_000) / 10) });
+      ? format.number(Math.max(1, Math.round(bytes / 1000)), { style: "unit", unit: "kilobyte" })
+      : format.number(Math.round(bytes / 100_000) / 10, { style: "unit", unit: "megabyte" });
 
   return (
     <section aria-labelledby="field-map-title" className="space-y-2">
