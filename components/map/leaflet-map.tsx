@@ -65,6 +65,8 @@ export default function LeafletMap(props: Props) {
     const map = mapRef.current;
     const layer = layerRef.current;
     if (!map || !layer) return;
+    // Permanent tooltips (zone names) live on the map itself: unbind them with their layers.
+    layer.eachLayer((l) => void l.unbindTooltip());
     layer.clearLayers();
     const bounds = L.latLngBounds([]);
     if (area) {

@@ -64,6 +64,7 @@ export default function ZoneEditorMap({ tileUrl, attribution, label, context, co
     const map = mapRef.current;
     const layer = contextLayer.current;
     if (!map || !layer) return;
+    layer.eachLayer((l) => void l.unbindTooltip());
     layer.clearLayers();
     const bounds = L.latLngBounds([]);
     context.forEach((c, i) => {

@@ -157,3 +157,14 @@ test("an organiser draws the area and a zone on the setup map, moves a corner, a
   );
   expect(stored).toEqual([{ habitat: "wetland", points: 5, inside: true }]);
 });
+
+test("the public event page shows the area and zones on the base map, in the visitor's language", async ({ page }) => {
+  await page.goto("/fr/events/harrowmere-vale-midsummer-count");
+  const map = page.getByRole("region", { name: "Carte de la zone d'étude et des zones de l'événement" });
+  await expect(map).toBeVisible({ timeout: 20_000 });
+  for (const zone of ["Harrowmere Meadow", "Alder Fringe", "Beechwood Heart", "Millpond Margin"])
+    await expect(map.getByText(zone)).toBeVisible();
+  await expect(map.getByRole("button", { name: "Zoom avant" })).toBeVisible();
+  await expect(map.locator("img.leaflet-tile-loaded").first()).toBeVisible();
+  await expect(map.getByText("Fond de carte : le paysage inventé de la démonstration")).toBeVisible();
+});

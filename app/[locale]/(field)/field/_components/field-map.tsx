@@ -45,12 +45,20 @@ export function FieldMap({ pack, sightings, here, online }: Props) {
     };
   }, [urls, online]);
 
-  const markers: MapMarker[] = sightings.map((s) => ({
-    id: s.id,
-    label: s.taxonLabel,
-    latitude: s.record.latitude,
-    longitude: s.record.longitude,
-  }));
+  const markers: MapMarker[] = useMemo(
+    () =>
+      sightings.map((s) => ({
+        id: s.id,
+        label: s.taxonLabel,
+        latitude: s.record.latitude,
+        longitude: s.record.longitude,
+      })),
+    [sightings],
+  );
+  const zoneList = useMemo(
+    () => zones.features.map((f) => ({ id: f.id, name: f.properties.name, geometry: f.geometry })),
+    [zones],
+  );
   const size = (bytes: number) =>
     bytes < 1_000_000
       ? format.number(Math.max(1, Math.round(bytes / 1000)), { style: "unit", unit: "kilobyte" })
@@ -64,7 +72,7 @@ export function FieldMap({ pack, sightings, here, online }: Props) {
       <RealMap
         label={t("fieldLabel")}
         area={area}
-        zones={zones.features.map((f) => ({ id: f.id, name: f.properties.name, geometry: f.geometry }))}
+        zones={zoneList}
         here={here}
         markers={markers}
         className="h-72 w-full rounded-lg border-2 border-reed-700"
