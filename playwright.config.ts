@@ -10,6 +10,9 @@ export const baseURL = `http://127.0.0.1:${PORT}`;
 // The photo store: the S3 fake (s3rver) on loopback, emptied for each run.
 export const S3_PORT = Number(process.env.TEST_S3_PORT ?? 9100);
 const S3_ENDPOINT = `http://127.0.0.1:${S3_PORT}`;
+// The base map: the tile fake (scripts/tile-fake.mts) on loopback.
+export const TILES_PORT = Number(process.env.TEST_TILES_PORT ?? 9300);
+export const MAP_TILE_URL = `http://127.0.0.1:${TILES_PORT}/tiles/{z}/{x}/{y}.png`;
 const S3_DIR = `.data/s3-e2e${process.env.ECOTONE_TEST_SUFFIX ?? ""}`;
 
 export default defineConfig({
@@ -45,6 +48,13 @@ export default defineConfig({
       env: { S3_FAKE_PORT: String(S3_PORT), S3_FAKE_DIR: S3_DIR, S3_BUCKET: "ecotone-photos-e2e", APP_URL: baseURL },
     },
     {
+      command: "exec node_modules/.bin/tsx scripts/tile-fake.mts",
+      url: `http://127.0.0.1:${TILES_PORT}/`,
+      reuseExistingServer: false,
+      timeout: 60_000,
+      env: { TILE_FAKE_PORT: String(TILES_PORT) },
+    },
+    {
       // The mail worker runs beside the server (as scripts/start.sh runs it), in the same
       // process group, so Playwright stops both; its digest window is seconds here, not an hour.
       command:
@@ -68,6 +78,7 @@ export default defineConfig({
         S3_ENDPOINT,
         S3_BUCKET: "ecotone-photos-e2e",
         CSP_EXTRA_ORIGINS: S3_ENDPOINT,
+        MAP_TILE_URL,
       },
     },
   ],

@@ -2,7 +2,7 @@ import createMiddleware from "next-intl/middleware";
 import { NextRequest } from "next/server";
 import { env } from "./lib/env";
 import { routing } from "./lib/i18n/routing";
-import { contentSecurityPolicy, makeNonce } from "./lib/security/csp";
+import { contentSecurityPolicy, extraOriginsOf, makeNonce } from "./lib/security/csp";
 
 const handleI18nRouting = createMiddleware(routing);
 
@@ -15,7 +15,7 @@ export default function proxy(request: NextRequest) {
     nonce,
     dev: e.NODE_ENV === "development",
     https: e.APP_URL.startsWith("https://"),
-    extraOrigins: e.CSP_EXTRA_ORIGINS,
+    extraOrigins: extraOriginsOf(e),
   });
   const headers = new Headers(request.headers);
   headers.set("content-security-policy", csp);

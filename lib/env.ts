@@ -60,6 +60,17 @@ const schema = z.object({
     .string()
     .default("")
     .transform((v) => v.split(/[\s,]+/).filter(Boolean)),
+  // The base map's raster tiles, a template with {z}, {x} and {y} (Web Mercator, 256 px). The
+  // default is the local tile fake that npm start and the tests run (scripts/tile-fake.mts);
+  // its origin is added to the Content-Security-Policy. MAP_TILE_ATTRIBUTION credits a real
+  // tile source (shown as given); empty for the demo, whose landscape is invented.
+  MAP_TILE_URL: z
+    .string()
+    .default("http://127.0.0.1:9200/tiles/{z}/{x}/{y}.png")
+    .refine((v) => /^https?:\/\//.test(v) && ["{z}", "{x}", "{y}"].every((p) => v.includes(p)), {
+      message: "must be an http(s) address with {z}, {x} and {y}",
+    }),
+  MAP_TILE_ATTRIBUTION: z.string().default(""),
   // Origins besides our own that pages may load images from and send data to (the photo store).
   CSP_EXTRA_ORIGINS: z
     .string()

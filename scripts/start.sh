@@ -57,6 +57,18 @@ if [ -z "${S3_ENDPOINT:-}" ]; then
   fi
   export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT"
 fi
+# The base map: the tile fake draws PNG tiles of the demo's invented landscape on loopback
+# (TILE_FAKE_PORT, default 9200). Set MAP_TILE_URL to a real tile server instead (lib/env.ts).
+if [ -z "${MAP_TILE_URL:-}" ]; then
+  TILE_FAKE_PORT="${TILE_FAKE_PORT:-9200}"
+  if ! (exec 3<>/dev/tcp/127.0.0.1/"$TILE_FAKE_PORT") 2>/dev/null; then
+    TILE_FAKE_PORT="$TILE_FAKE_PORT" setsid node_modules/.bin/tsx scripts/tile-fake.mts >"$ROOT/.data/tile-fake.log" 2>&1 < /dev/null &
+    echo $! >"$ROOT/.data/tile-fake.pid"
+    for _ in $(seq 1 150); do (exec 3<>/dev/tcp/127.0.0.1/"$TILE_FAKE_PORT") 2>/dev/null && break; sleep 0.2; done
+    (exec 3<>/dev/tcp/127.0.0.1/"$TILE_FAKE_PORT") 2>/dev/null || die "The tile fake did not start on port $TILE_FAKE_PORT (see .data/tile-fake.log)"
+  fi
+  export MAP_TILE_URL="http://127.0.0.1:$TILE_FAKE_PORT/tiles/{z}/{x}/{y}.png"
+fi
 # Pages may send photos to, and show photos from, the photo store (Content-Security-Policy).
 export CSP_EXTRA_ORIGINS="${CSP_EXTRA_ORIGINS:-$(node -e 'console.log(new URL(process.argv[1]).origin)' "${S3_PUBLIC_ENDPOINT:-$S3_ENDPOINT}")}"
 

@@ -5,10 +5,10 @@
 import { clientsClaim } from "workbox-core";
 import { cleanupOutdatedCaches, precacheAndRoute, type PrecacheEntry } from "workbox-precaching";
 import { registerRoute } from "workbox-routing";
-import { NetworkFirst } from "workbox-strategies";
+import { CacheFirst, NetworkFirst } from "workbox-strategies";
 import { openFieldDb } from "./db";
 import { eventsWithPending } from "./outbox";
-import { LAST_LOCALE_KEY, PAGE_CACHE, SYNC_TAG } from "./sw-constants";
+import { LAST_LOCALE_KEY, PAGE_CACHE, SYNC_TAG, TILE_CACHE, TILE_PATH } from "./sw-constants";
 import { syncEvent } from "./sync";
 
 declare const self: ServiceWorkerGlobalScope & { __WB_MANIFEST: (PrecacheEntry | string)[] };
@@ -56,6 +56,15 @@ registerRoute(
       return Response.error();
     }
   },
+);
+
+// The base map's tiles (any tile server, MAP_TILE_URL): from the cache first, which the field
+// log fills with the event area's tiles (lib/field/tiles.ts); a tile not kept comes from the
+// network and is kept too (only good, CORS-readable answers: CacheFirst keeps status 200).
+registerRoute(
+  ({ request, url }) =>
+    request.destination === "image" && url.origin !== self.location.origin && TILE_PATH.test(url.pathname),
+  new CacheFirst({ cacheName: TILE_CACHE }),
 );
 
 // Registered after the page route, so the page route wins for the field log pages.

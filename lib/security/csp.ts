@@ -32,3 +32,9 @@ export function makeNonce(): string {
   crypto.getRandomValues(bytes);
   return btoa(String.fromCharCode(...bytes));
 }
+
+/** The origins a page needs besides its own: CSP_EXTRA_ORIGINS and the base map's tile server. */
+export function extraOriginsOf(e: { CSP_EXTRA_ORIGINS: string[]; MAP_TILE_URL: string }): string[] {
+  const tiles = new URL(e.MAP_TILE_URL.replace(/[{}]/g, "")).origin;
+  return [...new Set([...e.CSP_EXTRA_ORIGINS, tiles])];
+}

@@ -35,3 +35,24 @@ describe("production settings", () => {
     expect(loadEnv({ NODE_ENV: "production", NEXT_PHASE: "phase-production-build" }).NODE_ENV).toBe("production");
   });
 });
+
+describe("the base map's tile address", () => {
+  it("defaults to the tile fake on loopback and puts its origin in the page's CSP", async () => {
+    const { loadEnv } = await import("@/lib/env");
+    const { contentSecurityPolicy, extraOriginsOf } = await import("@/lib/security/csp");
+    const e = loadEnv({ CSP_EXTRA_ORIGINS: "http://127.0.0.1:9000" });
+    expect(e.MAP_TILE_URL).toBe("http://127.0.0.1:9200/tiles/{z}/{x}/{y}.png");
+    expect(extraOriginsOf(e)).toEqual(["http://127.0.0.1:9000", "http://127.0.0.1:9200"]);
+    const csp = contentSecurityPolicy({ nonce: "n", dev: false, https: false, extraOrigins: extraOriginsOf(e) });
+    expect(csp).toContain("img-src 'self' blob: data: http://127.0.0.1:9000 http://127.0.0.1:9200");
+    expect(csp).toContain("connect-src 'self' http://127.0.0.1:9000 http://127.0.0.1:9200");
+  });
+
+  it("takes a deployment's tile server and refuses an address without {z}, {x} and {y}", async () => {
+    const { loadEnv } = await import("@/lib/env");
+    const { extraOriginsOf } = await import("@/lib/security/csp");
+    const e = loadEnv({ MAP_TILE_URL: "https://tiles.example.org/base/{z}/{x}/{y}.png" });
+    expect(extraOriginsOf(e)).toEqual(["https://tiles.example.org"]);
+    expect(() => loadEnv({ MAP_TILE_URL: "https://tiles.example.org/base.png" })).toThrow(/MAP_TILE_URL/);
+  });
+});

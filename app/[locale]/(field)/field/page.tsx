@@ -5,6 +5,8 @@ import { SafetyNotice } from "@/components/safety-notice";
 import { requirePageUser } from "@/server/auth/page";
 import type { Locale } from "@/lib/i18n/routing";
 import { FieldApp } from "./_components/field-app";
+import { MapSettingsProvider } from "@/components/map/map-settings";
+import { mapSettings } from "@/server/map-settings";
 
 export const dynamic = "force-dynamic";
 
@@ -27,7 +29,9 @@ export default async function FieldLogPage({ params }: Props) {
   return (
     <div className="mx-auto max-w-xl space-y-6 pb-28">
       <h1 className="text-2xl font-bold text-reed-900">{t("title")}</h1>
-      <FieldApp locale={locale} events={events} />
+      <MapSettingsProvider settings={mapSettings()}>
+        <FieldApp locale={locale} events={events} />
+      </MapSettingsProvider>
       <div id="safety">
         <SafetyNotice />
       </div>

@@ -3,7 +3,7 @@ import { safeCallbackPath } from "@/lib/auth/callback-url";
 import { env } from "@/lib/env";
 import { ApiError, assertSameOrigin } from "@/lib/http/errors";
 import { toLocale } from "@/lib/i18n/translator";
-import { contentSecurityPolicy, makeNonce } from "@/lib/security/csp";
+import { contentSecurityPolicy, extraOriginsOf, makeNonce } from "@/lib/security/csp";
 import { confirmLink } from "@/server/auth/magic-link";
 import { authOptions } from "@/server/auth/options";
 import { clientIp, recordSignInAttempt, signInAllowed } from "@/server/auth/sign-in-limit";
@@ -80,7 +80,7 @@ function withOurHeaders(response: Response): Response {
       nonce: makeNonce(),
       dev: e.NODE_ENV === "development",
       https: e.APP_URL.startsWith("https://"),
-      extraOrigins: e.CSP_EXTRA_ORIGINS,
+      extraOrigins: extraOriginsOf(e),
     }),
   );
   return new Response(response.body, { status: response.status, statusText: response.statusText, headers });

@@ -9,6 +9,7 @@ import { buildSpeciesIndex } from "@/lib/field/search";
 import type { KnownEvent, LocalSighting } from "@/lib/field/types";
 import { DeviceStateMark, ReviewStateMark } from "@/components/state-mark";
 import type { SyncStatus } from "./field-app";
+import { FieldMap } from "./field-map";
 import { SessionPanel } from "./session-panel";
 import { SightingForm } from "./sighting-form";
 import { useFieldData } from "./use-field-data";
@@ -252,6 +253,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
           </ul>
         )}
       </section>
+
+      {data.pack ? <FieldMap pack={data.pack} sightings={data.sightings} here={position.fix} online={online} /> : null}
 
       <div className="fixed inset-x-0 bottom-0 z-20 border-t-2 border-reed-800 bg-paper/95 p-3">
         <div className="mx-auto flex max-w-xl">

@@ -9,8 +9,8 @@ import { preparePhoto, type PreparedPhoto } from "@/lib/field/photo";
 import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/lib/field/search";
 import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
 import { zoneAt } from "@/lib/field/zones";
-import { ZoneMap } from "@/components/zone-map";
 import { utcToZonedLocal, zonedLocalToUtc } from "@/lib/time/zoned";
+import { RealMap } from "@/components/map/real-map";
 import type { PositionState } from "./use-position";
 
 type Props = {
@@ -383,12 +383,15 @@ export function SightingForm({
         </div>
         {showMap && zones ? (
           <figure className="space-y-1">
-            <ZoneMap
+            <RealMap
               zones={zones.features.map((f) => ({ id: f.id, name: f.properties.name, geometry: f.geometry }))}
-              point={where ? { latitude: where.latitude, longitude: where.longitude } : null}
+              point={
+                where ? { latitude: where.latitude, longitude: where.longitude, accuracyM: where.accuracyM } : null
+              }
+              here={fix && place ? fix : null}
               label={t("mapLabel")}
               onPlace={(p) => setPlace({ ...p, manual: true })}
-              className="w-full touch-none rounded-lg border-2 border-reed-700 bg-white"
+              className="h-80 w-full touch-none rounded-lg border-2 border-reed-700"
             />
             <figcaption className="text-sm text-ink-soft">{t("mapHint")}</figcaption>
           </figure>

@@ -6,6 +6,11 @@ import { EventStatusBadge } from "@/components/event-status-badge";
 import { SafetyNotice } from "@/components/safety-notice";
 import type { Locale } from "@/lib/i18n/routing";
 import { reviewClosesAt } from "@/lib/time/review-period";
+import { areaAndZones } from "@/db/queries/setup-zones";
+import { MapSettingsProvider } from "@/components/map/map-settings";
+import { RealMap } from "@/components/map/real-map";
+import type { ArealGeometry } from "@/lib/geo/areal";
+import { mapSettings } from "@/server/map-settings";
 
 export const dynamic = "force-dynamic";
 
@@ -22,14 +27,16 @@ export default async function EventPage({ params }: Props) {
   setRequestLocale(locale);
   const event = await getPublicEventBySlug(slug);
   if (!event) notFound();
-  const [t, tHabitat, tGroup, tHome, format, zoneRows, species] = await Promise.all([
+  const [t, tHabitat, tGroup, tHome, tMap, format, zoneRows, species, shapes] = await Promise.all([
     getTranslations("Event"),
     getTranslations("Habitat"),
     getTranslations("TaxonGroup"),
     getTranslations("Home"),
+    getTranslations("Map"),
     getFormatter(),
     listZones(event.id),
     speciesListSummary(event.id),
+    areaAndZones(event.id),
   ]);
   const when = (d: Date) => format.dateTime(d, { dateStyle: "full", timeStyle: "short", timeZone: event.timeZone });
 
@@ -64,6 +71,16 @@ export default async function EventPage({ params }: Props) {
           {t("zonesTitle")}
         </h2>
         <p className="max-w-prose text-ink-soft">{t("zonesIntro")}</p>
+        {shapes.area || shapes.zones.length ? (
+          <MapSettingsProvider settings={mapSettings()}>
+            <RealMap
+              label={tMap("eventLabel")}
+              area={shapes.area as ArealGeometry | null}
+              zones={shapes.zones.map((z) => ({ id: z.id, name: z.name, geometry: z.geometry as ArealGeometry }))}
+              className="h-80 w-full rounded-lg border border-reed-200"
+            />
+          </MapSettingsProvider>
+        ) : null}
         {zoneRows.length === 0 ? (
           <p>{t("noZones")}</p>
         ) : (

@@ -7,6 +7,8 @@ import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { CHECK_MARKS, REJECT_REASONS, REVIEW_STATES, TAXON_GROUPS } from "@/lib/domain";
 import { ReviewDesk } from "./_components/review-desk";
+import { MapSettingsProvider } from "@/components/map/map-settings";
+import { mapSettings } from "@/server/map-settings";
 
 export const dynamic = "force-dynamic";
 
@@ -55,16 +57,18 @@ export default async function ReviewDeskPage({ params }: Props) {
           </Link>
         </p>
       </header>
-      <ReviewDesk
-        eventId={event.id}
-        timeZone={event.timeZone}
-        zones={choices.zones}
-        volunteers={choices.volunteers}
-        groups={groups}
-        marks={[...CHECK_MARKS]}
-        states={[...REVIEW_STATES]}
-        reasons={[...REJECT_REASONS]}
-      />
+      <MapSettingsProvider settings={mapSettings()}>
+        <ReviewDesk
+          eventId={event.id}
+          timeZone={event.timeZone}
+          zones={choices.zones}
+          volunteers={choices.volunteers}
+          groups={groups}
+          marks={[...CHECK_MARKS]}
+          states={[...REVIEW_STATES]}
+          reasons={[...REJECT_REASONS]}
+        />
+      </MapSettingsProvider>
     </div>
   );
 }

@@ -2,7 +2,14 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
 import { eventLatitude, getPublicEventBySlug } from "@/db/queries/events";
-import { eventCredits, getReport, publicResultsOf } from "@/db/queries/reports";
+import { eventCredits, getReport, publicResultsOf, reportOccurrences } from "@/db/queries/reports";
+import { areaAndZones } from "@/db/queries/setup-zones";
+import { MapSettingsProvider } from "@/components/map/map-settings";
+import { RealMap } from "@/components/map/real-map";
+import type { ArealGeometry } from "@/lib/geo/areal";
+import { GRID_DEGREES, publicOccurrences } from "@/lib/results/exports";
+import { reportMapLayers } from "@/lib/results/report-map";
+import { mapSettings } from "@/server/map-settings";
 import { checkReport } from "@/server/results/check";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
@@ -45,19 +52,24 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const found = await load(slug, version);
   if (!found) notFound();
   const { event, report } = found;
-  const [t, format, credits, latitude, check, r] = await Promise.all([
+  const [t, tMap, format, credits, latitude, check, r, shapes, occurrences] = await Promise.all([
     getTranslations("Report"),
+    getTranslations("Map"),
     getFormatter(),
     eventCredits(event.id),
     eventLatitude(event.id),
     wantCheck ? checkReport(event.id, report.version) : Promise.resolve(null),
     // Sensitive taxa never by zone, restricted ones hidden if the organiser chose so (lib/results/public.ts).
     publicResultsOf(event.id, report.results),
+    areaAndZones(event.id),
+    reportOccurrences(report),
   ]);
   // The same estimate the results page and the live board show (lib/results/live.ts).
   const lead = blockLead(r.event);
   const q1 = r.event.abundance?.hill.q1 ?? null;
   const tResults = await getTranslations("Results");
+  // The map shows what the downloads publish: restricted records withheld, generalised ones as their cell.
+  const layers = reportMapLayers(publicOccurrences(report.results, occurrences, locale).rows);
   const n = (v: number, d = 1) => (Number.isFinite(v) ? format.number(v, { maximumFractionDigits: d }) : "–");
   const changes = report.changes as ReportChanges;
   const files = [
@@ -178,6 +190,27 @@ export default async function ReportPage({ params, searchParams }: Props) {
               })}
         </p>
       </aside>
+
+      <section aria-labelledby="report-map-title" className="space-y-2">
+        <h2 id="report-map-title" className="text-2xl font-bold text-reed-900">
+          {tMap("reportTitle")}
+        </h2>
+        <MapSettingsProvider settings={mapSettings()}>
+          <RealMap
+            label={tMap("reportLabel")}
+            area={shapes.area as ArealGeometry | null}
+            zones={shapes.zones.map((z) => ({ id: z.id, name: z.name, geometry: z.geometry as ArealGeometry }))}
+            markers={layers.points}
+            cells={layers.cells.map((c) => ({
+              id: c.id,
+              label: tMap("cellLabel", { names: c.names.join(", ") }),
+              geometry: c.geometry,
+            }))}
+            className="h-96 w-full rounded-lg border border-reed-200"
+          />
+        </MapSettingsProvider>
+        <p className="text-sm text-ink-soft">{tMap("reportLegend", { size: GRID_DEGREES })}</p>
+      </section>
 
       <section aria-labelledby="downloads-title" className="space-y-2">
         <h2 id="downloads-title" className="text-2xl font-bold text-reed-900">

@@ -4,8 +4,8 @@ import { useLocale, useTranslations } from "next-intl";
 import type { CheckMark, ReviewState } from "@/lib/domain";
 import { ReviewStateMark } from "@/components/state-mark";
 import { MarkChips } from "./mark-chips";
-import { ZoneMap } from "@/components/zone-map";
 import { regionalLocale } from "@/lib/time/regional";
+import { RealMap } from "@/components/map/real-map";
 import type { DetailResponse } from "./desk-api";
 
 type Props = {
@@ -114,12 +114,14 @@ export function DetailPane({ detail, timeZone, eventId, onUndo, busy }: Props) {
         ) : null}
       </dl>
       <figure className="space-y-1">
-        <ZoneMap
+        <RealMap
           area={detail.map.area}
           zones={detail.map.zones}
           point={{ longitude: s.lon, latitude: s.lat, accuracyM: s.accuracyM }}
           zoneId={s.zoneId}
+          focusPoint
           label={t("map")}
+          className="h-64 w-full rounded-lg border border-reed-200"
         />
         <figcaption className="text-xs text-ink-soft">{t("mapLegend")}</figcaption>
       </figure>

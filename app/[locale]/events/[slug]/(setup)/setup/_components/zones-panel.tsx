@@ -7,12 +7,21 @@ import { fetcher } from "@/lib/http/client";
 import type { ReportLine } from "@/server/setup/upload-report";
 import { PolygonPreview, type PreviewZone } from "./polygon-preview";
 import { UploadPanel, type UploadAnswer } from "./upload-panel";
+import { ZoneEditor } from "./zone-editor";
 import { HABITATS } from "@/lib/domain";
 
 type Geometry = { type: string; coordinates: unknown } | null;
 type Stored = {
   area: Geometry;
-  zones: { id: string; name: string; habitat: string; areaHa: number; records: number; geometry: Geometry }[];
+  zones: {
+    id: string;
+    name: string;
+    habitat: string;
+    description?: string | null;
+    areaHa: number;
+    records: number;
+    geometry: Geometry;
+  }[];
 };
 type Summary = { zones: number; added: number; updated: number; removed: number };
 type Moved = { sightings: number; sessions: number };
@@ -134,6 +143,8 @@ export function ZonesPanel({ eventId }: { eventId: string }) {
           </>
         )}
       </section>
+
+      {data ? <ZoneEditor url={url} area={data.area} zones={data.zones} onSaved={() => void mutate()} /> : null}
     </div>
   );
 }

@@ -2,6 +2,8 @@ import { setRequestLocale } from "next-intl/server";
 import type { Locale } from "@/lib/i18n/routing";
 import { setupPermit } from "../_components/setup-guard";
 import { ZonesPanel } from "../_components/zones-panel";
+import { MapSettingsProvider } from "@/components/map/map-settings";
+import { mapSettings } from "@/server/map-settings";
 
 export const dynamic = "force-dynamic";
 
@@ -11,5 +13,9 @@ export default async function ZonesPage({ params }: { params: Promise<{ locale: 
   const permit = await setupPermit(locale, slug, "/zones");
   if (!permit) return null; // the layout shows why
   const { eventId } = permit;
-  return <ZonesPanel eventId={eventId} />;
+  return (
+    <MapSettingsProvider settings={mapSettings()}>
+      <ZonesPanel eventId={eventId} />
+    </MapSettingsProvider>
+  );
 }
