@@ -212,10 +212,10 @@ describe("read-only API tokens", () => {
       message: expect.stringContaining('"Authorization: Bearer <token>"'),
     });
     expect((await sightings("", "eco_not-a-real-token-at-all-0000")).status).toBe(401);
-    // The token is checked before the address: no token is 401 even at a malformed event id.
+    // A malformed address is a 404 for everyone, token or not (the one path-parameter rule).
     expect(
       (await call(sightingsGet, "/api/v1/events/not-an-id/sightings", null, { eventId: "not-an-id" })).status,
-    ).toBe(401);
+    ).toBe(404);
     expect((await sightings("", secrets.event!, "not-an-id")).status).toBe(404);
     expect((await sightings("", secrets.revoked!)).status).toBe(200);
     expect(await revokeApiToken(ids.revoked!, f.user.id)).toBe("ok");

@@ -141,7 +141,7 @@ describe("a volunteer's own data", () => {
   });
 
   it("erasure removes e-mail, name and sign-in everywhere; the published report re-computes identically", async () => {
-    const v1 = await publishReport(f.event.id, coordinatorId);
+    const v1 = await publishReport(f.event.id, coordinatorId, { confirmPending: true });
     const before = (await getReport(f.event.id, v1.version, { withInputs: true }))!;
     const occBefore = await reportOccurrences(before);
     expect(occBefore.map((o) => o.recordedBy)).toEqual(["Heron Spotter", "Heron Spotter"]);
@@ -229,7 +229,7 @@ describe("a volunteer's own data", () => {
     ).rows;
     expect(mailed!.n).toBe(0);
     // A new version publishes the same numbers too.
-    const v2 = await publishReport(f.event.id, coordinatorId);
+    const v2 = await publishReport(f.event.id, coordinatorId, { confirmPending: true });
     expect((await getReport(f.event.id, v2.version))!.results.species).toEqual(before.results.species);
   });
 

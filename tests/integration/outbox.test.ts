@@ -19,10 +19,15 @@ describe("e-mail outbox", () => {
       { to, kind: "test", locale: "en", subject: "First", text: "one" },
       { to, kind: "test", locale: "en", subject: "Second", text: "two" },
     ]);
+    // Other test files leave mails of their own in the queue: drain (bounded) until these two were tried.
     const down = await drainOutbox();
     expect(down.sent).toBe(0);
-    expect(down.failed).toBeGreaterThanOrEqual(2);
-    const waiting = await db().select().from(emailOutbox).where(eq(emailOutbox.toAddress, to));
+    expect(down.failed).toBeGreaterThanOrEqual(1);
+    let waiting = await db().select().from(emailOutbox).where(eq(emailOutbox.toAddress, to));
+    for (let i = 0; i < 20 && waiting.some((m) => m.status === "queued"); i++) {
+      expect((await drainOutbox()).sent).toBe(0);
+      waiting = await db().select().from(emailOutbox).where(eq(emailOutbox.toAddress, to));
+    }
     expect(waiting.map((m) => m.status)).toEqual(["failed", "failed"]);
     expect(waiting[0]!.lastError).toMatch(/ECONNREFUSED|connect/i);
     expect(waiting[0]!.sendAfter.getTime()).toBeGreaterThan(Date.now()); // backed off
