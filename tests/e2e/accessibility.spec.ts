@@ -187,6 +187,8 @@ test("results and the public report", async ({ browser }) => {
   if ((await latest()) === 0) {
     await page.goto(`/en/events/${SLUG}/results`);
     await page.getByRole("button", { name: en.Results.reports.publish }).click();
+    // The demo holds pending records: publishing asks first.
+    await page.getByRole("alertdialog").getByRole("button", { name: "Publish with records pending" }).click();
     await expect(page.getByRole("status").filter({ hasText: /Version 1 published/ })).toBeVisible({ timeout: 30_000 });
   }
   const version = await latest();

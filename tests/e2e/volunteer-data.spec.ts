@@ -75,6 +75,11 @@ test("a volunteer downloads their data and deletes their account; the published 
   await signInWithPassword(org, DEMO.organiser);
   await org.goto(`/en/events/${SLUG}/results`);
   await org.getByRole("button", { name: "Publish a new version" }).click();
+  // The demo holds pending records: publishing asks first.
+  await org
+    .getByRole("alertdialog", { name: "Publish with records pending" })
+    .getByRole("button", { name: "Publish with records pending" })
+    .click();
   const version = await withE2eDb(async (db) => {
     await expect
       .poll(
