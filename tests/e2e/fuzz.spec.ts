@@ -1,12 +1,20 @@
 import fc from "fast-check";
 import { Client } from "pg";
-import { expect, test } from "@playwright/test";
+import { type Browser, type Page, expect, test } from "@playwright/test";
 import { demoIds, E2E_DB_URL as DB_URL } from "./demo-ids";
-import { ROUTES } from "./route-table";
+import { ROUTES, type RouteCase } from "./route-table";
 import { signInWithPassword } from "./support";
 
+// Routes only the site admin may call are sent by the site admin, every other by the organiser.
+async function callers(page: Page, browser: Browser): Promise<(route: RouteCase) => Page> {
+  await signInWithPassword(page, "organiser@example.org");
+  const admin = await (await browser.newContext()).newPage();
+  await signInWithPassword(admin, "admin@example.org");
+  return (route) => (route.allowed.includes("organiser") ? page : admin);
+}
+
 // Hostile and malformed bodies for every JSON handler in the route table, sent by the
-// most trusted demo person (the organiser) so that the guard lets them reach the
+// most trusted demo person allowed (the organiser; the site admin for the admin console) so that the guard lets them reach the
 // validation. Never a 5xx; always a structured 4xx naming the field; and when every
 // answer was a refusal, no table has a single row more or less.
 const TABLES = [
@@ -83,9 +91,13 @@ async function tableCounts(): Promise<Record<string, number>> {
   }
 }
 
-test("every JSON handler answers hostile input with a structured 4xx and writes nothing", async ({ page, baseURL }) => {
+test("every JSON handler answers hostile input with a structured 4xx and writes nothing", async ({
+  page,
+  browser,
+  baseURL,
+}) => {
   test.setTimeout(300_000);
-  await signInWithPassword(page, "organiser@example.org");
+  const caller = await callers(page, browser);
 
   const ids = await demoIds();
   const before = await tableCounts();
@@ -109,7 +121,7 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
       : hostileValue;
     const bodies = fc.sample(fc.oneof(mutated, hostileValue), { numRuns: 30, seed: 20261202 });
     for (const body of bodies) {
-      const res = await page.request.fetch(route.path(ids), {
+      const res = await caller(route).request.fetch(route.path(ids), {
         method: route.method,
         headers: { "content-type": "application/json", origin: baseURL! },
         data: JSON.stringify(body) ?? "null",
@@ -139,16 +151,23 @@ test("every JSON handler answers hostile input with a structured 4xx and writes 
     }
   }
   await admin.query("UPDATE users SET password_hash = $1 WHERE email = 'organiser@example.org'", [saved]);
+  // A fuzzed body can also suspend the demo organisation (a valid admin decision): lift it again.
+  await admin.query("UPDATE organisations SET suspended_at = NULL WHERE id = $1", [ids.organisationId]);
   await admin.end();
   expect(problems).toEqual([]);
   if (accepted === 0) expect(await tableCounts()).toEqual(before);
 });
 
+// The paths of rows that do not exist (a nil uuid, a mail number no mail has) in the route table.
+const ABSENT_UUID = /00000000-0000-[04]000-[08]000-000000000000/;
+const ABSENT_NUMBER = /\/999999999(?=\/|$)/;
+
 test("a malformed id in any path (36 dashes, loose hex) is a structured 404, never a 5xx", async ({
   page,
+  browser,
   baseURL,
 }) => {
-  await signInWithPassword(page, "organiser@example.org");
+  const caller = await callers(page, browser);
 
   const ids = await demoIds();
   const uuidKeys = (Object.keys(ids) as (keyof typeof ids)[]).filter((k) => /^[0-9a-f-]{36}$/i.test(ids[k]));
@@ -165,13 +184,15 @@ test("a malformed id in any path (36 dashes, loose hex) is a structured 404, nev
         const path = route.path({ ...ids, [k]: bad });
         if (path !== good) variants.add(path);
       }
-      if (good.includes("00000000-0000-0000-0000-000000000000"))
-        variants.add(good.replace("00000000-0000-0000-0000-000000000000", bad));
+      if (ABSENT_UUID.test(good)) variants.add(good.replace(ABSENT_UUID, bad));
     }
+    // A number where a serial id goes: not a number, negative, a fraction, beyond 2^53.
+    if (ABSENT_NUMBER.test(good))
+      for (const bad of ["abc", "-1", "1.5", "9".repeat(20)]) variants.add(good.replace(ABSENT_NUMBER, `/${bad}`));
     expect(variants.size, `${route.method} ${route.file} has an id in its path`).toBeGreaterThan(0);
     for (const path of variants) {
       tried++;
-      const res = await page.request.fetch(path, {
+      const res = await caller(route).request.fetch(path, {
         method: route.method,
         headers: { "content-type": "application/json", origin: baseURL! },
         data: route.body ? JSON.stringify(route.body(ids)) : undefined,
@@ -187,9 +208,10 @@ test("a malformed id in any path (36 dashes, loose hex) is a structured 404, nev
 
 test("deep nesting, wrong content types and impossible cursor offsets are 4xx answers, never a 5xx", async ({
   page,
+  browser,
   baseURL,
 }) => {
-  await signInWithPassword(page, "organiser@example.org");
+  const caller = await callers(page, browser);
   const ids = await demoIds();
   const before = await tableCounts();
   const problems: string[] = [];
@@ -206,7 +228,7 @@ test("deep nesting, wrong content types and impossible cursor offsets are 4xx an
       { label: "octet-stream", type: "application/octet-stream", data: good, expect: 415 },
     ];
     for (const shape of shapes) {
-      const res = await page.request.fetch(route.path(ids), {
+      const res = await caller(route).request.fetch(route.path(ids), {
         method: route.method,
         headers: { "content-type": shape.type, origin: baseURL! },
         data: shape.data,

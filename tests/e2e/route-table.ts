@@ -239,7 +239,7 @@ export const ROUTES: RouteCase[] = [
     method: "POST",
     path: (i) => `/api/events/${i.eventId}/review/sightings/${i.sightingId}/undo`,
     body: () => ({ reviewId: 1, version: 999_999 }),
-    allowed: ["coordinator", "organiser"],
+    allowed: ["coordinator", "organiser", "admin"],
     note: "a stale version: 409 for those allowed, so nothing is undone",
   },
   {
