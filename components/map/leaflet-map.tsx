@@ -115,7 +115,7 @@ export default function LeafletMap(props: Props) {
     }
     const dot = (p: NonNullable<typeof point>, colour: string, title: string, big: boolean) => {
       if (p.accuracyM) {
-        const c = L.circle([p.latitude, p.longitude], {
+        L.circle([p.latitude, p.longitude], {
           radius: p.accuracyM,
           color: colour,
           weight: 1,
@@ -123,7 +123,8 @@ export default function LeafletMap(props: Props) {
           fillOpacity: 0.12,
           interactive: false,
         }).addTo(layer);
-        if (focusPoint) bounds.extend(c.getBounds());
+        // Bounds from the radius itself: a circle's getBounds needs a map that already has a view.
+        if (focusPoint) bounds.extend(L.latLng(p.latitude, p.longitude).toBounds(p.accuracyM * 2));
       }
       L.marker([p.latitude, p.longitude], {
         icon: L.divIcon({

@@ -91,7 +91,7 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(rarefaction).toContainText("counts of presence only are not counts of individuals");
   const accumulation = page.getByRole("figure", { name: "Sample-based accumulation (Mao Tau) and extrapolation" });
   await expect(accumulation.locator("path.recharts-curve[stroke-dasharray]").first()).toBeAttached();
-  await expect(accumulation.getByText("observed", { exact: true })).toBeVisible();
+  await expect(accumulation.getByRole("img").getByText("observed", { exact: true })).toBeVisible();
   // Pending records are stated; the rules are printed.
   await expect(page.getByRole("complementary", { name: "Not yet in these numbers" })).toContainText(
     /\d+ sightings are still pending review/,

@@ -61,7 +61,7 @@ test("a coordinator limited to birds decides the queue by keyboard and the volun
   await page.keyboard.press("j");
   await expect(rows.first()).toHaveAttribute("aria-selected", "true");
   await expect(page.getByRole("heading", { level: 2, name: /Common chaffinch/ })).toBeVisible();
-  await expect(page.getByRole("img", { name: "Map of the event area and zones with this sighting" })).toBeVisible();
+  await expect(page.getByRole("region", { name: "Map of the event area and zones with this sighting" })).toBeVisible();
 
   // Meanwhile the sighting changes under the coordinator (another session moved its version):
   // the optimistic approval is refused with the conflict message and rolled back.

@@ -3,7 +3,7 @@
 import { useLocale, useTranslations } from "next-intl";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useEffect, useEffectEvent, useState } from "react";
-import useSWR from "swr";
+import useSWR, { useSWRConfig } from "swr";
 import useSWRInfinite from "swr/infinite";
 import { secondaryButtonClass } from "@/components/ui/field";
 import { api, ApiClientError, fetcher } from "@/lib/http/client";
@@ -87,8 +87,17 @@ export function ReviewDesk(props: Props) {
   const items = queue.data?.flatMap((p) => p.items) ?? [];
   const counts = queue.data?.[0]?.counts;
   const current: QueueItem | undefined = items[selected];
-  const detailKey = current ? `${base}/sightings/${current.id}` : null;
+  // Keyed by the version the queue shows too: after a decision, an undo or another coordinator's
+  // change, the pane never shows an older version of the record the list already moved past.
+  const detailKey = current ? `${base}/sightings/${current.id}?v=${current.version}` : null;
   const detail = useSWR<DetailResponse>(detailKey, fetcher, { revalidateOnFocus: false });
+  // After a decision or an undo, every kept copy of that record's detail is dropped and the one
+  // on screen fetched again (a copy fetched while the decision was on its way is out of date).
+  const { mutate: mutateAny } = useSWRConfig();
+  const refreshDetail = (sightingId: string) =>
+    mutateAny((k) => typeof k === "string" && k.startsWith(`${base}/sightings/${sightingId}?`), undefined, {
+      revalidate: true,
+    });
 
   // A new filter starts a new list (state adjusted while rendering, as React advises, not in an effect).
   const [listQuery, setListQuery] = useState(query);
@@ -184,7 +193,7 @@ export function ReviewDesk(props: Props) {
       void queue.mutate();
     } finally {
       setBusy(false);
-      void detail.mutate();
+      void refreshDetail(item.id);
     }
   };
 
@@ -199,7 +208,7 @@ export function ReviewDesk(props: Props) {
       setStatus({ text: t("actions.refused", { message: refusal(err) }), bad: true });
     } finally {
       setBusy(false);
-      await Promise.all([queue.mutate(), detail.mutate()]);
+      await Promise.all([queue.mutate(), refreshDetail(sightingId)]);
     }
   };
   const undoToast = () => {
