@@ -176,7 +176,8 @@ export const ROUTES: RouteCase[] = [
     method: "POST",
     path: () => "/api/auth/_log",
     allowed: EVERYONE,
-    note: "public: how a session starts",
+    status: 404,
+    note: "next-auth's browser log endpoint is closed: no one writes lines into the server's log",
   },
   {
     file: "app/api/account/password/route.ts",

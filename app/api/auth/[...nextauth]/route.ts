@@ -1,7 +1,7 @@
 import NextAuth from "next-auth";
 import { safeCallbackPath } from "@/lib/auth/callback-url";
 import { env } from "@/lib/env";
-import { ApiError, assertSameOrigin } from "@/lib/http/errors";
+import { ApiError, assertSameOrigin, errorResponse } from "@/lib/http/errors";
 import { toLocale } from "@/lib/i18n/translator";
 import { contentSecurityPolicy, extraOriginsOf, makeNonce } from "@/lib/security/csp";
 import { confirmLink } from "@/server/auth/magic-link";
@@ -19,6 +19,9 @@ const localeOf = (callbackUrl: string | null) =>
 async function guarded(request: Request, ctx: Ctx): Promise<Response> {
   const path = (await ctx.params).nextauth.join("/");
   const e = env();
+  // next-auth's "_log" endpoint lets any browser write lines into the server's log (with a
+  // custom logger it is on): closed, so the log holds only what the server itself says.
+  if (path === "_log") return errorResponse(new ApiError("not_found"), localeOf(null));
 
   // A magic link opened directly (an old mail, or a scanner following links): show our
   // confirm page instead of using the token; only its button's POST signs in.
