@@ -218,3 +218,21 @@ export async function resultsKey(eventId: string): Promise<string> {
     ) AS k`);
   return r.rows[0]!.k;
 }
+
+export type EarlierEvent = { id: string; name: string; slug: string; startsAt: string; endsAt: string };
+
+/**
+ * Earlier events of the same site: the same organisation, not a draft, ended before this
+ * one started, with an area that overlaps this event's area (PostGIS). Newest first.
+ */
+export async function earlierEventsOfSite(eventId: string): Promise<EarlierEvent[]> {
+  const r = await getDb().execute<EarlierEvent>(sql`
+    SELECT o.id, o.name, o.slug, o.starts_at::text AS "startsAt", o.ends_at::text AS "endsAt"
+    FROM events e
+    JOIN events o ON o.organisation_id = e.organisation_id AND o.id <> e.id
+    WHERE e.id = ${eventId} AND o.status <> 'draft' AND o.ends_at <= e.starts_at
+      AND e.area IS NOT NULL AND o.area IS NOT NULL AND ST_Intersects(e.area, o.area)
+    ORDER BY o.starts_at DESC
+    LIMIT 20`);
+  return r.rows;
+}

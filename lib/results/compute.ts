@@ -18,7 +18,7 @@ import {
   type HillProfileRow,
   type IncidenceStats,
 } from "@/lib/diversity/index";
-import { hillCurveFromProfile } from "@/lib/diversity/hill-curves";
+import { hillAtCoverageFromProfile, hillCurveFromProfile } from "@/lib/diversity/hill-curves";
 import { hillProfileFromProfile } from "@/lib/diversity/hill-profile";
 import { curvePoint } from "@/lib/diversity/curves";
 import { sizeForCoverage } from "@/lib/diversity/compare";
@@ -311,7 +311,12 @@ function pairs(zones: Comparison["zones"]): [Comparison["zones"][number], Compar
   return out;
 }
 
-function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepared: Map<string, Prepared>): Comparison {
+function compare(
+  kind: Comparison["kind"],
+  zones: ResultsInput["zones"],
+  prepared: Map<string, Prepared>,
+  chosenPairs?: readonly (readonly [string, string])[],
+): Comparison {
   const sampleOf = (id: string): Sample => {
     const s = prepared.get(id)!.sample;
     return kind === "abundance" ? { kind, counts: s.abundance } : { kind, frequencies: s.frequencies, units: s.units };
@@ -355,7 +360,11 @@ function compare(kind: Comparison["kind"], zones: ResultsInput["zones"], prepare
     }
     return r;
   };
-  const sentences = pairs(rows).map(([a, b]): ComparisonSentence => {
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  const toWords = chosenPairs
+    ? chosenPairs.flatMap(([a, b]) => (byId.has(a) && byId.has(b) ? [[byId.get(a)!, byId.get(b)!] as const] : []))
+    : pairs(rows);
+  const sentences = toWords.map(([a, b]): ComparisonSentence => {
     const d = differenceInterval(a.atCoverage.richness, b.atCoverage.richness, repsOf(a.id), repsOf(b.id));
     const verdict = d.lower > 0 ? "more" : d.upper < 0 ? "fewer" : "noClearDifference";
     return { a: a.id, b: b.id, verdict, difference: d.difference, lower: d.lower, upper: d.upper };
@@ -433,6 +442,62 @@ function similarity(
       ),
     ),
   };
+}
+
+/** Hill numbers q = 0, 1, 2 of one sample at one coverage (Chao & Jost 2012; Chao et al. 2014). */
+export type HillAtCoverage = { order: number; estimate: number; size: number };
+
+/**
+ * Samples side by side with the zones' rule (equal size, equal coverage, bootstrap
+ * difference at equal coverage): each "zone" of `input` is one sample — for two events of
+ * one site, each event as a whole. `chosenPairs` puts the given pairs in words, in that
+ * order (a, b: "a has more/fewer than b"). Also each compared sample's Hill numbers at the
+ * common coverage.
+ */
+export function compareSamples(
+  input: ResultsInput,
+  chosenPairs: readonly (readonly [string, string])[],
+): { comparison: Comparison; observed: Record<string, number>; hill: Record<string, HillAtCoverage[]> } {
+  const taxa = input.taxa.map((t) => ({ ...t, countUnit: t.countUnit ?? countUnitOf(t.group) }));
+  const width = taxa.length;
+  const perZone = new Map<string, number[]>(input.zones.map((z) => [z.id, new Array<number>(width).fill(0)]));
+  for (const c of input.counts) {
+    const z = perZone.get(c.zoneId);
+    if (z) z[c.taxon] = (z[c.taxon] ?? 0) + c.individuals;
+  }
+  const anyOtherUnit = input.counts.some((c) => c.individuals > 0 && taxa[c.taxon]!.countUnit !== "individuals");
+  const kind: Comparison["kind"] = anyOtherUnit ? "incidence" : "abundance";
+  const prepared = new Map(
+    input.zones.map((z) => [
+      z.id,
+      block(
+        // Without bootstrap bands: the comparison draws its own replicates.
+        taxa,
+        perZone.get(z.id)!,
+        input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
+        kind,
+        false,
+      ),
+    ]),
+  );
+  const comparison = compare(kind, input.zones, prepared, chosenPairs);
+  const hill: Record<string, HillAtCoverage[]> = {};
+  const observed: Record<string, number> = {};
+  for (const z of input.zones) observed[z.id] = prepared.get(z.id)!.block.observed;
+  if (comparison.coverage > 0)
+    for (const z of comparison.zones) {
+      const s = prepared.get(z.id)!.sample;
+      const p =
+        kind === "abundance"
+          ? profileOf({ kind, counts: s.abundance })
+          : profileOf({ kind, frequencies: s.frequencies, units: s.units });
+      hill[z.id] = hillAtCoverageFromProfile(
+        p,
+        { orders: [0, 1, 2], levels: [comparison.coverage] },
+        "compareSamples",
+      ).map((r) => ({ order: r.order, estimate: r.estimate, size: r.size }));
+    }
+  return { comparison, observed, hill };
 }
 
 export function computeResults(input: ResultsInput, options: ComputeOptions = {}): Results {

@@ -9,6 +9,8 @@ import { requirePageEventRole } from "@/server/auth/page";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { currentResults } from "@/server/results/current";
+import { comparisonWithEarlier } from "@/server/results/compare-events";
+import { EventsComparison } from "@/components/results/events-comparison";
 import { PublishButton } from "./_components/publish-button";
 import { CountUnitsForm } from "./_components/count-units-form";
 import { eventCountUnits } from "@/db/queries/results";
@@ -16,7 +18,10 @@ import { COUNT_UNITS, DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/set
 
 export const dynamic = "force-dynamic";
 
-type Props = { params: Promise<{ locale: Locale; slug: string }> };
+type Props = {
+  params: Promise<{ locale: Locale; slug: string }>;
+  searchParams: Promise<{ compare?: string | string[] }>;
+};
 
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { slug } = await params;
@@ -25,8 +30,9 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
   return event ? { title: t("title", { event: event.name }) } : {};
 }
 
-export default async function ResultsPage({ params }: Props) {
+export default async function ResultsPage({ params, searchParams }: Props) {
   const { locale, slug } = await params;
+  const { compare } = await searchParams;
   setRequestLocale(locale);
   const event = await getPublicEventBySlug(slug);
   if (!event) notFound();
@@ -41,6 +47,10 @@ export default async function ResultsPage({ params }: Props) {
     getTranslations("TaxonGroup"),
   ]);
   const canPublish = permit.role === "organiser" || permit.role === "admin";
+  // Earlier events of the site are the organisation's: their organisers see them beside this one.
+  const beside = canPublish
+    ? await comparisonWithEarlier(event, typeof compare === "string" ? compare : undefined)
+    : null;
   const groups = Object.keys(DEFAULT_COUNT_UNITS);
   const unitRows = groups.map((group) => ({
     group,
@@ -66,6 +76,7 @@ export default async function ResultsPage({ params }: Props) {
       </header>
       <EstimateCaution />
       <ResultsBody results={results} showSensitivity />
+      {beside ? <EventsComparison {...beside} /> : null}
 
       {canPublish ? (
         <CountUnitsForm

@@ -1,0 +1,103 @@
+// Between events of one site (issue 14): the earlier events a results page may put beside
+// this one (same organisation, not a draft, ended before, overlapping area), and the
+// comparison over the real aggregation (approved records only; pending ones wait).
+import { describe, expect, it } from "vitest";
+import { earlierEventsOfSite } from "@/db/queries/results";
+import * as s from "@/db/schema";
+import { comparisonWithEarlier } from "@/server/results/compare-events";
+import { db, makeFixture, polygonSql, sightingValues } from "./helpers";
+
+const square = (x: number, y: number, size: number): [number, number][] => [
+  [x, y],
+  [x + size, y],
+  [x + size, y + size],
+  [x, y + size],
+  [x, y],
+];
+
+async function otherEvent(
+  f: Awaited<ReturnType<typeof makeFixture>>,
+  tag: string,
+  over: Partial<typeof s.events.$inferInsert>,
+) {
+  const [e] = await db()
+    .insert(s.events)
+    .values({
+      organisationId: f.org.id,
+      slug: `event-${tag}`,
+      name: `Event ${tag}`,
+      status: "closed",
+      startsAt: new Date("2025-06-21T05:00:00Z"),
+      endsAt: new Date("2025-06-23T05:00:00Z"),
+      timeZone: "Europe/London",
+      area: polygonSql(square(0.2, 0.2, 1)),
+      ...over,
+    })
+    .returning();
+  return e!;
+}
+
+describe("between events of one site", () => {
+  it("offers only earlier, non-draft events of the organisation whose area overlaps, newest first", async () => {
+    const f = await makeFixture("site-candidates");
+    const last = await otherEvent(f, "site-2025", {});
+    const older = await otherEvent(f, "site-2024", {
+      startsAt: new Date("2024-06-22T05:00:00Z"),
+      endsAt: new Date("2024-06-24T05:00:00Z"),
+    });
+    await otherEvent(f, "site-draft", { status: "draft" });
+    await otherEvent(f, "site-elsewhere", { area: polygonSql(square(5, 5, 1)) });
+    await otherEvent(f, "site-later", {
+      startsAt: new Date("2027-06-19T05:00:00Z"),
+      endsAt: new Date("2027-06-21T05:00:00Z"),
+    });
+    const stranger = await makeFixture("site-stranger"); // another organisation, same square
+    expect(stranger.event.id).not.toBe(f.event.id);
+    expect((await earlierEventsOfSite(f.event.id)).map((e) => e.id)).toEqual([last.id, older.id]);
+  });
+
+  it("puts this year beside last year at equal coverage, says 'more' only with an interval above 0, and leaves pending records out", async () => {
+    const f = await makeFixture("site-compare");
+    const last = await otherEvent(f, "site-compare-2025", {});
+    const taxa = await db()
+      .insert(s.taxa)
+      .values(
+        Array.from({ length: 40 }, (_, i) => ({ scientificName: `Comparia s${i}`, taxonGroup: "birds" as const })),
+      )
+      .returning();
+    // This year 40 species, 3 to 7 individuals each; last year 12 of them. Invented counts.
+    await db()
+      .insert(s.sightings)
+      .values([
+        ...taxa.map((t, i) => sightingValues(f, { taxonId: t.id, count: 3 + (i % 5), reviewState: "approved" })),
+        ...taxa.slice(0, 12).map((t, i) =>
+          sightingValues(f, {
+            eventId: last.id,
+            zoneId: null,
+            taxonId: t.id,
+            count: 3 + (i % 5),
+            reviewState: "approved",
+            observedAt: new Date("2025-06-21T09:00:00Z"),
+          }),
+        ),
+        // Pending: not in either event's numbers.
+        sightingValues(f, { eventId: last.id, zoneId: null, taxonId: taxa[30]!.id, count: 50, reviewState: "pending" }),
+      ]);
+    const r = await comparisonWithEarlier({ id: f.event.id, name: f.event.name, startsAt: f.event.startsAt });
+    expect(r.chosen?.id).toBe(last.id);
+    const c = r.comparison!;
+    expect(c.events.map((e) => [e.name, e.observed])).toEqual([
+      [f.event.name, 40],
+      [last.name, 12],
+    ]);
+    expect(c.sentence).toMatchObject({ a: f.event.id, b: last.id, verdict: "more" });
+    expect(c.sentence!.lower).toBeGreaterThan(0);
+    // A choice that is not a candidate falls back to the newest candidate.
+    const again = await comparisonWithEarlier(
+      { id: f.event.id, name: f.event.name, startsAt: f.event.startsAt },
+      "00000000-0000-4000-8000-000000000000",
+    );
+    expect(again.chosen?.id).toBe(last.id);
+    expect(again.comparison).toEqual(c);
+  });
+});
