@@ -10,6 +10,8 @@ export async function ZoneSimilarity({ similarity }: { similarity: Similarity | 
   const [t, format] = await Promise.all([getTranslations("Results"), getFormatter()]);
   const n = (v: number) => (Number.isFinite(v) ? format.number(v, { maximumFractionDigits: 2 }) : t("undefinedValue"));
   const s = similarity;
+  // Reports published before the intervals existed have none: show the values alone.
+  const range = (iv: [number, number] | null | undefined) => (iv ? ` [${n(iv[0])}–${n(iv[1])}]` : "");
   const matrix = (title: string, note: string, cell: (c: Similarity["cells"][number][number]) => string) =>
     s ? (
       <div className="space-y-1">
@@ -61,13 +63,19 @@ export async function ZoneSimilarity({ similarity }: { similarity: Similarity | 
           {matrix(
             t("similarity.sorensenTitle"),
             t("similarity.sorensenNote"),
-            (c) => `${n(c.sorensenAdjusted)} (${n(c.sorensen)})`,
+            (c) => `${n(c.sorensenAdjusted)}${range(c.sorensenInterval)} (${n(c.sorensen)})`,
           )}
           {matrix(
             t("similarity.jaccardTitle"),
             t("similarity.jaccardNote"),
-            (c) => `${n(c.jaccardAdjusted)} (${n(c.jaccard)})`,
+            (c) => `${n(c.jaccardAdjusted)}${range(c.jaccardInterval)} (${n(c.jaccard)})`,
           )}
+          <p className="max-w-prose text-sm text-ink-soft">
+            {t(s.kind === "abundance" ? "similarity.intervalAbundance" : "similarity.intervalIncidence", {
+              replicates: s.replicates ?? 0,
+              seed: s.seed ?? 0,
+            })}
+          </p>
           <table className="w-full text-left text-sm tabular-nums">
             <caption className="text-left font-semibold">{t("similarity.betaTitle")}</caption>
             <thead>

@@ -24,7 +24,15 @@ import { curvePoint } from "@/lib/diversity/curves";
 import { sizeForCoverage } from "@/lib/diversity/compare";
 import { bootstrapAtCoverage, differenceInterval, profileOf, type Sample } from "./compare";
 import { resolveRanks, type RankStatus } from "./ranks";
-import { COMPARISON_BOOTSTRAP, countUnitOf, HILL_RESULTS, SUFFICIENCY, type CountUnit } from "./settings";
+import {
+  COMPARISON_BOOTSTRAP,
+  countUnitOf,
+  HILL_RESULTS,
+  SIMILARITY_BOOTSTRAP,
+  SUFFICIENCY,
+  type CountUnit,
+} from "./settings";
+import { Rng, multinomial } from "@/lib/diversity/random";
 import type { Sensitivity } from "@/lib/domain";
 
 export const NO_ZONE = "00000000-0000-0000-0000-000000000000";
@@ -108,6 +116,9 @@ export type SimilarityCell = {
   jaccard: number;
   sorensenAdjusted: number;
   jaccardAdjusted: number;
+  /** Percentile bootstrap 95% intervals of the corrected indices (SIMILARITY_BOOTSTRAP); null on the diagonal. */
+  sorensenInterval: [number, number] | null;
+  jaccardInterval: [number, number] | null;
 };
 
 /** Between zones: shared species, similarity, and multiplicative beta (Jost 2007) for q = 0, 1, 2. */
@@ -117,6 +128,8 @@ export type Similarity = {
   /** cells[i][j]: zone i against zone j (symmetric). */
   cells: SimilarityCell[][];
   beta: HillBeta[];
+  replicates: number;
+  seed: number;
 };
 
 export type ZoneResult = { id: string; name: string; habitat: string } & Block;
@@ -414,20 +427,47 @@ function similarity(
     })
     .filter((d) => d.total > 0);
   if (data.length < 2) return null;
-  const cell = (a: (typeof data)[number], b: (typeof data)[number]): SimilarityCell => {
-    const s = kind === "abundance" ? zoneSimilarity(a.counts, b.counts) : zoneSimilarityIncidence(a.units, b.units);
+  type Zone = (typeof data)[number];
+  const index = (a: Zone, b: Zone) =>
+    kind === "abundance" ? zoneSimilarity(a.counts, b.counts) : zoneSimilarityIncidence(a.units, b.units);
+  // One redraw of a zone: its individuals from its observed proportions, or its complete
+  // sessions drawn with replacement.
+  const redraw = (z: Zone, rng: Rng): Zone => {
+    if (kind === "abundance") {
+      const p = Float64Array.from(z.counts, (c) => c / z.total);
+      return { ...z, counts: Array.from(multinomial(rng, z.total, p)) };
+    }
+    const units = z.units.map(() => z.units[Math.floor(rng.next() * z.units.length)]!);
+    return { ...z, units };
+  };
+  const intervals = (a: Zone, b: Zone, seed: number) => {
+    const rng = new Rng(seed);
+    const sor: number[] = [];
+    const jac: number[] = [];
+    for (let r = 0; r < SIMILARITY_BOOTSTRAP.replicates; r++) {
+      const x = index(redraw(a, rng), redraw(b, rng));
+      if (Number.isFinite(x.sorensenAdjusted)) sor.push(x.sorensenAdjusted);
+      if (Number.isFinite(x.jaccardAdjusted)) jac.push(x.jaccardAdjusted);
+    }
+    return { sorensen: percentile95(sor), jaccard: percentile95(jac) };
+  };
+  const cell = (a: Zone, b: Zone, seed: number | null): SimilarityCell => {
+    const s = index(a, b);
+    const iv = seed === null ? null : intervals(a, b, seed);
     return {
       shared: s.shared,
       sorensen: s.sorensen,
       jaccard: s.jaccard,
       sorensenAdjusted: s.sorensenAdjusted,
       jaccardAdjusted: s.jaccardAdjusted,
+      sorensenInterval: iv?.sorensen ?? null,
+      jaccardInterval: iv?.jaccard ?? null,
     };
   };
   const cells: SimilarityCell[][] = data.map(() => []);
   for (let i = 0; i < data.length; i++)
     for (let j = i; j < data.length; j++) {
-      const c = cell(data[i]!, data[j]!);
+      const c = cell(data[i]!, data[j]!, i === j ? null : SIMILARITY_BOOTSTRAP.seed + i * data.length + j);
       cells[i]![j] = c;
       cells[j]![i] = c;
     }
@@ -441,7 +481,21 @@ function similarity(
         q,
       ),
     ),
+    replicates: SIMILARITY_BOOTSTRAP.replicates,
+    seed: SIMILARITY_BOOTSTRAP.seed,
   };
+}
+
+/** The 2.5% and 97.5% points (linear interpolation between order statistics); null without values. */
+function percentile95(values: number[]): [number, number] | null {
+  if (values.length === 0) return null;
+  const v = [...values].sort((a, b) => a - b);
+  const at = (p: number) => {
+    const h = (v.length - 1) * p;
+    const lo = Math.floor(h);
+    return v[lo]! + (h - lo) * ((v[Math.min(lo + 1, v.length - 1)] ?? v[lo]!) - v[lo]!);
+  };
+  return [at(0.025), at(0.975)];
 }
 
 /** Hill numbers q = 0, 1, 2 of one sample at one coverage (Chao & Jost 2012; Chao et al. 2014). */

@@ -95,6 +95,39 @@ describe("Hill curves, profile and zone similarity in the results", () => {
     expect(s.beta[0]!.gamma).toBeCloseTo(15, 12); // every taxon is in some zone
   });
 
+  it("gives each pair of zones a bootstrap interval of the corrected indices, inside [0, 1], none on the diagonal", () => {
+    const s = r.similarity!;
+    expect(s.replicates).toBeGreaterThanOrEqual(200);
+    for (let i = 0; i < 3; i++) {
+      expect(s.cells[i]![i]!.sorensenInterval).toBeNull();
+      for (let j = 0; j < 3; j++) {
+        if (i === j) continue;
+        const c = s.cells[i]![j]!;
+        for (const iv of [c.sorensenInterval!, c.jaccardInterval!]) {
+          expect(iv[0]).toBeGreaterThanOrEqual(0);
+          expect(iv[1]).toBeLessThanOrEqual(1);
+          expect(iv[0]).toBeLessThanOrEqual(iv[1]);
+        }
+        // Overlapping zones: the interval has width (the redraws differ), and Jaccard's sits at or below Sørensen's.
+        expect(c.sorensenInterval![1] - c.sorensenInterval![0]).toBeGreaterThan(0);
+        expect(c.jaccardInterval![1]).toBeLessThanOrEqual(c.sorensenInterval![1] + 1e-12);
+      }
+    }
+    // Fixed seed: the same records give the same intervals.
+    expect(computeResults(input()).similarity).toEqual(s);
+  });
+
+  it("gives zones with nothing in common an interval of [0, 0]", () => {
+    const taxa = Array.from({ length: 20 }, (_, i) => taxon(i));
+    const counts = [
+      ...Array.from({ length: 10 }, (_, i) => ({ zoneId: "a", taxon: i, individuals: 3 + (i % 4) })),
+      ...Array.from({ length: 10 }, (_, i) => ({ zoneId: "b", taxon: 10 + i, individuals: 3 + (i % 4) })),
+    ];
+    const s = computeResults({ zones: zones.slice(0, 2), taxa, counts, sessions: [] }).similarity!;
+    expect(s.cells[0]![1]!.sorensenInterval).toEqual([0, 0]);
+    expect(s.cells[0]![1]!.jaccardInterval).toEqual([0, 0]);
+  });
+
   it("uses complete sessions when counts are not of individuals", () => {
     const p = computeResults(input("fungi"));
     expect(p.event.hill?.kind).toBe("incidence");

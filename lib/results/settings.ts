@@ -45,6 +45,14 @@ export const SUFFICIENCY = {
 export const COMPARISON_BOOTSTRAP = { replicates: 200, seed: 20120901 } as const;
 
 /**
+ * Intervals of the zone × zone similarity table (the project's own choice, like the
+ * comparison's): a percentile bootstrap of each pair, individuals redrawn from each zone's
+ * observed proportions (or complete sessions redrawn with replacement within each zone),
+ * with a fixed seed so a report reproduces exactly.
+ */
+export const SIMILARITY_BOOTSTRAP = { replicates: 200, seed: 20050301 } as const;
+
+/**
  * Hill-number curves and profile on the results page and in reports (the project's own
  * choice, for speed): a fixed number of bootstrap replicates instead of the engine's
  * adaptive default (up to 2,000 for curves, 10,000 for the profile), with a fixed seed

@@ -18,7 +18,8 @@ const square = (x: number, y: number, size: number): [number, number][] => [
 async function otherEvent(
   f: Awaited<ReturnType<typeof makeFixture>>,
   tag: string,
-  over: Partial<typeof s.events.$inferInsert>,
+  over: Partial<Omit<typeof s.events.$inferInsert, "area">>,
+  ring: [number, number][] = square(0.2, 0.2, 1),
 ) {
   const [e] = await db()
     .insert(s.events)
@@ -30,8 +31,8 @@ async function otherEvent(
       startsAt: new Date("2025-06-21T05:00:00Z"),
       endsAt: new Date("2025-06-23T05:00:00Z"),
       timeZone: "Europe/London",
-      area: polygonSql(square(0.2, 0.2, 1)),
       ...over,
+      area: polygonSql(ring),
     })
     .returning();
   return e!;
@@ -46,7 +47,7 @@ describe("between events of one site", () => {
       endsAt: new Date("2024-06-24T05:00:00Z"),
     });
     await otherEvent(f, "site-draft", { status: "draft" });
-    await otherEvent(f, "site-elsewhere", { area: polygonSql(square(5, 5, 1)) });
+    await otherEvent(f, "site-elsewhere", {}, square(5, 5, 1));
     await otherEvent(f, "site-later", {
       startsAt: new Date("2027-06-19T05:00:00Z"),
       endsAt: new Date("2027-06-21T05:00:00Z"),
