@@ -1,7 +1,7 @@
 // Each number's published method name, its interval's method and the sources (papers, not
 // software); the one-line note on how to read it is translated (messages:
 // Results.notes.<key>). Frozen into every report as its method notes.
-import { COMPARISON_BOOTSTRAP, HILL_RESULTS, SUFFICIENCY } from "./settings";
+import { COMPARISON_BOOTSTRAP, HILL_RESULTS, SIMILARITY_BOOTSTRAP, SUFFICIENCY } from "./settings";
 
 export const METHOD_NOTES = [
   {
@@ -140,9 +140,8 @@ export const METHOD_NOTES = [
   {
     key: "similarity",
     name: "Shared species and similarity between zones",
-    interval: null,
-    source:
-      "Abundance-based (counts of individuals) or incidence-based (complete sessions) Sørensen- and Jaccard-type indices with the correction for unseen shared species (Chao, Chazdon, Colwell & Shen 2005, Ecology Letters 8:148–159), beside the classic indices; the event's rank rule applies to every zone",
+    interval: "bootstrap",
+    source: `Abundance-based (counts of individuals) or incidence-based (complete sessions) Sørensen- and Jaccard-type indices with the correction for unseen shared species (Chao, Chazdon, Colwell & Shen 2005, Ecology Letters 8:148–159), beside the classic indices; the event's rank rule applies to every zone; 95% percentile bootstrap interval of the corrected indices for each pair (${SIMILARITY_BOOTSTRAP.replicates} replicates, seed ${SIMILARITY_BOOTSTRAP.seed}; individuals redrawn from each zone's observed proportions, or complete sessions with replacement: species not yet seen are not redrawn, so the interval may be narrow)`,
   },
   {
     key: "beta",
