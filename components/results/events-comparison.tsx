@@ -2,6 +2,7 @@ import { getFormatter, getTranslations } from "next-intl/server";
 import type { EarlierEvent } from "@/db/queries/results";
 import type { EventComparison } from "@/lib/results/compare-events";
 import { reasonsText } from "./reasons";
+import { EffortHeaders, EffortStandard } from "./zone-comparison";
 
 /**
  * This event beside an earlier event of the same site: richness at equal coverage (the
@@ -54,16 +55,7 @@ export async function EventsComparison({
       )}
       {c && now && then ? (
         <>
-          {c.coverage > 0 ? (
-            <p className="max-w-prose">
-              {t(c.kind === "abundance" ? "comparison.kindAbundance" : "comparison.kindIncidence")}{" "}
-              {t("comparison.intro", {
-                size: c.size,
-                coverage: pct(c.coverage),
-                unit: t(c.kind === "abundance" ? "comparison.unitIndividuals" : "comparison.unitSessions"),
-              })}
-            </p>
-          ) : null}
+          {c.coverage > 0 ? <EffortStandard kind={c.kind} size={c.size} coverage={c.coverage} /> : null}
           <table className="w-full text-start text-sm">
             <caption className="sr-only">{t("betweenEvents.title")}</caption>
             <thead>
@@ -74,14 +66,7 @@ export async function EventsComparison({
                 <th scope="col" className="py-1 pe-3 text-end">
                   {t("betweenEvents.observed")}
                 </th>
-                <th scope="col" className="py-1 pe-3 text-end">
-                  {t("comparison.atCoverage", { coverage: pct(c.coverage) })}
-                </th>
-                <th scope="col" className="py-1 pe-3 text-end">
-                  {c.kind === "abundance"
-                    ? t("comparison.atSize", { size: c.size })
-                    : t("comparison.atSizeSessions", { size: c.size })}
-                </th>
+                <EffortHeaders kind={c.kind} size={c.size} coverage={c.coverage} />
                 <th scope="col" className="py-1 pe-3 text-end">
                   {t("betweenEvents.hill1")}
                 </th>

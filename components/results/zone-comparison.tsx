@@ -33,14 +33,7 @@ export async function ZoneComparison({
         <p>{t("comparison.none")}</p>
       ) : (
         <>
-          <p className="max-w-prose">
-            {t(c.kind === "abundance" ? "comparison.kindAbundance" : "comparison.kindIncidence")}{" "}
-            {t("comparison.intro", {
-              size: c.size,
-              coverage: pct(c.coverage),
-              unit: t(c.kind === "abundance" ? "comparison.unitIndividuals" : "comparison.unitSessions"),
-            })}
-          </p>
+          <EffortStandard kind={c.kind} size={c.size} coverage={c.coverage} />
           <table className="w-full text-start text-sm">
             <caption className="sr-only">{t("comparison.title")}</caption>
             <thead>
@@ -48,14 +41,7 @@ export async function ZoneComparison({
                 <th scope="col" className="py-1 pe-3">
                   {t("comparison.zone")}
                 </th>
-                <th scope="col" className="py-1 pr-3 text-right">
-                  {t("comparison.atCoverage", { coverage: pct(c.coverage) })}
-                </th>
-                <th scope="col" className="py-1 text-right">
-                  {c.kind === "abundance"
-                    ? t("comparison.atSize", { size: c.size })
-                    : t("comparison.atSizeSessions", { size: c.size })}
-                </th>
+                <EffortHeaders kind={c.kind} size={c.size} coverage={c.coverage} />
               </tr>
             </thead>
             <tbody>
@@ -110,6 +96,40 @@ export async function ZoneComparison({
       ) : null}
       <EstimateCaution />
     </section>
+  );
+}
+
+type Effort = Pick<Comparison, "kind" | "size" | "coverage">;
+
+/** The standard of a comparison in words: equal coverage (named with its value) and equal size, on which data. */
+export async function EffortStandard({ kind, size, coverage }: Effort) {
+  const [t, format] = await Promise.all([getTranslations("Results"), getFormatter()]);
+  return (
+    <p className="max-w-prose">
+      {t(kind === "abundance" ? "comparison.kindAbundance" : "comparison.kindIncidence")}{" "}
+      {t("comparison.intro", {
+        size,
+        coverage: format.number(coverage, { style: "percent", maximumFractionDigits: 1 }),
+        unit: t(kind === "abundance" ? "comparison.unitIndividuals" : "comparison.unitSessions"),
+      })}
+    </p>
+  );
+}
+
+/** The two column headers of richness at equal coverage and at equal size. */
+export async function EffortHeaders({ kind, size, coverage }: Effort) {
+  const [t, format] = await Promise.all([getTranslations("Results"), getFormatter()]);
+  return (
+    <>
+      <th scope="col" className="py-1 pe-3 text-end">
+        {t("comparison.atCoverage", {
+          coverage: format.number(coverage, { style: "percent", maximumFractionDigits: 1 }),
+        })}
+      </th>
+      <th scope="col" className="py-1 pe-3 text-end">
+        {kind === "abundance" ? t("comparison.atSize", { size }) : t("comparison.atSizeSessions", { size })}
+      </th>
+    </>
   );
 }
 

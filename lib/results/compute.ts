@@ -498,6 +498,28 @@ function percentile95(values: number[]): [number, number] | null {
   return [at(0.025), at(0.975)];
 }
 
+/** One block per zone, on the zone's own counts and complete sessions. */
+function zoneBlocks(
+  input: ResultsInput,
+  taxa: readonly ResultsTaxon[],
+  perZone: Map<string, number[]>,
+  hillKind: HillBlock["kind"],
+  bands: boolean,
+): Map<string, Prepared> {
+  return new Map(
+    input.zones.map((z) => [
+      z.id,
+      block(
+        taxa,
+        perZone.get(z.id)!,
+        input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
+        hillKind,
+        bands,
+      ),
+    ]),
+  );
+}
+
 /** Hill numbers q = 0, 1, 2 of one sample at one coverage (Chao & Jost 2012; Chao et al. 2014). */
 export type HillAtCoverage = { order: number; estimate: number; size: number };
 
@@ -521,19 +543,8 @@ export function compareSamples(
   }
   const anyOtherUnit = input.counts.some((c) => c.individuals > 0 && taxa[c.taxon]!.countUnit !== "individuals");
   const kind: Comparison["kind"] = anyOtherUnit ? "incidence" : "abundance";
-  const prepared = new Map(
-    input.zones.map((z) => [
-      z.id,
-      block(
-        // Without bootstrap bands: the comparison draws its own replicates.
-        taxa,
-        perZone.get(z.id)!,
-        input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
-        kind,
-        false,
-      ),
-    ]),
-  );
+  // Without bootstrap bands: the comparison draws its own replicates.
+  const prepared = zoneBlocks(input, taxa, perZone, kind, false);
   const comparison = compare(kind, input.zones, prepared, chosenPairs);
   const hill: Record<string, HillAtCoverage[]> = {};
   const observed: Record<string, number> = {};
@@ -581,18 +592,7 @@ export function computeResults(input: ResultsInput, options: ComputeOptions = {}
     bands,
     status,
   );
-  const prepared = new Map(
-    input.zones.map((z) => [
-      z.id,
-      block(
-        taxa,
-        perZone.get(z.id)!,
-        input.sessions.filter((s) => s.zoneId === z.id).map((s) => s.taxa),
-        hillKind,
-        bands,
-      ),
-    ]),
-  );
+  const prepared = zoneBlocks(input, taxa, perZone, hillKind, bands);
   const zones: ZoneResult[] = input.zones.map((z) => ({ ...z, ...prepared.get(z.id)!.block }));
   const kind = event.block.countUnits.length === 0 ? "abundance" : "incidence";
   const comparison = input.zones.length >= 2 ? compare(kind, input.zones, prepared) : null;
