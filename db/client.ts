@@ -9,7 +9,12 @@ export type Db = NodePgDatabase<typeof schema>;
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 // One pool per process, kept on globalThis so Next's development reloads reuse it.
-const globalForDb = globalThis as unknown as { ecotonePool?: Pool; ecotoneDb?: Db };
+const globalForDb = globalThis as unknown as {
+  ecotonePool?: Pool;
+  ecotoneDb?: Db;
+  ecotoneReplicaPool?: Pool;
+  ecotoneReplicaDb?: Db;
+};
 
 export function getDb(): Db {
   if (!globalForDb.ecotoneDb) {
@@ -19,4 +24,22 @@ export function getDb(): Db {
     globalForDb.ecotoneDb = drizzle(pool, { schema });
   }
   return globalForDb.ecotoneDb;
+}
+
+/**
+ * For reads that may lag a moment behind the primary: public report pages and downloads,
+ * results and the live board. The streaming replica when DATABASE_REPLICA_URL is set,
+ * otherwise the primary itself. Never for a write, nor for a read that decides a write
+ * (the review desk, sync, publishing read the primary through getDb).
+ */
+export function getReadDb(): Db {
+  const url = env().DATABASE_REPLICA_URL;
+  if (!url) return getDb();
+  if (!globalForDb.ecotoneReplicaDb) {
+    const pool = new Pool({ connectionString: url, max: env().DATABASE_POOL_MAX });
+    pool.on("error", (err) => console.error("[db] idle replica client error", err.message));
+    globalForDb.ecotoneReplicaPool = pool;
+    globalForDb.ecotoneReplicaDb = drizzle(pool, { schema });
+  }
+  return globalForDb.ecotoneReplicaDb;
 }

@@ -1,6 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import { getDb, type Db } from "../client";
+import { getDb, getReadDb, type Db } from "../client";
 import { NO_ZONE, type Pending, type ResultsInput, type ResultsTaxon } from "@/lib/results/compute";
 import { SESSION_RECORD, type InputRecord } from "@/lib/results/records";
 import { COUNT_UNITS, countUnitOf, type CountUnit } from "@/lib/results/settings";
@@ -104,7 +104,8 @@ export async function loadResultsInput(
   eventId: string,
   options: { sessions?: boolean; pending?: boolean } = {},
 ): Promise<ResultsInput> {
-  const db = getDb();
+  // Results may lag a moment behind the primary: read from the replica when there is one.
+  const db = getReadDb();
   const [zones, counts, sessions, pending] = await Promise.all([
     eventZones(eventId, db),
     db.execute<{ zoneId: string; taxonId: string; individuals: number }>(sql`
@@ -176,7 +177,7 @@ export type LiveFigures = {
 
 /** The live board's counts: sightings per hour (last 48 hours of records), people, review backlog. */
 export async function liveFigures(eventId: string): Promise<LiveFigures> {
-  const db = getDb();
+  const db = getReadDb();
   const [hours, people, states] = await Promise.all([
     db.execute<{ hour: string; sightings: number }>(sql`
       WITH last AS (SELECT max(observed_at) AS t FROM sightings WHERE event_id = ${eventId})
@@ -203,7 +204,8 @@ export async function liveFigures(eventId: string): Promise<LiveFigures> {
  * zones and of the taxa in the results. Equal keys mean equal results.
  */
 export async function resultsKey(eventId: string): Promise<string> {
-  const r = await getDb().execute<{ k: string }>(sql`
+  // The same database the results are read from (db/client.ts getReadDb), so the key matches them.
+  const r = await getReadDb().execute<{ k: string }>(sql`
     SELECT concat_ws('|',
       (SELECT seq FROM result_stamps WHERE event_id = ${eventId}),
       (SELECT count(*) || ':' || coalesce(sum(hashtext(id::text || all_species_noted::text || coalesce(zone_id::text, ''))), 0)
@@ -226,7 +228,7 @@ export type EarlierEvent = { id: string; name: string; slug: string; startsAt: s
  * one started, with an area that overlaps this event's area (PostGIS). Newest first.
  */
 export async function earlierEventsOfSite(eventId: string): Promise<EarlierEvent[]> {
-  const r = await getDb().execute<EarlierEvent>(sql`
+  const r = await getReadDb().execute<EarlierEvent>(sql`
     SELECT o.id, o.name, o.slug, o.starts_at::text AS "startsAt", o.ends_at::text AS "endsAt"
     FROM events e
     JOIN events o ON o.organisation_id = e.organisation_id AND o.id <> e.id
