@@ -43,3 +43,11 @@ export function getReadDb(): Db {
   }
   return globalForDb.ecotoneReplicaDb;
 }
+
+/** Closes the replica's pool (tests that start and stop a replica; a server's shutdown). */
+export async function endReadDb(): Promise<void> {
+  const pool = globalForDb.ecotoneReplicaPool;
+  globalForDb.ecotoneReplicaPool = undefined;
+  globalForDb.ecotoneReplicaDb = undefined;
+  await pool?.end();
+}
