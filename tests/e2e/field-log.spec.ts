@@ -132,7 +132,11 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
     return { sessions: await all("sessions"), sightings: await all("sightings"), photos: await all("photos") };
   });
   const sessionId = ids.sessions[0]!.id;
-  const sightingIds = ids.sightings.map((s) => s.id).sort();
+  // This session's sightings (the phone also keeps the volunteer's earlier records it learnt of from the server).
+  const sightingIds = ids.sightings
+    .filter((s) => (s.record as { sessionId?: string | null }).sessionId === sessionId)
+    .map((s) => s.id)
+    .sort();
 
   const stored = await withE2eDb(async (c) => ({
     sessions: (
