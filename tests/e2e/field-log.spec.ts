@@ -133,10 +133,8 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
   });
   const sessionId = ids.sessions[0]!.id;
   // This session's sightings (the phone also keeps the volunteer's earlier records it learnt of from the server).
-  const sightingIds = ids.sightings
-    .filter((s) => (s.record as { sessionId?: string | null }).sessionId === sessionId)
-    .map((s) => s.id)
-    .sort();
+  const thisSession = ids.sightings.filter((s) => (s.record as { sessionId?: string | null }).sessionId === sessionId);
+  const sightingIds = thisSession.map((s) => s.id).sort();
 
   const stored = await withE2eDb(async (c) => ({
     sessions: (
@@ -203,7 +201,7 @@ test("a volunteer's offline session and five sightings survive a reload, are sen
       });
       return { status: res.status, body: await res.json() };
     },
-    { eventId, sessions: ids.sessions.map((s) => s.record), sightings: ids.sightings.map((s) => s.record) },
+    { eventId, sessions: ids.sessions.map((s) => s.record), sightings: thisSession.map((s) => s.record) },
   );
   expect(resend.status).toBe(200);
   expect(resend.body.acks).toHaveLength(6);

@@ -57,8 +57,17 @@ export function ReviewDesk(props: Props) {
   const router = useRouter();
   const pathname = usePathname();
   const search = useSearchParams();
-  const filters = filtersFromSearch(search);
+  // Shown at once and then written to the URL: two filters chosen in quick succession both
+  // hold, even before the first navigation has finished. A new URL (the back button) wins.
+  const urlKey = search.toString();
+  const [filters, setShownFilters] = useState<Filters>(() => filtersFromSearch(search));
+  const [seenUrl, setSeenUrl] = useState(urlKey);
+  if (seenUrl !== urlKey) {
+    setSeenUrl(urlKey);
+    setShownFilters(filtersFromSearch(search));
+  }
   const setFilters = (f: Filters) => {
+    setShownFilters(f);
     const qs = searchFromFilters(f).toString();
     router.push(qs ? `${pathname}?${qs}` : pathname, { scroll: false });
   };
