@@ -4,6 +4,7 @@ import { drizzle } from "drizzle-orm/node-postgres";
 import { readMigrationFiles } from "drizzle-orm/migrator";
 import { migrate } from "drizzle-orm/node-postgres/migrator";
 import { Pool, type PoolClient } from "pg";
+import { appGrants, roleOf } from "./roles";
 
 export const migrationsFolder = path.join(process.cwd(), "db/migrations");
 
@@ -75,9 +76,33 @@ async function reconcileJournal(client: PoolClient, entries: Entry[]): Promise<v
   }
 }
 
+/**
+ * Grants the app's login role what it needs and nothing more (db/roles.ts), as the owner, in
+ * one transaction: safe to run after every migration run.
+ */
+async function grantAppRole(client: PoolClient, appRole: string, url: string): Promise<void> {
+  const { rows } = await client.query("SELECT 1 FROM pg_roles WHERE rolname = $1", [appRole]);
+  if (rows.length === 0)
+    throw new Error(
+      `The app's database role "${appRole}" (the user in DATABASE_URL) does not exist. Create it as the superuser: ` +
+        `CREATE ROLE "${appRole}" LOGIN PASSWORD '...' (scripts/pg.sh start does this on the demo's cluster).`,
+    );
+  await client.query("BEGIN");
+  try {
+    for (const statement of appGrants(appRole, roleOf(url))) await client.query(statement);
+    await client.query("COMMIT");
+  } catch (err) {
+    await client.query("ROLLBACK");
+    throw err;
+  }
+}
+
 // Used by the start and test commands and by the test set-up; not by the running app.
 // Use this (npm run db:migrate), not `drizzle-kit migrate`, which skips reconcileJournal.
-export async function runMigrations(url: string): Promise<void> {
+// `url` connects as the owner role (DATABASE_OWNER_URL); `appRole` is the role the app
+// connects as (the user in DATABASE_URL): after migrating it is granted row access to every
+// table. The same role for both (one-role set-ups) skips the grants.
+export async function runMigrations(url: string, options: { appRole?: string } = {}): Promise<void> {
   const pool = new Pool({ connectionString: url, max: 1 });
   try {
     const client = await pool.connect();
@@ -87,6 +112,14 @@ export async function runMigrations(url: string): Promise<void> {
       client.release();
     }
     await migrate(drizzle(pool), { migrationsFolder });
+    if (options.appRole && options.appRole !== roleOf(url)) {
+      const grants = await pool.connect();
+      try {
+        await grantAppRole(grants, options.appRole, url);
+      } finally {
+        grants.release();
+      }
+    }
   } finally {
     await pool.end();
   }

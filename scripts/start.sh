@@ -10,7 +10,10 @@ ensure_system_packages
 ensure_node_modules
 bash scripts/pg.sh start
 bash scripts/pg.sh ensure-db ecotone
+# The app (server, mail worker, seed) connects as ecotone_app, which owns nothing; migrations
+# run as the owner ecotone, then grant ecotone_app row access (db/roles.ts).
 export DATABASE_URL="$(bash scripts/pg.sh url ecotone)"
+export DATABASE_OWNER_URL="$(bash scripts/pg.sh owner-url ecotone)"
 export APP_URL="${APP_URL:-http://localhost:3000}"
 # The server runs in production mode, which refuses the demo's default AUTH_SECRET (lib/env.ts):
 # unless one is given, make a random one once and keep it in .data/auth-secret, so that

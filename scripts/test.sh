@@ -20,11 +20,12 @@ log "Type check"
 npx tsc --noEmit
 
 log "Unit and integration tests"
-DATABASE_URL="$(bash scripts/pg.sh url "ecotone_test${ECOTONE_TEST_SUFFIX:-}")" npx vitest run
+# DATABASE_URL names the test database; the set-up migrates as ecotone, the app runs as ecotone_app.
+DATABASE_URL="$(bash scripts/pg.sh owner-url "ecotone_test${ECOTONE_TEST_SUFFIX:-}")" npx vitest run
 
 log "Production build"
 npx next build >"$ROOT/.data/build-test.log" 2>&1 || { tail -40 "$ROOT/.data/build-test.log" >&2; die "next build failed"; }
 
 log "Browser tests"
-DATABASE_URL="$(bash scripts/pg.sh url "ecotone_e2e${ECOTONE_TEST_SUFFIX:-}")" npx playwright test
+DATABASE_URL="$(bash scripts/pg.sh owner-url "ecotone_e2e${ECOTONE_TEST_SUFFIX:-}")" npx playwright test
 log "All tests passed"

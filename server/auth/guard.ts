@@ -17,6 +17,8 @@ const rank: Record<EventRole, number> = { volunteer: 1, coordinator: 2, organise
 
 export async function getSessionUser(): Promise<SessionUser | null> {
   const session = await getServerSession(authOptions());
+  // The session could not be checked against the database (authOptions' jwt callback): 503.
+  if ((session as { unchecked?: boolean } | null)?.unchecked) throw new ApiError("unavailable");
   const id = (session?.user as { id?: string } | undefined)?.id;
   if (!id) return null;
   return findUserById(id);

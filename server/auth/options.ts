@@ -122,12 +122,22 @@ export function authOptions(askedLocale?: ReturnType<typeof toLocale>): NextAuth
           return token;
         }
         // Every use of a session: the version it was issued with must still be the person's.
-        const current = token.sub ? await sessionVersionOf(token.sub) : null;
+        // If the database cannot answer (it is down), the session is neither ended nor trusted:
+        // it is kept, marked unchecked, and getSessionUser answers 503, so a device retries
+        // later instead of being told to sign in again (and next-auth does not clear the cookie).
+        delete token.unchecked;
+        let current: number | null;
+        try {
+          current = token.sub ? await sessionVersionOf(token.sub) : null;
+        } catch {
+          return { ...token, unchecked: true };
+        }
         if (current === null || current !== token.sv) throw new Error(REVOKED);
         return token;
       },
       async session({ session, token }) {
         if (session.user && token.sub) (session.user as { id?: string }).id = token.sub;
+        if (token.unchecked) (session as { unchecked?: boolean }).unchecked = true;
         return session;
       },
       async redirect({ url, baseUrl }) {

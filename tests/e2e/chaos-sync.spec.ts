@@ -9,6 +9,7 @@ import { expect, test } from "@playwright/test";
 import { encode } from "next-auth/jwt";
 import { Client } from "pg";
 import sharp from "sharp";
+import { APP_ROLE, urlAsRole } from "../../db/roles";
 import { seededRandom } from "../../db/seed/random";
 import { startS3Fake } from "../../server/storage/s3-fake";
 import { startChaosProxy, type Fate } from "./chaos-proxy";
@@ -304,7 +305,7 @@ function startServer(): Promise<ChildProcess> {
   const child = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(SERVER_PORT)], {
     env: {
       ...process.env,
-      DATABASE_URL,
+      DATABASE_URL: urlAsRole(DATABASE_URL, APP_ROLE), // as the app always connects (db/roles.ts)
       APP_URL: `http://127.0.0.1:${PROXY_PORT}`,
       AUTH_SECRET: SECRET,
       NEXT_TELEMETRY_DISABLED: "1",

@@ -9,7 +9,8 @@ import { migrationsFolder, runMigrations } from "@/db/migrate";
 import { dropDatabase, recreateEmptyDatabase } from "@/tests/support/test-db";
 
 // Databases of this file, beside the run's own (ecotone_test* names only).
-const base = process.env.DATABASE_URL!;
+// As the owner role: migrations create and alter tables (db/roles.ts).
+const base = process.env.DATABASE_OWNER_URL!;
 function dbUrl(suffix: string): string {
   const u = new URL(base);
   u.pathname = `${u.pathname}_${suffix}`;

@@ -56,3 +56,22 @@ describe("the base map's tile address", () => {
     expect(() => loadEnv({ MAP_TILE_URL: "https://tiles.example.org/base.png" })).toThrow(/MAP_TILE_URL/);
   });
 });
+
+describe("database connections (db/roles.ts)", () => {
+  it("by default, connects the app as ecotone_app and migrates as the owner ecotone", () => {
+    const e = loadEnv({});
+    expect(new URL(e.DATABASE_URL).username).toBe("ecotone_app");
+    expect(new URL(e.DATABASE_OWNER_URL).username).toBe("ecotone");
+    expect(new URL(e.DATABASE_URL).pathname).toBe(new URL(e.DATABASE_OWNER_URL).pathname);
+  });
+
+  it("keeps a one-role set-up working: DATABASE_URL alone is used for migrations too", () => {
+    const url = "postgres://survey:pw@db.example.org:5432/ecotone";
+    expect(loadEnv({ DATABASE_URL: url }).DATABASE_OWNER_URL).toBe(url);
+    const owner = "postgres://owner:pw@db.example.org:5432/ecotone";
+    expect(loadEnv({ DATABASE_URL: url, DATABASE_OWNER_URL: owner })).toMatchObject({
+      DATABASE_URL: url,
+      DATABASE_OWNER_URL: owner,
+    });
+  });
+});
