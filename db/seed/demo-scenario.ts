@@ -195,3 +195,27 @@ export const SETUP_EVENT = {
   ],
   invitation: { email: "autumn-helper@example.org", role: "volunteer" as const },
 };
+
+// The same reserve's count a year earlier (invented, closed): shorter, fewer volunteers and
+// only timed counts, so the results page has an earlier event of the site to compare with.
+// Its name does not contain this year's name (tests find events by their visible names).
+export const EARLIER_EVENT = {
+  slug: "harrowmere-vale-midsummer-count-2025",
+  name: "Midsummer Count 2025, Harrowmere Vale",
+  description:
+    "Last year's first count of the vale: one long day of timed counts in the meadow, the woodland and by the millpond.",
+  timeZone: "Europe/London",
+  // 24 hours from 06:00 local time (BST, UTC+1) on 21 June 2025.
+  startsAt: new Date("2025-06-21T05:00:00Z"),
+  endsAt: new Date("2025-06-22T05:00:00Z"),
+  languages: ["en", "es", "fr"],
+  status: "closed" as const,
+  joinCode: "HARROW-MIDSUMMER-2025",
+  accuracyLimitM: 50,
+  // Demo people (by key) who took part then; none of them is a test's signed-in volunteer.
+  members: [
+    { key: "coord-all", role: "coordinator" as const },
+    { key: "vol-4", role: "volunteer" as const },
+    { key: "vol-6", role: "volunteer" as const },
+  ],
+};

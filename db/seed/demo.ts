@@ -23,6 +23,7 @@ import { refreshCheckMarks } from "../queries/check-marks";
 import { demoId, seededRandom } from "./random";
 import { SENSITIVE_DEMO_RECORDS } from "./sensitive";
 import { seedReviewCases } from "./review-cases";
+import { seedEarlierEvent } from "./earlier-event";
 import { SEED_TAXA, type SeedTaxon } from "./taxa";
 
 type Db = NodePgDatabase<typeof s>;
@@ -404,6 +405,9 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
         invitedBy: people.get("organiser")!,
       })
       .onConflictDoNothing();
+
+    // The same reserve's count a year earlier, for the comparison between events.
+    await seedEarlierEvent(tx, { orgId, people, taxonIds });
 
     const [counts] = await tx
       .execute<{ sessions: number; sightings: number; reviews: number }>(

@@ -30,7 +30,7 @@ export async function comparisonWithEarlier(
     loadResultsInput(chosen.id, { pending: false }),
   ]);
   const comparison = compareEvents(
-    { id: event.id, name: event.name, startsAt: event.startsAt.toISOString(), input: now },
+    { id: event.id, name: event.name, startsAt: new Date(event.startsAt).toISOString(), input: now },
     { id: chosen.id, name: chosen.name, startsAt: new Date(chosen.startsAt).toISOString(), input: then },
   );
   cache.delete(pair);

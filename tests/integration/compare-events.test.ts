@@ -1,8 +1,11 @@
 // Between events of one site (issue 14): the earlier events a results page may put beside
 // this one (same organisation, not a draft, ended before, overlapping area), and the
 // comparison over the real aggregation (approved records only; pending ones wait).
+import { sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { earlierEventsOfSite } from "@/db/queries/results";
+import { seedDemo } from "@/db/seed/demo";
+import { DEMO_EVENT, EARLIER_EVENT } from "@/db/seed/demo-scenario";
 import * as s from "@/db/schema";
 import { comparisonWithEarlier } from "@/server/results/compare-events";
 import { db, makeFixture, polygonSql, sightingValues } from "./helpers";
@@ -100,5 +103,22 @@ describe("between events of one site", () => {
     );
     expect(again.chosen?.id).toBe(last.id);
     expect(again.comparison).toEqual(c);
+  });
+
+  it("the demo's midsummer count finds last year's count of the reserve and compares them on complete sessions", async () => {
+    await seedDemo(db() as never);
+    const { rows } = await db().execute<{ id: string; name: string; starts_at: string }>(
+      sql`SELECT id, name, starts_at FROM events WHERE slug = ${DEMO_EVENT.slug}`,
+    );
+    const now = rows[0]!;
+    const r = await comparisonWithEarlier({ id: now.id, name: now.name, startsAt: new Date(now.starts_at) });
+    expect(r.candidates.map((c) => c.name)).toEqual([EARLIER_EVENT.name]);
+    const c = r.comparison!;
+    // The demo counts fungi as presence only, so both years are compared on complete sessions.
+    expect(c.kind).toBe("incidence");
+    expect(c.events[1]).toMatchObject({ name: EARLIER_EVENT.name });
+    expect(c.events[1]!.observed).toBeGreaterThan(10);
+    expect(c.leftOut).toEqual([]);
+    expect(c.sentence).toMatchObject({ a: now.id, b: c.events[1]!.id });
   });
 });
