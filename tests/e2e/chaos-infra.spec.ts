@@ -4,7 +4,6 @@ import { chownSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
 import http from "node:http";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { HeadObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { expect, test } from "@playwright/test";
 import { encode } from "next-auth/jwt";
 import { Client } from "pg";
@@ -13,6 +12,7 @@ import { APP_ROLE, OWNER_ROLE, urlAsRole } from "../../db/roles";
 import { startS3Fake } from "../../server/storage/s3-fake";
 import { MailCatcher } from "../support/mail-catcher";
 import { recreateDatabase } from "../support/test-db";
+import { expectPhotosInStore } from "./photo-store";
 
 // Chaos that includes the database and the fakes (issue 13). The app server, its mail worker,
 // the S3 fake and the SMTP fake run here against a throw-away PostgreSQL cluster of this test's
@@ -512,16 +512,7 @@ test("devices keep every record, photo and mail through PostgreSQL, S3 and SMTP 
       [eventId],
     );
     expect(photos.rows.map((p) => p.id).sort()).toEqual(keepers.flatMap((d) => d.photos.map((p) => p.id)).sort());
-    const s3client = new S3Client({
-      endpoint: `http://127.0.0.1:${S3_PORT}`,
-      region: "us-east-1",
-      forcePathStyle: true,
-      credentials: { accessKeyId: "S3RVER", secretAccessKey: "S3RVER" },
-    });
-    for (const p of photos.rows) {
-      const head = await s3client.send(new HeadObjectCommand({ Bucket: BUCKET, Key: p.storage_key }));
-      expect(head.ContentLength).toBe(p.size_bytes);
-    }
+    await expectPhotosInStore(photos.rows, { port: S3_PORT, bucket: BUCKET });
 
     // One digest per volunteer, delivered once.
     const received = smtp.mails.flatMap((m) => m.to).sort();

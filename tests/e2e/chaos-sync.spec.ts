@@ -4,7 +4,6 @@ import { mkdtempSync, rmSync } from "node:fs";
 import http from "node:http";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { HeadObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { expect, test } from "@playwright/test";
 import { encode } from "next-auth/jwt";
 import { Client } from "pg";
@@ -13,6 +12,7 @@ import { APP_ROLE, urlAsRole } from "../../db/roles";
 import { seededRandom } from "../../db/seed/random";
 import { startS3Fake } from "../../server/storage/s3-fake";
 import { startChaosProxy, type Fate } from "./chaos-proxy";
+import { expectPhotosInStore } from "./photo-store";
 
 // Chaos sync (issue 8): 100 simulated devices each send 50 sightings — some inside count
 // sessions, some with a photo — through the real route handlers of the production build,
@@ -443,16 +443,7 @@ test("100 devices sync 5,000 sightings through dropped connections and a server 
       [ctx.eventId],
     );
     expect(photos.rows.length).toBe(devices.reduce((n, d) => n + d.photos.length, 0));
-    const s3client = new S3Client({
-      endpoint: `http://127.0.0.1:${S3_PORT}`,
-      region: "us-east-1",
-      forcePathStyle: true,
-      credentials: { accessKeyId: "S3RVER", secretAccessKey: "S3RVER" },
-    });
-    for (const p of photos.rows) {
-      const head = await s3client.send(new HeadObjectCommand({ Bucket: BUCKET, Key: p.storage_key }));
-      expect(head.ContentLength).toBe(p.size_bytes);
-    }
+    await expectPhotosInStore(photos.rows, { port: S3_PORT, bucket: BUCKET });
     console.log(
       `chaos: ${total} records from ${DEVICES} devices; proxy fates ${JSON.stringify(proxy.counts)}; ` +
         `${devices.reduce((n, d) => n + d.repeats, 0)} repeated batches; restart after ${ackedAtRestart} acknowledgements`,
