@@ -1,4 +1,4 @@
-import Papa from "papaparse";
+import { code, norm, readCsvLines } from "@/lib/csv/lines";
 import { SESSION_KINDS, type SessionKind } from "@/lib/domain";
 
 // Paper data sheets, typed into one CSV file: each line is a count session or a sighting.
@@ -112,11 +112,6 @@ export type SheetSighting = {
 
 export type ParsedSheet = { sessions: SheetSession[]; sightings: SheetSighting[]; problems: SheetProblem[] };
 
-const norm = (s: string) => s.trim().replace(/\s+/g, " ");
-const code = (s: string) =>
-  norm(s)
-    .toLowerCase()
-    .replace(/[\s-]+/g, "_");
 const YES = new Set(["yes", "y", "true", "1", "sí", "si", "oui"]);
 const NO = new Set(["no", "n", "false", "0", "non", ""]);
 const DATE_TIME = /^(\d{4})-(\d{2})-(\d{2})[ T](\d{2}):(\d{2})$/;
@@ -132,53 +127,13 @@ export function localTime(value: string): LocalTime | null {
   return `${m[1]}-${m[2]}-${m[3]}T${m[4]}:${m[5]}`;
 }
 
-function readRecords(body: string): { records: { line: number; cells: string[] }[]; problems: SheetProblem[] } {
-  const records: { line: number; cells: string[] }[] = [];
-  const problems: SheetProblem[] = [];
-  let consumed = 0;
-  let line = 1;
-  const advance = (to: number) => {
-    for (let i = consumed; i < to; i++) if (body[i] === "\n") line++;
-    consumed = to;
-  };
-  let tooMany = false;
-  Papa.parse<string[]>(body, {
-    skipEmptyLines: "greedy",
-    comments: "#",
-    delimitersToGuess: [",", ";", "\t"],
-    step: (result, parser) => {
-      // Skip the blank lines and note lines papaparse passed over before this row.
-      let start = consumed;
-      for (;;) {
-        while (start < body.length && /[\n\r \t]/.test(body[start]!)) start++;
-        const lineStart = start === 0 || body[start - 1] === "\n";
-        if (body[start] !== "#" || !lineStart) break;
-        while (start < body.length && body[start] !== "\n") start++;
-      }
-      advance(start);
-      const rowLine = line;
-      const cells = result.data.map((c) => String(c ?? ""));
-      advance(result.meta.cursor);
-      for (const e of result.errors) {
-        if (e.code === "UndetectableDelimiter") continue;
-        problems.push({ line: rowLine, code: "unreadable", values: { detail: e.message } });
-      }
-      records.push({ line: rowLine, cells });
-      if (records.length > MAX_SHEET_ROWS + 1) {
-        tooMany = true;
-        parser.abort();
-      }
-    },
-  });
-  if (tooMany) return { records, problems: [{ line: line, code: "tooManyRows", values: { maximum: MAX_SHEET_ROWS } }] };
-  return { records, problems };
-}
-
 export function parseSheetCsv(text: string): ParsedSheet {
   const body = text.replace(/^\uFEFF/, "");
   const none = (problems: SheetProblem[]): ParsedSheet => ({ sessions: [], sightings: [], problems });
   if (!body.trim()) return none([{ line: 1, code: "empty" }]);
-  const { records, problems } = readRecords(body);
+  const read = readCsvLines(body, { maxRows: MAX_SHEET_ROWS, comments: true });
+  const records = read.records;
+  const problems: SheetProblem[] = [...read.problems];
   if (problems.some((p) => p.code === "tooManyRows")) return none(problems);
   if (!records.length) return none([{ line: 1, code: "empty" }]);
 

@@ -1,4 +1,4 @@
-import Papa from "papaparse";
+import { code, norm, readCsvLines } from "@/lib/csv/lines";
 import {
   SENSITIVITIES,
   TAXON_GROUPS,
@@ -8,7 +8,7 @@ import {
   type TaxonRank,
 } from "@/lib/domain";
 
-// Species-list CSV: one taxon per line. Parsed with papaparse; every problem carries the
+// Species-list CSV: one taxon per line (read by lib/csv/lines.ts); every problem carries the
 // line number a person sees in their spreadsheet or text editor (1 = the header line),
 // so a report can say exactly which lines to fix. Pure: no database, no framework.
 
@@ -54,59 +54,15 @@ export type SpeciesRow = {
 
 export type ParsedSpecies = { rows: SpeciesRow[]; problems: CsvProblem[]; locales: string[] };
 
-const norm = (s: string) => s.trim().replace(/\s+/g, " ");
-// "Vascular plants", "vascular-plants" and "VASCULAR_PLANTS" all mean vascular_plants.
-const code = (s: string) =>
-  norm(s)
-    .toLowerCase()
-    .replace(/[\s-]+/g, "_");
-
 export function parseSpeciesCsv(text: string): ParsedSpecies {
   const problems: CsvProblem[] = [];
   const body = text.replace(/^\uFEFF/, ""); // a byte-order mark from spreadsheet exports
   if (!body.trim()) return { rows: [], problems: [{ line: 1, code: "empty" }], locales: [] };
 
-  // Line numbers from papaparse's cursor: a quoted value may span lines, so rows and
-  // lines are not the same count.
-  const records: { line: number; cells: string[] }[] = [];
-  let consumed = 0;
-  let line = 1;
-  const advance = (to: number) => {
-    for (let i = consumed; i < to; i++) if (body[i] === "\n") line++;
-    consumed = to;
-  };
-  let tooMany = false;
-  Papa.parse<string[]>(body, {
-    skipEmptyLines: "greedy",
-    delimitersToGuess: [",", ";", "\t"],
-    step: (result, parser) => {
-      // Skip the blank lines papaparse passed over before this row.
-      let start = consumed;
-      while (
-        start < body.length &&
-        (body[start] === "\n" || body[start] === "\r" || body[start] === " " || body[start] === "\t")
-      )
-        start++;
-      advance(start);
-      const rowLine = line;
-      for (const e of result.errors) {
-        if (e.code === "UndetectableDelimiter") continue;
-        problems.push({ line: rowLine, code: "unreadable", values: { detail: e.message } });
-      }
-      records.push({ line: rowLine, cells: result.data.map((c) => String(c ?? "")) });
-      advance(result.meta.cursor);
-      if (records.length > MAX_ROWS + 1) {
-        tooMany = true;
-        parser.abort();
-      }
-    },
-  });
-  if (tooMany)
-    return {
-      rows: [],
-      problems: [{ line: records.at(-1)!.line, code: "tooManyRows", values: { maximum: MAX_ROWS } }],
-      locales: [],
-    };
+  const read = readCsvLines(body, { maxRows: MAX_ROWS });
+  const records = read.records;
+  if (read.problems.some((p) => p.code === "tooManyRows")) return { rows: [], problems: read.problems, locales: [] };
+  problems.push(...read.problems);
   if (records.length === 0) return { rows: [], problems: [{ line: 1, code: "empty" }], locales: [] };
 
   // Header: known columns only, each once.
