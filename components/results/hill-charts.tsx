@@ -1,18 +1,9 @@
 "use client";
 
-import {
-  Area,
-  CartesianGrid,
-  ComposedChart,
-  Legend,
-  Line,
-  ResponsiveContainer,
-  Tooltip,
-  XAxis,
-  YAxis,
-  type LegendType,
-} from "recharts";
+import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { useFormatter } from "next-intl";
 import type { HillBlock } from "@/lib/results/compute";
+import { ChartDataTable, GRID, TICK, zoneColour, zoneDot, zoneMarker } from "./chart-style";
 
 export type HillChartLabels = {
   curveTitle: string[]; // q = 0, 1, 2
@@ -37,47 +28,6 @@ export type HillChartLabels = {
 };
 
 export type HillSeries = { name: string; hill: HillBlock };
-
-// Zones told apart by colour and by marker shape (so the charts read in grey too).
-const COLOURS = ["#153a2a", "#b5761c", "#4a6fa5", "#8f3f71", "#3d463f", "#6e450f", "#2f7f7a"];
-const MARKERS: LegendType[] = ["circle", "square", "triangle", "diamond", "cross", "star", "wye"];
-
-function Marker({ cx, cy, shape, colour }: { cx?: number; cy?: number; shape: LegendType; colour: string }) {
-  if (cx === undefined || cy === undefined || !Number.isFinite(cx) || !Number.isFinite(cy)) return null;
-  const r = 3.5;
-  switch (shape) {
-    case "square":
-      return <rect x={cx - r} y={cy - r} width={2 * r} height={2 * r} fill={colour} />;
-    case "triangle":
-      return <polygon points={`${cx},${cy - r - 1} ${cx - r - 1},${cy + r} ${cx + r + 1},${cy + r}`} fill={colour} />;
-    case "diamond":
-      return (
-        <polygon
-          points={`${cx},${cy - r - 1} ${cx + r + 1},${cy} ${cx},${cy + r + 1} ${cx - r - 1},${cy}`}
-          fill={colour}
-        />
-      );
-    case "cross":
-      return (
-        <path
-          d={`M${cx - r},${cy - r}L${cx + r},${cy + r}M${cx - r},${cy + r}L${cx + r},${cy - r}`}
-          stroke={colour}
-          strokeWidth={2}
-        />
-      );
-    default:
-      return <circle cx={cx} cy={cy} r={r} fill={colour} />;
-  }
-}
-
-const dotFor = (i: number) => {
-  const shape = MARKERS[i % MARKERS.length]!;
-  const colour = COLOURS[i % COLOURS.length]!;
-  function Dot(props: { cx?: number; cy?: number; index?: number }) {
-    return <Marker key={props.index} cx={props.cx} cy={props.cy} shape={shape} colour={colour} />;
-  }
-  return Dot;
-};
 
 type Row = Record<string, number | [number, number] | null>;
 
@@ -146,7 +96,7 @@ function SeriesLines({
               name={`${s.name} ${labels.bandSuffix}`}
               legendType="none"
               stroke="none"
-              fill={COLOURS[i % COLOURS.length]}
+              fill={zoneColour(i)}
               fillOpacity={0.12}
               connectNulls
               isAnimationActive={false}
@@ -158,10 +108,10 @@ function SeriesLines({
           key={`r${i}`}
           dataKey={`s${i}r`}
           name={s.name}
-          legendType={MARKERS[i % MARKERS.length]}
-          stroke={COLOURS[i % COLOURS.length]}
+          legendType={zoneMarker(i)}
+          stroke={zoneColour(i)}
           strokeWidth={2}
-          dot={dotFor(i)}
+          dot={zoneDot(i)}
           connectNulls
           isAnimationActive={false}
         />
@@ -173,10 +123,10 @@ function SeriesLines({
               dataKey={`s${i}e`}
               name={`${s.name} ${labels.extrapolatedSuffix}`}
               legendType="none"
-              stroke={COLOURS[i % COLOURS.length]}
+              stroke={zoneColour(i)}
               strokeWidth={2}
               strokeDasharray="6 4"
-              dot={dotFor(i)}
+              dot={zoneDot(i)}
               connectNulls
               isAnimationActive={false}
             />
@@ -185,9 +135,6 @@ function SeriesLines({
     </>
   );
 }
-
-const fmt = (v: number, digits = 2) =>
-  Number.isFinite(v) ? v.toLocaleString(undefined, { maximumFractionDigits: digits }) : "∞";
 
 /**
  * Hill numbers q = 0, 1, 2 along sample size (solid: rarefied, dashed: extrapolated, shaded:
@@ -203,6 +150,9 @@ export function HillCharts({
   labels: HillChartLabels;
   xLabel: string;
 }) {
+  const format = useFormatter();
+  const fmt = (v: number, digits = 2) =>
+    Number.isFinite(v) ? format.number(v, { maximumFractionDigits: digits }) : "∞";
   const bands = series.some((s) => s.hill.curve.some((r) => r.replicates > 0));
   const curvePoints = (q: number) => (h: HillBlock) =>
     h.curve
@@ -234,54 +184,41 @@ export function HillCharts({
     }));
   const axis = (x: string, y: string, domain?: [number, number]) => (
     <>
-      <CartesianGrid stroke="#d5e8dc" />
+      <CartesianGrid stroke={GRID} />
       <XAxis
         dataKey="x"
         type="number"
         domain={domain ?? [0, "dataMax"]}
-        label={{ value: x, position: "insideBottom", offset: -12 }}
+        tick={TICK}
+        label={{ value: x, position: "insideBottom", offset: -12, fill: TICK.fill }}
       />
-      <YAxis label={{ value: y, angle: -90, position: "insideLeft" }} />
+      <YAxis tick={TICK} label={{ value: y, angle: -90, position: "insideLeft", fill: TICK.fill }} />
       <Tooltip />
       <Legend verticalAlign="top" />
     </>
   );
   const curveTable = (q: number) => (
-    <details className="mt-2 text-sm">
-      <summary className="cursor-pointer">{labels.table}</summary>
-      <table className="w-full text-left tabular-nums">
-        <thead>
-          <tr className="border-b border-reed-300">
-            <th scope="col">{labels.zone}</th>
-            <th scope="col">{xLabel}</th>
-            <th scope="col">{labels.part}</th>
-            <th scope="col">{labels.estimate}</th>
-            <th scope="col">{labels.lower}</th>
-            <th scope="col">{labels.upper}</th>
-            <th scope="col">{labels.coverage}</th>
-          </tr>
-        </thead>
-        <tbody>
-          {series.flatMap((s) =>
-            s.hill.curve
-              .filter((r) => r.order === q)
-              .map((r) => (
-                <tr key={`${s.name}-${r.size}`} className="border-b border-reed-100">
-                  <th scope="row" className="font-normal">
-                    {s.name}
-                  </th>
-                  <td>{fmt(r.size, 0)}</td>
-                  <td>{labels.parts[r.part]}</td>
-                  <td>{fmt(r.estimate)}</td>
-                  <td>{r.replicates > 0 ? fmt(r.lower) : "—"}</td>
-                  <td>{r.replicates > 0 ? fmt(r.upper) : "—"}</td>
-                  <td>{fmt(r.coverage, 3)}</td>
-                </tr>
-              )),
-          )}
-        </tbody>
-      </table>
-    </details>
+    <ChartDataTable
+      summary={labels.table}
+      headers={[labels.zone, xLabel, labels.part, labels.estimate, labels.lower, labels.upper, labels.coverage]}
+      rows={series.flatMap((s) =>
+        s.hill.curve
+          .filter((r) => r.order === q)
+          .map((r) => ({
+            key: `${s.name}-${r.size}`,
+            rowHeader: true,
+            cells: [
+              s.name,
+              fmt(r.size, 0),
+              labels.parts[r.part],
+              fmt(r.estimate),
+              r.replicates > 0 ? fmt(r.lower) : "—",
+              r.replicates > 0 ? fmt(r.upper) : "—",
+              fmt(r.coverage, 3),
+            ],
+          })),
+      )}
+    />
   );
   return (
     <div className="space-y-3" data-testid="hill-charts">
@@ -305,37 +242,24 @@ export function HillCharts({
           title={labels.profileTitle}
           summary={labels.summary}
           table={
-            <details className="mt-2 text-sm">
-              <summary className="cursor-pointer">{labels.table}</summary>
-              <table className="w-full text-left tabular-nums">
-                <thead>
-                  <tr className="border-b border-reed-300">
-                    <th scope="col">{labels.zone}</th>
-                    <th scope="col">{labels.order}</th>
-                    <th scope="col">{labels.observed}</th>
-                    <th scope="col">{labels.estimate}</th>
-                    <th scope="col">{labels.lower}</th>
-                    <th scope="col">{labels.upper}</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {series.flatMap((s) =>
-                    s.hill.profile.map((r) => (
-                      <tr key={`${s.name}-${r.order}`} className="border-b border-reed-100">
-                        <th scope="row" className="font-normal">
-                          {s.name}
-                        </th>
-                        <td>{fmt(r.order)}</td>
-                        <td>{fmt(r.observed)}</td>
-                        <td>{fmt(r.estimate)}</td>
-                        <td>{r.replicates > 0 ? fmt(r.lower) : "—"}</td>
-                        <td>{r.replicates > 0 ? fmt(r.upper) : "—"}</td>
-                      </tr>
-                    )),
-                  )}
-                </tbody>
-              </table>
-            </details>
+            <ChartDataTable
+              summary={labels.table}
+              headers={[labels.zone, labels.order, labels.observed, labels.estimate, labels.lower, labels.upper]}
+              rows={series.flatMap((s) =>
+                s.hill.profile.map((r) => ({
+                  key: `${s.name}-${r.order}`,
+                  rowHeader: true,
+                  cells: [
+                    s.name,
+                    fmt(r.order),
+                    fmt(r.observed),
+                    fmt(r.estimate),
+                    r.replicates > 0 ? fmt(r.lower) : "—",
+                    r.replicates > 0 ? fmt(r.upper) : "—",
+                  ],
+                })),
+              )}
+            />
           }
         >
           <ComposedChart data={merge(series, profilePoints)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>

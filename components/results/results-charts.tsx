@@ -17,6 +17,7 @@ import {
 import { useFormatter } from "next-intl";
 import { useId } from "react";
 import type { CurvePoint } from "@/lib/diversity/index";
+import { ChartDataTable, TICK, zoneColour, zoneMarker } from "./chart-style";
 
 export type ChartLabels = {
   rarefactionTitle: string;
@@ -41,13 +42,6 @@ export type ChartLabels = {
   lower: string;
   upper: string;
 };
-
-// Zones are told apart by colour and by marker (never by dashes: a dashed line means extrapolation
-// on every chart). Colours at least 3:1 against white for lines (WCAG 1.4.11).
-const ZONE_COLOURS = ["#225c41", "#9a5d0f", "#3f62a0", "#8f3f71", "#3d463f", "#b0362a"];
-const ZONE_MARKERS = ["circle", "square", "triangle", "diamond", "cross", "star", "wye"] as const;
-// Axis ticks and labels darker than Recharts' default grey so chart text reaches 4.5:1 on the card.
-const TICK = { fill: "#2b3a31" };
 
 function curveRows(points: CurvePoint[]) {
   return points.map((p) => ({
@@ -75,35 +69,15 @@ function DataTable({
   const format = useFormatter();
   const n = (v: number | undefined) => (v === undefined ? "" : format.number(v, { maximumFractionDigits: 1 }));
   return (
-    <details className="mt-2 text-sm">
-      <summary className="cursor-pointer text-reed-800 underline">{labels.dataTable}</summary>
-      <div className="max-h-64 overflow-auto">
-        <table id={id} className="w-full text-start">
-          <thead>
-            <tr className="border-b border-reed-300">
-              {withZone ? <th scope="col">{labels.zone}</th> : null}
-              <th scope="col">{xLabel}</th>
-              <th scope="col">{labels.species}</th>
-              <th scope="col">{labels.lower}</th>
-              <th scope="col">{labels.upper}</th>
-              <th scope="col">{labels.part}</th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r, i) => (
-              <tr key={i} className="border-b border-reed-100">
-                {withZone ? <td>{r.zone}</td> : null}
-                <td className="tabular-nums">{n(r.size)}</td>
-                <td className="tabular-nums">{n(r.richness)}</td>
-                <td className="tabular-nums">{n(r.lower)}</td>
-                <td className="tabular-nums">{n(r.upper)}</td>
-                <td>{r.part}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
-    </details>
+    <ChartDataTable
+      id={id}
+      summary={labels.dataTable}
+      headers={[...(withZone ? [labels.zone] : []), xLabel, labels.species, labels.lower, labels.upper, labels.part]}
+      rows={rows.map((r, i) => ({
+        key: String(i),
+        cells: [...(withZone ? [r.zone ?? ""] : []), n(r.size), n(r.richness), n(r.lower), n(r.upper), r.part],
+      }))}
+    />
   );
 }
 
@@ -306,8 +280,8 @@ export function ResultsCharts(props: {
               <Tooltip />
               <Legend verticalAlign="top" />
               {props.zones.flatMap((z, i) => {
-                const colour = ZONE_COLOURS[i % ZONE_COLOURS.length];
-                const marker = ZONE_MARKERS[i % ZONE_MARKERS.length];
+                const colour = zoneColour(i);
+                const marker = zoneMarker(i);
                 const rows = curveRows(z.rarefaction);
                 const observedSize = z.rarefaction.find((p) => p.kind === "observed")?.size;
                 // The zone's marker at its observed sample (where the solid part ends and the dashed part starts).
