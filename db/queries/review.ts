@@ -329,6 +329,27 @@ export type DecisionResult =
 const TO_STATE = { approve: "approved", reject: "rejected", return: "returned" } as const;
 
 /**
+ * The sighting locked for a decision or an undo, if it is in the reviewer's scope and still
+ * at the version they saw; otherwise the outcome to answer (a stale version is a conflict).
+ */
+async function lockAtVersion(
+  tx: Executor,
+  scope: ReviewScope,
+  sightingId: string,
+  version: number,
+): Promise<
+  | { place: NonNullable<Awaited<ReturnType<typeof sightingPlace>>> }
+  | Extract<DecisionResult, { outcome: "not_found" | "forbidden" | "conflict" }>
+> {
+  const place = await sightingPlace(tx, sightingId, true);
+  const check = inScope(scope, place);
+  if (check !== "ok") return { outcome: check };
+  if (place!.version !== version)
+    return { outcome: "conflict", current: { reviewState: place!.reviewState, version: place!.version } };
+  return { place: place! };
+}
+
+/**
  * One decision on one sighting, in one transaction: the row is locked, its version
  * compared with the one the reviewer saw (a mismatch is a conflict, never an overwrite),
  * the decision appended to reviews, the sighting's state, taxon and version moved in step,
@@ -341,12 +362,9 @@ export async function decide(
   d: Decision,
 ): Promise<DecisionResult> {
   return getDb().transaction(async (tx) => {
-    const place = await sightingPlace(tx, sightingId, true);
-    const check = inScope(scope, place);
-    if (check !== "ok") return { outcome: check };
-    const p = place!;
-    if (p.version !== d.version)
-      return { outcome: "conflict", current: { reviewState: p.reviewState, version: p.version } };
+    const locked = await lockAtVersion(tx, scope, sightingId, d.version);
+    if ("outcome" in locked) return locked;
+    const p = locked.place;
     let toState: ReviewState = p.reviewState;
     let toTaxon = p.taxonId;
     if (d.action === "reidentify") {
@@ -483,12 +501,9 @@ export async function undoDecision(
   version: number,
 ): Promise<UndoResult> {
   return getDb().transaction(async (tx) => {
-    const place = await sightingPlace(tx, sightingId, true);
-    const check = inScope(scope, place);
-    if (check !== "ok") return { outcome: check };
-    const p = place!;
-    if (p.version !== version)
-      return { outcome: "conflict", current: { reviewState: p.reviewState, version: p.version } };
+    const locked = await lockAtVersion(tx, scope, sightingId, version);
+    if ("outcome" in locked) return locked;
+    const p = locked.place;
     const { rows: latest } = await tx.execute<{
       id: number;
       fromState: ReviewState;
