@@ -258,7 +258,9 @@ async function storeSessions(
     distanceM: r.distanceM,
     notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(tx, mayCreate ? good.map((g) => g.rec) : [], async (sp, rows) =>
+  // A cancelled session is never created: there is nothing to cancel when the server never had it.
+  const creatable = mayCreate ? good.filter((g) => !g.rec.cancelled).map((g) => g.rec) : [];
+  const { inserted, failed } = await insertEach(tx, creatable, async (sp, rows) =>
     (
       await sp
         .insert(countSessions)
@@ -296,6 +298,10 @@ async function storeSessions(
     }
     const row =
       existing.get(rec.id) ?? (await tx.select().from(countSessions).where(eq(countSessions.id, rec.id)).limit(1))[0];
+    if (rec.cancelled) {
+      acks.push(await cancelSession(tx, input, index, rec.id, row));
+      continue;
+    }
     if (!row && !mayCreate) {
       acks.push(refused("session", index, rec.id, "event_not_open", "eventId"));
       continue;
@@ -327,6 +333,36 @@ async function storeSessions(
     }
   }
   return acks;
+}
+
+/**
+ * A session cancelled by its volunteer goes; its sightings stay, outside any session (they
+ * were seen all the same, only not as part of a sampling unit). Resent after it went, it
+ * changes nothing.
+ */
+async function cancelSession(
+  tx: Tx,
+  input: IngestInput,
+  index: number,
+  id: string,
+  row: { userId: string; eventId: string } | undefined,
+): Promise<StoreOutcome> {
+  if (!row) return { kind: "session", id, index, outcome: "already_had" };
+  if (row.userId !== input.userId || row.eventId !== input.eventId)
+    return refused("session", index, id, "id_taken", "id");
+  try {
+    await tx.transaction(async (sp) => {
+      await sp
+        .update(sightings)
+        .set({ sessionId: null, updatedAt: new Date() })
+        .where(and(eq(sightings.sessionId, id), eq(sightings.userId, input.userId)));
+      await sp.delete(countSessions).where(eq(countSessions.id, id));
+    });
+    return { kind: "session", id, index, outcome: "updated" };
+  } catch (err) {
+    console.error("[sync] session not cancelled", id, (err as Error).message);
+    return refused("session", index, id, "store_failed", "(record)");
+  }
 }
 
 async function storeSightings(

@@ -28,6 +28,9 @@ export const sessionRecord = z
     allSpeciesNoted: z.boolean(), // the full-list answer ("Is this session's list full?"); true only once ended
     distanceM: z.number().finite().min(0).max(100_000).nullable(), // walks
     notes: text(2000),
+    // Cancelled by its volunteer: the server removes the session and keeps its sightings,
+    // outside any session. A cancelled session that never reached the server is not sent.
+    cancelled: z.boolean().optional(),
   })
   .strict();
 export type SessionRecord = z.infer<typeof sessionRecord>;
