@@ -4,6 +4,7 @@ import type { RecordOutcome, RecordRef, RefusalCode } from "@/lib/sync/acks";
 import type { ReviewState, SessionRecord, SightingRecord } from "@/lib/sync/records";
 import { getDb, type Db } from "../client";
 import { reviewOpen } from "@/lib/time/review-period";
+import { judgeSession, judgeSighting, outsideSession } from "@/lib/sync/rules";
 import { countSessions, events, reviews, sightingVersions, sightings, taxa, zones } from "../schema";
 import { refreshCheckMarks } from "./check-marks";
 
@@ -30,10 +31,6 @@ export type IngestInput = {
   sightings: Indexed<SightingRecord>[];
   now?: Date;
 };
-
-// A device clock a little ahead of the server's is normal; a time far ahead is a mistake.
-// 10 minutes is common practice for clock skew, not a published figure.
-const FUTURE_SKEW_MS = 10 * 60_000;
 
 // `real` columns hold single-precision floats: compare at that precision.
 const sameReal = (a: number | null, b: number | null) =>
@@ -144,8 +141,8 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
   );
   const sessionOutcomes: StoreOutcome[] = [];
   const goodSessions = sessionsIn.filter(({ index, rec }) => {
-    const bad = judgeSession(rec, event.sessionKinds, eventZones);
-    if (bad) sessionOutcomes.push(refused("session", index, rec.id, bad[0], bad[1]));
+    const bad = judgeSession(rec, { kinds: event.sessionKinds, zoneIds: eventZones });
+    if (bad) sessionOutcomes.push(refused("session", index, rec.id, bad.code, bad.field, bad.values));
     return !bad;
   });
 
@@ -157,8 +154,8 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
       : [],
   );
   const goodSightings = sightingsIn.filter(({ index, rec }) => {
-    const bad = judgeSighting(rec, knownTaxa, now);
-    if (bad) sightingOutcomes.push(refused("sighting", index, rec.id, bad[0], bad[1]));
+    const bad = judgeSighting(rec, { now: now.getTime(), knownTaxa });
+    if (bad) sightingOutcomes.push(refused("sighting", index, rec.id, bad.code, bad.field, bad.values));
     return !bad;
   });
 
@@ -167,11 +164,11 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
     sessionOutcomes.push(...(await storeSessions(tx, input, goodSessions, mayCreate)));
     // The session a sighting names must be the same person's, at the same event (maybe sent just above).
     const named = [...new Set(goodSightings.map((s) => s.rec.sessionId).filter((x): x is string => x !== null))];
-    const ownSessions = new Set(
+    const ownSessions = new Map(
       named.length
         ? (
             await tx
-              .select({ id: countSessions.id })
+              .select({ id: countSessions.id, startedAt: countSessions.startedAt, endedAt: countSessions.endedAt })
               .from(countSessions)
               .where(
                 and(
@@ -180,35 +177,22 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
                   eq(countSessions.eventId, input.eventId),
                 ),
               )
-          ).map((r) => r.id)
+          ).map((r) => [r.id, r] as const)
         : [],
     );
     const storable = goodSightings.filter(({ index, rec }) => {
-      if (rec.sessionId === null || ownSessions.has(rec.sessionId)) return true;
-      sightingOutcomes.push(refused("sighting", index, rec.id, "unknown_session", "sessionId"));
-      return false;
+      if (rec.sessionId === null) return true;
+      const own = ownSessions.get(rec.sessionId);
+      if (!own) sightingOutcomes.push(refused("sighting", index, rec.id, "unknown_session", "sessionId"));
+      else if (outsideSession(rec.observedAt, own))
+        sightingOutcomes.push(refused("sighting", index, rec.id, "outside_session", "observedAt"));
+      return own && !outsideSession(rec.observedAt, own);
     });
     sightingOutcomes.push(...(await storeSightings(tx, input, storable, mayCreate, now)));
   });
 
   const byIndex = (a: StoreOutcome, b: StoreOutcome) => a.index - b.index;
   return [...sessionOutcomes.sort(byIndex), ...sightingOutcomes.sort(byIndex)];
-}
-
-function judgeSession(rec: SessionRecord, kinds: string[], eventZones: Set<string>): [RefusalCode, string] | null {
-  if (!kinds.includes(rec.kind)) return ["kind_not_allowed", "kind"];
-  if (rec.zoneId !== null && !eventZones.has(rec.zoneId)) return ["unknown_zone", "zoneId"];
-  if (rec.endedAt !== null && Date.parse(rec.endedAt) <= Date.parse(rec.startedAt))
-    return ["ends_before_start", "endedAt"];
-  if (rec.allSpeciesNoted && rec.endedAt === null) return ["complete_needs_end", "allSpeciesNoted"];
-  return null;
-}
-
-function judgeSighting(rec: SightingRecord, knownTaxa: Set<string>, now: Date): [RefusalCode, string] | null {
-  if (rec.taxonId === null && rec.description.trim() === "") return ["description_required", "description"];
-  if (Date.parse(rec.observedAt) > now.getTime() + FUTURE_SKEW_MS) return ["future_time", "observedAt"];
-  if (rec.taxonId !== null && !knownTaxa.has(rec.taxonId)) return ["unknown_taxon", "taxonId"];
-  return null;
 }
 
 /**

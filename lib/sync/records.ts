@@ -41,7 +41,7 @@ export const sightingRecord = z
     sessionId: z.uuid().nullable(),
     taxonId: z.uuid().nullable(), // null: unidentified, then description is required
     description: text(2000),
-    count: z.number().int().min(1).max(1_000_000),
+    count: z.number().int().min(1), // the upper limit is a rule with its own reason (lib/sync/rules.ts MAX_COUNT)
     countIsEstimate: z.boolean(), // "about"
     observedAt: isoInstant,
     latitude: z.number().finite().min(-90).max(90),

@@ -260,6 +260,18 @@ describe("the sync data layer", () => {
     expect(await db().select().from(s.countSessions).where(eq(s.countSessions.id, never.id))).toHaveLength(0);
   });
 
+  it("refuses a sighting outside its session's times and a count above the limit, with the phone's own rules", async () => {
+    const sess = session(); // 08:00–08:30
+    const late = sighting({ sessionId: sess.id, observedAt: "2026-06-20T09:00:00Z" });
+    const huge = sighting({ count: 1_000_001 });
+    const outcomes = await ingest([sess], [late, huge]);
+    expect(outcomes.map((o) => (o.outcome === "refused" ? [o.code, o.field] : o.outcome))).toEqual([
+      "created",
+      ["outside_session", "observedAt"],
+      ["count_too_high", "count"],
+    ]);
+  });
+
   it("refuses every record for an event that is not open", async () => {
     const before = await countOf(s.sightings, f.user.id);
     await db().update(s.events).set({ status: "closed" }).where(eq(s.events.id, f.event.id));
