@@ -114,7 +114,12 @@ describe("field outbox", () => {
     const batch = await takeBatch(db, EVENT);
     await applyAcks(db, batch, [
       { kind: "session", id: sent.id, index: 0, outcome: "created" },
-      ...batch.sightings.map((x, index) => ({ kind: "sighting" as const, id: x.id, index, outcome: "created" as const })),
+      ...batch.sightings.map((x, index) => ({
+        kind: "sighting" as const,
+        id: x.id,
+        index,
+        outcome: "created" as const,
+      })),
     ]);
     expect(await cancelSession(db, sent.id)).toEqual({ detached: 1 });
     const after = await db.get("sessions", sent.id);
