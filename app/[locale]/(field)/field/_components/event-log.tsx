@@ -10,7 +10,7 @@ import type { KnownEvent, LocalSighting } from "@/lib/field/types";
 import { DeviceStateMark, ReviewStateMark } from "@/components/state-mark";
 import type { SyncStatus } from "./field-app";
 import { FieldMap } from "./field-map";
-import { SessionPanel } from "./session-panel";
+import { runningSession, SessionPanel } from "./session-panel";
 import { SightingForm } from "./sighting-form";
 import { useFieldData } from "./use-field-data";
 import { usePosition } from "./use-position";
@@ -39,7 +39,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
     () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale) : null),
     [data.pack, locale],
   );
-  const activeSession = data.sessions.find((s) => s.record.endedAt === null) ?? null;
+  const activeSession = runningSession(data.sessions);
   const zoneName = (id: string | null) => zones?.features.find((f) => f.id === id)?.properties.name ?? null;
 
   const outboxSessions = data.sessions.filter((s) => s.state !== "sent");
@@ -158,12 +158,12 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       <SessionPanel
         db={db}
         eventId={event.id}
+        timeZone={event.timeZone}
+        kinds={data.pack?.pack.event.sessionKinds ?? null}
         zones={zones}
         position={position}
-        session={activeSession}
-        sightingsInSession={
-          activeSession ? data.sightings.filter((s) => s.record.sessionId === activeSession.id).length : 0
-        }
+        sessions={data.sessions}
+        sightings={data.sightings}
         onSaved={saved}
       />
 
@@ -193,6 +193,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
                   <span className="font-bold">
                     {t(`sessionKind.${s.record.kind}`)}
                     {zoneName(s.record.zoneId) ? ` · ${zoneName(s.record.zoneId)}` : ""}
+                    {s.record.cancelled ? ` · ${t("session.cancelled")}` : ""}
                   </span>
                   <DeviceStateMark state={s.state} />
                 </div>
