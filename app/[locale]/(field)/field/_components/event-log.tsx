@@ -67,6 +67,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
         zones={zones}
         position={position}
         session={activeSession}
+        sessions={data.sessions}
+        pack={data.pack?.pack ?? null}
         editing={editing === "new" ? null : editing}
         onCancel={() => setEditing(null)}
         onSaved={saved}
