@@ -36,7 +36,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   const position = usePosition(true);
   const zones = data.pack?.pack.zones ?? null;
   const index = useMemo(
-    () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale) : null),
+    () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale, data.pack.pack.mostRecorded) : null),
     [data.pack, locale],
   );
   const activeSession = runningSession(data.sessions);
