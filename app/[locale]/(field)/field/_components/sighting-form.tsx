@@ -92,6 +92,7 @@ export function SightingForm({
   // A sent sighting edited otherwise is a correction: a new version for the server.
   const correcting = editing?.state === "sent" && !answering;
   const searchRef = useRef<HTMLInputElement>(null);
+  const barRef = useRef<HTMLDivElement>(null);
 
   useEffect(() => {
     void db.get("meta", USAGE).then((u) => setUsage((u as Usage | undefined) ?? {}));
@@ -206,6 +207,13 @@ export function SightingForm({
       noValidate
       onKeyDown={(e) => {
         if (e.key === "Escape") onCancel(); // Esc closes the form, as the desk's Esc closes its pane
+      }}
+      // The focused field is never left behind the fixed Save bar (scroll margins alone are not
+      // honoured by every browser's focus scrolling, nor when the on-screen keyboard opens).
+      onFocus={(e) => {
+        const bar = barRef.current?.getBoundingClientRect();
+        const field = (e.target as HTMLElement).getBoundingClientRect();
+        if (bar && field.bottom > bar.top - 8) window.scrollBy({ top: field.bottom - bar.top + 16 });
       }}
       onSubmit={(e) => {
         e.preventDefault();
@@ -544,7 +552,7 @@ export function SightingForm({
         </div>
       ) : null}
 
-      <div className="fixed inset-x-0 bottom-0 z-20 border-t-2 border-reed-800 bg-paper/95 p-3">
+      <div ref={barRef} className="fixed inset-x-0 bottom-0 z-20 border-t-2 border-reed-800 bg-paper/95 p-3">
         <div className="mx-auto flex max-w-xl gap-2">
           <button
             type="button"
