@@ -141,7 +141,8 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
   );
   const sessionOutcomes: StoreOutcome[] = [];
   const goodSessions = sessionsIn.filter(({ index, rec }) => {
-    const bad = judgeSession(rec, { kinds: event.sessionKinds, zoneIds: eventZones });
+    // A cancellation stores nothing of the session: it is taken whatever the event's kinds and zones are now.
+    const bad = rec.cancelled ? null : judgeSession(rec, { kinds: event.sessionKinds, zoneIds: eventZones });
     if (bad) sessionOutcomes.push(refused("session", index, rec.id, bad.code, bad.field, bad.values));
     return !bad;
   });

@@ -90,7 +90,8 @@ export function SessionPanel({ db, eventId, timeZone, kinds, zones, position, se
     await saveSession(db, eventId, {
       id: crypto.randomUUID(),
       zoneId: chosen,
-      kind,
+      // The event's own kinds only (the first of them when the default is not one).
+      kind: eventKinds(kinds).includes(kind) ? kind : eventKinds(kinds)[0]!,
       startedAt: new Date().toISOString(),
       endedAt: null,
       allSpeciesNoted: false,
