@@ -3,6 +3,7 @@ import { organisesAnything } from "@/db/queries/setup";
 import { getSessionUser } from "@/server/auth/guard";
 import { Link } from "@/lib/i18n/navigation";
 import { EcotoneMark } from "./ecotone-mark";
+import { HeaderMenu } from "./header-menu";
 import { LocaleSwitcher } from "./locale-switcher";
 import { SignOutButton } from "./sign-out-button";
 
@@ -17,39 +18,41 @@ export async function SiteHeader() {
   const link = "inline-flex min-h-touch items-center rounded-md px-2 font-semibold underline-offset-4 hover:underline";
   return (
     <header className="border-b-4 border-heath-400 bg-reed-800 text-paper">
-      <div className="mx-auto flex max-w-5xl flex-wrap items-center justify-between gap-x-3 gap-y-1 px-4 py-2">
+      <div className="mx-auto flex max-w-5xl flex-wrap items-center justify-between gap-x-3 gap-y-1 px-4 py-1 sm:py-2">
         <Link href="/" className="flex min-h-touch items-center gap-2 text-lg font-bold tracking-tight">
           <EcotoneMark />
           <span>{t("appName")}</span>
         </Link>
-        <nav aria-label={tNav("menu")} className="flex flex-wrap items-center gap-1">
-          <Link href="/" className={link}>
-            {tNav("events")}
-          </Link>
-          {user ? (
-            <>
-              {organiser ? (
-                <Link href="/setup" className={link}>
-                  {tNav("setup")}
-                </Link>
-              ) : null}
-              {/* A full page load, so the service worker can answer it without a network. */}
-              <a href={`/${locale}/field`} className={link}>
-                {tNav("fieldLog")}
-              </a>
-              <Link href="/account" className={link} title={user.email}>
-                {tNav("account")}
-              </Link>
-              <SignOutButton />
-            </>
-          ) : (
-            <Link href="/sign-in" className={link}>
-              {tNav("signIn")}
+        <nav aria-label={tNav("menu")} className="relative flex flex-wrap items-center gap-1">
+          <HeaderMenu label={tNav("menu")}>
+            <Link href="/" className={link}>
+              {tNav("events")}
             </Link>
-          )}
-          <div className="[&_select]:border-paper [&_select]:bg-reed-800 [&_select]:text-paper">
-            <LocaleSwitcher />
-          </div>
+            {user ? (
+              <>
+                {organiser ? (
+                  <Link href="/setup" className={link}>
+                    {tNav("setup")}
+                  </Link>
+                ) : null}
+                {/* A full page load, so the service worker can answer it without a network. */}
+                <a href={`/${locale}/field`} className={link}>
+                  {tNav("fieldLog")}
+                </a>
+                <Link href="/account" className={link} title={user.email}>
+                  {tNav("account")}
+                </Link>
+                <SignOutButton />
+              </>
+            ) : (
+              <Link href="/sign-in" className={link}>
+                {tNav("signIn")}
+              </Link>
+            )}
+            <div className="[&_select]:border-paper [&_select]:bg-reed-800 [&_select]:text-paper">
+              <LocaleSwitcher />
+            </div>
+          </HeaderMenu>
         </nav>
       </div>
     </header>

@@ -1,5 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
+import { GROUP_THRESHOLDS } from "@/lib/sync/rules";
 import type { Db } from "../client";
 
 // Automatic check marks (design.md, "Words"): hints for reviewers, computed here in SQL on
@@ -32,18 +33,9 @@ export const HIGH_COUNT_MIN_RECORDS = 10;
 export const HIGH_COUNT_FLOOR = 5;
 export const DUPLICATE_MINUTES = 10;
 export const DUPLICATE_METRES = 50;
-/** Counts above these are marked when a taxon has too few records at the event for quartiles: the project's own tunable choice, not a published or common figure. */
-// Every threshold is above HIGH_COUNT_FLOOR (a unit test checks), so counts at or below the floor need no statistics.
-export const GROUP_THRESHOLDS = {
-  birds: 50,
-  vascular_plants: 200,
-  insects: 100,
-  fungi: 50,
-  mammals: 10,
-  amphibians_reptiles: 30,
-  molluscs: 50,
-  other: 50,
-} as const;
+// The per-group thresholds (a fixed count per taxon group; every one above HIGH_COUNT_FLOOR, a
+// unit test checks) live with the sync rules, which the phone also reads (lib/sync/rules.ts).
+export { GROUP_THRESHOLDS };
 
 /** The database, or a transaction on it (anything that can run a statement). */
 export type Executor = Pick<Db, "execute">;

@@ -2,7 +2,7 @@ import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
 import type { ArealGeometry, EventPack } from "@/lib/sync/pack";
 import { getDb } from "../client";
-import { eventSpecies, events, taxa, taxonNames, zones } from "../schema";
+import { eventSpecies, events, sightings, taxa, taxonNames, zones } from "../schema";
 import { eventCountUnits } from "./results";
 import { DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/settings";
 
@@ -14,6 +14,9 @@ import { DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/settings";
 // (RFC 7946 section 3.1.6, hence ST_ForcePolygonCCW), and 7 decimals (about 1 cm; section
 // 11.2 says 6 is usually enough).
 const geoJson = (column: unknown) => sql<string>`ST_AsGeoJSON(ST_ForcePolygonCCW(${column}), 7)`;
+
+/** How many of the event's most-recorded taxa the pack names (about one screen of the search list). */
+const MOST_RECORDED = 8;
 
 export async function getEventPack(eventId: string): Promise<EventPack | null> {
   const db = getDb();
@@ -68,6 +71,19 @@ export async function getEventPack(eventId: string): Promise<EventPack | null> {
     .leftJoin(eventSpecies, sql`${eventSpecies.eventId} = ${eventId} AND ${eventSpecies.taxonId} = ${taxa.id}`)
     .orderBy(sql`${eventSpecies.taxonId} IS NULL`, asc(taxa.scientificName), asc(taxa.id));
 
+  // The species this event records most, for the search list before any typing (sensitive
+  // taxa left out: a ranking would say more about them than their place on the list).
+  const mostRecorded = await db
+    .select({ id: sightings.taxonId })
+    .from(sightings)
+    .innerJoin(taxa, eq(taxa.id, sightings.taxonId))
+    .where(
+      sql`${sightings.eventId} = ${eventId} AND ${sightings.reviewState} <> 'rejected' AND ${taxa.sensitivity} = 'open'`,
+    )
+    .groupBy(sightings.taxonId)
+    .orderBy(sql`count(*) DESC`, asc(sightings.taxonId))
+    .limit(MOST_RECORDED);
+
   return {
     event: {
       id: event.id,
@@ -101,5 +117,6 @@ export async function getEventPack(eventId: string): Promise<EventPack | null> {
       onList: r.onList,
       names: r.names ?? {},
     })),
+    mostRecorded: mostRecorded.flatMap((r) => (r.id ? [r.id] : [])),
   };
 }

@@ -4,6 +4,7 @@ import type { RecordOutcome, RecordRef, RefusalCode } from "@/lib/sync/acks";
 import type { ReviewState, SessionRecord, SightingRecord } from "@/lib/sync/records";
 import { getDb, type Db } from "../client";
 import { reviewOpen } from "@/lib/time/review-period";
+import { judgeSession, judgeSighting, outsideSession } from "@/lib/sync/rules";
 import { countSessions, events, reviews, sightingVersions, sightings, taxa, zones } from "../schema";
 import { refreshCheckMarks } from "./check-marks";
 
@@ -30,10 +31,6 @@ export type IngestInput = {
   sightings: Indexed<SightingRecord>[];
   now?: Date;
 };
-
-// A device clock a little ahead of the server's is normal; a time far ahead is a mistake.
-// 10 minutes is common practice for clock skew, not a published figure.
-const FUTURE_SKEW_MS = 10 * 60_000;
 
 // `real` columns hold single-precision floats: compare at that precision.
 const sameReal = (a: number | null, b: number | null) =>
@@ -144,8 +141,9 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
   );
   const sessionOutcomes: StoreOutcome[] = [];
   const goodSessions = sessionsIn.filter(({ index, rec }) => {
-    const bad = judgeSession(rec, event.sessionKinds, eventZones);
-    if (bad) sessionOutcomes.push(refused("session", index, rec.id, bad[0], bad[1]));
+    // A cancellation stores nothing of the session: it is taken whatever the event's kinds and zones are now.
+    const bad = rec.cancelled ? null : judgeSession(rec, { kinds: event.sessionKinds, zoneIds: eventZones });
+    if (bad) sessionOutcomes.push(refused("session", index, rec.id, bad.code, bad.field, bad.values));
     return !bad;
   });
 
@@ -157,8 +155,8 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
       : [],
   );
   const goodSightings = sightingsIn.filter(({ index, rec }) => {
-    const bad = judgeSighting(rec, knownTaxa, now);
-    if (bad) sightingOutcomes.push(refused("sighting", index, rec.id, bad[0], bad[1]));
+    const bad = judgeSighting(rec, { now: now.getTime(), knownTaxa });
+    if (bad) sightingOutcomes.push(refused("sighting", index, rec.id, bad.code, bad.field, bad.values));
     return !bad;
   });
 
@@ -167,11 +165,11 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
     sessionOutcomes.push(...(await storeSessions(tx, input, goodSessions, mayCreate)));
     // The session a sighting names must be the same person's, at the same event (maybe sent just above).
     const named = [...new Set(goodSightings.map((s) => s.rec.sessionId).filter((x): x is string => x !== null))];
-    const ownSessions = new Set(
+    const ownSessions = new Map(
       named.length
         ? (
             await tx
-              .select({ id: countSessions.id })
+              .select({ id: countSessions.id, startedAt: countSessions.startedAt, endedAt: countSessions.endedAt })
               .from(countSessions)
               .where(
                 and(
@@ -180,35 +178,22 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
                   eq(countSessions.eventId, input.eventId),
                 ),
               )
-          ).map((r) => r.id)
+          ).map((r) => [r.id, r] as const)
         : [],
     );
     const storable = goodSightings.filter(({ index, rec }) => {
-      if (rec.sessionId === null || ownSessions.has(rec.sessionId)) return true;
-      sightingOutcomes.push(refused("sighting", index, rec.id, "unknown_session", "sessionId"));
-      return false;
+      if (rec.sessionId === null) return true;
+      const own = ownSessions.get(rec.sessionId);
+      if (!own) sightingOutcomes.push(refused("sighting", index, rec.id, "unknown_session", "sessionId"));
+      else if (outsideSession(rec.observedAt, own))
+        sightingOutcomes.push(refused("sighting", index, rec.id, "outside_session", "observedAt"));
+      return own && !outsideSession(rec.observedAt, own);
     });
     sightingOutcomes.push(...(await storeSightings(tx, input, storable, mayCreate, now)));
   });
 
   const byIndex = (a: StoreOutcome, b: StoreOutcome) => a.index - b.index;
   return [...sessionOutcomes.sort(byIndex), ...sightingOutcomes.sort(byIndex)];
-}
-
-function judgeSession(rec: SessionRecord, kinds: string[], eventZones: Set<string>): [RefusalCode, string] | null {
-  if (!kinds.includes(rec.kind)) return ["kind_not_allowed", "kind"];
-  if (rec.zoneId !== null && !eventZones.has(rec.zoneId)) return ["unknown_zone", "zoneId"];
-  if (rec.endedAt !== null && Date.parse(rec.endedAt) <= Date.parse(rec.startedAt))
-    return ["ends_before_start", "endedAt"];
-  if (rec.allSpeciesNoted && rec.endedAt === null) return ["complete_needs_end", "allSpeciesNoted"];
-  return null;
-}
-
-function judgeSighting(rec: SightingRecord, knownTaxa: Set<string>, now: Date): [RefusalCode, string] | null {
-  if (rec.taxonId === null && rec.description.trim() === "") return ["description_required", "description"];
-  if (Date.parse(rec.observedAt) > now.getTime() + FUTURE_SKEW_MS) return ["future_time", "observedAt"];
-  if (rec.taxonId !== null && !knownTaxa.has(rec.taxonId)) return ["unknown_taxon", "taxonId"];
-  return null;
 }
 
 /**
@@ -258,7 +243,9 @@ async function storeSessions(
     distanceM: r.distanceM,
     notes: r.notes,
   });
-  const { inserted, failed } = await insertEach(tx, mayCreate ? good.map((g) => g.rec) : [], async (sp, rows) =>
+  // A cancelled session is never created: there is nothing to cancel when the server never had it.
+  const creatable = mayCreate ? good.filter((g) => !g.rec.cancelled).map((g) => g.rec) : [];
+  const { inserted, failed } = await insertEach(tx, creatable, async (sp, rows) =>
     (
       await sp
         .insert(countSessions)
@@ -296,6 +283,10 @@ async function storeSessions(
     }
     const row =
       existing.get(rec.id) ?? (await tx.select().from(countSessions).where(eq(countSessions.id, rec.id)).limit(1))[0];
+    if (rec.cancelled) {
+      acks.push(await cancelSession(tx, input, index, rec.id, row));
+      continue;
+    }
     if (!row && !mayCreate) {
       acks.push(refused("session", index, rec.id, "event_not_open", "eventId"));
       continue;
@@ -327,6 +318,36 @@ async function storeSessions(
     }
   }
   return acks;
+}
+
+/**
+ * A session cancelled by its volunteer goes; its sightings stay, outside any session (they
+ * were seen all the same, only not as part of a sampling unit). Resent after it went, it
+ * changes nothing.
+ */
+async function cancelSession(
+  tx: Tx,
+  input: IngestInput,
+  index: number,
+  id: string,
+  row: { userId: string; eventId: string } | undefined,
+): Promise<StoreOutcome> {
+  if (!row) return { kind: "session", id, index, outcome: "already_had" };
+  if (row.userId !== input.userId || row.eventId !== input.eventId)
+    return refused("session", index, id, "id_taken", "id");
+  try {
+    await tx.transaction(async (sp) => {
+      await sp
+        .update(sightings)
+        .set({ sessionId: null, updatedAt: new Date() })
+        .where(and(eq(sightings.sessionId, id), eq(sightings.userId, input.userId)));
+      await sp.delete(countSessions).where(eq(countSessions.id, id));
+    });
+    return { kind: "session", id, index, outcome: "updated" };
+  } catch (err) {
+    console.error("[sync] session not cancelled", id, (err as Error).message);
+    return refused("session", index, id, "store_failed", "(record)");
+  }
 }
 
 async function storeSightings(

@@ -16,6 +16,10 @@ export const DEMO_EVENT = {
   endsAt: new Date("2026-06-22T05:00:00Z"),
   languages: ["en", "es", "fr"],
   status: "closed" as const,
+  // Closed for new records, but the organiser keeps review open until the next midsummer count
+  // (the default would have closed it 30 days after the end): the demo's returned records can
+  // still be answered and corrected, and the desk still has work (design.md "review period").
+  reviewClosesAt: new Date("2027-06-19T05:00:00Z"),
   joinCode: "HARROW-MIDSUMMER",
   accuracyLimitM: 50,
 };

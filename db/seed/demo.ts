@@ -40,6 +40,7 @@ type DemoEvent = Pick<
   | "languages"
   | "joinCode"
   | "accuracyLimitM"
+  | "reviewClosesAt"
 >;
 type EventZone = Pick<DemoZone, "key" | "name" | "habitat" | "description" | "ring">;
 
@@ -129,6 +130,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
           area: area ? polygonSql(area) : undefined,
           joinCode: e.joinCode,
           accuracyLimitM: e.accuracyLimitM,
+          reviewClosesAt: e.reviewClosesAt ?? null,
         })
         .onConflictDoNothing();
       const zoneIds = new Map<string, string>();

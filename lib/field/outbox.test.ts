@@ -5,6 +5,7 @@ import type { SightingRecord } from "@/lib/sync/records";
 import { openFieldDb } from "./db";
 import {
   applyAcks,
+  cancelSession,
   deleteUnsent,
   eventRecords,
   InvalidRecord,
@@ -87,6 +88,48 @@ describe("field outbox", () => {
     expect(sent?.reviewState).toBe("pending");
     const again = await takeBatch(db, EVENT);
     expect(again.sightings).toHaveLength(0);
+  });
+
+  it("cancels a session: its sightings lose the session; an unsent one goes, a sent one goes out cancelled", async () => {
+    const db = await freshDb();
+    const base = {
+      zoneId: null,
+      kind: "timed_count" as const,
+      startedAt: "2026-12-02T09:00:00Z",
+      endedAt: null,
+      allSpeciesNoted: false,
+      distanceM: null,
+      notes: "",
+    };
+    // Never sent: it simply goes, and its waiting sighting will be sent without it.
+    const unsent = await saveSession(db, EVENT, { ...base, id: randomUUID() });
+    const a = await saveSighting(db, EVENT, sighting({ sessionId: unsent.id }), "Mallard");
+    expect(await cancelSession(db, unsent.id)).toEqual({ detached: 1 });
+    expect(await db.get("sessions", unsent.id)).toBeUndefined();
+    expect((await db.get("sightings", a.id))?.record.sessionId).toBeNull();
+
+    // Sent with a sent sighting: the session goes out again, cancelled; the sighting is not resent.
+    const sent = await saveSession(db, EVENT, { ...base, id: randomUUID() });
+    const b = await saveSighting(db, EVENT, sighting({ sessionId: sent.id }), "Grey heron");
+    const batch = await takeBatch(db, EVENT);
+    await applyAcks(db, batch, [
+      { kind: "session", id: sent.id, index: 0, outcome: "created" },
+      ...batch.sightings.map((x, index) => ({
+        kind: "sighting" as const,
+        id: x.id,
+        index,
+        outcome: "created" as const,
+      })),
+    ]);
+    expect(await cancelSession(db, sent.id)).toEqual({ detached: 1 });
+    const after = await db.get("sessions", sent.id);
+    expect(after).toMatchObject({ state: "waiting", record: { cancelled: true } });
+    expect(await db.get("sightings", b.id)).toMatchObject({ state: "sent", record: { sessionId: null } });
+    const next = await takeBatch(db, EVENT);
+    expect(next.sessions.map((x) => x.id)).toEqual([sent.id]);
+    expect(next.sightings).toHaveLength(0);
+    // Cancelling twice does nothing more.
+    expect(await cancelSession(db, sent.id)).toBeNull();
   });
 
   it("keeps a refused record visible with its reason, and sends the rest", async () => {

@@ -103,6 +103,46 @@ export async function saveSighting(
 }
 
 /**
+ * Cancels a count session: its sightings on the phone become sightings outside a session,
+ * in the same transaction. A session the server never had simply goes; one it has goes out
+ * again marked cancelled (the server then detaches the sightings it holds, too). A waiting
+ * sighting is sent without the session; a sent one is not sent again for this.
+ */
+export async function cancelSession(db: FieldDatabase, id: string): Promise<{ detached: number } | null> {
+  const tx = db.transaction(["sessions", "sightings"], "readwrite");
+  const sessions = tx.objectStore("sessions");
+  const before = await sessions.get(id);
+  if (!before || before.record.cancelled) {
+    await tx.done;
+    return null;
+  }
+  let detached = 0;
+  const sightingStore = tx.objectStore("sightings");
+  for (const s of await sightingStore.index("byEvent").getAll(before.eventId)) {
+    if (s.record.sessionId !== id) continue;
+    detached++;
+    const record = { ...s.record, sessionId: null };
+    // A sent sighting changes only here (the server detaches its copy); anything else is sent as it is now.
+    await sightingStore.put(s.state === "sent" ? { ...s, record } : { ...s, record, rev: s.rev + 1 });
+  }
+  if (!before.sentAt && before.state !== "sending") await sessions.delete(id);
+  else
+    await sessions.put({
+      ...before,
+      record: { ...before.record, cancelled: true },
+      state: "waiting",
+      rev: before.rev + 1,
+      attempts: 0,
+      nextTryAt: 0,
+      problem: undefined,
+      reason: undefined,
+      field: undefined,
+    });
+  await tx.done;
+  return { detached };
+}
+
+/**
  * Withdraws a sent sighting (pending or returned): the record goes out again with a
  * withdrawal of the version the server last said it had; the server takes it out of review
  * and of the results.

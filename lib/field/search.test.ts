@@ -57,4 +57,15 @@ describe("offline species search", () => {
     expect(before[0]?.scientificName).not.toBe(after[0]?.scientificName);
     expect(after.length).toBe(before.length);
   });
+
+  it("before any typing, shows the person's recent species, then the event's most recorded, then the rest", () => {
+    const popular = [idOf("Falco tinnunculus"), idOf("Ardea cinerea"), idOf("Erithacus rubecula")];
+    const en = buildSpeciesIndex(species, "en", popular);
+    const usage = recordUsage({}, idOf("Ardea cinerea"));
+    const list = en.search("", usage).map((h) => h.scientificName);
+    expect(list.slice(0, 3)).toEqual(["Ardea cinerea", "Falco tinnunculus", "Erithacus rubecula"]);
+    expect(new Set(list).size).toBe(list.length); // nobody twice
+    // Typing searches as before: the matches, whatever is popular.
+    expect(en.search("mallard", usage)[0]?.scientificName).toBe("Anas platyrhynchos");
+  });
 });

@@ -44,7 +44,11 @@ export function usageScore(u: { n: number; last: number } | undefined, now = Dat
   return Math.log2(1 + u.n) + 2 / (1 + ageDays);
 }
 
-export function buildSpeciesIndex(species: PackSpecies[], locale: string): SpeciesIndex {
+/**
+ * `mostRecorded`: the event's most-recorded taxa (the pack's list), shown after the person's
+ * own recent ones before any typing.
+ */
+export function buildSpeciesIndex(species: PackSpecies[], locale: string, mostRecorded: string[] = []): SpeciesIndex {
   const byId = new Map(species.map((s) => [s.id, s]));
   const hit = (s: PackSpecies): SpeciesHit => ({
     taxonId: s.id,
@@ -91,12 +95,17 @@ export function buildSpeciesIndex(species: PackSpecies[], locale: string): Speci
       const q = query.trim();
       const now = Date.now();
       if (!q) {
-        // No query: the person's recent and frequent species, then the list A–Z.
+        // No query: the person's recent and frequent species, then this event's most recorded, then the list A–Z.
         const used = species
           .filter((s) => usage[s.id])
           .sort((a, b) => usageScore(usage[b.id], now) - usageScore(usage[a.id], now));
-        const rest = alphabetical.filter((s) => !usage[s.id]);
-        return [...used, ...rest].slice(0, limit).map(hit);
+        const popular = mostRecorded.flatMap((id) => {
+          const s = byId.get(id);
+          return s && !usage[id] ? [s] : [];
+        });
+        const first = new Set([...used, ...popular].map((s) => s.id));
+        const rest = alphabetical.filter((s) => !first.has(s.id));
+        return [...used, ...popular, ...rest].slice(0, limit).map(hit);
       }
       let results = mini.search(q, { boostDocument: (id) => 1 + usageScore(usage[String(id)], now) / 2 });
       if (results.length === 0)

@@ -9,6 +9,7 @@ export type SyncOutcome = "created" | "already_had" | "updated" | "refused";
 /**
  * Why the server refused one record. The data layer (db/queries/sync.ts) answers with these
  * codes; the handler translates each into FieldSync.reason.<code> in the person's language.
+ * The phone judges by the same rules at save (lib/sync/rules.ts) and shows the same text.
  */
 export const REFUSAL_CODES = [
   "event_not_open",
@@ -20,6 +21,8 @@ export const REFUSAL_CODES = [
   "unknown_session",
   "description_required",
   "future_time",
+  "count_too_high",
+  "outside_session",
   "id_taken",
   "changed_after_send",
   "not_returned",

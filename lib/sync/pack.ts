@@ -40,4 +40,9 @@ export type EventPack = {
   };
   zones: ZoneCollection;
   species: PackSpecies[];
+  /**
+   * This event's most-recorded taxa (ids, most first: non-rejected sightings by everyone), for
+   * the species search before any typing. Open taxa only. Packs stored before it was added lack it.
+   */
+  mostRecorded?: string[];
 };

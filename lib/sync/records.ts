@@ -28,6 +28,9 @@ export const sessionRecord = z
     allSpeciesNoted: z.boolean(), // the full-list answer ("Is this session's list full?"); true only once ended
     distanceM: z.number().finite().min(0).max(100_000).nullable(), // walks
     notes: text(2000),
+    // Cancelled by its volunteer: the server removes the session and keeps its sightings,
+    // outside any session. A cancelled session that never reached the server is not sent.
+    cancelled: z.boolean().optional(),
   })
   .strict();
 export type SessionRecord = z.infer<typeof sessionRecord>;
@@ -38,7 +41,7 @@ export const sightingRecord = z
     sessionId: z.uuid().nullable(),
     taxonId: z.uuid().nullable(), // null: unidentified, then description is required
     description: text(2000),
-    count: z.number().int().min(1).max(1_000_000),
+    count: z.number().int().min(1), // the upper limit is a rule with its own reason (lib/sync/rules.ts MAX_COUNT)
     countIsEstimate: z.boolean(), // "about"
     observedAt: isoInstant,
     latitude: z.number().finite().min(-90).max(90),

@@ -174,7 +174,10 @@ function makeDevice(n: number, cookie: string, ctx: Awaited<ReturnType<typeof pr
       description: "",
       count: 1 + Math.floor(random() * 6),
       countIsEstimate: random() < 0.1,
-      observedAt: new Date(start + i * 120_000).toISOString(),
+      // A session's sightings fall within its half hour (the server refuses others, lib/sync/rules.ts).
+      observedAt: new Date(
+        inSession ? Date.parse(String(inSession.startedAt)) + i * 60_000 : start + i * 120_000,
+      ).toISOString(),
       latitude: 51.705 + random() * 0.05,
       longitude: lon,
       accuracyM: 5 + Math.round(random() * 20),

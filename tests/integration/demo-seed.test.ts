@@ -1,9 +1,10 @@
-import { sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import * as schema from "@/db/schema";
 import { seedDemo } from "@/db/seed/demo";
 import { DEMO_EVENT } from "@/db/seed/demo-scenario";
 import { REVIEW_CASES, reviewCaseId } from "@/db/seed/review-cases";
+import { reviewOpen } from "@/lib/time/review-period";
 import { db } from "./helpers";
 
 describe("demo scenario seed", () => {
@@ -55,6 +56,14 @@ describe("demo scenario seed", () => {
       FROM sightings s JOIN zones z ON z.id = s.zone_id JOIN events e ON e.id = s.event_id
       WHERE e.slug = ${DEMO_EVENT.slug} AND NOT s.id = ANY(${`{${crafted.join(",")}}`}::uuid[]) GROUP BY e.id`);
     expect(rows[0]).toEqual({ outside_zone: 0, outside_area: 0, outside_time: 0, zones_outside_area: 0 });
+  });
+
+  it("keeps the closed event's review open until the next midsummer, so its returned records can be answered", async () => {
+    await seedDemo(db() as never);
+    const [event] = await db().select().from(schema.events).where(eq(schema.events.slug, DEMO_EVENT.slug));
+    expect(event!.status).toBe("closed");
+    expect(reviewOpen(event!, new Date("2026-12-03T12:00:00Z"))).toBe(true);
+    expect(reviewOpen(event!, new Date("2027-06-20T12:00:00Z"))).toBe(false);
   });
 
   it("keeps each sighting's state in step with its latest review decision", async () => {

@@ -102,6 +102,38 @@ describe("the event pack", () => {
     expect(changed.headers.get("etag")).not.toBe(etag);
   });
 
+  it("names the event's most-recorded open taxa, most first, leaving out rejected records and sensitive taxa", async () => {
+    const [other] = (await db()
+      .insert(s.taxa)
+      .values({ scientificName: "Secondus packi", taxonGroup: "birds" })
+      .returning()) as [typeof s.taxa.$inferSelect];
+    const at = (taxonId: string, reviewState: "pending" | "rejected" = "pending") => ({
+      id: crypto.randomUUID(),
+      eventId: f.event.id,
+      userId: f.user.id,
+      taxonId,
+      count: 1,
+      observedAt: new Date("2026-06-20T08:00:00Z"),
+      location: { longitude: 0.2, latitude: 0.2 },
+      accuracyM: 5,
+      reviewState,
+    });
+    await db()
+      .insert(s.sightings)
+      .values([
+        at(f.taxon.id),
+        at(other!.id),
+        at(other!.id),
+        at(f.taxon.id, "rejected"),
+        at(f.taxon.id, "rejected"),
+        at(offList.id),
+        at(offList.id),
+        at(offList.id),
+      ]);
+    const pack = (await getEventPack(f.event.id))!;
+    expect(pack.mostRecorded).toEqual([other!.id, f.taxon.id]);
+  });
+
   it("is null for an unknown event", async () => {
     expect(await getEventPack(crypto.randomUUID())).toBeNull();
   });

@@ -209,6 +209,69 @@ describe("the sync data layer", () => {
     }
   });
 
+  it("stores an edited session (kind, zone, times, distance) as its owner sent it", async () => {
+    const first = session({ endedAt: null, allSpeciesNoted: false });
+    expect((await ingest([first], []))[0]!.outcome).toBe("created");
+    const edited = {
+      ...first,
+      kind: "walk" as const,
+      zoneId: wetZone.id,
+      startedAt: "2026-06-20T07:45:00Z",
+      endedAt: "2026-06-20T08:50:00Z",
+      distanceM: 1234,
+      allSpeciesNoted: true,
+    };
+    expect((await ingest([edited], []))[0]!.outcome).toBe("updated");
+    const [row] = await db().select().from(s.countSessions).where(eq(s.countSessions.id, first.id));
+    expect(row).toMatchObject({ kind: "walk", zoneId: wetZone.id, distanceM: 1234, allSpeciesNoted: true });
+    expect(row!.startedAt.toISOString()).toBe("2026-06-20T07:45:00.000Z");
+    expect(row!.endedAt!.toISOString()).toBe("2026-06-20T08:50:00.000Z");
+    // Resent as it is, nothing changes.
+    expect((await ingest([edited], []))[0]!.outcome).toBe("already_had");
+  });
+
+  it("cancels a session: the session goes, its sightings stay without a session; resent, nothing changes", async () => {
+    const sess = session();
+    const inside = [sighting({ sessionId: sess.id }), sighting({ sessionId: sess.id, count: 4 })];
+    const outcomes = await ingest([sess], inside);
+    expect(outcomes.map((o) => o.outcome)).toEqual(["created", "created", "created"]);
+
+    // Another person cannot cancel it.
+    expect((await ingest([{ ...sess, cancelled: true }], [], other.id))[0]).toMatchObject({
+      outcome: "refused",
+      code: "id_taken",
+    });
+
+    expect((await ingest([{ ...sess, cancelled: true }], []))[0]!.outcome).toBe("updated");
+    expect(await db().select().from(s.countSessions).where(eq(s.countSessions.id, sess.id))).toHaveLength(0);
+    for (const rec of inside) {
+      const [row] = await db().select().from(s.sightings).where(eq(s.sightings.id, rec.id));
+      expect(row).toMatchObject({ sessionId: null, count: rec.count, reviewState: "pending" });
+    }
+    // The same cancellation resent, and the sightings resent as the phone now has them.
+    const again = await ingest(
+      [{ ...sess, cancelled: true }],
+      inside.map((r) => ({ ...r, sessionId: null })),
+    );
+    expect(again.map((o) => o.outcome)).toEqual(["already_had", "already_had", "already_had"]);
+    // A cancelled session the server never had is not created.
+    const never = session();
+    expect((await ingest([{ ...never, cancelled: true }], []))[0]!.outcome).toBe("already_had");
+    expect(await db().select().from(s.countSessions).where(eq(s.countSessions.id, never.id))).toHaveLength(0);
+  });
+
+  it("refuses a sighting outside its session's times and a count above the limit, with the phone's own rules", async () => {
+    const sess = session(); // 08:00–08:30
+    const late = sighting({ sessionId: sess.id, observedAt: "2026-06-20T09:00:00Z" });
+    const huge = sighting({ count: 1_000_001 });
+    const outcomes = await ingest([sess], [late, huge]);
+    expect(outcomes.map((o) => (o.outcome === "refused" ? [o.code, o.field] : o.outcome))).toEqual([
+      "created",
+      ["outside_session", "observedAt"],
+      ["count_too_high", "count"],
+    ]);
+  });
+
   it("refuses every record for an event that is not open", async () => {
     const before = await countOf(s.sightings, f.user.id);
     await db().update(s.events).set({ status: "closed" }).where(eq(s.events.id, f.event.id));

@@ -10,7 +10,7 @@ import type { KnownEvent, LocalSighting } from "@/lib/field/types";
 import { DeviceStateMark, ReviewStateMark } from "@/components/state-mark";
 import type { SyncStatus } from "./field-app";
 import { FieldMap } from "./field-map";
-import { SessionPanel } from "./session-panel";
+import { runningSession, SessionPanel } from "./session-panel";
 import { SightingForm } from "./sighting-form";
 import { useFieldData } from "./use-field-data";
 import { usePosition } from "./use-position";
@@ -36,10 +36,10 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   const position = usePosition(true);
   const zones = data.pack?.pack.zones ?? null;
   const index = useMemo(
-    () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale) : null),
+    () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale, data.pack.pack.mostRecorded) : null),
     [data.pack, locale],
   );
-  const activeSession = data.sessions.find((s) => s.record.endedAt === null) ?? null;
+  const activeSession = runningSession(data.sessions);
   const zoneName = (id: string | null) => zones?.features.find((f) => f.id === id)?.properties.name ?? null;
 
   const outboxSessions = data.sessions.filter((s) => s.state !== "sent");
@@ -67,6 +67,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
         zones={zones}
         position={position}
         session={activeSession}
+        sessions={data.sessions}
+        pack={data.pack?.pack ?? null}
         editing={editing === "new" ? null : editing}
         onCancel={() => setEditing(null)}
         onSaved={saved}
@@ -158,12 +160,12 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
       <SessionPanel
         db={db}
         eventId={event.id}
+        timeZone={event.timeZone}
+        kinds={data.pack?.pack.event.sessionKinds ?? null}
         zones={zones}
         position={position}
-        session={activeSession}
-        sightingsInSession={
-          activeSession ? data.sightings.filter((s) => s.record.sessionId === activeSession.id).length : 0
-        }
+        sessions={data.sessions}
+        sightings={data.sightings}
         onSaved={saved}
       />
 
@@ -193,6 +195,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
                   <span className="font-bold">
                     {t(`sessionKind.${s.record.kind}`)}
                     {zoneName(s.record.zoneId) ? ` · ${zoneName(s.record.zoneId)}` : ""}
+                    {s.record.cancelled ? ` · ${t("session.cancelled")}` : ""}
                   </span>
                   <DeviceStateMark state={s.state} />
                 </div>

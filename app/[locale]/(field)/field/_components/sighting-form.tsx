@@ -7,7 +7,8 @@ import type { FieldDatabase } from "@/lib/field/db";
 import { InvalidRecord, saveSighting } from "@/lib/field/outbox";
 import { preparePhoto, type PreparedPhoto } from "@/lib/field/photo";
 import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/lib/field/search";
-import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
+import type { EventPack, LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
+import { GROUP_THRESHOLDS, judgeSighting, sightingCautions, type Caution } from "@/lib/sync/rules";
 import { zoneAt } from "@/lib/field/zones";
 import { utcToZonedLocal, zonedLocalToUtc } from "@/lib/time/zoned";
 import { RealMap } from "@/components/map/real-map";
@@ -21,6 +22,8 @@ type Props = {
   zones: ZoneCollection | null;
   position: PositionState;
   session: LocalSession | null;
+  sessions: LocalSession[]; // all of the person's sessions here: a sighting is judged against its own session's times
+  pack: EventPack | null; // the event's dates and area, and the species' groups, for the checks at save
   editing: LocalSighting | null;
   onCancel: () => void;
   onSaved: () => void;
@@ -34,8 +37,13 @@ const input =
   "block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg text-ink aria-[invalid=true]:border-signal";
 const label = "block text-lg font-bold";
 
-// The server's allowance for a phone clock ahead of its own (db/queries/sync.ts FUTURE_SKEW_MS).
-const FUTURE_SKEW_MS = 10 * 60_000;
+// Where a rule's refusal shows in the form (the rule names the record's field).
+const FIELD_OF: Record<string, keyof Errors> = {
+  observedAt: "time",
+  count: "count",
+  description: "description",
+  taxonId: "species",
+};
 
 /** Adding (or editing, or answering) a sighting in a few taps. */
 export function SightingForm({
@@ -46,12 +54,15 @@ export function SightingForm({
   zones,
   position,
   session,
+  sessions,
+  pack,
   editing,
   onCancel,
   onSaved,
 }: Props) {
   const t = useTranslations("FieldLog");
   const tSync = useTranslations("FieldSync");
+  const tDesk = useTranslations("ReviewDesk");
   const prior = editing?.record;
   const [query, setQuery] = useState("");
   const [usage, setUsage] = useState<Usage>({});
@@ -75,10 +86,13 @@ export function SightingForm({
   const [photoBusy, setPhotoBusy] = useState(false);
   const [errors, setErrors] = useState<Errors>({});
   const [saving, setSaving] = useState(false);
+  // Check marks the phone already sees, said once before saving; the same set again saves.
+  const [cautions, setCautions] = useState<Caution[]>([]);
   const answering = editing?.state === "sent" && editing.reviewState === "returned";
   // A sent sighting edited otherwise is a correction: a new version for the server.
   const correcting = editing?.state === "sent" && !answering;
   const searchRef = useRef<HTMLInputElement>(null);
+  const barRef = useRef<HTMLDivElement>(null);
 
   useEffect(() => {
     void db.get("meta", USAGE).then((u) => setUsage((u as Usage | undefined) ?? {}));
@@ -120,7 +134,6 @@ export function SightingForm({
       // not a date-time: reported just below
     }
     if (Number.isNaN(observed.getTime())) next.time = t("errors.time");
-    else if (observed.getTime() > Date.now() + FUTURE_SKEW_MS) next.time = tSync("reason.future_time");
     if (answering && !answer.trim()) next.answer = t("errors.answer");
     setErrors(next);
     if (Object.keys(next).length > 0 || !where) return;
@@ -146,6 +159,26 @@ export function SightingForm({
           ? { correction: prior.correction }
           : {}),
     };
+    // The server's own rules, at save, before anything is queued: the same reason it would answer.
+    const own = sessions.find((x) => x.id === record.sessionId) ?? null;
+    const refusal = judgeSighting(record, { now: Date.now(), knownTaxa: null, session: own?.record ?? null });
+    if (refusal) {
+      setErrors({ [FIELD_OF[refusal.field] ?? "form"]: tSync(`reason.${refusal.code}`, refusal.values ?? {}) });
+      return;
+    }
+    if (pack) {
+      const group = pack.species.find((x) => x.id === record.taxonId)?.taxonGroup;
+      const found = sightingCautions(record, {
+        startsAt: pack.event.startsAt,
+        endsAt: pack.event.endsAt,
+        area: pack.event.area,
+        highCountAbove: group ? GROUP_THRESHOLDS[group] : null,
+      });
+      if (found.length && found.join() !== cautions.join()) {
+        setCautions(found);
+        return;
+      }
+    }
     setSaving(true);
     try {
       await saveSighting(
@@ -174,6 +207,13 @@ export function SightingForm({
       noValidate
       onKeyDown={(e) => {
         if (e.key === "Escape") onCancel(); // Esc closes the form, as the desk's Esc closes its pane
+      }}
+      // The focused field is never left behind the fixed Save bar (scroll margins alone are not
+      // honoured by every browser's focus scrolling, nor when the on-screen keyboard opens).
+      onFocus={(e) => {
+        const bar = barRef.current?.getBoundingClientRect();
+        const field = (e.target as HTMLElement).getBoundingClientRect();
+        if (bar && field.bottom > bar.top - 8) window.scrollBy({ top: field.bottom - bar.top + 16 });
       }}
       onSubmit={(e) => {
         e.preventDefault();
@@ -497,8 +537,22 @@ export function SightingForm({
           ✕ {errors.form}
         </p>
       ) : null}
+      {cautions.length ? (
+        <div role="alert" className="space-y-1 rounded-lg border-2 border-heath-700 bg-heath-50 p-3 text-heath-900">
+          <p className="font-bold">
+            <span aria-hidden="true">⚠ </span>
+            {t("caution.intro")}
+          </p>
+          <ul className="list-disc ps-6">
+            {cautions.map((c) => (
+              <li key={c}>{tDesk(`marks.${c}`)}</li>
+            ))}
+          </ul>
+          <p>{t("caution.hint")}</p>
+        </div>
+      ) : null}
 
-      <div className="fixed inset-x-0 bottom-0 z-20 border-t-2 border-reed-800 bg-paper/95 p-3">
+      <div ref={barRef} className="fixed inset-x-0 bottom-0 z-20 border-t-2 border-reed-800 bg-paper/95 p-3">
         <div className="mx-auto flex max-w-xl gap-2">
           <button
             type="button"
@@ -512,7 +566,7 @@ export function SightingForm({
             disabled={saving || photoBusy}
             className="inline-flex min-h-[56px] flex-1 items-center justify-center rounded-xl bg-reed-700 px-5 text-lg font-bold text-paper disabled:opacity-60"
           >
-            {answering ? t("sendAnswer") : t("save")}
+            {cautions.length ? t("caution.saveAnyway") : answering ? t("sendAnswer") : t("save")}
           </button>
         </div>
       </div>
