@@ -5,7 +5,7 @@
 //   npx tsx scripts/bench-lighthouse.mts        (after `npx next build`)
 // BENCH_PORT (default 3190) and ECOTONE_PG_PORT move the server and the database.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { existsSync } from "node:fs";
+import { existsSync, statSync } from "node:fs";
 import path from "node:path";
 import * as chromeLauncher from "chrome-launcher";
 import lighthouse from "lighthouse";
@@ -181,6 +181,16 @@ try {
       note: "compressed bytes of every script the first visit loads",
     },
   );
+  // The service worker as built (public/sw.js: the bundle plus Workbox's precache list).
+  const swKB = statSync(path.join(process.cwd(), "public/sw.js")).size / 1000;
+  console.log(`  service worker public/sw.js ${swKB.toFixed(1)} KB`);
+  rows.push({
+    part: "lighthouse",
+    figure: "service worker file (public/sw.js, uncompressed)",
+    value: `${swKB.toFixed(1)} KB`,
+    target: "≤ 100 KB",
+    met: swKB <= 100,
+  });
 
   // The public report page: the demo organiser publishes the demo event's results through
   // the publish handler, then an anonymous visitor's first load is measured.

@@ -8,16 +8,14 @@ import {
   cancelSession,
   deleteUnsent,
   eventRecords,
-  InvalidRecord,
   makeDueNow,
   refuseBatch,
   releaseBatch,
   resetInFlight,
-  saveSession,
-  saveSighting,
   takeBatch,
   withdrawSighting,
 } from "./outbox";
+import { InvalidRecord, saveSession, saveSighting } from "./save";
 
 // The outbox over IndexedDB (fake-indexeddb: an in-memory implementation of the
 // IndexedDB API, run through the real idb wrapper and our real outbox code).

@@ -1,7 +1,7 @@
 import { api, ApiClientError } from "@/lib/http/client";
 import type { SyncResponse } from "@/lib/sync/acks";
 import type { MineResponse, MySighting } from "@/lib/sync/mine";
-import { sightingRecord } from "@/lib/sync/records";
+import type { SightingRecord } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import { applyAcks, batchBody, refuseBatch, releaseBatch, resetInFlight, takeBatch } from "./outbox";
@@ -214,21 +214,31 @@ async function uploadPhoto(eventId: string, photo: LocalPhoto): Promise<UploadOu
   return { ok: true };
 }
 
-/** The fields of a sighting record, out of one row of GET …/sightings/mine. */
-function pickRecord(x: MySighting): Record<string, unknown> {
+/**
+ * A sighting record out of one row of GET …/sightings/mine (the server's own answer, typed
+ * by lib/sync/mine.ts), or null when a row lacks what a record needs. Checked by hand, not
+ * with the record schema: this runs in the service worker too, which stays free of the
+ * validation library (lib/field/save.ts validates what the person saves).
+ */
+function mineRecord(x: MySighting): SightingRecord | null {
+  const finite = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
+  if (typeof x.id !== "string" || typeof x.observedAt !== "string" || Number.isNaN(Date.parse(x.observedAt)))
+    return null;
+  if (!finite(x.count) || !finite(x.latitude) || !finite(x.longitude) || !finite(x.accuracyM)) return null;
+  if (!x.taxonId && !x.description) return null; // unidentified records carry a description
   return {
     id: x.id,
-    sessionId: x.sessionId,
-    taxonId: x.taxonId,
-    description: x.description,
+    sessionId: x.sessionId ?? null,
+    taxonId: x.taxonId ?? null,
+    description: x.description ?? "",
     count: x.count,
-    countIsEstimate: x.countIsEstimate,
+    countIsEstimate: Boolean(x.countIsEstimate),
     observedAt: x.observedAt,
     latitude: x.latitude,
     longitude: x.longitude,
     accuracyM: x.accuracyM,
-    zoneId: x.zoneId,
-    notes: x.notes,
+    zoneId: x.zoneId ?? null,
+    notes: x.notes ?? "",
     photoIds: [],
   };
 }
@@ -262,13 +272,13 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
     if (!local) {
       // Sent from another phone, or before this one was cleared: kept as a sent record so
       // its review state shows, and a returned one can be answered from here.
-      const parsed = sightingRecord.safeParse(pickRecord(row));
-      if (!parsed.success) continue;
-      const species = stored?.pack.species.find((sp) => sp.id === parsed.data.taxonId);
+      const record = mineRecord(row);
+      if (!record) continue;
+      const species = stored?.pack.species.find((sp) => sp.id === record.taxonId);
       const label = species
         ? (species.names[locale] ?? species.names.en ?? species.scientificName)
-        : (row.scientificName ?? parsed.data.description);
-      const at = Date.parse(parsed.data.observedAt);
+        : (row.scientificName ?? record.description);
+      const at = Date.parse(record.observedAt);
       await tx.store.put({
         kind: "sighting",
         id: item.id,
@@ -279,7 +289,7 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
         nextTryAt: 0,
         savedAt: at,
         sentAt: at,
-        record: parsed.data,
+        record,
         taxonLabel: label,
         reviewState: item.reviewState,
         serverVersion: item.version,

@@ -10,7 +10,8 @@ import { freeText } from "@/lib/validation/text";
 // server validates again; a record that fails is refused alone with a translated reason,
 // and the rest of the batch is stored.
 
-export const MAX_BATCH_RECORDS = 100;
+import { MAX_BATCH_RECORDS } from "./limits";
+export { MAX_BATCH_RECORDS };
 
 /** A sighting's review state, as the server tells the phone (acknowledgements, "mine"). */
 export type { ReviewState };

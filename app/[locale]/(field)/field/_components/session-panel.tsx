@@ -3,7 +3,8 @@
 import { useFormatter, useTranslations } from "next-intl";
 import { useEffect, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
-import { cancelSession, saveSession } from "@/lib/field/outbox";
+import { cancelSession } from "@/lib/field/outbox";
+import { saveSession } from "@/lib/field/save";
 import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
 import { walkDistanceM, zoneAt, type Fix } from "@/lib/field/zones";
 import type { PositionState } from "./use-position";

@@ -3,7 +3,7 @@
 import { useTranslations } from "next-intl";
 import { useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
-import { InvalidRecord, saveSession } from "@/lib/field/outbox";
+import { InvalidRecord, saveSession } from "@/lib/field/save";
 import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
 import { judgeSession } from "@/lib/sync/rules";
 import { SESSION_KINDS, type SessionKind } from "@/lib/domain";

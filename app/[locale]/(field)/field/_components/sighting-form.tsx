@@ -4,7 +4,7 @@ import { useTranslations } from "next-intl";
 import { useEffect, useMemo, useRef, useState } from "react";
 import type { SightingRecord } from "@/lib/sync/records";
 import type { FieldDatabase } from "@/lib/field/db";
-import { InvalidRecord, saveSighting } from "@/lib/field/outbox";
+import { InvalidRecord, saveSighting } from "@/lib/field/save";
 import { preparePhoto, type PreparedPhoto } from "@/lib/field/photo";
 import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/lib/field/search";
 import type { EventPack, LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
