@@ -101,7 +101,10 @@ export async function createEvent(
   return row ?? null;
 }
 
-export async function updateEvent(eventId: string, settings: EventSettings & { status: EventStatus }): Promise<void> {
+export async function updateEvent(
+  eventId: string,
+  settings: EventSettings & { status: EventStatus; dataLicense?: string; publishAbsences?: boolean },
+): Promise<void> {
   await getDb().update(events).set(settings).where(eq(events.id, eventId));
 }
 
@@ -124,6 +127,8 @@ export async function eventForSetup(eventId: string) {
       photoRequiredOffList: events.photoRequiredOffList,
       accuracyLimitM: events.accuracyLimitM,
       joinCode: events.joinCode,
+      dataLicense: events.dataLicense,
+      publishAbsences: events.publishAbsences,
     })
     .from(events)
     .innerJoin(organisations, eq(organisations.id, events.organisationId))

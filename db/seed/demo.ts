@@ -130,6 +130,8 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
           accuracyLimitM: e.accuracyLimitM,
         })
         .onConflictDoNothing();
+      // Every demo event is invented: its Darwin Core archives say so (lib/results/dwc.ts).
+      await tx.update(s.events).set({ isDemo: true }).where(eq(s.events.id, id));
       const zoneIds = new Map<string, string>();
       for (const z of zones) {
         const zoneId = demoId(`zone:${z.key}`);
