@@ -27,7 +27,12 @@ export type ReportRow = {
 export type ReportSummary = Pick<ReportRow, "id" | "version" | "publishedAt" | "inputHash" | "changes"> & {
   superseded: boolean;
   publisherName: string | null;
+  withdrawnAt: Date | null;
+  withdrawReason: string | null;
 };
+
+/** A withdrawn version: when, by whom (their name for the organisers' list only) and why. */
+export type Withdrawal = { withdrawnAt: Date; reason: string };
 
 /**
  * Runs `work` in one transaction under the event's report lock, so that two publishes
@@ -73,10 +78,37 @@ export async function reportRecipients(
 
 export async function listReports(eventId: string): Promise<ReportSummary[]> {
   const r = await getDb().execute<Omit<ReportSummary, "superseded">>(sql`
-    SELECT r.id, r.version, r.published_at AS "publishedAt", r.input_hash AS "inputHash", r.changes, u.name AS "publisherName"
-    FROM reports r LEFT JOIN users u ON u.id = r.published_by WHERE r.event_id = ${eventId} ORDER BY r.version DESC`);
+    SELECT r.id, r.version, r.published_at AS "publishedAt", r.input_hash AS "inputHash", r.changes, u.name AS "publisherName",
+      w.withdrawn_at AS "withdrawnAt", w.reason AS "withdrawReason"
+    FROM reports r LEFT JOIN users u ON u.id = r.published_by LEFT JOIN report_withdrawals w ON w.report_id = r.id
+    WHERE r.event_id = ${eventId} ORDER BY r.version DESC`);
   const latest = r.rows[0]?.version ?? 0;
-  return r.rows.map((x) => ({ ...x, publishedAt: new Date(x.publishedAt), superseded: x.version < latest }));
+  return r.rows.map((x) => ({
+    ...x,
+    publishedAt: new Date(x.publishedAt),
+    withdrawnAt: x.withdrawnAt ? new Date(x.withdrawnAt) : null,
+    superseded: x.version < latest,
+  }));
+}
+
+/**
+ * Withdraws a version (issue 16): one append-only row with the reason; the report and its data
+ * stay. False when the version was already withdrawn.
+ */
+export async function insertWithdrawal(reportId: string, userId: string, reason: string, tx: Tx): Promise<boolean> {
+  const r = await tx.execute(sql`
+    INSERT INTO report_withdrawals (report_id, withdrawn_by, reason) VALUES (${reportId}, ${userId}, ${reason})
+    ON CONFLICT (report_id) DO NOTHING RETURNING report_id`);
+  return r.rows.length === 1;
+}
+
+/** The newest version that is not withdrawn, for links to "the latest report". */
+export async function latestStandingVersion(eventId: string): Promise<number | null> {
+  const r = await getDb().execute<{ version: number }>(sql`
+    SELECT r.version FROM reports r WHERE r.event_id = ${eventId}
+      AND NOT EXISTS (SELECT 1 FROM report_withdrawals w WHERE w.report_id = r.id)
+    ORDER BY r.version DESC LIMIT 1`);
+  return r.rows[0]?.version ?? null;
 }
 
 /** One version; its input records (large for a big event) only when asked for. */
@@ -84,19 +116,43 @@ export async function getReport(
   eventId: string,
   version: number,
   options: { withInputs?: boolean } = {},
-): Promise<(ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }) | null> {
+): Promise<
+  | (ReportRow & {
+      inputRecords: InputRecord[];
+      inputCount: number;
+      latestVersion: number;
+      note: string;
+      withdrawal: Withdrawal | null;
+    })
+  | null
+> {
   const inputs = options.withInputs ? sql`input_records` : sql`'[]'::jsonb`;
   const r = await getDb().execute<
-    ReportRow & { inputRecords: InputRecord[]; inputCount: number; latestVersion: number }
+    ReportRow & {
+      inputRecords: InputRecord[];
+      inputCount: number;
+      latestVersion: number;
+      note: string;
+      withdrawnAt: string | null;
+      withdrawReason: string | null;
+    }
   >(sql`
     SELECT id, event_id AS "eventId", version, published_at AS "publishedAt", published_by AS "publishedBy",
       engine_version AS "engineVersion", input_hash AS "inputHash", ${inputs} AS "inputRecords",
       jsonb_array_length(input_records) AS "inputCount", results,
-      method_notes AS "methodNotes", changes,
-      (SELECT max(version) FROM reports x WHERE x.event_id = reports.event_id)::int AS "latestVersion"
-    FROM reports WHERE event_id = ${eventId} AND version = ${version}`);
+      method_notes AS "methodNotes", changes, note,
+      (SELECT max(version) FROM reports x WHERE x.event_id = reports.event_id)::int AS "latestVersion",
+      w.withdrawn_at AS "withdrawnAt", w.reason AS "withdrawReason"
+    FROM reports LEFT JOIN report_withdrawals w ON w.report_id = reports.id
+    WHERE event_id = ${eventId} AND version = ${version}`);
   const row = r.rows[0];
-  return row ? { ...row, publishedAt: new Date(row.publishedAt) } : null;
+  if (!row) return null;
+  const { withdrawnAt, withdrawReason, ...rest } = row;
+  return {
+    ...rest,
+    publishedAt: new Date(row.publishedAt),
+    withdrawal: withdrawnAt ? { withdrawnAt: new Date(withdrawnAt), reason: withdrawReason ?? "" } : null,
+  };
 }
 
 export async function getReportById(id: string, options: { withInputs?: boolean } = {}) {

@@ -117,6 +117,8 @@ export type DwcDataset = {
   listed: readonly DwcListedTaxon[];
   /** Per complete session, every taxon noted in it (any review state but rejected). */
   noted: ReadonlyMap<string, ReadonlySet<string>>;
+  /** A withdrawn version's files say so, as its page does. */
+  withdrawal?: { withdrawnAt: Date; reason: string } | null;
 };
 
 /** The dataset's title; an invented (demo) event says so. */
@@ -291,6 +293,10 @@ export function datasetAbstract(d: DwcDataset, absences: number): string[] {
       ? `Absences (${absences}) are stated for open species of the event's species list not recorded in a complete count session.`
       : "No absences are stated.",
   ];
+  if (d.withdrawal)
+    paras.unshift(
+      `This report version was withdrawn on ${d.withdrawal.withdrawnAt.toISOString().slice(0, 10)}: ${d.withdrawal.reason}. Do not use it as the event's current results.`,
+    );
   if (d.isDemo)
     paras.unshift(
       "These data are invented for a demonstration: the people, places and sightings are not real (only the species names are). Do not use them as observations.",

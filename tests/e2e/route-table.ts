@@ -361,6 +361,14 @@ export const ROUTES: RouteCase[] = [
     note: "404 when no version 1 yet",
   },
   {
+    file: "app/api/events/[eventId]/reports/[version]/withdraw/route.ts",
+    method: "POST",
+    path: (i) => `/api/events/${i.eventId}/reports/1/withdraw`,
+    body: () => ({ reason: "" }),
+    allowed: ORGANISERS,
+    note: "an empty reason: 400 for those allowed (nothing withdrawn)",
+  },
+  {
     file: "app/api/reports/[reportId]/[file]/route.ts",
     method: "GET",
     path: () => "/api/reports/00000000-0000-0000-0000-000000000000/species.csv",

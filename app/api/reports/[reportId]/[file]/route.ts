@@ -55,6 +55,7 @@ export const GET = handle(async (request, { params }: Ctx) => {
     isDemo: event.isDemo,
     publishAbsences: event.publishAbsences,
     withheld,
+    withdrawal: report.withdrawal,
     ...(await reportDwcContext(report.eventId, report, locale)),
   });
   return new Response(Buffer.from(zip), { headers: headers("application/zip", "darwin-core-archive.zip") });

@@ -10,6 +10,7 @@ import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { currentResults } from "@/server/results/current";
 import { PublishButton } from "./_components/publish-button";
+import { WithdrawForm } from "./_components/withdraw-form";
 import { CountUnitsForm } from "./_components/count-units-form";
 import { eventCountUnits } from "@/db/queries/results";
 import { COUNT_UNITS, DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/settings";
@@ -114,7 +115,23 @@ export default async function ResultsPage({ params }: Props) {
                 {" · "}
                 {format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
                 {r.superseded ? <span className="ms-2 text-ink-soft">({t("reports.superseded")})</span> : null}
+                {r.withdrawnAt ? (
+                  <span className="ms-2 font-semibold text-signal">
+                    ({t("reports.withdrawnMark", { reason: r.withdrawReason ?? "" })})
+                  </span>
+                ) : null}
                 <span className="block font-mono text-xs text-ink-soft">sha256 {r.inputHash}</span>
+                {canPublish && !r.withdrawnAt ? (
+                  <WithdrawForm
+                    eventId={event.id}
+                    version={r.version}
+                    open={t("reports.withdraw", { version: r.version })}
+                    reason={t("reports.withdrawReason")}
+                    hint={t("reports.withdrawHint")}
+                    confirm={t("reports.withdrawConfirm")}
+                    done={t("reports.withdrawDone", { version: r.version })}
+                  />
+                ) : null}
               </li>
             ))}
           </ul>

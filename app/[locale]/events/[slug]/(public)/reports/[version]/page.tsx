@@ -93,6 +93,43 @@ export default async function ReportPage({ params, searchParams }: Props) {
             timeZone: event.timeZone,
           })}
         </p>
+        {report.withdrawal ? (
+          <div
+            role="note"
+            aria-labelledby="withdrawn-title"
+            className="space-y-1 rounded-lg border-2 border-signal bg-signal-soft p-3"
+            data-testid="withdrawn"
+          >
+            <p id="withdrawn-title" className="text-lg font-bold">
+              {t("withdrawn.title")}
+            </p>
+            <p>
+              {t("withdrawn.body", {
+                date: format.dateTime(report.withdrawal.withdrawnAt, {
+                  dateStyle: "long",
+                  timeStyle: "short",
+                  timeZone: event.timeZone,
+                }),
+                reason: report.withdrawal.reason,
+              })}
+            </p>
+            <p>{t("withdrawn.data")}</p>
+          </div>
+        ) : null}
+        {report.version > 1 || report.version < report.latestVersion ? (
+          <nav aria-label={t("versionNav")} className="flex flex-wrap gap-4">
+            {report.version > 1 ? (
+              <Link href={`/events/${slug}/reports/${report.version - 1}`} className="font-semibold underline">
+                {t("previousVersion", { version: report.version - 1 })}
+              </Link>
+            ) : null}
+            {report.version < report.latestVersion ? (
+              <Link href={`/events/${slug}/reports/${report.version + 1}`} className="font-semibold underline">
+                {t("nextVersion", { version: report.version + 1 })}
+              </Link>
+            ) : null}
+          </nav>
+        ) : null}
         {report.version < report.latestVersion ? (
           <p
             role="note"
