@@ -22,6 +22,7 @@ export type ReportRow = {
   results: Results;
   methodNotes: typeof METHOD_NOTES;
   changes: ReportChanges | Record<string, never>;
+  note?: string;
 };
 
 export type ReportSummary = Pick<ReportRow, "id" | "version" | "publishedAt" | "inputHash" | "changes"> & {
@@ -372,4 +373,58 @@ export async function publicResultsOf<T extends { species: Results["species"] }>
       results.species.map((s) => s.id),
     ),
   );
+}
+
+export type PreviewRecord = {
+  id: string;
+  state: string;
+  taxon: string | null;
+  description: string;
+  count: number;
+  observedAt: Date;
+  volunteer: string;
+  marks: string[];
+};
+
+/**
+ * What the organiser should know before publishing (issue 16): the sightings still pending or
+ * returned (left out of the report) and the approved ones that carry check marks (in it), the
+ * first `limit` of each with their totals. Names as the review desk shows them to organisers.
+ */
+export async function previewProblems(
+  eventId: string,
+  locale: string,
+  limit = 30,
+): Promise<{ open: PreviewRecord[]; openTotal: number; marked: PreviewRecord[]; markedTotal: number }> {
+  const rows = (where: ReturnType<typeof sql>) =>
+    getDb().execute<PreviewRecord & { total: number }>(sql`
+      SELECT s.id, s.review_state::text AS state, coalesce(n.name, en.name, t.scientific_name) AS taxon, s.description,
+        s.count, s.observed_at AS "observedAt", coalesce(u.name, u.published_name, '') AS volunteer,
+        s.check_marks::text[] AS marks, count(*) OVER ()::int AS total
+      FROM sightings s JOIN users u ON u.id = s.user_id
+      LEFT JOIN taxa t ON t.id = s.taxon_id
+      LEFT JOIN taxon_names n ON n.taxon_id = t.id AND n.locale = ${locale}
+      LEFT JOIN taxon_names en ON en.taxon_id = t.id AND en.locale = 'en'
+      WHERE s.event_id = ${eventId} AND ${where}
+      ORDER BY s.observed_at, s.id LIMIT ${limit}`);
+  const [open, marked] = await Promise.all([
+    rows(sql`s.review_state IN ('pending', 'returned')`),
+    rows(sql`s.review_state = 'approved' AND cardinality(s.check_marks) > 0`),
+  ]);
+  const clean = (r: PreviewRecord & { total: number }): PreviewRecord => ({
+    id: r.id,
+    state: r.state,
+    taxon: r.taxon,
+    description: r.description,
+    count: r.count,
+    observedAt: new Date(r.observedAt),
+    volunteer: r.volunteer,
+    marks: r.marks,
+  });
+  return {
+    open: open.rows.map(clean),
+    openTotal: open.rows[0]?.total ?? 0,
+    marked: marked.rows.map(clean),
+    markedTotal: marked.rows[0]?.total ?? 0,
+  };
 }

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
-import { getPublicEventBySlug } from "@/db/queries/events";
+import { getMemberEventBySlug } from "@/db/queries/events";
 import { listReports } from "@/db/queries/reports";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
@@ -22,14 +22,14 @@ type Props = { params: Promise<{ locale: Locale; slug: string }> };
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { slug } = await params;
   const t = await getTranslations("Results");
-  const event = await getPublicEventBySlug(slug);
+  const event = await getMemberEventBySlug(slug);
   return event ? { title: t("title", { event: event.name }) } : {};
 }
 
 export default async function ResultsPage({ params }: Props) {
   const { locale, slug } = await params;
   setRequestLocale(locale);
-  const event = await getPublicEventBySlug(slug);
+  const event = await getMemberEventBySlug(slug);
   if (!event) notFound();
   const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/results`);
   const t = await getTranslations("Results");
@@ -91,6 +91,13 @@ export default async function ResultsPage({ params }: Props) {
           {t("reports.title")}
         </h2>
         <p className="max-w-prose">{t("reports.intro")}</p>
+        {canPublish ? (
+          <p>
+            <Link href={`/events/${slug}/reports/preview`} className="font-semibold text-reed-800 underline">
+              {t("reports.preview")}
+            </Link>
+          </p>
+        ) : null}
         {canPublish ? (
           <PublishButton
             eventId={event.id}
