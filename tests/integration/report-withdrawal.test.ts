@@ -69,6 +69,26 @@ describe("withdrawing a report version", () => {
     expect(v1.version).toBe(1);
   });
 
+  it("publishing keeps the organiser's note and can hold back the participants' mail", async () => {
+    const f = await makeFixture("publish-note");
+    await db().insert(s.eventMembers).values({ eventId: f.event.id, userId: f.user.id, role: "volunteer" });
+    await db()
+      .insert(s.sightings)
+      .values([sightingValues(f, { reviewState: "approved" })]);
+    const mails = async () =>
+      (
+        await db().execute<{ n: number }>(
+          sql`SELECT count(*)::int AS n FROM email_outbox WHERE kind = 'report_published' AND to_address = ${f.user.email}`,
+        )
+      ).rows[0]!.n;
+    await publishReport(f.event.id, f.user.id, { note: "  Thanks, all.  ", notify: false });
+    expect((await getReport(f.event.id, 1))!.note).toBe("Thanks, all.");
+    expect(await mails()).toBe(0);
+    await publishReport(f.event.id, f.user.id);
+    expect((await getReport(f.event.id, 2))!.note).toBe("");
+    expect(await mails()).toBe(1);
+  });
+
   it("needs a reason", () => {
     expect(withdrawInput.safeParse({ reason: "  " }).success).toBe(false);
     expect(withdrawInput.safeParse({}).success).toBe(false);
