@@ -475,6 +475,13 @@ ROUTES.push(
     allowed: ORGANISERS,
   },
   {
+    file: "app/api/events/[eventId]/setup/species/[taxonId]/route.ts",
+    method: "DELETE",
+    path: (i) => `/api/events/${i.setupEventId}/setup/species/00000000-0000-0000-0000-000000000000`,
+    allowed: ORGANISERS,
+    note: "a taxon not on the list: 404 for those allowed (nothing removed)",
+  },
+  {
     file: "app/api/events/[eventId]/paper-sheets/route.ts",
     method: "GET",
     path: (i) => `/api/events/${i.eventId}/paper-sheets`,
