@@ -108,3 +108,19 @@ test("a visitor finds the latest report from the landing page in two clicks", as
     `Kestrel Moor Winter Count — report version ${version}`,
   );
 });
+
+test("set-up marks the open tab and refuses to remove a species that sightings use, saying how many", async ({
+  page,
+}) => {
+  test.setTimeout(120_000);
+  await signInWithPassword(page, DEMO.organiser);
+  await page.goto("/en/events/harrowmere-vale-midsummer-count/setup/species");
+  const tabs = page.getByRole("navigation", { name: "Setup sections" });
+  await expect(tabs.getByRole("link", { name: "Species list" })).toHaveAttribute("aria-current", "page");
+  await expect(tabs.getByRole("link", { name: "Details" })).not.toHaveAttribute("aria-current", "page");
+  await page.getByRole("button", { name: "Remove Prunella modularis" }).click();
+  await expect(
+    page.getByRole("alert").filter({ hasText: /\d+ sightings of this event use this species: it stays on the list\./ }),
+  ).toBeVisible();
+  await expect(page.getByRole("rowheader", { name: "Prunella modularis" })).toBeVisible();
+});
