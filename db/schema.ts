@@ -202,6 +202,12 @@ export const events = pgTable(
     photoRequiredOffList: boolean("photo_required_off_list").notNull().default(true),
     // Restricted taxa in public outputs: "event" (listed with their event total only) or "hidden" (issue 13).
     publicRestricted: text("public_restricted").notNull().default("event"),
+    // The licence of the event's published data (lib/results/dwc.ts DATA_LICENSES), and whether its
+    // Darwin Core archive states absences of listed species in complete count sessions (issue 16).
+    dataLicense: text("data_license").notNull().default("cc-by-4.0"),
+    publishAbsences: boolean("publish_absences").notNull().default(false),
+    // An invented event (the demo's): its archives say so in their title and abstract.
+    isDemo: boolean("is_demo").notNull().default(false),
     accuracyLimitM: integer("accuracy_limit_m").notNull().default(100),
     joinCode: varchar("join_code", { length: 32 }).unique(),
     // The review period ends here (design.md "review period"); null: 30 days after the end
@@ -215,6 +221,7 @@ export const events = pgTable(
     check("events_slug_shape", sql`${t.slug} ~ '^[a-z0-9]+(-[a-z0-9]+)*$'`),
     check("events_accuracy_limit_positive", sql`${t.accuracyLimitM} > 0`),
     check("events_public_restricted_kind", sql`${t.publicRestricted} IN ('event', 'hidden')`),
+    check("events_data_license_kind", sql`${t.dataLicense} IN ('cc0-1.0', 'cc-by-4.0', 'cc-by-nc-4.0')`),
     check("events_languages_nonempty", sql`cardinality(${t.languages}) > 0`),
     check("events_area_valid", sql`${t.area} IS NULL OR ST_IsValid(${t.area})`),
     check("events_area_areal", sql`${t.area} IS NULL OR GeometryType(${t.area}) IN ('POLYGON', 'MULTIPOLYGON')`),
@@ -526,12 +533,31 @@ export const reports = pgTable(
     changes: jsonb("changes")
       .notNull()
       .default(sql`'[]'::jsonb`),
+    // The organiser's optional note at publishing, shown on the report page.
+    note: text("note").notNull().default(""),
   },
   (t) => [
     uniqueIndex("reports_event_version_key").on(t.eventId, t.version),
     check("reports_version_positive", sql`${t.version} >= 1`),
     check("reports_hash_hex", sql`${t.inputHash} ~ '^[0-9a-f]{64}$'`),
   ],
+);
+
+// A withdrawn report version (issue 16): the report and its data stay, its page says it was
+// withdrawn and why. One row per version; append-only like the reports (migration trigger).
+export const reportWithdrawals = pgTable(
+  "report_withdrawals",
+  {
+    reportId: uuid("report_id")
+      .primaryKey()
+      .references(() => reports.id, { onDelete: "restrict" }),
+    withdrawnAt: timestamp("withdrawn_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
+    withdrawnBy: uuid("withdrawn_by")
+      .notNull()
+      .references(() => users.id, { onDelete: "restrict" }),
+    reason: text("reason").notNull(),
+  },
+  (t) => [check("report_withdrawals_reason_nonempty", sql`length(btrim(${t.reason})) > 0`)],
 );
 
 // ---------------------------------------------------------------- invitations, rate limits, membership log

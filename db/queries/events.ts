@@ -72,6 +72,32 @@ export async function getPublicEventBySlug(slug: string) {
   return row ?? null;
 }
 
+/**
+ * An event by its address for its own members' pages (results, preview), drafts included: the
+ * page itself checks the person's role. The public pages use getPublicEventBySlug.
+ */
+export async function getMemberEventBySlug(slug: string) {
+  const [row] = await getDb()
+    .select({
+      id: events.id,
+      slug: events.slug,
+      name: events.name,
+      description: events.description,
+      status: events.status,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
+      languages: events.languages,
+      reviewClosesAt: events.reviewClosesAt,
+      organisationName: organisations.name,
+    })
+    .from(events)
+    .innerJoin(organisations, eq(organisations.id, events.organisationId))
+    .where(eq(events.slug, slug))
+    .limit(1);
+  return row ?? null;
+}
+
 /** The latitude of the event's area (or of its zones) at its centroid: sizes the 0.1° cell east–west. */
 export async function eventLatitude(eventId: string): Promise<number | null> {
   const r = await getDb().execute<{ lat: number | null }>(sql`

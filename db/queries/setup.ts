@@ -101,8 +101,33 @@ export async function createEvent(
   return row ?? null;
 }
 
-export async function updateEvent(eventId: string, settings: EventSettings & { status: EventStatus }): Promise<void> {
+export async function updateEvent(
+  eventId: string,
+  settings: EventSettings & { status: EventStatus; dataLicense?: string; publishAbsences?: boolean },
+): Promise<void> {
   await getDb().update(events).set(settings).where(eq(events.id, eventId));
+}
+
+/**
+ * Takes a species off the event's list, unless sightings of the event use it: then the number
+ * of those sightings (any review state), and nothing changes. "notListed" when it is not on the list.
+ */
+export async function removeEventSpecies(eventId: string, taxonId: string): Promise<"removed" | "notListed" | number> {
+  return getDb().transaction(async (tx) => {
+    // Lock the list row first, so a sighting cannot slip in between the count and the delete's commit.
+    const listed = await tx.execute(
+      sql`SELECT 1 FROM event_species WHERE event_id = ${eventId} AND taxon_id = ${taxonId} FOR UPDATE`,
+    );
+    if (!listed.rows.length) return "notListed";
+    const [used] = (
+      await tx.execute<{ n: number }>(
+        sql`SELECT count(*)::int AS n FROM sightings WHERE event_id = ${eventId} AND taxon_id = ${taxonId}`,
+      )
+    ).rows;
+    if (used && used.n > 0) return used.n;
+    await tx.execute(sql`DELETE FROM event_species WHERE event_id = ${eventId} AND taxon_id = ${taxonId}`);
+    return "removed";
+  });
 }
 
 export async function eventForSetup(eventId: string) {
@@ -124,6 +149,8 @@ export async function eventForSetup(eventId: string) {
       photoRequiredOffList: events.photoRequiredOffList,
       accuracyLimitM: events.accuracyLimitM,
       joinCode: events.joinCode,
+      dataLicense: events.dataLicense,
+      publishAbsences: events.publishAbsences,
     })
     .from(events)
     .innerJoin(organisations, eq(organisations.id, events.organisationId))
@@ -342,6 +369,13 @@ export async function eventByJoinCode(code: string) {
       slug: events.slug,
       status: events.status,
       organisationName: organisations.name,
+      description: events.description,
+      startsAt: events.startsAt,
+      endsAt: events.endsAt,
+      timeZone: events.timeZone,
+      zoneNames: sql<
+        string[]
+      >`coalesce((SELECT array_agg(z.name ORDER BY z.name) FROM zones z WHERE z.event_id = ${events.id}), ARRAY[]::text[])`,
     })
     .from(events)
     .innerJoin(organisations, eq(organisations.id, events.organisationId))

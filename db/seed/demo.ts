@@ -133,6 +133,8 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
           reviewClosesAt: e.reviewClosesAt ?? null,
         })
         .onConflictDoNothing();
+      // Every demo event is invented: its Darwin Core archives say so (lib/results/dwc.ts).
+      await tx.update(s.events).set({ isDemo: true }).where(eq(s.events.id, id));
       const zoneIds = new Map<string, string>();
       for (const z of zones) {
         const zoneId = demoId(`zone:${z.key}`);

@@ -1,8 +1,8 @@
-// Public downloads of a report: species list (CSV), Darwin Core Archive (zip), GeoJSON.
+// Public downloads of a report: species list (CSV), GeoJSON, and the occurrence terms the token API
+// and the Darwin Core Archive (lib/results/dwc.ts) share.
 // Sensitive taxa: "generalised" records are moved to the centre of a 0.1° grid cell (about
 // 11 km north–south everywhere; east–west 11 km × cos(latitude), see gridCellKm) with the uncertainty widened to cover the cell; "restricted" records are
 // withheld from every located output (design.md: exact locations never reach the public).
-import { strToU8, zipSync } from "fflate";
 import type { Results } from "./compute";
 import type { Sensitivity } from "@/lib/domain";
 
@@ -186,7 +186,6 @@ export const DWC_REQUIRED = [
   "identificationVerificationStatus",
 ] as const;
 
-const xml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 // The formula rule first (a leading tab or CR is one of its characters), then no tab or line break inside a field.
 const tsv = (s: string | number) => spreadsheetSafe(s).replace(/[\t\r\n]+/g, " ");
 
@@ -223,55 +222,4 @@ export function occurrenceTxt(rows: readonly Located[], datasetName: string): st
     return DWC_TERMS.map((t) => tsv(v[t])).join("\t");
   });
   return [DWC_TERMS.join("\t"), ...lines].join("\n") + "\n";
-}
-
-export function metaXml(): string {
-  const fields = DWC_TERMS.map((t, i) => `    <field index="${i}" term="http://rs.tdwg.org/dwc/terms/${t}"/>`).join(
-    "\n",
-  );
-  return `<?xml version="1.0" encoding="UTF-8"?>
-<archive xmlns="http://rs.tdwg.org/dwc/text/" metadata="eml.xml">
-  <core encoding="UTF-8" fieldsTerminatedBy="\\t" linesTerminatedBy="\\n" fieldsEnclosedBy="" ignoreHeaderLines="1" rowType="http://rs.tdwg.org/dwc/terms/Occurrence">
-    <files>
-      <location>occurrence.txt</location>
-    </files>
-    <id index="0"/>
-${fields}
-  </core>
-</archive>
-`;
-}
-
-/** Dataset metadata in Ecological Metadata Language 2.1.1 (the profile the text guide names). */
-export function emlXml(d: {
-  id: string;
-  title: string;
-  organisation: string;
-  version: number;
-  publishedAt: Date;
-  withheld: number;
-  abstract: string;
-}): string {
-  return `<?xml version="1.0" encoding="UTF-8"?>
-<eml:eml xmlns:eml="eml://ecoinformatics.org/eml-2.1.1" packageId="urn:uuid:${d.id}" system="ecotone" scope="system" xml:lang="en">
-  <dataset>
-    <title>${xml(d.title)} (report version ${d.version})</title>
-    <creator><organizationName>${xml(d.organisation)}</organizationName></creator>
-    <pubDate>${d.publishedAt.toISOString().slice(0, 10)}</pubDate>
-    <abstract><para>${xml(d.abstract)}</para><para>Records of restricted sensitive taxa withheld: ${d.withheld}. Records of generalised sensitive taxa have coordinates moved to the centre of a ${GRID_DEGREES}-degree grid cell.</para></abstract>
-    <contact><organizationName>${xml(d.organisation)}</organizationName></contact>
-  </dataset>
-</eml:eml>
-`;
-}
-
-export function darwinCoreArchive(rows: readonly Located[], meta: Parameters<typeof emlXml>[0]): Uint8Array {
-  return zipSync(
-    {
-      "occurrence.txt": strToU8(occurrenceTxt(rows, meta.title)),
-      "meta.xml": strToU8(metaXml()),
-      "eml.xml": strToU8(emlXml(meta)),
-    },
-    { level: 6, mtime: meta.publishedAt },
-  );
 }

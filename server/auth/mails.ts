@@ -34,7 +34,10 @@ export function invitationMail(
     : t("invitation.joinIntro", { event: opts.eventName, role: opts.role });
   const paragraphs = [intro, t("invitation.expiry")];
   return {
-    subject: t("invitation.subject", { event: opts.eventName }),
+    // Joining through a join link is the person's own request: its mail confirms, it does not invite.
+    subject: opts.inviter
+      ? t("invitation.subject", { event: opts.eventName })
+      : t("invitation.joinSubject", { event: opts.eventName }),
     text: `${paragraphs[0]}\n\n${opts.url}\n\n${paragraphs[1]}\n\n${t("footer")}`,
     html: mailHtml({
       lang: locale,

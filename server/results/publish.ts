@@ -4,6 +4,7 @@ import { inReportTransaction, insertReport, latestReportInputs, reportRecipients
 import { eventZones, loadInputRecords, pendingCounts, taxaMeta } from "@/db/queries/results";
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
+import type { Tx } from "@/db/client";
 import { canonicalJson, computeResults, type Pending } from "@/lib/results/compute";
 import { METHOD_NOTES } from "@/lib/results/methods";
 import { diffRecords, inputFromRecords, inputHash, type ReportChanges } from "@/lib/results/records";
@@ -16,52 +17,75 @@ export class PendingRecordsError extends Error {
 }
 
 /**
+ * The next report version as publishing would freeze it, from one snapshot (`tx`): inputs,
+ * results computed from exactly those inputs, and what changed since the previous version.
+ * The preview shows this before anything is published (issue 16), through the same page.
+ */
+export async function draftReport(eventId: string, tx: Tx) {
+  const pending = await pendingCounts(eventId, tx);
+  const records = await loadInputRecords(eventId, tx);
+  const zones = await eventZones(eventId, tx);
+  const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
+  const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
+  const prev = await latestReportInputs(eventId, tx);
+  const version = (prev?.version ?? 0) + 1;
+  let changes: ReportChanges | Record<string, never> = {};
+  if (prev) {
+    const names = new Map<string, string>([
+      ...prev.results.species.map((s) => [s.id, s.scientificName] as const),
+      ...[...meta.values()].map((t) => [t.id, t.scientificName] as const),
+    ]);
+    changes = diffRecords(prev.version, prev.inputRecords, records, (id) => names.get(id) ?? id);
+  }
+  return { pending, records, results, version, changes, inputHash: inputHash(records) };
+}
+
+/** The next version as the preview shows it, without publishing anything. */
+export function previewReport(eventId: string) {
+  return inReportTransaction(eventId, (tx) => draftReport(eventId, tx));
+}
+
+export const PUBLISH_NOTE_MAX = 2000;
+
+/**
  * Freezes the event's current results into the next report version, in one transaction
  * under the event's report lock: inputs read in one snapshot, results computed from
  * exactly those inputs, what changed since the previous version, and the participants'
- * e-mails queued with the report (so a report is never published without its mails).
+ * e-mails queued with the report (so a report is never published without its mails),
+ * unless the organiser holds them back (`notify: false`). `note`: the organiser's optional
+ * note, shown on the report page.
  */
 export async function publishReport(
   eventId: string,
   userId: string,
-  options: { confirmPending?: boolean } = {},
+  options: { confirmPending?: boolean; note?: string; notify?: boolean } = {},
 ): Promise<{ id: string; version: number }> {
   return inReportTransaction(eventId, async (tx) => {
-    const pending = await pendingCounts(eventId, tx);
+    const draft = await draftReport(eventId, tx);
+    const { pending, records, results, version, changes } = draft;
     if (pending.pending + pending.returned > 0 && !options.confirmPending) throw new PendingRecordsError(pending);
-    const records = await loadInputRecords(eventId, tx);
-    const zones = await eventZones(eventId, tx);
-    const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
-    const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
-    const prev = await latestReportInputs(eventId, tx);
-    const version = (prev?.version ?? 0) + 1;
-    let changes: ReportChanges | Record<string, never> = {};
-    if (prev) {
-      const names = new Map<string, string>([
-        ...prev.results.species.map((s) => [s.id, s.scientificName] as const),
-        ...[...meta.values()].map((t) => [t.id, t.scientificName] as const),
-      ]);
-      changes = diffRecords(prev.version, prev.inputRecords, records, (id) => names.get(id) ?? id);
-    }
     const id = await insertReport(
       {
         eventId,
         version,
         publishedBy: userId,
         engineVersion: results.engineVersion,
-        inputHash: inputHash(records),
+        inputHash: draft.inputHash,
         inputRecords: records,
         results: JSON.parse(canonicalJson(results)),
         methodNotes: METHOD_NOTES,
         changes,
+        note: (options.note ?? "").trim(),
       },
       tx,
     );
-    const people = await reportRecipients(eventId, tx);
-    await enqueueMail(
-      people.map((p) => publishMail({ version, eventName: p.eventName, eventSlug: p.eventSlug }, p)),
-      tx,
-    );
+    if (options.notify !== false) {
+      const people = await reportRecipients(eventId, tx);
+      await enqueueMail(
+        people.map((p) => publishMail({ version, eventName: p.eventName, eventSlug: p.eventSlug }, p)),
+        tx,
+      );
+    }
     return { id, version };
   });
 }

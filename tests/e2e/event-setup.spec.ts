@@ -174,6 +174,12 @@ test("a volunteer joins with the event's join link and the mailed sign-in link",
   const v = await visitor.newPage();
   await v.goto(link!);
   await expect(v.getByRole("heading", { level: 1, name: "Join Harrowmere Vale Autumn Fungus Foray" })).toBeVisible();
+  // What is joined comes before the address: description, dates, place, and that it has not opened yet.
+  const about = v.getByTestId("join-event");
+  await expect(about).toContainText("A weekend looking for fungi");
+  await expect(about).toContainText(/Saturday, (16 October|October 16), 2027/);
+  await expect(about).toContainText("Europe/London time");
+  await expect(about).toContainText("Recording has not opened yet");
   await expect(v.getByRole("region", { name: "Before you go out" })).toBeVisible();
   await v.getByLabel("E-mail address").fill("not an address");
   await v.getByRole("button", { name: "Join" }).click();
@@ -187,7 +193,7 @@ test("a volunteer joins with the event's join link and the mailed sign-in link",
   await expect(v.getByRole("status")).toContainText("Check your e-mail");
   const message = await mail.waitFor(
     "walker@example.org",
-    (m) => m.subject === "Invitation: Harrowmere Vale Autumn Fungus Foray",
+    (m) => m.subject === "Confirm that you join Harrowmere Vale Autumn Fungus Foray",
   );
   await v.goto(MailCatcher.linkIn(message));
   await v.getByRole("main").getByRole("button", { name: "Sign in" }).click(); // the link opens a confirm page (mail scanners)

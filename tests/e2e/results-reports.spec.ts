@@ -140,7 +140,8 @@ test("organiser publishes results; the public reads the Spanish report and downl
     /^scientificName,vernacularName,taxonRank,taxonGroup,individualCount,/,
   );
   const zip = unzipSync(new Uint8Array(files["Archivo Darwin Core (zip)"]!));
-  expect(Object.keys(zip).sort()).toEqual(["eml.xml", "meta.xml", "occurrence.txt"]);
+  // Darwin Core's Event core (event.txt) with an Occurrence extension (issue 16).
+  expect(Object.keys(zip).sort()).toEqual(["eml.xml", "event.txt", "meta.xml", "occurrence.txt"]);
   const geo = JSON.parse(files["Avistamientos (GeoJSON)"]!.toString("utf8")) as { type: string; features: unknown[] };
   expect(geo.type).toBe("FeatureCollection");
   expect(geo.features.length).toBeGreaterThan(100);
@@ -150,6 +151,7 @@ test("organiser publishes results; the public reads the Spanish report and downl
     files["Lista de especies (CSV)"]!.toString("utf8"),
     files["Avistamientos (GeoJSON)"]!.toString("utf8"),
     strFromU8(zip["occurrence.txt"]!),
+    strFromU8(zip["event.txt"]!),
   ].join("\n");
   for (const r of SENSITIVE_DEMO_RECORDS) {
     for (const v of [r.lon, r.lat])

@@ -362,6 +362,14 @@ export const ROUTES: RouteCase[] = [
     note: "404 when no version 1 yet",
   },
   {
+    file: "app/api/events/[eventId]/reports/[version]/withdraw/route.ts",
+    method: "POST",
+    path: (i) => `/api/events/${i.eventId}/reports/1/withdraw`,
+    body: () => ({ reason: "" }),
+    allowed: ORGANISERS,
+    note: "an empty reason: 400 for those allowed (nothing withdrawn)",
+  },
+  {
     file: "app/api/reports/[reportId]/[file]/route.ts",
     method: "GET",
     path: () => "/api/reports/00000000-0000-0000-0000-000000000000/species.csv",
@@ -466,6 +474,13 @@ ROUTES.push(
       save: false,
     }),
     allowed: ORGANISERS,
+  },
+  {
+    file: "app/api/events/[eventId]/setup/species/[taxonId]/route.ts",
+    method: "DELETE",
+    path: (i) => `/api/events/${i.setupEventId}/setup/species/00000000-0000-0000-0000-000000000000`,
+    allowed: ORGANISERS,
+    note: "a taxon not on the list: 404 for those allowed (nothing removed)",
   },
   {
     file: "app/api/events/[eventId]/paper-sheets/route.ts",

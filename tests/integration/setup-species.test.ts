@@ -1,6 +1,7 @@
 import { readFileSync } from "node:fs";
 import { sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
+import { removeEventSpecies } from "@/db/queries/setup";
 import { importSpecies, listEventSpecies } from "@/db/queries/setup-species";
 import { seedDemo } from "@/db/seed/demo";
 import * as s from "@/db/schema";
@@ -110,5 +111,40 @@ describe("species-list import", () => {
       "Boletus shareus",
       "Lactarius shareus",
     ]);
+  });
+});
+
+describe("removing a species from an event's list (issue 16)", () => {
+  it("is refused with the number of the event's sightings of it, and done when none use it", async () => {
+    const f = await makeFixture("species-remove");
+    const [unused] = await db()
+      .insert(s.taxa)
+      .values({ scientificName: "Testus unusedus", taxonGroup: "birds" })
+      .returning();
+    await db()
+      .insert(s.eventSpecies)
+      .values([f.taxon, unused!].map((t) => ({ eventId: f.event.id, taxonId: t.id })));
+    const sighting = (state: "pending" | "rejected") => ({
+      id: crypto.randomUUID(),
+      eventId: f.event.id,
+      userId: f.user.id,
+      taxonId: f.taxon.id,
+      count: 1,
+      observedAt: new Date("2026-06-20T09:00:00Z"),
+      location: { longitude: 0.2, latitude: 0.2 },
+      accuracyM: 10,
+      reviewState: state,
+    });
+    await db()
+      .insert(s.sightings)
+      .values([sighting("pending"), sighting("rejected")]);
+    // Any review state counts: the sightings were checked against this list.
+    expect(await removeEventSpecies(f.event.id, f.taxon.id)).toBe(2);
+    expect(await removeEventSpecies(f.event.id, unused!.id)).toBe("removed");
+    expect(await removeEventSpecies(f.event.id, unused!.id)).toBe("notListed");
+    const listed = await db().execute<{ id: string }>(
+      sql`SELECT taxon_id AS id FROM event_species WHERE event_id = ${f.event.id}`,
+    );
+    expect(listed.rows.map((r) => r.id)).toEqual([f.taxon.id]);
   });
 });

@@ -49,12 +49,28 @@ export default async function AccountPage({ params }: { params: Promise<{ locale
                   </span>
                 ) : null}
                 {r.role !== "volunteer" ? (
-                  <Link
-                    href={`/events/${r.eventSlug}/review`}
-                    className="mt-1 inline-flex min-h-touch items-center font-semibold text-reed-800 underline"
-                  >
-                    {tDesk("openDesk")}
-                  </Link>
+                  <span className="flex flex-wrap gap-x-4">
+                    <Link
+                      href={`/events/${r.eventSlug}/review`}
+                      className="mt-1 inline-flex min-h-touch items-center font-semibold text-reed-800 underline"
+                    >
+                      {tDesk("openDesk")}
+                    </Link>
+                    <Link
+                      href={`/events/${r.eventSlug}/results`}
+                      className="mt-1 inline-flex min-h-touch items-center font-semibold text-reed-800 underline"
+                    >
+                      {t("resultsLink")}
+                    </Link>
+                    {r.role === "organiser" ? (
+                      <Link
+                        href={`/events/${r.eventSlug}/setup`}
+                        className="mt-1 inline-flex min-h-touch items-center font-semibold text-reed-800 underline"
+                      >
+                        {t("setupLink")}
+                      </Link>
+                    ) : null}
+                  </span>
                 ) : null}
               </li>
             ))}

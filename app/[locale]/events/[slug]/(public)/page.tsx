@@ -11,6 +11,27 @@ import { MapSettingsProvider } from "@/components/map/map-settings";
 import { RealMap } from "@/components/map/real-map";
 import type { ArealGeometry } from "@/lib/geo/areal";
 import { mapSettings } from "@/server/map-settings";
+import { latestStandingVersion } from "@/db/queries/reports";
+import { eventPermitFor, getSessionUser } from "@/server/auth/guard";
+import { Link } from "@/lib/i18n/navigation";
+
+/** Recording is open and the event's dates are now: the live board is worth a link. */
+function isRunning(e: { status: string; startsAt: Date; endsAt: Date }): boolean {
+  const now = Date.now();
+  return e.status === "open" && e.startsAt.getTime() <= now && now <= e.endsAt.getTime();
+}
+
+/** The results, live board and review links a visitor's role allows, or none. */
+async function memberRole(eventId: string): Promise<"coordinator" | null> {
+  const user = await getSessionUser();
+  if (!user) return null;
+  try {
+    await eventPermitFor(user, eventId, "coordinator");
+    return "coordinator";
+  } catch {
+    return null;
+  }
+}
 
 export const dynamic = "force-dynamic";
 
@@ -27,7 +48,7 @@ export default async function EventPage({ params }: Props) {
   setRequestLocale(locale);
   const event = await getPublicEventBySlug(slug);
   if (!event) notFound();
-  const [t, tHabitat, tGroup, tHome, tMap, format, zoneRows, species, shapes] = await Promise.all([
+  const [t, tHabitat, tGroup, tHome, tMap, format, zoneRows, species, shapes, latest, role] = await Promise.all([
     getTranslations("Event"),
     getTranslations("Habitat"),
     getTranslations("TaxonGroup"),
@@ -37,7 +58,10 @@ export default async function EventPage({ params }: Props) {
     listZones(event.id),
     speciesListSummary(event.id),
     areaAndZones(event.id),
+    latestStandingVersion(event.id),
+    memberRole(event.id),
   ]);
+  const during = isRunning(event);
   const when = (d: Date) => format.dateTime(d, { dateStyle: "full", timeStyle: "short", timeZone: event.timeZone });
 
   return (
@@ -63,6 +87,37 @@ export default async function EventPage({ params }: Props) {
           </dd>
         </dl>
       </header>
+
+      <nav aria-labelledby="links-title" className="space-y-2 rounded-lg border border-reed-200 bg-white/70 p-4">
+        <h2 id="links-title" className="text-xl font-bold text-reed-900">
+          {t("linksTitle")}
+        </h2>
+        <ul className="space-y-1">
+          <li>
+            {latest ? (
+              <Link href={`/events/${event.slug}/reports/${latest}`} className="font-semibold text-reed-800 underline">
+                {t("latestReport", { version: latest })}
+              </Link>
+            ) : (
+              t("noReport")
+            )}
+          </li>
+          {role ? (
+            <li>
+              <Link href={`/events/${event.slug}/results`} className="font-semibold text-reed-800 underline">
+                {t("resultsLink")}
+              </Link>
+            </li>
+          ) : null}
+          {role && during ? (
+            <li>
+              <Link href={`/events/${event.slug}/live`} className="font-semibold text-reed-800 underline">
+                {t("liveLink")}
+              </Link>
+            </li>
+          ) : null}
+        </ul>
+      </nav>
 
       <SafetyNotice />
 

@@ -1,9 +1,16 @@
 import { z } from "zod";
-import { getReportById, publicResultsOf, reportEventNames, reportOccurrences } from "@/db/queries/reports";
+import {
+  getReportById,
+  publicResultsOf,
+  reportDwcContext,
+  reportEventNames,
+  reportOccurrences,
+} from "@/db/queries/reports";
 import { ApiError, handle, requestLocale } from "@/lib/http/errors";
 import { FILE_CACHE, REPORT_FILES } from "./schema";
 import { parseParams, pathId } from "@/lib/http/params";
-import { darwinCoreArchive, occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
+import { occurrencesGeoJson, publicOccurrences, speciesCsv } from "@/lib/results/exports";
+import { eventCoreArchive } from "@/lib/results/dwc";
 
 // Public by design: a published report and its downloads are for anyone (design.md,
 // "Public report"). Sensitive taxa are generalised or withheld in lib/results/exports.ts.
@@ -33,14 +40,23 @@ export const GET = handle(async (request, { params }: Ctx) => {
   const { rows, withheld } = publicOccurrences(report.results, await reportOccurrences(report), locale);
   if (file === "sightings.geojson")
     return new Response(occurrencesGeoJson(rows), { headers: headers("application/geo+json", "sightings.geojson") });
-  const zip = darwinCoreArchive(rows, {
-    id: report.id,
-    title: event.name,
+  // An Event core with an Occurrence extension (lib/results/dwc.ts), as a records centre takes it.
+  const zip = eventCoreArchive(rows, {
+    reportId: report.id,
+    eventId: report.eventId,
+    eventName: event.name,
     organisation: event.organisation,
     version: report.version,
     publishedAt: report.publishedAt,
+    startsAt: event.startsAt,
+    endsAt: event.endsAt,
+    timeZone: event.timeZone,
+    license: event.dataLicense,
+    isDemo: event.isDemo,
+    publishAbsences: event.publishAbsences,
     withheld,
-    abstract: `Approved sightings of ${event.name}, published as report version ${report.version}.`,
+    withdrawal: report.withdrawal,
+    ...(await reportDwcContext(report.eventId, report, locale)),
   });
   return new Response(Buffer.from(zip), { headers: headers("application/zip", "darwin-core-archive.zip") });
 });

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
-import { getPublicEventBySlug } from "@/db/queries/events";
+import { getMemberEventBySlug } from "@/db/queries/events";
 import { listReports } from "@/db/queries/reports";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
@@ -12,6 +12,7 @@ import { currentResults } from "@/server/results/current";
 import { comparisonWithEarlier } from "@/server/results/compare-events";
 import { EventsComparison } from "@/components/results/events-comparison";
 import { PublishButton } from "./_components/publish-button";
+import { WithdrawForm } from "./_components/withdraw-form";
 import { CountUnitsForm } from "./_components/count-units-form";
 import { eventCountUnits } from "@/db/queries/results";
 import { COUNT_UNITS, DEFAULT_COUNT_UNITS, countUnitOf } from "@/lib/results/settings";
@@ -26,7 +27,7 @@ type Props = {
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { slug } = await params;
   const t = await getTranslations("Results");
-  const event = await getPublicEventBySlug(slug);
+  const event = await getMemberEventBySlug(slug);
   return event ? { title: t("title", { event: event.name }) } : {};
 }
 
@@ -34,7 +35,7 @@ export default async function ResultsPage({ params, searchParams }: Props) {
   const { locale, slug } = await params;
   const { compare } = await searchParams;
   setRequestLocale(locale);
-  const event = await getPublicEventBySlug(slug);
+  const event = await getMemberEventBySlug(slug);
   if (!event) notFound();
   const permit = await requirePageEventRole(locale, event.id, "coordinator", `/events/${slug}/results`);
   const t = await getTranslations("Results");
@@ -102,6 +103,13 @@ export default async function ResultsPage({ params, searchParams }: Props) {
         </h2>
         <p className="max-w-prose">{t("reports.intro")}</p>
         {canPublish ? (
+          <p>
+            <Link href={`/events/${slug}/reports/preview`} className="font-semibold text-reed-800 underline">
+              {t("reports.preview")}
+            </Link>
+          </p>
+        ) : null}
+        {canPublish ? (
           <PublishButton
             eventId={event.id}
             label={t("reports.publish")}
@@ -125,7 +133,23 @@ export default async function ResultsPage({ params, searchParams }: Props) {
                 {" · "}
                 {format.dateTime(r.publishedAt, { dateStyle: "medium", timeStyle: "short", timeZone: event.timeZone })}
                 {r.superseded ? <span className="ms-2 text-ink-soft">({t("reports.superseded")})</span> : null}
+                {r.withdrawnAt ? (
+                  <span className="ms-2 font-semibold text-signal">
+                    ({t("reports.withdrawnMark", { reason: r.withdrawReason ?? "" })})
+                  </span>
+                ) : null}
                 <span className="block font-mono text-xs text-ink-soft">sha256 {r.inputHash}</span>
+                {canPublish && !r.withdrawnAt ? (
+                  <WithdrawForm
+                    eventId={event.id}
+                    version={r.version}
+                    open={t("reports.withdraw", { version: r.version })}
+                    reason={t("reports.withdrawReason")}
+                    hint={t("reports.withdrawHint")}
+                    confirm={t("reports.withdrawConfirm")}
+                    done={t("reports.withdrawDone", { version: r.version })}
+                  />
+                ) : null}
               </li>
             ))}
           </ul>

@@ -6,6 +6,7 @@ import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { SetupNotAllowed as NotAllowed } from "@/components/setup-not-allowed";
 import { setupPermit } from "./_components/setup-guard";
+import { SetupTabs } from "./_components/setup-tabs";
 
 type Props = { children: ReactNode; params: Promise<{ locale: Locale; slug: string }> };
 
@@ -16,8 +17,6 @@ export default async function EventSetupLayout({ children, params }: Props) {
   if (!permit) return <NotAllowed />;
   const [t, event] = await Promise.all([getTranslations("Setup"), eventForSetup(permit.eventId)]);
   if (!event) return <NotAllowed />;
-  const tab =
-    "inline-flex min-h-touch items-center rounded-t-lg border-2 border-b-0 border-reed-300 px-4 font-semibold text-reed-800 hover:bg-reed-50";
   return (
     <div className="space-y-6">
       <header className="space-y-1">
@@ -37,23 +36,17 @@ export default async function EventSetupLayout({ children, params }: Props) {
           </Link>
         ) : null}
       </header>
-      <nav aria-label={t("tabs.label")} className="flex flex-wrap gap-1 border-b-2 border-reed-300">
-        <Link href={`/events/${slug}/setup`} className={tab}>
-          {t("tabs.details")}
-        </Link>
-        <Link href={`/events/${slug}/setup/zones`} className={tab}>
-          {t("tabs.zones")}
-        </Link>
-        <Link href={`/events/${slug}/setup/species`} className={tab}>
-          {t("tabs.species")}
-        </Link>
-        <Link href={`/events/${slug}/setup/people`} className={tab}>
-          {t("tabs.people")}
-        </Link>
-        <Link href={`/events/${slug}/setup/api`} className={tab}>
-          {t("tabs.api")}
-        </Link>
-      </nav>
+      <SetupTabs
+        slug={slug}
+        label={t("tabs.label")}
+        tabs={[
+          { part: "", name: t("tabs.details") },
+          { part: "zones", name: t("tabs.zones") },
+          { part: "species", name: t("tabs.species") },
+          { part: "people", name: t("tabs.people") },
+          { part: "api", name: t("tabs.api") },
+        ]}
+      />
       {children}
     </div>
   );

@@ -10,6 +10,7 @@ import { updateEventInput, type UpdateEventInput } from "@/app/api/events/[event
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
 import { applyServerErrors, EventFields } from "@/components/setup/event-fields";
 import { api, ApiClientError, fetcher } from "@/lib/http/client";
+import { DATA_LICENSE_KEYS } from "@/lib/results/licenses";
 
 type Details = UpdateEventInput & { slug: string; joinCode: string | null };
 const FIELDS = [
@@ -22,7 +23,10 @@ const FIELDS = [
   "sessionKinds",
   "accuracyLimitM",
   "status",
+  "dataLicense",
+  "publishAbsences",
 ];
+const LICENSE_LABEL = { "cc0-1.0": "cc0", "cc-by-4.0": "ccBy", "cc-by-nc-4.0": "ccByNc" } as const;
 
 export function EventDetailsForm({ eventId }: { eventId: string }) {
   const t = useTranslations("Setup");
@@ -48,6 +52,8 @@ export function EventDetailsForm({ eventId }: { eventId: string }) {
       photoRequiredOffList: data.photoRequiredOffList,
       accuracyLimitM: data.accuracyLimitM,
       status: data.status,
+      dataLicense: data.dataLicense,
+      publishAbsences: data.publishAbsences,
     });
   }, [data, form]);
 
@@ -96,6 +102,29 @@ export function EventDetailsForm({ eventId }: { eventId: string }) {
           ))}
         </select>
       </Field>
+      <Field id="event-license" label={t("event.dataLicense")} hint={t("event.dataLicenseHint")}>
+        <select
+          id="event-license"
+          className={`${inputClass} max-w-md`}
+          aria-describedby="event-license-hint"
+          {...form.register("dataLicense")}
+        >
+          {DATA_LICENSE_KEYS.map((k) => (
+            <option key={k} value={k}>
+              {t(`event.license.${LICENSE_LABEL[k]}`)}
+            </option>
+          ))}
+        </select>
+      </Field>
+      <div className="space-y-1">
+        <label className="flex min-h-touch items-center gap-2 font-semibold">
+          <input type="checkbox" aria-describedby="event-absences-hint" {...form.register("publishAbsences")} />
+          {t("event.publishAbsences")}
+        </label>
+        <p id="event-absences-hint" className="text-sm text-ink-soft">
+          {t("event.publishAbsencesHint")}
+        </p>
+      </div>
       {problem ? (
         <p role="alert" className="font-semibold text-signal">
           ✕ {problem}

@@ -1,8 +1,9 @@
 "use client";
 
 import { useTranslations } from "next-intl";
+import { useState } from "react";
 import useSWR from "swr";
-import { fetcher } from "@/lib/http/client";
+import { api, ApiClientError, fetcher } from "@/lib/http/client";
 import { UploadPanel, type UploadAnswer } from "./upload-panel";
 import type { taxa } from "@/db/schema";
 import { TAXON_GROUPS, TAXON_RANKS } from "@/lib/domain";
@@ -25,6 +26,19 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
   const tGroup = useTranslations("TaxonGroup");
   const url = `/api/events/${eventId}/setup/species`;
   const { data, mutate } = useSWR<{ species: Species[] }>(url, fetcher);
+  const [removal, setRemoval] = useState<{ ok: boolean; text: string } | null>(null);
+  async function remove(s: Species) {
+    setRemoval(null);
+    try {
+      await api.send(`${url}/${s.id}`, "DELETE");
+    } catch (err) {
+      if (!(err instanceof ApiClientError)) throw err;
+      setRemoval({ ok: false, text: err.fields[0]?.message || err.message });
+      return;
+    }
+    setRemoval({ ok: true, text: t("removed", { name: s.scientificName }) });
+    await mutate();
+  }
 
   return (
     <div className="space-y-6">
@@ -63,6 +77,11 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
         <h2 id="species-current-title" className="text-2xl font-bold text-reed-900">
           {t("currentTitle", { count: data?.species.length ?? 0 })}
         </h2>
+        {removal ? (
+          <p role={removal.ok ? "status" : "alert"} className={`font-semibold ${removal.ok ? "" : "text-signal"}`}>
+            {removal.ok ? "✓" : "✕"} {removal.text}
+          </p>
+        ) : null}
         {!data ? (
           <p role="status">{t("loading")}</p>
         ) : data.species.length === 0 ? (
@@ -76,6 +95,7 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
                 <th scope="col">{t("colCommon")}</th>
                 <th scope="col">{t("colGroup")}</th>
                 <th scope="col">{t("colSensitivity")}</th>
+                <th scope="col">{t("colRemove")}</th>
               </tr>
             </thead>
             <tbody>
@@ -87,6 +107,16 @@ export function SpeciesPanel({ eventId, locale }: { eventId: string; locale: str
                   <td>{s.names[locale] ?? s.names.en ?? ""}</td>
                   <td>{tGroup(s.taxonGroup)}</td>
                   <td>{t(`sensitivity.${s.sensitivity}`)}</td>
+                  <td>
+                    <button
+                      type="button"
+                      onClick={() => remove(s)}
+                      aria-label={t("remove", { name: s.scientificName })}
+                      className="min-h-touch px-2 font-semibold text-signal underline"
+                    >
+                      {t("colRemove")}
+                    </button>
+                  </td>
                 </tr>
               ))}
             </tbody>
