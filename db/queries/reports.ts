@@ -1,6 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import { getDb, type Tx } from "../client";
+import { getDb, getReadDb, type Db, type Tx } from "../client";
 import { reports } from "../schema";
 import type { Results } from "@/lib/results/compute";
 import type { METHOD_NOTES } from "@/lib/results/methods";
@@ -105,7 +105,7 @@ export async function insertWithdrawal(reportId: string, userId: string, reason:
 
 /** The newest version that is not withdrawn, for links to "the latest report". */
 export async function latestStandingVersion(eventId: string): Promise<number | null> {
-  const r = await getDb().execute<{ version: number }>(sql`
+  const r = await getReadDb().execute<{ version: number }>(sql`
     SELECT r.version FROM reports r WHERE r.event_id = ${eventId}
       AND NOT EXISTS (SELECT 1 FROM report_withdrawals w WHERE w.report_id = r.id)
     ORDER BY r.version DESC LIMIT 1`);
@@ -116,7 +116,7 @@ export async function latestStandingVersion(eventId: string): Promise<number | n
 export async function getReport(
   eventId: string,
   version: number,
-  options: { withInputs?: boolean } = {},
+  options: { withInputs?: boolean; primary?: boolean } = {},
 ): Promise<
   | (ReportRow & {
       inputRecords: InputRecord[];
@@ -128,7 +128,11 @@ export async function getReport(
   | null
 > {
   const inputs = options.withInputs ? sql`input_records` : sql`'[]'::jsonb`;
-  const r = await getDb().execute<
+  // Public reads come from the replica when there is one (db/client.ts getReadDb); a read
+  // that decides a write asks for the primary, and a version the replica does not have yet
+  // (published a moment ago) is read from the primary too.
+  const db = options.primary ? getDb() : getReadDb();
+  const r = await db.execute<
     ReportRow & {
       inputRecords: InputRecord[];
       inputCount: number;
@@ -147,7 +151,7 @@ export async function getReport(
     FROM reports LEFT JOIN report_withdrawals w ON w.report_id = reports.id
     WHERE event_id = ${eventId} AND version = ${version}`);
   const row = r.rows[0];
-  if (!row) return null;
+  if (!row) return db === getDb() ? null : getReport(eventId, version, { ...options, primary: true });
   const { withdrawnAt, withdrawReason, ...rest } = row;
   return {
     ...rest,
@@ -157,10 +161,12 @@ export async function getReport(
 }
 
 export async function getReportById(id: string, options: { withInputs?: boolean } = {}) {
-  const r = await getDb().execute<{ eventId: string; version: number }>(
-    sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`,
-  );
-  const row = r.rows[0];
+  const find = (db: Pick<Db, "execute">) =>
+    db.execute<{ eventId: string; version: number }>(
+      sql`SELECT event_id AS "eventId", version FROM reports WHERE id = ${id}`,
+    );
+  const row =
+    (await find(getReadDb())).rows[0] ?? (getReadDb() === getDb() ? undefined : (await find(getDb())).rows[0]);
   return row ? getReport(row.eventId, row.version, options) : null;
 }
 
@@ -182,7 +188,7 @@ export type ReportEvent = {
 
 export async function reportEventNames(eventId: string): Promise<ReportEvent | null> {
   const [event] = (
-    await getDb().execute<ReportEvent>(sql`
+    await getReadDb().execute<ReportEvent>(sql`
     SELECT e.name, e.slug, o.name AS organisation, e.starts_at AS "startsAt", e.ends_at AS "endsAt",
       e.time_zone AS "timeZone", e.data_license AS "dataLicense", e.publish_absences AS "publishAbsences", e.is_demo AS "isDemo"
     FROM events e JOIN organisations o ON o.id = e.organisation_id
@@ -210,7 +216,7 @@ export async function reportDwcContext(
 ): Promise<Pick<DwcDataset, "sightings" | "sessions" | "listed" | "noted">> {
   const sightingIds = report.inputRecords.filter((r) => r[1] !== "session").map((r) => r[0]);
   const completeZone = new Map(report.inputRecords.filter((r) => r[1] === "session").map((r) => [r[0], r[6]] as const));
-  const db = getDb();
+  const db = getReadDb();
   const sightings = sightingIds.length
     ? (
         await db.execute<{ id: string; sessionId: string | null; identifiedBy: string | null }>(sql`
@@ -291,7 +297,7 @@ export async function reportDwcContext(
 
 /** Credits: how many volunteers and coordinators took part (never who). */
 export async function eventCredits(eventId: string): Promise<{ volunteers: number; coordinators: number }> {
-  const r = await getDb().execute<{ volunteers: number; coordinators: number }>(sql`
+  const r = await getReadDb().execute<{ volunteers: number; coordinators: number }>(sql`
     SELECT count(*) FILTER (WHERE role = 'volunteer')::int AS volunteers, count(*) FILTER (WHERE role = 'coordinator')::int AS coordinators
     FROM event_members WHERE event_id = ${eventId}`);
   return r.rows[0] ?? { volunteers: 0, coordinators: 0 };
@@ -320,7 +326,7 @@ export async function reportOccurrences(report: {
   const ids = report.inputRecords.map((r) => r[0]);
   if (!ids.length) return [];
   // recordedBy: the name the recorder chose to publish, else an anonymous recorder id; never an e-mail.
-  const r = await getDb().execute<{
+  const r = await getReadDb().execute<{
     id: string;
     observedAt: string;
     lon: number;
@@ -350,7 +356,7 @@ export async function reportOccurrences(report: {
  */
 export async function publicPolicy(eventId: string, taxonIds: readonly string[]): Promise<PublicPolicy> {
   const [event] = (
-    await getDb().execute<{ restricted: string }>(
+    await getReadDb().execute<{ restricted: string }>(
       sql`SELECT public_restricted AS restricted FROM events WHERE id = ${eventId}`,
     )
   ).rows;

@@ -13,7 +13,7 @@ export async function withdrawReport(
   userId: string,
   reason: string,
 ): Promise<{ id: string; version: number }> {
-  const report = await getReport(eventId, version);
+  const report = await getReport(eventId, version, { primary: true });
   if (!report) throw new ApiError("not_found");
   return inReportTransaction(eventId, async (tx) => {
     if (!(await insertWithdrawal(report.id, userId, reason, tx))) throw new ApiError("conflict");

@@ -2,7 +2,7 @@
 // cluster on loopback (pg_basebackup + standby.signal), DATABASE_REPLICA_URL pointing at it,
 // and the reads that may lag (results, the live board) served by it while writes stay on the
 // primary. Replay paused on the replica shows where a read comes from: the primary has the
-// new approval, the results do not, until replay resumes.
+// new approval (or a report's withdrawal), the replica's answer does not, until replay resumes.
 import { sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startReplica, type Replica } from "../support/replica";
@@ -73,6 +73,53 @@ describe("a streaming replica for reads that may lag", () => {
 
       await admin.query("SELECT pg_wal_replay_resume()");
       await eventually(individuals, (n) => n === 7, "the second approval after replay resumed");
+    } finally {
+      await admin.query("SELECT pg_wal_replay_resume()").catch(() => undefined);
+      await admin.end();
+    }
+  });
+
+  it("serves a published report's page from the replica, and a version just published from the primary", async () => {
+    const { getReport } = await import("@/db/queries/reports");
+    const { publishReport } = await import("@/server/results/publish");
+    const { withdrawReport } = await import("@/server/results/withdraw");
+    const s = await import("@/db/schema");
+    const { db, makeFixture, sightingValues } = await import("./helpers");
+
+    const f = await makeFixture("replica-report");
+    await db()
+      .insert(s.sightings)
+      .values(sightingValues(f, { count: 2, reviewState: "approved" }));
+    const admin = await replica.admin();
+    try {
+      // Published while replay is paused: the replica has not got it, so the page reads the primary.
+      await admin.query("SELECT pg_wal_replay_pause()");
+      const v1 = await publishReport(f.event.id, f.user.id);
+      const fresh = await getReport(f.event.id, v1.version);
+      expect(fresh?.id).toBe(v1.id);
+      await admin.query("SELECT pg_wal_replay_resume()");
+      await eventually(
+        async () => (await admin.query("SELECT count(*)::int AS n FROM reports WHERE id = $1", [v1.id])).rows[0].n,
+        (n) => n === 1,
+        "the report",
+      );
+
+      // Withdrawn while replay is paused: the public page (from the replica) does not say so yet.
+      await admin.query("SELECT pg_wal_replay_pause()");
+      await eventually(
+        async () => (await admin.query("SELECT pg_get_wal_replay_pause_state() AS s")).rows[0].s as string,
+        (state) => state === "paused",
+        "replay pausing",
+      );
+      await withdrawReport(f.event.id, v1.version, f.user.id, "counted twice");
+      expect((await getReport(f.event.id, v1.version, { primary: true }))?.withdrawal?.reason).toBe("counted twice");
+      expect((await getReport(f.event.id, v1.version))?.withdrawal).toBeNull();
+      await admin.query("SELECT pg_wal_replay_resume()");
+      await eventually(
+        async () => (await getReport(f.event.id, v1.version))?.withdrawal?.reason,
+        (reason) => reason === "counted twice",
+        "the withdrawal",
+      );
     } finally {
       await admin.query("SELECT pg_wal_replay_resume()").catch(() => undefined);
       await admin.end();
