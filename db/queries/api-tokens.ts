@@ -224,11 +224,21 @@ export async function publishedReport(eventId: string, version: number) {
     methodNotes: unknown;
     changes: unknown;
     latestVersion: number;
+    withdrawnAt: string | null;
+    withdrawReason: string | null;
   }>(sql`
     SELECT id, version, published_at AS "publishedAt", engine_version AS "engineVersion", input_hash AS "inputHash",
       results, method_notes AS "methodNotes", changes,
-      (SELECT max(version) FROM reports x WHERE x.event_id = reports.event_id)::int AS "latestVersion"
-    FROM reports WHERE event_id = ${eventId} AND version = ${version}`);
+      (SELECT max(version) FROM reports x WHERE x.event_id = reports.event_id)::int AS "latestVersion",
+      w.withdrawn_at AS "withdrawnAt", w.reason AS "withdrawReason"
+    FROM reports LEFT JOIN report_withdrawals w ON w.report_id = reports.id
+    WHERE event_id = ${eventId} AND version = ${version}`);
   const row = r.rows[0];
-  return row ? { ...row, publishedAt: new Date(row.publishedAt) } : null;
+  return row
+    ? {
+        ...row,
+        publishedAt: new Date(row.publishedAt),
+        withdrawnAt: row.withdrawnAt ? new Date(row.withdrawnAt) : null,
+      }
+    : null;
 }

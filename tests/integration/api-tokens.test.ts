@@ -13,6 +13,7 @@ import { GET as reportGet } from "@/app/api/v1/events/[eventId]/reports/[version
 import { GET as openapiGet } from "@/app/api/openapi.json/route";
 import { createApiToken, revokeApiToken, recordApiTokenCall } from "@/db/queries/api-tokens";
 import { publishReport } from "@/server/results/publish";
+import { withdrawReport } from "@/server/results/withdraw";
 import { decide } from "@/db/queries/review";
 import * as s from "@/db/schema";
 import { DWC_TERMS, generalise } from "@/lib/results/exports";
@@ -293,6 +294,7 @@ describe("read-only API tokens", () => {
     expect(list.reports[0]).toMatchObject({
       version: 1,
       superseded: false,
+      withdrawal: null,
       url: `/api/v1/events/${f.event.id}/reports/1`,
     });
     const one = await (
@@ -321,6 +323,21 @@ describe("read-only API tokens", () => {
         })
       ).status,
     ).toBe(403);
+
+    // Withdrawn by the organiser: a script reading the API is told so, with the reason, in the list and the report.
+    await withdrawReport(f.event.id, 1, f.user.id, "a count entered twice");
+    const after = await (
+      await call(reportsGet, `/api/v1/events/${f.event.id}/reports`, secrets.event!, { eventId: f.event.id })
+    ).json();
+    expect(after.reports[0].withdrawal).toMatchObject({ reason: "a count entered twice" });
+    expect(Date.parse(after.reports[0].withdrawal.withdrawnAt)).not.toBeNaN();
+    const withdrawn = await (
+      await call(reportGet, `/api/v1/events/${f.event.id}/reports/1`, secrets.event!, {
+        eventId: f.event.id,
+        version: "1",
+      })
+    ).json();
+    expect(withdrawn.withdrawal).toMatchObject({ reason: "a count entered twice" });
   });
 
   it("records the last use and limits calls per token in a window kept in PostgreSQL", async () => {

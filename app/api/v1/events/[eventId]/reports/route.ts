@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 type Ctx = { params: Promise<{ eventId: string }> };
 
-/** The event's published reports, newest first (who published is not shown). */
+/** The event's published reports, newest first, each saying whether it was withdrawn (who published is not shown). */
 export const GET = handle(async (request, { params }: Ctx) => {
   // A malformed address is a 404 for everyone (the one path-parameter rule), then the token.
   const { eventId } = await parseParams(params, eventIdParams.shape);
@@ -22,6 +22,7 @@ export const GET = handle(async (request, { params }: Ctx) => {
       publishedAt: r.publishedAt.toISOString(),
       inputHash: r.inputHash,
       superseded: r.superseded,
+      withdrawal: r.withdrawnAt ? { withdrawnAt: r.withdrawnAt.toISOString(), reason: r.withdrawReason ?? "" } : null,
       url: `/api/v1/events/${eventId}/reports/${r.version}`,
     })),
   };

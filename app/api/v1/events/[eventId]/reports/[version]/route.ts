@@ -23,6 +23,9 @@ export const GET = handle(async (request, { params }: Ctx) => {
     version: report.version,
     publishedAt: report.publishedAt.toISOString(),
     superseded: report.version < report.latestVersion,
+    withdrawal: report.withdrawnAt
+      ? { withdrawnAt: report.withdrawnAt.toISOString(), reason: report.withdrawReason ?? "" }
+      : null,
     engineVersion: report.engineVersion,
     inputHash: report.inputHash,
     // As public as the report page: no sensitive taxon by zone (lib/results/public.ts).

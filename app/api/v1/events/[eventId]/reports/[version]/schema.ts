@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { resultsResponse } from "../../results/schema";
+import { withdrawal } from "../schema";
 
 export const reportParams = z
   .object({
@@ -14,6 +15,7 @@ export const reportResponse = z
     version: z.number().int(),
     publishedAt: z.iso.datetime(),
     superseded: z.boolean(),
+    withdrawal,
     engineVersion: z.string(),
     inputHash: z.string(),
     results: resultsResponse,
