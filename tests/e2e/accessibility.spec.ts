@@ -4,7 +4,7 @@ import ar from "../../messages/ar.json";
 import en from "../../messages/en.json";
 import { DESK_KEYS } from "../../lib/review/decisions";
 import { demoIds, withE2eDb } from "./demo-ids";
-import { DEMO, expect, signInWithPassword, test } from "./support";
+import { DEMO, expect, publishThroughPreview, signInWithPassword, test } from "./support";
 
 // An accessibility audit of every screen with axe-core (WCAG 2.0/2.1 A and AA rules), on a
 // phone (390×844) and a desktop (1280×800), left to right (English) and right to left
@@ -183,13 +183,12 @@ test("results and the public report", async ({ browser }) => {
       );
       return rows[0]!.v;
     });
-  if ((await latest()) === 0) {
-    await page.goto(`/en/events/${SLUG}/results`);
-    await page.getByRole("button", { name: en.Results.reports.publish }).click();
-    // The demo holds pending records: publishing asks first.
-    await page.getByRole("alertdialog").getByRole("button", { name: "Publish with records pending" }).click();
-    await expect(page.getByRole("status").filter({ hasText: /Version 1 published/ })).toBeVisible({ timeout: 30_000 });
-  }
+  // The preview of the next report, as its organiser sees it before publishing.
+  await everyWay(page, "report preview", async (loc) => {
+    await page.goto(`/${loc}/events/${SLUG}/reports/preview`);
+    await expect(page.getByTestId("preview-banner")).toBeVisible({ timeout: 60_000 });
+  });
+  if ((await latest()) === 0) await publishThroughPreview(page, SLUG);
   const version = await latest();
   const visitor = await (await browser.newContext()).newPage();
   await everyWay(visitor, "public report", async (loc, m) => {

@@ -110,3 +110,24 @@ export async function signInWithPassword(
 ) {
   await new SignInPage(page, locale).signIn(email, password);
 }
+
+/**
+ * Publishes the event's next report as an organiser does (issue 16): from the results page to
+ * the preview, then "Publish" and "Publish now" in its confirmation. Returns the version, once
+ * its public page is open.
+ */
+export async function publishThroughPreview(page: Page, slug: string): Promise<number> {
+  await page.goto(`/en/events/${slug}/results`);
+  await page.getByRole("link", { name: "Preview the next report before publishing" }).click();
+  const banner = page.getByTestId("preview-banner");
+  // The preview computes the report from every record: allow for a loaded machine.
+  await expect(banner).toBeVisible({ timeout: 60_000 });
+  const version = Number((await banner.textContent())!.match(/This is version (\d+)/)![1]);
+  await page.getByRole("button", { name: "Publish this report…" }).click();
+  await page
+    .getByRole("dialog", { name: `Publish version ${version}?` })
+    .getByRole("button", { name: "Publish now" })
+    .click();
+  await expect(page).toHaveURL(new RegExp(`/en/events/${slug}/reports/${version}$`), { timeout: 60_000 });
+  return version;
+}

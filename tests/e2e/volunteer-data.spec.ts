@@ -2,7 +2,7 @@ import { readFileSync } from "node:fs";
 import { strFromU8, unzipSync } from "fflate";
 import type { Page } from "@playwright/test";
 import { withE2eDb } from "./demo-ids";
-import { DEMO, expect, signInWithPassword, test } from "./support";
+import { DEMO, expect, publishThroughPreview, signInWithPassword, test } from "./support";
 
 // A volunteer's own data (issue 15): the published name they chose, their download, the
 // erasure of their account with the published report still valid, and a sign-out that
@@ -73,13 +73,7 @@ test("a volunteer downloads their data and deletes their account; the published 
   const organiser = await browser.newContext({ baseURL });
   const org = await organiser.newPage();
   await signInWithPassword(org, DEMO.organiser);
-  await org.goto(`/en/events/${SLUG}/results`);
-  await org.getByRole("button", { name: "Publish a new version" }).click();
-  // The demo holds pending records: publishing asks first.
-  await org
-    .getByRole("alertdialog", { name: "Publish with records pending" })
-    .getByRole("button", { name: "Publish with records pending" })
-    .click();
+  await publishThroughPreview(org, SLUG);
   const version = await withE2eDb(async (db) => {
     await expect
       .poll(

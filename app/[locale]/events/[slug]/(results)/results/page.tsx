@@ -11,7 +11,6 @@ import type { Locale } from "@/lib/i18n/routing";
 import { currentResults } from "@/server/results/current";
 import { comparisonWithEarlier } from "@/server/results/compare-events";
 import { EventsComparison } from "@/components/results/events-comparison";
-import { PublishButton } from "./_components/publish-button";
 import { WithdrawForm } from "./_components/withdraw-form";
 import { CountUnitsForm } from "./_components/count-units-form";
 import { eventCountUnits } from "@/db/queries/results";
@@ -103,23 +102,16 @@ export default async function ResultsPage({ params, searchParams }: Props) {
         </h2>
         <p className="max-w-prose">{t("reports.intro")}</p>
         {canPublish ? (
+          // Every version is published from its preview: the report exactly as the public will read
+          // it, with what is left out named, a confirmation, a note and the choice to mail participants.
           <p>
-            <Link href={`/events/${slug}/reports/preview`} className="font-semibold text-reed-800 underline">
+            <Link
+              href={`/events/${slug}/reports/preview`}
+              className="inline-block rounded bg-reed-800 px-4 py-2 font-semibold text-white"
+            >
               {t("reports.preview")}
             </Link>
           </p>
-        ) : null}
-        {canPublish ? (
-          <PublishButton
-            eventId={event.id}
-            label={t("reports.publish")}
-            busyLabel={t("reports.publishing")}
-            doneLabel={t("reports.published", { version: "{version}" })}
-            failedLabel={t("reports.failed")}
-            confirmPending={t("reports.confirmPending", { pending: "{pending}", returned: "{returned}" })}
-            confirm={t("reports.confirm")}
-            cancel={t("reports.cancel")}
-          />
         ) : null}
         {reports.length === 0 ? (
           <p>{t("reports.none")}</p>
