@@ -73,7 +73,7 @@ test("the site admin erases an account from the console: its sessions end, the l
   // The audit view: the erasure under the tombstone address, with the reason.
   await page.goto(`/en/admin/audit?source=admin`);
   const log = page.getByRole("table", { name: "Audit log" });
-  await expect(log.getByRole("row", { name: /account_erased/ }).first()).toContainText(after.email);
+  await expect(log.getByRole("row", { name: /erased the account/ }).first()).toContainText(after.email);
   await expect(log).toContainText("Asked by letter");
   await expect(log).not.toContainText(ERASED);
 
