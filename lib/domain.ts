@@ -114,7 +114,13 @@ export const ORGANISATION_LOG_ACTIONS = [
 export type OrganisationLogAction = (typeof ORGANISATION_LOG_ACTIONS)[number];
 
 /** What a site admin did to a person or a mail (admin_log, append-only). */
-export const ADMIN_ACTIONS = ["account_locked", "account_unlocked", "sessions_ended", "mail_retried"] as const;
+export const ADMIN_ACTIONS = [
+  "account_locked",
+  "account_unlocked",
+  "sessions_ended",
+  "mail_retried",
+  "account_erased",
+] as const;
 export type AdminAction = (typeof ADMIN_ACTIONS)[number];
 
 /** Changes to who holds which role in an event (membership_log). */

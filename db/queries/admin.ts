@@ -35,12 +35,23 @@ export async function searchPeople(q: string) {
     name: string | null;
     isAdmin: boolean;
     lockedAt: string | null;
+    erasedAt: string | null;
     createdAt: string;
   }>(sql`
-    SELECT id, email, name, is_admin AS "isAdmin", locked_at AS "lockedAt", created_at AS "createdAt" FROM users
+    SELECT id, email, name, is_admin AS "isAdmin", locked_at AS "lockedAt", erased_at AS "erasedAt",
+      created_at AS "createdAt" FROM users
     WHERE lower(email) LIKE ${pattern} OR lower(coalesce(name, '')) LIKE ${pattern}
     ORDER BY created_at DESC, email LIMIT 50`);
   return rows;
+}
+
+/** The account's address, when it exists and is not erased yet (the admin's erasure confirms it). */
+export async function liveAccountEmail(userId: string): Promise<string | null> {
+  const [u] = await getDb()
+    .select({ email: users.email })
+    .from(users)
+    .where(sql`${users.id} = ${userId} AND ${users.erasedAt} IS NULL`);
+  return u?.email ?? null;
 }
 
 /** Locks (sessions end at once: no session version while locked) or unlocks an account. */
@@ -93,6 +104,18 @@ export async function listAllEvents() {
     SELECT e.id, e.slug, e.name, e.status, e.starts_at AS "startsAt", e.time_zone AS "timeZone", o.name AS organisation,
       (SELECT count(*)::int FROM sightings s WHERE s.event_id = e.id) AS sightings
     FROM events e JOIN organisations o ON o.id = e.organisation_id ORDER BY e.starts_at DESC`);
+  return rows;
+}
+
+/** Photo storage used by each organisation: the photos stored for its events' sightings (photos.size_bytes), largest first. */
+export async function photoStorageByOrganisation() {
+  const { rows } = await getDb().execute<{ id: string; name: string; photos: number; bytes: number }>(sql`
+    SELECT o.id, o.name, count(p.id)::int AS photos, coalesce(sum(p.size_bytes), 0)::float8 AS bytes
+    FROM organisations o
+      LEFT JOIN events e ON e.organisation_id = o.id
+      LEFT JOIN sightings s ON s.event_id = e.id
+      LEFT JOIN photos p ON p.sighting_id = s.id
+    GROUP BY o.id, o.name ORDER BY bytes DESC, o.name`);
   return rows;
 }
 

@@ -205,10 +205,15 @@ export async function myData(userId: string): Promise<MyData | null> {
  * set) so that their sightings, count sessions and the append-only review history keep
  * pointing at a row, and published reports re-compute exactly as before (they never held who
  * recorded what). The session version rises, so every token already issued stops working.
- * The membership log stays append-only: its rows are only redacted to the tombstone address,
- * the one change its trigger allows (migration 0012).
+ * The membership, organisation and admin logs stay append-only: their rows are only redacted
+ * to the tombstone address, the one change their triggers allow (migrations 0012 and 0018).
+ * `byAdmin`: a site admin erases the account from the console; the admin log says so, naming
+ * the tombstone, never the erased address.
  */
-export async function eraseAccount(userId: string): Promise<{ recorder: string } | null> {
+export async function eraseAccount(
+  userId: string,
+  byAdmin?: { adminId: string; reason: string },
+): Promise<{ recorder: string } | null> {
   return getDb().transaction(async (tx) => {
     const [u] = (
       await tx.execute<{ email: string }>(
@@ -229,6 +234,14 @@ export async function eraseAccount(userId: string): Promise<{ recorder: string }
     await tx.execute(sql`
       UPDATE membership_log SET subject_email = ${tombstone}, subject_user_id = ${userId}
       WHERE subject_user_id = ${userId} OR (subject_user_id IS NULL AND lower(subject_email) = ${email})`);
+    for (const log of [sql`organisation_log`, sql`admin_log`])
+      await tx.execute(sql`
+        UPDATE ${log} SET subject_email = ${tombstone}, subject_user_id = ${userId}
+        WHERE subject_user_id = ${userId} OR (subject_user_id IS NULL AND lower(subject_email) = ${email})`);
+    if (byAdmin)
+      await tx.execute(sql`
+        INSERT INTO admin_log (actor_id, action, subject_user_id, subject_email, reason)
+        VALUES (${byAdmin.adminId}, 'account_erased', ${userId}, ${tombstone}, ${byAdmin.reason})`);
     // Roles end, and the log says so (the subject being the tombstone).
     await tx.execute(sql`
       INSERT INTO membership_log (event_id, subject_email, subject_user_id, actor_id, action, from_role, taxon_groups)

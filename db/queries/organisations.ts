@@ -1,14 +1,15 @@
 import "server-only";
 import { and, desc, eq, sql } from "drizzle-orm";
-import type { OrganisationRequestState } from "@/lib/domain";
+import type { EventRole, OrganisationRequestState, TaxonGroup } from "@/lib/domain";
 import { getDb } from "../client";
 import { organisationLog, organisationMembers, organisationRequests, organisations, users } from "../schema";
 import { enqueueMail, type OutboxMail } from "./mail-queue";
 
 // Organisations that start on their own: a signed-in person asks, the site admin approves
 // (the organisation is made and the person becomes its first organiser) or declines with
-// a reason; organisers then add and remove organisers, never leaving none. Every change is
-// a row of the append-only organisation_log, written in the same transaction.
+// a reason; organisers then add and remove organisers, never leaving none, and see every
+// event's members. Every change is a row of the append-only organisation_log, written in the
+// same transaction.
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
@@ -299,5 +300,26 @@ export async function organisationLogOf(organisationId: string, limit = 100) {
     FROM organisation_log l LEFT JOIN users a ON a.id = l.actor_id
     WHERE l.organisation_id = ${organisationId} OR l.request_id IN (SELECT id FROM organisation_requests WHERE organisation_id = ${organisationId})
     ORDER BY l.at DESC, l.id DESC LIMIT ${limit}`);
+  return rows;
+}
+
+/** Every event of the organisation with its members (role, taxon groups), for its organisers. */
+export async function organisationEventMembers(organisationId: string) {
+  const { rows } = await getDb().execute<{
+    eventId: string;
+    slug: string;
+    eventName: string;
+    members: { userId: string; email: string; name: string | null; role: EventRole; taxonGroups: TaxonGroup[] }[];
+  }>(sql`
+    SELECT e.id AS "eventId", e.slug, e.name AS "eventName",
+      coalesce(json_agg(json_build_object('userId', u.id, 'email', u.email, 'name', u.name, 'role', m.role,
+          'taxonGroups', m.taxon_groups)
+        ORDER BY array_position(ARRAY['organiser', 'coordinator', 'volunteer']::event_role[], m.role), u.email)
+        FILTER (WHERE m.user_id IS NOT NULL), '[]') AS members
+    FROM events e
+      LEFT JOIN event_members m ON m.event_id = e.id
+      LEFT JOIN users u ON u.id = m.user_id
+    WHERE e.organisation_id = ${organisationId}
+    GROUP BY e.id ORDER BY e.starts_at DESC, e.name`);
   return rows;
 }

@@ -196,3 +196,28 @@ test("results and the public report", async ({ browser }) => {
     await expect(visitor.getByText(m.Report.sensitive.title, { exact: true }).first()).toBeVisible();
   });
 });
+
+test("site admin console: each view, and an organisation's page", async ({ browser }) => {
+  const page = await signedIn(browser, "admin@example.org");
+  const views = [
+    ["", "organisations"],
+    ["/people", "people"],
+    ["/events", "events"],
+    ["/health", "health"],
+    ["/audit", "audit"],
+  ] as const;
+  for (const [path, nav] of views) {
+    await everyWay(page, `admin${path || "/organisations"}`, async (loc, m) => {
+      await page.goto(`/${loc}/admin${path}`);
+      await expect(page.getByRole("heading", { level: 1, name: m.Admin.nav[nav] })).toBeVisible();
+      // The people view with an erasure form open (the admin's own row has none).
+      if (nav === "people") await page.getByText(m.Admin.erase).first().click();
+    });
+  }
+  const { organisationId } = await demoIds();
+  const organiser = await signedIn(browser, DEMO.organiser);
+  await everyWay(organiser, "organisation page", async (loc, m) => {
+    await organiser.goto(`/${loc}/organisations/${organisationId}`);
+    await expect(organiser.getByRole("heading", { level: 2, name: m.Organisations.eventMembersTitle })).toBeVisible();
+  });
+});

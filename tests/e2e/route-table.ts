@@ -604,6 +604,14 @@ ROUTES.push(
     note: "no such person: 404",
   },
   {
+    file: "app/api/admin/people/[userId]/route.ts",
+    method: "DELETE",
+    path: () => `/api/admin/people/00000000-0000-4000-8000-000000000000`,
+    body: () => ({ confirm: "nobody@example.org", reason: "role matrix" }),
+    allowed: ADMINS,
+    note: "no such person: 404 (nobody is erased)",
+  },
+  {
     file: "app/api/admin/mails/[mailId]/route.ts",
     method: "POST",
     path: () => `/api/admin/mails/999999999`,

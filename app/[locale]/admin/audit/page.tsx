@@ -2,6 +2,7 @@ import { getFormatter, getTranslations, setRequestLocale } from "next-intl/serve
 import { z } from "zod";
 import { AUDIT_SOURCES, auditLog } from "@/db/queries/admin";
 import { buttonClass, inputClass } from "@/components/ui/field";
+import { ADMIN_ACTIONS, type AdminAction } from "@/lib/domain";
 import { Link } from "@/lib/i18n/navigation";
 import type { Locale } from "@/lib/i18n/routing";
 import { requirePageSiteAdmin } from "@/server/auth/page";
@@ -112,7 +113,11 @@ export default async function AdminAuditPage({
                 </td>
                 <td>{t(`sources.${r.source}`)}</td>
                 <td>{r.actor ?? "—"}</td>
-                <td>{r.action}</td>
+                <td>
+                  {r.source === "admin" && (ADMIN_ACTIONS as readonly string[]).includes(r.action)
+                    ? t(`adminActions.${r.action as AdminAction}`)
+                    : r.action}
+                </td>
                 <td>{r.subject ?? "—"}</td>
                 <td>{r.detail}</td>
               </tr>

@@ -1,5 +1,5 @@
 import { getFormatter, getTranslations, setRequestLocale } from "next-intl/server";
-import { mailQueueState } from "@/db/queries/admin";
+import { mailQueueState, photoStorageByOrganisation } from "@/db/queries/admin";
 import { MAIL_STATUSES } from "@/lib/domain";
 import type { Locale } from "@/lib/i18n/routing";
 import { serviceHealth } from "@/server/admin/health";
@@ -8,17 +8,29 @@ import { AdminAction } from "../_components/admin-action";
 
 export const dynamic = "force-dynamic";
 
-// Health: the services the site depends on, the e-mail outbox and the mail worker's last round.
+// Health: the services the site depends on, the e-mail outbox, the mail worker's last round and
+// the photo storage each organisation uses.
 export default async function AdminHealthPage({ params }: { params: Promise<{ locale: Locale }> }) {
   const { locale } = await params;
   setRequestLocale(locale);
   if (!(await requirePageSiteAdmin(locale, "/admin/health"))) return null;
-  const [t, format, health, mail] = await Promise.all([
+  const [t, format, health, mail, storage] = await Promise.all([
     getTranslations("Admin"),
     getFormatter(),
     serviceHealth(),
     mailQueueState(),
+    photoStorageByOrganisation(),
   ]);
+  // Decimal units (SI), the size a storage bill states.
+  const size = (bytes: number) => {
+    const [unit, div] = bytes >= 1e9 ? ["gigabyte", 1e9] : bytes >= 1e6 ? ["megabyte", 1e6] : ["kilobyte", 1e3];
+    return format.number(bytes / (div as number), {
+      style: "unit",
+      unit: unit as string,
+      unitDisplay: "short",
+      maximumFractionDigits: 1,
+    });
+  };
   const when = (d: Date | string) => format.dateTime(new Date(d), { dateStyle: "medium", timeStyle: "medium" });
   const mark = (ok: boolean) => (ok ? `✓ ${t("reachable")}` : `✕ ${t("unreachable")}`);
   return (
@@ -41,6 +53,10 @@ export default async function AdminHealthPage({ params }: { params: Promise<{ lo
           <dt className="font-semibold">{t("storage")}</dt>
           <dd>
             {mark(health.storage.ok)} ({health.storage.bucket})
+          </dd>
+          <dt className="font-semibold">{t("tiles")}</dt>
+          <dd>
+            {mark(health.tiles.ok)} ({health.tiles.origin})
           </dd>
           <dt className="font-semibold">{t("worker")}</dt>
           <dd>
@@ -91,6 +107,32 @@ export default async function AdminHealthPage({ params }: { params: Promise<{ lo
             </tbody>
           </table>
         )}
+      </section>
+      <section aria-labelledby="photo-storage-title" className="space-y-2">
+        <h2 id="photo-storage-title" className="text-2xl font-bold text-reed-900">
+          {t("photoStorageTitle")}
+        </h2>
+        <table className="w-full text-left text-sm">
+          <caption className="sr-only">{t("photoStorageTitle")}</caption>
+          <thead>
+            <tr className="border-b border-reed-300">
+              <th scope="col">{t("col.organisation")}</th>
+              <th scope="col">{t("col.photos")}</th>
+              <th scope="col">{t("col.storage")}</th>
+            </tr>
+          </thead>
+          <tbody>
+            {storage.map((o) => (
+              <tr key={o.id} className="border-b border-reed-100">
+                <th scope="row" className="py-2 font-normal">
+                  {o.name}
+                </th>
+                <td>{format.number(o.photos)}</td>
+                <td>{size(o.bytes)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
       </section>
     </div>
   );

@@ -4,10 +4,11 @@ import { buttonClass, inputClass } from "@/components/ui/field";
 import type { Locale } from "@/lib/i18n/routing";
 import { requirePageSiteAdmin } from "@/server/auth/page";
 import { AdminAction } from "../_components/admin-action";
+import { EraseAccount } from "../_components/erase-account";
 
 export const dynamic = "force-dynamic";
 
-// People: search by address or name; lock or unlock an account, end its sessions.
+// People: search by address or name; lock or unlock an account, end its sessions, erase it.
 export default async function AdminPeoplePage({
   params,
   searchParams,
@@ -53,9 +54,9 @@ export default async function AdminPeoplePage({
                 <span className="font-semibold">{p.name ?? p.email}</span> <span className="block">{p.email}</span>
               </th>
               <td>{format.dateTime(new Date(p.createdAt), { dateStyle: "medium" })}</td>
-              <td>{p.lockedAt ? t("locked") : p.isAdmin ? t("siteAdmin") : t("active")}</td>
+              <td>{p.erasedAt ? t("erased") : p.lockedAt ? t("locked") : p.isAdmin ? t("siteAdmin") : t("active")}</td>
               <td className="space-y-1 py-2">
-                {p.id === admin.id ? null : p.lockedAt ? (
+                {p.erasedAt ? null : p.id === admin.id ? null : p.lockedAt ? (
                   <AdminAction url={`/api/admin/people/${p.id}`} body={{ action: "unlock" }} label={t("unlock")} />
                 ) : (
                   <AdminAction
@@ -65,11 +66,14 @@ export default async function AdminPeoplePage({
                     label={t("lock")}
                   />
                 )}{" "}
-                <AdminAction
-                  url={`/api/admin/people/${p.id}`}
-                  body={{ action: "end_sessions" }}
-                  label={t("endSessions")}
-                />
+                {p.erasedAt ? null : (
+                  <AdminAction
+                    url={`/api/admin/people/${p.id}`}
+                    body={{ action: "end_sessions" }}
+                    label={t("endSessions")}
+                  />
+                )}
+                {p.erasedAt || p.id === admin.id ? null : <EraseAccount userId={p.id} email={p.email} />}
               </td>
             </tr>
           ))}

@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getTranslations, setRequestLocale } from "next-intl/server";
-import { organisationById } from "@/db/queries/organisations";
+import { organisationById, organisationEventMembers } from "@/db/queries/organisations";
 import { ApiError } from "@/lib/http/errors";
+import { Link } from "@/lib/i18n/navigation";
 import { isUuid } from "@/lib/http/params";
 import type { Locale } from "@/lib/i18n/routing";
 import { requireOrganisationOrganiser } from "@/server/auth/guard";
@@ -19,7 +20,7 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
   return { title: t("organisersLink") };
 }
 
-// An organisation's organisers and its log (its organisers, site admins).
+// An organisation's organisers, its log and every event's members (its organisers, site admins).
 export default async function OrganisationPage({ params }: Props) {
   const { locale, organisationId } = await params;
   setRequestLocale(locale);
@@ -36,7 +37,12 @@ export default async function OrganisationPage({ params }: Props) {
       </p>
     );
   }
-  const org = await organisationById(organisationId);
+  const [org, events, tRole, tGroup] = await Promise.all([
+    organisationById(organisationId),
+    organisationEventMembers(organisationId),
+    getTranslations("Role"),
+    getTranslations("TaxonGroup"),
+  ]);
   if (!org) notFound();
   return (
     <div className="space-y-6">
@@ -50,6 +56,34 @@ export default async function OrganisationPage({ params }: Props) {
         ) : null}
       </header>
       <OrganisersPanel organisationId={organisationId} selfId={user.id} />
+      <section aria-labelledby="event-members-title" className="space-y-3">
+        <h2 id="event-members-title" className="text-2xl font-bold text-reed-900">
+          {t("eventMembersTitle")}
+        </h2>
+        {events.length === 0 ? <p>{t("noEvents")}</p> : null}
+        {events.map((e) => (
+          <section key={e.eventId} aria-label={e.eventName} className="space-y-1">
+            <h3 className="text-lg font-semibold">
+              <Link href={`/events/${e.slug}/setup/people`} className="underline">
+                {e.eventName}
+              </Link>{" "}
+              <span className="text-sm font-normal">({t("memberCount", { count: e.members.length })})</span>
+            </h3>
+            {e.members.length === 0 ? (
+              <p className="text-sm">{t("noEventMembers")}</p>
+            ) : (
+              <ul className="ms-5 list-disc text-sm">
+                {e.members.map((m) => (
+                  <li key={m.userId}>
+                    {m.name ? `${m.name} <${m.email}>` : m.email}: {tRole(m.role)}
+                    {m.taxonGroups.length ? ` (${m.taxonGroups.map((g) => tGroup(g)).join(", ")})` : ""}
+                  </li>
+                ))}
+              </ul>
+            )}
+          </section>
+        ))}
+      </section>
     </div>
   );
 }

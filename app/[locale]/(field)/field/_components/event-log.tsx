@@ -8,6 +8,7 @@ import { REJECT_REASONS, type RejectReason } from "@/lib/domain";
 import { buildSpeciesIndex } from "@/lib/field/search";
 import type { KnownEvent, LocalSighting } from "@/lib/field/types";
 import { DeviceStateMark, ReviewStateMark } from "@/components/state-mark";
+import { useFocusReturn } from "@/components/ui/focus";
 import type { SyncStatus } from "./field-app";
 import { FieldMap } from "./field-map";
 import { runningSession, SessionPanel } from "./session-panel";
@@ -33,6 +34,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   const format = useFormatter();
   const { data, reload } = useFieldData(db, event.id);
   const [editing, setEditing] = useState<LocalSighting | "new" | null>(null);
+  // Closing the form gives focus back to the button that opened it (keyboard use, issue 17).
+  useFocusReturn(editing === null ? null : editing === "new" ? "add-sighting" : `edit-${editing.id}`);
   const position = usePosition(true);
   const zones = data.pack?.pack.zones ?? null;
   const index = useMemo(
@@ -263,6 +266,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
         <div className="mx-auto flex max-w-xl">
           <button
             type="button"
+            id="add-sighting"
             onClick={() => setEditing("new")}
             disabled={!data.pack || event.status !== "open"}
             className={`${bigButton} min-h-[56px] w-full bg-reed-700 text-paper disabled:opacity-60`}
@@ -372,6 +376,7 @@ function SightingRow({
         <div className="flex flex-wrap gap-2">
           {editable ? (
             <button
+              id={`edit-${s.id}`}
               type="button"
               onClick={onEdit}
               className={small}
@@ -381,7 +386,13 @@ function SightingRow({
             </button>
           ) : null}
           {correctable ? (
-            <button type="button" onClick={onEdit} className={small} aria-label={`${t("correct")}: ${s.taxonLabel}`}>
+            <button
+              id={`edit-${s.id}`}
+              type="button"
+              onClick={onEdit}
+              className={small}
+              aria-label={`${t("correct")}: ${s.taxonLabel}`}
+            >
               {t("correct")}
             </button>
           ) : null}

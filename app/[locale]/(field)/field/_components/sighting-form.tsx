@@ -92,11 +92,13 @@ export function SightingForm({
   // A sent sighting edited otherwise is a correction: a new version for the server.
   const correcting = editing?.state === "sent" && !answering;
   const searchRef = useRef<HTMLInputElement>(null);
+  const headingRef = useRef<HTMLHeadingElement>(null);
   const barRef = useRef<HTMLDivElement>(null);
 
   useEffect(() => {
     void db.get("meta", USAGE).then((u) => setUsage((u as Usage | undefined) ?? {}));
-    if (!prior) searchRef.current?.focus();
+    // A new sighting starts at the species search; an edit at its title, read first.
+    (prior ? headingRef.current : searchRef.current)?.focus();
   }, [db, prior]);
   useEffect(() => () => photos.forEach((p) => URL.revokeObjectURL(p.url)), [photos]);
 
@@ -208,21 +210,23 @@ export function SightingForm({
       onKeyDown={(e) => {
         if (e.key === "Escape") onCancel(); // Esc closes the form, as the desk's Esc closes its pane
       }}
-      // The focused field is never left behind the fixed Save bar (scroll margins alone are not
-      // honoured by every browser's focus scrolling, nor when the on-screen keyboard opens).
-      onFocus={(e) => {
-        const bar = barRef.current?.getBoundingClientRect();
-        const field = (e.target as HTMLElement).getBoundingClientRect();
-        if (bar && field.bottom > bar.top - 8) window.scrollBy({ top: field.bottom - bar.top + 16 });
-      }}
       onSubmit={(e) => {
         e.preventDefault();
         void save();
       }}
+      // A control that takes the focus partly under the fixed Save bar is scrolled clear of it
+      // (the browser only scrolls what is outside the window, scroll margins are not honoured by
+      // every browser's focus scrolling nor when the on-screen keyboard opens; issue 17).
+      onFocus={(e) => {
+        const bar = barRef.current;
+        if (!bar || bar.contains(e.target)) return;
+        const over = e.target.getBoundingClientRect().bottom - bar.getBoundingClientRect().top + 8;
+        if (over > 0) window.scrollBy({ top: over });
+      }}
       // A focused field scrolls clear of the fixed Save bar (56 px button, padding and border).
-      className="space-y-5 [&_input]:scroll-mb-32 [&_select]:scroll-mb-32 [&_textarea]:scroll-mb-32"
+      className="space-y-5 [&_a]:scroll-mb-32 [&_button]:scroll-mb-32 [&_input]:scroll-mb-32 [&_select]:scroll-mb-32 [&_textarea]:scroll-mb-32"
     >
-      <h2 className="text-2xl font-bold text-reed-900">
+      <h2 ref={headingRef} tabIndex={-1} className="text-2xl font-bold text-reed-900">
         {answering ? t("answerTitle") : correcting ? t("correctTitle") : editing ? t("editTitle") : t("addTitle")}
       </h2>
       {answering && editing?.question ? (
@@ -244,10 +248,12 @@ export function SightingForm({
               <span className="text-xl font-bold">{species.label}</span>
             </p>
             <button
+              id="change-species"
               type="button"
               onClick={() => {
                 setSpecies(null);
                 setQuery("");
+                requestAnimationFrame(() => searchRef.current?.focus());
               }}
               className="min-h-touch rounded-lg border-2 border-reed-700 px-4 font-semibold text-reed-800"
             >
@@ -287,9 +293,11 @@ export function SightingForm({
                 <li key={h.taxonId}>
                   <button
                     type="button"
-                    onClick={() =>
-                      setSpecies({ taxonId: h.taxonId, label: h.label, sensitive: h.sensitivity !== "open" })
-                    }
+                    onClick={() => {
+                      setSpecies({ taxonId: h.taxonId, label: h.label, sensitive: h.sensitivity !== "open" });
+                      // The list goes with the choice: focus stays in the form, on the chosen species' Change.
+                      requestAnimationFrame(() => document.getElementById("change-species")?.focus());
+                    }}
                     className="flex min-h-touch w-full flex-col items-start rounded-lg border-2 border-reed-200 bg-white px-3 py-2 text-start"
                   >
                     <span className="text-lg font-bold">

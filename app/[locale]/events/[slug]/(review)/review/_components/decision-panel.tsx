@@ -3,6 +3,7 @@
 import { useTranslations } from "next-intl";
 import { useState } from "react";
 import useSWR from "swr";
+import { useFocusReturn } from "@/components/ui/focus";
 import type { QueueItem } from "@/db/queries/review";
 import { keyLabel } from "@/lib/review/decisions";
 import { fetcher } from "@/lib/http/client";
@@ -46,6 +47,8 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
       : null,
     fetcher,
   );
+  // A form closed without a decision (Esc, Cancel) gives focus back to the button that opened it.
+  useFocusReturn(mode ? `d-open-${mode}` : null);
   const kbd = (k: string) => <kbd className="rounded border border-current px-1 text-xs">{k}</kbd>;
   const message = note.trim() ? note.trim() : undefined;
   const options = (taxa.data?.taxa ?? []).filter((x) => x.id !== item.taxonId);
@@ -79,6 +82,7 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
           disabled={busy}
           aria-keyshortcuts={keyLabel("reject")}
           className={`${btn} border-2 border-signal text-signal`}
+          id="d-open-reject"
           onClick={() => setMode("reject")}
         >
           <span aria-hidden="true">✕</span>
@@ -89,6 +93,7 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
           disabled={busy}
           aria-keyshortcuts={keyLabel("returnWithQuestion")}
           className={`${btn} border-2 border-ink-soft text-ink`}
+          id="d-open-return"
           onClick={() => setMode("return")}
         >
           <span aria-hidden="true">↩</span>
@@ -99,6 +104,7 @@ export function DecisionPanel({ item, mode, setMode, reasons, eventId, busy, onD
           disabled={busy}
           aria-keyshortcuts={keyLabel("reidentify")}
           className={`${btn} border-2 border-heath-700 text-heath-900`}
+          id="d-open-reidentify"
           onClick={() => setMode("reidentify")}
         >
           <span aria-hidden="true">⇄</span>

@@ -6,6 +6,7 @@ import { useEffect, useEffectEvent, useState } from "react";
 import useSWR, { useSWRConfig } from "swr";
 import useSWRInfinite from "swr/infinite";
 import { secondaryButtonClass } from "@/components/ui/field";
+import { trapTab, useFocusReturn } from "@/components/ui/focus";
 import { api, ApiClientError, fetcher } from "@/lib/http/client";
 import type { QueueItem } from "@/db/queries/review";
 import { DESK_KEYS, keyLabel, TOAST_UNDO_MS, type DeskAction } from "@/lib/review/decisions";
@@ -129,6 +130,8 @@ export function ReviewDesk(props: Props) {
     return () => clearTimeout(timer);
   }, [undoUntil]);
 
+  // The bulk confirmation is modal: Tab stays in it, and closing it gives focus back to its button.
+  useFocusReturn(bulkOpen ? "bulk-open" : null);
   const bulkKey = bulkOpen
     ? `${base}/bulk-approve?${query}${include.length ? `&include=${include.join(",")}` : ""}`
     : null;
@@ -300,6 +303,7 @@ export function ReviewDesk(props: Props) {
         <button
           type="button"
           className={secondaryButtonClass}
+          id="bulk-open"
           onClick={() => setBulkOpen(true)}
           aria-keyshortcuts={keyLabel("bulk")}
           disabled={busy}
@@ -311,7 +315,9 @@ export function ReviewDesk(props: Props) {
       {bulkOpen ? (
         <div
           role="alertdialog"
+          aria-modal="true"
           aria-labelledby="bulk-question"
+          onKeyDown={trapTab}
           className="rounded-lg border-2 border-heath-600 bg-heath-50 p-3"
         >
           {!preview.data ? (
