@@ -92,7 +92,16 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(page.getByRole("heading", { name: "Zones at equal effort" })).toBeVisible();
   await expect(page.getByRole("heading", { name: "Hill numbers along sample size" })).toBeVisible();
   await expect(page.getByRole("heading", { name: "Between zones: shared species and similarity" })).toBeVisible();
-  await expect(page.getByText(/Standard: equal coverage of [\d.]+%/)).toBeVisible();
+  await expect(
+    page.getByRole("region", { name: "Zones at equal effort" }).getByText(/Standard: equal coverage of [\d.]+%/),
+  ).toBeVisible();
+  // Beside last year's count of the reserve (an earlier event of the same site), by the same rule.
+  const beside = page.getByRole("region", { name: "Compared with an earlier event of this site" });
+  await expect(beside.getByLabel("Earlier event")).toHaveValue(/.+/);
+  await expect(beside.getByRole("rowheader", { name: /Midsummer Count 2025, Harrowmere Vale/ })).toBeVisible();
+  await expect(beside.getByTestId("events-comparison-sentence")).toContainText(
+    /At equal coverage \([\d.]+%\), (Harrowmere Vale Midsummer Count found (more|fewer) species than Midsummer Count 2025, Harrowmere Vale|no clear difference in species between .+ includes 0)/,
+  );
   await expect(page.getByTestId("comparison-sentences").getByRole("listitem").first()).toContainText(
     /At equal coverage \([\d.]+%\), (.+ held (more|fewer) species than .+95% bootstrap interval of the difference|no clear difference between .+ includes 0)/,
   );
