@@ -50,7 +50,8 @@ export async function listPublicEvents(): Promise<EventSummary[]> {
   return rows;
 }
 
-export async function getPublicEventBySlug(slug: string) {
+/** An event by its address with what its pages show; `drafts` includes events still in preparation. */
+async function eventBySlug(slug: string, drafts: boolean) {
   const [row] = await getDb()
     .select({
       id: events.id,
@@ -67,9 +68,13 @@ export async function getPublicEventBySlug(slug: string) {
     })
     .from(events)
     .innerJoin(organisations, eq(organisations.id, events.organisationId))
-    .where(and(eq(events.slug, slug), ne(events.status, "draft")))
+    .where(drafts ? eq(events.slug, slug) : and(eq(events.slug, slug), ne(events.status, "draft")))
     .limit(1);
   return row ?? null;
+}
+
+export async function getPublicEventBySlug(slug: string) {
+  return eventBySlug(slug, false);
 }
 
 /**
@@ -77,25 +82,7 @@ export async function getPublicEventBySlug(slug: string) {
  * page itself checks the person's role. The public pages use getPublicEventBySlug.
  */
 export async function getMemberEventBySlug(slug: string) {
-  const [row] = await getDb()
-    .select({
-      id: events.id,
-      slug: events.slug,
-      name: events.name,
-      description: events.description,
-      status: events.status,
-      startsAt: events.startsAt,
-      endsAt: events.endsAt,
-      timeZone: events.timeZone,
-      languages: events.languages,
-      reviewClosesAt: events.reviewClosesAt,
-      organisationName: organisations.name,
-    })
-    .from(events)
-    .innerJoin(organisations, eq(organisations.id, events.organisationId))
-    .where(eq(events.slug, slug))
-    .limit(1);
-  return row ?? null;
+  return eventBySlug(slug, true);
 }
 
 /** The latitude of the event's area (or of its zones) at its centroid: sizes the 0.1° cell east–west. */

@@ -9,7 +9,7 @@ import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/ty
 import { walkDistanceM, zoneAt, type Fix } from "@/lib/field/zones";
 import type { PositionState } from "./use-position";
 import { type SessionKind as Kind } from "@/lib/domain";
-import { choice, eventKinds, SessionActions, SessionEditor, SessionSummary } from "./session-parts";
+import { choice, eventKinds, KindAndZone, SessionActions, SessionEditor, SessionSummary } from "./session-parts";
 
 const trackKey = (id: string) => `track:${id}`;
 
@@ -251,37 +251,16 @@ export function SessionPanel({ db, eventId, timeZone, kinds, zones, position, se
             {t("safetyLink")}
           </a>
         </p>
-        <fieldset className="grid gap-2">
-          <legend className="mb-1 font-bold">{t("session.kind")}</legend>
-          {eventKinds(kinds).map((k) => (
-            <label key={k} className={choice}>
-              <input
-                type="radio"
-                name="kind"
-                value={k}
-                checked={kind === k}
-                onChange={() => setKind(k)}
-                className="h-5 w-5"
-              />
-              {t(`sessionKind.${k}`)}
-            </label>
-          ))}
-        </fieldset>
-        <label className="block space-y-1">
-          <span className="font-bold">{t("zone")}</span>
-          <select
-            value={zoneId}
-            onChange={(e) => setZoneId(e.target.value)}
-            className="block min-h-touch w-full rounded-lg border-2 border-reed-700 bg-white px-3 text-lg"
-          >
-            <option value="">{here ? t("zoneHere", { zone: here.properties.name }) : t("zoneUnknown")}</option>
-            {zones?.features.map((f) => (
-              <option key={f.id} value={f.id}>
-                {f.properties.name}
-              </option>
-            ))}
-          </select>
-        </label>
+        <KindAndZone
+          name="kind"
+          kinds={kinds}
+          kind={kind}
+          onKind={setKind}
+          zoneId={zoneId}
+          onZone={setZoneId}
+          zones={zones}
+          noZone={here ? t("zoneHere", { zone: here.properties.name }) : t("zoneUnknown")}
+        />
         {error ? (
           <p role="alert" className="font-semibold text-signal">
             ✕ {error}

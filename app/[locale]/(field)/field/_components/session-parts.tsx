@@ -35,6 +35,52 @@ type EditorProps = {
 };
 
 /** Edits a session's kind, zone, times and distance; judged by the same rules as on the server before it is queued. */
+/** The session's kind (of those the event uses) and its zone: starting a session and editing one. */
+export function KindAndZone(props: {
+  name: string;
+  kinds: string[] | null | undefined;
+  kind: SessionKind;
+  onKind: (k: SessionKind) => void;
+  zoneId: string;
+  onZone: (id: string) => void;
+  zones: ZoneCollection | null | undefined;
+  /** The words of the "no zone chosen" option. */
+  noZone: string;
+}) {
+  const t = useTranslations("FieldLog");
+  return (
+    <>
+      <fieldset className="grid gap-2">
+        <legend className="mb-1 font-bold">{t("session.kind")}</legend>
+        {eventKinds(props.kinds).map((k) => (
+          <label key={k} className={choice}>
+            <input
+              type="radio"
+              name={props.name}
+              value={k}
+              checked={props.kind === k}
+              onChange={() => props.onKind(k)}
+              className="h-5 w-5"
+            />
+            {t(`sessionKind.${k}`)}
+          </label>
+        ))}
+      </fieldset>
+      <label className="block space-y-1">
+        <span className="font-bold">{t("zone")}</span>
+        <select value={props.zoneId} onChange={(e) => props.onZone(e.target.value)} className={field}>
+          <option value="">{props.noZone}</option>
+          {props.zones?.features.map((f) => (
+            <option key={f.id} value={f.id}>
+              {f.properties.name}
+            </option>
+          ))}
+        </select>
+      </label>
+    </>
+  );
+}
+
 export function SessionEditor({ db, eventId, timeZone, kinds, zones, session, onDone }: EditorProps) {
   const t = useTranslations("FieldLog");
   const tSync = useTranslations("FieldSync");
@@ -103,33 +149,16 @@ export function SessionEditor({ db, eventId, timeZone, kinds, zones, session, on
       className="space-y-3 rounded-xl border-2 border-reed-700 bg-white p-4"
     >
       <h2 className="text-xl font-bold text-reed-900">{t("session.editTitle")}</h2>
-      <fieldset className="grid gap-2">
-        <legend className="mb-1 font-bold">{t("session.kind")}</legend>
-        {eventKinds(kinds).map((k) => (
-          <label key={k} className={choice}>
-            <input
-              type="radio"
-              name="edit-kind"
-              value={k}
-              checked={kind === k}
-              onChange={() => setKind(k)}
-              className="h-5 w-5"
-            />
-            {t(`sessionKind.${k}`)}
-          </label>
-        ))}
-      </fieldset>
-      <label className="block space-y-1">
-        <span className="font-bold">{t("zone")}</span>
-        <select value={zoneId} onChange={(e) => setZoneId(e.target.value)} className={field}>
-          <option value="">{t("session.noZone")}</option>
-          {zones?.features.map((f) => (
-            <option key={f.id} value={f.id}>
-              {f.properties.name}
-            </option>
-          ))}
-        </select>
-      </label>
+      <KindAndZone
+        name="edit-kind"
+        kinds={kinds}
+        kind={kind}
+        onKind={setKind}
+        zoneId={zoneId}
+        onZone={setZoneId}
+        zones={zones}
+        noZone={t("session.noZone")}
+      />
       <label className="block space-y-1">
         <span className="font-bold">{t("session.startedAt")}</span>
         <input type="datetime-local" value={start} onChange={(e) => setStart(e.target.value)} className={field} />
