@@ -1,7 +1,6 @@
 import { execFileSync, spawn, type ChildProcess } from "node:child_process";
 import { createHash, randomUUID } from "node:crypto";
 import { chownSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
-import http from "node:http";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { expect, test } from "@playwright/test";
@@ -13,6 +12,7 @@ import { startS3Fake } from "../../server/storage/s3-fake";
 import { MailCatcher } from "../support/mail-catcher";
 import { recreateDatabase } from "../support/test-db";
 import { expectPhotosInStore } from "./photo-store";
+import { rawRequest } from "./raw-http";
 
 // Chaos that includes the database and the fakes (issue 13). The app server, its mail worker,
 // the S3 fake and the SMTP fake run here against a throw-away PostgreSQL cluster of this test's
@@ -86,43 +86,15 @@ function stopCluster(): void {
 type Answer = { status: number; json: unknown };
 
 /** One HTTP request on its own connection; rejects on a refused or cut connection. */
-function send(method: string, url: string, body: unknown, cookie: string, timeoutMs = 15_000): Promise<Answer> {
-  return new Promise((resolve, reject) => {
-    const payload = body === undefined ? undefined : Buffer.from(JSON.stringify(body));
-    const req = http.request(
-      url,
-      {
-        method,
-        agent: false,
-        timeout: timeoutMs,
-        headers: {
-          connection: "close",
-          origin: BASE,
-          cookie,
-          ...(payload ? { "content-type": "application/json", "content-length": String(payload.length) } : {}),
-        },
-      },
-      (res) => {
-        const chunks: Buffer[] = [];
-        res.on("data", (c: Buffer) => chunks.push(c));
-        res.on("end", () => {
-          const text = Buffer.concat(chunks).toString("utf8");
-          let json: unknown = null;
-          try {
-            json = text ? JSON.parse(text) : null;
-          } catch {
-            json = text.slice(0, 200);
-          }
-          resolve({ status: res.statusCode ?? 0, json });
-        });
-        res.on("error", reject);
-      },
-    );
-    req.on("timeout", () => req.destroy(new Error("gave up waiting")));
-    req.on("error", reject);
-    if (payload) req.write(payload);
-    req.end();
-  });
+async function send(method: string, url: string, body: unknown, cookie: string, timeoutMs = 15_000): Promise<Answer> {
+  const { status, text } = await rawRequest(url, { method, body, headers: { origin: BASE, cookie }, timeoutMs });
+  let json: unknown = null;
+  try {
+    json = text ? JSON.parse(text) : null;
+  } catch {
+    json = text.slice(0, 200);
+  }
+  return { status, json };
 }
 
 type Sighting = Record<string, unknown> & { id: string; observedAt: string };

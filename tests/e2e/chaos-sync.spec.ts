@@ -1,7 +1,6 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { createHash, randomUUID } from "node:crypto";
 import { mkdtempSync, rmSync } from "node:fs";
-import http from "node:http";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { expect, test } from "@playwright/test";
@@ -13,6 +12,7 @@ import { seededRandom } from "../../db/seed/random";
 import { startS3Fake } from "../../server/storage/s3-fake";
 import { startChaosProxy, type Fate } from "./chaos-proxy";
 import { expectPhotosInStore } from "./photo-store";
+import { rawRequest } from "./raw-http";
 
 // Chaos sync (issue 8): 100 simulated devices each send 50 sightings — some inside count
 // sessions, some with a photo — through the real route handlers of the production build,
@@ -53,7 +53,7 @@ const SEED = Number(process.env.CHAOS_SEED ?? 20261202);
 const random = seededRandom(SEED); // so a failing run can be replayed
 
 /** One HTTP request on its own connection (no keep-alive), with the device's patience. */
-function send(
+async function send(
   method: string,
   port: number,
   path: string,
@@ -61,42 +61,17 @@ function send(
   headers: Record<string, string>,
   timeoutMs: number,
 ): Promise<{ status: number; json: unknown }> {
-  return new Promise((resolve, reject) => {
-    const payload = body === undefined ? undefined : Buffer.from(JSON.stringify(body));
-    const req = http.request(
-      {
-        host: "127.0.0.1",
-        port,
-        path,
-        method,
-        agent: false,
-        timeout: timeoutMs,
-        headers: {
-          connection: "close",
-          origin: `http://127.0.0.1:${PROXY_PORT}`,
-          ...headers,
-          ...(payload ? { "content-type": "application/json", "content-length": String(payload.length) } : {}),
-        },
-      },
-      (res) => {
-        const chunks: Buffer[] = [];
-        res.on("data", (c: Buffer) => chunks.push(c));
-        res.on("end", () => {
-          const text = Buffer.concat(chunks).toString("utf8");
-          try {
-            resolve({ status: res.statusCode ?? 0, json: text ? JSON.parse(text) : null });
-          } catch {
-            reject(new Error(`unreadable answer (${res.statusCode}): ${text.slice(0, 80)}`));
-          }
-        });
-        res.on("error", reject);
-      },
-    );
-    req.on("timeout", () => req.destroy(new Error("device gave up waiting")));
-    req.on("error", reject);
-    if (payload) req.write(payload);
-    req.end();
+  const { status, text } = await rawRequest(`http://127.0.0.1:${port}${path}`, {
+    method,
+    body,
+    headers: { origin: `http://127.0.0.1:${PROXY_PORT}`, ...headers },
+    timeoutMs,
   });
+  try {
+    return { status, json: text ? JSON.parse(text) : null };
+  } catch {
+    throw new Error(`unreadable answer (${status}): ${text.slice(0, 80)}`);
+  }
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
