@@ -1,10 +1,13 @@
 import "server-only";
-import { and, asc, eq, ne } from "drizzle-orm";
+import { asc, eq, sql } from "drizzle-orm";
 import { reviewClosesAt } from "@/lib/time/review-period";
 import { getDb } from "../client";
 import { eventMembers, events } from "../schema";
 
-/** The events a person can open in the field log: those they are a member of, not drafts. */
+/**
+ * The events a person can open in the field log: those they are a member of, open ones first.
+ * A draft is listed too (someone who joined early sees when recording opens), and takes no records.
+ */
 export async function fieldLogEvents(userId: string) {
   const rows = await getDb()
     .select({
@@ -18,8 +21,8 @@ export async function fieldLogEvents(userId: string) {
     })
     .from(eventMembers)
     .innerJoin(events, eq(events.id, eventMembers.eventId))
-    .where(and(eq(eventMembers.userId, userId), ne(events.status, "draft")))
-    .orderBy(asc(events.status), asc(events.name));
+    .where(eq(eventMembers.userId, userId))
+    .orderBy(sql`CASE ${events.status} WHEN 'open' THEN 0 WHEN 'draft' THEN 1 ELSE 2 END`, asc(events.name));
   return rows.map((r) => ({
     ...r,
     startsAt: r.startsAt.toISOString(),

@@ -170,3 +170,19 @@ test("on a phone: one-line header, checks at save, a session's summary, edit and
     )
     .toEqual({ sessions: 0, sighting: { session_id: null } });
 });
+
+test("someone who joined a draft event sees in the field log when recording opens, and cannot record yet", async ({
+  page,
+}) => {
+  // Owen Pritchard is a volunteer of the autumn foray, still in preparation (db/seed/demo-scenario.ts).
+  await signInWithPassword(page, "volunteer2@example.org");
+  await page.goto("/en/field");
+  const pick = page.getByRole("button", { name: /Harrowmere Vale Autumn Fungus Foray/ });
+  const heading = page.getByRole("heading", { level: 2, name: "Harrowmere Vale Autumn Fungus Foray" });
+  await expect(pick.or(heading)).toBeVisible();
+  if (await pick.isVisible()) await pick.click();
+  await expect(heading).toBeVisible();
+  // 08:00 UTC on 16 October 2027, written in the event's time zone.
+  await expect(page.getByText(/has not opened for records yet: recording starts on .*2027/)).toBeVisible();
+  await expect(page.getByRole("button", { name: "Add sighting" })).toBeDisabled();
+});

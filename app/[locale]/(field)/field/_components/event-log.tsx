@@ -119,7 +119,15 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
         </div>
         {event.status !== "open" ? (
           <p className="rounded-lg border-2 border-heath-700 bg-heath-50 p-3 font-semibold text-heath-900">
-            {t("eventNotOpen")}
+            {event.status === "draft"
+              ? t("eventOpensLater", {
+                  start: format.dateTime(new Date(event.startsAt), {
+                    dateStyle: "long",
+                    timeStyle: "short",
+                    timeZone: event.timeZone,
+                  }),
+                })
+              : t("eventNotOpen")}
           </p>
         ) : null}
         <p className="text-ink-soft">{t("reviewUntil", { date: day(event.reviewClosesAt) })}</p>
