@@ -177,7 +177,7 @@ describe("Darwin Core Archive of a report (Event core, Occurrence extension)", (
       .where(sql`id = ${f.event.id}`);
     const taxon = async (name: string, sensitivity: "open" | "generalised" = "open") =>
       (await db().insert(s.taxa).values({ scientificName: name, taxonGroup: "birds", sensitivity }).returning())[0]!;
-    const absentOne = await taxon("Testus absentus");
+    const absentOne = await taxon("Archivus absentus");
     const secret = await taxon("Testus secretus", "generalised");
     await db()
       .insert(s.eventSpecies)
@@ -281,7 +281,7 @@ describe("Darwin Core Archive of a report (Event core, Occurrence extension)", (
     // Absences: open listed taxa not noted in the complete session, never in the walk, never sensitive ones.
     const absences = a.ext.filter((o) => o.occurrenceStatus === "absent");
     expect(absences.map((o) => [o.eventID, o.scientificName, o.individualCount])).toEqual([
-      [`urn:uuid:${complete}`, "Testus absentus", "0"],
+      [`urn:uuid:${complete}`, "Archivus absentus", "0"],
     ]);
     expect(absences[0]!.recordedBy).toBe("V. Recorder");
     // Not a demo: nothing says invented; the licence is named in the metadata.
