@@ -51,12 +51,13 @@ async function checks(tx: Tx, eventId: string, area: AreaInput, zones: ZoneInput
       code: "invalidGeometry",
       values: { reason: r.reason },
     });
-  if (invalid.length) return problems; // Within and overlap are meaningless on invalid shapes.
-
+  // Within and overlap are meaningless on invalid shapes: those are left out of the next checks,
+  // and every other feature is still checked, so one upload reports every problem at once.
   const { rows: outside } = await tx.execute<{ feature: number; outside_m2: number }>(sql`
     SELECT z.feature, round(ST_Area(ST_Difference(z.geom, a.geom)::geography))::float8 AS outside_m2
     FROM upload_geom z, upload_geom a
-    WHERE z.kind = 'zone' AND a.kind = 'area' AND NOT ST_Within(z.geom, a.geom)
+    WHERE z.kind = 'zone' AND a.kind = 'area' AND ST_IsValid(z.geom) AND ST_IsValid(a.geom)
+      AND NOT ST_Within(z.geom, a.geom)
     ORDER BY z.feature`);
   for (const r of outside)
     problems.push({
@@ -68,7 +69,8 @@ async function checks(tx: Tx, eventId: string, area: AreaInput, zones: ZoneInput
 
   const { rows: overlaps } = await tx.execute<{ a: number; b: number }>(sql`
     SELECT x.feature AS a, y.feature AS b FROM upload_geom x JOIN upload_geom y
-      ON x.kind = 'zone' AND y.kind = 'zone' AND x.feature < y.feature AND x.geom && y.geom AND ST_Relate(x.geom, y.geom, '2********')
+      ON x.kind = 'zone' AND y.kind = 'zone' AND x.feature < y.feature AND ST_IsValid(x.geom) AND ST_IsValid(y.geom)
+        AND x.geom && y.geom AND ST_Relate(x.geom, y.geom, '2********')
     ORDER BY 1, 2`);
   for (const r of overlaps)
     problems.push({

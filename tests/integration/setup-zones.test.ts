@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { areaAndZones, uploadAreaAndZones } from "@/db/queries/setup-zones";
 import * as s from "@/db/schema";
 import { parseAreaAndZones } from "@/lib/geo/geojson";
+import { checkAndSaveZones } from "@/server/setup/zones-upload";
 import { db, makeFixture, sightingValues } from "./helpers";
 
 const file = (name: string) => JSON.parse(readFileSync(`tests/fixtures/setup/${name}`, "utf8"));
@@ -48,10 +49,14 @@ describe("area and zones upload (PostGIS checks)", () => {
     const before = await areaAndZones(f.event.id);
     const result = await upload(f.event.id, file("zones-bad.geojson"), true);
     expect(result.saved).toBe(false);
-    expect(result.problems.map((p) => [p.feature, p.code])).toEqual([[3, "invalidGeometry"]]);
+    // Every problem at once: the bow tie, and the zone that runs past the area's edge.
+    expect(result.problems.map((p) => [p.feature, p.code])).toEqual([
+      [3, "invalidGeometry"],
+      [2, "outsideArea"],
+    ]);
     expect(String(result.problems[0]!.values?.reason)).toMatch(/Self-intersection/);
 
-    // With the bow tie fixed, the zone that runs past the area's edge is named.
+    // With the bow tie fixed, the zone that runs past the area's edge is still named, alone.
     const json = file("zones-bad.geojson");
     json.features[3].geometry.coordinates = [
       [
@@ -117,5 +122,21 @@ describe("area and zones upload (PostGIS checks)", () => {
       ["Oak Copse", "zoneHasRecords", 1],
     ]);
     expect((await areaAndZones(f.event.id)).zones.map((z) => z.name)).toEqual(["Gorse Bank", "Oak Copse"]);
+  });
+
+  it("names shape problems and PostGIS problems of one file in one answer, and saves nothing", async () => {
+    const f = await emptyEvent("zones-all-at-once");
+    const json = file("zones-bad.geojson");
+    // Feature 3 keeps its bow tie (PostGIS), feature 2 still runs outside the area (PostGIS),
+    // and feature 1 loses its habitat (a shape check).
+    delete json.features[1].properties.habitat;
+    const result = await checkAndSaveZones(f.event.id, json, true);
+    expect(result.saved).toBe(false);
+    expect(result.problems.map((p) => [p.feature, p.code])).toEqual([
+      [1, "missingHabitat"],
+      [2, "outsideArea"],
+      [3, "invalidGeometry"],
+    ]);
+    expect((await areaAndZones(f.event.id)).zones).toEqual([]);
   });
 });
