@@ -59,9 +59,13 @@ test("an organiser creates an event, uploads zones and species, invites a coordi
   await expect(page.getByText("No area or zones yet.")).toBeVisible();
   await page.getByLabel("GeoJSON file").setInputFiles(fixture("zones-bad.geojson"));
   const geoReport = page.getByRole("alert").filter({ hasText: "problem found" });
-  await expect(geoReport).toContainText("1 problem found");
+  // Every problem of the file at once: the bow tie and the zone running past the area's edge.
+  await expect(geoReport).toContainText("2 problems found");
   await expect(geoReport.getByRole("row", { name: /Dew Pond/ })).toContainText(
     "The shape is not valid: Self-intersection",
+  );
+  await expect(geoReport.getByRole("row", { name: /Oak Copse/ })).toContainText(
+    "The zone is not inside the event area",
   );
   await expect(geoReport).toContainText("Nothing was saved.");
   await expect(page.getByRole("button", { name: "Save area and zones" })).toHaveCount(0);
