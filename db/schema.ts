@@ -535,6 +535,10 @@ export const reports = pgTable(
       .default(sql`'[]'::jsonb`),
     // The organiser's optional note at publishing, shown on the report page.
     note: text("note").notNull().default(""),
+    // The event beside an earlier event of the same site as it stood at publishing
+    // (lib/results/compare-events.ts), or null when there was none: a fact declared at
+    // publishing, like the pending counts, not re-computed from this report's inputs.
+    besideEarlier: jsonb("beside_earlier"),
   },
   (t) => [
     uniqueIndex("reports_event_version_key").on(t.eventId, t.version),

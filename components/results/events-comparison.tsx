@@ -8,7 +8,8 @@ import { EffortHeaders, EffortStandard } from "./zone-comparison";
  * This event beside an earlier event of the same site: richness at equal coverage (the
  * standard, named with its value) and equal sample size, Hill numbers at that coverage, and
  * one sentence with the zones' rule ("more"/"fewer" only when the bootstrap interval of the
- * difference excludes 0). A plain GET form chooses the earlier event (works without script).
+ * difference excludes 0). A plain GET form chooses the earlier event (works without script);
+ * a report shows the comparison it froze at publishing, without the form (no candidates).
  */
 export async function EventsComparison({
   candidates,
@@ -30,9 +31,9 @@ export async function EventsComparison({
       <h2 id="events-comparison-title" className="text-2xl font-bold text-reed-900">
         {t("betweenEvents.title")}
       </h2>
-      {candidates.length === 0 ? (
+      {candidates.length === 0 && !chosen ? (
         <p className="max-w-prose">{t("betweenEvents.none")}</p>
-      ) : (
+      ) : candidates.length === 0 ? null : (
         <form method="get" className="flex flex-wrap items-end gap-2">
           <label className="flex flex-col text-sm font-semibold">
             {t("betweenEvents.choose")}

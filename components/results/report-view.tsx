@@ -10,6 +10,8 @@ import { reportMapLayers } from "@/lib/results/report-map";
 import { mapSettings } from "@/server/map-settings";
 import { checkReport } from "@/server/results/check";
 import { ResultsBody } from "@/components/results/results-body";
+import { EventsComparison } from "@/components/results/events-comparison";
+import type { ReportBesideEarlier } from "@/lib/results/compare-events";
 import { EstimateCaution } from "@/components/results/zone-comparison";
 import { Link } from "@/lib/i18n/navigation";
 import type { Results } from "@/lib/results/compute";
@@ -33,6 +35,8 @@ export type ReportLike = {
   changes: ReportChanges | Record<string, never>;
   note: string;
   withdrawal: Withdrawal | null;
+  /** Beside an earlier event of the site, as it stood at publishing (absent or null: none). */
+  besideEarlier?: ReportBesideEarlier | null;
 };
 
 export type ReportEventLike = { id: string; name: string; slug: string; timeZone: string; organisationName: string };
@@ -279,6 +283,13 @@ export async function ReportView({
       </section>
 
       <ResultsBody results={r} showSensitivity />
+      {report.besideEarlier ? (
+        <EventsComparison
+          candidates={[]}
+          chosen={report.besideEarlier.earlier}
+          comparison={report.besideEarlier.comparison}
+        />
+      ) : null}
 
       <section aria-labelledby="method-title" className="space-y-2">
         <h2 id="method-title" className="text-2xl font-bold text-reed-900">

@@ -10,6 +10,7 @@ import type { Sensitivity } from "@/lib/domain";
 import { publicResults, type PublicPolicy } from "@/lib/results/public";
 import type { DwcDataset, DwcSession } from "@/lib/results/dwc";
 import type { DataLicense } from "@/lib/results/licenses";
+import type { ReportBesideEarlier } from "@/lib/results/compare-events";
 
 export type ReportRow = {
   id: string;
@@ -23,6 +24,8 @@ export type ReportRow = {
   methodNotes: typeof METHOD_NOTES;
   changes: ReportChanges | Record<string, never>;
   note?: string;
+  /** Beside an earlier event of the site, frozen at publishing; null without one. */
+  besideEarlier?: ReportBesideEarlier | null;
 };
 
 export type ReportSummary = Pick<ReportRow, "id" | "version" | "publishedAt" | "inputHash" | "changes"> & {
@@ -145,7 +148,7 @@ export async function getReport(
     SELECT id, event_id AS "eventId", version, published_at AS "publishedAt", published_by AS "publishedBy",
       engine_version AS "engineVersion", input_hash AS "inputHash", ${inputs} AS "inputRecords",
       jsonb_array_length(input_records) AS "inputCount", results,
-      method_notes AS "methodNotes", changes, note,
+      method_notes AS "methodNotes", changes, note, beside_earlier AS "besideEarlier",
       (SELECT max(version) FROM reports x WHERE x.event_id = reports.event_id)::int AS "latestVersion",
       w.withdrawn_at AS "withdrawnAt", w.reason AS "withdrawReason"
     FROM reports LEFT JOIN report_withdrawals w ON w.report_id = reports.id

@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb, getReadDb, type Db } from "../client";
 import { NO_ZONE, type Pending, type ResultsInput, type ResultsTaxon } from "@/lib/results/compute";
+import type { EarlierEventRef } from "@/lib/results/compare-events";
 import { SESSION_RECORD, type InputRecord } from "@/lib/results/records";
 import { COUNT_UNITS, countUnitOf, type CountUnit } from "@/lib/results/settings";
 import type { ReviewState } from "@/lib/domain";
@@ -102,10 +103,11 @@ export async function pendingCounts(eventId: string, db: Tx = getDb()): Promise<
  */
 export async function loadResultsInput(
   eventId: string,
-  options: { sessions?: boolean; pending?: boolean } = {},
+  options: { sessions?: boolean; pending?: boolean; db?: Tx } = {},
 ): Promise<ResultsInput> {
-  // Results may lag a moment behind the primary: read from the replica when there is one.
-  const db = getReadDb();
+  // Results may lag a moment behind the primary: read from the replica when there is one,
+  // unless the caller reads in a snapshot of its own (publishing).
+  const db = options.db ?? getReadDb();
   const [zones, counts, sessions, pending] = await Promise.all([
     eventZones(eventId, db),
     db.execute<{ zoneId: string; taxonId: string; individuals: number }>(sql`
@@ -221,14 +223,14 @@ export async function resultsKey(eventId: string): Promise<string> {
   return r.rows[0]!.k;
 }
 
-export type EarlierEvent = { id: string; name: string; slug: string; startsAt: string; endsAt: string };
+export type EarlierEvent = EarlierEventRef;
 
 /**
  * Earlier events of the same site: the same organisation, not a draft, ended before this
  * one started, with an area that overlaps this event's area (PostGIS). Newest first.
  */
-export async function earlierEventsOfSite(eventId: string): Promise<EarlierEvent[]> {
-  const r = await getReadDb().execute<EarlierEvent>(sql`
+export async function earlierEventsOfSite(eventId: string, db: Tx = getReadDb()): Promise<EarlierEvent[]> {
+  const r = await db.execute<EarlierEvent>(sql`
     SELECT o.id, o.name, o.slug, o.starts_at::text AS "startsAt", o.ends_at::text AS "endsAt"
     FROM events e
     JOIN events o ON o.organisation_id = e.organisation_id AND o.id <> e.id
@@ -237,4 +239,15 @@ export async function earlierEventsOfSite(eventId: string): Promise<EarlierEvent
     ORDER BY o.starts_at DESC
     LIMIT 20`);
   return r.rows;
+}
+
+/** An event's name and start, read where the caller reads (a publishing transaction). */
+export async function eventNameAndStart(
+  eventId: string,
+  db: Tx = getDb(),
+): Promise<{ id: string; name: string; startsAt: string } | null> {
+  const r = await db.execute<{ id: string; name: string; startsAt: string }>(
+    sql`SELECT id, name, starts_at::text AS "startsAt" FROM events WHERE id = ${eventId}`,
+  );
+  return r.rows[0] ?? null;
 }

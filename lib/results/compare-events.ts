@@ -14,6 +14,12 @@ export type EventSide = {
   input: Pick<ResultsInput, "taxa" | "counts" | "sessions">;
 };
 
+/** An earlier event of the same site, as a comparison names it. */
+export type EarlierEventRef = { id: string; name: string; slug: string; startsAt: string; endsAt: string };
+
+/** What a report keeps of the comparison: the earlier event it was made with, and the numbers. */
+export type ReportBesideEarlier = { earlier: EarlierEventRef; comparison: EventComparison };
+
 export type EventComparison = {
   kind: Comparison["kind"];
   size: number;

@@ -1,6 +1,13 @@
 import "server-only";
-import { earlierEventsOfSite, loadResultsInput, resultsKey, type EarlierEvent } from "@/db/queries/results";
-import { compareEvents, type EventComparison } from "@/lib/results/compare-events";
+import {
+  earlierEventsOfSite,
+  eventNameAndStart,
+  loadResultsInput,
+  resultsKey,
+  type EarlierEvent,
+} from "@/db/queries/results";
+import type { Tx } from "@/db/client";
+import { compareEvents, type EventComparison, type ReportBesideEarlier } from "@/lib/results/compare-events";
 
 // This event beside an earlier event of the same site (db/queries/results.ts
 // earlierEventsOfSite), computed once per change of either event and kept in this process.
@@ -37,4 +44,24 @@ export async function comparisonWithEarlier(
   cache.set(pair, { key, comparison });
   if (cache.size > MAX_PAIRS) cache.delete(cache.keys().next().value!);
   return { candidates, chosen, comparison };
+}
+
+/**
+ * The comparison a report freezes at publishing (and its preview shows): with the newest
+ * earlier event of the site, read in the publishing transaction's snapshot; null without one.
+ */
+export async function besideEarlierForReport(eventId: string, tx: Tx): Promise<ReportBesideEarlier | null> {
+  const [earlier] = await earlierEventsOfSite(eventId, tx);
+  if (!earlier) return null;
+  const event = await eventNameAndStart(eventId, tx);
+  if (!event) return null;
+  const [now, then] = [
+    await loadResultsInput(event.id, { pending: false, db: tx }),
+    await loadResultsInput(earlier.id, { pending: false, db: tx }),
+  ];
+  const comparison = compareEvents(
+    { id: event.id, name: event.name, startsAt: new Date(event.startsAt).toISOString(), input: now },
+    { id: earlier.id, name: earlier.name, startsAt: new Date(earlier.startsAt).toISOString(), input: then },
+  );
+  return { earlier, comparison };
 }

@@ -8,6 +8,7 @@ import type { Tx } from "@/db/client";
 import { canonicalJson, computeResults, type Pending } from "@/lib/results/compute";
 import { METHOD_NOTES } from "@/lib/results/methods";
 import { diffRecords, inputFromRecords, inputHash, type ReportChanges } from "@/lib/results/records";
+import { besideEarlierForReport } from "./compare-events";
 
 /** Publishing while sightings wait for review needs `confirmPending` (the number is in the report). */
 export class PendingRecordsError extends Error {
@@ -37,7 +38,9 @@ export async function draftReport(eventId: string, tx: Tx) {
     ]);
     changes = diffRecords(prev.version, prev.inputRecords, records, (id) => names.get(id) ?? id);
   }
-  return { pending, records, results, version, changes, inputHash: inputHash(records) };
+  // Beside the newest earlier event of the site, as it stands now (shown by the report, not re-computed).
+  const besideEarlier = await besideEarlierForReport(eventId, tx);
+  return { pending, records, results, version, changes, inputHash: inputHash(records), besideEarlier };
 }
 
 /** The next version as the preview shows it, without publishing anything. */
@@ -76,6 +79,7 @@ export async function publishReport(
         methodNotes: METHOD_NOTES,
         changes,
         note: (options.note ?? "").trim(),
+        besideEarlier: draft.besideEarlier,
       },
       tx,
     );

@@ -121,6 +121,10 @@ test("organiser publishes results; the public reads the Spanish report and downl
   await expect(anon.getByRole("heading", { name: "Zonas con igual esfuerzo" })).toBeVisible();
   await expect(anon.getByRole("heading", { name: "Números de Hill según el tamaño de muestra" })).toBeVisible();
   await expect(anon.getByRole("heading", { name: "Entre zonas: especies compartidas y similitud" })).toBeVisible();
+  // The comparison with last year's count, as it stood at publishing, without a way to change it.
+  const besideV1 = anon.getByRole("region", { name: "Comparado con un evento anterior en este lugar" });
+  await expect(besideV1.getByRole("rowheader", { name: /Midsummer Count 2025, Harrowmere Vale/ })).toBeVisible();
+  await expect(besideV1.getByRole("combobox")).toHaveCount(0);
   await expect(anon.getByRole("figure", { name: "Rarefacción y extrapolación por individuos" })).toBeVisible();
   await expect(anon.getByText(/Organizado por .+ voluntarios y \d+ coordinadores/)).toBeVisible();
   await expect(

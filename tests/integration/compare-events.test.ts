@@ -3,7 +3,9 @@
 // comparison over the real aggregation (approved records only; pending ones wait).
 import { sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
+import { getReport } from "@/db/queries/reports";
 import { earlierEventsOfSite } from "@/db/queries/results";
+import { publishReport } from "@/server/results/publish";
 import { seedDemo } from "@/db/seed/demo";
 import { DEMO_EVENT, EARLIER_EVENT } from "@/db/seed/demo-scenario";
 import * as s from "@/db/schema";
@@ -120,5 +122,14 @@ describe("between events of one site", () => {
     expect(c.events[1]!.observed).toBeGreaterThan(10);
     expect(c.leftOut).toEqual([]);
     expect(c.sentence).toMatchObject({ a: now.id, b: c.events[1]!.id });
+
+    // A report freezes the comparison it was published with, and its page shows it.
+    const organiser = await db().execute<{ id: string }>(
+      sql`SELECT id FROM users WHERE email = 'organiser@example.org'`,
+    );
+    const v = await publishReport(now.id, organiser.rows[0]!.id, { confirmPending: true, notify: false });
+    const report = await getReport(now.id, v.version);
+    expect(report?.besideEarlier?.earlier.name).toBe(EARLIER_EVENT.name);
+    expect(report?.besideEarlier?.comparison).toEqual(c);
   });
 });

@@ -137,6 +137,7 @@ export default async function ReportPreviewPage({ params }: Props) {
           changes: draft.changes,
           note: "",
           withdrawal: null,
+          besideEarlier: draft.besideEarlier,
         }}
       />
     </div>
