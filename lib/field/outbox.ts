@@ -31,13 +31,8 @@ export async function cancelSession(db: FieldDatabase, id: string): Promise<{ de
     await sessions.put({
       ...before,
       record: { ...before.record, cancelled: true },
-      state: "waiting",
+      ...AGAIN,
       rev: before.rev + 1,
-      attempts: 0,
-      nextTryAt: 0,
-      problem: undefined,
-      reason: undefined,
-      field: undefined,
     });
   await tx.done;
   return { detached };
@@ -59,13 +54,8 @@ export async function withdrawSighting(db: FieldDatabase, id: string): Promise<L
   const entry: LocalSighting = {
     ...before,
     record: { ...rest, withdrawal: { toVersion: before.serverVersion ?? 1 } },
-    state: "waiting",
+    ...AGAIN,
     rev: before.rev + 1,
-    attempts: 0,
-    nextTryAt: 0,
-    problem: undefined,
-    reason: undefined,
-    field: undefined,
   };
   await tx.store.put(entry);
   await tx.done;
@@ -295,4 +285,12 @@ export async function eventsWithPending(db: FieldDatabase): Promise<string[]> {
     for (const r of await db.getAll(name)) if (r.state === "waiting" || r.state === "sending") ids.add(r.eventId);
   }
   return [...ids];
-}
+} /** A sent record going out again: waiting, tried afresh, any earlier refusal forgotten. */
+const AGAIN = {
+  state: "waiting",
+  attempts: 0,
+  nextTryAt: 0,
+  problem: undefined,
+  reason: undefined,
+  field: undefined,
+} as const;

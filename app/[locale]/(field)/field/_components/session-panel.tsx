@@ -9,7 +9,15 @@ import type { LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/ty
 import { walkDistanceM, zoneAt, type Fix } from "@/lib/field/zones";
 import type { PositionState } from "./use-position";
 import { type SessionKind as Kind } from "@/lib/domain";
-import { choice, eventKinds, KindAndZone, SessionActions, SessionEditor, SessionSummary } from "./session-parts";
+import {
+  choice,
+  DistanceField,
+  eventKinds,
+  KindAndZone,
+  SessionActions,
+  SessionEditor,
+  SessionSummary,
+} from "./session-parts";
 
 const trackKey = (id: string) => `track:${id}`;
 
@@ -199,19 +207,7 @@ export function SessionPanel({ db, eventId, timeZone, kinds, zones, position, se
                   {t("session.allNotedNo")}
                 </label>
               </fieldset>
-              {session.record.kind === "walk" ? (
-                <label className="block space-y-1">
-                  <span className="font-bold">{t("session.distance")}</span>
-                  <input
-                    type="number"
-                    inputMode="numeric"
-                    min={0}
-                    value={distance}
-                    onChange={(e) => setDistance(e.target.value)}
-                    className="block min-h-touch w-40 rounded-lg border-2 border-reed-700 bg-white px-3 text-lg"
-                  />
-                </label>
-              ) : null}
+              {session.record.kind === "walk" ? <DistanceField value={distance} onChange={setDistance} /> : null}
               {error ? (
                 <p role="alert" className="font-semibold text-signal">
                   ✕ {error}

@@ -35,6 +35,24 @@ type EditorProps = {
 };
 
 /** Edits a session's kind, zone, times and distance; judged by the same rules as on the server before it is queued. */
+/** A walk's distance in metres, as typed (checked at save). */
+export function DistanceField({ value, onChange }: { value: string; onChange: (v: string) => void }) {
+  const t = useTranslations("FieldLog");
+  return (
+    <label className="block space-y-1">
+      <span className="font-bold">{t("session.distance")}</span>
+      <input
+        type="number"
+        inputMode="numeric"
+        min={0}
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className={`${field} w-40`}
+      />
+    </label>
+  );
+}
+
 /** The session's kind (of those the event uses) and its zone: starting a session and editing one. */
 export function KindAndZone(props: {
   name: string;
@@ -169,19 +187,7 @@ export function SessionEditor({ db, eventId, timeZone, kinds, zones, session, on
           <input type="datetime-local" value={end} onChange={(e) => setEnd(e.target.value)} className={field} />
         </label>
       ) : null}
-      {kind === "walk" ? (
-        <label className="block space-y-1">
-          <span className="font-bold">{t("session.distance")}</span>
-          <input
-            type="number"
-            inputMode="numeric"
-            min={0}
-            value={distance}
-            onChange={(e) => setDistance(e.target.value)}
-            className={`${field} w-40`}
-          />
-        </label>
-      ) : null}
+      {kind === "walk" ? <DistanceField value={distance} onChange={setDistance} /> : null}
       <p className="text-ink-soft">{t("timesIn", { zone: timeZone })}</p>
       {error ? (
         <p role="alert" className="font-semibold text-signal">
