@@ -4,7 +4,7 @@ import { ApiError, handle, requestLocale } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { requireReviewPermit } from "@/server/review/permit";
+import { requireReviewPermit, staleVersion } from "@/server/review/permit";
 import { decisionInput } from "./schema";
 
 // A coordinator's decision on one sighting. A stale version (someone decided first) is a 409
@@ -20,15 +20,7 @@ export const POST = handle(async (request, ctx: { params: Promise<{ eventId: str
     case "ok":
       return Response.json({ sighting: result.sighting, reviewId: result.reviewId });
     case "conflict":
-      throw new ApiError("conflict", [
-        {
-          field: "version",
-          message: t("errors.conflict", {
-            state: translator(requestLocale(request), "StateMark")(`review.${result.current.reviewState}`),
-            version: result.current.version,
-          }),
-        },
-      ]);
+      throw staleVersion(requestLocale(request), result.current);
     case "unchanged":
       throw new ApiError("unprocessable", [{ field: "action", message: t("errors.unchanged") }]);
     case "bad_taxon":

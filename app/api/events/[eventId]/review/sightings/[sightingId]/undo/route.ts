@@ -4,7 +4,7 @@ import { ApiError, handle, requestLocale } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
 import { limitWrites } from "@/lib/http/write-limit";
 import { translator } from "@/lib/i18n/translator";
-import { requireReviewPermit } from "@/server/review/permit";
+import { requireReviewPermit, staleVersion } from "@/server/review/permit";
 import { undoInput } from "./schema";
 
 // Undoes the latest decision on a sighting by appending a decision that restores the state and
@@ -22,15 +22,7 @@ export const POST = handle(async (request, ctx: { params: Promise<{ eventId: str
     case "ok":
       return Response.json({ sighting: result.sighting, reviewId: result.reviewId });
     case "conflict":
-      throw new ApiError("conflict", [
-        {
-          field: "version",
-          message: t("errors.conflict", {
-            state: translator(locale, "StateMark")(`review.${result.current.reviewState}`),
-            version: result.current.version,
-          }),
-        },
-      ]);
+      throw staleVersion(locale, result.current);
     case "not_last":
       throw new ApiError("conflict", [{ field: "reviewId", message: t("errors.undoNotLast") }]);
     case "unknown_review":
