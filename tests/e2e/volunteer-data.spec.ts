@@ -154,10 +154,10 @@ test("a volunteer downloads their data and deletes their account; the published 
   expect(occurrencesAfter).not.toContain("Little Egret");
   expect(occurrencesAfter.split("\n").length).toBe(occurrencesBefore.split("\n").length);
   // Her rows now carry an anonymous recorder id where her pseudonym stood.
-  const before = recordedBy(occurrencesBefore);
-  const after = recordedBy(occurrencesAfter);
-  for (const [i, name] of before.entries())
-    if (name === "Little Egret") expect(after[i]).toMatch(/^recorder-[0-9a-f]{8}$/);
+  const namesBefore = recordedBy(occurrencesBefore);
+  const namesAfter = recordedBy(occurrencesAfter);
+  for (const [i, name] of namesBefore.entries())
+    if (name === "Little Egret") expect(namesAfter[i]).toMatch(/^recorder-[0-9a-f]{8}$/);
 });
 
 test("signing out asks about records still waiting, then leaves the phone's store empty", async ({ page }) => {
