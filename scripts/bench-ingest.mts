@@ -208,7 +208,8 @@ const { eventId, taxonIds, userIds } = await seed();
 const cookies = await Promise.all(
   userIds
     .slice(0, CLIENTS)
-    .map(async (id) => `next-auth.session-token=${await encode({ token: { sub: id }, secret: SECRET })}`),
+    // sv: the session version a new person starts with (server/auth: a signed-out session is refused).
+    .map(async (id) => `next-auth.session-token=${await encode({ token: { sub: id, sv: 0 }, secret: SECRET })}`),
 );
 const stop = await startServer();
 let result: autocannon.Result;
@@ -219,7 +220,8 @@ try {
     connections: 4,
     duration: 3,
     method: "POST",
-    headers: { "content-type": "application/json", cookie: cookies[0]! },
+    // Writes need our own Origin (the same-origin check), as a browser sends it.
+    headers: { "content-type": "application/json", cookie: cookies[0]!, origin: BASE },
     body: JSON.stringify({ sightings: sightingsBatch(taxonIds, BATCH) }),
   });
   let nextClient = 0;
@@ -235,7 +237,7 @@ try {
           context.cookie ??= cookies[nextClient++ % cookies.length];
           return {
             ...req,
-            headers: { "content-type": "application/json", cookie: context.cookie as string },
+            headers: { "content-type": "application/json", cookie: context.cookie as string, origin: BASE },
             body: JSON.stringify({ sightings: sightingsBatch(taxonIds, BATCH) }),
           };
         },

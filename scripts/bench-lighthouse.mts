@@ -203,7 +203,8 @@ try {
   const published = await fetch(`${base}/api/events/${eventId}/reports`, {
     method: "POST",
     headers: { cookie: organiser, origin: base, "content-type": "application/json" },
-    body: "{}",
+    // The demo holds pending sightings: publishing says so and goes ahead, as an organiser confirms.
+    body: JSON.stringify({ confirmPending: true, notify: false }),
   });
   if (!published.ok) throw new Error(`publishing the demo report failed (HTTP ${published.status})`);
   const { version } = (await published.json()) as { version: number };

@@ -15,6 +15,8 @@ if (!process.execArgv.some((a) => a.includes("react-server"))) {
   const { env } = await import("../lib/env");
   const u = new URL(env().DATABASE_URL);
   u.pathname = "/ecotone_test_bench";
+  // ECOTONE_PG_PORT moves the cluster, as for the other parts of the bench.
+  if (process.env.ECOTONE_PG_PORT) u.port = process.env.ECOTONE_PG_PORT;
   const r = spawnSync(
     process.execPath,
     ["--conditions=react-server", "--import", "tsx", fileURLToPath(import.meta.url), ...process.argv.slice(2)],
