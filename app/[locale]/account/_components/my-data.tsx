@@ -6,19 +6,14 @@ import { useTranslations } from "next-intl";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { publishedNameInput, type PublishedNameInput } from "@/lib/account/published-name";
+import { PublishedNameFields } from "@/components/published-name-fields";
 import { buttonClass, Field, inputClass, secondaryButtonClass } from "@/components/ui/field";
 import { clearDevice } from "@/lib/field/device-clear";
 import { api, ApiClientError } from "@/lib/http/client";
 
-function useErrorText() {
-  const t = useTranslations("MyData");
-  return (m: string | undefined) => (m ? (t.has(`errors.${m}` as never) ? t(`errors.${m}` as never) : m) : undefined);
-}
-
 /** The name published with the person's approved sightings, with consent given again on each change. */
 export function PublishedNameForm({ current }: { current: string | null }) {
   const t = useTranslations("MyData");
-  const errorText = useErrorText();
   const [saved, setSaved] = useState(false);
   const form = useForm<PublishedNameInput>({
     resolver: zodResolver(publishedNameInput),
@@ -37,26 +32,13 @@ export function PublishedNameForm({ current }: { current: string | null }) {
   });
   return (
     <form onSubmit={submit} noValidate className="max-w-md space-y-3">
-      <p className="text-sm">{t("publishStatement")}</p>
-      <Field id="published-name" label={t("publishedName")} error={errorText(errors.publishedName?.message)}>
-        <input
-          id="published-name"
-          autoComplete="nickname"
-          maxLength={80}
-          className={inputClass}
-          aria-invalid={Boolean(errors.publishedName)}
-          {...form.register("publishedName")}
-        />
-      </Field>
-      <label className="flex min-h-touch items-start gap-2">
-        <input type="checkbox" className="mt-1 size-5" {...form.register("consent")} />
-        <span>{t("consent")}</span>
-      </label>
-      {errors.consent ? (
-        <p role="alert" className="font-semibold text-signal">
-          ✕ {errorText(errors.consent.message)}
-        </p>
-      ) : null}
+      <PublishedNameFields
+        idPrefix=""
+        name={form.register("publishedName")}
+        consent={form.register("consent")}
+        nameError={errors.publishedName?.message}
+        consentError={errors.consent?.message}
+      />
       <button type="submit" className={buttonClass} disabled={isSubmitting}>
         {t("savePublished")}
       </button>

@@ -184,28 +184,19 @@ export function SessionPanel({ db, eventId, timeZone, kinds, zones, position, se
               <fieldset className="space-y-2">
                 <legend className="font-bold">{t("session.allNotedQuestion")}</legend>
                 <p className="text-ink-soft">{t("session.allNotedHint")}</p>
-                <label className={choice}>
-                  <input
-                    type="radio"
-                    name="allNoted"
-                    value="yes"
-                    checked={allNoted === "yes"}
-                    onChange={() => setAllNoted("yes")}
-                    className="h-5 w-5"
-                  />
-                  {t("session.allNotedYes")}
-                </label>
-                <label className={choice}>
-                  <input
-                    type="radio"
-                    name="allNoted"
-                    value="no"
-                    checked={allNoted === "no"}
-                    onChange={() => setAllNoted("no")}
-                    className="h-5 w-5"
-                  />
-                  {t("session.allNotedNo")}
-                </label>
+                {(["yes", "no"] as const).map((answer) => (
+                  <label key={answer} className={choice}>
+                    <input
+                      type="radio"
+                      name="allNoted"
+                      value={answer}
+                      checked={allNoted === answer}
+                      onChange={() => setAllNoted(answer)}
+                      className="h-5 w-5"
+                    />
+                    {answer === "yes" ? t("session.allNotedYes") : t("session.allNotedNo")}
+                  </label>
+                ))}
               </fieldset>
               {session.record.kind === "walk" ? <DistanceField value={distance} onChange={setDistance} /> : null}
               {error ? (

@@ -5,6 +5,7 @@ import { useTranslations } from "next-intl";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { joinInput, type JoinInput } from "@/app/api/join/schema";
+import { PublishedNameFields } from "@/components/published-name-fields";
 import { buttonClass, Field, inputClass } from "@/components/ui/field";
 import { api, ApiClientError } from "@/lib/http/client";
 import { Link } from "@/lib/i18n/navigation";
@@ -70,8 +71,6 @@ export function JoinForm({
     );
   }
   const emailError = errors.email?.message;
-  const myError = (m: string | undefined) =>
-    m ? (tMy.has(`errors.${m}` as never) ? tMy(`errors.${m}` as never) : m) : undefined;
   return (
     <form
       onSubmit={submit}
@@ -107,32 +106,13 @@ export function JoinForm({
         <h3 id="join-publish-title" className="font-bold text-reed-900">
           {tMy("publishTitle")}
         </h3>
-        <p className="text-sm">{tMy("publishStatement")}</p>
-        <Field id="join-published-name" label={tMy("publishedName")} error={myError(errors.publishedName?.message)}>
-          <input
-            id="join-published-name"
-            autoComplete="nickname"
-            maxLength={80}
-            className={inputClass}
-            aria-invalid={Boolean(errors.publishedName)}
-            {...form.register("publishedName")}
-          />
-        </Field>
-        <label className="flex min-h-touch items-start gap-2">
-          <input
-            type="checkbox"
-            className="mt-1 size-5"
-            aria-invalid={Boolean(errors.consent)}
-            aria-describedby={errors.consent ? "join-consent-error" : undefined}
-            {...form.register("consent")}
-          />
-          <span>{tMy("consent")}</span>
-        </label>
-        {errors.consent ? (
-          <p id="join-consent-error" role="alert" className="font-semibold text-signal">
-            ✕ {myError(errors.consent.message)}
-          </p>
-        ) : null}
+        <PublishedNameFields
+          idPrefix="join-"
+          name={form.register("publishedName")}
+          consent={form.register("consent")}
+          nameError={errors.publishedName?.message}
+          consentError={errors.consent?.message}
+        />
       </section>
       {problem ? (
         <p role="alert" className="font-semibold text-signal">
