@@ -45,8 +45,15 @@ test("organiser previews the report, publishes it with a note and no mail, then 
   await page.getByRole("button", { name: "Publish this report…" }).click();
   const dialog = page.getByRole("dialog", { name: `Publish version ${version}?` });
   await expect(dialog).toBeVisible();
+  // A keyboard user lands in the confirmation, and Esc or "Not yet" puts them back on the button.
+  await expect(dialog).toBeFocused();
+  await page.keyboard.press("Escape");
+  await expect(dialog).toBeHidden();
+  await expect(page.getByRole("button", { name: "Publish this report…" })).toBeFocused();
+  await page.keyboard.press("Enter");
   await dialog.getByRole("button", { name: "Not yet" }).click();
   await expect(dialog).toBeHidden();
+  await expect(page.getByRole("button", { name: "Publish this report…" })).toBeFocused();
   await page.getByRole("button", { name: "Publish this report…" }).click();
   await dialog.getByLabel("Note on the report page (optional)").fill("Thanks to everyone who braved the moor.");
   const mailsBefore = await publishedMails();

@@ -1,7 +1,7 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useId, useState } from "react";
+import { useEffect, useId, useRef, useState } from "react";
 import { api, ApiClientError } from "@/lib/http/client";
 
 type Labels = {
@@ -41,6 +41,15 @@ export function PreviewPublish({
   const [notify, setNotify] = useState(true);
   const [busy, setBusy] = useState(false);
   const [problem, setProblem] = useState("");
+  // Keyboard users land in the confirmation when it opens and back on the button when it closes.
+  const dialogRef = useRef<HTMLDivElement>(null);
+  const openerRef = useRef<HTMLButtonElement>(null);
+  const wasAsking = useRef(false);
+  useEffect(() => {
+    if (asking) dialogRef.current?.focus();
+    else if (wasAsking.current) openerRef.current?.focus();
+    wasAsking.current = asking;
+  }, [asking]);
   async function publish() {
     setBusy(true);
     setProblem("");
@@ -61,6 +70,7 @@ export function PreviewPublish({
   if (!asking)
     return (
       <button
+        ref={openerRef}
         type="button"
         onClick={() => setAsking(true)}
         className="min-h-touch rounded-lg bg-reed-700 px-5 font-semibold text-white hover:bg-reed-800"
@@ -70,8 +80,13 @@ export function PreviewPublish({
     );
   return (
     <div
+      ref={dialogRef}
       role="dialog"
+      tabIndex={-1}
       aria-labelledby={`${id}-title`}
+      onKeyDown={(e) => {
+        if (e.key === "Escape" && !busy) setAsking(false);
+      }}
       className="space-y-3 rounded-lg border-2 border-reed-700 bg-white p-4"
     >
       <p id={`${id}-title`} className="text-lg font-bold">
