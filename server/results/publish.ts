@@ -1,7 +1,8 @@
 import "server-only";
 import { enqueueMail, type OutboxMail } from "@/db/queries/mail-queue";
 import { inReportTransaction, insertReport, latestReportInputs, reportRecipients } from "@/db/queries/reports";
-import { eventZones, loadInputRecords, pendingCounts, taxaMeta } from "@/db/queries/results";
+import { loadEventInputRecords } from "@/db/queries/report-inputs";
+import { eventZones, pendingCounts, taxaMeta } from "@/db/queries/results";
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
 import type { Tx } from "@/db/client";
@@ -24,7 +25,7 @@ export class PendingRecordsError extends Error {
  */
 export async function draftReport(eventId: string, tx: Tx) {
   const pending = await pendingCounts(eventId, tx);
-  const records = await loadInputRecords(eventId, tx);
+  const records = await loadEventInputRecords(eventId, tx);
   const zones = await eventZones(eventId, tx);
   const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
   const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
