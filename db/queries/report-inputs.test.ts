@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { NO_ZONE } from "@/lib/results/compute";
 import { inputHash, type InputRecord } from "@/lib/results/records";
@@ -39,6 +40,39 @@ describe("report inputs in their stored form", () => {
     expect(
       recordsOfRow({ ...row, ids: "", states: "", taxa: "", counts: "", zones: "", sessions: "", sessionZones: "" }),
     ).toEqual([]);
+  });
+
+  it("hash as one JSON.stringify line per record in id order (the meaning reports were published with)", () => {
+    const reference = (rs: InputRecord[]) => {
+      const h = createHash("sha256");
+      for (const r of [...rs].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0)))
+        h.update(`${JSON.stringify(r)}\n`);
+      return h.digest("hex");
+    };
+    const odd: InputRecord[] = [
+      ...records,
+      ['x"y', "appr\u00e9ved", 'a"b\\c', -0, "zone\n", null, "é"],
+      [id(0), "approved", id(100), 2.5, NO_ZONE, null, null],
+    ];
+    expect(inputHash(odd)).toBe(reference(odd));
+    expect(inputHash([...records].reverse())).toBe(reference(records));
+    expect(inputHash([])).toBe(reference([]));
+    const many = Array.from({ length: 30_000 }, (_, i): InputRecord => [
+      id(i),
+      "approved",
+      id(100 + (i % 7)),
+      i % 13,
+      NO_ZONE,
+      null,
+      null,
+    ]);
+    expect(inputHash(many)).toBe(reference(many));
+    // A record longer than the hashing buffer keeps its place among the others.
+    const long: InputRecord[] = [
+      ...records,
+      [`${id(2)}a`, "x".repeat(600_000), "ü".repeat(300_000), 1, NO_ZONE, null, null],
+    ];
+    expect(inputHash(long)).toBe(reference(long));
   });
 
   it("refuse a stored form whose arrays disagree or point outside the dictionary", () => {

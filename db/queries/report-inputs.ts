@@ -93,29 +93,38 @@ const joined = (xs: readonly (string | number)[]) => xs.join(",");
 const split = (s: string | null): string[] => (s ? s.split(",") : []);
 const numbers = (s: string | null): number[] => split(s).map(Number);
 
-/** Stores the inputs of the report `reportId` is about to be (reports.id references this row). */
-export async function insertReportInputs(reportId: string, records: readonly InputRecord[], tx: Tx): Promise<void> {
-  const p = packInputs(records);
-  const ints = (xs: number[]) => sql`string_to_array(${joined(xs)}, ',')::int4[]`;
-  await tx.execute(sql`
-    INSERT INTO report_inputs (report_id, record_count, ids, words, states, taxa, counts, zones, sessions, session_zones)
-    VALUES (${reportId}, ${p.ids.length}, string_to_array(${joined(p.ids)}, ',')::uuid[],
-      ARRAY(SELECT json_array_elements_text(${JSON.stringify(p.words)}::json)),
-      ${ints(p.states)}, ${ints(p.taxa)}, ${ints(p.counts)}, ${ints(p.zones)}, ${ints(p.sessions)}, ${ints(p.sessionZones)})`);
-}
-
 /** The columns that read a report's stored inputs back (alias `i` for report_inputs). */
-export const PACKED_COLUMNS = sql`array_to_string(i.ids, ',') AS "ids", to_json(i.words)::text AS "words",
+export const PACKED_COLUMNS = sql`array_send(i.ids) AS "ids", to_json(i.words)::text AS "words",
   array_to_string(i.states, ',') AS "states", array_to_string(i.taxa, ',') AS "taxa",
   array_to_string(i.counts, ',') AS "counts", array_to_string(i.zones, ',') AS "zones",
   array_to_string(i.sessions, ',') AS "sessions", array_to_string(i.session_zones, ',') AS "sessionZones"`;
 
-export type PackedText = Record<Exclude<keyof PackedInputs, never>, string | null>;
+export type PackedText = Record<Exclude<keyof PackedInputs, "ids">, string | null> & { ids: Buffer | string | null };
+
+/**
+ * The uuids of a uuid[] in PostgreSQL's binary array form (array_send): its text form costs
+ * seconds per million uuids on the database's side, this a fraction of one on ours.
+ */
+function uuidsOfArray(b: Buffer): string[] {
+  const dims = b.readInt32BE(0);
+  if (dims === 0) return [];
+  if (dims !== 1) throw new Error(`stored input records: ids have ${dims} dimensions`);
+  const n = b.readInt32BE(12);
+  const out = new Array<string>(n);
+  let at = 20;
+  for (let i = 0; i < n; i++) {
+    if (b.readInt32BE(at) !== 16) throw new Error("stored input records: an id is not a uuid");
+    const h = b.toString("hex", at + 4, at + 20);
+    out[i] = `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
+    at += 20;
+  }
+  return out;
+}
 
 /** The records of a row read with PACKED_COLUMNS. */
 export function recordsOfRow(row: PackedText): InputRecord[] {
   return unpackInputs({
-    ids: split(row.ids),
+    ids: Buffer.isBuffer(row.ids) ? uuidsOfArray(row.ids) : split(row.ids),
     words: row.words ? (JSON.parse(row.words) as string[]) : [],
     states: numbers(row.states),
     taxa: numbers(row.taxa),
@@ -127,30 +136,81 @@ export function recordsOfRow(row: PackedText): InputRecord[] {
 }
 
 /**
- * The records a report of the event would freeze now (the same as db/queries/results.ts
- * loadInputRecords: every approved, identified sighting and one record per complete count
- * session, by id), read as one comma-joined line per record: a quarter of the time of one
- * JSON array per row for a million-sighting event (scripts/bench-notes.md, "Publishing at scale").
+ * The records a report of the event would freeze now, packed by PostgreSQL itself: every
+ * approved, identified sighting and one record per complete count session, by id (the same
+ * records as db/queries/results.ts loadInputRecords), as one row of report_inputs' columns.
+ * Words: the review states, "" (a session record's taxon), then the taxa, the zones and the
+ * complete sessions, each numbered in id order.
  */
-export async function loadEventInputRecords(eventId: string, tx: Tx): Promise<InputRecord[]> {
-  const r = await tx.execute<{ l: string }>(sql`
-    WITH sz AS (${sessionZonesSql(eventId)})
-    SELECT x.id || ',' || x.state || ',' || x.taxon || ',' || x.n || ',' || x.zone || ',' ||
-           coalesce(x.session::text, '') || ',' || coalesce(x.session_zone::text, '') AS l
-    FROM (
-      SELECT s.id, s.review_state::text AS state, s.taxon_id::text AS taxon, s.count AS n, coalesce(s.zone_id, ${NO_ZONE}::uuid) AS zone,
-             sz.id AS session, CASE WHEN sz.id IS NOT NULL THEN coalesce(sz.zone_id, ${NO_ZONE}::uuid) END AS session_zone
-      FROM sightings s LEFT JOIN sz ON sz.id = s.session_id
+export function packedEventInputsSql(eventId: string) {
+  return sql`
+    WITH sz AS (${sessionZonesSql(eventId)}),
+    szn AS (SELECT id, zone_id, row_number() OVER (ORDER BY id)::int AS k FROM sz),
+    rec AS MATERIALIZED (
+      SELECT s.id, s.review_state::text AS state, s.taxon_id AS taxon, s.count AS n,
+             coalesce(s.zone_id, ${NO_ZONE}::uuid) AS zone, z.k AS session,
+             CASE WHEN z.id IS NOT NULL THEN coalesce(z.zone_id, ${NO_ZONE}::uuid) END AS session_zone
+      FROM sightings s LEFT JOIN szn z ON z.id = s.session_id
       WHERE s.event_id = ${eventId} AND s.review_state = 'approved' AND s.taxon_id IS NOT NULL
       UNION ALL
-      SELECT sz.id, ${SESSION_RECORD}::text, '', 0, coalesce(sz.zone_id, ${NO_ZONE}::uuid), sz.id, coalesce(sz.zone_id, ${NO_ZONE}::uuid)
-      FROM sz
-    ) x ORDER BY x.id`);
-  const out = new Array<InputRecord>(r.rows.length);
-  for (let i = 0; i < out.length; i++) {
-    // Every field is a uuid, a review state, "" or a number: none holds a comma.
-    const f = r.rows[i]!.l.split(",");
-    out[i] = [f[0]!, f[1]!, f[2]!, Number(f[3]), f[4]!, f[5] || null, f[6] || null];
-  }
-  return out;
+      SELECT z.id, ${SESSION_RECORD}::text, NULL::uuid, 0, coalesce(z.zone_id, ${NO_ZONE}::uuid), z.k, coalesce(z.zone_id, ${NO_ZONE}::uuid)
+      FROM szn z
+    ),
+    st AS (SELECT state, row_number() OVER (ORDER BY state)::int AS k FROM (SELECT DISTINCT state FROM rec) d),
+    tx AS (SELECT taxon, row_number() OVER (ORDER BY taxon)::int AS k FROM (SELECT DISTINCT taxon FROM rec WHERE taxon IS NOT NULL) d),
+    zn AS (
+      SELECT zone, row_number() OVER (ORDER BY zone)::int AS k
+      FROM (SELECT zone FROM rec UNION SELECT session_zone FROM rec WHERE session_zone IS NOT NULL) d
+    ),
+    -- Where each kind of word starts: states from 1, "" after them, then taxa, zones, sessions.
+    o AS (
+      SELECT (SELECT count(*) FROM st)::int + 1 AS blank,
+             (SELECT count(*) FROM st)::int + 1 + (SELECT count(*) FROM tx)::int AS zones,
+             (SELECT count(*) FROM st)::int + 1 + (SELECT count(*) FROM tx)::int + (SELECT count(*) FROM zn)::int AS sessions
+    ),
+    x AS (
+      SELECT r.id, st.k AS state, o.blank + coalesce(tx.k, 0) AS taxon, r.n, o.zones + zn.k AS zone,
+             coalesce(o.sessions + r.session, 0) AS session, coalesce(o.zones + zs.k, 0) AS session_zone
+      FROM rec r CROSS JOIN o JOIN st ON st.state = r.state LEFT JOIN tx ON tx.taxon = r.taxon
+      JOIN zn ON zn.zone = r.zone LEFT JOIN zn zs ON zs.zone = r.session_zone
+      ORDER BY r.id
+    )
+    SELECT count(x.id)::int AS record_count, coalesce(array_agg(x.id), '{}') AS ids,
+      ARRAY(SELECT state FROM st ORDER BY k) || ARRAY[''] || ARRAY(SELECT taxon::text FROM tx ORDER BY k)
+        || ARRAY(SELECT zone::text FROM zn ORDER BY k) || ARRAY(SELECT id::text FROM szn ORDER BY k) AS words,
+      coalesce(array_agg(x.state), '{}') AS states, coalesce(array_agg(x.taxon), '{}') AS taxa,
+      coalesce(array_agg(x.n), '{}') AS counts, coalesce(array_agg(x.zone), '{}') AS zones,
+      coalesce(array_agg(x.session), '{}') AS sessions, coalesce(array_agg(x.session_zone), '{}') AS session_zones
+    FROM x`;
+}
+
+/**
+ * The event's input records as a report would freeze them now. With `storeFor`, PostgreSQL also
+ * stores them, packed, as the inputs of the report of that id (written next, it references them):
+ * one statement, one snapshot, and no record crosses the wire twice.
+ */
+export async function loadEventInputRecords(
+  eventId: string,
+  tx: Tx,
+  options: { storeFor?: string } = {},
+): Promise<InputRecord[]> {
+  const packed = packedEventInputsSql(eventId);
+  const r = options.storeFor
+    ? await tx.execute<PackedText>(sql`
+      INSERT INTO report_inputs AS i (report_id, record_count, ids, words, states, taxa, counts, zones, sessions, session_zones)
+      SELECT ${options.storeFor}::uuid, p.* FROM (${packed}) p
+      RETURNING ${PACKED_COLUMNS}`)
+    : await tx.execute<PackedText>(sql`SELECT ${PACKED_COLUMNS} FROM (${packed}) i`);
+  return recordsOfRow(r.rows[0]!);
+}
+
+/** Stores inputs the database did not pack itself (the bench and tests), for the report `reportId` is about to be. */
+export async function insertReportInputs(reportId: string, records: readonly InputRecord[], tx: Tx): Promise<void> {
+  const p = packInputs(records);
+  const ints = (xs: number[]) => sql`string_to_array(${joined(xs)}, ',')::int4[]`;
+  await tx.execute(sql`
+    INSERT INTO report_inputs (report_id, record_count, ids, words, states, taxa, counts, zones, sessions, session_zones)
+    VALUES (${reportId}, ${p.ids.length}, string_to_array(${joined(p.ids)}, ',')::uuid[],
+      ARRAY(SELECT json_array_elements_text(${JSON.stringify(p.words)}::json)),
+      ${ints(p.states)}, ${ints(p.taxa)}, ${ints(p.counts)}, ${ints(p.zones)}, ${ints(p.sessions)}, ${ints(p.sessionZones)})`);
 }

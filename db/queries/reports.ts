@@ -1,9 +1,8 @@
 import "server-only";
-import { randomUUID } from "node:crypto";
 import { sql } from "drizzle-orm";
 import { getDb, getReadDb, type Db, type Tx } from "../client";
 import { reports } from "../schema";
-import { insertReportInputs, PACKED_COLUMNS, recordsOfRow, type PackedText } from "./report-inputs";
+import { PACKED_COLUMNS, recordsOfRow, type PackedText } from "./report-inputs";
 import type { Results } from "@/lib/results/compute";
 import type { METHOD_NOTES } from "@/lib/results/methods";
 import type { InputRecord, ReportChanges } from "@/lib/results/records";
@@ -67,16 +66,14 @@ export async function latestReportInputs(
   return prev ? { version: prev.version, results: prev.results, inputRecords: recordsOfRow(prev) } : null;
 }
 
-export type NewReport = Omit<ReportRow, "id" | "publishedAt"> & { inputRecords: InputRecord[] };
+export type NewReport = Omit<ReportRow, "publishedAt">;
 
-/** Stores a report: its input records first (report_inputs), then the report row that references them. */
-export async function insertReport({ inputRecords, ...report }: NewReport, tx: Tx): Promise<string> {
-  const id = randomUUID();
-  await insertReportInputs(id, inputRecords, tx);
-  const [row] = await tx
-    .insert(reports)
-    .values({ id, ...report })
-    .returning({ id: reports.id });
+/**
+ * Stores a report whose input records this transaction has already written under the same id
+ * (report_inputs: db/queries/report-inputs.ts); the report row references them.
+ */
+export async function insertReport(report: NewReport, tx: Tx): Promise<string> {
+  const [row] = await tx.insert(reports).values(report).returning({ id: reports.id });
   return row!.id;
 }
 
