@@ -58,10 +58,12 @@ export async function latestReportInputs(
   eventId: string,
   tx: Tx,
 ): Promise<{ version: number; inputRecords: InputRecord[]; results: Results } | null> {
+  // The newest version picked first: the packed columns are then read out of one row, not every version's.
   const [prev] = (
     await tx.execute<{ version: number; results: Results } & PackedText>(sql`
     SELECT r.version, r.results, ${PACKED_COLUMNS}
-    FROM reports r JOIN report_inputs i ON i.report_id = r.id WHERE r.event_id = ${eventId} ORDER BY r.version DESC LIMIT 1`)
+    FROM (SELECT id, version, results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1) r
+    JOIN report_inputs i ON i.report_id = r.id`)
   ).rows;
   return prev ? { version: prev.version, results: prev.results, inputRecords: recordsOfRow(prev) } : null;
 }

@@ -27,26 +27,13 @@ function sortedById(records: readonly InputRecord[]): readonly InputRecord[] {
 /** sha256 over the records sorted by sighting id, one JSON array per line. */
 export function inputHash(records: readonly InputRecord[]): string {
   const h = createHash("sha256");
-  // The same bytes as one update per JSON.stringify(record) line, built faster: each repeated
-  // string (state, taxon, zone, session) is quoted once, and the lines are written as UTF-8 into
-  // a megabyte buffer hashed when full (an update per line, or per joined string, cost seconds
-  // per million records).
-  const quoted = new Map<string, string>();
-  const q = (v: string | null) => {
-    if (v === null) return "null";
-    let j = quoted.get(v);
-    if (j === undefined) quoted.set(v, (j = JSON.stringify(v)));
-    return j;
-  };
+  // The same bytes as one update per line, written as UTF-8 into a megabyte buffer hashed when
+  // full (an update per line cost about a second per million records).
   const buf = Buffer.allocUnsafe(1 << 20);
   let used = 0;
   for (const r of sortedById(records)) {
-    const [id, state, taxon, count, zone, session, sessionZone] = r;
-    const line =
-      r.length === 7 && Number.isFinite(count)
-        ? `[${PLAIN_ID.test(id) ? `"${id}"` : JSON.stringify(id)},${q(state)},${q(taxon)},${count},${q(zone)},${q(session)},${q(sessionZone)}]\n`
-        : `${JSON.stringify(r)}\n`;
-    // At most 3 UTF-8 bytes per UTF-16 unit: room is made before writing, never split.
+    const line = `${JSON.stringify(r)}\n`;
+    // At most 3 UTF-8 bytes per UTF-16 unit: room is made before writing, a line is never split.
     if (used + line.length * 3 > buf.length) {
       h.update(buf.subarray(0, used));
       used = 0;
@@ -57,9 +44,6 @@ export function inputHash(records: readonly InputRecord[]): string {
   h.update(buf.subarray(0, used));
   return h.digest("hex");
 }
-
-// An id JSON writes as it is between quotes (a uuid): nothing to escape.
-const PLAIN_ID = /^[0-9a-zA-Z-]*$/;
 
 /**
  * The results input from the records alone. Taxa are ordered by id and sessions by id,
