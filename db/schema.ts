@@ -515,7 +515,7 @@ export const emailOutbox = pgTable(
 // A published report's input records (lib/results/records.ts), one row per report in a compact
 // columnar form (db/queries/report-inputs.ts): ids as uuid[], every other string as its position
 // in `words` (0 for null). Written just before its report (reports.id references it, so no report
-// is without inputs); append-only like the reports (migration 0021 trigger).
+// is without inputs); append-only like the reports (trigger of migration …_report_inputs_compact).
 export const reportInputs = pgTable(
   "report_inputs",
   {

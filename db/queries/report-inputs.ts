@@ -7,8 +7,8 @@ import { sessionZonesSql } from "./results";
 
 /**
  * A report's input records (lib/results/records.ts) as they are stored (table report_inputs,
- * migration 0021): one row per report, one array per field, every record at the same position
- * of each. Ids are a uuid[] (16 bytes each); every other string (review state, taxon, zone,
+ * migration …_report_inputs_compact): one row per report, one array per field, every record
+ * at the same position of each. Ids are a uuid[] (16 bytes each); every other string (review state, taxon, zone,
  * session, session's zone) is a position in `words` (1-based; 0 for null), so the int4 arrays
  * hold small repeating numbers that PostgreSQL's TOAST compression packs well. Records keep
  * their order; unpacking gives back exactly the records packed, so the input hash (which is
@@ -87,24 +87,24 @@ export function unpackInputs(p: PackedInputs): InputRecord[] {
   return out;
 }
 
-// Arrays cross the wire as one comma-joined text each (split and joined in C on the database's
-// side, String.split on ours): far quicker than an array literal parsed element by element.
+// Numbers cross the wire as one comma-joined text per array (joined and split in C on the
+// database's side, String.split on ours): far quicker than an array literal parsed element by
+// element, and a third of the bytes of their binary form (which travels as hex).
 const joined = (xs: readonly (string | number)[]) => xs.join(",");
 const split = (s: Buffer | string | null): string[] => (typeof s === "string" && s ? s.split(",") : []);
-const numbers = (s: Buffer | string | null): number[] => (Buffer.isBuffer(s) ? intsOfArray(s) : split(s).map(Number));
+const numbers = (s: string | null): number[] => split(s).map(Number);
 
-/** The columns that read a report's stored inputs back (alias `i` for report_inputs). */
-// Ids leave the database in their binary form (array_send: printing a million uuids as text costs
-// seconds there), the small numbers comma-joined (a third of the bytes of their binary form in hex).
+/**
+ * The columns that read a report's stored inputs back (alias `i` for report_inputs). Ids leave
+ * the database in binary form (array_send): printing a million uuids as text costs it seconds.
+ */
 export const PACKED_COLUMNS = sql`array_send(i.ids) AS "ids", to_json(i.words)::text AS "words",
   array_to_string(i.states, ',') AS "states", array_to_string(i.taxa, ',') AS "taxa",
   array_to_string(i.counts, ',') AS "counts", array_to_string(i.zones, ',') AS "zones",
   array_to_string(i.sessions, ',') AS "sessions", array_to_string(i.session_zones, ',') AS "sessionZones"`;
 
-/** A row read with PACKED_COLUMNS (arrays in binary form), or the same arrays comma-joined. */
-export type PackedText = Record<Exclude<keyof PackedInputs, "words">, Buffer | string | null> & {
-  words: string | null;
-};
+/** A row read with PACKED_COLUMNS (ids in binary form or comma-joined, words as a JSON array). */
+export type PackedText = Record<Exclude<keyof PackedInputs, "ids">, string | null> & { ids: Buffer | string | null };
 
 /** Where the elements of a one-dimensional binary array start, and how many there are. */
 function arrayStart(b: Buffer): { n: number; at: number } {
@@ -112,18 +112,6 @@ function arrayStart(b: Buffer): { n: number; at: number } {
   if (dims === 0) return { n: 0, at: 12 };
   if (dims !== 1) throw new Error(`stored input records: an array has ${dims} dimensions`);
   return { n: b.readInt32BE(12), at: 20 };
-}
-
-function intsOfArray(b: Buffer): number[] {
-  const { n, at: start } = arrayStart(b);
-  const out = new Array<number>(n);
-  let at = start;
-  for (let i = 0; i < n; i++) {
-    if (b.readInt32BE(at) !== 4) throw new Error("stored input records: a number is missing");
-    out[i] = b.readInt32BE(at + 4);
-    at += 8;
-  }
-  return out;
 }
 
 const HEX = Array.from({ length: 256 }, (_, i) => i.toString(16).padStart(2, "0"));
