@@ -512,11 +512,41 @@ export const emailOutbox = pgTable(
   (t) => [index("email_outbox_due_idx").on(t.status, t.sendAfter)],
 );
 
+// A published report's input records (lib/results/records.ts), one row per report in a compact
+// columnar form (db/queries/report-inputs.ts): ids as uuid[], every other string as its position
+// in `words` (0 for null). Written just before its report (reports.id references it, so no report
+// is without inputs); append-only like the reports (trigger of migration …_report_inputs_compact).
+export const reportInputs = pgTable(
+  "report_inputs",
+  {
+    reportId: uuid("report_id").primaryKey(),
+    recordCount: integer("record_count").notNull(),
+    ids: uuid("ids").array().notNull(),
+    words: text("words").array().notNull(),
+    states: integer("states").array().notNull(),
+    taxa: integer("taxa").array().notNull(),
+    counts: integer("counts").array().notNull(),
+    zones: integer("zones").array().notNull(),
+    sessions: integer("sessions").array().notNull(),
+    sessionZones: integer("session_zones").array().notNull(),
+  },
+  (t) => [
+    check(
+      "report_inputs_lengths",
+      sql`cardinality(${t.ids}) = ${t.recordCount} AND cardinality(${t.states}) = ${t.recordCount} AND cardinality(${t.taxa}) = ${t.recordCount} AND cardinality(${t.counts}) = ${t.recordCount} AND cardinality(${t.zones}) = ${t.recordCount} AND cardinality(${t.sessions}) = ${t.recordCount} AND cardinality(${t.sessionZones}) = ${t.recordCount}`,
+    ),
+  ],
+);
+
 // A published report never changes: a trigger (migration 0002) refuses UPDATE and DELETE.
+// Its input records are in report_inputs (the row of the same id).
 export const reports = pgTable(
   "reports",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
+    id: uuid("id")
+      .primaryKey()
+      .defaultRandom()
+      .references(() => reportInputs.reportId, { onDelete: "restrict" }),
     eventId: uuid("event_id")
       .notNull()
       .references(() => events.id, { onDelete: "restrict" }),
@@ -527,7 +557,6 @@ export const reports = pgTable(
       .references(() => users.id, { onDelete: "restrict" }),
     engineVersion: text("engine_version").notNull(),
     inputHash: varchar("input_hash", { length: 64 }).notNull(),
-    inputRecords: jsonb("input_records").notNull(), // InputRecord[] of lib/results/records.ts: [sighting, state, taxon, count, zone, session, its zone]
     results: jsonb("results").notNull(),
     methodNotes: jsonb("method_notes").notNull(),
     changes: jsonb("changes")

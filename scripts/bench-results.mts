@@ -14,7 +14,8 @@ import { fileURLToPath } from "node:url";
 if (!process.execArgv.some((a) => a.includes("react-server"))) {
   const { env } = await import("../lib/env");
   const u = new URL(env().DATABASE_URL);
-  u.pathname = "/ecotone_test_bench";
+  // ECOTONE_TEST_SUFFIX keeps two checkouts' databases apart, as in the other parts.
+  u.pathname = `/ecotone_test_bench${process.env.ECOTONE_TEST_SUFFIX ?? ""}`;
   // ECOTONE_PG_PORT moves the cluster, as for the other parts of the bench.
   if (process.env.ECOTONE_PG_PORT) u.port = process.env.ECOTONE_PG_PORT;
   const r = spawnSync(

@@ -1,7 +1,7 @@
 // npm run bench: runs every benchmark part (each also runnable alone), prints one table
 // and writes it to BENCHMARKS.md with the machine's CPU count and the date. Figures, not
 // pass/fail tests: where a figure misses its target, BENCHMARKS.md says why.
-//   npx tsx scripts/bench.mts [part ...]     parts: diversity, results, queue, ingest, lighthouse
+//   npx tsx scripts/bench.mts [part ...]     parts: diversity, results, publish, queue, ingest, lighthouse
 import { spawnSync } from "node:child_process";
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import { cpus } from "node:os";
@@ -10,6 +10,7 @@ import type { BenchRow } from "./bench-report";
 const PARTS: { name: string; script: string; args: string[] }[] = [
   { name: "diversity", script: "scripts/bench-diversity.mts", args: ["--skip-specaccum", "--runs=5"] },
   { name: "results", script: "scripts/bench-results.mts", args: [] },
+  { name: "publish", script: "scripts/bench-publish.mts", args: [] },
   { name: "queue", script: "scripts/bench-review-queue.mts", args: [] },
   { name: "ingest", script: "scripts/bench-ingest.mts", args: [] },
   { name: "lighthouse", script: "scripts/bench-lighthouse.mts", args: [] },

@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb, getReadDb, type Db, type Tx } from "../client";
 import { reports } from "../schema";
+import { PACKED_COLUMNS, recordsOfRow, type PackedText } from "./report-inputs";
 import type { Results } from "@/lib/results/compute";
 import type { METHOD_NOTES } from "@/lib/results/methods";
 import type { InputRecord, ReportChanges } from "@/lib/results/records";
@@ -45,6 +46,9 @@ export type Withdrawal = { withdrawnAt: Date; reason: string };
 export async function inReportTransaction<T>(eventId: string, work: (tx: Tx) => Promise<T>): Promise<T> {
   return getDb().transaction(async (tx) => {
     await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtext('report:' || ${eventId}))`);
+    // Reading every input record of a large event sorts and hashes hundreds of thousands of rows:
+    // room to do it in memory, and no JIT compilation (it cost about a second for a query run once).
+    await tx.execute(sql`SELECT set_config('work_mem', '128MB', true), set_config('jit', 'off', true)`);
     return work(tx);
   });
 }
@@ -54,15 +58,22 @@ export async function latestReportInputs(
   eventId: string,
   tx: Tx,
 ): Promise<{ version: number; inputRecords: InputRecord[]; results: Results } | null> {
+  // The newest version picked first: the packed columns are then read out of one row, not every version's.
   const [prev] = (
-    await tx.execute<{ version: number; inputRecords: InputRecord[]; results: Results }>(sql`
-    SELECT version, input_records AS "inputRecords", results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1`)
+    await tx.execute<{ version: number; results: Results } & PackedText>(sql`
+    SELECT r.version, r.results, ${PACKED_COLUMNS}
+    FROM (SELECT id, version, results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1) r
+    JOIN report_inputs i ON i.report_id = r.id`)
   ).rows;
-  return prev ?? null;
+  return prev ? { version: prev.version, results: prev.results, inputRecords: recordsOfRow(prev) } : null;
 }
 
-export type NewReport = Omit<ReportRow, "id" | "publishedAt"> & { inputRecords: InputRecord[] };
+export type NewReport = Omit<ReportRow, "publishedAt">;
 
+/**
+ * Stores a report whose input records this transaction has already written under the same id
+ * (report_inputs: db/queries/report-inputs.ts); the report row references them.
+ */
 export async function insertReport(report: NewReport, tx: Tx): Promise<string> {
   const [row] = await tx.insert(reports).values(report).returning({ id: reports.id });
   return row!.id;
@@ -130,34 +141,39 @@ export async function getReport(
     })
   | null
 > {
-  const inputs = options.withInputs ? sql`input_records` : sql`'[]'::jsonb`;
+  const inputs = options.withInputs
+    ? PACKED_COLUMNS
+    : sql`NULL AS ids, NULL AS words, NULL AS states, NULL AS taxa, NULL AS counts, NULL AS zones, NULL AS sessions, NULL AS "sessionZones"`;
   // Public reads come from the replica when there is one (db/client.ts getReadDb); a read
   // that decides a write asks for the primary, and a version the replica does not have yet
   // (published a moment ago) is read from the primary too.
   const db = options.primary ? getDb() : getReadDb();
   const r = await db.execute<
-    ReportRow & {
-      inputRecords: InputRecord[];
-      inputCount: number;
-      latestVersion: number;
-      note: string;
-      withdrawnAt: string | null;
-      withdrawReason: string | null;
-    }
+    ReportRow &
+      PackedText & {
+        inputCount: number;
+        latestVersion: number;
+        note: string;
+        withdrawnAt: string | null;
+        withdrawReason: string | null;
+      }
   >(sql`
-    SELECT id, event_id AS "eventId", version, published_at AS "publishedAt", published_by AS "publishedBy",
-      engine_version AS "engineVersion", input_hash AS "inputHash", ${inputs} AS "inputRecords",
-      jsonb_array_length(input_records) AS "inputCount", results,
+    SELECT reports.id, event_id AS "eventId", version, published_at AS "publishedAt", published_by AS "publishedBy",
+      engine_version AS "engineVersion", input_hash AS "inputHash", ${inputs},
+      i.record_count AS "inputCount", results,
       method_notes AS "methodNotes", changes, note, beside_earlier AS "besideEarlier",
       (SELECT max(version) FROM reports x WHERE x.event_id = reports.event_id)::int AS "latestVersion",
       w.withdrawn_at AS "withdrawnAt", w.reason AS "withdrawReason"
-    FROM reports LEFT JOIN report_withdrawals w ON w.report_id = reports.id
+    FROM reports JOIN report_inputs i ON i.report_id = reports.id
+    LEFT JOIN report_withdrawals w ON w.report_id = reports.id
     WHERE event_id = ${eventId} AND version = ${version}`);
   const row = r.rows[0];
   if (!row) return db === getDb() ? null : getReport(eventId, version, { ...options, primary: true });
-  const { withdrawnAt, withdrawReason, ...rest } = row;
+  const { withdrawnAt, withdrawReason, ids, words, states, taxa, counts, zones, sessions, sessionZones, ...rest } = row;
+  const packed = { ids, words, states, taxa, counts, zones, sessions, sessionZones };
   return {
     ...rest,
+    inputRecords: options.withInputs ? recordsOfRow(packed) : [],
     publishedAt: new Date(row.publishedAt),
     withdrawal: withdrawnAt ? { withdrawnAt: new Date(withdrawnAt), reason: withdrawReason ?? "" } : null,
   };

@@ -16,11 +16,32 @@ export type InputRecord = [string, string, string, number, string, string | null
 export const SESSION_RECORD = "session";
 export const isSessionRecord = (r: InputRecord) => r[1] === SESSION_RECORD;
 
+const byId = (a: InputRecord, b: InputRecord) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0);
+
+/** The records in sighting id order: themselves when already so (as read and as stored), else a sorted copy. */
+function sortedById(records: readonly InputRecord[]): readonly InputRecord[] {
+  for (let i = 1; i < records.length; i++) if (records[i - 1]![0] > records[i]![0]) return [...records].sort(byId);
+  return records;
+}
+
 /** sha256 over the records sorted by sighting id, one JSON array per line. */
 export function inputHash(records: readonly InputRecord[]): string {
   const h = createHash("sha256");
-  for (const r of [...records].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0)))
-    h.update(`${JSON.stringify(r)}\n`);
+  // The same bytes as one update per line, written as UTF-8 into a megabyte buffer hashed when
+  // full (an update per line cost about a second per million records).
+  const buf = Buffer.allocUnsafe(1 << 20);
+  let used = 0;
+  for (const r of sortedById(records)) {
+    const line = `${JSON.stringify(r)}\n`;
+    // At most 3 UTF-8 bytes per UTF-16 unit: room is made before writing, a line is never split.
+    if (used + line.length * 3 > buf.length) {
+      h.update(buf.subarray(0, used));
+      used = 0;
+    }
+    if (line.length * 3 > buf.length) h.update(line);
+    else used += buf.write(line, used, "utf8");
+  }
+  h.update(buf.subarray(0, used));
   return h.digest("hex");
 }
 
@@ -40,7 +61,9 @@ export function inputFromRecords(
     if (!t) throw new Error(`taxon ${id} of an input record is unknown`);
     return t;
   });
-  const counts = new Map<string, { zoneId: string; taxon: number; individuals: number }>();
+  // (zone, taxon) pairs in the order first met, found through one map per zone (no key strings).
+  const counts: { zoneId: string; taxon: number; individuals: number }[] = [];
+  const byZone = new Map<string, Map<number, { zoneId: string; taxon: number; individuals: number }>>();
   const sessions = new Map<string, { zoneId: string; taxa: Set<number> }>();
   for (const [, state, taxonId, count, zoneKey, sessionId, sessionZone] of records) {
     if (state === SESSION_RECORD) {
@@ -49,10 +72,15 @@ export function inputFromRecords(
       continue;
     }
     const taxon = index.get(taxonId)!;
-    const key = `${zoneKey}|${taxon}`;
-    const c = counts.get(key) ?? { zoneId: zoneKey, taxon, individuals: 0 };
+    let zone = byZone.get(zoneKey);
+    if (!zone) byZone.set(zoneKey, (zone = new Map()));
+    let c = zone.get(taxon);
+    if (!c) {
+      c = { zoneId: zoneKey, taxon, individuals: 0 };
+      zone.set(taxon, c);
+      counts.push(c);
+    }
     c.individuals += count;
-    counts.set(key, c);
     if (sessionId) {
       const s = sessions.get(sessionId) ?? { zoneId: sessionZone ?? NO_ZONE, taxa: new Set<number>() };
       s.taxa.add(taxon);
@@ -62,7 +90,7 @@ export function inputFromRecords(
   return {
     zones,
     taxa,
-    counts: [...counts.values()],
+    counts,
     sessions: [...sessions.entries()]
       .sort(([a], [b]) => (a < b ? -1 : 1))
       .map(([, s]) => ({ zoneId: s.zoneId, taxa: [...s.taxa].sort((a, b) => a - b) })),
@@ -90,18 +118,29 @@ export function diffRecords(
   nameOf: (taxonId: string) => string,
 ): ReportChanges {
   // Sightings only: complete sessions are inputs too, but "records" here means sightings.
-  const before = beforeAll.filter((r) => !isSessionRecord(r));
-  const after = afterAll.filter((r) => !isSessionRecord(r));
-  const old = new Map(before.map((r) => [r[0], r]));
-  const now = new Map(after.map((r) => [r[0], r]));
+  const before = sortedById(beforeAll.filter((r) => !isSessionRecord(r)));
+  const after = sortedById(afterAll.filter((r) => !isSessionRecord(r)));
+  // One walk through both lists in id order (a sighting id is in a version at most once).
   let added = 0;
   let changed = 0;
-  for (const [id, r] of now) {
-    const o = old.get(id);
-    if (!o) added++;
-    else if (JSON.stringify(o) !== JSON.stringify(r)) changed++;
+  let removed = 0;
+  let i = 0;
+  let j = 0;
+  while (i < before.length || j < after.length) {
+    const o = before[i];
+    const r = after[j];
+    if (!r || (o && o[0] < r[0])) {
+      removed++;
+      i++;
+    } else if (!o || r[0] < o[0]) {
+      added++;
+      j++;
+    } else {
+      if (o.length !== r.length || o.some((v, k) => v !== r[k])) changed++;
+      i++;
+      j++;
+    }
   }
-  const removed = [...old.keys()].filter((id) => !now.has(id)).length;
   const taxaBefore = new Set(before.map((r) => r[2]));
   const taxaAfter = new Set(after.map((r) => r[2]));
   const sum = (rs: readonly InputRecord[]) => rs.reduce((s, r) => s + r[3], 0);

@@ -1,7 +1,7 @@
 import "server-only";
 import { getReport } from "@/db/queries/reports";
 import { canonicalJson, computeResults, type Results } from "@/lib/results/compute";
-import { inputFromRecords, inputHash } from "@/lib/results/records";
+import { inputFromRecords, inputHash, type InputRecord } from "@/lib/results/records";
 
 /** Re-computes a report from its recorded inputs alone and compares every number. */
 export async function checkReport(
@@ -9,7 +9,15 @@ export async function checkReport(
   version: number,
 ): Promise<{ same: boolean; hashSame: boolean; recomputed: Results } | null> {
   const report = await getReport(eventId, version, { withInputs: true });
-  if (!report) return null;
+  return report ? recheckReport(report) : null;
+}
+
+/** The check of checkReport on a report already read (its results, input hash and input records). */
+export function recheckReport(report: { results: Results; inputHash: string; inputRecords: readonly InputRecord[] }): {
+  same: boolean;
+  hashSame: boolean;
+  recomputed: Results;
+} {
   const zones = report.results.zones.map((z) => ({ id: z.id, name: z.name, habitat: z.habitat }));
   const meta = new Map(
     report.results.species.map((s) => [

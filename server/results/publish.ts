@@ -1,7 +1,9 @@
 import "server-only";
+import { randomUUID } from "node:crypto";
 import { enqueueMail, type OutboxMail } from "@/db/queries/mail-queue";
 import { inReportTransaction, insertReport, latestReportInputs, reportRecipients } from "@/db/queries/reports";
-import { eventZones, loadInputRecords, pendingCounts, taxaMeta } from "@/db/queries/results";
+import { loadEventInputRecords } from "@/db/queries/report-inputs";
+import { eventZones, pendingCounts, taxaMeta } from "@/db/queries/results";
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
 import type { Tx } from "@/db/client";
@@ -22,9 +24,10 @@ export class PendingRecordsError extends Error {
  * results computed from exactly those inputs, and what changed since the previous version.
  * The preview shows this before anything is published (issue 16), through the same page.
  */
-export async function draftReport(eventId: string, tx: Tx) {
+export async function draftReport(eventId: string, tx: Tx, options: { storeFor?: string } = {}) {
   const pending = await pendingCounts(eventId, tx);
-  const records = await loadInputRecords(eventId, tx);
+  // Publishing stores the records as it reads them (report_inputs, under the new report's id).
+  const records = await loadEventInputRecords(eventId, tx, options);
   const zones = await eventZones(eventId, tx);
   const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
   const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
@@ -64,17 +67,18 @@ export async function publishReport(
   options: { confirmPending?: boolean; note?: string; notify?: boolean } = {},
 ): Promise<{ id: string; version: number }> {
   return inReportTransaction(eventId, async (tx) => {
-    const draft = await draftReport(eventId, tx);
-    const { pending, records, results, version, changes } = draft;
+    const reportId = randomUUID();
+    const draft = await draftReport(eventId, tx, { storeFor: reportId });
+    const { pending, results, version, changes } = draft;
     if (pending.pending + pending.returned > 0 && !options.confirmPending) throw new PendingRecordsError(pending);
     const id = await insertReport(
       {
+        id: reportId,
         eventId,
         version,
         publishedBy: userId,
         engineVersion: results.engineVersion,
         inputHash: draft.inputHash,
-        inputRecords: records,
         results: JSON.parse(canonicalJson(results)),
         methodNotes: METHOD_NOTES,
         changes,

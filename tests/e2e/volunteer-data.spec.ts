@@ -36,7 +36,7 @@ async function makeErin(): Promise<void> {
 const reportDigest = (version: number) =>
   withE2eDb(async (db) => {
     const { rows } = await db.query<{ h: string; id: string }>(
-      "SELECT r.id, md5(r.results::text || r.input_hash || r.input_records::text) AS h FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND r.version = $2",
+      "SELECT r.id, md5(r.results::text || r.input_hash || to_jsonb(i)::text) AS h FROM reports r JOIN report_inputs i ON i.report_id = r.id JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND r.version = $2",
       [SLUG, version],
     );
     return rows[0]!;
@@ -79,7 +79,7 @@ test("a volunteer downloads their data and deletes their account; the published 
       .poll(
         async () => {
           const { rows } = await db.query<{ n: number }>(
-            "SELECT count(*)::int AS n FROM reports r JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND r.input_records::text LIKE '%' || (SELECT s.id::text FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $2 LIMIT 1) || '%'",
+            "SELECT count(*)::int AS n FROM reports r JOIN report_inputs i ON i.report_id = r.id JOIN events e ON e.id = r.event_id WHERE e.slug = $1 AND (SELECT s.id FROM sightings s JOIN users u ON u.id = s.user_id WHERE u.email = $2 LIMIT 1) = ANY(i.ids)",
             [SLUG, ERIN],
           );
           return rows[0]!.n;

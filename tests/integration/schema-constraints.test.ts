@@ -222,19 +222,63 @@ describe("append-only history", () => {
   });
 
   it("never changes a published report", async () => {
+    const inputs = (reportId: string) => ({
+      reportId,
+      ...{
+        recordCount: 0,
+        ids: [],
+        words: [],
+        states: [],
+        taxa: [],
+        counts: [],
+        zones: [],
+        sessions: [],
+        sessionZones: [],
+      },
+    });
+    // A report's inputs row comes first: the report references it, so a report never stands without its inputs.
+    const orphan = await refusal(() =>
+      db()
+        .insert(s.reports)
+        .values({
+          eventId: f.event.id,
+          version: 1,
+          publishedBy: f.user.id,
+          engineVersion: "test",
+          inputHash: "a".repeat(64),
+          results: {},
+          methodNotes: {},
+        }),
+    );
+    expect(orphan).toMatchObject({ code: "23503", constraint: "reports_id_report_inputs_report_id_fk" });
+    const id = crypto.randomUUID();
+    await db().insert(s.reportInputs).values(inputs(id));
     const [report] = await db()
       .insert(s.reports)
       .values({
+        id,
         eventId: f.event.id,
         version: 1,
         publishedBy: f.user.id,
         engineVersion: "test",
         inputHash: "a".repeat(64),
-        inputRecords: [],
         results: { observed: 3 },
         methodNotes: {},
       })
       .returning();
+    // Its inputs are as unchangeable as the report, and their arrays must all be as long as the count says.
+    const inputsUpd = await refusal(() =>
+      db().update(s.reportInputs).set({ recordCount: 0 }).where(eq(s.reportInputs.reportId, id)),
+    );
+    expect(inputsUpd.code).toBe("23000");
+    const inputsDel = await refusal(() => db().delete(s.reportInputs).where(eq(s.reportInputs.reportId, id)));
+    expect(inputsDel.code).toBe("23000");
+    const short = await refusal(() =>
+      db()
+        .insert(s.reportInputs)
+        .values({ ...inputs(crypto.randomUUID()), recordCount: 1, ids: [crypto.randomUUID()] }),
+    );
+    expect(short).toMatchObject({ code: "23514", constraint: "report_inputs_lengths" });
     const upd = await refusal(() =>
       db()
         .update(s.reports)
@@ -251,7 +295,6 @@ describe("append-only history", () => {
           publishedBy: f.user.id,
           engineVersion: "test",
           inputHash: "b".repeat(64),
-          inputRecords: [],
           results: {},
           methodNotes: {},
         }),
