@@ -37,6 +37,38 @@ export const DUPLICATE_METRES = 50;
 // unit test checks) live with the sync rules, which the phone also reads (lib/sync/rules.ts).
 export { GROUP_THRESHOLDS };
 
+/**
+ * The unusual-count rule's statistics computed straight from the sightings (every non-rejected
+ * sighting of the taxon at the event): what ecotone_count_quartiles must always equal. The
+ * check-mark pass no longer runs this (it sorted every sighting of each taxon on each batch);
+ * tests and the bench compare the two.
+ */
+export async function directCountQuartiles(
+  db: Executor,
+  eventId: string,
+  taxonId: string,
+): Promise<{ n: number; q1: number | null; q3: number | null }> {
+  const { rows } = await db.execute<{ n: string; q1: number | null; q3: number | null }>(sql`
+    SELECT count(*) AS n,
+      percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,
+      percentile_cont(0.75) WITHIN GROUP (ORDER BY ln(o.count)) AS q3
+    FROM sightings o
+    WHERE o.event_id = ${eventId} AND o.taxon_id = ${taxonId} AND o.review_state IN ('pending', 'approved', 'returned')`);
+  return { n: Number(rows[0]!.n), q1: rows[0]!.q1, q3: rows[0]!.q3 };
+}
+
+/** The same statistics read from check_count_stats, as the check-mark pass reads them. */
+export async function keptCountQuartiles(
+  db: Executor,
+  eventId: string,
+  taxonId: string,
+): Promise<{ n: number; q1: number | null; q3: number | null }> {
+  const { rows } = await db.execute<{ n: string; q1: number | null; q3: number | null }>(
+    sql`SELECT n, q1, q3 FROM ecotone_count_quartiles(${eventId}, ${taxonId})`,
+  );
+  return { n: Number(rows[0]!.n), q1: rows[0]!.q1, q3: rows[0]!.q3 };
+}
+
 /** The database, or a transaction on it (anything that can run a statement). */
 export type Executor = Pick<Db, "execute">;
 
@@ -80,19 +112,15 @@ async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
     target AS (
       SELECT s.* FROM (SELECT id FROM given UNION SELECT id FROM partners) ids JOIN sightings s ON s.id = ids.id
     ),
-    -- Per taxon in this batch, through sightings_results_idx (event, state, taxon); only for
+    -- Per taxon in this batch, from the per-count statistics the triggers keep
+    -- (check_count_stats; ecotone_count_quartiles gives the same numbers as percentile_cont
+    -- over every non-rejected sighting of the taxon, see directCountQuartiles); only for
     -- taxa with a record above the floor, since no count at or below it is ever marked
     -- (every group threshold is above the floor too).
     taxon_stats AS (
       SELECT k.event_id, k.taxon_id, x.n, x.q1, x.q3
       FROM (SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL AND count > ${HIGH_COUNT_FLOOR}) k
-      CROSS JOIN LATERAL (
-        SELECT count(*) AS n,
-          percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,
-          percentile_cont(0.75) WITHIN GROUP (ORDER BY ln(o.count)) AS q3
-        FROM sightings o
-        WHERE o.event_id = k.event_id AND o.taxon_id = k.taxon_id AND o.review_state IN ('pending', 'approved', 'returned')
-      ) x
+      CROSS JOIN LATERAL ecotone_count_quartiles(k.event_id, k.taxon_id) x
     ),
     computed AS (
       SELECT s.id, array_remove(ARRAY[

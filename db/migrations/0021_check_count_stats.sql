@@ -1,0 +1,77 @@
+CREATE TABLE "check_count_stats" (
+	"event_id" uuid NOT NULL,
+	"taxon_id" uuid NOT NULL,
+	"count" integer NOT NULL,
+	"shard" smallint NOT NULL,
+	"n" integer NOT NULL,
+	CONSTRAINT "check_count_stats_event_id_taxon_id_count_shard_pk" PRIMARY KEY("event_id","taxon_id","count","shard")
+);
+--> statement-breakpoint
+-- The unusual-count check mark (db/queries/check-marks.ts) reads the quartiles of ln(count)
+-- over the non-rejected sightings of a taxon at an event. Sorting every such sighting on each
+-- sync batch grew with the event (issue 18); this table keeps, per (event, taxon, count), how
+-- many there are, folded in by statement-level triggers with transition tables (one upsert per
+-- touched count per statement, as the results aggregates do). Each connection writes its own
+-- shard (pg_backend_pid() % 8) so that concurrent sync batches seldom share a row lock; readers
+-- sum the shards. A shard's n may go below zero (a row counted in one shard, removed through
+-- another); the sum over shards is the count.
+CREATE OR REPLACE FUNCTION ecotone_check_count_stats_sync() RETURNS trigger
+LANGUAGE plpgsql AS $$
+DECLARE
+  plus text := 'SELECT event_id, taxon_id, count, 1 AS n FROM ecotone_new WHERE review_state IN (''pending'', ''approved'', ''returned'') AND taxon_id IS NOT NULL';
+  minus text := 'SELECT event_id, taxon_id, count, -1 AS n FROM ecotone_old WHERE review_state IN (''pending'', ''approved'', ''returned'') AND taxon_id IS NOT NULL';
+  delta text;
+BEGIN
+  delta := CASE TG_OP WHEN 'INSERT' THEN plus WHEN 'DELETE' THEN minus ELSE plus || ' UNION ALL ' || minus END;
+  EXECUTE format($q$
+    INSERT INTO check_count_stats AS c (event_id, taxon_id, count, shard, n)
+      SELECT event_id, taxon_id, count, (pg_backend_pid() %% 8)::smallint, sum(n) FROM (%s) d
+      GROUP BY 1, 2, 3 HAVING sum(n) <> 0 ORDER BY 1, 2, 3
+    ON CONFLICT (event_id, taxon_id, count, shard) DO UPDATE SET n = c.n + excluded.n
+  $q$, delta);
+  RETURN NULL;
+END;
+$$;
+--> statement-breakpoint
+CREATE TRIGGER sightings_check_count_insert AFTER INSERT ON sightings
+  REFERENCING NEW TABLE AS ecotone_new FOR EACH STATEMENT EXECUTE FUNCTION ecotone_check_count_stats_sync();
+--> statement-breakpoint
+-- (A trigger with transition tables cannot name columns: an update that changes none of event,
+-- taxon, count and state nets to zero and writes nothing.)
+CREATE TRIGGER sightings_check_count_update AFTER UPDATE ON sightings
+  REFERENCING OLD TABLE AS ecotone_old NEW TABLE AS ecotone_new FOR EACH STATEMENT EXECUTE FUNCTION ecotone_check_count_stats_sync();
+--> statement-breakpoint
+CREATE TRIGGER sightings_check_count_delete AFTER DELETE ON sightings
+  REFERENCING OLD TABLE AS ecotone_old FOR EACH STATEMENT EXECUTE FUNCTION ecotone_check_count_stats_sync();
+--> statement-breakpoint
+-- count(*) and percentile_cont(0.25 and 0.75) WITHIN GROUP (ORDER BY ln(count)) over the
+-- non-rejected sightings of a taxon at an event, read from check_count_stats. The quantiles use
+-- percentile_cont's own arithmetic (PostgreSQL's orderedsetaggs.c, read in its source): the
+-- 0-based rows floor(p·(n−1)) and ceil(p·(n−1)) of the sorted values, lo + f·(hi − lo) with
+-- f = p·(n−1) − floor(p·(n−1)), all in float8, so the results are the same numbers, not estimates.
+CREATE OR REPLACE FUNCTION ecotone_count_quartiles(ev uuid, tx uuid)
+RETURNS TABLE (n bigint, q1 float8, q3 float8)
+LANGUAGE sql STABLE AS $$
+  WITH h AS (
+    SELECT c.count, sum(c.n) AS k FROM check_count_stats c
+    WHERE c.event_id = ev AND c.taxon_id = tx GROUP BY c.count HAVING sum(c.n) > 0
+  ),
+  cum AS (SELECT h.count, sum(h.k) OVER (ORDER BY h.count) AS upto FROM h),
+  tot AS (SELECT coalesce(sum(h.k), 0)::bigint AS total FROM h),
+  pick AS (SELECT p.i, p.p * (tot.total - 1)::float8 AS pos FROM tot, (VALUES (1, 0.25::float8), (3, 0.75::float8)) p(i, p)),
+  val AS (
+    SELECT pick.i, pick.pos - floor(pick.pos) AS f,
+      (SELECT ln(cum.count::float8) FROM cum WHERE cum.upto > floor(pick.pos) ORDER BY cum.count LIMIT 1) AS lo,
+      (SELECT ln(cum.count::float8) FROM cum WHERE cum.upto > ceil(pick.pos) ORDER BY cum.count LIMIT 1) AS hi
+    FROM pick
+  )
+  SELECT tot.total,
+    CASE WHEN tot.total > 0 THEN (SELECT val.lo + val.f * (val.hi - val.lo) FROM val WHERE val.i = 1) END,
+    CASE WHEN tot.total > 0 THEN (SELECT val.lo + val.f * (val.hi - val.lo) FROM val WHERE val.i = 3) END
+  FROM tot
+$$;
+--> statement-breakpoint
+-- The sightings already there.
+INSERT INTO check_count_stats (event_id, taxon_id, count, shard, n)
+  SELECT event_id, taxon_id, count, 0, count(*) FROM sightings
+  WHERE review_state IN ('pending', 'approved', 'returned') AND taxon_id IS NOT NULL GROUP BY 1, 2, 3;
