@@ -664,8 +664,8 @@ export const resultTaxonCounts = pgTable(
 // The unusual-count check mark's statistics (issue 18): how many non-rejected sightings of
 // each taxon at each event carry each count, kept by statement-level triggers on sightings
 // (the check_count_stats migration), so that the quartiles are read from a few rows instead of every sighting
-// of the taxon. `shard` spreads concurrent writers over different rows (pg_backend_pid() % 16),
-// so that simultaneous sync batches never wait on each other's row locks; readers sum the shards.
+// of the taxon. `shard`: each writing transaction holds one of 32 shards (an advisory lock), so
+// that simultaneous sync batches never wait on each other's row locks; readers sum the shards.
 export const checkCountStats = pgTable(
   "check_count_stats",
   {

@@ -11,24 +11,54 @@ CREATE TABLE "check_count_stats" (
 -- over the non-rejected sightings of a taxon at an event. Sorting every such sighting on each
 -- sync batch grew with the event (issue 18); this table keeps, per (event, taxon, count), how
 -- many there are, folded in by statement-level triggers with transition tables (one upsert per
--- touched count per statement, as the results aggregates do). Each connection writes its own
--- shard (pg_backend_pid() % 8) so that concurrent sync batches seldom share a row lock; readers
--- sum the shards. A shard's n may go below zero (a row counted in one shard, removed through
--- another); the sum over shards is the count.
+-- touched count per statement, as the results aggregates do).
+-- A few counts of a few taxa take most records, so one row per count would make concurrent
+-- sync batches queue on each other's row locks until commit. Each writing transaction takes a
+-- shard of its own instead: the first of 32 transaction-scoped advisory locks it can get
+-- (starting from its connection's, so a connection keeps to one shard), waiting only when
+-- 32 transactions write at once; only the shard's holder writes the shard's rows, so writers
+-- never wait on a row. Readers sum the shards. A shard's n may go below zero (a record counted
+-- in one shard, removed through another); the sum over shards is the count.
+CREATE OR REPLACE FUNCTION ecotone_check_count_shard() RETURNS smallint
+LANGUAGE plpgsql AS $$
+DECLARE
+  held text := current_setting('ecotone.check_count_shard', true);
+  first int := pg_backend_pid() % 32;
+  s int;
+BEGIN
+  -- Transaction-local setting: empty or missing before this transaction's first write.
+  IF held IS NOT NULL AND held <> '' THEN RETURN held::smallint; END IF;
+  FOR i IN 0..31 LOOP
+    s := (first + i) % 32;
+    IF pg_try_advisory_xact_lock(180181, s) THEN
+      PERFORM set_config('ecotone.check_count_shard', s::text, true);
+      RETURN s;
+    END IF;
+  END LOOP;
+  PERFORM pg_advisory_xact_lock(180181, first);
+  PERFORM set_config('ecotone.check_count_shard', first::text, true);
+  RETURN first;
+END;
+$$;
+--> statement-breakpoint
 CREATE OR REPLACE FUNCTION ecotone_check_count_stats_sync() RETURNS trigger
 LANGUAGE plpgsql AS $$
 DECLARE
   plus text := 'SELECT event_id, taxon_id, count, 1 AS n FROM ecotone_new WHERE review_state IN (''pending'', ''approved'', ''returned'') AND taxon_id IS NOT NULL';
   minus text := 'SELECT event_id, taxon_id, count, -1 AS n FROM ecotone_old WHERE review_state IN (''pending'', ''approved'', ''returned'') AND taxon_id IS NOT NULL';
   delta text;
+  changed boolean;
 BEGIN
   delta := CASE TG_OP WHEN 'INSERT' THEN plus WHEN 'DELETE' THEN minus ELSE plus || ' UNION ALL ' || minus END;
+  -- Most updates (check marks, review notes) change no count: then no shard is taken.
+  EXECUTE format('SELECT EXISTS (SELECT FROM (%s) d GROUP BY event_id, taxon_id, count HAVING sum(n) <> 0)', delta) INTO changed;
+  IF NOT changed THEN RETURN NULL; END IF;
   EXECUTE format($q$
     INSERT INTO check_count_stats AS c (event_id, taxon_id, count, shard, n)
-      SELECT event_id, taxon_id, count, (pg_backend_pid() %% 8)::smallint, sum(n) FROM (%s) d
+      SELECT event_id, taxon_id, count, $1, sum(n) FROM (%s) d
       GROUP BY 1, 2, 3 HAVING sum(n) <> 0 ORDER BY 1, 2, 3
     ON CONFLICT (event_id, taxon_id, count, shard) DO UPDATE SET n = c.n + excluded.n
-  $q$, delta);
+  $q$, delta) USING ecotone_check_count_shard();
   RETURN NULL;
 END;
 $$;

@@ -171,6 +171,34 @@ describe("per-taxon count statistics for the unusual-count mark", () => {
     await expectKeptEqualsDirect();
   });
 
+  it("let two open transactions record the same taxon and count without waiting on each other", async () => {
+    const url = process.env.DATABASE_URL!;
+    const a = new Client({ connectionString: url });
+    const b = new Client({ connectionString: url });
+    await Promise.all([a.connect(), b.connect()]);
+    const insert = (c: Client) => {
+      const row = sightingValues(f, { count: 3, ...apart() });
+      return c.query(
+        `INSERT INTO sightings (id, event_id, user_id, taxon_id, count, observed_at, location, accuracy_m)
+         VALUES ($1, $2, $3, $4, 3, $5, ST_SetSRID(ST_MakePoint($6, $7), 4326), 5)`,
+        [row.id, f.event.id, f.user.id, f.taxon.id, row.observedAt.toISOString(), 0.3, 0.3],
+      );
+    };
+    try {
+      await a.query("BEGIN");
+      await insert(a);
+      // b would wait for a's commit on a shared row; with its own shard it does not.
+      await b.query("BEGIN");
+      await b.query("SET LOCAL lock_timeout = '2s'");
+      await insert(b);
+      await b.query("COMMIT");
+      await a.query("COMMIT");
+    } finally {
+      await Promise.all([a.end(), b.end()]);
+    }
+    await expectKeptEqualsDirect();
+  });
+
   it("follow rejections, returns and approvals (rejected records leave the statistics)", async () => {
     const a = await idsOf(f.taxon.id, "pending", 12);
     await db()
