@@ -14,30 +14,30 @@ CREATE TABLE "check_count_stats" (
 -- touched count per statement, as the results aggregates do).
 -- A few counts of a few taxa take most records, so one row per count would make concurrent
 -- sync batches queue on each other's row locks until commit. Each writing transaction takes a
--- shard of its own instead: the first of 32 transaction-scoped advisory locks it can get
--- (starting from its connection's, so a connection keeps to one shard), waiting only when
--- 32 transactions write at once; only the shard's holder writes the shard's rows, so writers
--- never wait on a row. Readers sum the shards. A shard's n may go below zero (a record counted
--- in one shard, removed through another); the sum over shards is the count.
+-- shard of its own instead: the first free of 8 transaction-scoped advisory locks (from 0 up,
+-- so that a quiet event uses one or two shards), waiting for one only when 8 transactions
+-- write at once (8 writers already fill this 2-core machine); only a shard's holder writes its
+-- rows, so writers never wait on a row. Readers sum the shards (at most 8 rows per count).
+-- A shard's n may go below zero (a record counted in one shard, removed through another);
+-- the sum over shards is the count.
 CREATE OR REPLACE FUNCTION ecotone_check_count_shard() RETURNS smallint
 LANGUAGE plpgsql AS $$
 DECLARE
   held text := current_setting('ecotone.check_count_shard', true);
-  first int := pg_backend_pid() % 32;
   s int;
 BEGIN
   -- Transaction-local setting: empty or missing before this transaction's first write.
   IF held IS NOT NULL AND held <> '' THEN RETURN held::smallint; END IF;
-  FOR i IN 0..31 LOOP
-    s := (first + i) % 32;
+  FOR s IN 0..7 LOOP
     IF pg_try_advisory_xact_lock(180181, s) THEN
       PERFORM set_config('ecotone.check_count_shard', s::text, true);
       RETURN s;
     END IF;
   END LOOP;
-  PERFORM pg_advisory_xact_lock(180181, first);
-  PERFORM set_config('ecotone.check_count_shard', first::text, true);
-  RETURN first;
+  s := pg_backend_pid() % 8;
+  PERFORM pg_advisory_xact_lock(180181, s);
+  PERFORM set_config('ecotone.check_count_shard', s::text, true);
+  RETURN s;
 END;
 $$;
 --> statement-breakpoint
@@ -73,33 +73,6 @@ CREATE TRIGGER sightings_check_count_update AFTER UPDATE ON sightings
 --> statement-breakpoint
 CREATE TRIGGER sightings_check_count_delete AFTER DELETE ON sightings
   REFERENCING OLD TABLE AS ecotone_old FOR EACH STATEMENT EXECUTE FUNCTION ecotone_check_count_stats_sync();
---> statement-breakpoint
--- count(*) and percentile_cont(0.25 and 0.75) WITHIN GROUP (ORDER BY ln(count)) over the
--- non-rejected sightings of a taxon at an event, read from check_count_stats. The quantiles use
--- percentile_cont's own arithmetic (PostgreSQL's orderedsetaggs.c, read in its source): the
--- 0-based rows floor(p·(n−1)) and ceil(p·(n−1)) of the sorted values, lo + f·(hi − lo) with
--- f = p·(n−1) − floor(p·(n−1)), all in float8, so the results are the same numbers, not estimates.
-CREATE OR REPLACE FUNCTION ecotone_count_quartiles(ev uuid, tx uuid)
-RETURNS TABLE (n bigint, q1 float8, q3 float8)
-LANGUAGE sql STABLE AS $$
-  WITH h AS (
-    SELECT c.count, sum(c.n) AS k FROM check_count_stats c
-    WHERE c.event_id = ev AND c.taxon_id = tx GROUP BY c.count HAVING sum(c.n) > 0
-  ),
-  cum AS (SELECT h.count, sum(h.k) OVER (ORDER BY h.count) AS upto FROM h),
-  tot AS (SELECT coalesce(sum(h.k), 0)::bigint AS total FROM h),
-  pick AS (SELECT p.i, p.p * (tot.total - 1)::float8 AS pos FROM tot, (VALUES (1, 0.25::float8), (3, 0.75::float8)) p(i, p)),
-  val AS (
-    SELECT pick.i, pick.pos - floor(pick.pos) AS f,
-      (SELECT ln(cum.count::float8) FROM cum WHERE cum.upto > floor(pick.pos) ORDER BY cum.count LIMIT 1) AS lo,
-      (SELECT ln(cum.count::float8) FROM cum WHERE cum.upto > ceil(pick.pos) ORDER BY cum.count LIMIT 1) AS hi
-    FROM pick
-  )
-  SELECT tot.total,
-    CASE WHEN tot.total > 0 THEN (SELECT val.lo + val.f * (val.hi - val.lo) FROM val WHERE val.i = 1) END,
-    CASE WHEN tot.total > 0 THEN (SELECT val.lo + val.f * (val.hi - val.lo) FROM val WHERE val.i = 3) END
-  FROM tot
-$$;
 --> statement-breakpoint
 -- The sightings already there.
 INSERT INTO check_count_stats (event_id, taxon_id, count, shard, n)

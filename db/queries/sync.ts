@@ -136,8 +136,11 @@ export async function ingestBatch(input: IngestInput): Promise<StoreOutcome[]> {
   }
 
   // ---- judge each record alone (no database writes yet)
+  // The event's zones, for the sessions' zone check (a batch of sightings alone needs none).
   const eventZones = new Set(
-    (await db.select({ id: zones.id }).from(zones).where(eq(zones.eventId, input.eventId))).map((z) => z.id),
+    sessionsIn.length
+      ? (await db.select({ id: zones.id }).from(zones).where(eq(zones.eventId, input.eventId))).map((z) => z.id)
+      : [],
   );
   const sessionOutcomes: StoreOutcome[] = [];
   const goodSessions = sessionsIn.filter(({ index, rec }) => {

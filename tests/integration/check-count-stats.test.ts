@@ -251,6 +251,27 @@ describe("per-taxon count statistics for the unusual-count mark", () => {
     expect(Number(stored.rows[0]!.n)).toBe(Number(counted.rows[0]!.n));
   });
 
+  it("equal percentile_cont for every size of sample, ties and all (each fraction of p·(n−1))", async () => {
+    const extra = await db()
+      .insert(s.taxa)
+      .values(
+        Array.from({ length: 14 }, (_, i) => ({ scientificName: `Testus numerus ${i}`, taxonGroup: "birds" as const })),
+      )
+      .returning();
+    for (const [i, t] of extra.entries()) {
+      const size = i + 1;
+      await db()
+        .insert(s.sightings)
+        .values(
+          Array.from({ length: size }, () => sightingValues(f, { taxonId: t.id, count: someCount(), ...apart() })),
+        );
+      expect([size, await keptCountQuartiles(db(), f.event.id, t.id)]).toEqual([
+        size,
+        await directCountQuartiles(db(), f.event.id, t.id),
+      ]);
+    }
+  });
+
   it("give the marks the rule gives with the direct quartiles, at and around the far-out fence", async () => {
     for (const taxon of [f.taxon.id, taxonB]) {
       const { n, q1, q3 } = await directCountQuartiles(db(), f.event.id, taxon);
