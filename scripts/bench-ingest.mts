@@ -18,7 +18,7 @@
 // the app first if .next holds no build. Uses its own database, ecotone_test_bench
 // (ECOTONE_TEST_SUFFIX appended), and port BENCH_PORT (default 3190).
 import { spawn, spawnSync } from "node:child_process";
-import { existsSync } from "node:fs";
+import { existsSync, writeFileSync } from "node:fs";
 import autocannon from "autocannon";
 import { encode } from "next-auth/jwt";
 import { Client } from "pg";
@@ -282,6 +282,7 @@ async function openLoop(eventId: string, taxonIds: string[], volunteerCookies: s
     schedule.push({ at: t, cookie, body: JSON.stringify({ sightings: sightingsBatch(taxonIds, OPEN_BATCH, random) }) });
   }
   const latencies: number[] = [];
+  const trace: [number, number][] = [];
   let ok = 0;
   let failed = 0;
   const started = performance.now();
@@ -303,8 +304,11 @@ async function openLoop(eventId: string, taxonIds: string[], volunteerCookies: s
         failed++;
       }
       latencies.push(performance.now() - (started + at));
+      trace.push([Math.round(at), Math.round(performance.now() - (started + at))]);
     }),
   );
+  // BENCH_OPEN_TRACE=<file>: each batch's planned start and latency (ms), to see where a tail comes from.
+  if (process.env.BENCH_OPEN_TRACE) writeFileSync(process.env.BENCH_OPEN_TRACE, JSON.stringify(trace));
   return { planned: schedule.length, ok, failed, latencies: latencies.sort((a, b) => a - b), seconds: OPEN_SECONDS };
 }
 
