@@ -83,9 +83,14 @@ const keptStatsSql = (keys: SQL) => sql`
           (sum(g.k) OVER (PARTITION BY g.event_id, g.taxon_id ORDER BY g.count))::float8 AS upto,
           (sum(g.k) OVER (PARTITION BY g.event_id, g.taxon_id))::bigint AS n
         FROM (
-          SELECT c.event_id, c.taxon_id, c.count, sum(c.n) AS k
-          FROM check_count_stats c JOIN ${keys} keys ON c.event_id = keys.event_id AND c.taxon_id = keys.taxon_id
-          GROUP BY 1, 2, 3 HAVING sum(c.n) > 0
+          -- LATERAL: one primary-key range per taxon, never a scan of every event's statistics.
+          SELECT keys.event_id, keys.taxon_id, x.count, x.k
+          FROM ${keys} keys
+          CROSS JOIN LATERAL (
+            SELECT c.count, sum(c.n) AS k FROM check_count_stats c
+            WHERE c.event_id = keys.event_id AND c.taxon_id = keys.taxon_id
+            GROUP BY c.count HAVING sum(c.n) > 0
+          ) x
         ) g
       ) h
     ) r
