@@ -42,24 +42,41 @@ BEGIN
 END;
 $$;
 --> statement-breakpoint
+-- Static statements, one per operation (plpgsql keeps their plans; a branch that names a
+-- transition table the operation lacks never runs). A statement that changes no count (most
+-- updates: check marks, review notes) upserts nothing and takes no shard.
 CREATE OR REPLACE FUNCTION ecotone_check_count_stats_sync() RETURNS trigger
 LANGUAGE plpgsql AS $$
-DECLARE
-  plus text := 'SELECT event_id, taxon_id, count, 1 AS n FROM ecotone_new WHERE review_state IN (''pending'', ''approved'', ''returned'') AND taxon_id IS NOT NULL';
-  minus text := 'SELECT event_id, taxon_id, count, -1 AS n FROM ecotone_old WHERE review_state IN (''pending'', ''approved'', ''returned'') AND taxon_id IS NOT NULL';
-  delta text;
-  changed boolean;
 BEGIN
-  delta := CASE TG_OP WHEN 'INSERT' THEN plus WHEN 'DELETE' THEN minus ELSE plus || ' UNION ALL ' || minus END;
-  -- Most updates (check marks, review notes) change no count: then no shard is taken.
-  EXECUTE format('SELECT EXISTS (SELECT FROM (%s) d GROUP BY event_id, taxon_id, count HAVING sum(n) <> 0)', delta) INTO changed;
-  IF NOT changed THEN RETURN NULL; END IF;
-  EXECUTE format($q$
+  IF TG_OP = 'INSERT' THEN
     INSERT INTO check_count_stats AS c (event_id, taxon_id, count, shard, n)
-      SELECT event_id, taxon_id, count, $1, sum(n) FROM (%s) d
-      GROUP BY 1, 2, 3 HAVING sum(n) <> 0 ORDER BY 1, 2, 3
-    ON CONFLICT (event_id, taxon_id, count, shard) DO UPDATE SET n = c.n + excluded.n
-  $q$, delta) USING ecotone_check_count_shard();
+      SELECT d.event_id, d.taxon_id, d.count, ecotone_check_count_shard(), d.n FROM (
+        SELECT event_id, taxon_id, count, count(*)::int AS n FROM ecotone_new
+        WHERE review_state IN ('pending', 'approved', 'returned') AND taxon_id IS NOT NULL
+        GROUP BY 1, 2, 3 ORDER BY 1, 2, 3
+      ) d
+    ON CONFLICT (event_id, taxon_id, count, shard) DO UPDATE SET n = c.n + excluded.n;
+  ELSIF TG_OP = 'UPDATE' THEN
+    INSERT INTO check_count_stats AS c (event_id, taxon_id, count, shard, n)
+      SELECT d.event_id, d.taxon_id, d.count, ecotone_check_count_shard(), d.n FROM (
+        SELECT event_id, taxon_id, count, sum(n)::int AS n FROM (
+          SELECT event_id, taxon_id, count, 1 AS n FROM ecotone_new
+          WHERE review_state IN ('pending', 'approved', 'returned') AND taxon_id IS NOT NULL
+          UNION ALL
+          SELECT event_id, taxon_id, count, -1 AS n FROM ecotone_old
+          WHERE review_state IN ('pending', 'approved', 'returned') AND taxon_id IS NOT NULL
+        ) u GROUP BY 1, 2, 3 HAVING sum(n) <> 0 ORDER BY 1, 2, 3
+      ) d
+    ON CONFLICT (event_id, taxon_id, count, shard) DO UPDATE SET n = c.n + excluded.n;
+  ELSE
+    INSERT INTO check_count_stats AS c (event_id, taxon_id, count, shard, n)
+      SELECT d.event_id, d.taxon_id, d.count, ecotone_check_count_shard(), d.n FROM (
+        SELECT event_id, taxon_id, count, -count(*)::int AS n FROM ecotone_old
+        WHERE review_state IN ('pending', 'approved', 'returned') AND taxon_id IS NOT NULL
+        GROUP BY 1, 2, 3 ORDER BY 1, 2, 3
+      ) d
+    ON CONFLICT (event_id, taxon_id, count, shard) DO UPDATE SET n = c.n + excluded.n;
+  END IF;
   RETURN NULL;
 END;
 $$;

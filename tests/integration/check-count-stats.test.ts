@@ -71,7 +71,10 @@ async function idsOf(taxonId: string, state: "pending" | "approved" | "returned"
 
 beforeAll(async () => {
   f = await makeFixture("countstats");
-  const [b] = await db().insert(s.taxa).values({ scientificName: "Testus alter", taxonGroup: "mammals" }).returning();
+  const [b] = await db()
+    .insert(s.taxa)
+    .values({ scientificName: "Testus countstats alter", taxonGroup: "mammals" })
+    .returning();
   taxonB = b!.id;
   await db()
     .insert(s.eventSpecies)
@@ -255,7 +258,10 @@ describe("per-taxon count statistics for the unusual-count mark", () => {
     const extra = await db()
       .insert(s.taxa)
       .values(
-        Array.from({ length: 14 }, (_, i) => ({ scientificName: `Testus numerus ${i}`, taxonGroup: "birds" as const })),
+        Array.from({ length: 14 }, (_, i) => ({
+          scientificName: `Testus countstats ${i}`,
+          taxonGroup: "birds" as const,
+        })),
       )
       .returning();
     for (const [i, t] of extra.entries()) {
