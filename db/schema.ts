@@ -690,6 +690,23 @@ export const resultTaxonCounts = pgTable(
   (t) => [primaryKey({ columns: [t.eventId, t.zoneKey, t.taxonId] })],
 );
 
+// The unusual-count check mark's statistics (issue 18): how many non-rejected sightings of
+// each taxon at each event carry each count, kept by statement-level triggers on sightings
+// (the check_count_stats migration), so that the quartiles are read from a few rows instead of every sighting
+// of the taxon. `shard`: each writing transaction holds one of 32 shards (an advisory lock), so
+// that simultaneous sync batches never wait on each other's row locks; readers sum the shards.
+export const checkCountStats = pgTable(
+  "check_count_stats",
+  {
+    eventId: uuid("event_id").notNull(),
+    taxonId: uuid("taxon_id").notNull(),
+    count: integer("count").notNull(),
+    shard: smallint("shard").notNull(),
+    n: integer("n").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.taxonId, t.count, t.shard] })],
+);
+
 // Presence of a taxon in a count session (approved sightings only); whether the session
 // counts as a complete incidence sample, and its zone, are read from count_sessions.
 export const resultSessionTaxa = pgTable(

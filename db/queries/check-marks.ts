@@ -1,5 +1,5 @@
 import "server-only";
-import { sql } from "drizzle-orm";
+import { sql, type SQL } from "drizzle-orm";
 import { GROUP_THRESHOLDS } from "@/lib/sync/rules";
 import type { Db } from "../client";
 
@@ -37,6 +37,79 @@ export const DUPLICATE_METRES = 50;
 // unit test checks) live with the sync rules, which the phone also reads (lib/sync/rules.ts).
 export { GROUP_THRESHOLDS };
 
+/**
+ * The unusual-count rule's statistics computed straight from the sightings (every non-rejected
+ * sighting of the taxon at the event): what keptStatsSql must always equal. The
+ * check-mark pass no longer runs this (it sorted every sighting of each taxon on each batch);
+ * tests and the bench compare the two.
+ */
+export async function directCountQuartiles(
+  db: Executor,
+  eventId: string,
+  taxonId: string,
+): Promise<{ n: number; q1: number | null; q3: number | null }> {
+  const { rows } = await db.execute<{ n: string; q1: number | null; q3: number | null }>(sql`
+    SELECT count(*) AS n,
+      percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,
+      percentile_cont(0.75) WITHIN GROUP (ORDER BY ln(o.count)) AS q3
+    FROM sightings o
+    WHERE o.event_id = ${eventId} AND o.taxon_id = ${taxonId} AND o.review_state IN ('pending', 'approved', 'returned')`);
+  return { n: Number(rows[0]!.n), q1: rows[0]!.q1, q3: rows[0]!.q3 };
+}
+
+/**
+ * count(*) and percentile_cont(0.25 and 0.75) WITHIN GROUP (ORDER BY ln(count)) over the
+ * non-rejected sightings of each (event_id, taxon_id) of `keys`, read from check_count_stats
+ * (a few rows per taxon) instead of every sighting. The quantiles use percentile_cont's own
+ * arithmetic (PostgreSQL's orderedsetaggs.c, read in its source): the 0-based rows
+ * floor(p·(n−1)) and ceil(p·(n−1)) of the sorted values, lo + f·(hi − lo) with
+ * f = p·(n−1) − floor(p·(n−1)), all in float8, so they are the same numbers, not estimates.
+ * The k-th value (0-based) is the smallest count whose running total exceeds k.
+ * Taxa without any record give no row.
+ */
+const keptStatsSql = (keys: SQL) => sql`
+  SELECT b.event_id, b.taxon_id, b.n,
+    ln(b.lo1::float8) + (b.p1 - floor(b.p1)) * (ln(b.hi1::float8) - ln(b.lo1::float8)) AS q1,
+    ln(b.lo3::float8) + (b.p3 - floor(b.p3)) * (ln(b.hi3::float8) - ln(b.lo3::float8)) AS q3
+  FROM (
+    SELECT r.event_id, r.taxon_id, r.n, r.p1, r.p3,
+      min(r.count) FILTER (WHERE r.upto > floor(r.p1)) AS lo1, min(r.count) FILTER (WHERE r.upto > ceil(r.p1)) AS hi1,
+      min(r.count) FILTER (WHERE r.upto > floor(r.p3)) AS lo3, min(r.count) FILTER (WHERE r.upto > ceil(r.p3)) AS hi3
+    FROM (
+      SELECT h.event_id, h.taxon_id, h.count, h.upto, h.n,
+        0.25::float8 * (h.n - 1)::float8 AS p1, 0.75::float8 * (h.n - 1)::float8 AS p3
+      FROM (
+        SELECT g.event_id, g.taxon_id, g.count,
+          (sum(g.k) OVER (PARTITION BY g.event_id, g.taxon_id ORDER BY g.count))::float8 AS upto,
+          (sum(g.k) OVER (PARTITION BY g.event_id, g.taxon_id))::bigint AS n
+        FROM (
+          -- LATERAL: one primary-key range per taxon, never a scan of every event's statistics.
+          SELECT keys.event_id, keys.taxon_id, x.count, x.k
+          FROM ${keys} keys
+          CROSS JOIN LATERAL (
+            SELECT c.count, sum(c.n) AS k FROM check_count_stats c
+            WHERE c.event_id = keys.event_id AND c.taxon_id = keys.taxon_id
+            GROUP BY c.count HAVING sum(c.n) > 0
+          ) x
+        ) g
+      ) h
+    ) r
+    GROUP BY 1, 2, 3, 4, 5
+  ) b`;
+
+/** The same statistics read from check_count_stats, as the check-mark pass reads them. */
+export async function keptCountQuartiles(
+  db: Executor,
+  eventId: string,
+  taxonId: string,
+): Promise<{ n: number; q1: number | null; q3: number | null }> {
+  const { rows } = await db.execute<{ n: string; q1: number | null; q3: number | null }>(
+    sql`SELECT n, q1, q3 FROM (${keptStatsSql(sql`(SELECT ${eventId}::uuid AS event_id, ${taxonId}::uuid AS taxon_id)`)}) s`,
+  );
+  // No record of the taxon: what count(*) and percentile_cont give over no rows.
+  return rows[0] ? { n: Number(rows[0].n), q1: rows[0].q1, q3: rows[0].q3 } : { n: 0, q1: null, q3: null };
+}
+
 /** The database, or a transaction on it (anything that can run a statement). */
 export type Executor = Pick<Db, "execute">;
 
@@ -59,10 +132,8 @@ export async function refreshCheckMarks(tx: Executor, sightingIds: string[]): Pr
 }
 
 async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
-  const idArray = sql`ARRAY[${sql.join(
-    ids.map((id) => sql`${id}`),
-    sql`, `,
-  )}]::uuid[]`;
+  // One array parameter, not one parameter per id.
+  const idArray = sql`${sql.param(ids)}::uuid[]`;
   await tx.execute(sql`
     WITH given AS (
       SELECT s.* FROM sightings s WHERE s.id = ANY(${idArray})
@@ -80,20 +151,13 @@ async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
     target AS (
       SELECT s.* FROM (SELECT id FROM given UNION SELECT id FROM partners) ids JOIN sightings s ON s.id = ids.id
     ),
-    -- Per taxon in this batch, through sightings_results_idx (event, state, taxon); only for
-    -- taxa with a record above the floor, since no count at or below it is ever marked
-    -- (every group threshold is above the floor too).
-    taxon_stats AS (
-      SELECT k.event_id, k.taxon_id, x.n, x.q1, x.q3
-      FROM (SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL AND count > ${HIGH_COUNT_FLOOR}) k
-      CROSS JOIN LATERAL (
-        SELECT count(*) AS n,
-          percentile_cont(0.25) WITHIN GROUP (ORDER BY ln(o.count)) AS q1,
-          percentile_cont(0.75) WITHIN GROUP (ORDER BY ln(o.count)) AS q3
-        FROM sightings o
-        WHERE o.event_id = k.event_id AND o.taxon_id = k.taxon_id AND o.review_state IN ('pending', 'approved', 'returned')
-      ) x
-    ),
+    -- Per taxon in this batch, from the per-count statistics the triggers keep
+    -- (check_count_stats: the same numbers as count and percentile_cont over every non-rejected
+    -- sighting of the taxon, see keptStatsSql); only for taxa with a record above the floor,
+    -- since no count at or below it is ever marked (every group threshold is above the floor too).
+    taxon_stats AS (${keptStatsSql(
+      sql`(SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL AND count > ${HIGH_COUNT_FLOOR})`,
+    )}),
     computed AS (
       SELECT s.id, array_remove(ARRAY[
         CASE WHEN e.area IS NOT NULL AND NOT ST_Covers(e.area, s.location) THEN 'outside_area'::check_mark END,
