@@ -14,7 +14,8 @@ import { fileURLToPath } from "node:url";
 if (!process.execArgv.some((a) => a.includes("react-server"))) {
   const { env } = await import("../lib/env");
   const u = new URL(env().DATABASE_URL);
-  u.pathname = "/ecotone_test_bench";
+  // ECOTONE_TEST_SUFFIX keeps one engineer's benchmark database apart from another's.
+  u.pathname = `/ecotone_test_bench${process.env.ECOTONE_TEST_SUFFIX ?? ""}`;
   // ECOTONE_PG_PORT moves the cluster, as for the other parts of the bench.
   if (process.env.ECOTONE_PG_PORT) u.port = process.env.ECOTONE_PG_PORT;
   const r = spawnSync(
@@ -155,6 +156,25 @@ for (let i = 0; i < runs; i++) {
   afterChange.push(a.ms);
   console.log(
     `run ${i + 1}: cold ${c.ms.toFixed(0)} ms, unchanged since last read ${w.ms.toFixed(0)} ms, after one approval ${a.ms.toFixed(0)} ms`,
+  );
+}
+// Where the first read's time goes: the aggregate queries, then lib/diversity (without the
+// bootstraps the worker adds later), each timed alone.
+{
+  const { loadResultsInput } = await import("../db/queries/results");
+  const { computeResults } = await import("../lib/results/compute");
+  const load: number[] = [];
+  const compute: number[] = [];
+  for (let i = 0; i < 3; i++) {
+    const l0 = performance.now();
+    const input = await loadResultsInput(id);
+    load.push(performance.now() - l0);
+    const c0 = performance.now();
+    computeResults(input, { bands: false });
+    compute.push(performance.now() - c0);
+  }
+  console.log(
+    `first read, in parts (median of 3): aggregate queries ${median(load).toFixed(0)} ms, computeResults without the deferred bootstraps ${median(compute).toFixed(0)} ms`,
   );
 }
 const g0 = performance.now();

@@ -9,7 +9,7 @@ import { buildProfile, type FrequencyProfile } from "@/lib/diversity/profile";
 import { Rng, binomial, multinomial } from "@/lib/diversity/random";
 import { sampleCoverage } from "@/lib/diversity/abundance";
 import { sizeForCoverage } from "@/lib/diversity/compare";
-import { curvePoint } from "@/lib/diversity/curves";
+import { coverageAt, curvePoint } from "@/lib/diversity/curves";
 import { undetectedChao } from "@/lib/diversity/richness";
 
 export type Sample =
@@ -39,7 +39,7 @@ export function sizeAtCoverage(p: FrequencyProfile, c: number): number {
   if (N === 0) return 0;
   const full = sampleCoverage(p);
   if (c > full) return sizeForCoverage(p, c);
-  const cov = (m: number) => curvePoint(p, m).coverage;
+  const cov = (m: number) => coverageAt(p, m);
   let lo = 0;
   let hi = N;
   let cLo = 0;
