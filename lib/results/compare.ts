@@ -106,8 +106,42 @@ function redraw(p: FrequencyProfile, rng: Rng, assemblage: Float64Array): Freque
   return buildProfile("incidence", y, p.size);
 }
 
+/**
+ * Replicates already drawn in this process, by everything they depend on (the sample, the
+ * coverage, the number of replicates and the seed): after one more approval only the zone
+ * it touched is redrawn. The same inputs give the same numbers, so a hit changes nothing.
+ */
+const drawn = new Map<string, Float64Array>();
+const MAX_DRAWN = 64;
+
+/** Forgets the kept replicates (the benchmark's cold figure). */
+export function forgetBootstraps(): void {
+  drawn.clear();
+}
+
 /** Richness at coverage c of `replicates` redraws of the sample's estimated assemblage (fixed seed). */
 export function bootstrapAtCoverage(s: Sample, c: number, options: { replicates: number; seed: number }): Float64Array {
+  const key = JSON.stringify([
+    s.kind,
+    s.kind === "abundance" ? s.counts : s.frequencies,
+    s.kind === "abundance" ? 0 : s.units,
+    c,
+    options.replicates,
+    options.seed,
+  ]);
+  const hit = drawn.get(key);
+  if (hit) {
+    drawn.delete(key);
+    drawn.set(key, hit);
+    return hit.slice();
+  }
+  const out = drawReplicates(s, c, options);
+  drawn.set(key, out.slice());
+  if (drawn.size > MAX_DRAWN) drawn.delete(drawn.keys().next().value!);
+  return out;
+}
+
+function drawReplicates(s: Sample, c: number, options: { replicates: number; seed: number }): Float64Array {
   const p = profileOf(s);
   const assemblage = p.kind === "abundance" ? bootstrapAssemblage(p, sampleCoverage(p)) : incidenceAssemblage(p);
   const rng = new Rng(options.seed);

@@ -3,6 +3,7 @@ import path from "node:path";
 import { Worker } from "node:worker_threads";
 import { loadResultsInput, resultsKey } from "@/db/queries/results";
 import { computeResults, type Results, type ResultsInput } from "@/lib/results/compute";
+import { forgetBootstraps } from "@/lib/results/compare";
 
 // The event's current results, computed once per change and shared by every reader in
 // this process (the organiser, coordinators polling, the results page). The key comes
@@ -90,9 +91,10 @@ export async function currentResults(eventId: string, options: { bands?: "later"
   return pending;
 }
 
-/** For the benchmark's cold figure: forget every cached result and end every worker, as after a restart. */
+/** For the benchmark's cold figure: forget every cached result and kept replicate, and end every worker, as after a restart. */
 export function forgetResults(): void {
   cache.clear();
+  forgetBootstraps();
   for (const w of workers.values()) w.cancel();
   workers.clear();
 }
