@@ -78,6 +78,12 @@ export async function currentResults(eventId: string, options: { bands?: "later"
   let pending = inflight.get(flightKey);
   if (!pending) {
     pending = (async () => {
+      // The worker of an older change would only compete for the cores: end it now.
+      const stale = workers.get(eventId);
+      if (stale && stale.key !== key) {
+        stale.cancel();
+        workers.delete(eventId);
+      }
       const input = await loadResultsInput(eventId);
       const now = options.bands === "now";
       const results = computeResults(input, { bands: now });
