@@ -151,6 +151,19 @@ describe("between events of one site", () => {
     expect(soon.comparison.events[0]!.observed).toBe(25);
     const fresh = await comparisonWithEarlier({ id: f.event.id, name: f.event.name, startsAt: f.event.startsAt });
     expect(fresh.comparison!.events[0]!.observed).toBe(26);
+    // Once the kept comparison is too old, the board still gets it at once and a new one is
+    // computed behind it.
+    await db()
+      .insert(s.sightings)
+      .values(sightingValues(f, { taxonId: taxa[28]!.id, count: 2, reviewState: "approved" }));
+    const ev = { id: f.event.id, name: f.event.name, startsAt: f.event.startsAt };
+    const old = await comparisonWithEarlier(ev, undefined, { staleMs: 0 });
+    expect(old.comparison!.events[0]!.observed).toBe(26);
+    await expect
+      .poll(
+        async () => (await comparisonWithEarlier(ev, undefined, { staleMs: 60_000 })).comparison!.events[0]!.observed,
+      )
+      .toBe(27);
   });
 
   it("the demo's midsummer count finds last year's count of the reserve and compares them on complete sessions", async () => {
