@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { sizeForCoverage } from "@/lib/diversity/compare";
+import { abundanceStats } from "@/lib/diversity/index";
 import { computeResults, type ResultsTaxon } from "./compute";
 import { bootstrapAtCoverage, differenceAtCoverage, forgetBootstraps, profileOf, sizeAtCoverage } from "./compare";
 
@@ -27,6 +28,16 @@ describe("comparison at equal coverage", () => {
     forgetBootstraps();
     expect(Array.from(bootstrapAtCoverage(s, 0.9, { replicates: 50, seed: 7 }))).toEqual(Array.from(first));
     expect(Array.from(bootstrapAtCoverage(s, 0.9, { replicates: 50, seed: 8 }))).not.toEqual(Array.from(first));
+  });
+
+  it("keeps the engine's Hill q = 1, 2 bootstrap too: kept or drawn again, the same intervals", () => {
+    const counts = [50, 20, 10, 5, 3, 2, 1, 1, 1, 1, 1, 1];
+    forgetBootstraps();
+    const first = abundanceStats(counts).hill;
+    expect(abundanceStats(counts).hill).toEqual(first);
+    forgetBootstraps();
+    expect(abundanceStats(counts).hill).toEqual(first);
+    expect(abundanceStats(counts, { seed: 3 }).hill.q1.se).not.toBe(first.q1.se);
   });
 
   it("gives the same interval for the same seed and a real difference a sign", () => {

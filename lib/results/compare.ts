@@ -4,7 +4,7 @@
 // adjusted for the coverage deficit, plus the estimated undetected species), standardises
 // both to the same fixed coverage and takes the difference. Interval: observed difference
 // ± 1.96 × bootstrap sd. "More"/"fewer" only when that interval excludes 0.
-import { bootstrapAssemblage } from "@/lib/diversity/hill";
+import { bootstrapAssemblage, forgetHillBootstraps } from "@/lib/diversity/hill";
 import { buildProfile, type FrequencyProfile } from "@/lib/diversity/profile";
 import { Rng, binomial, multinomial } from "@/lib/diversity/random";
 import { sampleCoverage } from "@/lib/diversity/abundance";
@@ -114,9 +114,10 @@ function redraw(p: FrequencyProfile, rng: Rng, assemblage: Float64Array): Freque
 const drawn = new Map<string, Float64Array>();
 const MAX_DRAWN = 64;
 
-/** Forgets the kept replicates (the benchmark's cold figure). */
+/** Forgets the kept replicates, these and the engine's Hill q = 1, 2 ones (the benchmark's cold figure). */
 export function forgetBootstraps(): void {
   drawn.clear();
+  forgetHillBootstraps();
 }
 
 /** Richness at coverage c of `replicates` redraws of the sample's estimated assemblage (fixed seed). */
