@@ -163,6 +163,7 @@ for (let i = 0; i < runs; i++) {
 {
   const { loadResultsInput, pendingCounts, sessionZonesSql } = await import("../db/queries/results");
   const { computeResults } = await import("../lib/results/compute");
+  const { forgetBootstraps } = await import("../lib/results/compare");
   forgetResults(); // no worker from the runs above competes for the cores
   const load: number[] = [];
   const compute: number[] = [];
@@ -178,6 +179,7 @@ for (let i = 0; i < runs; i++) {
     const l0 = performance.now();
     const input = await loadResultsInput(id);
     load.push(performance.now() - l0);
+    forgetBootstraps(); // no replicates kept from the run before: each computation is a first one
     const c0 = performance.now();
     computeResults(input, { bands: false });
     compute.push(performance.now() - c0);
