@@ -1,5 +1,6 @@
 // Benchmark of the results handler path on an event of 1,000,000 sightings: seeds that
-// event (once; --reseed to start again) in its own database on the local cluster, then
+// event (once; --reseed to start again) in its own database on the local cluster
+// (ecotone_test_bench, with ECOTONE_TEST_SUFFIX appended when set), then
 // times what GET /api/events/:id/results does: the aggregate queries (migration 0007)
 // plus lib/diversity, and the JSON answer. For comparison it also times the plain GROUP
 // BY over every approved sighting that the aggregate tables replace.
