@@ -67,14 +67,17 @@ export async function taxaMeta(
  * the zone holding most of its sightings, whatever their review state (outside every zone
  * is one more place); ties go to the zone it was started in, then the lowest zone id; a
  * session without sightings stays in the zone it was started in. Columns: id, zone_id.
+ * The votes are read from result_session_zones (migration 0021), a few rows per session,
+ * not from the sightings.
  */
 export function sessionZonesSql(eventId: string, options: { completeOnly?: boolean } = {}) {
   const complete = options.completeOnly === false ? sql`TRUE` : sql`all_species_noted`;
   return sql`
     WITH cs AS (SELECT id, zone_id FROM count_sessions WHERE event_id = ${eventId} AND ${complete}),
     votes AS (
-      SELECT s.session_id, s.zone_id, count(*) AS n FROM sightings s JOIN cs ON cs.id = s.session_id
-      WHERE s.event_id = ${eventId} GROUP BY 1, 2
+      SELECT v.session_id, NULLIF(v.zone_key, ${NO_ZONE}::uuid) AS zone_id, v.sightings AS n
+      FROM result_session_zones v JOIN cs ON cs.id = v.session_id
+      WHERE v.event_id = ${eventId} AND v.sightings > 0
     ),
     best AS (
       SELECT DISTINCT ON (v.session_id) v.session_id, v.zone_id FROM votes v JOIN cs ON cs.id = v.session_id
@@ -84,15 +87,18 @@ export function sessionZonesSql(eventId: string, options: { completeOnly?: boole
     FROM cs LEFT JOIN best b ON b.session_id = cs.id`;
 }
 
-/** Sightings not in the results yet: pending review or returned, in all and in complete sessions. */
+/**
+ * Sightings not in the results yet: pending review or returned, in all and in complete
+ * sessions; read from result_pending (migration 0021), one row per session or volunteer.
+ */
 export async function pendingCounts(eventId: string, db: Tx = getDb()): Promise<Pending> {
   const r = await db.execute<Pending>(sql`
-    SELECT count(*) FILTER (WHERE s.review_state = 'pending')::int AS pending,
-           count(*) FILTER (WHERE s.review_state = 'returned')::int AS returned,
-           count(*) FILTER (WHERE s.review_state = 'pending' AND cs.all_species_noted)::int AS "pendingInCompleteSessions",
-           count(*) FILTER (WHERE s.review_state = 'returned' AND cs.all_species_noted)::int AS "returnedInCompleteSessions"
-    FROM sightings s LEFT JOIN count_sessions cs ON cs.id = s.session_id
-    WHERE s.event_id = ${eventId} AND s.review_state IN ('pending', 'returned')`);
+    SELECT coalesce(sum(p.pending), 0)::int AS pending,
+           coalesce(sum(p.returned), 0)::int AS returned,
+           coalesce(sum(p.pending) FILTER (WHERE cs.all_species_noted), 0)::int AS "pendingInCompleteSessions",
+           coalesce(sum(p.returned) FILTER (WHERE cs.all_species_noted), 0)::int AS "returnedInCompleteSessions"
+    FROM result_pending p LEFT JOIN count_sessions cs ON cs.id = p.session_key
+    WHERE p.event_id = ${eventId}`);
   return r.rows[0] ?? { pending: 0, returned: 0, pendingInCompleteSessions: 0, returnedInCompleteSessions: 0 };
 }
 
