@@ -1,6 +1,7 @@
 // Benchmark of the results handler path on an event of 1,000,000 sightings: seeds that
-// event (once; --reseed to start again) in its own database on the local cluster
-// (ecotone_test_bench, with ECOTONE_TEST_SUFFIX appended when set), then
+// event (once; --reseed to start again; a kept database takes the migrations added since)
+// in its own database on the local cluster (ecotone_test_bench, with ECOTONE_TEST_SUFFIX
+// appended when set), then
 // times what GET /api/events/:id/results does: the aggregate queries (migration 0007)
 // plus lib/diversity, and the JSON answer. For comparison it also times the plain GROUP
 // BY over every approved sighting that the aggregate tables replace.
@@ -117,7 +118,17 @@ async function seed(): Promise<string> {
   return id;
 }
 
-const id = args.includes("--reseed") ? await seed() : ((await eventId()) ?? (await seed()));
+/** A kept database takes the migrations added since it was seeded (only those; its data stay). */
+async function migrateKept(found: string): Promise<string> {
+  const { runMigrations } = await import("../db/migrate");
+  const { APP_ROLE } = await import("../db/roles");
+  const { testUrls } = await import("../tests/support/test-db");
+  await runMigrations(testUrls(url).owner, { appRole: APP_ROLE });
+  return found;
+}
+
+const kept = args.includes("--reseed") ? null : await eventId();
+const id = kept ? await migrateKept(kept) : await seed();
 const db = getDb();
 const [facts] = (
   await db.execute<{ sightings: number; approved: number; pairs: number; complete: number }>(sql`

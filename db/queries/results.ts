@@ -208,8 +208,9 @@ export async function liveFigures(eventId: string): Promise<LiveFigures> {
 
 /**
  * What the event's results depend on, in one cheap row: the aggregate counter raised by
- * the triggers, a hash of the count sessions (complete flag and zone), and hashes of the
- * zones and of the taxa in the results. Equal keys mean equal results.
+ * the triggers, a hash of the count sessions (complete flag and zone), the pending figures
+ * and a hash of the sessions' sightings by zone (their votes, migration 0021), and hashes
+ * of the zones and of the taxa in the results. Equal keys mean equal results.
  */
 export async function resultsKey(eventId: string): Promise<string> {
   // The same database the results are read from (db/client.ts getReadDb), so the key matches them.
@@ -219,8 +220,9 @@ export async function resultsKey(eventId: string): Promise<string> {
       (SELECT count(*) || ':' || coalesce(sum(hashtext(id::text || all_species_noted::text || coalesce(zone_id::text, ''))), 0)
          FROM count_sessions WHERE event_id = ${eventId}),
       (SELECT md5(string_agg(id::text || name || habitat::text, ',' ORDER BY id)) FROM zones WHERE event_id = ${eventId}),
-      (SELECT count(*) FILTER (WHERE review_state = 'pending') || ':' || count(*) FILTER (WHERE review_state = 'returned')
-         FROM sightings WHERE event_id = ${eventId} AND review_state IN ('pending', 'returned')),
+      (SELECT coalesce(sum(pending), 0) || ':' || coalesce(sum(returned), 0) FROM result_pending WHERE event_id = ${eventId}),
+      (SELECT count(*) || ':' || coalesce(sum(hashtext(session_id::text || zone_key::text || sightings::text)), 0)
+         FROM result_session_zones WHERE event_id = ${eventId}),
       (SELECT string_agg(taxon_group::text || unit::text, ',' ORDER BY taxon_group) FROM event_count_units WHERE event_id = ${eventId}),
       (SELECT md5(string_agg(t.id::text || t.scientific_name || t.rank::text || t.taxon_group::text || t.sensitivity::text
                    || coalesce((SELECT string_agg(locale || name, ',' ORDER BY locale) FROM taxon_names n WHERE n.taxon_id = t.id), ''), ',' ORDER BY t.id))

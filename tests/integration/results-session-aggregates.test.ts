@@ -1,13 +1,13 @@
 import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
-import { pendingCounts, sessionZonesSql } from "@/db/queries/results";
+import { pendingCounts, resultsKey, sessionZonesSql } from "@/db/queries/results";
 import { decide, type Decision, type ReviewScope } from "@/db/queries/review";
 import { uploadAreaAndZones } from "@/db/queries/setup-zones";
 import { ingestBatch } from "@/db/queries/sync";
 import * as s from "@/db/schema";
 import type { ArealGeometry as Geometry } from "@/lib/geo/areal";
 import { sessionRecord, sightingRecord, type SessionRecord, type SightingRecord } from "@/lib/sync/records";
-import { db, makeFixture, polygonSql } from "./helpers";
+import { db, makeFixture, polygonSql, sightingValues } from "./helpers";
 
 // Issue 14: the zone of each count session and the pending figures are read from aggregates
 // kept by triggers (migration 0021). Each step below holds them to the direct computation
@@ -197,6 +197,28 @@ describe("session zone and pending aggregates (migration 0021 triggers)", () => 
       "updated",
     );
     await expectEqualToDirect();
+
+    // A rejected sighting written straight in, then deleted: the tie session holds A, A, B (one A
+    // rejected), so one more in B makes a tie (back to B, where it started) and its deletion
+    // undoes it; the results' key sees both, though no pending figure changes.
+    const zoneOfTie = async () => (await keptSessionZones(f.event.id, true)).find((r) => r.id === tie.id)!.zone_id;
+    expect(await zoneOfTie()).toBe(f.zone.id);
+    const key = await resultsKey(f.event.id);
+    const rejected = sightingValues(f, {
+      sessionId: tie.id,
+      zoneId: zoneB.id,
+      location: { longitude: B.longitude, latitude: B.latitude },
+      reviewState: "rejected",
+    });
+    await db().insert(s.sightings).values(rejected);
+    await expectEqualToDirect();
+    expect(await zoneOfTie()).toBe(zoneB.id);
+    const keyWithIt = await resultsKey(f.event.id);
+    expect(keyWithIt).not.toBe(key);
+    await db().delete(s.sightings).where(eq(s.sightings.id, rejected.id));
+    await expectEqualToDirect();
+    expect(await zoneOfTie()).toBe(f.zone.id);
+    expect(await resultsKey(f.event.id)).not.toBe(keyWithIt);
 
     // Deletions: a sighting, then a whole session (its sightings lose their session).
     await db().delete(s.sightings).where(eq(s.sightings.id, inTie[3]!.id));
