@@ -75,13 +75,15 @@ export function sessionZonesSql(eventId: string, options: { completeOnly?: boole
   return sql`
     WITH cs AS (SELECT id, zone_id FROM count_sessions WHERE event_id = ${eventId} AND ${complete}),
     votes AS (
-      SELECT v.session_id, NULLIF(v.zone_key, ${NO_ZONE}::uuid) AS zone_id, v.sightings AS n
+      SELECT v.session_id, NULLIF(v.zone_key, ${NO_ZONE}::uuid) AS zone_id, v.sightings AS n, cs.zone_id AS started
       FROM result_session_zones v JOIN cs ON cs.id = v.session_id
       WHERE v.event_id = ${eventId} AND v.sightings > 0
     ),
+    -- cs is joined once: joined twice, the planner expected millions of rows and spent
+    -- longer compiling the query (JIT) than running it.
     best AS (
-      SELECT DISTINCT ON (v.session_id) v.session_id, v.zone_id FROM votes v JOIN cs ON cs.id = v.session_id
-      ORDER BY v.session_id, v.n DESC, (v.zone_id IS NOT DISTINCT FROM cs.zone_id) DESC, v.zone_id NULLS LAST
+      SELECT DISTINCT ON (session_id) session_id, zone_id FROM votes
+      ORDER BY session_id, n DESC, (zone_id IS NOT DISTINCT FROM started) DESC, zone_id NULLS LAST
     )
     SELECT cs.id, CASE WHEN b.session_id IS NULL THEN cs.zone_id ELSE b.zone_id END AS zone_id
     FROM cs LEFT JOIN best b ON b.session_id = cs.id`;
