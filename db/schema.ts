@@ -720,6 +720,36 @@ export const resultSessionTaxa = pgTable(
   (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.taxonId] })],
 );
 
+// Sightings of each count session by zone, whatever their review state (issue 14): the
+// zone a session counts in (the one holding most of its sightings) is read from these
+// rows instead of every sighting. zone_key as in result_taxon_counts.
+export const resultSessionZones = pgTable(
+  "result_session_zones",
+  {
+    eventId: uuid("event_id").notNull(),
+    sessionId: uuid("session_id").notNull(),
+    zoneKey: uuid("zone_key").notNull(),
+    sightings: integer("sightings").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.zoneKey] })],
+);
+
+// Pending and returned sightings per (count session, volunteer); session_key is the nil
+// UUID for sightings outside a session. Whether the session is complete is read from
+// count_sessions. Keyed finer than the event so that volunteers syncing at the same time
+// never wait on one shared row.
+export const resultPending = pgTable(
+  "result_pending",
+  {
+    eventId: uuid("event_id").notNull(),
+    sessionKey: uuid("session_key").notNull(),
+    userId: uuid("user_id").notNull(),
+    pending: integer("pending").notNull(),
+    returned: integer("returned").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.sessionKey, t.userId] })],
+);
+
 // One counter per event, raised by the same triggers whenever the event's aggregates
 // change: the results path keys its cache on it (with the sessions, zones and taxa).
 export const resultStamps = pgTable("result_stamps", {

@@ -2,10 +2,12 @@
 // 1,000,000-sighting benchmark event of bench-results.mts (300 insect taxa chosen by a cubed
 // uniform, counts 1–12, 25 sightings per session, four in five sessions complete, four zones,
 // 70% approved), without the database: how long computeResults takes with and without the
-// Hill curves' bootstrap bands.
+// Hill curves' bootstrap bands (and the zone × zone table's intervals, which come with them).
+// Each call starts without the comparison replicates kept by an earlier call (lib/results/compare.ts).
 //
 //   npx tsx scripts/bench-results-compute.mts
 import { computeResults, type ResultsInput } from "../lib/results/compute";
+import { forgetBootstraps } from "../lib/results/compare";
 
 let state = 20261203;
 const rnd = () => (state = (state * 48271) % 2147483647) / 2147483647;
@@ -42,6 +44,7 @@ const input: ResultsInput = {
   sessions,
 };
 const time = (label: string, bands: boolean) => {
+  forgetBootstraps();
   const t0 = performance.now();
   const r = computeResults(input, { bands });
   const ms = performance.now() - t0;

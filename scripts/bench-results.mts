@@ -1,5 +1,7 @@
 // Benchmark of the results handler path on an event of 1,000,000 sightings: seeds that
-// event (once; --reseed to start again) in its own database on the local cluster, then
+// event (once; --reseed to start again; a kept database takes the migrations added since)
+// in its own database on the local cluster (ecotone_test_bench, with ECOTONE_TEST_SUFFIX
+// appended when set), then
 // times what GET /api/events/:id/results does: the aggregate queries (migration 0007)
 // plus lib/diversity, and the JSON answer. For comparison it also times the plain GROUP
 // BY over every approved sighting that the aggregate tables replace.
@@ -116,7 +118,17 @@ async function seed(): Promise<string> {
   return id;
 }
 
-const id = args.includes("--reseed") ? await seed() : ((await eventId()) ?? (await seed()));
+/** A kept database takes the migrations added since it was seeded (only those; its data stay). */
+async function migrateKept(found: string): Promise<string> {
+  const { runMigrations } = await import("../db/migrate");
+  const { APP_ROLE } = await import("../db/roles");
+  const { testUrls } = await import("../tests/support/test-db");
+  await runMigrations(testUrls(url).owner, { appRole: APP_ROLE });
+  return found;
+}
+
+const kept = args.includes("--reseed") ? null : await eventId();
+const id = kept ? await migrateKept(kept) : await seed();
 const db = getDb();
 const [facts] = (
   await db.execute<{ sightings: number; approved: number; pairs: number; complete: number }>(sql`
@@ -156,6 +168,36 @@ for (let i = 0; i < runs; i++) {
   afterChange.push(a.ms);
   console.log(
     `run ${i + 1}: cold ${c.ms.toFixed(0)} ms, unchanged since last read ${w.ms.toFixed(0)} ms, after one approval ${a.ms.toFixed(0)} ms`,
+  );
+}
+// Where the first read's time goes: the aggregate queries, then lib/diversity (without the
+// bootstraps the worker adds later), each timed alone.
+{
+  const { loadResultsInput, pendingCounts, sessionZonesSql } = await import("../db/queries/results");
+  const { computeResults } = await import("../lib/results/compute");
+  const { forgetBootstraps } = await import("../lib/results/compare");
+  forgetResults(); // no worker from the runs above competes for the cores
+  const load: number[] = [];
+  const compute: number[] = [];
+  const zonesOfSessions: number[] = [];
+  const pendingQuery: number[] = [];
+  for (let i = 0; i < 3; i++) {
+    const z0 = performance.now();
+    await db.execute(sql`WITH sz AS (${sessionZonesSql(id)}) SELECT count(zone_id) FROM sz`);
+    zonesOfSessions.push(performance.now() - z0);
+    const p0 = performance.now();
+    await pendingCounts(id);
+    pendingQuery.push(performance.now() - p0);
+    const l0 = performance.now();
+    const input = await loadResultsInput(id);
+    load.push(performance.now() - l0);
+    forgetBootstraps(); // no replicates kept from the run before: each computation is a first one
+    const c0 = performance.now();
+    computeResults(input, { bands: false });
+    compute.push(performance.now() - c0);
+  }
+  console.log(
+    `first read, in parts (median of 3): aggregate queries ${median(load).toFixed(0)} ms (run in parallel; alone: the zone of each complete session ${median(zonesOfSessions).toFixed(0)} ms, pending counts ${median(pendingQuery).toFixed(0)} ms), computeResults without the deferred bootstraps ${median(compute).toFixed(0)} ms`,
   );
 }
 const g0 = performance.now();

@@ -71,10 +71,13 @@ export async function ZoneSimilarity({ similarity }: { similarity: Similarity | 
             (c) => `${n(c.jaccardAdjusted)}${range(c.jaccardInterval)} (${n(c.jaccard)})`,
           )}
           <p className="max-w-prose text-sm text-ink-soft">
-            {t(s.kind === "abundance" ? "similarity.intervalAbundance" : "similarity.intervalIncidence", {
-              replicates: s.replicates ?? 0,
-              seed: s.seed ?? 0,
-            })}
+            {/* replicates 0: the first read after a change, the intervals come from a worker thread. */}
+            {s.replicates === 0
+              ? t("similarity.intervalsComing")
+              : t(s.kind === "abundance" ? "similarity.intervalAbundance" : "similarity.intervalIncidence", {
+                  replicates: s.replicates ?? 0,
+                  seed: s.seed ?? 0,
+                })}
           </p>
           <table className="w-full text-left text-sm tabular-nums">
             <caption className="text-left font-semibold">{t("similarity.betaTitle")}</caption>

@@ -67,32 +67,40 @@ export async function taxaMeta(
  * the zone holding most of its sightings, whatever their review state (outside every zone
  * is one more place); ties go to the zone it was started in, then the lowest zone id; a
  * session without sightings stays in the zone it was started in. Columns: id, zone_id.
+ * The votes are read from result_session_zones (migration 0023), a few rows per session,
+ * not from the sightings.
  */
 export function sessionZonesSql(eventId: string, options: { completeOnly?: boolean } = {}) {
   const complete = options.completeOnly === false ? sql`TRUE` : sql`all_species_noted`;
   return sql`
     WITH cs AS (SELECT id, zone_id FROM count_sessions WHERE event_id = ${eventId} AND ${complete}),
     votes AS (
-      SELECT s.session_id, s.zone_id, count(*) AS n FROM sightings s JOIN cs ON cs.id = s.session_id
-      WHERE s.event_id = ${eventId} GROUP BY 1, 2
+      SELECT v.session_id, NULLIF(v.zone_key, ${NO_ZONE}::uuid) AS zone_id, v.sightings AS n, cs.zone_id AS started
+      FROM result_session_zones v JOIN cs ON cs.id = v.session_id
+      WHERE v.event_id = ${eventId} AND v.sightings > 0
     ),
+    -- cs is joined once: joined twice, the planner expected millions of rows and spent
+    -- longer compiling the query (JIT) than running it.
     best AS (
-      SELECT DISTINCT ON (v.session_id) v.session_id, v.zone_id FROM votes v JOIN cs ON cs.id = v.session_id
-      ORDER BY v.session_id, v.n DESC, (v.zone_id IS NOT DISTINCT FROM cs.zone_id) DESC, v.zone_id NULLS LAST
+      SELECT DISTINCT ON (session_id) session_id, zone_id FROM votes
+      ORDER BY session_id, n DESC, (zone_id IS NOT DISTINCT FROM started) DESC, zone_id NULLS LAST
     )
     SELECT cs.id, CASE WHEN b.session_id IS NULL THEN cs.zone_id ELSE b.zone_id END AS zone_id
     FROM cs LEFT JOIN best b ON b.session_id = cs.id`;
 }
 
-/** Sightings not in the results yet: pending review or returned, in all and in complete sessions. */
+/**
+ * Sightings not in the results yet: pending review or returned, in all and in complete
+ * sessions; read from result_pending (migration 0023), one row per session or volunteer.
+ */
 export async function pendingCounts(eventId: string, db: Tx = getDb()): Promise<Pending> {
   const r = await db.execute<Pending>(sql`
-    SELECT count(*) FILTER (WHERE s.review_state = 'pending')::int AS pending,
-           count(*) FILTER (WHERE s.review_state = 'returned')::int AS returned,
-           count(*) FILTER (WHERE s.review_state = 'pending' AND cs.all_species_noted)::int AS "pendingInCompleteSessions",
-           count(*) FILTER (WHERE s.review_state = 'returned' AND cs.all_species_noted)::int AS "returnedInCompleteSessions"
-    FROM sightings s LEFT JOIN count_sessions cs ON cs.id = s.session_id
-    WHERE s.event_id = ${eventId} AND s.review_state IN ('pending', 'returned')`);
+    SELECT coalesce(sum(p.pending), 0)::int AS pending,
+           coalesce(sum(p.returned), 0)::int AS returned,
+           coalesce(sum(p.pending) FILTER (WHERE cs.all_species_noted), 0)::int AS "pendingInCompleteSessions",
+           coalesce(sum(p.returned) FILTER (WHERE cs.all_species_noted), 0)::int AS "returnedInCompleteSessions"
+    FROM result_pending p LEFT JOIN count_sessions cs ON cs.id = p.session_key
+    WHERE p.event_id = ${eventId}`);
   return r.rows[0] ?? { pending: 0, returned: 0, pendingInCompleteSessions: 0, returnedInCompleteSessions: 0 };
 }
 
@@ -202,8 +210,9 @@ export async function liveFigures(eventId: string): Promise<LiveFigures> {
 
 /**
  * What the event's results depend on, in one cheap row: the aggregate counter raised by
- * the triggers, a hash of the count sessions (complete flag and zone), and hashes of the
- * zones and of the taxa in the results. Equal keys mean equal results.
+ * the triggers, a hash of the count sessions (complete flag and zone), the pending figures
+ * and a hash of the sessions' sightings by zone (their votes, migration 0023), and hashes
+ * of the zones and of the taxa in the results. Equal keys mean equal results.
  */
 export async function resultsKey(eventId: string): Promise<string> {
   // The same database the results are read from (db/client.ts getReadDb), so the key matches them.
@@ -213,8 +222,9 @@ export async function resultsKey(eventId: string): Promise<string> {
       (SELECT count(*) || ':' || coalesce(sum(hashtext(id::text || all_species_noted::text || coalesce(zone_id::text, ''))), 0)
          FROM count_sessions WHERE event_id = ${eventId}),
       (SELECT md5(string_agg(id::text || name || habitat::text, ',' ORDER BY id)) FROM zones WHERE event_id = ${eventId}),
-      (SELECT count(*) FILTER (WHERE review_state = 'pending') || ':' || count(*) FILTER (WHERE review_state = 'returned')
-         FROM sightings WHERE event_id = ${eventId} AND review_state IN ('pending', 'returned')),
+      (SELECT coalesce(sum(pending), 0) || ':' || coalesce(sum(returned), 0) FROM result_pending WHERE event_id = ${eventId}),
+      (SELECT count(*) || ':' || coalesce(sum(hashtext(session_id::text || zone_key::text || sightings::text)), 0)
+         FROM result_session_zones WHERE event_id = ${eventId}),
       (SELECT string_agg(taxon_group::text || unit::text, ',' ORDER BY taxon_group) FROM event_count_units WHERE event_id = ${eventId}),
       (SELECT md5(string_agg(t.id::text || t.scientific_name || t.rank::text || t.taxon_group::text || t.sensitivity::text
                    || coalesce((SELECT string_agg(locale || name, ',' ORDER BY locale) FROM taxon_names n WHERE n.taxon_id = t.id), ''), ',' ORDER BY t.id))

@@ -2,7 +2,7 @@
 // size, and to a common sample coverage (Chao & Jost 2012), each with a 95% interval.
 
 import { abundanceProfile, sampleCoverage } from "./abundance";
-import { curvePoint, type CurvePoint } from "./curves";
+import { coverageAt, curvePoint, type CurvePoint } from "./curves";
 import { checkSize, invalidOption } from "./errors";
 import { incidenceData } from "./incidence";
 import type { FrequencyProfile } from "./profile";
@@ -25,11 +25,6 @@ export type CompareInput =
       size?: number;
       coverage?: number;
     };
-
-/** Rarefied coverage at integer effort m ≤ N (Chao & Jost 2012), via the curve engine. */
-function coverageAt(p: FrequencyProfile, m: number): number {
-  return curvePoint(p, m).coverage;
-}
 
 /**
  * Effort at which the zone reaches coverage c: the integer m ≤ N whose rarefied coverage
@@ -68,7 +63,7 @@ export function compareZones(input: CompareInput): ZoneComparison {
   checkSize(size, "size");
   let coverage = input.coverage;
   if (coverage === undefined) {
-    coverage = nonEmpty.length ? Math.min(...nonEmpty.map(([, p]) => curvePoint(p, 2 * p.size).coverage)) : 0;
+    coverage = nonEmpty.length ? Math.min(...nonEmpty.map(([, p]) => coverageAt(p, 2 * p.size))) : 0;
   } else if (!(coverage > 0 && coverage < 1)) {
     throw invalidOption("coverage", `coverage must lie strictly between 0 and 1 (got ${coverage})`);
   }

@@ -4,7 +4,7 @@
 // 2012). Beyond the sample: the Chao1/Chao2-based predictor of Shen, Chao & Lin (2003)
 // with a delta-method variance (Colwell et al. 2012), and coverage (Chao & Jost 2012).
 
-import { lnChooseRatio } from "./combinatorics";
+import { lnChooseRatio, lnFactorialRatio } from "./combinatorics";
 import { Dual, deltaVariance } from "./dual";
 import { sampleCoverage } from "./abundance";
 import type { IncidenceData } from "./incidence";
@@ -282,6 +282,67 @@ export function curvePoint(
   }
   const e = extrapolate(p, size - N);
   return point(size, "extrapolated", e.richness, e.variance, e.coverage, null);
+}
+
+/**
+ * ln[N!/(N−k)!] of every class k of a profile (the half of lnChooseRatio(N, k, m) that does
+ * not depend on m when k ≤ m), kept per profile: a coverage search asks for the same
+ * classes at twenty or so efforts.
+ */
+const fallingLogs = new WeakMap<FrequencyProfile, Float64Array>();
+
+function fallingLogsOf(p: FrequencyProfile): Float64Array {
+  let out = fallingLogs.get(p);
+  if (!out) {
+    out = new Float64Array(p.values.length).fill(NaN);
+    fallingLogs.set(p, out);
+  }
+  return out;
+}
+
+/**
+ * Sample coverage at effort m, the same number as curvePoint(p, m).coverage (same terms,
+ * same order, each ln C(N−k, m)/C(N, m) formed exactly as lnChooseRatio forms it) without
+ * the richness, its variance and Chao1: searches for the size at a given coverage ask for
+ * it many times per bootstrap replicate.
+ */
+export function coverageAt(p: FrequencyProfile, m: number): number {
+  const N = p.size;
+  if (N === 0) return 0;
+  if (m > N) return extrapolate(p, m - N).coverage;
+  if (p.total <= 0) return 0;
+  if (m >= N) return sampleCoverage(p);
+  const falling = fallingLogsOf(p);
+  let fallingM = NaN; // ln[N!/(N−m)!], shared by the classes with k > m
+  let missed = 0;
+  for (let i = 0; i < p.values.length; i++) {
+    const k = p.values[i] as number;
+    // lnChooseRatio(N, k, m), term for term (combinatorics.ts).
+    let l: number;
+    if (k <= 0 || m <= 0) l = 0;
+    else if (N - k < m) l = -Infinity;
+    else {
+      const small = Math.min(k, m);
+      const large = Math.max(k, m);
+      if (small <= 8) {
+        l = 0;
+        for (let j = 0; j < small; j++) l += Math.log1p(-large / (N - j));
+      } else {
+        let right: number;
+        if (small === k) {
+          right = falling[i] as number;
+          if (Number.isNaN(right)) falling[i] = right = lnFactorialRatio(N, N - small);
+        } else {
+          if (Number.isNaN(fallingM)) fallingM = lnFactorialRatio(N, N - small);
+          right = fallingM;
+        }
+        l = lnFactorialRatio(N - large, N - large - small) - right;
+      }
+    }
+    if (l < LOG_CUTOFF) break; // absenceLogs stops here too: the classes after it add 0
+    missed += (p.freqs[i] as number) * k * Math.exp(l);
+  }
+  return Math.min(1, Math.max(0, 1 - (missed / p.total) * (N / (N - m))));
 }
 
 /**

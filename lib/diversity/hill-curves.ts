@@ -4,7 +4,7 @@
 // incidence data (size = sampling units), with seeded bootstrap bands (Chao et al. 2014).
 // Everything depends on the data only through the frequency counts f_k (Q_k).
 
-import { curvePoint } from "./curves";
+import { coverageAt } from "./curves";
 import { lnChooseRatio } from "./combinatorics";
 import { checkSize, invalidOption } from "./errors";
 import { chaoShannonEntropy, shannonEntropy, simpsonConcentration } from "./hill";
@@ -269,7 +269,7 @@ export function hillCurveFromProfile(p: FrequencyProfile, options: HillCurveOpti
 
   const cache = new Map<string, number>();
   const est = orders.map((q) => sizes.map((m) => (p.total > 0 ? hillAt(p, q, m, cache) : 0)));
-  const coverage = sizes.map((m) => Math.min(1, Math.max(0, curvePoint(p, m).coverage)));
+  const coverage = sizes.map((m) => Math.min(1, Math.max(0, coverageAt(p, m))));
   const observedByOrder = orders.map((q) => (p.total > 0 ? observedHill(p, q) : 0));
   const floorOf = (oi: number, si: number): number => {
     const m = sizes[si] as number;
@@ -309,7 +309,7 @@ export function hillCurveFromProfile(p: FrequencyProfile, options: HillCurveOpti
 /** Sample coverage at a real effort m (Chao & Jost 2012): rarefied below N, extrapolated above. */
 function coverageAtReal(p: FrequencyProfile, m: number): number {
   const N = p.size;
-  if (m <= N) return curvePoint(p, m).coverage;
+  if (m <= N) return coverageAt(p, m);
   return 1 - (p.f1 / p.total) * Math.pow(deficitRatio(p), m - N + 1);
 }
 
@@ -332,7 +332,7 @@ export function hillAtCoverageFromProfile(
   const N = p.size;
   const rows: HillCoverageRow[] = [];
   const cache = new Map<string, number>();
-  const observedCoverage = N > 0 && p.total > 0 ? curvePoint(p, N).coverage : 0;
+  const observedCoverage = N > 0 && p.total > 0 ? coverageAt(p, N) : 0;
   const maxCoverage = N > 0 && p.total > 0 ? coverageAtReal(p, 2 * N) : 0;
   options.levels.forEach((c, li) => {
     if (typeof c !== "number" || !(c > 0 && c <= 1))
@@ -353,11 +353,11 @@ export function hillAtCoverageFromProfile(
       let hi = N;
       while (hi - lo > 1) {
         const mid = Math.floor((lo + hi) / 2);
-        if (curvePoint(p, mid).coverage >= c) hi = mid;
+        if (coverageAt(p, mid) >= c) hi = mid;
         else lo = mid;
       }
-      const cLo = curvePoint(p, lo).coverage;
-      const cHi = curvePoint(p, hi).coverage;
+      const cLo = coverageAt(p, lo);
+      const cHi = coverageAt(p, hi);
       const w = cHi > cLo ? Math.min(1, Math.max(0, (c - cLo) / (cHi - cLo))) : 1;
       for (const q of orders) {
         const dLo = lo === 0 ? 0 : hillAt(p, q, lo, cache);

@@ -160,18 +160,40 @@ export function hillNumbers(p: FrequencyProfile, coverage: number, options: Boot
   const replicates = options.replicates ?? HILL_BOOTSTRAP_REPLICATES;
   let se1 = 0;
   let se2 = 0;
-  if (replicates >= 2 && n >= 2) {
-    const probs = bootstrapAssemblage(p, coverage);
-    const rng = new Rng(options.seed ?? HILL_BOOTSTRAP_SEED);
-    const b1: number[] = [];
-    const b2: number[] = [];
-    for (let b = 0; b < replicates; b++) {
-      const [d1, d2] = replicateHill(multinomial(rng, n, probs), n);
-      b1.push(d1);
-      if (Number.isFinite(d2)) b2.push(d2);
-    }
-    se1 = sampleSd(b1);
-    se2 = sampleSd(b2);
-  }
+  if (replicates >= 2 && n >= 2)
+    [se1, se2] = bootstrapSds(p, coverage, replicates, options.seed ?? HILL_BOOTSTRAP_SEED);
   return { q0, q1: bootInterval(obs1, est1, se1), q2: bootInterval(obs2, est2, se2) };
+}
+
+/**
+ * Bootstrap sds of q = 1 and q = 2, kept by everything they depend on (the frequency
+ * profile, the coverage, the replicates and the seed): a results page that reads again after
+ * one more approval redraws only the blocks that changed. Same inputs, same numbers.
+ */
+const keptSds = new Map<string, [number, number]>();
+const MAX_KEPT = 64;
+
+/** Forgets the kept bootstrap sds (a benchmark's cold figure). */
+export function forgetHillBootstraps(): void {
+  keptSds.clear();
+}
+
+function bootstrapSds(p: FrequencyProfile, coverage: number, replicates: number, seed: number): [number, number] {
+  const key = JSON.stringify([Array.from(p.values), Array.from(p.freqs), p.size, coverage, replicates, seed]);
+  const kept = keptSds.get(key);
+  if (kept) return [kept[0], kept[1]];
+  const n = p.size;
+  const probs = bootstrapAssemblage(p, coverage);
+  const rng = new Rng(seed);
+  const b1: number[] = [];
+  const b2: number[] = [];
+  for (let b = 0; b < replicates; b++) {
+    const [d1, d2] = replicateHill(multinomial(rng, n, probs), n);
+    b1.push(d1);
+    if (Number.isFinite(d2)) b2.push(d2);
+  }
+  const out: [number, number] = [sampleSd(b1), sampleSd(b2)];
+  keptSds.set(key, out);
+  if (keptSds.size > MAX_KEPT) keptSds.delete(keptSds.keys().next().value!);
+  return [out[0], out[1]];
 }

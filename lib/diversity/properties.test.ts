@@ -11,6 +11,8 @@ import {
   rarefaction,
   type Estimate,
 } from "./index";
+import { coverageAt, curvePoint } from "./curves";
+import { buildProfile } from "./profile";
 
 const countsArb = fc.array(fc.oneof(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 60 })), {
   minLength: 1,
@@ -160,6 +162,18 @@ describe("properties", () => {
         }
         const s = abundanceStats(counts, { replicates: 0 });
         expect(curve[curve.length - 1]?.richness ?? 0).toBeLessThanOrEqual(s.chao1Classic.estimate + 1e-9);
+      }),
+    );
+  });
+
+  it("coverageAt is curvePoint's coverage to the last bit, at every size up to twice the sample", () => {
+    fc.assert(
+      fc.property(countsArb, (counts) => {
+        const n = total(counts);
+        const p = buildProfile("abundance", counts, n);
+        for (let m = 0; m <= 2 * n; m++) expect(coverageAt(p, m)).toBe(curvePoint(p, m).coverage);
+        // Twice on one profile: the kept half of each log ratio gives the same numbers.
+        for (let m = 0; m <= n; m++) expect(coverageAt(p, m)).toBe(curvePoint(p, m).coverage);
       }),
     );
   });

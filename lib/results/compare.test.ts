@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { sizeForCoverage } from "@/lib/diversity/compare";
+import { abundanceStats } from "@/lib/diversity/index";
 import { computeResults, type ResultsTaxon } from "./compute";
-import { differenceAtCoverage, profileOf, sizeAtCoverage } from "./compare";
+import { bootstrapAtCoverage, differenceAtCoverage, forgetBootstraps, profileOf, sizeAtCoverage } from "./compare";
 
 describe("comparison at equal coverage", () => {
   it("finds the same size for a coverage as the engine's bisection", () => {
@@ -15,6 +16,28 @@ describe("comparison at equal coverage", () => {
       for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995])
         expect(sizeAtCoverage(p, c), `${c}`).toBe(sizeForCoverage(p, c));
     }
+  });
+
+  it("keeps drawn replicates: the same inputs give the same numbers whether drawn or kept, and a caller cannot change them", () => {
+    const s = { kind: "abundance" as const, counts: [50, 20, 10, 5, 3, 2, 1, 1, 1, 1, 1, 1] };
+    forgetBootstraps();
+    const first = bootstrapAtCoverage(s, 0.9, { replicates: 50, seed: 7 });
+    const kept = bootstrapAtCoverage(s, 0.9, { replicates: 50, seed: 7 });
+    expect(Array.from(kept)).toEqual(Array.from(first));
+    kept.fill(0);
+    forgetBootstraps();
+    expect(Array.from(bootstrapAtCoverage(s, 0.9, { replicates: 50, seed: 7 }))).toEqual(Array.from(first));
+    expect(Array.from(bootstrapAtCoverage(s, 0.9, { replicates: 50, seed: 8 }))).not.toEqual(Array.from(first));
+  });
+
+  it("keeps the engine's Hill q = 1, 2 bootstrap too: kept or drawn again, the same intervals", () => {
+    const counts = [50, 20, 10, 5, 3, 2, 1, 1, 1, 1, 1, 1];
+    forgetBootstraps();
+    const first = abundanceStats(counts).hill;
+    expect(abundanceStats(counts).hill).toEqual(first);
+    forgetBootstraps();
+    expect(abundanceStats(counts).hill).toEqual(first);
+    expect(abundanceStats(counts, { seed: 3 }).hill.q1.se).not.toBe(first.q1.se);
   });
 
   it("gives the same interval for the same seed and a real difference a sign", () => {

@@ -4,12 +4,12 @@
 // adjusted for the coverage deficit, plus the estimated undetected species), standardises
 // both to the same fixed coverage and takes the difference. Interval: observed difference
 // ± 1.96 × bootstrap sd. "More"/"fewer" only when that interval excludes 0.
-import { bootstrapAssemblage } from "@/lib/diversity/hill";
+import { bootstrapAssemblage, forgetHillBootstraps } from "@/lib/diversity/hill";
 import { buildProfile, type FrequencyProfile } from "@/lib/diversity/profile";
 import { Rng, binomial, multinomial } from "@/lib/diversity/random";
 import { sampleCoverage } from "@/lib/diversity/abundance";
 import { sizeForCoverage } from "@/lib/diversity/compare";
-import { curvePoint } from "@/lib/diversity/curves";
+import { coverageAt, curvePoint } from "@/lib/diversity/curves";
 import { undetectedChao } from "@/lib/diversity/richness";
 
 export type Sample =
@@ -39,7 +39,7 @@ export function sizeAtCoverage(p: FrequencyProfile, c: number): number {
   if (N === 0) return 0;
   const full = sampleCoverage(p);
   if (c > full) return sizeForCoverage(p, c);
-  const cov = (m: number) => curvePoint(p, m).coverage;
+  const cov = (m: number) => coverageAt(p, m);
   let lo = 0;
   let hi = N;
   let cLo = 0;
@@ -106,8 +106,43 @@ function redraw(p: FrequencyProfile, rng: Rng, assemblage: Float64Array): Freque
   return buildProfile("incidence", y, p.size);
 }
 
+/**
+ * Replicates already drawn in this process, by everything they depend on (the sample, the
+ * coverage, the number of replicates and the seed): after one more approval only the zone
+ * it touched is redrawn. The same inputs give the same numbers, so a hit changes nothing.
+ */
+const drawn = new Map<string, Float64Array>();
+const MAX_DRAWN = 64;
+
+/** Forgets the kept replicates, these and the engine's Hill q = 1, 2 ones (the benchmark's cold figure). */
+export function forgetBootstraps(): void {
+  drawn.clear();
+  forgetHillBootstraps();
+}
+
 /** Richness at coverage c of `replicates` redraws of the sample's estimated assemblage (fixed seed). */
 export function bootstrapAtCoverage(s: Sample, c: number, options: { replicates: number; seed: number }): Float64Array {
+  const key = JSON.stringify([
+    s.kind,
+    s.kind === "abundance" ? s.counts : s.frequencies,
+    s.kind === "abundance" ? 0 : s.units,
+    c,
+    options.replicates,
+    options.seed,
+  ]);
+  const hit = drawn.get(key);
+  if (hit) {
+    drawn.delete(key);
+    drawn.set(key, hit);
+    return hit.slice();
+  }
+  const out = drawReplicates(s, c, options);
+  drawn.set(key, out.slice());
+  if (drawn.size > MAX_DRAWN) drawn.delete(drawn.keys().next().value!);
+  return out;
+}
+
+function drawReplicates(s: Sample, c: number, options: { replicates: number; seed: number }): Float64Array {
   const p = profileOf(s);
   const assemblage = p.kind === "abundance" ? bootstrapAssemblage(p, sampleCoverage(p)) : incidenceAssemblage(p);
   const rng = new Rng(options.seed);

@@ -128,6 +128,7 @@ export type Similarity = {
   /** cells[i][j]: zone i against zone j (symmetric). */
   cells: SimilarityCell[][];
   beta: HillBeta[];
+  /** Bootstrap replicates of the intervals; 0: not yet computed (the first read after a change, ComputeOptions.bands). */
   replicates: number;
   seed: number;
 };
@@ -193,9 +194,10 @@ type Prepared = {
 
 export type ComputeOptions = {
   /**
-   * Bootstrap bands of the Hill curves and profile (default true). The results page's first
-   * read after a change may skip them (server/results/current.ts) and fill them in later;
-   * a report always has them.
+   * Bootstrap bands of the Hill curves and profile, and the bootstrap intervals of the zone ×
+   * zone similarity table (default true). The results page's first read after a change skips
+   * them (server/results/current.ts) and fills them in later from a worker thread; a report
+   * always has them. The comparison's bootstrap is never skipped: its verdicts need it.
    */
   bands?: boolean;
 };
@@ -257,9 +259,25 @@ function block(
     const unit = taxa[i]!.countUnit ?? "individuals";
     if (unit !== "individuals") units.add(unit);
   }
-  const lists = sessionTaxa.map((list) =>
-    [...new Set(list.map((i) => ranks.unitOf[i]!).filter((u) => u >= 0))].sort((a, b) => a - b),
-  );
+  // Each session's distinct counted units, ascending: a stamp per unit instead of a Set per
+  // session, and an insertion sort (a session lists a few dozen taxa at most).
+  const stamp = new Int32Array(ranks.units).fill(-1);
+  const lists = sessionTaxa.map((list, s) => {
+    const out: number[] = [];
+    for (const i of list) {
+      const u = ranks.unitOf[i]!;
+      if (u < 0 || stamp[u] === s) continue;
+      stamp[u] = s;
+      let j = out.length;
+      out.push(u);
+      while (j > 0 && out[j - 1]! > u) {
+        out[j] = out[j - 1]!;
+        j--;
+      }
+      out[j] = u;
+    }
+    return out;
+  });
   const frequencies = new Array<number>(ranks.units).fill(0);
   for (const l of lists) for (const u of l) frequencies[u]!++;
   const T = lists.length;
@@ -397,6 +415,7 @@ function similarity(
   sessions: ResultsInput["sessions"],
   unitOf: ArrayLike<number>,
   width: number,
+  withIntervals: boolean,
 ): Similarity | null {
   const aligned = (counts: readonly number[]) => {
     const out = new Array<number>(width).fill(0);
@@ -453,7 +472,7 @@ function similarity(
   };
   const cell = (a: Zone, b: Zone, seed: number | null): SimilarityCell => {
     const s = index(a, b);
-    const iv = seed === null ? null : intervals(a, b, seed);
+    const iv = seed === null || !withIntervals ? null : intervals(a, b, seed);
     return {
       shared: s.shared,
       sorensen: s.sorensen,
@@ -481,7 +500,7 @@ function similarity(
         q,
       ),
     ),
-    replicates: SIMILARITY_BOOTSTRAP.replicates,
+    replicates: withIntervals ? SIMILARITY_BOOTSTRAP.replicates : 0,
     seed: SIMILARITY_BOOTSTRAP.seed,
   };
 }
@@ -598,7 +617,7 @@ export function computeResults(input: ResultsInput, options: ComputeOptions = {}
   const comparison = input.zones.length >= 2 ? compare(kind, input.zones, prepared) : null;
   const between =
     input.zones.length >= 2
-      ? similarity(kind, input.zones, perZone, input.sessions, event.unitOf, event.block.observed)
+      ? similarity(kind, input.zones, perZone, input.sessions, event.unitOf, event.block.observed, bands)
       : null;
 
   const species: SpeciesRow[] = taxa

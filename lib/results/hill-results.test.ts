@@ -144,6 +144,29 @@ describe("Hill curves, profile and zone similarity in the results", () => {
     expect(JSON.stringify(computeResults(input()))).toBe(JSON.stringify(r));
   });
 
+  it("without bands leaves the similarity intervals for later and keeps every other number, the comparison's verdicts included", () => {
+    const quick = computeResults(input(), { bands: false });
+    const s = quick.similarity!;
+    expect(s.replicates).toBe(0);
+    expect(s.cells.flat().every((c) => c.sorensenInterval === null && c.jaccardInterval === null)).toBe(true);
+    const strip = (x: typeof r) => ({
+      ...x,
+      rules: null,
+      event: { ...x.event, hill: null },
+      zones: x.zones.map((z) => ({ ...z, hill: null })),
+      similarity: {
+        ...x.similarity!,
+        replicates: 0,
+        cells: x.similarity!.cells.map((row) =>
+          row.map((c) => ({ ...c, sorensenInterval: null, jaccardInterval: null })),
+        ),
+      },
+    });
+    expect(JSON.stringify(strip(quick))).toBe(JSON.stringify(strip(r)));
+    expect(quick.comparison!.sentences.length).toBeGreaterThan(0);
+    expect(quick.comparison!.replicates).toBe(r.comparison!.replicates);
+  });
+
   it("spaces the sizes from 1 to twice the sample and includes the sample", () => {
     expect(hillSizes(0)).toEqual([]);
     const s = hillSizes(1000);

@@ -2,6 +2,7 @@
 // Results as the results page (one Chao1 everywhere: the Chao-group form, abundance
 // `chao1Classic`; Chao2 when the event's counts are not of individuals).
 import type { Block, Reason, Results } from "./compute";
+import type { EarlierEventRef, EventComparison } from "./compare-events";
 
 export type Richness = { estimator: "chao1" | "chao2"; estimate: number; lower: number; upper: number };
 
@@ -73,3 +74,11 @@ export function completeness(results: Results) {
 }
 
 export type LiveCompleteness = ReturnType<typeof completeness>;
+
+/**
+ * The running event beside the newest earlier event of its site, by the results page's rule
+ * (lib/results/compare-events.ts: equal coverage, "more"/"fewer" only when the bootstrap
+ * interval of the difference excludes 0), with when it was computed; null without an
+ * earlier event.
+ */
+export type LiveBeside = { earlier: EarlierEventRef; comparison: EventComparison; at: string } | null;

@@ -3,20 +3,23 @@ import path from "node:path";
 import { Worker } from "node:worker_threads";
 import { loadResultsInput, resultsKey } from "@/db/queries/results";
 import { computeResults, type Results, type ResultsInput } from "@/lib/results/compute";
+import { forgetBootstraps } from "@/lib/results/compare";
 
 // The event's current results, computed once per change and shared by every reader in
 // this process (the organiser, coordinators polling, the results page). The key comes
 // from the database (lib db/queries/results.ts resultsKey), so a change made through
 // any instance is seen at once; each instance computes at most once per change.
 //
-// Speed: the first read after a change computes everything except the Hill curves'
-// bootstrap bands (rules.hill.bands false, the page says they are coming); the bands are
-// then computed in a worker thread and the entry replaced when they arrive, if nothing
-// changed meanwhile. Reports never take this path: publishing computes the bands at once.
+// Speed: the first read after a change computes everything except the bootstraps that
+// only draw intervals (the Hill curves' bands and the zone × zone table's intervals;
+// rules.hill.bands false, the page says they are coming); those are then computed in a
+// worker thread and the entry replaced when they arrive, if nothing changed meanwhile. The
+// comparison's bootstrap stays on the first read: its verdicts need it. A change ends the
+// worker of the one before (one worker per event). Reports never take this path:
+// publishing computes everything at once.
 type Entry = { key: string; results: Results; json: string };
 const cache = new Map<string, Entry>();
 const inflight = new Map<string, Promise<Entry>>();
-const banding = new Set<string>();
 const MAX_EVENTS = 20;
 
 function store(eventId: string, entry: Entry): void {
@@ -25,13 +28,16 @@ function store(eventId: string, entry: Entry): void {
   if (cache.size > MAX_EVENTS) cache.delete(cache.keys().next().value!);
 }
 
-/** The full results in a worker thread (TypeScript through tsx, present wherever the app runs). */
-function computeInWorker(input: ResultsInput): Promise<string> {
-  return new Promise((resolve, reject) => {
-    const worker = new Worker(
-      `require("tsx/cjs/api").register(); require(${JSON.stringify(path.join(process.cwd(), "lib/results/bands-worker.ts"))});`,
-      { eval: true },
-    );
+/**
+ * The full results in a worker thread (TypeScript through tsx, present wherever the app runs).
+ * `cancel` ends the thread: its answer would be for data that has changed since.
+ */
+function computeInWorker(input: ResultsInput): { result: Promise<string>; cancel: () => void } {
+  const worker = new Worker(
+    `require("tsx/cjs/api").register(); require(${JSON.stringify(path.join(process.cwd(), "lib/results/bands-worker.ts"))});`,
+    { eval: true },
+  );
+  const result = new Promise<string>((resolve, reject) => {
     worker.once("message", (json: string) => {
       resolve(json);
       void worker.terminate();
@@ -40,19 +46,28 @@ function computeInWorker(input: ResultsInput): Promise<string> {
     worker.once("exit", (code) => reject(new Error(`results worker exited (${code})`)));
     worker.postMessage(input);
   });
+  return { result, cancel: () => void worker.terminate() };
 }
 
+/** At most one worker per event: a newer change ends the worker of an older one. */
+const workers = new Map<string, { key: string; cancel: () => void }>();
+
 function addBands(eventId: string, key: string, input: ResultsInput): void {
-  const id = `${eventId}|${key}`;
-  if (banding.has(id)) return;
-  banding.add(id);
-  computeInWorker(input)
-    .catch(() => JSON.stringify(computeResults(input)))
+  const running = workers.get(eventId);
+  if (running?.key === key) return;
+  running?.cancel();
+  const job = computeInWorker(input);
+  const mine = { key, cancel: job.cancel };
+  workers.set(eventId, mine);
+  job.result
+    .catch(() => (workers.get(eventId) === mine ? JSON.stringify(computeResults(input)) : null))
     .then((json) => {
-      if (cache.get(eventId)?.key === key) store(eventId, { key, results: JSON.parse(json) as Results, json });
+      if (json && cache.get(eventId)?.key === key) store(eventId, { key, results: JSON.parse(json) as Results, json });
     })
     .catch(() => undefined)
-    .finally(() => banding.delete(id));
+    .finally(() => {
+      if (workers.get(eventId) === mine) workers.delete(eventId);
+    });
 }
 
 export async function currentResults(eventId: string, options: { bands?: "later" | "now" } = {}): Promise<Entry> {
@@ -63,6 +78,12 @@ export async function currentResults(eventId: string, options: { bands?: "later"
   let pending = inflight.get(flightKey);
   if (!pending) {
     pending = (async () => {
+      // The worker of an older change would only compete for the cores: end it now.
+      const stale = workers.get(eventId);
+      if (stale && stale.key !== key) {
+        stale.cancel();
+        workers.delete(eventId);
+      }
       const input = await loadResultsInput(eventId);
       const now = options.bands === "now";
       const results = computeResults(input, { bands: now });
@@ -76,7 +97,10 @@ export async function currentResults(eventId: string, options: { bands?: "later"
   return pending;
 }
 
-/** For the benchmark's cold figure: forget every cached result. */
+/** For the benchmark's cold figure: forget every cached result and kept replicate, and end every worker, as after a restart. */
 export function forgetResults(): void {
   cache.clear();
+  forgetBootstraps();
+  for (const w of workers.values()) w.cancel();
+  workers.clear();
 }

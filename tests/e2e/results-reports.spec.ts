@@ -201,6 +201,20 @@ test("the live board shows the backlog, completeness and where to look next, pol
   await expect(board.getByRole("region", { name: "Completeness so far" })).toContainText(
     "Completeness is the share of species found",
   );
+  // Beside last year's count of the reserve, by the results page's rule and sentence.
+  const beside = board.getByRole("region", { name: "Compared with an earlier event of this site" });
+  await expect(beside).toContainText(/Standard: equal coverage of [\d.]+%/);
+  await expect(beside.getByRole("listitem").filter({ hasText: "Midsummer Count 2025, Harrowmere Vale" })).toContainText(
+    /about [\d.,]+ species at that coverage \(95% interval [\d.,]+–[\d.,]+\)/,
+  );
+  await expect(beside.getByTestId("live-beside-sentence")).toContainText(
+    /At equal coverage \([\d.]+%\), (Harrowmere Vale Midsummer Count found (more|fewer) species than Midsummer Count 2025, Harrowmere Vale|no clear difference in species between .+ includes 0)/,
+  );
+  await expect(beside).toContainText("recomputed at most once a minute");
+  // Pending and returned records, also those in complete sessions, are said to be left out.
+  await expect(board.getByTestId("live-pending")).toContainText(
+    /\d+ sightings are still pending review and \d+ were returned to their recorder \(\d+ and \d+ of them in complete count sessions\)/,
+  );
   // Zones with too few records head "where to look next".
   await expect(page.getByTestId("where-next").getByRole("listitem").first()).toContainText("too few records");
   await expect(page.getByTestId("where-next").getByRole("listitem")).toHaveCount(4);

@@ -9,7 +9,7 @@ import { publishReport } from "@/server/results/publish";
 import { seedDemo } from "@/db/seed/demo";
 import { DEMO_EVENT, EARLIER_EVENT } from "@/db/seed/demo-scenario";
 import * as s from "@/db/schema";
-import { comparisonWithEarlier } from "@/server/results/compare-events";
+import { comparisonWithEarlier, liveBesideEarlier } from "@/server/results/compare-events";
 import { db, makeFixture, polygonSql, sightingValues } from "./helpers";
 
 const square = (x: number, y: number, size: number): [number, number][] => [
@@ -105,6 +105,65 @@ describe("between events of one site", () => {
     );
     expect(again.chosen?.id).toBe(last.id);
     expect(again.comparison).toEqual(c);
+  });
+
+  it("the live board puts the running event beside last year's by the same rule, at most a minute old", async () => {
+    const f = await makeFixture("site-live");
+    expect(await liveBesideEarlier(f.event.id)).toBeNull(); // no earlier event of the site yet
+    const last = await otherEvent(f, "site-live-2025", {});
+    const taxa = await db()
+      .insert(s.taxa)
+      .values(Array.from({ length: 30 }, (_, i) => ({ scientificName: `Vivax s${i}`, taxonGroup: "birds" as const })))
+      .returning();
+    // This year 25 species, 3 to 7 individuals each; last year 10 of them. Invented counts.
+    await db()
+      .insert(s.sightings)
+      .values([
+        ...taxa
+          .slice(0, 25)
+          .map((t, i) => sightingValues(f, { taxonId: t.id, count: 3 + (i % 5), reviewState: "approved" })),
+        ...taxa.slice(0, 10).map((t, i) =>
+          sightingValues(f, {
+            eventId: last.id,
+            zoneId: null,
+            taxonId: t.id,
+            count: 3 + (i % 5),
+            reviewState: "approved",
+            observedAt: new Date("2025-06-21T09:00:00Z"),
+          }),
+        ),
+      ]);
+    const live = (await liveBesideEarlier(f.event.id))!;
+    expect(live.earlier.id).toBe(last.id);
+    // The results page's numbers and verdict.
+    const page = await comparisonWithEarlier({ id: f.event.id, name: f.event.name, startsAt: f.event.startsAt });
+    expect(live.comparison).toEqual(page.comparison);
+    expect(live.comparison.events.map((e) => e.observed)).toEqual([25, 10]);
+    expect(live.comparison.sentence).toMatchObject({ a: f.event.id, b: last.id, verdict: "more" });
+    expect(live.comparison.sentence!.lower).toBeGreaterThan(0);
+    // A record comes in: the board keeps the comparison of a moment ago (with its time) for up
+    // to a minute; the results page computes it again at once.
+    await db()
+      .insert(s.sightings)
+      .values(sightingValues(f, { taxonId: taxa[29]!.id, count: 4, reviewState: "approved" }));
+    const soon = (await liveBesideEarlier(f.event.id))!;
+    expect(soon.at).toBe(live.at);
+    expect(soon.comparison.events[0]!.observed).toBe(25);
+    const fresh = await comparisonWithEarlier({ id: f.event.id, name: f.event.name, startsAt: f.event.startsAt });
+    expect(fresh.comparison!.events[0]!.observed).toBe(26);
+    // Once the kept comparison is too old, the board still gets it at once and a new one is
+    // computed behind it.
+    await db()
+      .insert(s.sightings)
+      .values(sightingValues(f, { taxonId: taxa[28]!.id, count: 2, reviewState: "approved" }));
+    const ev = { id: f.event.id, name: f.event.name, startsAt: f.event.startsAt };
+    const old = await comparisonWithEarlier(ev, undefined, { staleMs: 0 });
+    expect(old.comparison!.events[0]!.observed).toBe(26);
+    await expect
+      .poll(
+        async () => (await comparisonWithEarlier(ev, undefined, { staleMs: 60_000 })).comparison!.events[0]!.observed,
+      )
+      .toBe(27);
   });
 
   it("the demo's midsummer count finds last year's count of the reserve and compares them on complete sessions", async () => {

@@ -184,6 +184,18 @@ async function expectUpgradedData(c: Client): Promise<void> {
   expect(
     (await c.query("SELECT count(*)::int AS n FROM result_stamps WHERE event_id = $1", [ids.event])).rows[0].n,
   ).toBe(1);
+  // 0023 filled the session's sightings by zone (every state) and the pending figure by (session, volunteer).
+  expect(
+    (await c.query("SELECT session_id, zone_key, sightings FROM result_session_zones WHERE event_id = $1", [ids.event]))
+      .rows,
+  ).toEqual([{ session_id: ids.session, zone_key: ids.zone, sightings: 3 }]);
+  expect(
+    (
+      await c.query("SELECT session_key, user_id, pending, returned FROM result_pending WHERE event_id = $1", [
+        ids.event,
+      ])
+    ).rows,
+  ).toEqual([{ session_key: ids.session, user_id: ids.user, pending: 1, returned: 0 }]);
 
   // The aggregate triggers work on the upgraded database: approving the pending sighting counts it.
   await c.query("UPDATE sightings SET review_state = 'approved', version = version + 1 WHERE id = $1", [ids.s4]);

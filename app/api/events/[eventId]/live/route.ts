@@ -4,6 +4,7 @@ import { handle } from "@/lib/http/errors";
 import { parseParams, pathId } from "@/lib/http/params";
 import { completeness } from "@/lib/results/live";
 import { currentResults } from "@/server/results/current";
+import { liveBesideEarlier } from "@/server/results/compare-events";
 
 export const dynamic = "force-dynamic";
 
@@ -15,9 +16,14 @@ export const GET = handle(async (_request, { params }: Ctx) => {
   await requireEventRole(eventId, "coordinator");
   // The same Results as the results page (cached per change), so the board's Chao1 and
   // coverage are the results table's numbers.
-  const [figures, { results }] = await Promise.all([liveFigures(eventId), currentResults(eventId)]);
+  // Beside the earlier event of the site, by the results page's rule (at most a minute old).
+  const [figures, { results }, beside] = await Promise.all([
+    liveFigures(eventId),
+    currentResults(eventId),
+    liveBesideEarlier(eventId),
+  ]);
   return Response.json(
-    { ...figures, completeness: completeness(results), at: new Date().toISOString() },
+    { ...figures, completeness: completeness(results), beside, at: new Date().toISOString() },
     { headers: { "Cache-Control": "no-store" } },
   );
 });

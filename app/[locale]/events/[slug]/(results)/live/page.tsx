@@ -11,7 +11,7 @@ export const dynamic = "force-dynamic";
 
 type Props = { params: Promise<{ locale: Locale; slug: string }> };
 
-type Plain = Exclude<keyof LiveLabels, `reason.${string}`>;
+type Plain = Exclude<keyof LiveLabels, `reason.${string}` | `verdict.${string}` | `kind.${string}` | "pendingBody">;
 const KEYS: Plain[] = [
   "perHour",
   "volunteers",
@@ -37,7 +37,12 @@ const KEYS: Plain[] = [
   "coverageIncidence",
   "tooFew",
   "eventTooFew",
-  "pendingLine",
+  "besideTitle",
+  "besideNone",
+  "besideStandard",
+  "besideRow",
+  "besideTooFew",
+  "besideAsOf",
 ];
 
 export default async function LivePage({ params }: Props) {
@@ -59,7 +64,16 @@ export default async function LivePage({ params }: Props) {
     "reason.sessions": t("tooFew.reasons.sessions", { min: SUFFICIENCY.minCompleteSessions }),
     "reason.incidenceCoverage": t("tooFew.reasons.incidenceCoverage", { min: SUFFICIENCY.minCoverage }),
   };
-  const labels = { ...Object.fromEntries(KEYS.map((k) => [k, raw(k)])), ...reasons } as LiveLabels;
+  // The results page's own sentences: the verdict rule, the kind of data compared, pending records.
+  const shared = {
+    "verdict.more": t.raw("betweenEvents.sentence.more") as string,
+    "verdict.fewer": t.raw("betweenEvents.sentence.fewer") as string,
+    "verdict.noClearDifference": t.raw("betweenEvents.sentence.noClearDifference") as string,
+    "kind.abundance": t("comparison.kindAbundance"),
+    "kind.incidence": t("comparison.kindIncidence"),
+    pendingBody: t.raw("pending.body") as string,
+  };
+  const labels = { ...Object.fromEntries(KEYS.map((k) => [k, raw(k)])), ...reasons, ...shared } as LiveLabels;
   return (
     <article className="space-y-6">
       <h1 className="text-3xl font-bold text-reed-900">{t("live.title", { event: event.name })}</h1>

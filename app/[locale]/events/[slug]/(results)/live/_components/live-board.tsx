@@ -5,10 +5,11 @@ import { ReviewStateMark } from "@/components/state-mark";
 import type { LiveFigures } from "@/db/queries/results";
 import { fetcher } from "@/lib/http/client";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import type { BlockLead, LiveCompleteness } from "@/lib/results/live";
+import type { BlockLead, LiveBeside, LiveCompleteness } from "@/lib/results/live";
+import type { Reason } from "@/lib/results/compute";
 
 // The live handler's answer (app/api/events/[eventId]/live), dates as JSON strings.
-type Live = LiveFigures & { completeness: LiveCompleteness; at: string };
+type Live = LiveFigures & { completeness: LiveCompleteness; beside: LiveBeside; at: string };
 
 export type LiveLabels = Record<
   | "perHour"
@@ -35,7 +36,18 @@ export type LiveLabels = Record<
   | "coverageIncidence"
   | "tooFew"
   | "eventTooFew"
-  | "pendingLine"
+  | "pendingBody"
+  | "besideTitle"
+  | "besideNone"
+  | "besideStandard"
+  | "besideRow"
+  | "besideTooFew"
+  | "besideAsOf"
+  | "verdict.more"
+  | "verdict.fewer"
+  | "verdict.noClearDifference"
+  | "kind.abundance"
+  | "kind.incidence"
   | "reason.countUnits"
   | "reason.individuals"
   | "reason.coverage"
@@ -71,7 +83,10 @@ export function LiveBoard({
   const c = data.completeness;
   const ev = c.event;
   // Reason texts come with their thresholds filled on the server; count units named there too.
-  const why = (b: BlockLead) => b.reasons.map((r) => labels[`reason.${r}`]).join("; ");
+  const whyOf = (reasons: Reason[]) => reasons.map((r) => labels[`reason.${r}`]).join("; ");
+  const why = (b: BlockLead) => whyOf(b.reasons);
+  const monthOf = (iso: string) =>
+    new Intl.DateTimeFormat(locale, { year: "numeric", month: "long", timeZone }).format(new Date(iso));
   const coverageLabel = (b: BlockLead) =>
     b.coverageKind === "incidence" ? labels.coverageIncidence : labels.coverageSample;
   return (
@@ -127,12 +142,27 @@ export function LiveBoard({
           ) : null}
           <p className="text-sm text-ink-soft">{labels.completenessNote}</p>
           {c.pending && c.pending.pending + c.pending.returned > 0 ? (
-            <p className="text-sm">
-              {fill(labels.pendingLine, { pending: c.pending.pending, returned: c.pending.returned })}
+            <p className="text-sm" data-testid="live-pending">
+              {fill(labels.pendingBody, {
+                pending: num(c.pending.pending),
+                returned: num(c.pending.returned),
+                pendingComplete: num(c.pending.pendingInCompleteSessions),
+                returnedComplete: num(c.pending.returnedInCompleteSessions),
+              })}
             </p>
           ) : null}
         </section>
       </div>
+      <BesideEarlier
+        data={data}
+        labels={labels}
+        pct={pct}
+        num={num}
+        monthOf={monthOf}
+        whyOf={whyOf}
+        timeZone={timeZone}
+        locale={locale}
+      />
       <section className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.perHour}>
         <h2 className="font-bold">{labels.perHour}</h2>
         <div className="h-56 w-full" dir="ltr">
@@ -175,5 +205,94 @@ export function LiveBoard({
         </ol>
       </section>
     </div>
+  );
+}
+
+/**
+ * The running event beside the newest earlier event of its site: richness at equal coverage
+ * (the standard named with its value) and the results page's verdict sentence ("more" or
+ * "fewer" only when the bootstrap interval of the difference excludes 0).
+ */
+function BesideEarlier({
+  data,
+  labels,
+  pct,
+  num,
+  monthOf,
+  whyOf,
+  timeZone,
+  locale,
+}: {
+  data: Live;
+  labels: LiveLabels;
+  pct: (v: number) => string;
+  num: (v: number) => string;
+  monthOf: (iso: string) => string;
+  whyOf: (reasons: Reason[]) => string;
+  timeZone: string;
+  locale: string;
+}) {
+  const b = data.beside;
+  const c = b?.comparison;
+  const [now, then] = c?.events ?? [];
+  return (
+    <section
+      className="space-y-1 rounded-lg border border-reed-200 bg-white/70 p-3"
+      aria-label={labels.besideTitle}
+      data-testid="live-beside"
+    >
+      <h2 className="font-bold">{labels.besideTitle}</h2>
+      {!b || !c || !now || !then ? (
+        <p>{labels.besideNone}</p>
+      ) : (
+        <>
+          <p className="text-sm">
+            {labels[c.kind === "abundance" ? "kind.abundance" : "kind.incidence"]}{" "}
+            {c.coverage > 0 ? fill(labels.besideStandard, { coverage: pct(c.coverage) }) : null}
+          </p>
+          <ul className="list-disc ps-5">
+            {c.events.map((e) => {
+              const left = c.leftOut.find((x) => x.id === e.id);
+              return (
+                <li key={e.id}>
+                  {e.atCoverage && !left
+                    ? fill(labels.besideRow, {
+                        event: e.name,
+                        date: monthOf(e.startsAt),
+                        richness: num(e.atCoverage.richness),
+                        lower: num(e.atCoverage.lower),
+                        upper: num(e.atCoverage.upper),
+                        observed: num(e.observed),
+                      })
+                    : fill(labels.besideTooFew, {
+                        event: e.name,
+                        date: monthOf(e.startsAt),
+                        reasons: whyOf(left?.reasons ?? []),
+                      })}
+                </li>
+              );
+            })}
+          </ul>
+          {c.sentence ? (
+            <p data-testid="live-beside-sentence">
+              {fill(labels[`verdict.${c.sentence.verdict}`], {
+                a: now.name,
+                b: then.name,
+                coverage: pct(c.coverage),
+                difference: num(Math.abs(c.sentence.difference)),
+                lower: num(c.sentence.lower),
+                upper: num(c.sentence.upper),
+                replicates: c.replicates,
+              })}
+            </p>
+          ) : null}
+          <p className="text-sm text-ink-soft">
+            {fill(labels.besideAsOf, {
+              time: new Intl.DateTimeFormat(locale, { timeStyle: "short", timeZone }).format(new Date(b.at)),
+            })}
+          </p>
+        </>
+      )}
+    </section>
   );
 }
