@@ -16,9 +16,21 @@ const globalForDb = globalThis as unknown as {
   ecotoneReplicaDb?: Db;
 };
 
+/**
+ * PostgreSQL's JIT compiles a plan when its estimated cost is high; on our aggregates it spent
+ * 40–160 ms compiling for queries that run in tens of milliseconds (results' first read,
+ * publishing; scripts/bench-notes.md), and no query of the app runs long enough to repay it.
+ * Turning it off per connection is common practice for short, many-user queries.
+ */
+const connectionOptions = "-c jit=off";
+
 export function getDb(): Db {
   if (!globalForDb.ecotoneDb) {
-    const pool = new Pool({ connectionString: env().DATABASE_URL, max: env().DATABASE_POOL_MAX });
+    const pool = new Pool({
+      connectionString: env().DATABASE_URL,
+      max: env().DATABASE_POOL_MAX,
+      options: connectionOptions,
+    });
     pool.on("error", (err) => console.error("[db] idle client error", err.message));
     globalForDb.ecotonePool = pool;
     globalForDb.ecotoneDb = drizzle(pool, { schema });
@@ -36,7 +48,7 @@ export function getReadDb(): Db {
   const url = env().DATABASE_REPLICA_URL;
   if (!url) return getDb();
   if (!globalForDb.ecotoneReplicaDb) {
-    const pool = new Pool({ connectionString: url, max: env().DATABASE_POOL_MAX });
+    const pool = new Pool({ connectionString: url, max: env().DATABASE_POOL_MAX, options: connectionOptions });
     pool.on("error", (err) => console.error("[db] idle replica client error", err.message));
     globalForDb.ecotoneReplicaPool = pool;
     globalForDb.ecotoneReplicaDb = drizzle(pool, { schema });

@@ -43,6 +43,9 @@ describe("a streaming replica for reads that may lag", () => {
       (await d.execute<{ r: boolean }>(sql`SELECT pg_is_in_recovery() AS r`)).rows[0]!.r;
     expect(await inRecovery(getReadDb())).toBe(true);
     expect(await inRecovery(getDb())).toBe(false);
+    // Both pools open their connections with JIT off (db/client.ts says why).
+    for (const d of [getDb(), getReadDb()])
+      expect((await d.execute<{ jit: string }>(sql`SELECT current_setting('jit') AS jit`)).rows[0]!.jit).toBe("off");
 
     const f = await makeFixture("replica-reads");
     await db()
