@@ -4,6 +4,7 @@ import dynamic from "next/dynamic";
 import { useTranslations } from "next-intl";
 import { useState } from "react";
 import { ZoneMap } from "@/components/zone-map";
+import { WhenShown } from "@/components/ui/when-shown";
 import { useMapSettings } from "./map-settings";
 import type { RealMapProps } from "./types";
 
@@ -21,7 +22,7 @@ function MapLoading({ className }: { className?: string }) {
   );
 }
 
-// Leaflet and its CSS are fetched only when a map is on screen (never on the server).
+// Leaflet and its CSS are fetched only when a map comes near the screen (never on the server).
 const LeafletMap = dynamic(() => import("./leaflet-map"), { ssr: false, loading: () => <MapLoading /> });
 
 /**
@@ -50,11 +51,13 @@ export function RealMap(props: RealMapProps) {
     );
   }
   return (
-    <LeafletMap
-      {...props}
-      tileUrl={settings.tileUrl}
-      attribution={settings.attribution}
-      onTiles={(ok) => setTiles((s) => (s !== "unknown" ? s : ok ? "ok" : "none"))}
-    />
+    <WhenShown className="" fallback={<MapLoading className={props.className} />}>
+      <LeafletMap
+        {...props}
+        tileUrl={settings.tileUrl}
+        attribution={settings.attribution}
+        onTiles={(ok) => setTiles((s) => (s !== "unknown" ? s : ok ? "ok" : "none"))}
+      />
+    </WhenShown>
   );
 }

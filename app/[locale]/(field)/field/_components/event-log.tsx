@@ -1,6 +1,7 @@
 "use client";
 
 import { useFormatter, useTranslations } from "next-intl";
+import dynamic from "next/dynamic";
 import { useMemo, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
 import { deleteUnsent, withdrawSighting } from "@/lib/field/outbox";
@@ -12,9 +13,13 @@ import { useFocusReturn } from "@/components/ui/focus";
 import type { SyncStatus } from "./field-app";
 import { FieldMap } from "./field-map";
 import { runningSession, SessionPanel } from "./session-panel";
-import { SightingForm } from "./sighting-form";
 import { useFieldData } from "./use-field-data";
 import { usePosition } from "./use-position";
+
+// The sighting form (and the record rules, photo preparation and time-zone code with it) is
+// fetched when the person first opens it, from the service worker's precache, not with the
+// field log's first load (issue 18).
+const SightingForm = dynamic(() => import("./sighting-form").then((m) => m.SightingForm), { ssr: false });
 
 type Props = {
   db: FieldDatabase;
