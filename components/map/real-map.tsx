@@ -4,7 +4,6 @@ import dynamic from "next/dynamic";
 import { useTranslations } from "next-intl";
 import { useState } from "react";
 import { ZoneMap } from "@/components/zone-map";
-import { WhenShown } from "@/components/ui/when-shown";
 import { useMapSettings } from "./map-settings";
 import type { RealMapProps } from "./types";
 
@@ -22,7 +21,7 @@ function MapLoading({ className }: { className?: string }) {
   );
 }
 
-// Leaflet and its CSS are fetched only when a map comes near the screen (never on the server).
+// Leaflet and its CSS are fetched only when a map is on screen (never on the server).
 const LeafletMap = dynamic(() => import("./leaflet-map"), { ssr: false, loading: () => <MapLoading /> });
 
 /**
@@ -51,13 +50,11 @@ export function RealMap(props: RealMapProps) {
     );
   }
   return (
-    <WhenShown className="" fallback={<MapLoading className={props.className} />}>
-      <LeafletMap
-        {...props}
-        tileUrl={settings.tileUrl}
-        attribution={settings.attribution}
-        onTiles={(ok) => setTiles((s) => (s !== "unknown" ? s : ok ? "ok" : "none"))}
-      />
-    </WhenShown>
+    <LeafletMap
+      {...props}
+      tileUrl={settings.tileUrl}
+      attribution={settings.attribution}
+      onTiles={(ok) => setTiles((s) => (s !== "unknown" ? s : ok ? "ok" : "none"))}
+    />
   );
 }

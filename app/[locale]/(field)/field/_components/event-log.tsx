@@ -2,9 +2,10 @@
 
 import { useFormatter, useTranslations } from "next-intl";
 import dynamic from "next/dynamic";
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
 import { deleteUnsent, withdrawSighting } from "@/lib/field/outbox";
+import { loadSchemas } from "@/lib/field/save";
 import { REJECT_REASONS, type RejectReason } from "@/lib/domain";
 import { buildSpeciesIndex } from "@/lib/field/search";
 import type { KnownEvent, LocalSighting } from "@/lib/field/types";
@@ -42,6 +43,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   // Closing the form gives focus back to the button that opened it (keyboard use, issue 17).
   useFocusReturn(editing === null ? null : editing === "new" ? "add-sighting" : `edit-${editing.id}`);
   const position = usePosition(true);
+  // The record schemas, ready before the first save (lib/field/save.ts).
+  useEffect(() => void loadSchemas().catch(() => {}), []);
   const zones = data.pack?.pack.zones ?? null;
   const index = useMemo(
     () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale, data.pack.pack.mostRecorded) : null),

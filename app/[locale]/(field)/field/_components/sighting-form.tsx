@@ -4,7 +4,7 @@ import { useTranslations } from "next-intl";
 import { useEffect, useMemo, useRef, useState } from "react";
 import type { SightingRecord } from "@/lib/sync/records";
 import type { FieldDatabase } from "@/lib/field/db";
-import { InvalidRecord, loadSchemas, saveSighting } from "@/lib/field/save";
+import { InvalidRecord, saveSighting } from "@/lib/field/save";
 import { preparePhoto, type PreparedPhoto } from "@/lib/field/photo";
 import { recordUsage, type SpeciesHit, type SpeciesIndex, type Usage } from "@/lib/field/search";
 import type { EventPack, LocalSession, LocalSighting, ZoneCollection } from "@/lib/field/types";
@@ -98,7 +98,6 @@ export function SightingForm({
   const barRef = useRef<HTMLDivElement>(null);
 
   useEffect(() => {
-    void loadSchemas(); // the record schemas, fetched while the person fills the form
     void db.get("meta", USAGE).then((u) => setUsage((u as Usage | undefined) ?? {}));
     // A new sighting starts at the species search; an edit at its title, read first.
     (prior ? headingRef.current : searchRef.current)?.focus();
