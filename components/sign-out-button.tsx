@@ -1,10 +1,12 @@
 "use client";
 
-import { signOut } from "next-auth/react";
 import { useLocale, useTranslations } from "next-intl";
 import { useRef, useState } from "react";
 import { buttonClass, secondaryButtonClass } from "@/components/ui/field";
-import { clearDevice, sendWaitingNow, waitingOnDevice } from "@/lib/field/device-clear";
+
+// The phone-clearing code (IndexedDB, the sync client) and next-auth's client are fetched when
+// the button is pressed, not with every page that shows the header (issue 18).
+const deviceClear = () => import("@/lib/field/device-clear");
 
 // Signing out also empties the phone's field store (records, photos, packs), so a shared phone
 // keeps nothing of the person. Records not yet sent are never dropped silently: the person is
@@ -19,11 +21,14 @@ export function SignOutButton() {
   const [notSent, setNotSent] = useState(false);
 
   const finish = async () => {
-    await clearDevice();
+    await (await deviceClear()).clearDevice();
+    const { signOut } = await import("next-auth/react");
     await signOut({ callbackUrl: `/${locale}` });
   };
   const start = async () => {
-    const n = await waitingOnDevice().catch(() => 0);
+    const n = await deviceClear()
+      .then((m) => m.waitingOnDevice())
+      .catch(() => 0);
     if (n === 0) return finish();
     setWaiting(n);
     setNotSent(false);
@@ -31,7 +36,9 @@ export function SignOutButton() {
   };
   const sendNow = async () => {
     setBusy(true);
-    const left = await sendWaitingNow().catch(() => waiting);
+    const left = await deviceClear()
+      .then((m) => m.sendWaitingNow())
+      .catch(() => waiting);
     setBusy(false);
     if (left === 0) return finish();
     setWaiting(left);

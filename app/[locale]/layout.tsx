@@ -2,9 +2,10 @@ import "../globals.css";
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
 import { notFound } from "next/navigation";
-import { hasLocale, NextIntlClientProvider } from "next-intl";
+import { hasLocale } from "next-intl";
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import type { ReactNode } from "react";
+import { ClientMessages } from "@/components/client-messages";
 import { SiteHeader } from "@/components/site-header";
 import { routing, rtlLocales } from "@/lib/i18n/routing";
 
@@ -51,12 +52,13 @@ export default async function LocaleLayout({
         >
           {t("skipToContent")}
         </a>
-        <NextIntlClientProvider>
+        {/* The site header's and the error page's messages; each part of the site adds its own (components/client-messages.tsx). */}
+        <ClientMessages namespaces={["LocaleSwitcher", "SignIn", "MyData", "Errors"]}>
           <SiteHeader />
           <main id="main" className="mx-auto w-full max-w-5xl flex-1 px-4 py-6">
             {children}
           </main>
-        </NextIntlClientProvider>
+        </ClientMessages>
         <footer className="border-t border-reed-200 px-4 py-4 text-center text-sm text-ink-soft">{t("footer")}</footer>
       </body>
     </html>

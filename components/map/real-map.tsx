@@ -4,6 +4,7 @@ import dynamic from "next/dynamic";
 import { useTranslations } from "next-intl";
 import { useState } from "react";
 import { ZoneMap } from "@/components/zone-map";
+import { WhenShown } from "@/components/ui/when-shown";
 import { useMapSettings } from "./map-settings";
 import type { RealMapProps } from "./types";
 
@@ -49,12 +50,20 @@ export function RealMap(props: RealMapProps) {
       </div>
     );
   }
-  return (
+  const map = (
     <LeafletMap
       {...props}
       tileUrl={settings.tileUrl}
       attribution={settings.attribution}
       onTiles={(ok) => setTiles((s) => (s !== "unknown" ? s : ok ? "ok" : "none"))}
     />
+  );
+  // On the public pages the map sits below the fold on a phone: Leaflet waits until it is near (issue 18).
+  return props.whenShown ? (
+    <WhenShown className="" fallback={<MapLoading className={props.className} />}>
+      {map}
+    </WhenShown>
+  ) : (
+    map
   );
 }

@@ -27,4 +27,6 @@ export type RealMapProps = {
   /** Fit the view to the point and its circle rather than to the whole area. */
   focusPoint?: boolean;
   className?: string;
+  /** Load and draw the map only when it comes near the screen (pages where it sits below the fold). */
+  whenShown?: boolean;
 };

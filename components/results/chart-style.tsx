@@ -1,7 +1,3 @@
-"use client";
-
-import { Symbols } from "recharts";
-
 // One look for every results chart. Zones are told apart by colour and by marker shape,
 // never by dashes (a dashed line means extrapolation on every chart), so a zone has the
 // same colour and marker in every chart and the charts read in grey too. Colours at least
@@ -14,60 +10,4 @@ export const zoneMarker = (i: number) => ZONE_MARKERS[i % ZONE_MARKERS.length]!;
 export const TICK = { fill: "#2b3a31" };
 export const GRID = "#d5e8dc";
 
-/** A series' point marker (Recharts' own symbols), in its zone's colour and shape. */
-export function zoneDot(i: number) {
-  function Dot(props: { cx?: number; cy?: number; index?: number }) {
-    const { cx, cy } = props;
-    if (cx === undefined || cy === undefined || !Number.isFinite(cx) || !Number.isFinite(cy)) return null;
-    return <Symbols key={props.index} cx={cx} cy={cy} type={zoneMarker(i)} size={60} fill={zoneColour(i)} />;
-  }
-  return Dot;
-}
-
-/** The numbers behind a chart, as its text alternative: a folded table under the chart. */
-export function ChartDataTable({
-  id,
-  summary,
-  headers,
-  rows,
-}: {
-  id?: string;
-  summary: string;
-  headers: string[];
-  /** Cells already in words; the first cell of a row may name its series (rowHeader). */
-  rows: { key: string; cells: string[]; rowHeader?: boolean }[];
-}) {
-  return (
-    <details className="mt-2 text-sm">
-      <summary className="cursor-pointer text-reed-800 underline">{summary}</summary>
-      <div className="max-h-64 overflow-auto">
-        <table id={id} className="w-full text-start tabular-nums">
-          <thead>
-            <tr className="border-b border-reed-300">
-              {headers.map((h) => (
-                <th key={h} scope="col">
-                  {h}
-                </th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r.key} className="border-b border-reed-100">
-                {r.cells.map((c, j) =>
-                  j === 0 && r.rowHeader ? (
-                    <th key={j} scope="row" className="font-normal">
-                      {c}
-                    </th>
-                  ) : (
-                    <td key={j}>{c}</td>
-                  ),
-                )}
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
-    </details>
-  );
-}
+export { ChartDataTable } from "./chart-data-table";

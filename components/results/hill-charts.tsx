@@ -1,9 +1,7 @@
-"use client";
-
-import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { useFormatter } from "next-intl";
 import type { HillBlock } from "@/lib/results/compute";
-import { ChartDataTable, GRID, TICK, zoneColour, zoneDot, zoneMarker } from "./chart-style";
+import { ChartDataTable } from "./chart-style";
+import { HillChart } from "./chart-lazy";
 
 export type HillChartLabels = {
   curveTitle: string[]; // q = 0, 1, 2
@@ -29,7 +27,7 @@ export type HillChartLabels = {
 
 export type HillSeries = { name: string; hill: HillBlock };
 
-type Row = Record<string, number | [number, number] | null>;
+export type Row = Record<string, number | [number, number] | null>;
 
 /** Rows keyed by x, one set of columns per series (s{i}r rarefied, s{i}e extrapolated, s{i}b band). */
 function merge(
@@ -59,80 +57,17 @@ function Frame({
 }: {
   title: string;
   summary: string;
-  children: React.ReactElement;
+  children: React.ReactNode;
   table: React.ReactNode;
 }) {
   return (
     <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={title}>
       <figcaption className="font-semibold">{title}</figcaption>
       <div className="h-72 w-full" role="img" aria-label={`${title}. ${summary}`}>
-        <ResponsiveContainer width="100%" height="100%">
-          {children}
-        </ResponsiveContainer>
+        {children}
       </div>
       {table}
     </figure>
-  );
-}
-
-function SeriesLines({
-  series,
-  bands,
-  dashed,
-  labels,
-}: {
-  series: HillSeries[];
-  bands: boolean;
-  dashed: boolean;
-  labels: HillChartLabels;
-}) {
-  return (
-    <>
-      {bands
-        ? series.map((s, i) => (
-            <Area
-              key={`b${i}`}
-              dataKey={`s${i}b`}
-              name={`${s.name} ${labels.bandSuffix}`}
-              legendType="none"
-              stroke="none"
-              fill={zoneColour(i)}
-              fillOpacity={0.12}
-              connectNulls
-              isAnimationActive={false}
-            />
-          ))
-        : null}
-      {series.map((s, i) => (
-        <Line
-          key={`r${i}`}
-          dataKey={`s${i}r`}
-          name={s.name}
-          legendType={zoneMarker(i)}
-          stroke={zoneColour(i)}
-          strokeWidth={2}
-          dot={zoneDot(i)}
-          connectNulls
-          isAnimationActive={false}
-        />
-      ))}
-      {dashed
-        ? series.map((s, i) => (
-            <Line
-              key={`e${i}`}
-              dataKey={`s${i}e`}
-              name={`${s.name} ${labels.extrapolatedSuffix}`}
-              legendType="none"
-              stroke={zoneColour(i)}
-              strokeWidth={2}
-              strokeDasharray="6 4"
-              dot={zoneDot(i)}
-              connectNulls
-              isAnimationActive={false}
-            />
-          ))
-        : null}
-    </>
   );
 }
 
@@ -182,21 +117,6 @@ export function HillCharts({
       extrapolated: false,
       observed: false,
     }));
-  const axis = (x: string, y: string, domain?: [number, number]) => (
-    <>
-      <CartesianGrid stroke={GRID} />
-      <XAxis
-        dataKey="x"
-        type="number"
-        domain={domain ?? [0, "dataMax"]}
-        tick={TICK}
-        label={{ value: x, position: "insideBottom", offset: -12, fill: TICK.fill }}
-      />
-      <YAxis tick={TICK} label={{ value: y, angle: -90, position: "insideLeft", fill: TICK.fill }} />
-      <Tooltip />
-      <Legend verticalAlign="top" />
-    </>
-  );
   const curveTable = (q: number) => (
     <ChartDataTable
       summary={labels.table}
@@ -226,17 +146,27 @@ export function HillCharts({
       <div className="grid gap-4 lg:grid-cols-2">
         {[0, 1, 2].map((q) => (
           <Frame key={q} title={labels.curveTitle[q]!} summary={labels.summary} table={curveTable(q)}>
-            <ComposedChart data={merge(series, curvePoints(q))} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-              {axis(xLabel, labels.hill)}
-              <SeriesLines series={series} bands={bands} dashed labels={labels} />
-            </ComposedChart>
+            <HillChart
+              data={merge(series, curvePoints(q))}
+              xLabel={xLabel}
+              yLabel={labels.hill}
+              series={series}
+              bands={bands}
+              dashed
+              labels={labels}
+            />
           </Frame>
         ))}
         <Frame title={labels.completenessTitle} summary={labels.summary} table={curveTable(0)}>
-          <ComposedChart data={merge(series, coveragePoints)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-            {axis(xLabel, labels.coverage)}
-            <SeriesLines series={series} bands={false} dashed labels={labels} />
-          </ComposedChart>
+          <HillChart
+            data={merge(series, coveragePoints)}
+            xLabel={xLabel}
+            yLabel={labels.coverage}
+            series={series}
+            bands={false}
+            dashed
+            labels={labels}
+          />
         </Frame>
         <Frame
           title={labels.profileTitle}
@@ -262,10 +192,16 @@ export function HillCharts({
             />
           }
         >
-          <ComposedChart data={merge(series, profilePoints)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-            {axis(labels.order, labels.hill, [0, 2])}
-            <SeriesLines series={series} bands={bands} dashed={false} labels={labels} />
-          </ComposedChart>
+          <HillChart
+            data={merge(series, profilePoints)}
+            xLabel={labels.order}
+            yLabel={labels.hill}
+            domain={[0, 2]}
+            series={series}
+            bands={bands}
+            dashed={false}
+            labels={labels}
+          />
         </Frame>
       </div>
     </div>

@@ -1,23 +1,9 @@
-"use client";
-
-import {
-  Area,
-  CartesianGrid,
-  ComposedChart,
-  Legend,
-  Line,
-  LineChart,
-  ReferenceDot,
-  ResponsiveContainer,
-  Symbols,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from "recharts";
 import { useFormatter } from "next-intl";
 import { useId } from "react";
 import type { CurvePoint } from "@/lib/diversity/index";
-import { ChartDataTable, TICK, zoneColour, zoneMarker } from "./chart-style";
+import { ChartDataTable } from "./chart-style";
+import { CurveChart, RankChart, ZonesChart } from "./chart-lazy";
+import type { CurveRow } from "./chart-draw";
 
 export type ChartLabels = {
   rarefactionTitle: string;
@@ -43,7 +29,7 @@ export type ChartLabels = {
   upper: string;
 };
 
-function curveRows(points: CurvePoint[]) {
+function curveRows(points: CurvePoint[]): CurveRow[] {
   return points.map((p) => ({
     size: p.size,
     interpolated: p.kind !== "extrapolated" ? p.richness : null,
@@ -117,61 +103,7 @@ function Curve({
             aria-label={`${title}. ${labels.chartSummary}`}
             aria-describedby={tableId}
           >
-            <ResponsiveContainer width="100%" height="100%">
-              <ComposedChart data={curveRows(points)} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-                <CartesianGrid stroke="#d5e8dc" />
-                <XAxis
-                  dataKey="size"
-                  type="number"
-                  domain={[0, "dataMax"]}
-                  tick={TICK}
-                  label={{ value: xLabel, position: "insideBottom", offset: -12, fill: TICK.fill }}
-                />
-                <YAxis
-                  tick={TICK}
-                  label={{ value: labels.species, angle: -90, position: "insideLeft", fill: TICK.fill }}
-                />
-                <Tooltip />
-                <Legend verticalAlign="top" />
-                <Area
-                  dataKey="band"
-                  name={labels.band}
-                  stroke="none"
-                  fill="#76b08f"
-                  fillOpacity={0.3}
-                  isAnimationActive={false}
-                />
-                <Line
-                  dataKey="interpolated"
-                  name={labels.observedPart}
-                  stroke="#153a2a"
-                  strokeWidth={2}
-                  dot={false}
-                  isAnimationActive={false}
-                  connectNulls={false}
-                />
-                <Line
-                  dataKey="extrapolated"
-                  name={labels.extrapolatedPart}
-                  stroke="#153a2a"
-                  strokeWidth={2}
-                  strokeDasharray="6 4"
-                  dot={false}
-                  isAnimationActive={false}
-                  connectNulls={false}
-                />
-                {observed ? (
-                  <ReferenceDot
-                    x={observed.size}
-                    y={observed.richness}
-                    r={6}
-                    fill="#b5761c"
-                    stroke="#0f2a1f"
-                    label={{ value: labels.observedPoint, position: "top", fill: TICK.fill }}
-                  />
-                ) : null}
-              </ComposedChart>
-            </ResponsiveContainer>
+            <CurveChart rows={curveRows(points)} observed={observed ?? null} xLabel={xLabel} labels={labels} />
           </div>
           <DataTable
             id={tableId}
@@ -218,33 +150,7 @@ export function ResultsCharts(props: {
       <figure className="rounded-lg border border-reed-200 bg-white/70 p-3" aria-label={labels.rankTitle}>
         <figcaption className="font-semibold">{labels.rankTitle}</figcaption>
         <div className="h-72 w-full" dir="ltr" role="img" aria-label={labels.rankTitle} aria-describedby={rankTable}>
-          <ResponsiveContainer width="100%" height="100%">
-            <LineChart data={rankRows} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-              <CartesianGrid stroke="#d5e8dc" />
-              <XAxis
-                dataKey="rank"
-                type="number"
-                domain={[1, "dataMax"]}
-                tick={TICK}
-                label={{ value: labels.rank, position: "insideBottom", offset: -12, fill: TICK.fill }}
-              />
-              <YAxis
-                scale="log"
-                domain={[1, "auto"]}
-                allowDataOverflow
-                tick={TICK}
-                label={{ value: labels.abundance, angle: -90, position: "insideLeft", fill: TICK.fill }}
-              />
-              <Tooltip />
-              <Line
-                dataKey="abundance"
-                name={labels.abundance}
-                stroke="#8f5a12"
-                dot={{ r: 2 }}
-                isAnimationActive={false}
-              />
-            </LineChart>
-          </ResponsiveContainer>
+          <RankChart rows={rankRows} labels={labels} />
         </div>
         <DataTable
           id={rankTable}
@@ -262,66 +168,7 @@ export function ResultsCharts(props: {
           aria-label={`${labels.zonesTitle}. ${labels.zonesSummary}`}
           aria-describedby={zonesTable}
         >
-          <ResponsiveContainer width="100%" height="100%">
-            <LineChart margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-              <CartesianGrid stroke="#d5e8dc" />
-              <XAxis
-                dataKey="size"
-                type="number"
-                domain={[0, "dataMax"]}
-                allowDuplicatedCategory={false}
-                tick={TICK}
-                label={{ value: labels.individuals, position: "insideBottom", offset: -12, fill: TICK.fill }}
-              />
-              <YAxis
-                tick={TICK}
-                label={{ value: labels.species, angle: -90, position: "insideLeft", fill: TICK.fill }}
-              />
-              <Tooltip />
-              <Legend verticalAlign="top" />
-              {props.zones.flatMap((z, i) => {
-                const colour = zoneColour(i);
-                const marker = zoneMarker(i);
-                const rows = curveRows(z.rarefaction);
-                const observedSize = z.rarefaction.find((p) => p.kind === "observed")?.size;
-                // The zone's marker at its observed sample (where the solid part ends and the dashed part starts).
-                const dot = (d: { cx?: number; cy?: number; payload?: { size: number }; index?: number }) =>
-                  d.payload?.size === observedSize && d.cx !== undefined && d.cy !== undefined ? (
-                    <Symbols key={`${z.name}-${d.index}`} cx={d.cx} cy={d.cy} type={marker} size={90} fill={colour} />
-                  ) : (
-                    <g key={`${z.name}-${d.index}`} />
-                  );
-                return [
-                  <Line
-                    key={`${z.name}-rarefied`}
-                    data={rows}
-                    dataKey="interpolated"
-                    name={z.name}
-                    stroke={colour}
-                    strokeWidth={2}
-                    legendType={marker}
-                    dot={dot}
-                    activeDot={false}
-                    isAnimationActive={false}
-                    connectNulls={false}
-                  />,
-                  <Line
-                    key={`${z.name}-extrapolated`}
-                    data={rows}
-                    dataKey="extrapolated"
-                    name={`${z.name} (${labels.extrapolatedPart})`}
-                    stroke={colour}
-                    strokeWidth={2}
-                    strokeDasharray="6 4"
-                    legendType="none"
-                    dot={false}
-                    isAnimationActive={false}
-                    connectNulls={false}
-                  />,
-                ];
-              })}
-            </LineChart>
-          </ResponsiveContainer>
+          <ZonesChart zones={props.zones} labels={labels} />
         </div>
         <DataTable
           id={zonesTable}

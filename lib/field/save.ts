@@ -1,10 +1,18 @@
-import { sessionRecord, sightingRecord, type SessionRecord, type SightingRecord } from "@/lib/sync/records";
+import type { SessionRecord, SightingRecord } from "@/lib/sync/records";
 import type { FieldDatabase } from "./db";
 import type { LocalPhoto, LocalSession, LocalSighting } from "./types";
 
 // Saving on the phone: every record is validated with the same zod schemas the server uses
 // and written to the outbox (lib/field/outbox.ts) in one IndexedDB transaction. The pages
-// use this module; the service worker, which only sends, does not.
+// use this module; the service worker, which only sends, does not. The schemas (and zod with
+// them) are fetched at the first save, not with the field log's first load (issue 18); the
+// event log asks for them when it opens (loadSchemas), so the save itself does not wait.
+
+type Schemas = typeof import("@/lib/sync/records");
+let schemas: Schemas | null = null;
+
+/** The record schemas, loaded once; once loaded, a save starts its transaction at once, as before. */
+export const loadSchemas = async (): Promise<Schemas> => (schemas ??= await import("@/lib/sync/records"));
 
 export class InvalidRecord extends Error {
   constructor(readonly issues: { field: string; code: string }[]) {
@@ -33,6 +41,7 @@ export async function saveSession(
   input: SessionRecord,
   now = Date.now(),
 ): Promise<LocalSession> {
+  const { sessionRecord } = schemas ?? (await loadSchemas());
   const record = check<SessionRecord>(sessionRecord, input);
   const tx = db.transaction("sessions", "readwrite");
   const before = await tx.store.get(record.id);
@@ -61,6 +70,7 @@ export async function saveSighting(
   photos: Omit<LocalPhoto, "state" | "attempts" | "nextTryAt" | "savedAt" | "eventId" | "sightingId">[] = [],
   now = Date.now(),
 ): Promise<LocalSighting> {
+  const { sightingRecord } = schemas ?? (await loadSchemas());
   const record = check<SightingRecord>(sightingRecord, {
     ...input,
     photoIds: [...new Set([...(input.photoIds ?? []), ...photos.map((p) => p.id)])],

@@ -160,6 +160,8 @@ test("an organiser draws the area and a zone on the setup map, moves a corner, a
 
 test("the public event page shows the area and zones on the base map, in the visitor's language", async ({ page }) => {
   await page.goto("/fr/events/harrowmere-vale-midsummer-count");
+  // The map is drawn when it comes near the screen (issue 18), as a visitor scrolls to the zones.
+  await page.getByRole("heading", { level: 2, name: "Zones", exact: true }).scrollIntoViewIfNeeded();
   const map = page.getByRole("region", { name: "Carte de la zone d'étude et des zones de l'événement" });
   await expect(map).toBeVisible({ timeout: 20_000 });
   for (const zone of ["Harrowmere Meadow", "Alder Fringe", "Beechwood Heart", "Millpond Margin"])

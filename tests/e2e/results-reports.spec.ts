@@ -81,6 +81,8 @@ test("organiser publishes results; the public reads the Spanish report and downl
   const rarefaction = page.getByRole("figure", { name: "Individual-based rarefaction and extrapolation" });
   await expect(rarefaction).toContainText("counts of presence only are not counts of individuals");
   const accumulation = page.getByRole("figure", { name: "Sample-based accumulation (Mao Tau) and extrapolation" });
+  // A chart is drawn when it comes near the screen (issue 18), as a reader scrolls to it.
+  await accumulation.scrollIntoViewIfNeeded();
   await expect(accumulation.locator("path.recharts-curve[stroke-dasharray]").first()).toBeAttached();
   await expect(accumulation.getByRole("img").getByText("observed", { exact: true })).toBeVisible();
   // Pending records are stated; the rules are printed.

@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import { getTranslations, setRequestLocale } from "next-intl/server";
 import { Link } from "@/lib/i18n/navigation";
+import { ClientMessages } from "@/components/client-messages";
 import type { Locale } from "@/lib/i18n/routing";
 import { requirePageUser } from "@/server/auth/page";
 
@@ -45,7 +46,7 @@ export default async function AdminLayout({
           ))}
         </ul>
       </nav>
-      {children}
+      <ClientMessages namespaces={["Admin"]}>{children}</ClientMessages>
     </div>
   );
 }

@@ -29,9 +29,13 @@ export default async function FieldLogPage({ params }: Props) {
   return (
     <div className="mx-auto max-w-xl space-y-6 pb-28">
       <h1 className="text-2xl font-bold text-reed-900">{t("title")}</h1>
-      <MapSettingsProvider settings={mapSettings()}>
-        <FieldApp locale={locale} events={events} />
-      </MapSettingsProvider>
+      {/* The log is drawn from the phone's storage after the page loads: its room is kept from the
+          start so the safety notice below does not jump down when it appears (layout shift, issue 18). */}
+      <div className="min-h-svh">
+        <MapSettingsProvider settings={mapSettings()}>
+          <FieldApp locale={locale} events={events} />
+        </MapSettingsProvider>
+      </div>
       <div id="safety">
         <SafetyNotice />
       </div>

@@ -1,9 +1,11 @@
 "use client";
 
 import { useFormatter, useTranslations } from "next-intl";
-import { useMemo, useState } from "react";
+import dynamic from "next/dynamic";
+import { useEffect, useMemo, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
 import { deleteUnsent, withdrawSighting } from "@/lib/field/outbox";
+import { loadSchemas } from "@/lib/field/save";
 import { REJECT_REASONS, type RejectReason } from "@/lib/domain";
 import { buildSpeciesIndex } from "@/lib/field/search";
 import type { KnownEvent, LocalSighting } from "@/lib/field/types";
@@ -12,9 +14,13 @@ import { useFocusReturn } from "@/components/ui/focus";
 import type { SyncStatus } from "./field-app";
 import { FieldMap } from "./field-map";
 import { runningSession, SessionPanel } from "./session-panel";
-import { SightingForm } from "./sighting-form";
 import { useFieldData } from "./use-field-data";
 import { usePosition } from "./use-position";
+
+// The sighting form (and the record rules, photo preparation and time-zone code with it) is
+// fetched when the person first opens it, from the service worker's precache, not with the
+// field log's first load (issue 18).
+const SightingForm = dynamic(() => import("./sighting-form").then((m) => m.SightingForm), { ssr: false });
 
 type Props = {
   db: FieldDatabase;
@@ -37,6 +43,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   // Closing the form gives focus back to the button that opened it (keyboard use, issue 17).
   useFocusReturn(editing === null ? null : editing === "new" ? "add-sighting" : `edit-${editing.id}`);
   const position = usePosition(true);
+  // The record schemas, ready before the first save (lib/field/save.ts).
+  useEffect(() => void loadSchemas().catch(() => {}), []);
   const zones = data.pack?.pack.zones ?? null;
   const index = useMemo(
     () => (data.pack ? buildSpeciesIndex(data.pack.pack.species, locale, data.pack.pack.mostRecorded) : null),

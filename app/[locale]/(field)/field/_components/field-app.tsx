@@ -7,7 +7,20 @@ import { openFieldDb, type FieldDatabase } from "@/lib/field/db";
 import { makeDueNow } from "@/lib/field/outbox";
 import { refreshPack, syncEvent, type SyncReport } from "@/lib/field/sync";
 import type { KnownEvent } from "@/lib/field/types";
-import { EventLog } from "./event-log";
+import dynamic from "next/dynamic";
+
+// An event's log (the list, the session panel, the map, the species search) is fetched once an
+// event is chosen, from the service worker's precache when offline; the first load carries only
+// the chooser (issue 18).
+const EventLog = dynamic(() => import("./event-log").then((m) => m.EventLog), {
+  ssr: false,
+  loading: () => <Loading />,
+});
+
+function Loading() {
+  const t = useTranslations("FieldLog");
+  return <p className="text-ink-soft">{t("loading")}</p>;
+}
 
 const PERIOD_MS = 30_000;
 // While the last try found no connection, look again this often (cheap: nothing goes out
@@ -126,7 +139,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
         {t("noStorage")}
       </p>
     );
-  if (!db) return <p className="text-ink-soft">{t("loading")}</p>;
+  if (!db) return <Loading />;
 
   if (!eventId) {
     return (

@@ -133,6 +133,7 @@ export default async function EventPage({ params }: Props) {
               area={shapes.area as ArealGeometry | null}
               zones={shapes.zones.map((z) => ({ id: z.id, name: z.name, geometry: z.geometry as ArealGeometry }))}
               className="h-80 w-full rounded-lg border border-reed-200"
+              whenShown
             />
           </MapSettingsProvider>
         ) : null}

@@ -3,6 +3,7 @@ import type { ReactNode } from "react";
 import { eventForSetup } from "@/db/queries/setup";
 import { EventStatusBadge } from "@/components/event-status-badge";
 import { Link } from "@/lib/i18n/navigation";
+import { ClientMessages } from "@/components/client-messages";
 import type { Locale } from "@/lib/i18n/routing";
 import { SetupNotAllowed as NotAllowed } from "@/components/setup-not-allowed";
 import { setupPermit } from "./_components/setup-guard";
@@ -47,7 +48,22 @@ export default async function EventSetupLayout({ children, params }: Props) {
           { part: "api", name: t("tabs.api") },
         ]}
       />
-      {children}
+      {/* The messages the set-up's client components read (components/client-messages.tsx). */}
+      <ClientMessages
+        namespaces={[
+          "Setup",
+          "Habitat",
+          "Map",
+          "LocaleSwitcher",
+          "Role",
+          "TaxonGroup",
+          "Home",
+          "PaperSheets",
+          "ApiTokens",
+        ]}
+      >
+        {children}
+      </ClientMessages>
     </div>
   );
 }

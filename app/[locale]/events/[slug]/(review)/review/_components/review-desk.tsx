@@ -415,7 +415,8 @@ export function ReviewDesk(props: Props) {
           <h2 id="queue-title" className="sr-only">
             {t("queue.title")}
           </h2>
-          <div className="max-h-[70vh] overflow-auto rounded-lg border border-reed-200 bg-white/70">
+          {/* A fixed height on wide screens: the queue arrives after the page and would push what is below (layout shift). */}
+          <div className="max-h-[70vh] overflow-auto rounded-lg border border-reed-200 bg-white/70 lg:h-[70vh]">
             <table className="w-full border-collapse text-sm" aria-label={t("queue.title")}>
               <thead className="sticky top-0 bg-paper-deep text-start">
                 <tr>
