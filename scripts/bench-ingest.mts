@@ -24,6 +24,7 @@ import { encode } from "next-auth/jwt";
 import { Client } from "pg";
 import { recreateDatabase } from "../tests/support/test-db";
 import { reportRows, type BenchRow } from "./bench-report";
+import { seededRandom } from "../db/seed/random";
 
 const arg = (name: string, fallback: number) =>
   Number(process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback);
@@ -121,18 +122,6 @@ async function seed(): Promise<{ eventId: string; taxonIds: string[]; userIds: s
   } finally {
     await db.end();
   }
-}
-
-/** mulberry32: a small seeded generator (common practice), so that every run draws the same load. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 /**
@@ -273,7 +262,7 @@ type OpenLoop = { planned: number; ok: number; failed: number; latencies: number
  * against the server, never against the load).
  */
 async function openLoop(eventId: string, taxonIds: string[], volunteerCookies: string[]): Promise<OpenLoop> {
-  const random = seeded(18);
+  const random = seededRandom(18);
   const schedule: { at: number; cookie: string; body: string }[] = [];
   for (let t = 0; ;) {
     t += (-Math.log(1 - random()) / OPEN_RATE) * 1000;

@@ -18,17 +18,11 @@ import type { CurvePoint } from "@/lib/diversity/index";
 import type { ChartLabels } from "./results-charts";
 import type { HillChartLabels, HillSeries, Row } from "./hill-charts";
 import { GRID, TICK, zoneColour, zoneMarker } from "./chart-style";
+import { curveRows, type CurveRow } from "./curve-rows";
 
 // The drawings of the results charts (Recharts), loaded only when a chart comes near the
 // screen: the figures, their captions and their data tables are in results-charts.tsx and
 // hill-charts.tsx, rendered with the page.
-
-export type CurveRow = {
-  size: number;
-  interpolated: number | null;
-  extrapolated: number | null;
-  band: [number, number];
-};
 
 /** A series' point marker (Recharts' own symbols), in its zone's colour and shape. */
 function zoneDot(i: number) {
@@ -38,15 +32,6 @@ function zoneDot(i: number) {
     return <Symbols key={props.index} cx={cx} cy={cy} type={zoneMarker(i)} size={60} fill={zoneColour(i)} />;
   }
   return Dot;
-}
-
-function curveRows(points: CurvePoint[]): CurveRow[] {
-  return points.map((p) => ({
-    size: p.size,
-    interpolated: p.kind !== "extrapolated" ? p.richness : null,
-    extrapolated: p.kind !== "rarefied" ? p.richness : null,
-    band: [p.lower, p.upper] as [number, number],
-  }));
 }
 
 export function CurveDraw({

@@ -3,7 +3,7 @@ import { useId } from "react";
 import type { CurvePoint } from "@/lib/diversity/index";
 import { ChartDataTable } from "./chart-style";
 import { CurveChart, RankChart, ZonesChart } from "./chart-lazy";
-import type { CurveRow } from "./chart-draw";
+import { curveRows } from "./curve-rows";
 
 export type ChartLabels = {
   rarefactionTitle: string;
@@ -28,15 +28,6 @@ export type ChartLabels = {
   lower: string;
   upper: string;
 };
-
-function curveRows(points: CurvePoint[]): CurveRow[] {
-  return points.map((p) => ({
-    size: p.size,
-    interpolated: p.kind !== "extrapolated" ? p.richness : null,
-    extrapolated: p.kind !== "rarefied" ? p.richness : null,
-    band: [p.lower, p.upper] as [number, number],
-  }));
-}
 
 /** The numbers behind a chart, as its text alternative (the chart's figure points to it). */
 function DataTable({

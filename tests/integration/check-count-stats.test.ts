@@ -13,6 +13,7 @@ import { ingestBatch } from "@/db/queries/sync";
 import * as s from "@/db/schema";
 import { sightingRecord } from "@/lib/sync/records";
 import { db, lonLat, makeFixture, sightingValues } from "./helpers";
+import { seededRandom } from "@/db/seed/random";
 
 // The unusual-count check mark reads its per-taxon quartiles from check_count_stats, kept by
 // triggers on sightings (issue 18), instead of sorting every sighting of the taxon on each batch.
@@ -23,18 +24,7 @@ type Fixture = Awaited<ReturnType<typeof makeFixture>>;
 let f: Fixture;
 let taxonB: string;
 
-/** A small seeded generator (mulberry32, common practice), so that a failure replays. */
-function seeded(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-const random = seeded(18);
+const random = seededRandom(18);
 // Right-skewed counts with ties (most values repeat), as a count day brings them.
 const someCount = () => 1 + Math.floor(-Math.log(1 - random()) * 6);
 let minute = 0;
