@@ -166,24 +166,29 @@ describe("per-taxon count statistics for the unusual-count mark", () => {
 
   it("let two open transactions record the same taxon and count without waiting on each other", async () => {
     const url = process.env.DATABASE_URL!;
+    // Two volunteers' phones (one phone syncs its batches one after another).
+    const [other] = await db()
+      .insert(s.users)
+      .values({ email: "count-stats-second@example.org", name: "Second volunteer" })
+      .returning();
     const a = new Client({ connectionString: url });
     const b = new Client({ connectionString: url });
     await Promise.all([a.connect(), b.connect()]);
-    const insert = (c: Client) => {
+    const insert = (c: Client, userId: string) => {
       const row = sightingValues(f, { count: 3, ...apart() });
       return c.query(
         `INSERT INTO sightings (id, event_id, user_id, taxon_id, count, observed_at, location, accuracy_m)
          VALUES ($1, $2, $3, $4, 3, $5, ST_SetSRID(ST_MakePoint($6, $7), 4326), 5)`,
-        [row.id, f.event.id, f.user.id, f.taxon.id, row.observedAt.toISOString(), 0.3, 0.3],
+        [row.id, f.event.id, userId, f.taxon.id, row.observedAt.toISOString(), 0.3, 0.3],
       );
     };
     try {
       await a.query("BEGIN");
-      await insert(a);
+      await insert(a, f.user.id);
       // b would wait for a's commit on a shared row; with its own shard it does not.
       await b.query("BEGIN");
       await b.query("SET LOCAL lock_timeout = '2s'");
-      await insert(b);
+      await insert(b, other!.id);
       await b.query("COMMIT");
       await a.query("COMMIT");
     } finally {
