@@ -3,9 +3,9 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { decide, type ReviewScope } from "@/db/queries/review";
 import { ingestBatch } from "@/db/queries/sync";
 import * as s from "@/db/schema";
-import { sightingRecord, type SightingRecord } from "@/lib/sync/records";
+import type { SightingRecord } from "@/lib/sync/records";
 import { answerBatch } from "@/server/sync/answer";
-import { db, makeFixture, refusal } from "./helpers";
+import { db, makeFixture, refusal, syncSighting } from "./helpers";
 
 // Issue 15, "records a volunteer can put right": corrections of sent sightings are new
 // versions (the previous values kept, the history row saying what changed), withdrawals
@@ -18,22 +18,7 @@ let scope: ReviewScope;
 const NOW = new Date("2026-06-21T00:00:00Z");
 
 const sighting = (over: Record<string, unknown> = {}): SightingRecord =>
-  sightingRecord.parse({
-    id: crypto.randomUUID(),
-    sessionId: null,
-    taxonId: f.taxon.id,
-    description: "",
-    count: 2,
-    countIsEstimate: false,
-    observedAt: "2026-06-20T08:10:00Z",
-    latitude: 0.2,
-    longitude: 0.2,
-    accuracyM: 8,
-    zoneId: null,
-    notes: "",
-    photoIds: [],
-    ...over,
-  });
+  syncSighting(f.taxon.id, { accuracyM: 8, ...over });
 const ingest = (records: SightingRecord[], now = NOW, eventId = f.event.id) =>
   ingestBatch({
     userId: f.user.id,

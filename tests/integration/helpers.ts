@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
+import { sessionRecord, sightingRecord, type SessionRecord, type SightingRecord } from "@/lib/sync/records";
 
 export const db = () => getDb();
 
@@ -91,3 +92,36 @@ export async function refusal(
   }
   throw new Error("expected PostgreSQL to refuse the row, but it was accepted");
 }
+
+/** A count session as a phone sends it in a sync batch (a finished 30-minute complete count), with `over` applied. */
+export const syncSession = (zoneId: string | null, over: Record<string, unknown> = {}): SessionRecord =>
+  sessionRecord.parse({
+    id: crypto.randomUUID(),
+    zoneId,
+    kind: "timed_count",
+    startedAt: "2026-06-20T08:00:00Z",
+    endedAt: "2026-06-20T08:30:00Z",
+    allSpeciesNoted: true,
+    distanceM: null,
+    notes: "",
+    ...over,
+  });
+
+/** A sighting as a phone sends it in a sync batch (two of `taxonId` at 0.2, 0.2, no session), with `over` applied. */
+export const syncSighting = (taxonId: string, over: Record<string, unknown> = {}): SightingRecord =>
+  sightingRecord.parse({
+    id: crypto.randomUUID(),
+    sessionId: null,
+    taxonId,
+    description: "",
+    count: 2,
+    countIsEstimate: false,
+    observedAt: "2026-06-20T08:10:00Z",
+    latitude: 0.2,
+    longitude: 0.2,
+    accuracyM: 8.3,
+    zoneId: null,
+    notes: "",
+    photoIds: [],
+    ...over,
+  });

@@ -6,8 +6,8 @@ import { uploadAreaAndZones } from "@/db/queries/setup-zones";
 import { ingestBatch } from "@/db/queries/sync";
 import * as s from "@/db/schema";
 import type { ArealGeometry as Geometry } from "@/lib/geo/areal";
-import { sessionRecord, sightingRecord, type SessionRecord, type SightingRecord } from "@/lib/sync/records";
-import { db, makeFixture, polygonSql, sightingValues } from "./helpers";
+import type { SessionRecord, SightingRecord } from "@/lib/sync/records";
+import { db, makeFixture, polygonSql, sightingValues, syncSession, syncSighting } from "./helpers";
 
 // Issue 14: the zone of each count session and the pending figures are read from aggregates
 // kept by triggers (migration 0023). Each step below holds them to the direct computation
@@ -20,38 +20,13 @@ let coordinator = "";
 let scope: ReviewScope;
 const NOW = new Date("2026-06-21T00:00:00Z");
 
-const session = (over: Record<string, unknown> = {}): SessionRecord =>
-  sessionRecord.parse({
-    id: crypto.randomUUID(),
-    zoneId: f.zone.id,
-    kind: "timed_count",
-    startedAt: "2026-06-20T08:00:00Z",
-    endedAt: "2026-06-20T08:30:00Z",
-    allSpeciesNoted: true,
-    distanceM: null,
-    notes: "",
-    ...over,
-  });
+const session = (over: Record<string, unknown> = {}): SessionRecord => syncSession(f.zone.id, over);
 // Zone A covers [0, 0.5]², zone B [0.5, 1] × [0, 0.5]; (0.7, 0.7) lies outside both.
 const A = { longitude: 0.2, latitude: 0.2 };
 const B = { longitude: 0.7, latitude: 0.2 };
 const OUT = { longitude: 0.7, latitude: 0.7 };
 const sighting = (where: { longitude: number; latitude: number }, over: Record<string, unknown> = {}): SightingRecord =>
-  sightingRecord.parse({
-    id: crypto.randomUUID(),
-    sessionId: null,
-    taxonId: f.taxon.id,
-    description: "",
-    count: 1,
-    countIsEstimate: false,
-    observedAt: "2026-06-20T08:10:00Z",
-    accuracyM: 8,
-    zoneId: null,
-    notes: "",
-    photoIds: [],
-    ...where,
-    ...over,
-  });
+  syncSighting(f.taxon.id, { count: 1, accuracyM: 8, ...where, ...over });
 const ingest = (sessions: SessionRecord[], sightings: SightingRecord[]) =>
   ingestBatch({
     userId: f.user.id,

@@ -2,8 +2,8 @@ import { inArray, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { ingestBatch } from "@/db/queries/sync";
 import * as s from "@/db/schema";
-import { sightingRecord, type SightingRecord } from "@/lib/sync/records";
-import { db, makeFixture } from "./helpers";
+import type { SightingRecord } from "@/lib/sync/records";
+import { db, makeFixture, syncSighting } from "./helpers";
 
 // New sightings of a sync batch are stored by one INSERT over arrays (issue 18). Each field
 // must arrive as it was sent, whatever its text holds, and a resent batch must still find
@@ -11,23 +11,7 @@ import { db, makeFixture } from "./helpers";
 let f: Awaited<ReturnType<typeof makeFixture>>;
 const NOW = new Date("2026-06-21T00:00:00Z");
 
-const sighting = (over: Record<string, unknown>): SightingRecord =>
-  sightingRecord.parse({
-    id: crypto.randomUUID(),
-    sessionId: null,
-    taxonId: f.taxon.id,
-    description: "",
-    count: 2,
-    countIsEstimate: false,
-    observedAt: "2026-06-20T08:10:00Z",
-    latitude: 0.2,
-    longitude: 0.2,
-    accuracyM: 8.3,
-    zoneId: null,
-    notes: "",
-    photoIds: [],
-    ...over,
-  });
+const sighting = (over: Record<string, unknown>): SightingRecord => syncSighting(f.taxon.id, over);
 
 beforeAll(async () => {
   f = await makeFixture("batchinsert");

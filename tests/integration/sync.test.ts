@@ -6,10 +6,10 @@ import * as s from "@/db/schema";
 import { ApiError } from "@/lib/http/errors";
 import { catalogues } from "@/lib/i18n/translator";
 import { REFUSAL_CODES } from "@/lib/sync/acks";
-import { sessionRecord, sightingRecord, type SessionRecord, type SightingRecord } from "@/lib/sync/records";
+import type { SessionRecord, SightingRecord } from "@/lib/sync/records";
 import { eventPermitFor } from "@/server/auth/guard";
 import { answerBatch } from "@/server/sync/answer";
-import { db, makeFixture, polygonSql } from "./helpers";
+import { db, makeFixture, polygonSql, syncSession, syncSighting } from "./helpers";
 
 // The server half of the field log's sync, against the real database, in its two layers:
 // the data layer (db/queries/sync.ts) takes parsed records and answers with outcome codes;
@@ -21,35 +21,8 @@ let other: typeof s.users.$inferSelect;
 let wetZone: typeof s.zones.$inferSelect;
 const NOW = new Date("2026-06-21T00:00:00Z");
 
-const session = (over: Record<string, unknown> = {}): SessionRecord =>
-  sessionRecord.parse({
-    id: crypto.randomUUID(),
-    zoneId: f.zone.id,
-    kind: "timed_count",
-    startedAt: "2026-06-20T08:00:00Z",
-    endedAt: "2026-06-20T08:30:00Z",
-    allSpeciesNoted: true,
-    distanceM: null,
-    notes: "",
-    ...over,
-  });
-const sighting = (over: Record<string, unknown> = {}): SightingRecord =>
-  sightingRecord.parse({
-    id: crypto.randomUUID(),
-    sessionId: null,
-    taxonId: f.taxon.id,
-    description: "",
-    count: 2,
-    countIsEstimate: false,
-    observedAt: "2026-06-20T08:10:00Z",
-    latitude: 0.2,
-    longitude: 0.2,
-    accuracyM: 8.3,
-    zoneId: null,
-    notes: "",
-    photoIds: [],
-    ...over,
-  });
+const session = (over: Record<string, unknown> = {}): SessionRecord => syncSession(f.zone.id, over);
+const sighting = (over: Record<string, unknown> = {}): SightingRecord => syncSighting(f.taxon.id, over);
 const indexed = <R>(records: R[]) => records.map((record, index) => ({ index, record }));
 /** The data layer alone: typed records in, outcome codes out. */
 const ingest = (sessions: SessionRecord[], sightings: SightingRecord[], who = f.user.id) =>
