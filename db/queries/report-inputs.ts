@@ -2,7 +2,13 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import type { Tx } from "../client";
 import { NO_ZONE } from "@/lib/results/compute";
-import { SESSION_RECORD, type InputRecord } from "@/lib/results/records";
+import {
+  recordsOfColumns,
+  SESSION_RECORD,
+  uuidBytes,
+  type InputColumns,
+  type InputRecord,
+} from "@/lib/results/records";
 import { sessionZonesSql } from "./results";
 
 /**
@@ -142,6 +148,69 @@ function uuidsOfArray(b: Buffer): string[] {
   return out;
 }
 
+/** Comma-joined integers as an Int32Array, read in one pass (no string per number). */
+function int32s(s: string | null): Int32Array {
+  if (!s) return new Int32Array(0);
+  let n = 1;
+  for (let i = 0; i < s.length; i++) if (s.charCodeAt(i) === 44) n++;
+  const out = new Int32Array(n);
+  let k = 0;
+  let v = 0;
+  let sign = 1;
+  let digits = 0;
+  for (let i = 0; i <= s.length; i++) {
+    const ch = i < s.length ? s.charCodeAt(i) : 44;
+    if (ch === 44) {
+      if (!digits) throw new Error("stored input records: an empty number");
+      out[k++] = sign * v;
+      v = 0;
+      sign = 1;
+      digits = 0;
+    } else if (ch === 45 && !digits && sign === 1) sign = -1;
+    else if (ch >= 48 && ch <= 57) {
+      v = v * 10 + (ch - 48);
+      digits++;
+    } else throw new Error(`stored input records: "${s[i]}" in a number`);
+  }
+  return out;
+}
+
+/** The uuids of a binary uuid[] (array_send), their 16 bytes each, one after the other. */
+function uuidBytesOfArray(b: Buffer): Buffer {
+  const { n, at: start } = arrayStart(b);
+  const out = Buffer.allocUnsafe(16 * n);
+  for (let i = 0, at = start; i < n; i++, at += 20) {
+    if (b.readInt32BE(at) !== 16) throw new Error("stored input records: an id is not a uuid");
+    b.copy(out, 16 * i, at + 4, at + 20);
+  }
+  return out;
+}
+
+/** A row read with PACKED_COLUMNS, column by column (lib/results/records.ts InputColumns). */
+export function columnsOfRow(row: PackedText): InputColumns {
+  let ids: Buffer;
+  if (Buffer.isBuffer(row.ids)) ids = uuidBytesOfArray(row.ids);
+  else {
+    const text = split(row.ids);
+    ids = Buffer.allocUnsafe(16 * text.length);
+    text.forEach((id, i) => uuidBytes(id, ids, 16 * i));
+  }
+  const c: InputColumns = {
+    n: ids.length / 16,
+    ids,
+    words: row.words ? (JSON.parse(row.words) as string[]) : [],
+    states: int32s(row.states),
+    taxa: int32s(row.taxa),
+    counts: int32s(row.counts),
+    zones: int32s(row.zones),
+    sessions: int32s(row.sessions),
+    sessionZones: int32s(row.sessionZones),
+  };
+  for (const k of ["states", "taxa", "counts", "zones", "sessions", "sessionZones"] as const)
+    if (c[k].length !== c.n) throw new Error(`stored input records: ${k} holds ${c[k].length} values for ${c.n} ids`);
+  return c;
+}
+
 /** The records of a row read with PACKED_COLUMNS. */
 export function recordsOfRow(row: PackedText): InputRecord[] {
   return unpackInputs({
@@ -160,45 +229,42 @@ export function recordsOfRow(row: PackedText): InputRecord[] {
  * The records a report of the event would freeze now, packed by PostgreSQL itself: every
  * approved, identified sighting and one record per complete count session, by id (the same
  * records as db/queries/results.ts loadInputRecords), as one row of report_inputs' columns.
- * Words: the review states, "" (a session record's taxon), then the taxa, the zones and the
- * complete sessions, each numbered in id order.
+ * Words: "approved" (every sighting's state: only approved ones are read), "session" (a session
+ * record's state), "" (its taxon), then the taxa, the zones and the complete sessions, each
+ * numbered in id order. Each record's places are found by hash joins with these few hundred
+ * words; the records are sorted once, by id (a plan that sorted them by zone and joined by merge,
+ * chosen on a wrong estimate, took twice as long).
  */
 export function packedEventInputsSql(eventId: string) {
   return sql`
     WITH sz AS (${sessionZonesSql(eventId)}),
-    szn AS (SELECT id, zone_id, row_number() OVER (ORDER BY id)::int AS k FROM sz),
+    szn AS MATERIALIZED (
+      SELECT id, coalesce(zone_id, ${NO_ZONE}::uuid) AS zone, row_number() OVER (ORDER BY id)::int AS k FROM sz
+    ),
     rec AS MATERIALIZED (
-      SELECT s.id, s.review_state::text AS state, s.taxon_id AS taxon, s.count AS n,
-             coalesce(s.zone_id, ${NO_ZONE}::uuid) AS zone, z.k AS session,
-             CASE WHEN z.id IS NOT NULL THEN coalesce(z.zone_id, ${NO_ZONE}::uuid) END AS session_zone
+      SELECT s.id, 1 AS state, s.taxon_id AS taxon, s.count AS n, coalesce(s.zone_id, ${NO_ZONE}::uuid) AS zone,
+             z.k AS session, z.zone AS session_zone
       FROM sightings s LEFT JOIN szn z ON z.id = s.session_id
       WHERE s.event_id = ${eventId} AND s.review_state = 'approved' AND s.taxon_id IS NOT NULL
       UNION ALL
-      SELECT z.id, ${SESSION_RECORD}::text, NULL::uuid, 0, coalesce(z.zone_id, ${NO_ZONE}::uuid), z.k, coalesce(z.zone_id, ${NO_ZONE}::uuid)
-      FROM szn z
+      SELECT z.id, 2, NULL::uuid, 0, z.zone, z.k, z.zone FROM szn z
     ),
-    st AS (SELECT state, row_number() OVER (ORDER BY state)::int AS k FROM (SELECT DISTINCT state FROM rec) d),
-    tx AS (SELECT taxon, row_number() OVER (ORDER BY taxon)::int AS k FROM (SELECT DISTINCT taxon FROM rec WHERE taxon IS NOT NULL) d),
-    zn AS (
-      SELECT zone, row_number() OVER (ORDER BY zone)::int AS k
-      FROM (SELECT zone FROM rec UNION SELECT session_zone FROM rec WHERE session_zone IS NOT NULL) d
+    tx AS MATERIALIZED (
+      SELECT taxon, row_number() OVER (ORDER BY taxon)::int AS k FROM (SELECT DISTINCT taxon FROM rec WHERE taxon IS NOT NULL) d
     ),
-    -- Where each kind of word starts: states from 1, "" after them, then taxa, zones, sessions.
-    o AS (
-      SELECT (SELECT count(*) FROM st)::int + 1 AS blank,
-             (SELECT count(*) FROM st)::int + 1 + (SELECT count(*) FROM tx)::int AS zones,
-             (SELECT count(*) FROM st)::int + 1 + (SELECT count(*) FROM tx)::int + (SELECT count(*) FROM zn)::int AS sessions
-    ),
+    -- A session's zone is also its own record's zone: the records' zones are all the zones.
+    zn AS MATERIALIZED (SELECT zone, row_number() OVER (ORDER BY zone)::int AS k FROM (SELECT DISTINCT zone FROM rec) d),
+    o AS (SELECT 3 + (SELECT count(*) FROM tx)::int AS zones, 3 + (SELECT count(*) FROM tx)::int + (SELECT count(*) FROM zn)::int AS sessions),
     x AS (
-      SELECT r.id, st.k AS state, o.blank + coalesce(tx.k, 0) AS taxon, r.n, o.zones + zn.k AS zone,
+      SELECT r.id, r.state, 3 + coalesce(t.k, 0) AS taxon, r.n, o.zones + zn.k AS zone,
              coalesce(o.sessions + r.session, 0) AS session, coalesce(o.zones + zs.k, 0) AS session_zone
-      FROM rec r CROSS JOIN o JOIN st ON st.state = r.state LEFT JOIN tx ON tx.taxon = r.taxon
-      JOIN zn ON zn.zone = r.zone LEFT JOIN zn zs ON zs.zone = r.session_zone
+      FROM rec r CROSS JOIN o LEFT JOIN tx t ON t.taxon = r.taxon JOIN zn ON zn.zone = r.zone LEFT JOIN zn zs ON zs.zone = r.session_zone
       ORDER BY r.id
     )
     SELECT count(x.id)::int AS record_count, coalesce(array_agg(x.id), '{}') AS ids,
-      ARRAY(SELECT state FROM st ORDER BY k) || ARRAY[''] || ARRAY(SELECT taxon::text FROM tx ORDER BY k)
-        || ARRAY(SELECT zone::text FROM zn ORDER BY k) || ARRAY(SELECT id::text FROM szn ORDER BY k) AS words,
+      ARRAY['approved', ${SESSION_RECORD}::text, '']
+        || ARRAY(SELECT taxon::text FROM tx ORDER BY k) || ARRAY(SELECT zone::text FROM zn ORDER BY k)
+        || ARRAY(SELECT id::text FROM szn ORDER BY k) AS words,
       coalesce(array_agg(x.state), '{}') AS states, coalesce(array_agg(x.taxon), '{}') AS taxa,
       coalesce(array_agg(x.n), '{}') AS counts, coalesce(array_agg(x.zone), '{}') AS zones,
       coalesce(array_agg(x.session), '{}') AS sessions, coalesce(array_agg(x.session_zone), '{}') AS session_zones
@@ -206,15 +272,15 @@ export function packedEventInputsSql(eventId: string) {
 }
 
 /**
- * The event's input records as a report would freeze them now. With `storeFor`, PostgreSQL also
- * stores them, packed, as the inputs of the report of that id (written next, it references them):
- * one statement, one snapshot, and no record crosses the wire twice.
+ * The event's input records as a report would freeze them now, column by column. With `storeFor`,
+ * PostgreSQL also stores them, packed, as the inputs of the report of that id (written next, it
+ * references them): one statement, one snapshot, and no record crosses the wire twice.
  */
-export async function loadEventInputRecords(
+export async function loadEventInputs(
   eventId: string,
   tx: Tx,
   options: { storeFor?: string } = {},
-): Promise<InputRecord[]> {
+): Promise<InputColumns> {
   const packed = packedEventInputsSql(eventId);
   const r = options.storeFor
     ? await tx.execute<PackedText>(sql`
@@ -222,7 +288,16 @@ export async function loadEventInputRecords(
       SELECT ${options.storeFor}::uuid, p.* FROM (${packed}) p
       RETURNING ${PACKED_COLUMNS}`)
     : await tx.execute<PackedText>(sql`SELECT ${PACKED_COLUMNS} FROM (${packed}) i`);
-  return recordsOfRow(r.rows[0]!);
+  return columnsOfRow(r.rows[0]!);
+}
+
+/** The event's input records as a report would freeze them now (loadEventInputs), as records. */
+export async function loadEventInputRecords(
+  eventId: string,
+  tx: Tx,
+  options: { storeFor?: string } = {},
+): Promise<InputRecord[]> {
+  return recordsOfColumns(await loadEventInputs(eventId, tx, options));
 }
 
 /** Stores inputs the database did not pack itself (the bench and tests), for the report `reportId` is about to be. */

@@ -2,10 +2,10 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb, getReadDb, type Db, type Tx } from "../client";
 import { reports } from "../schema";
-import { PACKED_COLUMNS, recordsOfRow, type PackedText } from "./report-inputs";
+import { columnsOfRow, PACKED_COLUMNS, recordsOfRow, type PackedText } from "./report-inputs";
 import type { Results } from "@/lib/results/compute";
 import type { METHOD_NOTES } from "@/lib/results/methods";
-import type { InputRecord, ReportChanges } from "@/lib/results/records";
+import type { InputColumns, InputRecord, ReportChanges } from "@/lib/results/records";
 import { taxaMeta } from "./results";
 import type { Sensitivity } from "@/lib/domain";
 import { publicResults, type PublicPolicy } from "@/lib/results/public";
@@ -53,11 +53,11 @@ export async function inReportTransaction<T>(eventId: string, work: (tx: Tx) => 
   });
 }
 
-/** The newest version's number, input records and results, for the next version's changes. */
+/** The newest version's number, input records (column by column) and results, for the next version's changes. */
 export async function latestReportInputs(
   eventId: string,
   tx: Tx,
-): Promise<{ version: number; inputRecords: InputRecord[]; results: Results } | null> {
+): Promise<{ version: number; inputs: InputColumns; results: Results } | null> {
   // The newest version picked first: the packed columns are then read out of one row, not every version's.
   const [prev] = (
     await tx.execute<{ version: number; results: Results } & PackedText>(sql`
@@ -65,7 +65,7 @@ export async function latestReportInputs(
     FROM (SELECT id, version, results FROM reports WHERE event_id = ${eventId} ORDER BY version DESC LIMIT 1) r
     JOIN report_inputs i ON i.report_id = r.id`)
   ).rows;
-  return prev ? { version: prev.version, results: prev.results, inputRecords: recordsOfRow(prev) } : null;
+  return prev ? { version: prev.version, results: prev.results, inputs: columnsOfRow(prev) } : null;
 }
 
 export type NewReport = Omit<ReportRow, "publishedAt">;

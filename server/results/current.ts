@@ -15,9 +15,10 @@ import { forgetBootstraps } from "@/lib/results/compare";
 // rules.hill.bands false, the page says they are coming); those are then computed in a
 // worker thread and the entry replaced when they arrive, if nothing changed meanwhile. The
 // comparison's bootstrap stays on the first read: its verdicts need it. A change ends the
-// worker of the one before (one worker per event). Reports never take this path:
-// publishing computes everything at once.
-type Entry = { key: string; results: Results; json: string };
+// worker of the one before (one worker per event). Publishing reads its own inputs and
+// reuses these full results only when its input is the same (resultsWithBands).
+// `input`: what the full results (with their bands) were computed from, kept for publishing (resultsWithBands).
+type Entry = { key: string; results: Results; json: string; input?: ResultsInput };
 const cache = new Map<string, Entry>();
 const inflight = new Map<string, Promise<Entry>>();
 const MAX_EVENTS = 20;
@@ -62,7 +63,8 @@ function addBands(eventId: string, key: string, input: ResultsInput): void {
   job.result
     .catch(() => (workers.get(eventId) === mine ? JSON.stringify(computeResults(input)) : null))
     .then((json) => {
-      if (json && cache.get(eventId)?.key === key) store(eventId, { key, results: JSON.parse(json) as Results, json });
+      if (json && cache.get(eventId)?.key === key)
+        store(eventId, { key, results: JSON.parse(json) as Results, json, input });
     })
     .catch(() => undefined)
     .finally(() => {
@@ -87,7 +89,7 @@ export async function currentResults(eventId: string, options: { bands?: "later"
       const input = await loadResultsInput(eventId);
       const now = options.bands === "now";
       const results = computeResults(input, { bands: now });
-      const entry = { key, results, json: JSON.stringify(results) };
+      const entry: Entry = { key, results, json: JSON.stringify(results), ...(now ? { input } : {}) };
       store(eventId, entry);
       if (!now) addBands(eventId, key, input);
       return entry;
@@ -95,6 +97,16 @@ export async function currentResults(eventId: string, options: { bands?: "later"
     inflight.set(flightKey, pending);
   }
   return pending;
+}
+
+/**
+ * The event's full results (Hill bands and zone intervals included) as this process last computed
+ * them, with the input they came from; null until the worker's bands have arrived. Publishing reuses
+ * them when its own input is the same (the same input and seeds give the same numbers).
+ */
+export function resultsWithBands(eventId: string): { input: ResultsInput; json: string } | null {
+  const e = cache.get(eventId);
+  return e?.input && e.results.rules.hill.bands ? { input: e.input, json: e.json } : null;
 }
 
 /** For the benchmark's cold figure: forget every cached result and kept replicate, and end every worker, as after a restart. */

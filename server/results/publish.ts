@@ -2,14 +2,23 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { enqueueMail, type OutboxMail } from "@/db/queries/mail-queue";
 import { inReportTransaction, insertReport, latestReportInputs, reportRecipients } from "@/db/queries/reports";
-import { loadEventInputRecords } from "@/db/queries/report-inputs";
-import { eventZones, pendingCounts, taxaMeta } from "@/db/queries/results";
+import { loadEventInputs } from "@/db/queries/report-inputs";
+import { loadResultsInput, pendingCounts, taxaMeta } from "@/db/queries/results";
 import { env } from "@/lib/env";
 import { toLocale, translator } from "@/lib/i18n/translator";
 import type { Tx } from "@/db/client";
-import { canonicalJson, computeResults, type Pending } from "@/lib/results/compute";
+import { canonicalJson, computeResults, type Pending, type Results, type ResultsInput } from "@/lib/results/compute";
 import { METHOD_NOTES } from "@/lib/results/methods";
-import { diffRecords, inputFromRecords, inputHash, type ReportChanges } from "@/lib/results/records";
+import {
+  diffColumns,
+  inputFromColumns,
+  inputHashOfColumns,
+  recordsOfColumns,
+  taxonIdsOf,
+  type InputRecord,
+  type ReportChanges,
+} from "@/lib/results/records";
+import { resultsWithBands } from "./current";
 import { besideEarlierForReport } from "./compare-events";
 
 /** Publishing while sightings wait for review needs `confirmPending` (the number is in the report). */
@@ -19,18 +28,44 @@ export class PendingRecordsError extends Error {
   }
 }
 
+/** An input in one canonical form (counts by zone, then taxon): equal forms give equal results. */
+export function inputKey(input: ResultsInput): string {
+  const counts = [...input.counts].sort((a, b) =>
+    a.zoneId < b.zoneId ? -1 : a.zoneId > b.zoneId ? 1 : a.taxon - b.taxon,
+  );
+  return canonicalJson({ ...input, counts });
+}
+
 /**
  * The next report version as publishing would freeze it, from one snapshot (`tx`): inputs,
  * results computed from exactly those inputs, and what changed since the previous version.
  * The preview shows this before anything is published (issue 16), through the same page.
+ *
+ * Speed (issue 18): the records are read (and, publishing, stored) by one statement while this
+ * thread computes the results from the aggregate tables' input, or takes them from the results
+ * page's own computation when that input is the same (resultsWithBands); The records' own input is then built and compared with
+ * the one the results came from: when they differ (a sighting changed between the statements),
+ * the results are computed again from the records. Hash, results input and changes are worked
+ * out on the records' columns, never as a million arrays.
  */
 export async function draftReport(eventId: string, tx: Tx, options: { storeFor?: string } = {}) {
   const pending = await pendingCounts(eventId, tx);
-  // Publishing stores the records as it reads them (report_inputs, under the new report's id).
-  const records = await loadEventInputRecords(eventId, tx, options);
-  const zones = await eventZones(eventId, tx);
-  const meta = await taxaMeta([...new Set(records.map((r) => r[2]))], tx, eventId);
-  const results = computeResults({ ...inputFromRecords(records, zones, meta), pending });
+  const fromAggregates: ResultsInput = { ...(await loadResultsInput(eventId, { db: tx, pending: false })), pending };
+  const inputsRead = loadEventInputs(eventId, tx, options);
+  // A failure is met where it is awaited, after the computation below.
+  inputsRead.catch(() => undefined);
+  // The statement leaves before this thread is busy with the results.
+  await new Promise((resolve) => setImmediate(resolve));
+  const aggregateKey = inputKey(fromAggregates);
+  const computed = resultsWithBands(eventId);
+  let results: Results =
+    computed && inputKey(computed.input) === aggregateKey
+      ? (JSON.parse(computed.json) as Results)
+      : computeResults(fromAggregates);
+  const inputs = await inputsRead;
+  const meta = await taxaMeta(taxonIdsOf(inputs), tx, eventId);
+  const input = { ...inputFromColumns(inputs, fromAggregates.zones, meta), pending };
+  if (inputKey(input) !== aggregateKey) results = computeResults(input);
   const prev = await latestReportInputs(eventId, tx);
   const version = (prev?.version ?? 0) + 1;
   let changes: ReportChanges | Record<string, never> = {};
@@ -39,11 +74,24 @@ export async function draftReport(eventId: string, tx: Tx, options: { storeFor?:
       ...prev.results.species.map((s) => [s.id, s.scientificName] as const),
       ...[...meta.values()].map((t) => [t.id, t.scientificName] as const),
     ]);
-    changes = diffRecords(prev.version, prev.inputRecords, records, (id) => names.get(id) ?? id);
+    changes = diffColumns(prev.version, prev.inputs, inputs, (id) => names.get(id) ?? id);
   }
   // Beside the newest earlier event of the site, as it stands now (shown by the report, not re-computed).
   const besideEarlier = await besideEarlierForReport(eventId, tx);
-  return { pending, records, results, version, changes, inputHash: inputHash(records), besideEarlier };
+  let records: InputRecord[] | undefined;
+  return {
+    pending,
+    /** The records themselves, built when asked for (the preview lists them). */
+    get records(): InputRecord[] {
+      return (records ??= recordsOfColumns(inputs));
+    },
+    inputCount: inputs.n,
+    results,
+    version,
+    changes,
+    inputHash: inputHashOfColumns(inputs),
+    besideEarlier,
+  };
 }
 
 /** The next version as the preview shows it, without publishing anything. */
