@@ -9,13 +9,14 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { migrationsFolder, runMigrations } from "@/db/migrate";
 import { loadEventInputRecords, PACKED_COLUMNS, recordsOfRow, type PackedText } from "@/db/queries/report-inputs";
 import { getReport, inReportTransaction } from "@/db/queries/reports";
-import { loadInputRecords } from "@/db/queries/results";
+import { loadInputRecords, loadResultsInput, pendingCounts } from "@/db/queries/results";
 import { APP_ROLE } from "@/db/roles";
 import * as s from "@/db/schema";
 import { canonicalJson, computeResults, NO_ZONE } from "@/lib/results/compute";
 import { inputFromRecords, inputHash, type InputRecord } from "@/lib/results/records";
 import { checkReport, recheckReport } from "@/server/results/check";
-import { publishReport } from "@/server/results/publish";
+import { currentResults, forgetResults, resultsWithBands } from "@/server/results/current";
+import { inputKey, publishReport } from "@/server/results/publish";
 import { dropDatabase, recreateEmptyDatabase } from "@/tests/support/test-db";
 import { db, makeFixture, refusal, sightingValues } from "./helpers";
 
@@ -129,6 +130,47 @@ describe("a report's input records in report_inputs", () => {
     );
     const moved = (await checkReport(f.event.id, 1))!;
     expect(moved.hashSame).toBe(false);
+  });
+
+  it("publish the results page's own results (bands included) when its input is the same, equal to results computed afresh", async () => {
+    // The results page's first read, then its worker's bands.
+    forgetResults();
+    await currentResults(f.event.id);
+    for (let waited = 0; !resultsWithBands(f.event.id) && waited < 60_000; waited += 50)
+      await new Promise((r) => setTimeout(r, 50));
+    const page = resultsWithBands(f.event.id)!;
+    expect(page).not.toBeNull();
+    // What publishing compares: the page's input is the one publishing reads now, so its results are reused.
+    const now = await inReportTransaction(f.event.id, async (tx) => ({
+      ...(await loadResultsInput(f.event.id, { db: tx, pending: false })),
+      pending: await pendingCounts(f.event.id, tx),
+    }));
+    expect(inputKey(page.input)).toBe(inputKey(now));
+    const reused = await publishReport(f.event.id, f.user.id, { confirmPending: true, notify: false });
+    const report = (await getReport(f.event.id, reused.version, { withInputs: true }))!;
+    expect(canonicalJson(report.results)).toBe(canonicalJson(JSON.parse(page.json)));
+    expect(report.results.rules.hill.bands).toBe(true);
+    // The same numbers as computing from the stored records afresh, and the same hash.
+    const afresh = recheckReport(report);
+    expect(afresh).toMatchObject({ same: true, hashSame: true });
+    expect(canonicalJson(JSON.parse(canonicalJson(afresh.recomputed)))).toBe(canonicalJson(report.results));
+
+    // After a change the page has not seen, publishing computes the results itself, and they verify too.
+    await db().execute(
+      sql`UPDATE sightings SET review_state = 'approved' WHERE event_id = ${f.event.id} AND review_state = 'pending'`,
+    );
+    expect(inputKey(resultsWithBands(f.event.id)!.input)).not.toBe(
+      inputKey({
+        ...(await loadResultsInput(f.event.id, { pending: false })),
+        pending: await pendingCounts(f.event.id),
+      }),
+    );
+    const fresh = await publishReport(f.event.id, f.user.id, { notify: false });
+    const next = (await getReport(f.event.id, fresh.version, { withInputs: true }))!;
+    expect(recheckReport(next)).toMatchObject({ same: true, hashSame: true });
+    expect(next.changes).toMatchObject({ previousVersion: reused.version, added: 1, removed: 0, changed: 0 });
+    expect(next.results.totals.individuals).toBe(report.results.totals.individuals + 3);
+    forgetResults();
   });
 });
 
