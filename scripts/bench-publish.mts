@@ -1,9 +1,13 @@
 // Benchmark of publishing a report of the 1,000,000-sighting event (issue 18, "Publishing at
 // scale"): the database and event of scripts/bench-results.mts (run first, and seeded by it when
-// missing), migrated to the latest here. Times each step of the publish path once, in a
-// transaction rolled back (reading and storing the records, results with and without the Hill
-// bands, the previous version and what changed, the hash, the report row), then publishes for real `--runs` times
-// (one more sighting approved before each) and measures what one report occupies on disk.
+// missing), migrated to the latest here. Times each step of the publish path once, one after the
+// other, in a transaction rolled back (the aggregate tables' input, reading and storing the records,
+// results with and without the Hill bands, the records' input, the previous version and what changed,
+// the hash, the report row; publishing itself overlaps the records' statement with the results), then
+// publishes for real `--runs` times two ways (one more sighting approved before each): cold, nothing
+// computed in this process, and after the results page's read and its worker's bands (which
+// publishing reuses when the input is the same); checks the last report re-computes to the same
+// results and hash, and measures what one report occupies on disk.
 //
 //   ECOTONE_PG_PORT=… ECOTONE_TEST_SUFFIX=… npx tsx scripts/bench-publish.mts [--runs=N]
 //

@@ -391,16 +391,21 @@ export function diffColumns(
 ): ReportChanges {
   if (!idsSorted(before) || !idsSorted(after))
     return diffRecords(previousVersion, recordsOfColumns(before), recordsOfColumns(after), nameOf);
-  const sb = places(before).session;
-  const sa = places(after).session;
+  const pb = places(before);
+  const pa = places(after);
+  const sb = pb.session;
+  const sa = pa.session;
   const skip = (c: InputColumns, s: Uint8Array, i: number) => s[c.states[i]!] === 1;
-  // The same string has its own place in each version's words: compared through the strings.
-  const same = (
-    k: "states" | "taxa" | "zones" | "sessions" | "sessionZones",
-    i: number,
-    j: number,
-    nullable: boolean,
-  ) => wordOf(before, before[k][i]!, nullable) === wordOf(after, after[k][j]!, nullable);
+  // The same string has its own place in each version's words: each place of the earlier version's
+  // words mapped to the later one's (first) place of that string, -1 when it has none; 0 stays 0 (null).
+  const placeAfter = new Map<string, number>();
+  after.words.forEach((w, k) => placeAfter.has(w) || placeAfter.set(w, k + 1));
+  const remap = new Int32Array(before.words.length + 1);
+  before.words.forEach((w, k) => (remap[k + 1] = placeAfter.get(w) ?? -1));
+  const mapped = (p: number) => (p >= 0 && p < remap.length ? remap[p]! : -2);
+  const canonAfter = (p: number) => (p >= 0 && p < pa.canon.length ? pa.canon[p]! : -3);
+  const same = (k: "states" | "taxa" | "zones" | "sessions" | "sessionZones", i: number, j: number) =>
+    mapped(before[k][i]!) === canonAfter(after[k][j]!);
   let added = 0;
   let changed = 0;
   let removed = 0;
@@ -422,11 +427,11 @@ export function diffColumns(
       added++;
     } else if (
       before.counts[i] !== after.counts[j] ||
-      !same("states", i, j, false) ||
-      !same("taxa", i, j, false) ||
-      !same("zones", i, j, false) ||
-      !same("sessions", i, j, true) ||
-      !same("sessionZones", i, j, true)
+      !same("states", i, j) ||
+      !same("taxa", i, j) ||
+      !same("zones", i, j) ||
+      !same("sessions", i, j) ||
+      !same("sessionZones", i, j)
     )
       changed++;
     if (order <= 0) {
