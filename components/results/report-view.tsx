@@ -257,7 +257,7 @@ export async function ReportView({
               geometry: c.geometry,
             }))}
             className="h-96 w-full rounded-lg border border-reed-200"
-            whenShown
+            onRequest
           />
         </MapSettingsProvider>
         <p className="text-sm text-ink-soft">{tMap("reportLegend", { size: GRID_DEGREES })}</p>

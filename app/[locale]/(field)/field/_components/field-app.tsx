@@ -4,8 +4,7 @@ import { useTranslations } from "next-intl";
 import { useCallback, useEffect, useRef, useState } from "react";
 import { announceChange, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
 import { openFieldDb, type FieldDatabase } from "@/lib/field/db";
-import { makeDueNow } from "@/lib/field/outbox";
-import { refreshPack, syncEvent, type SyncReport } from "@/lib/field/sync";
+import type { SyncReport } from "@/lib/field/sync";
 import type { KnownEvent } from "@/lib/field/types";
 import dynamic from "next/dynamic";
 
@@ -16,6 +15,11 @@ const EventLog = dynamic(() => import("./event-log").then((m) => m.EventLog), {
   ssr: false,
   loading: () => <Loading />,
 });
+
+// The sync client and the outbox's clock are fetched when an event is open, not with the chooser.
+const syncCode = () => import("@/lib/field/sync");
+const makeDueNow = (...args: Parameters<typeof import("@/lib/field/outbox").makeDueNow>) =>
+  import("@/lib/field/outbox").then((m) => m.makeDueNow(...args));
 
 function Loading() {
   const t = useTranslations("FieldLog");
@@ -70,6 +74,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     try {
       do {
         again.current = false;
+        const { syncEvent } = await syncCode();
         const report = await syncEvent(db, eventId, Date.now, announceChange);
         setSync({ running: false, last: { ...report, at: Date.now() } });
         // The status says what actually happened: an answer from the server means online.
@@ -96,16 +101,18 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     const open = async () => {
       if (navigator.onLine) {
         // navigator.onLine can say "online" with no way out; a failed fetch is the truth.
-        const r = await refreshPack(db, eventId).then(
-          (x) => {
-            setOnline(true);
-            return x;
-          },
-          () => {
-            setOnline(false);
-            return null;
-          },
-        );
+        const r = await syncCode()
+          .then(({ refreshPack }) => refreshPack(db, eventId))
+          .then(
+            (x) => {
+              setOnline(true);
+              return x;
+            },
+            () => {
+              setOnline(false);
+              return null;
+            },
+          );
         if (r?.changed) setPackVersion((v) => v + 1);
       }
       await runSync();
