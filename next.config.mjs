@@ -24,8 +24,11 @@ const nextConfig = {
       ? [{ key: "Strict-Transport-Security", value: "max-age=63072000; includeSubDomains" }]
       : [];
     return [
+      // Next's hashed static files (scripts, styles, fonts) need only nosniff: the other headers
+      // act on documents, and repeated on every script they cost ~0.2 KiB each (issue 18).
+      { source: "/_next/static/:path*", headers: [{ key: "X-Content-Type-Options", value: "nosniff" }] },
       {
-        source: "/:path*",
+        source: "/:path((?!_next/static/).*)",
         headers: [
           { key: "X-Content-Type-Options", value: "nosniff" },
           { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },

@@ -1,20 +1,17 @@
 "use client";
 
 import { useTranslations } from "next-intl";
-import { useCallback, useEffect, useRef, useState } from "react";
+import { lazy, Suspense, useCallback, useEffect, useRef, useState } from "react";
 import { announceChange, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
 import { openFieldDb, type FieldDatabase } from "@/lib/field/db";
 import type { SyncReport } from "@/lib/field/sync";
 import type { KnownEvent } from "@/lib/field/types";
-import dynamic from "next/dynamic";
 
 // An event's log (the list, the session panel, the map, the species search) is fetched once an
 // event is chosen, from the service worker's precache when offline; the first load carries only
-// the chooser (issue 18).
-const EventLog = dynamic(() => import("./event-log").then((m) => m.EventLog), {
-  ssr: false,
-  loading: () => <Loading />,
-});
+// the chooser (issue 18). React's lazy rather than next/dynamic: the log is only ever drawn in the
+// browser (the storage opens there), and next/dynamic's loader is ~2 KiB more on the first load.
+const EventLog = lazy(() => import("./event-log").then((m) => ({ default: m.EventLog })));
 
 // The sync client and the outbox's clock are fetched when an event is open, not with the chooser.
 const syncCode = () => import("@/lib/field/sync");
@@ -180,16 +177,18 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
 
   const event = events.find((e) => e.id === eventId)!;
   return (
-    <EventLog
-      key={`${eventId}:${packVersion}`}
-      db={db}
-      event={event}
-      locale={locale}
-      online={online}
-      sync={sync}
-      onSyncNow={() => void makeDueNow(db, eventId).then(runSync)}
-      onSaved={afterSave}
-      onSwitchEvent={events.length > 1 ? () => setEventId(null) : undefined}
-    />
+    <Suspense fallback={<Loading />}>
+      <EventLog
+        key={`${eventId}:${packVersion}`}
+        db={db}
+        event={event}
+        locale={locale}
+        online={online}
+        sync={sync}
+        onSyncNow={() => void makeDueNow(db, eventId).then(runSync)}
+        onSaved={afterSave}
+        onSwitchEvent={events.length > 1 ? () => setEventId(null) : undefined}
+      />
+    </Suspense>
   );
 }
