@@ -52,8 +52,8 @@ export default async function LocaleLayout({
         >
           {t("skipToContent")}
         </a>
-        {/* The site header's and the error page's messages; each part of the site adds its own (components/client-messages.tsx). */}
-        <ClientMessages namespaces={["LocaleSwitcher", "SignIn", "MyData", "Errors"]}>
+        {/* The sign-out dialog's and the error page's messages; each part of the site adds its own (components/client-messages.tsx). */}
+        <ClientMessages namespaces={["SignIn", "MyData", "Errors"]}>
           <SiteHeader />
           <main id="main" className="mx-auto w-full max-w-5xl flex-1 px-4 py-6">
             {children}

@@ -34,7 +34,8 @@ export function RealMap(props: RealMapProps) {
   const t = useTranslations("Map");
   // Tiles: "unknown" until one loads or fails; a failure before any load means no tiles at all.
   const [tiles, setTiles] = useState<"unknown" | "ok" | "none">("unknown");
-  if (!settings || tiles === "none") {
+  const [asked, setAsked] = useState(false);
+  if (!settings || tiles === "none" || (props.onRequest && !asked)) {
     return (
       <div className="space-y-1" data-map="svg">
         <ZoneMap
@@ -46,7 +47,16 @@ export function RealMap(props: RealMapProps) {
           onPlace={props.onPlace}
           className="w-full touch-none rounded-lg border-2 border-reed-700 bg-white"
         />
-        {settings ? <p className="text-sm text-ink-soft">{t("noTiles")}</p> : null}
+        {settings && tiles === "none" ? <p className="text-sm text-ink-soft">{t("noTiles")}</p> : null}
+        {settings && tiles !== "none" && props.onRequest ? (
+          <button
+            type="button"
+            onClick={() => setAsked(true)}
+            className="min-h-touch rounded-lg border-2 border-reed-700 bg-white px-4 font-semibold text-reed-900"
+          >
+            {t("showRecords")}
+          </button>
+        ) : null}
       </div>
     );
   }

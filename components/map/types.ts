@@ -29,4 +29,9 @@ export type RealMapProps = {
   className?: string;
   /** Load and draw the map only when it comes near the screen (pages where it sits below the fold). */
   whenShown?: boolean;
+  /**
+   * Show the SVG zone map and load the real map (Leaflet, tiles, the records) only when the
+   * reader asks: Leaflet and its drawing stay out of the page's first load (issue 18).
+   */
+  onRequest?: boolean;
 };

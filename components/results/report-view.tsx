@@ -13,7 +13,7 @@ import { ResultsBody } from "@/components/results/results-body";
 import { EventsComparison } from "@/components/results/events-comparison";
 import type { ReportBesideEarlier } from "@/lib/results/compare-events";
 import { EstimateCaution } from "@/components/results/zone-comparison";
-import { Link } from "@/lib/i18n/navigation";
+import { LocaleLink as Link } from "@/components/locale-link";
 import type { Results } from "@/lib/results/compute";
 import type { METHOD_NOTES } from "@/lib/results/methods";
 import type { InputRecord, ReportChanges } from "@/lib/results/records";
@@ -257,7 +257,7 @@ export async function ReportView({
               geometry: c.geometry,
             }))}
             className="h-96 w-full rounded-lg border border-reed-200"
-            whenShown
+            onRequest
           />
         </MapSettingsProvider>
         <p className="text-sm text-ink-soft">{tMap("reportLegend", { size: GRID_DEGREES })}</p>

@@ -1,21 +1,22 @@
 "use client";
 
 import { useTranslations } from "next-intl";
-import { useCallback, useEffect, useRef, useState } from "react";
+import { lazy, Suspense, useCallback, useEffect, useRef, useState } from "react";
 import { announceChange, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
 import { openFieldDb, type FieldDatabase } from "@/lib/field/db";
-import { makeDueNow } from "@/lib/field/outbox";
-import { refreshPack, syncEvent, type SyncReport } from "@/lib/field/sync";
+import type { SyncReport } from "@/lib/field/sync";
 import type { KnownEvent } from "@/lib/field/types";
-import dynamic from "next/dynamic";
 
 // An event's log (the list, the session panel, the map, the species search) is fetched once an
 // event is chosen, from the service worker's precache when offline; the first load carries only
-// the chooser (issue 18).
-const EventLog = dynamic(() => import("./event-log").then((m) => m.EventLog), {
-  ssr: false,
-  loading: () => <Loading />,
-});
+// the chooser (issue 18). React's lazy rather than next/dynamic: the log is only ever drawn in the
+// browser (the storage opens there), and next/dynamic's loader is ~2 KiB more on the first load.
+const EventLog = lazy(() => import("./event-log").then((m) => ({ default: m.EventLog })));
+
+// The sync client and the outbox's clock are fetched when an event is open, not with the chooser.
+const syncCode = () => import("@/lib/field/sync");
+const makeDueNow = (...args: Parameters<typeof import("@/lib/field/outbox").makeDueNow>) =>
+  import("@/lib/field/outbox").then((m) => m.makeDueNow(...args));
 
 function Loading() {
   const t = useTranslations("FieldLog");
@@ -70,6 +71,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     try {
       do {
         again.current = false;
+        const { syncEvent } = await syncCode();
         const report = await syncEvent(db, eventId, Date.now, announceChange);
         setSync({ running: false, last: { ...report, at: Date.now() } });
         // The status says what actually happened: an answer from the server means online.
@@ -96,16 +98,18 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     const open = async () => {
       if (navigator.onLine) {
         // navigator.onLine can say "online" with no way out; a failed fetch is the truth.
-        const r = await refreshPack(db, eventId).then(
-          (x) => {
-            setOnline(true);
-            return x;
-          },
-          () => {
-            setOnline(false);
-            return null;
-          },
-        );
+        const r = await syncCode()
+          .then(({ refreshPack }) => refreshPack(db, eventId))
+          .then(
+            (x) => {
+              setOnline(true);
+              return x;
+            },
+            () => {
+              setOnline(false);
+              return null;
+            },
+          );
         if (r?.changed) setPackVersion((v) => v + 1);
       }
       await runSync();
@@ -173,16 +177,18 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
 
   const event = events.find((e) => e.id === eventId)!;
   return (
-    <EventLog
-      key={`${eventId}:${packVersion}`}
-      db={db}
-      event={event}
-      locale={locale}
-      online={online}
-      sync={sync}
-      onSyncNow={() => void makeDueNow(db, eventId).then(runSync)}
-      onSaved={afterSave}
-      onSwitchEvent={events.length > 1 ? () => setEventId(null) : undefined}
-    />
+    <Suspense fallback={<Loading />}>
+      <EventLog
+        key={`${eventId}:${packVersion}`}
+        db={db}
+        event={event}
+        locale={locale}
+        online={online}
+        sync={sync}
+        onSyncNow={() => void makeDueNow(db, eventId).then(runSync)}
+        onSaved={afterSave}
+        onSwitchEvent={events.length > 1 ? () => setEventId(null) : undefined}
+      />
+    </Suspense>
   );
 }

@@ -13,7 +13,7 @@ import type { ArealGeometry } from "@/lib/geo/areal";
 import { mapSettings } from "@/server/map-settings";
 import { latestStandingVersion } from "@/db/queries/reports";
 import { eventPermitFor, getSessionUser } from "@/server/auth/guard";
-import { Link } from "@/lib/i18n/navigation";
+import { LocaleLink as Link } from "@/components/locale-link";
 
 /** Recording is open and the event's dates are now: the live board is worth a link. */
 function isRunning(e: { status: string; startsAt: Date; endsAt: Date }): boolean {

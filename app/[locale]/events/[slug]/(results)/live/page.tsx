@@ -6,6 +6,7 @@ import type { Locale } from "@/lib/i18n/routing";
 import { EstimateCaution } from "@/components/results/zone-comparison";
 import { LiveBoard, type LiveLabels } from "./_components/live-board";
 import { SUFFICIENCY } from "@/lib/results/settings";
+import { messageTemplate } from "@/lib/i18n/template";
 
 export const dynamic = "force-dynamic";
 
@@ -54,7 +55,7 @@ export default async function LivePage({ params }: Props) {
   const t = await getTranslations("Results");
   if (!permit) return <p role="alert">{t("notAllowed")}</p>;
   // Placeholders stay as {name} for the client to fill.
-  const raw = (k: Plain) => t.raw(`live.${k}`) as string;
+  const raw = (k: Plain) => messageTemplate(t.raw(`live.${k}`));
   const reasons = {
     "reason.countUnits": t("tooFew.reasons.countUnits", {
       units: [t("unit.stems"), t("unit.clumps"), t("unit.colonies"), t("unit.presence")].join(", "),
@@ -66,12 +67,12 @@ export default async function LivePage({ params }: Props) {
   };
   // The results page's own sentences: the verdict rule, the kind of data compared, pending records.
   const shared = {
-    "verdict.more": t.raw("betweenEvents.sentence.more") as string,
-    "verdict.fewer": t.raw("betweenEvents.sentence.fewer") as string,
-    "verdict.noClearDifference": t.raw("betweenEvents.sentence.noClearDifference") as string,
+    "verdict.more": messageTemplate(t.raw("betweenEvents.sentence.more")),
+    "verdict.fewer": messageTemplate(t.raw("betweenEvents.sentence.fewer")),
+    "verdict.noClearDifference": messageTemplate(t.raw("betweenEvents.sentence.noClearDifference")),
     "kind.abundance": t("comparison.kindAbundance"),
     "kind.incidence": t("comparison.kindIncidence"),
-    pendingBody: t.raw("pending.body") as string,
+    pendingBody: messageTemplate(t.raw("pending.body")),
   };
   const labels = { ...Object.fromEntries(KEYS.map((k) => [k, raw(k)])), ...reasons, ...shared } as LiveLabels;
   return (

@@ -6,7 +6,7 @@ import { listReports } from "@/db/queries/reports";
 import { ResultsBody } from "@/components/results/results-body";
 import { EstimateCaution } from "@/components/results/zone-comparison";
 import { requirePageEventRole } from "@/server/auth/page";
-import { Link } from "@/lib/i18n/navigation";
+import { LocaleLink as Link } from "@/components/locale-link";
 import type { Locale } from "@/lib/i18n/routing";
 import { currentResults } from "@/server/results/current";
 import { comparisonWithEarlier } from "@/server/results/compare-events";

@@ -8,7 +8,7 @@ import { requirePageEventRole } from "@/server/auth/page";
 import { previewReport } from "@/server/results/publish";
 import { canonicalJson, type Results } from "@/lib/results/compute";
 import { METHOD_NOTES } from "@/lib/results/methods";
-import { Link } from "@/lib/i18n/navigation";
+import { LocaleLink as Link } from "@/components/locale-link";
 import type { Locale } from "@/lib/i18n/routing";
 import { PreviewPublish } from "./preview-publish";
 
