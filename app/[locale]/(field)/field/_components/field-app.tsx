@@ -2,8 +2,9 @@
 
 import { useTranslations } from "next-intl";
 import { useCallback, useEffect, useRef, useState } from "react";
-import { announceChange, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
+import { announceChange, announceToOtherTabs, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
 import { openFieldDb, type FieldDatabase } from "@/lib/field/db";
+import { later } from "@/lib/field/later";
 import { makeDueNow } from "@/lib/field/outbox";
 import { refreshPack, syncEvent, type SyncReport } from "@/lib/field/sync";
 import type { KnownEvent } from "@/lib/field/types";
@@ -28,6 +29,11 @@ const PERIOD_MS = 30_000;
 // even where the browser never fires "online". Common practice for a foreground retry.
 const OFFLINE_RETRY_MS = 3_000;
 const LAST_EVENT = "lastEvent";
+// The send after a save waits for a pause in saving and an idle moment (lib/field/later.ts), so
+// a save never waits behind the sender's IndexedDB transactions (issue 18). Our choice: long
+// enough to cover the next tap of a volunteer saving in a row, short enough to feel immediate.
+const SEND_AFTER_SAVE_MS = 1_500;
+const SEND_IDLE_MS = 1_000;
 
 export type SyncStatus = { running: boolean; last?: SyncReport & { at: number } };
 
@@ -127,11 +133,34 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     };
   }, [db, eventId, runSync, online]);
 
-  const afterSave = useCallback(() => {
-    announceChange();
-    void requestBackgroundSync();
-    void runSync();
+  // After a save: the record is stored (its transaction has completed); this tab's list shows it
+  // already. The send follows once saving pauses; hiding or leaving the page sends at once,
+  // and the service worker's Background Sync (or the next opening) sends what is left.
+  const sendLater = useRef<ReturnType<typeof later> | null>(null);
+  useEffect(() => {
+    const send = () => {
+      void requestBackgroundSync();
+      void runSync();
+    };
+    const l = later(send, SEND_AFTER_SAVE_MS, SEND_IDLE_MS);
+    sendLater.current = l;
+    const hidden = () => {
+      if (document.visibilityState === "hidden") l.flush();
+    };
+    document.addEventListener("visibilitychange", hidden);
+    window.addEventListener("pagehide", l.flush);
+    return () => {
+      document.removeEventListener("visibilitychange", hidden);
+      window.removeEventListener("pagehide", l.flush);
+      l.flush(); // the event or the database changes: what waits goes now, not never
+      sendLater.current = null;
+    };
   }, [runSync]);
+
+  const afterSave = useCallback(() => {
+    announceToOtherTabs();
+    sendLater.current?.schedule();
+  }, []);
 
   if (dbError)
     return (
