@@ -65,18 +65,20 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     );
   }, [locale, events]);
 
-  const runSync = useCallback(async () => {
-    if (!db || !eventId) return;
+  const runSync = useCallback(async (): Promise<SyncReport | undefined> => {
+    if (!db || !eventId) return undefined;
     if (running.current) {
       again.current = true; // asked while a send is on its way: go once more right after
-      return;
+      return { ran: false, sent: 0, refused: 0, photosSent: 0 };
     }
+    let last: SyncReport | undefined;
     running.current = true;
     setSync((s) => ({ ...s, running: true }));
     try {
       do {
         again.current = false;
         const report = await syncEvent(db, eventId, Date.now, announceChange);
+        last = report;
         setSync({ running: false, last: { ...report, at: Date.now() } });
         // The status says what actually happened: an answer from the server means online.
         if (report.problem === "offline") setOnline(false);
@@ -88,6 +90,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     } finally {
       running.current = false;
     }
+    return last;
   }, [db, eventId]);
 
   // Sync when the app opens, when the network returns, and every half minute while open.
@@ -138,20 +141,28 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
   // and the service worker's Background Sync (or the next opening) sends what is left.
   const sendLater = useRef<ReturnType<typeof later> | null>(null);
   useEffect(() => {
-    const send = () => {
-      void requestBackgroundSync();
-      void runSync();
-    };
+    // The page sends; the service worker's Background Sync is asked for only when the page may
+    // not finish (it is being left) or could not send (offline, server trouble), so the two do
+    // not walk the same stores one after the other after every save.
+    const send = () =>
+      void runSync().then((report) => {
+        if (!report || report.problem) void requestBackgroundSync();
+      });
     const l = later(send, SEND_AFTER_SAVE_MS, SEND_IDLE_MS);
     sendLater.current = l;
+    const leave = () => {
+      if (!l.pending()) return;
+      void requestBackgroundSync();
+      l.flush();
+    };
     const hidden = () => {
-      if (document.visibilityState === "hidden") l.flush();
+      if (document.visibilityState === "hidden") leave();
     };
     document.addEventListener("visibilitychange", hidden);
-    window.addEventListener("pagehide", l.flush);
+    window.addEventListener("pagehide", leave);
     return () => {
       document.removeEventListener("visibilitychange", hidden);
-      window.removeEventListener("pagehide", l.flush);
+      window.removeEventListener("pagehide", leave);
       l.flush(); // the event or the database changes: what waits goes now, not never
       sendLater.current = null;
     };
