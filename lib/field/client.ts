@@ -44,6 +44,11 @@ export function announceChange() {
   window.dispatchEvent(new Event(LOCAL_EVENT));
 }
 
+/** Tells the other tabs only: this tab already shows its own change (a save puts its record in the list itself). */
+export function announceToOtherTabs() {
+  getChannel()?.postMessage("changed");
+}
+
 export function onChange(listener: () => void): () => void {
   const ch = getChannel();
   const onSw = (e: MessageEvent) => {

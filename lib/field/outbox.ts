@@ -94,23 +94,30 @@ export async function takeBatch(
   now = Date.now(),
   max = MAX_BATCH_RECORDS,
 ): Promise<Batch> {
+  // Short transactions (issue 18): both reads at once, the writes queued without waiting on
+  // each, so a save on the same stores never waits long behind the sender.
   const tx = db.transaction(["sessions", "sightings"], "readwrite");
   const due = <T extends LocalSession | LocalSighting>(r: T) => r.state === "waiting" && r.nextTryAt <= now;
-  const sessions = (await tx.objectStore("sessions").index("byEvent").getAll(eventId))
+  const [allSessions, allSightings] = await Promise.all([
+    tx.objectStore("sessions").index("byEvent").getAll(eventId),
+    tx.objectStore("sightings").index("byEvent").getAll(eventId),
+  ]);
+  const sessions = allSessions
     .filter(due)
     .sort((a, b) => a.savedAt - b.savedAt)
-    .slice(0, max);
-  const sightings = (await tx.objectStore("sightings").index("byEvent").getAll(eventId))
+    .slice(0, max)
+    .map((s) => ({ ...s, state: "sending" as const, sendingRev: s.rev }));
+  const sightings = allSightings
     .filter(due)
     .sort((a, b) => a.savedAt - b.savedAt)
-    .slice(0, max - sessions.length);
-  for (const s of sessions) await tx.objectStore("sessions").put({ ...s, state: "sending", sendingRev: s.rev });
-  for (const s of sightings) await tx.objectStore("sightings").put({ ...s, state: "sending", sendingRev: s.rev });
-  await tx.done;
-  return {
-    sessions: sessions.map((s) => ({ ...s, state: "sending", sendingRev: s.rev })),
-    sightings: sightings.map((s) => ({ ...s, state: "sending", sendingRev: s.rev })),
-  };
+    .slice(0, max - sessions.length)
+    .map((s) => ({ ...s, state: "sending" as const, sendingRev: s.rev }));
+  await Promise.all([
+    ...sessions.map((s) => tx.objectStore("sessions").put(s)),
+    ...sightings.map((s) => tx.objectStore("sightings").put(s)),
+    tx.done,
+  ]);
+  return { sessions, sightings };
 }
 
 export function batchBody(batch: Batch): { sessions: SessionRecord[]; sightings: SightingRecord[] } {
@@ -128,16 +135,20 @@ type Taken = LocalSession | LocalSighting;
  */
 async function settleBatch(db: FieldDatabase, batch: Batch, next: (current: Taken, taken: Taken) => Taken | null) {
   const tx = db.transaction(["sessions", "sightings"], "readwrite");
-  for (const taken of [...batch.sessions, ...batch.sightings]) {
-    const store = tx.objectStore(taken.kind === "session" ? "sessions" : "sightings") as unknown as {
+  const taken = [...batch.sessions, ...batch.sightings];
+  const storeOf = (t: Taken) =>
+    tx.objectStore(t.kind === "session" ? "sessions" : "sightings") as unknown as {
       get(id: string): Promise<Taken | undefined>;
       put(v: Taken): Promise<unknown>;
     };
-    const current = await store.get(taken.id);
-    const changed = current ? next(current, taken) : null;
-    if (changed) await store.put(changed);
+  // Every read at once, then every write at once: two round trips, however large the batch.
+  const current = await Promise.all(taken.map((t) => storeOf(t).get(t.id)));
+  const writes: Promise<unknown>[] = [];
+  for (const [i, t] of taken.entries()) {
+    const changed = current[i] ? next(current[i]!, t) : null;
+    if (changed) writes.push(storeOf(t).put(changed));
   }
-  await tx.done;
+  await Promise.all([...writes, tx.done]);
 }
 
 /** A record still in flight goes back to waiting, to be tried again after a back-off. */
@@ -240,18 +251,34 @@ export async function refuseBatch(db: FieldDatabase, batch: Batch, reason: strin
   );
 }
 
-/** Walks every session, sighting and photo on the device; `next` returns the new value, or null to leave one alone. */
+/**
+ * Walks every session, sighting and photo on the device; `next` returns the new value, or null to
+ * leave one alone. A read-only pass finds what would change; only those are read again and
+ * written, in a short read-write transaction (a save never waits behind a walk of the whole
+ * device, issue 18); `next` sees the value as it is in that transaction.
+ */
 async function rewriteEvery(db: FieldDatabase, next: (v: LocalSession | LocalSighting | LocalPhoto) => object | null) {
-  const tx = db.transaction(["sessions", "sightings", "photos"], "readwrite");
-  for (const name of ["sessions", "sightings", "photos"] as const) {
-    let cursor = await tx.objectStore(name).openCursor();
-    while (cursor) {
-      const changed = next(cursor.value);
-      if (changed) await cursor.update(changed as never);
-      cursor = await cursor.continue();
-    }
+  const names = ["sessions", "sightings", "photos"] as const;
+  const read = db.transaction(names, "readonly");
+  const all = await Promise.all(names.map((name) => read.objectStore(name).getAll()));
+  await read.done;
+  const found = names.flatMap((name, i) =>
+    (all[i] as (LocalSession | LocalSighting | LocalPhoto)[]).filter((v) => next(v)).map((v) => ({ name, id: v.id })),
+  );
+  if (found.length === 0) return;
+  const tx = db.transaction(names, "readwrite");
+  const store = (name: (typeof names)[number]) =>
+    tx.objectStore(name) as unknown as {
+      get(id: string): Promise<LocalSession | LocalSighting | LocalPhoto | undefined>;
+      put(v: object): Promise<unknown>;
+    };
+  const current = await Promise.all(found.map((f) => store(f.name).get(f.id)));
+  const writes: Promise<unknown>[] = [];
+  for (const [i, f] of found.entries()) {
+    const changed = current[i] ? next(current[i]!) : null;
+    if (changed) writes.push(store(f.name).put(changed));
   }
-  await tx.done;
+  await Promise.all([...writes, tx.done]);
 }
 
 /**

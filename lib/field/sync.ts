@@ -5,7 +5,7 @@ import type { SightingRecord } from "@/lib/sync/records";
 import { backoffDelay } from "./backoff";
 import type { FieldDatabase } from "./db";
 import { applyAcks, batchBody, refuseBatch, releaseBatch, resetInFlight, takeBatch } from "./outbox";
-import type { EventPack, LocalPhoto, MineItem, StoredPack, TransientProblem } from "./types";
+import type { EventPack, LocalPhoto, LocalSighting, MineItem, StoredPack, TransientProblem } from "./types";
 
 // Sending the outbox: one sender at a time per device (Web Locks, shared by the tabs and
 // the service worker), batches of sessions and sightings, then photos of acknowledged
@@ -265,10 +265,21 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
   await db.put("mine", { eventId, fetchedAt: Date.now(), items });
   const stored = await db.get("packs", eventId);
   const locale = (globalThis.document?.documentElement.lang || globalThis.navigator?.language || "en").slice(0, 2);
+  // Which records change: found with one read-only read of the event's sightings, so the
+  // read-write transaction below is short and only there when something changed (a save on
+  // the same store never waits behind a long write of every record, issue 18).
+  const before = new Map((await db.getAllFromIndex("sightings", "byEvent", eventId)).map((s) => [s.id, s]));
+  const changes = items.flatMap((item, i) => {
+    const local = before.get(item.id);
+    const next = local ? mineState(local, item) : null;
+    return !local || next ? [{ item, row: raw[i]! }] : [];
+  });
+  if (changes.length === 0) return items;
   const tx = db.transaction("sightings", "readwrite");
-  for (const [i, item] of items.entries()) {
-    const row = raw[i]!;
-    const local = await tx.store.get(item.id);
+  const current = await Promise.all(changes.map((c) => tx.store.get(c.item.id)));
+  const writes: Promise<unknown>[] = [];
+  for (const [i, { item, row }] of changes.entries()) {
+    const local = current[i];
     if (!local) {
       // Sent from another phone, or before this one was cleared: kept as a sent record so
       // its review state shows, and a returned one can be answered from here.
@@ -279,43 +290,58 @@ export async function refreshMine(db: FieldDatabase, eventId: string): Promise<M
         ? (species.names[locale] ?? species.names.en ?? species.scientificName)
         : (row.scientificName ?? record.description);
       const at = Date.parse(record.observedAt);
-      await tx.store.put({
-        kind: "sighting",
-        id: item.id,
-        eventId,
-        state: "sent",
-        rev: 0,
-        attempts: 0,
-        nextTryAt: 0,
-        savedAt: at,
-        sentAt: at,
-        record,
-        taxonLabel: label,
-        reviewState: item.reviewState,
-        serverVersion: item.version,
-        question: item.reviewState === "returned" ? (item.question ?? undefined) : undefined,
-        rejectionReason: item.rejectionReason ?? undefined,
-        withdrawn: item.withdrawn,
-      });
+      writes.push(
+        tx.store.put({
+          kind: "sighting",
+          id: item.id,
+          eventId,
+          state: "sent",
+          rev: 0,
+          attempts: 0,
+          nextTryAt: 0,
+          savedAt: at,
+          sentAt: at,
+          record,
+          taxonLabel: label,
+          reviewState: item.reviewState,
+          serverVersion: item.version,
+          question: item.reviewState === "returned" ? (item.question ?? undefined) : undefined,
+          rejectionReason: item.rejectionReason ?? undefined,
+          withdrawn: item.withdrawn,
+        }),
+      );
       continue;
     }
     // A local edit waiting to go out keeps its own text; the states still update.
-    await tx.store.put({
-      ...local,
-      reviewState: item.reviewState,
-      serverVersion: item.version,
-      rejectionReason: item.rejectionReason ?? undefined,
-      withdrawn: item.withdrawn,
-      question:
-        item.reviewState === "returned"
-          ? (item.question ?? local.question)
-          : local.record.answer
-            ? local.question
-            : undefined,
-    });
+    const next = mineState(local, item);
+    if (next) writes.push(tx.store.put(next));
   }
-  await tx.done;
+  await Promise.all([...writes, tx.done]);
   return items;
+}
+
+/** A local sighting with the server's review state applied, or null when nothing changes. */
+function mineState(local: LocalSighting, item: MineItem): LocalSighting | null {
+  const next: LocalSighting = {
+    ...local,
+    reviewState: item.reviewState,
+    serverVersion: item.version,
+    rejectionReason: item.rejectionReason ?? undefined,
+    withdrawn: item.withdrawn,
+    question:
+      item.reviewState === "returned"
+        ? (item.question ?? local.question)
+        : local.record.answer
+          ? local.question
+          : undefined,
+  };
+  const same =
+    next.reviewState === local.reviewState &&
+    next.serverVersion === local.serverVersion &&
+    next.rejectionReason === local.rejectionReason &&
+    next.withdrawn === local.withdrawn &&
+    next.question === local.question;
+  return same ? null : next;
 }
 
 /** Downloads the event pack when it changed (ETag), and keeps it for offline use. */

@@ -272,3 +272,51 @@ test("Chromium finds the field log installable, and it opens offline after the b
   ).toContainText("Waiting");
   await context.close();
 });
+
+/** The sighting this page saved last (its id, from the phone's own store). */
+async function lastSavedId(page: Page): Promise<string> {
+  return page.evaluate(async () => {
+    const open = indexedDB.open("ecotone-field");
+    const idb: IDBDatabase = await new Promise((res, rej) => {
+      open.onsuccess = () => res(open.result);
+      open.onerror = () => rej(open.error);
+    });
+    const all = await new Promise<{ id: string; savedAt: number; rev: number }[]>((res) => {
+      const r = idb.transaction("sightings").objectStore("sightings").getAll();
+      r.onsuccess = () => res(r.result);
+    });
+    idb.close();
+    return all.filter((s) => s.rev > 0).sort((a, b) => b.savedAt - a.savedAt)[0]!.id;
+  });
+}
+
+const storedOnServer = (id: string) =>
+  withE2eDb(async (c) => (await c.query(`SELECT count(*)::int AS n FROM sightings WHERE id = $1`, [id])).rows[0].n);
+
+// The send waits for a pause after a save (issue 18: the save returns without waiting behind
+// the sender): it still goes while the page stays open, and a sighting whose page was closed
+// straight after the save is sent on the next opening of the field log (or by the service worker).
+test("a sighting saved online is sent after the pause with the page open, and one whose page closed at once is sent by the next opening", async ({
+  page,
+  context,
+}) => {
+  await signInWithPassword(page, DEMO.volunteer);
+  await openFieldLog(page);
+  await addSighting(page, "robin", /European robin/);
+  const first = await lastSavedId(page);
+  // Shown at once as waiting on the phone, then sent with the page left open.
+  await expect(
+    page.getByRole("list", { name: "On this phone" }).getByRole("listitem").filter({ hasText: "European robin" }),
+  ).toHaveCount(1);
+  await expect.poll(() => storedOnServer(first), { timeout: 30_000 }).toBe(1);
+  await expect(page.getByText("Everything is sent.")).toBeVisible({ timeout: 30_000 });
+
+  await addSighting(page, "wren", /Eurasian wren/);
+  const second = await lastSavedId(page);
+  await page.close();
+  const next = await context.newPage();
+  await openFieldLog(next);
+  await expect.poll(() => storedOnServer(second), { timeout: 30_000 }).toBe(1);
+  await expect(next.getByText("Everything is sent.")).toBeVisible({ timeout: 30_000 });
+  expect(await storedOnServer(first)).toBe(1);
+});

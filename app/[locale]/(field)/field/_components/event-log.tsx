@@ -2,7 +2,7 @@
 
 import { useFormatter, useTranslations } from "next-intl";
 import dynamic from "next/dynamic";
-import { useEffect, useMemo, useState } from "react";
+import { memo, useEffect, useMemo, useState } from "react";
 import type { FieldDatabase } from "@/lib/field/db";
 import { deleteUnsent, withdrawSighting } from "@/lib/field/outbox";
 import { loadSchemas } from "@/lib/field/save";
@@ -38,7 +38,7 @@ const bigButton = "inline-flex min-h-touch items-center justify-center gap-2 rou
 export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, onSwitchEvent }: Props) {
   const t = useTranslations("FieldLog");
   const format = useFormatter();
-  const { data, reload } = useFieldData(db, event.id);
+  const { data, reload, putSighting } = useFieldData(db, event.id);
   const [editing, setEditing] = useState<LocalSighting | "new" | null>(null);
   // Closing the form gives focus back to the button that opened it (keyboard use, issue 17).
   useFocusReturn(editing === null ? null : editing === "new" ? "add-sighting" : `edit-${editing.id}`);
@@ -67,6 +67,14 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
     await reload();
     onSaved();
   };
+  // A sighting saved in the form: the stored record joins the list as it is, without reading
+  // every record of the event again; only that row is drawn anew (SightingRow is memoised).
+  const sightingSaved = (entry: LocalSighting, withPhotos: boolean) => {
+    if (withPhotos) return void saved();
+    setEditing(null);
+    putSighting(entry);
+    onSaved();
+  };
 
   if (editing) {
     return (
@@ -82,7 +90,7 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
         pack={data.pack?.pack ?? null}
         editing={editing === "new" ? null : editing}
         onCancel={() => setEditing(null)}
-        onSaved={saved}
+        onSaved={sightingSaved}
       />
     );
   }
@@ -233,8 +241,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
                 zone={zoneName(s.record.zoneId)}
                 when={when(s.record.observedAt)}
                 photos={data.photos.filter((p) => p.sightingId === s.id).length}
-                onEdit={() => setEditing(s)}
-                onDelete={() => void remove(s)}
+                onEdit={setEditing}
+                onDelete={remove}
               />
             ))}
             {loosePhotos.map((p) => (
@@ -268,8 +276,8 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
                 zone={zoneName(s.record.zoneId)}
                 when={when(s.record.observedAt)}
                 photos={data.photos.filter((p) => p.sightingId === s.id).length}
-                onEdit={() => setEditing(s)}
-                onWithdraw={() => void withdraw(s)}
+                onEdit={setEditing}
+                onWithdraw={withdraw}
               />
             ))}
           </ul>
@@ -298,7 +306,21 @@ export function EventLog({ db, event, locale, online, sync, onSyncNow, onSaved, 
   );
 }
 
-function SightingRow({
+// One row of the list, drawn again only when what it shows changed: a save, a send or a
+// review answer redraws its own row, not every row of the day (issue 18). The handlers are
+// given the row's sighting, so their identity does not matter.
+const SightingRow = memo(
+  SightingRowView,
+  (a, b) =>
+    a.zone === b.zone &&
+    a.when === b.when &&
+    a.photos === b.photos &&
+    !a.onDelete === !b.onDelete &&
+    !a.onWithdraw === !b.onWithdraw &&
+    (a.s === b.s || JSON.stringify(a.s) === JSON.stringify(b.s)),
+);
+
+function SightingRowView({
   s,
   zone,
   when,
@@ -311,9 +333,9 @@ function SightingRow({
   zone: string | null;
   when: string;
   photos: number;
-  onEdit: () => void;
-  onDelete?: () => void;
-  onWithdraw?: () => void;
+  onEdit: (s: LocalSighting) => void;
+  onDelete?: (s: LocalSighting) => void | Promise<void>;
+  onWithdraw?: (s: LocalSighting) => void | Promise<void>;
 }) {
   const t = useTranslations("FieldLog");
   const [confirming, setConfirming] = useState<"delete" | "withdraw" | null>(null);
@@ -377,7 +399,7 @@ function SightingRow({
               type="button"
               onClick={() => {
                 setConfirming(null);
-                (confirming === "delete" ? onDelete : onWithdraw)?.();
+                void (confirming === "delete" ? onDelete : onWithdraw)?.(s);
               }}
               className={`${small} border-signal bg-signal text-paper`}
             >
@@ -394,7 +416,7 @@ function SightingRow({
             <button
               id={`edit-${s.id}`}
               type="button"
-              onClick={onEdit}
+              onClick={() => onEdit(s)}
               className={small}
               aria-label={`${returned ? t("answer") : t("edit")}: ${s.taxonLabel}`}
             >
@@ -405,7 +427,7 @@ function SightingRow({
             <button
               id={`edit-${s.id}`}
               type="button"
-              onClick={onEdit}
+              onClick={() => onEdit(s)}
               className={small}
               aria-label={`${t("correct")}: ${s.taxonLabel}`}
             >

@@ -2,8 +2,9 @@
 
 import { useTranslations } from "next-intl";
 import { lazy, Suspense, useCallback, useEffect, useRef, useState } from "react";
-import { announceChange, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
+import { announceChange, announceToOtherTabs, registerServiceWorker, requestBackgroundSync } from "@/lib/field/client";
 import { openFieldDb, type FieldDatabase } from "@/lib/field/db";
+import { later } from "@/lib/field/later";
 import type { SyncReport } from "@/lib/field/sync";
 import type { KnownEvent } from "@/lib/field/types";
 
@@ -29,6 +30,11 @@ const PERIOD_MS = 30_000;
 // even where the browser never fires "online". Common practice for a foreground retry.
 const OFFLINE_RETRY_MS = 3_000;
 const LAST_EVENT = "lastEvent";
+// The send after a save waits for a pause in saving and an idle moment (lib/field/later.ts), so
+// a save never waits behind the sender's IndexedDB transactions (issue 18). Our choice: long
+// enough to cover the next tap of a volunteer saving in a row, short enough to feel immediate.
+const SEND_AFTER_SAVE_MS = 1_500;
+const SEND_IDLE_MS = 1_000;
 
 export type SyncStatus = { running: boolean; last?: SyncReport & { at: number } };
 
@@ -60,12 +66,13 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     );
   }, [locale, events]);
 
-  const runSync = useCallback(async () => {
-    if (!db || !eventId) return;
+  const runSync = useCallback(async (): Promise<SyncReport | undefined> => {
+    if (!db || !eventId) return undefined;
     if (running.current) {
       again.current = true; // asked while a send is on its way: go once more right after
-      return;
+      return { ran: false, sent: 0, refused: 0, photosSent: 0 };
     }
+    let last: SyncReport | undefined;
     running.current = true;
     setSync((s) => ({ ...s, running: true }));
     try {
@@ -73,6 +80,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
         again.current = false;
         const { syncEvent } = await syncCode();
         const report = await syncEvent(db, eventId, Date.now, announceChange);
+        last = report;
         setSync({ running: false, last: { ...report, at: Date.now() } });
         // The status says what actually happened: an answer from the server means online.
         if (report.problem === "offline") setOnline(false);
@@ -84,6 +92,7 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     } finally {
       running.current = false;
     }
+    return last;
   }, [db, eventId]);
 
   // Sync when the app opens, when the network returns, and every half minute while open.
@@ -131,11 +140,42 @@ export function FieldApp({ locale, events }: { locale: string; events: KnownEven
     };
   }, [db, eventId, runSync, online]);
 
-  const afterSave = useCallback(() => {
-    announceChange();
-    void requestBackgroundSync();
-    void runSync();
+  // After a save: the record is stored (its transaction has completed); this tab's list shows it
+  // already. The send follows once saving pauses; hiding or leaving the page sends at once,
+  // and the service worker's Background Sync (or the next opening) sends what is left.
+  const sendLater = useRef<ReturnType<typeof later> | null>(null);
+  useEffect(() => {
+    // The page sends; the service worker's Background Sync is asked for only when the page may
+    // not finish (it is being left) or could not send (offline, server trouble), so the two do
+    // not walk the same stores one after the other after every save.
+    const send = () =>
+      void runSync().then((report) => {
+        if (!report || report.problem) void requestBackgroundSync();
+      });
+    const l = later(send, SEND_AFTER_SAVE_MS, SEND_IDLE_MS);
+    sendLater.current = l;
+    const leave = () => {
+      if (!l.pending()) return;
+      void requestBackgroundSync();
+      l.flush();
+    };
+    const hidden = () => {
+      if (document.visibilityState === "hidden") leave();
+    };
+    document.addEventListener("visibilitychange", hidden);
+    window.addEventListener("pagehide", leave);
+    return () => {
+      document.removeEventListener("visibilitychange", hidden);
+      window.removeEventListener("pagehide", leave);
+      l.flush(); // the event or the database changes: what waits goes now, not never
+      sendLater.current = null;
+    };
   }, [runSync]);
+
+  const afterSave = useCallback(() => {
+    announceToOtherTabs();
+    sendLater.current?.schedule();
+  }, []);
 
   if (dbError)
     return (

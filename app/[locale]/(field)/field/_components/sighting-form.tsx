@@ -26,7 +26,7 @@ type Props = {
   pack: EventPack | null; // the event's dates and area, and the species' groups, for the checks at save
   editing: LocalSighting | null;
   onCancel: () => void;
-  onSaved: () => void;
+  onSaved: (entry: LocalSighting, withPhotos: boolean) => void; // the record as stored
 };
 
 type Place = { latitude: number; longitude: number; accuracyM: number; manual: boolean };
@@ -189,7 +189,7 @@ export function SightingForm({
     }
     saving.current = true;
     try {
-      await saveSighting(
+      const entry = await saveSighting(
         db,
         eventId,
         record,
@@ -199,7 +199,7 @@ export function SightingForm({
       // The species' use count (the search's order) is kept without holding up the save.
       if (!unidentified && species) void db.put("meta", recordUsage(usage, species.taxonId), USAGE).catch(() => {});
       performance.measure("ecotone:save-sighting", SAVE_MARK);
-      onSaved();
+      onSaved(entry, photos.length > 0);
     } catch (err) {
       saving.current = false;
       setErrors({

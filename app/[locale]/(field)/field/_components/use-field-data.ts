@@ -34,6 +34,16 @@ export function useFieldData(db: FieldDatabase | null, eventId: string | null) {
     if (!db || !eventId) return;
     setHeld({ eventId, data: await readEvent(db, eventId) });
   }, [db, eventId]);
+  // A sighting this tab has just saved goes into the list as stored, without reading the whole event again.
+  const putSighting = useCallback(
+    (entry: LocalSighting) =>
+      setHeld((h) =>
+        h.eventId === entry.eventId
+          ? { ...h, data: { ...h.data, sightings: [...h.data.sightings.filter((s) => s.id !== entry.id), entry] } }
+          : h,
+      ),
+    [],
+  );
   useEffect(() => {
     if (!db || !eventId) return;
     let live = true;
@@ -48,5 +58,5 @@ export function useFieldData(db: FieldDatabase | null, eventId: string | null) {
       off();
     };
   }, [db, eventId]);
-  return { data: held.eventId === eventId ? held.data : empty, reload };
+  return { data: held.eventId === eventId ? held.data : empty, reload, putSighting };
 }
