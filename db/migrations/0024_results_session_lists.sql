@@ -1,7 +1,7 @@
 CREATE TABLE "result_session_lists" (
 	"event_id" uuid NOT NULL,
 	"session_id" uuid NOT NULL,
-	"taxa" integer[] NOT NULL,
+	"taxa" text NOT NULL,
 	CONSTRAINT "result_session_lists_event_id_session_id_pk" PRIMARY KEY("event_id","session_id")
 );
 --> statement-breakpoint
@@ -14,8 +14,9 @@ CREATE TABLE "result_taxon_codes" (
 ALTER TABLE "result_taxon_codes" ADD CONSTRAINT "result_taxon_codes_taxon_id_taxa_id_fk" FOREIGN KEY ("taxon_id") REFERENCES "public"."taxa"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 -- Results' first read (issue 14): the presence list of every complete session was built on
 -- each read from result_session_taxa (one row per session and taxon, ~600,000 at a million
--- sightings, through string_agg). Now each session's list is kept as one sorted array of
--- taxon codes, changed by statement-level triggers on result_session_taxa itself: a code is
+-- sightings, through string_agg). Now each session's list is kept as one text of taxon codes
+-- (ascending, comma-separated: read as is, where an int[] column would cost about twice as
+-- much to send), changed by statement-level triggers on result_session_taxa itself: a code is
 -- added when a (session, taxon) row becomes present (sightings > 0) and removed when it stops
 -- being present. Adding and removing are applied to the row as it is when locked, so two
 -- transactions changing the same session's taxa both land, in either order; the row locks
@@ -47,16 +48,18 @@ BEGIN
   IF TG_OP <> 'DELETE' THEN
     EXECUTE format($q$
       INSERT INTO result_session_lists AS l (event_id, session_id, taxa)
-        SELECT ch.event_id, ch.session_id, array_agg(c.code ORDER BY c.code)
+        SELECT ch.event_id, ch.session_id, string_agg(c.code::text, ',' ORDER BY c.code)
         FROM (%s) ch JOIN result_taxon_codes c ON c.taxon_id = ch.taxon_id
         WHERE ch.added GROUP BY 1, 2 ORDER BY 1, 2
       ON CONFLICT (event_id, session_id) DO UPDATE
-        SET taxa = ARRAY(SELECT DISTINCT x FROM unnest(l.taxa || excluded.taxa) x ORDER BY x)
+        SET taxa = (SELECT string_agg(x::text, ',' ORDER BY x) FROM (
+          SELECT DISTINCT x FROM unnest(string_to_array(l.taxa, ',')::int[] || string_to_array(excluded.taxa, ',')::int[]) x) d)
     $q$, changes);
   END IF;
   IF TG_OP <> 'INSERT' THEN
     EXECUTE format($q$
-      UPDATE result_session_lists l SET taxa = ARRAY(SELECT x FROM unnest(l.taxa) x WHERE x <> ALL (r.codes) ORDER BY x)
+      UPDATE result_session_lists l SET taxa = coalesce((SELECT string_agg(x::text, ',' ORDER BY x)
+        FROM unnest(string_to_array(l.taxa, ',')::int[]) x WHERE x <> ALL (r.codes)), '')
       FROM (
         SELECT ch.event_id, ch.session_id, array_agg(c.code) AS codes
         FROM (%s) ch JOIN result_taxon_codes c ON c.taxon_id = ch.taxon_id
@@ -65,13 +68,13 @@ BEGIN
       WHERE l.event_id = r.event_id AND l.session_id = r.session_id
     $q$, changes);
     -- A session with no taxon left has no row (found through the partial index below).
-    DELETE FROM result_session_lists WHERE cardinality(taxa) = 0;
+    DELETE FROM result_session_lists WHERE taxa = '';
   END IF;
   RETURN NULL;
 END;
 $$;
 --> statement-breakpoint
-CREATE INDEX result_session_lists_empty_idx ON result_session_lists (event_id) WHERE cardinality(taxa) = 0;
+CREATE INDEX result_session_lists_empty_idx ON result_session_lists (event_id) WHERE taxa = '';
 --> statement-breakpoint
 CREATE TRIGGER result_session_taxa_lists_insert AFTER INSERT ON result_session_taxa
   REFERENCING NEW TABLE AS ecotone_lists_new FOR EACH STATEMENT EXECUTE FUNCTION ecotone_session_lists_sync();
@@ -86,6 +89,6 @@ CREATE TRIGGER result_session_taxa_lists_delete AFTER DELETE ON result_session_t
 INSERT INTO result_taxon_codes (taxon_id) SELECT id FROM taxa ORDER BY id;
 --> statement-breakpoint
 INSERT INTO result_session_lists (event_id, session_id, taxa)
-  SELECT st.event_id, st.session_id, array_agg(c.code ORDER BY c.code)
+  SELECT st.event_id, st.session_id, string_agg(c.code::text, ',' ORDER BY c.code)
   FROM result_session_taxa st JOIN result_taxon_codes c ON c.taxon_id = st.taxon_id
   WHERE st.sightings > 0 GROUP BY 1, 2;

@@ -138,14 +138,14 @@ export function loadResultsInputParts(
   // Results may lag a moment behind the primary: read from the replica when there is one,
   // unless the caller reads in a snapshot of its own (publishing).
   const db = options.db ?? getReadDb();
-  // Each complete session's taxa as one kept array of taxon codes (migration 0024), read as
-  // text; every complete session is a row, also when nothing in it is approved (an empty unit).
+  // Each complete session's taxa as one kept text of taxon codes (migration 0024); every
+  // complete session is a row, also when nothing in it is approved (an empty unit).
   const sessions =
     options.sessions === false
       ? Promise.resolve({ rows: [] as { zoneId: string | null; taxa: string | null }[] })
       : db.execute<{ zoneId: string | null; taxa: string | null }>(sql`
       WITH sz AS (${sessionZonesSql(eventId)})
-      SELECT sz.zone_id AS "zoneId", l.taxa::text AS taxa
+      SELECT sz.zone_id AS "zoneId", l.taxa
       FROM sz LEFT JOIN result_session_lists l ON l.event_id = ${eventId} AND l.session_id = sz.id
       ORDER BY sz.id`);
   const counted = (async () => {
@@ -174,9 +174,9 @@ export function loadResultsInputParts(
   // A session's taxa as indices into `taxa`, ascending; a code of a taxon outside the counts
   // (read a moment apart on another connection) is left out, as the join left it out before.
   const indices = (byCode: Map<number, number>, text: string | null): number[] => {
-    if (!text || text.length <= 2) return [];
+    if (!text) return [];
     const out: number[] = [];
-    for (const c of text.slice(1, -1).split(",")) {
+    for (const c of text.split(",")) {
       const i = byCode.get(Number(c));
       if (i !== undefined) out.push(i);
     }

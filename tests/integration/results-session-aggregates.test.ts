@@ -98,9 +98,9 @@ async function rowsMatch(eventId: string) {
 /** Each session's kept taxon codes against its approved sightings; every taxon has a code. */
 async function listsMatch(eventId: string) {
   const kept = await db().execute<{ k: string }>(sql`
-    SELECT session_id || '|' || taxa::text AS k FROM result_session_lists WHERE event_id = ${eventId} ORDER BY 1`);
+    SELECT session_id || '|' || taxa AS k FROM result_session_lists WHERE event_id = ${eventId} ORDER BY 1`);
   const direct = await db().execute<{ k: string }>(sql`
-    SELECT s.session_id || '|' || array_agg(DISTINCT c.code ORDER BY c.code)::text AS k
+    SELECT s.session_id || '|' || array_to_string(array_agg(DISTINCT c.code ORDER BY c.code), ',') AS k
     FROM sightings s JOIN result_taxon_codes c ON c.taxon_id = s.taxon_id
     WHERE s.event_id = ${eventId} AND s.review_state = 'approved' AND s.session_id IS NOT NULL
     GROUP BY s.session_id ORDER BY 1`);
