@@ -33,42 +33,61 @@ $$;
 CREATE TRIGGER taxa_result_codes AFTER INSERT ON taxa
   REFERENCING NEW TABLE AS ecotone_new_taxa FOR EACH STATEMENT EXECUTE FUNCTION ecotone_taxon_codes_sync();
 --> statement-breakpoint
+-- A list with codes added, and with codes removed ('' when none is left); both ascending.
+CREATE OR REPLACE FUNCTION ecotone_codes_add(list text, more text) RETURNS text
+LANGUAGE sql IMMUTABLE AS $$
+  SELECT string_agg(x::text, ',' ORDER BY x)
+  FROM (SELECT DISTINCT x FROM unnest(string_to_array(list, ',')::int[] || string_to_array(more, ',')::int[]) x) d
+$$;
+--> statement-breakpoint
+CREATE OR REPLACE FUNCTION ecotone_codes_remove(list text, gone int[]) RETURNS text
+LANGUAGE sql IMMUTABLE AS $$
+  SELECT coalesce(string_agg(x::text, ',' ORDER BY x), '') FROM unnest(string_to_array(list, ',')::int[]) x WHERE x <> ALL (gone)
+$$;
+--> statement-breakpoint
+-- Static statements in one branch per operation (each trigger has its own transition tables),
+-- so their plans are kept; an update that changes no presence (one more sighting of a taxon
+-- already present, the usual approval) stops at the first check.
 CREATE OR REPLACE FUNCTION ecotone_session_lists_sync() RETURNS trigger
 LANGUAGE plpgsql AS $$
-DECLARE
-  changes text;
 BEGIN
-  -- Each (session, taxon) whose presence changed in this statement, and whether it is now present.
-  changes := CASE TG_OP
-    WHEN 'INSERT' THEN 'SELECT event_id, session_id, taxon_id, true AS added FROM ecotone_lists_new WHERE sightings > 0'
-    WHEN 'DELETE' THEN 'SELECT event_id, session_id, taxon_id, false AS added FROM ecotone_lists_old WHERE sightings > 0'
-    ELSE 'SELECT n.event_id, n.session_id, n.taxon_id, n.sightings > 0 AS added FROM ecotone_lists_new n
-          JOIN ecotone_lists_old o USING (event_id, session_id, taxon_id) WHERE (o.sightings > 0) <> (n.sightings > 0)'
-  END;
-  IF TG_OP <> 'DELETE' THEN
-    EXECUTE format($q$
+  IF TG_OP = 'INSERT' THEN
+    INSERT INTO result_session_lists AS l (event_id, session_id, taxa)
+      SELECT n.event_id, n.session_id, string_agg(c.code::text, ',' ORDER BY c.code)
+      FROM ecotone_lists_new n JOIN result_taxon_codes c ON c.taxon_id = n.taxon_id
+      WHERE n.sightings > 0 GROUP BY 1, 2 ORDER BY 1, 2
+    ON CONFLICT (event_id, session_id) DO UPDATE SET taxa = ecotone_codes_add(l.taxa, excluded.taxa);
+  ELSIF TG_OP = 'UPDATE' THEN
+    IF EXISTS (SELECT 1 FROM ecotone_lists_new n JOIN ecotone_lists_old o USING (event_id, session_id, taxon_id)
+               WHERE (o.sightings > 0) <> (n.sightings > 0)) THEN
       INSERT INTO result_session_lists AS l (event_id, session_id, taxa)
-        SELECT ch.event_id, ch.session_id, string_agg(c.code::text, ',' ORDER BY c.code)
-        FROM (%s) ch JOIN result_taxon_codes c ON c.taxon_id = ch.taxon_id
-        WHERE ch.added GROUP BY 1, 2 ORDER BY 1, 2
-      ON CONFLICT (event_id, session_id) DO UPDATE
-        SET taxa = (SELECT string_agg(x::text, ',' ORDER BY x) FROM (
-          SELECT DISTINCT x FROM unnest(string_to_array(l.taxa, ',')::int[] || string_to_array(excluded.taxa, ',')::int[]) x) d)
-    $q$, changes);
-  END IF;
-  IF TG_OP <> 'INSERT' THEN
-    EXECUTE format($q$
-      UPDATE result_session_lists l SET taxa = coalesce((SELECT string_agg(x::text, ',' ORDER BY x)
-        FROM unnest(string_to_array(l.taxa, ',')::int[]) x WHERE x <> ALL (r.codes)), '')
+        SELECT n.event_id, n.session_id, string_agg(c.code::text, ',' ORDER BY c.code)
+        FROM ecotone_lists_new n JOIN ecotone_lists_old o USING (event_id, session_id, taxon_id)
+        JOIN result_taxon_codes c ON c.taxon_id = n.taxon_id
+        WHERE n.sightings > 0 AND o.sightings <= 0 GROUP BY 1, 2 ORDER BY 1, 2
+      ON CONFLICT (event_id, session_id) DO UPDATE SET taxa = ecotone_codes_add(l.taxa, excluded.taxa);
+      UPDATE result_session_lists l SET taxa = ecotone_codes_remove(l.taxa, r.codes)
       FROM (
-        SELECT ch.event_id, ch.session_id, array_agg(c.code) AS codes
-        FROM (%s) ch JOIN result_taxon_codes c ON c.taxon_id = ch.taxon_id
-        WHERE NOT ch.added GROUP BY 1, 2
+        SELECT o.event_id, o.session_id, array_agg(c.code) AS codes
+        FROM ecotone_lists_new n JOIN ecotone_lists_old o USING (event_id, session_id, taxon_id)
+        JOIN result_taxon_codes c ON c.taxon_id = o.taxon_id
+        WHERE o.sightings > 0 AND n.sightings <= 0 GROUP BY 1, 2
       ) r
-      WHERE l.event_id = r.event_id AND l.session_id = r.session_id
-    $q$, changes);
-    -- A session with no taxon left has no row (found through the partial index below).
-    DELETE FROM result_session_lists WHERE taxa = '';
+      WHERE l.event_id = r.event_id AND l.session_id = r.session_id;
+      -- A session with no taxon left has no row (found through the partial index below).
+      DELETE FROM result_session_lists WHERE taxa = '';
+    END IF;
+  ELSE
+    IF EXISTS (SELECT 1 FROM ecotone_lists_old WHERE sightings > 0) THEN
+      UPDATE result_session_lists l SET taxa = ecotone_codes_remove(l.taxa, r.codes)
+      FROM (
+        SELECT o.event_id, o.session_id, array_agg(c.code) AS codes
+        FROM ecotone_lists_old o JOIN result_taxon_codes c ON c.taxon_id = o.taxon_id
+        WHERE o.sightings > 0 GROUP BY 1, 2
+      ) r
+      WHERE l.event_id = r.event_id AND l.session_id = r.session_id;
+      DELETE FROM result_session_lists WHERE taxa = '';
+    END IF;
   END IF;
   RETURN NULL;
 END;

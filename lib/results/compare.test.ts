@@ -13,8 +13,13 @@ describe("comparison at equal coverage", () => {
     ];
     for (const counts of samples) {
       const p = profileOf({ kind: "abundance", counts });
-      for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995])
-        expect(sizeAtCoverage(p, c), `${c}`).toBe(sizeForCoverage(p, c));
+      for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995]) {
+        const size = sizeForCoverage(p, c);
+        expect(sizeAtCoverage(p, c), `${c}`).toBe(size);
+        // A guess (the bootstrap's: the observed sample's size) only shortens the search.
+        for (const guess of [1, size - 3, size, size + 1, p.size / 3, p.size - 1])
+          expect(sizeAtCoverage(p, c, guess), `${c}, guess ${guess}`).toBe(size);
+      }
     }
   });
 
