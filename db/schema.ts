@@ -720,6 +720,28 @@ export const resultSessionTaxa = pgTable(
   (t) => [primaryKey({ columns: [t.eventId, t.sessionId, t.taxonId] })],
 );
 
+// Issue 14 (results' first read): a small integer per taxon (kept for every taxon by a
+// trigger on taxa), and each count session's present taxa as one text of those codes,
+// ascending and comma-separated, kept from result_session_taxa by triggers (migration 0024),
+// so the results read one row per session instead of one per (session, taxon), as text
+// (an int[] column read as text costs about twice as much to send).
+export const resultTaxonCodes = pgTable("result_taxon_codes", {
+  taxonId: uuid("taxon_id")
+    .primaryKey()
+    .references(() => taxa.id, { onDelete: "cascade" }),
+  code: integer("code").notNull().unique().generatedAlwaysAsIdentity(),
+});
+
+export const resultSessionLists = pgTable(
+  "result_session_lists",
+  {
+    eventId: uuid("event_id").notNull(),
+    sessionId: uuid("session_id").notNull(),
+    taxa: text("taxa").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.eventId, t.sessionId] })],
+);
+
 // Sightings of each count session by zone, whatever their review state (issue 14): the
 // zone a session counts in (the one holding most of its sightings) is read from these
 // rows instead of every sighting. zone_key as in result_taxon_counts.

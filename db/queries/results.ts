@@ -104,8 +104,18 @@ export async function pendingCounts(eventId: string, db: Tx = getDb()): Promise<
   return r.rows[0] ?? { pending: 0, returned: 0, pendingInCompleteSessions: 0, returnedInCompleteSessions: 0 };
 }
 
+/** Each taxon's code (migration 0024, result_taxon_codes), by taxon id. */
+async function taxonCodes(ids: readonly string[], db: Tx): Promise<Map<string, number>> {
+  const valid = ids.filter(isUuid);
+  if (!valid.length) return new Map();
+  const r = await db.execute<{ id: string; code: number }>(sql`
+    SELECT taxon_id AS id, code FROM result_taxon_codes
+    WHERE taxon_id = ANY(${sql.raw(`ARRAY[${valid.map((id) => `'${id}'`).join(",")}]::uuid[]`)})`);
+  return new Map(r.rows.map((x) => [x.id, Number(x.code)]));
+}
+
 /**
- * The results input from the aggregate tables (migration 0007): a few thousand rows
+ * The results input from the aggregate tables (migrations 0007, 0023, 0024): a few thousand rows
  * however many sightings the event holds. Taxa are ordered by id and complete sessions
  * by id (the canonical order of lib/results/records.ts).
  */
@@ -113,51 +123,74 @@ export async function loadResultsInput(
   eventId: string,
   options: { sessions?: boolean; pending?: boolean; db?: Tx } = {},
 ): Promise<ResultsInput> {
+  return loadResultsInputParts(eventId, options).full;
+}
+
+/**
+ * The same input in two steps: `counted` (sessions still empty) as soon as the counts, zones,
+ * taxa and pending figures are read, and `full` once the complete sessions are read too (the
+ * longest query), so a caller can work on the counts meanwhile (server/results/current.ts).
+ */
+export function loadResultsInputParts(
+  eventId: string,
+  options: { sessions?: boolean; pending?: boolean; db?: Tx } = {},
+): { counted: Promise<ResultsInput>; full: Promise<ResultsInput> } {
   // Results may lag a moment behind the primary: read from the replica when there is one,
   // unless the caller reads in a snapshot of its own (publishing).
   const db = options.db ?? getReadDb();
-  const [zones, counts, sessions, pending] = await Promise.all([
-    eventZones(eventId, db),
-    db.execute<{ zoneId: string; taxonId: string; individuals: number }>(sql`
-      SELECT zone_key AS "zoneId", taxon_id AS "taxonId", individuals::float8 AS individuals
-      FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0`),
-    // Taxa travel as their rank among the event's taxa, one short text per session. Every
-    // complete session is a row, also when nothing in it is approved (an empty unit).
+  // Each complete session's taxa as one kept text of taxon codes (migration 0024); every
+  // complete session is a row, also when nothing in it is approved (an empty unit).
+  const sessions =
     options.sessions === false
-      ? { rows: [] as { zoneId: string | null; taxa: string | null }[] }
+      ? Promise.resolve({ rows: [] as { zoneId: string | null; taxa: string | null }[] })
       : db.execute<{ zoneId: string | null; taxa: string | null }>(sql`
-      WITH tx AS (
-        SELECT taxon_id, (row_number() OVER (ORDER BY taxon_id) - 1)::int AS i
-        FROM (SELECT DISTINCT taxon_id FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0) d
-      ),
-      sz AS (${sessionZonesSql(eventId)}),
-      present AS (
-        SELECT st.session_id, string_agg(tx.i::text, ',') AS taxa
-        FROM result_session_taxa st JOIN tx ON tx.taxon_id = st.taxon_id
-        WHERE st.event_id = ${eventId} AND st.sightings > 0
-        GROUP BY st.session_id
-      )
-      SELECT sz.zone_id AS "zoneId", p.taxa FROM sz LEFT JOIN present p ON p.session_id = sz.id ORDER BY sz.id`),
-    options.pending === false ? null : pendingCounts(eventId, db),
-  ]);
-  const ids = [...new Set(counts.rows.map((c) => c.taxonId))].sort();
-  const index = new Map(ids.map((id, i) => [id, i]));
-  const meta = await taxaMeta(ids, db, eventId);
-  return {
-    ...(pending ? { pending } : {}),
-    zones,
-    taxa: ids.map((id) => meta.get(id)!),
-    counts: counts.rows.map((c) => ({ zoneId: c.zoneId, taxon: index.get(c.taxonId)!, individuals: c.individuals })),
-    sessions: sessions.rows.map((s) => ({
-      zoneId: s.zoneId ?? NO_ZONE,
-      taxa: s.taxa
-        ? s.taxa
-            .split(",")
-            .map(Number)
-            .sort((a, b) => a - b)
-        : [],
-    })),
+      WITH sz AS (${sessionZonesSql(eventId)})
+      SELECT sz.zone_id AS "zoneId", l.taxa
+      FROM sz LEFT JOIN result_session_lists l ON l.event_id = ${eventId} AND l.session_id = sz.id
+      ORDER BY sz.id`);
+  const counted = (async () => {
+    const [zones, counts, pending] = await Promise.all([
+      eventZones(eventId, db),
+      db.execute<{ zoneId: string; taxonId: string; individuals: number }>(sql`
+        SELECT zone_key AS "zoneId", taxon_id AS "taxonId", individuals::float8 AS individuals
+        FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0`),
+      options.pending === false ? null : pendingCounts(eventId, db),
+    ]);
+    const ids = [...new Set(counts.rows.map((c) => c.taxonId))].sort();
+    const index = new Map(ids.map((id, i) => [id, i]));
+    const [meta, codes] = await Promise.all([taxaMeta(ids, db, eventId), taxonCodes(ids, db)]);
+    // Taxon code → index into `taxa`.
+    const byCode = new Map<number, number>();
+    for (const [id, code] of codes) byCode.set(code, index.get(id)!);
+    const input: ResultsInput = {
+      ...(pending ? { pending } : {}),
+      zones,
+      taxa: ids.map((id) => meta.get(id)!),
+      counts: counts.rows.map((c) => ({ zoneId: c.zoneId, taxon: index.get(c.taxonId)!, individuals: c.individuals })),
+      sessions: [],
+    };
+    return { input, byCode };
+  })();
+  // A session's taxa as indices into `taxa`, ascending; a code of a taxon outside the counts
+  // (read a moment apart on another connection) is left out, as the join left it out before.
+  const indices = (byCode: Map<number, number>, text: string | null): number[] => {
+    if (!text) return [];
+    const out: number[] = [];
+    for (const c of text.split(",")) {
+      const i = byCode.get(Number(c));
+      if (i !== undefined) out.push(i);
+    }
+    return out.sort((a, b) => a - b);
   };
+  const full = Promise.all([counted, sessions]).then(([{ input, byCode }, s]) => ({
+    ...input,
+    sessions: s.rows.map((r) => ({ zoneId: r.zoneId ?? NO_ZONE, taxa: indices(byCode, r.taxa) })),
+  }));
+  const countedInput = counted.then((c) => c.input);
+  // A caller may await only one of the two: a failure of the other is not an unhandled rejection.
+  full.catch(() => undefined);
+  countedInput.catch(() => undefined);
+  return { counted: countedInput, full };
 }
 
 /**

@@ -138,13 +138,14 @@ function classPairs(d: IncidenceData, force = false): ClassPairs | null {
         if (inUnit[cls] === 0) present[m++] = cls;
         inUnit[cls] = (inUnit[cls] as number) + 1;
       }
+      // Each unordered pair of present classes once (and each class with itself): the sums
+      // are of whole numbers, exact in any order.
       for (let a = 0; a < m; a++) {
         const ca = present[a] as number;
         const na = inUnit[ca] as number;
-        for (let b = 0; b < m; b++) {
+        for (let b = 0; b <= a; b++) {
           const cb = present[b] as number;
-          if (cb > ca) continue;
-          const idx = (ca * (ca + 1)) / 2 + cb;
+          const idx = ca >= cb ? (ca * (ca + 1)) / 2 + cb : (cb * (cb + 1)) / 2 + ca;
           packed[idx] = (packed[idx] as number) + na * (inUnit[cb] as number);
         }
       }

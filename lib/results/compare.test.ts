@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { sizeForCoverage } from "@/lib/diversity/compare";
 import { abundanceStats } from "@/lib/diversity/index";
-import { computeResults, type ResultsTaxon } from "./compute";
+import { computeResults, warmResults, type ResultsInput, type ResultsTaxon } from "./compute";
 import { bootstrapAtCoverage, differenceAtCoverage, forgetBootstraps, profileOf, sizeAtCoverage } from "./compare";
 
 describe("comparison at equal coverage", () => {
@@ -13,8 +13,13 @@ describe("comparison at equal coverage", () => {
     ];
     for (const counts of samples) {
       const p = profileOf({ kind: "abundance", counts });
-      for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995])
-        expect(sizeAtCoverage(p, c), `${c}`).toBe(sizeForCoverage(p, c));
+      for (const c of [0.1, 0.35, 0.6, 0.8, 0.9, 0.97, 0.995]) {
+        const size = sizeForCoverage(p, c);
+        expect(sizeAtCoverage(p, c), `${c}`).toBe(size);
+        // A guess (the bootstrap's: the observed sample's size) only shortens the search.
+        for (const guess of [1, size - 3, size, size + 1, p.size / 3, p.size - 1])
+          expect(sizeAtCoverage(p, c, guess), `${c}, guess ${guess}`).toBe(size);
+      }
     }
   });
 
@@ -38,6 +43,40 @@ describe("comparison at equal coverage", () => {
     forgetBootstraps();
     expect(abundanceStats(counts).hill).toEqual(first);
     expect(abundanceStats(counts, { seed: 3 }).hill.q1.se).not.toBe(first.q1.se);
+  });
+
+  it("draws the abundance side's bootstraps from the counts first (warmResults) without changing a digit", () => {
+    const taxa: ResultsTaxon[] = Array.from({ length: 30 }, (_, i) => ({
+      id: `b${i}`,
+      scientificName: `Avis s${i}`,
+      rank: "species",
+      group: "birds",
+      sensitivity: "open",
+      names: {},
+    }));
+    const zones = [
+      { id: "e", name: "Edge", habitat: "edge" },
+      { id: "i", name: "Inside", habitat: "interior" },
+      { id: "w", name: "Wet", habitat: "interior" },
+    ];
+    const sessions = Array.from({ length: 45 }, (_, u) => ({
+      zoneId: zones[u % 3]!.id,
+      taxa: Array.from({ length: 1 + (u % 6) }, (_, k) => (u * 7 + k * k) % (10 + 10 * (u % 3))).sort((a, b) => a - b),
+    }));
+    const counts = sessions.flatMap((s, u) =>
+      s.taxa.map((t) => ({ zoneId: s.zoneId, taxon: t, individuals: 1 + ((u * 13 + t) % 9) })),
+    );
+    const input: ResultsInput = { zones, taxa, counts, sessions };
+    for (const kind of ["individuals", "clumps"] as const) {
+      const x = { ...input, taxa: taxa.map((t) => ({ ...t, countUnit: kind })) };
+      forgetBootstraps();
+      const plain = JSON.stringify(computeResults(x, { bands: false }));
+      forgetBootstraps();
+      warmResults({ ...x, sessions: [] });
+      const r = computeResults(x, { bands: false });
+      expect(JSON.stringify(r)).toBe(plain);
+      expect(r.comparison!.kind).toBe(kind === "individuals" ? "abundance" : "incidence");
+    }
   });
 
   it("gives the same interval for the same seed and a real difference a sign", () => {

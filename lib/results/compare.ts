@@ -34,7 +34,7 @@ export function profileOf(s: Sample): FrequencyProfile {
  * analytic m beyond N), found by a safeguarded regula falsi instead of plain bisection,
  * since the bootstrap asks it hundreds of times per zone.
  */
-export function sizeAtCoverage(p: FrequencyProfile, c: number): number {
+export function sizeAtCoverage(p: FrequencyProfile, c: number, guess?: number): number {
   const N = p.size;
   if (N === 0) return 0;
   const full = sampleCoverage(p);
@@ -44,6 +44,49 @@ export function sizeAtCoverage(p: FrequencyProfile, c: number): number {
   let hi = N;
   let cLo = 0;
   let cHi = full;
+  // With a guess (a bootstrap replicate: the observed sample's size at c), the bracket is
+  // first narrowed around it, widening by doubling until it holds c: coverage rises with
+  // the size, so the same lo < size ≤ hi is found as from [0, N], in fewer evaluations.
+  if (guess !== undefined && guess > 0 && guess < N) {
+    const g = Math.round(guess);
+    const cg = cov(g);
+    let step = Math.max(1, Math.ceil(g / 64));
+    if (cg >= c) {
+      hi = g;
+      cHi = cg;
+      for (;;) {
+        const m = hi - step;
+        if (m <= lo) break;
+        const cm = cov(m);
+        if (cm >= c) {
+          hi = m;
+          cHi = cm;
+          step *= 2;
+        } else {
+          lo = m;
+          cLo = cm;
+          break;
+        }
+      }
+    } else {
+      lo = g;
+      cLo = cg;
+      for (;;) {
+        const m = lo + step;
+        if (m >= hi) break;
+        const cm = cov(m);
+        if (cm < c) {
+          lo = m;
+          cLo = cm;
+          step *= 2;
+        } else {
+          hi = m;
+          cHi = cm;
+          break;
+        }
+      }
+    }
+  }
   let bisect = false;
   while (hi - lo > 1) {
     let m: number;
@@ -64,9 +107,9 @@ export function sizeAtCoverage(p: FrequencyProfile, c: number): number {
 }
 
 /** Richness of a profile at coverage c (interpolated or extrapolated). */
-export function richnessAtCoverage(p: FrequencyProfile, c: number): number {
+export function richnessAtCoverage(p: FrequencyProfile, c: number, guess?: number): number {
   if (p.size === 0) return 0;
-  return curvePoint(p, sizeAtCoverage(p, c)).richness;
+  return curvePoint(p, sizeAtCoverage(p, c, guess)).richness;
 }
 
 /**
@@ -147,7 +190,9 @@ function drawReplicates(s: Sample, c: number, options: { replicates: number; see
   const assemblage = p.kind === "abundance" ? bootstrapAssemblage(p, sampleCoverage(p)) : incidenceAssemblage(p);
   const rng = new Rng(options.seed);
   const out = new Float64Array(options.replicates);
-  for (let r = 0; r < options.replicates; r++) out[r] = richnessAtCoverage(redraw(p, rng, assemblage), c);
+  // Every replicate has the sample's size; where the sample reaches c, its size there is a close guess.
+  const guess = c <= sampleCoverage(p) ? sizeAtCoverage(p, c) : undefined;
+  for (let r = 0; r < options.replicates; r++) out[r] = richnessAtCoverage(redraw(p, rng, assemblage), c, guess);
   return out;
 }
 

@@ -21,6 +21,7 @@ import {
 import { hillAtCoverageFromProfile, hillCurveFromProfile } from "@/lib/diversity/hill-curves";
 import { hillProfileFromProfile } from "@/lib/diversity/hill-profile";
 import { curvePoint } from "@/lib/diversity/curves";
+import { abundanceProfile, abundanceStatsFromProfile } from "@/lib/diversity/abundance";
 import { sizeForCoverage } from "@/lib/diversity/compare";
 import { bootstrapAtCoverage, differenceInterval, profileOf, type Sample } from "./compare";
 import { resolveRanks, type RankStatus } from "./ranks";
@@ -228,17 +229,9 @@ function hillOf(kind: HillBlock["kind"], sample: Prepared["sample"], bands: bool
   };
 }
 
-/** One block: ranks resolved on its own records, then the engine on what may be estimated. */
-function block(
-  taxa: readonly ResultsTaxon[],
-  counts: readonly number[],
-  sessionTaxa: readonly (readonly number[])[],
-  hillKind: HillBlock["kind"],
-  bands: boolean,
-  status?: RankStatus[],
-): Prepared {
+/** What a block's counts alone give: ranks resolved on them, individuals per counted unit, and what is left out. */
+function countsSide(taxa: readonly ResultsTaxon[], counts: readonly number[]) {
   const ranks = resolveRanks(taxa, (i) => (counts[i] ?? 0) > 0);
-  if (status) status.push(...ranks.status);
   const unitCounts = new Array<number>(ranks.units).fill(0);
   const leftOut = { taxa: 0, individuals: 0 };
   let individuals = 0;
@@ -259,6 +252,20 @@ function block(
     const unit = taxa[i]!.countUnit ?? "individuals";
     if (unit !== "individuals") units.add(unit);
   }
+  return { ranks, unitCounts, leftOut, individuals, folded, units };
+}
+
+/** One block: ranks resolved on its own records, then the engine on what may be estimated. */
+function block(
+  taxa: readonly ResultsTaxon[],
+  counts: readonly number[],
+  sessionTaxa: readonly (readonly number[])[],
+  hillKind: HillBlock["kind"],
+  bands: boolean,
+  status?: RankStatus[],
+): Prepared {
+  const { ranks, unitCounts, leftOut, individuals, folded, units } = countsSide(taxa, counts);
+  if (status) status.push(...ranks.status);
   // Each session's distinct counted units, ascending: a stamp per unit instead of a Set per
   // session, and an insertion sort (a session lists a few dozen taxa at most).
   const stamp = new Int32Array(ranks.units).fill(-1);
@@ -582,6 +589,48 @@ export function compareSamples(
       ).map((r) => ({ order: r.order, estimate: r.estimate, size: r.size }));
     }
   return { comparison, observed, hill };
+}
+
+/**
+ * The abundance side's bootstraps from the counts alone (input.sessions is not read), before the complete sessions are
+ * read: the engine's Hill q = 1, 2 sds of every block and, when the comparison is by
+ * individuals, its replicates, drawn into the caches that computeResults reads (kept per
+ * sample, coverage, replicates and seed: lib/diversity/hill.ts, ./compare.ts). The results
+ * path (server/results/current.ts) runs it while the database still reads the sessions;
+ * computeResults then finds them drawn. It changes no number: a miss only draws them again.
+ */
+export function warmResults(input: ResultsInput): void {
+  const taxa = input.taxa.map((t) => ({ ...t, countUnit: t.countUnit ?? countUnitOf(t.group) }));
+  const width = taxa.length;
+  const total = new Array<number>(width).fill(0);
+  const perZone = new Map<string, number[]>(input.zones.map((z) => [z.id, new Array<number>(width).fill(0)]));
+  for (const c of input.counts) {
+    total[c.taxon] = (total[c.taxon] ?? 0) + c.individuals;
+    const z = perZone.get(c.zoneId);
+    if (z) z[c.taxon] = (z[c.taxon] ?? 0) + c.individuals;
+  }
+  // As block() and diversityResults() do: the stats of each block's unit counts (their
+  // bootstrap sds are kept), and which zones the abundance comparison takes.
+  const side = (counts: readonly number[]) => {
+    const c = countsSide(taxa, counts);
+    const stats = abundanceStatsFromProfile(abundanceProfile(c.unitCounts));
+    const ok =
+      c.units.size === 0 &&
+      c.individuals - c.leftOut.individuals >= SUFFICIENCY.minIndividuals &&
+      stats.coverage >= SUFFICIENCY.minCoverage;
+    return { c, stats, ok };
+  };
+  const event = side(total);
+  const zones = new Map(input.zones.map((z) => [z.id, side(perZone.get(z.id)!)]));
+  if (input.zones.length < 2 || event.c.units.size > 0) return; // compared by complete sessions: needs them
+  const prepared = new Map<string, Prepared>(
+    input.zones.map((z) => {
+      const { c, stats, ok } = zones.get(z.id)!;
+      const block = { abundance: ok ? stats : null, incidence: null, reasons: [] } as unknown as Block;
+      return [z.id, { block, sample: { abundance: c.unitCounts, frequencies: [], units: 0 }, unitOf: c.ranks.unitOf }];
+    }),
+  );
+  compare("abundance", input.zones, prepared);
 }
 
 export function computeResults(input: ResultsInput, options: ComputeOptions = {}): Results {

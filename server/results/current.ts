@@ -1,8 +1,8 @@
 import "server-only";
 import path from "node:path";
 import { Worker } from "node:worker_threads";
-import { loadResultsInput, resultsKey } from "@/db/queries/results";
-import { computeResults, type Results, type ResultsInput } from "@/lib/results/compute";
+import { loadResultsInputParts, resultsKey } from "@/db/queries/results";
+import { computeResults, warmResults, type Results, type ResultsInput } from "@/lib/results/compute";
 import { forgetBootstraps } from "@/lib/results/compare";
 
 // The event's current results, computed once per change and shared by every reader in
@@ -15,8 +15,10 @@ import { forgetBootstraps } from "@/lib/results/compare";
 // rules.hill.bands false, the page says they are coming); those are then computed in a
 // worker thread and the entry replaced when they arrive, if nothing changed meanwhile. The
 // comparison's bootstrap stays on the first read: its verdicts need it. A change ends the
-// worker of the one before (one worker per event). Publishing reads its own inputs and
-// reuses these full results only when its input is the same (resultsWithBands).
+// worker of the one before (one worker per event). The abundance side's bootstraps are
+// drawn from the counts while the complete sessions are still being read (warmResults).
+// Publishing reads its own inputs and reuses these full results only when its input is the
+// same (resultsWithBands).
 // `input`: what the full results (with their bands) were computed from, kept for publishing (resultsWithBands).
 type Entry = { key: string; results: Results; json: string; input?: ResultsInput };
 const cache = new Map<string, Entry>();
@@ -86,7 +88,12 @@ export async function currentResults(eventId: string, options: { bands?: "later"
         stale.cancel();
         workers.delete(eventId);
       }
-      const input = await loadResultsInput(eventId);
+      // While the database reads the complete sessions (the longest query), the counts
+      // alone already give the abundance side's bootstraps: draw them meanwhile (kept, so
+      // computeResults finds them; no number changes).
+      const parts = loadResultsInputParts(eventId);
+      warmResults(await parts.counted);
+      const input = await parts.full;
       const now = options.bands === "now";
       const results = computeResults(input, { bands: now });
       const entry: Entry = { key, results, json: JSON.stringify(results), ...(now ? { input } : {}) };

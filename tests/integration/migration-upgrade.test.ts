@@ -196,6 +196,17 @@ async function expectUpgradedData(c: Client): Promise<void> {
       ])
     ).rows,
   ).toEqual([{ session_key: ids.session, user_id: ids.user, pending: 1, returned: 0 }]);
+  // 0024 gave every taxon a code and filled the session's list of present taxa with them.
+  expect(
+    (
+      await c.query(
+        `SELECT l.session_id, l.taxa = (SELECT code::text FROM result_taxon_codes WHERE taxon_id = $2) AS oak_only,
+                (SELECT count(*)::int FROM taxa t WHERE NOT EXISTS (SELECT 1 FROM result_taxon_codes x WHERE x.taxon_id = t.id)) AS uncoded
+         FROM result_session_lists l WHERE l.event_id = $1`,
+        [ids.event, ids.oak],
+      )
+    ).rows,
+  ).toEqual([{ session_id: ids.session, oak_only: true, uncoded: 0 }]);
 
   // The aggregate triggers work on the upgraded database: approving the pending sighting counts it.
   await c.query("UPDATE sightings SET review_state = 'approved', version = version + 1 WHERE id = $1", [ids.s4]);

@@ -1,6 +1,6 @@
 import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
-import { pendingCounts, resultsKey, sessionZonesSql } from "@/db/queries/results";
+import { loadResultsInput, pendingCounts, resultsKey, sessionZonesSql } from "@/db/queries/results";
 import { decide, type Decision, type ReviewScope } from "@/db/queries/review";
 import { uploadAreaAndZones } from "@/db/queries/setup-zones";
 import { ingestBatch } from "@/db/queries/sync";
@@ -11,11 +11,14 @@ import { db, makeFixture, polygonSql, sightingValues, syncSession, syncSighting 
 
 // Issue 14: the zone of each count session and the pending figures are read from aggregates
 // kept by triggers (migration 0023). Each step below holds them to the direct computation
-// over every sighting: the queries the results used before.
+// over every sighting: the queries the results used before. Likewise each session's list of
+// present taxa (migration 0024, result_session_lists) against the approved sightings, and the
+// results input's sessions against the per-(session, taxon) query it replaced.
 
 type Fixture = Awaited<ReturnType<typeof makeFixture>>;
 let f: Fixture;
 let zoneB: typeof s.zones.$inferSelect;
+let second: typeof s.taxa.$inferSelect;
 let coordinator = "";
 let scope: ReviewScope;
 const NOW = new Date("2026-06-21T00:00:00Z");
@@ -92,8 +95,49 @@ async function rowsMatch(eventId: string) {
           + (SELECT count(*) FROM result_pending WHERE pending <= 0 AND returned <= 0))::int AS n`);
   expect(zero.rows[0]!.n).toBe(0);
 }
+/** Each session's kept taxon codes against its approved sightings; every taxon has a code. */
+async function listsMatch(eventId: string) {
+  const kept = await db().execute<{ k: string }>(sql`
+    SELECT session_id || '|' || taxa AS k FROM result_session_lists WHERE event_id = ${eventId} ORDER BY 1`);
+  const direct = await db().execute<{ k: string }>(sql`
+    SELECT s.session_id || '|' || array_to_string(array_agg(DISTINCT c.code ORDER BY c.code), ',') AS k
+    FROM sightings s JOIN result_taxon_codes c ON c.taxon_id = s.taxon_id
+    WHERE s.event_id = ${eventId} AND s.review_state = 'approved' AND s.session_id IS NOT NULL
+    GROUP BY s.session_id ORDER BY 1`);
+  expect(kept.rows.map((r) => r.k)).toEqual(direct.rows.map((r) => r.k));
+  const uncoded = await db().execute<{ n: number }>(sql`
+    SELECT count(*)::int AS n FROM taxa t WHERE NOT EXISTS (SELECT 1 FROM result_taxon_codes c WHERE c.taxon_id = t.id)`);
+  expect(uncoded.rows[0]!.n).toBe(0);
+}
+/** The complete sessions' taxa (indices into the event's taxa by id) as read before 0024: per (session, taxon). */
+async function directSessionTaxa(eventId: string) {
+  const r = await db().execute<{ zoneId: string | null; taxa: string | null }>(sql`
+    WITH tx AS (
+      SELECT taxon_id, (row_number() OVER (ORDER BY taxon_id) - 1)::int AS i
+      FROM (SELECT DISTINCT taxon_id FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0) d
+    ),
+    sz AS (${sessionZonesSql(eventId)}),
+    present AS (
+      SELECT st.session_id, string_agg(tx.i::text, ',') AS taxa
+      FROM result_session_taxa st JOIN tx ON tx.taxon_id = st.taxon_id
+      WHERE st.event_id = ${eventId} AND st.sightings > 0
+      GROUP BY st.session_id
+    )
+    SELECT sz.zone_id AS "zoneId", p.taxa FROM sz LEFT JOIN present p ON p.session_id = sz.id ORDER BY sz.id`);
+  return r.rows.map((x) => ({
+    zoneId: x.zoneId ?? "00000000-0000-0000-0000-000000000000",
+    taxa: x.taxa
+      ? x.taxa
+          .split(",")
+          .map(Number)
+          .sort((a, b) => a - b)
+      : [],
+  }));
+}
 async function expectEqualToDirect() {
   const id = f.event.id;
+  await listsMatch(id);
+  expect((await loadResultsInput(id, { db: db() })).sessions).toEqual(await directSessionTaxa(id));
   expect(await keptSessionZones(id, true)).toEqual(await directSessionZones(id, true));
   expect(await keptSessionZones(id, false)).toEqual(await directSessionZones(id, false));
   expect(await pendingCounts(id)).toEqual(await directPending(id));
@@ -117,6 +161,10 @@ beforeAll(async () => {
       ]),
     })
     .returning()) as [typeof s.zones.$inferSelect];
+  [second] = (await db()
+    .insert(s.taxa)
+    .values({ scientificName: "Testus session-aggregates other", taxonGroup: "birds" })
+    .returning()) as [typeof s.taxa.$inferSelect];
   const [c] = await db().insert(s.users).values({ email: "session-aggregates-coord@example.org" }).returning();
   coordinator = c!.id;
   await db()
@@ -134,8 +182,13 @@ describe("session zone and pending aggregates (migration 0023 triggers)", () => 
     const tie = session({ zoneId: zoneB.id }); // 2 in A, 2 in B: the zone it was started in
     const open = session({ allSpeciesNoted: false, endedAt: null }); // not complete
     const empty = session({ zoneId: zoneB.id }); // no sightings: the zone it was started in
-    const inMostlyA = [A, A, A, B, B].map((p) => sighting(p, { sessionId: mostlyA.id }));
-    const inTie = [A, A, B, B].map((p) => sighting(p, { sessionId: tie.id }));
+    // Two taxa, so each session's list holds one or two codes.
+    const inMostlyA = [A, A, A, B, B].map((p, i) =>
+      sighting(p, { sessionId: mostlyA.id, ...(i % 2 ? { taxonId: second.id } : {}) }),
+    );
+    const inTie = [A, A, B, B].map((p, i) =>
+      sighting(p, { sessionId: tie.id, ...(i === 1 ? { taxonId: second.id } : {}) }),
+    );
     const inOpen = [A, OUT, OUT].map((p) => sighting(p, { sessionId: open.id }));
     const casual = [A, B, OUT].map((p) => sighting(p));
     const outcomes = await ingest([mostlyA, tie, open, empty], [...inMostlyA, ...inTie, ...inOpen, ...casual]);
@@ -157,6 +210,9 @@ describe("session zone and pending aggregates (migration 0023 triggers)", () => 
       [inTie[0]!, (version) => ({ action: "reject", version, reason: "misidentified" })],
       [casual[0]!, (version) => ({ action: "return", version, message: "How many?" })],
       [inOpen[1]!, (version) => ({ action: "approve", version })],
+      [inMostlyA[1]!, (version) => ({ action: "approve", version })],
+      [inMostlyA[2]!, (version) => ({ action: "approve", version })],
+      [inTie[1]!, (version) => ({ action: "approve", version })],
     ];
     for (const [rec, decision] of decisions)
       expect((await decide(scope, coordinator, rec.id, decision(await version(rec.id)))).outcome).toBe("ok");
@@ -166,6 +222,14 @@ describe("session zone and pending aggregates (migration 0023 triggers)", () => 
     const moved = { ...inMostlyA[3]!, ...A, correction: { toVersion: await version(inMostlyA[3]!.id) } };
     const other = { ...inTie[2]!, sessionId: open.id, correction: { toVersion: await version(inTie[2]!.id) } };
     expect((await ingest([], [moved, other])).map((o) => o.outcome)).toEqual(["updated", "updated"]);
+    await expectEqualToDirect();
+    // An approved sighting's taxon corrected: its session's list changes with it.
+    const retaxon = {
+      ...inMostlyA[2]!,
+      taxonId: second.id,
+      correction: { toVersion: await version(inMostlyA[2]!.id) },
+    };
+    expect((await ingest([], [retaxon]))[0]!.outcome).toBe("updated");
     await expectEqualToDirect();
     // The open session ends, all species noted: its pending sightings now count as in a complete session.
     expect((await ingest([{ ...open, endedAt: "2026-06-20T08:40:00Z", allSpeciesNoted: true }], []))[0]!.outcome).toBe(
@@ -194,6 +258,18 @@ describe("session zone and pending aggregates (migration 0023 triggers)", () => 
     await expectEqualToDirect();
     expect(await zoneOfTie()).toBe(f.zone.id);
     expect(await resultsKey(f.event.id)).not.toBe(keyWithIt);
+
+    // An approved sighting written straight into the empty session, then deleted: the session's
+    // list appears with it and goes with it.
+    const approved = sightingValues(f, { sessionId: empty.id, taxonId: second.id, reviewState: "approved" });
+    await db().insert(s.sightings).values(approved);
+    await expectEqualToDirect();
+    const listOf = async (id: string) =>
+      (await db().execute(sql`SELECT taxa FROM result_session_lists WHERE session_id = ${id}`)).rows.length;
+    expect(await listOf(empty.id)).toBe(1);
+    await db().delete(s.sightings).where(eq(s.sightings.id, approved.id));
+    await expectEqualToDirect();
+    expect(await listOf(empty.id)).toBe(0);
 
     // Deletions: a sighting, then a whole session (its sightings lose their session).
     await db().delete(s.sightings).where(eq(s.sightings.id, inTie[3]!.id));
