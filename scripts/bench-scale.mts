@@ -12,7 +12,7 @@
 // the results' first read after a change, and (--publish) publishing, as the results, publish
 // and queue parts time them on one event. Figures, not a pass/fail test.
 //
-//   npx tsx scripts/bench-scale.mts [--rebuild] [--runs=N] [--publish]
+//   npx tsx scripts/bench-scale.mts [--rebuild] [--runs=N] [--publish] [--measure-only]
 //
 // The db layer imports "server-only", which only resolves under the "react-server" export
 // condition: the script re-runs itself with it (as scripts/bench-results.mts does).
@@ -162,7 +162,10 @@ async function build(): Promise<void> {
 }
 
 let held = args.includes("--rebuild") ? null : await eventsHeld().catch(() => null);
-if (!held || held.length !== EVENTS || held.some((e) => e.n !== PER_EVENT)) {
+// --measure-only: time whatever the database holds now (e.g. while a build is still adding events).
+if (args.includes("--measure-only") && held?.length) {
+  console.log(`[bench scale] measuring as it stands: ${held.length} events`);
+} else if (!held || held.length !== EVENTS || held.some((e) => e.n !== PER_EVENT)) {
   await build();
   held = await eventsHeld();
 } else {
@@ -230,7 +233,7 @@ forgetResults();
 const rows: BenchRow[] = [
   {
     part: "scale",
-    figure: `sightings in the database (${held!.length} events of ${PER_EVENT.toLocaleString("en")}, 16 hash partitions by event)`,
+    figure: `sightings in the database (${held!.length} events of ${PER_EVENT.toLocaleString("en")} each, 16 hash partitions by event)`,
     value: total.toLocaleString("en"),
   },
   {
