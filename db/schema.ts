@@ -6,6 +6,7 @@ import {
   boolean,
   check,
   customType,
+  foreignKey,
   index,
   integer,
   jsonb,
@@ -362,10 +363,14 @@ export const countSessions = pgTable(
   ],
 );
 
+// Partitioned by HASH (event_id), 16 partitions (issue 18, migration 0025_sightings_partitioned;
+// drizzle-kit has no partition syntax, so the partitions live in that migration only). The
+// primary key must hold the partition key: (id, event_id), id first so that a look-up by id
+// alone is one index probe per partition.
 export const sightings = pgTable(
   "sightings",
   {
-    id: uuid("id").primaryKey(), // made on the device, so a resend is harmless
+    id: uuid("id").notNull(), // made on the device, so a resend is harmless
     eventId: uuid("event_id")
       .notNull()
       .references(() => events.id, { onDelete: "cascade" }),
@@ -416,6 +421,7 @@ export const sightings = pgTable(
     index("sightings_session_idx").on(t.sessionId),
     index("sightings_user_idx").on(t.userId, t.observedAt),
     index("sightings_location_gist").using("gist", t.location),
+    primaryKey({ name: "sightings_pkey", columns: [t.id, t.eventId] }),
   ],
 );
 
@@ -423,9 +429,9 @@ export const photos = pgTable(
   "photos",
   {
     id: uuid("id").primaryKey(), // made on the device
-    sightingId: uuid("sighting_id")
-      .notNull()
-      .references(() => sightings.id, { onDelete: "cascade" }),
+    sightingId: uuid("sighting_id").notNull(),
+    // The sighting's event (sightings are partitioned by event: the foreign key carries it).
+    eventId: uuid("event_id").notNull(),
     storageKey: text("storage_key").notNull().unique(),
     contentType: varchar("content_type", { length: 40 }).notNull(),
     sizeBytes: integer("size_bytes").notNull(),
@@ -439,6 +445,11 @@ export const photos = pgTable(
     check("photos_size", sql`${t.sizeBytes} > 0 AND ${t.sizeBytes} <= 20000000`),
     check("photos_sha256_hex", sql`${t.sha256} ~ '^[0-9a-f]{64}$'`),
     index("photos_sighting_idx").on(t.sightingId),
+    foreignKey({
+      name: "photos_sighting_id_sightings_id_fk",
+      columns: [t.sightingId, t.eventId],
+      foreignColumns: [sightings.id, sightings.eventId],
+    }).onDelete("cascade"),
   ],
 );
 
@@ -447,9 +458,8 @@ export const reviews = pgTable(
   "reviews",
   {
     id: bigserial("id", { mode: "number" }).primaryKey(),
-    sightingId: uuid("sighting_id")
-      .notNull()
-      .references(() => sightings.id, { onDelete: "restrict" }),
+    sightingId: uuid("sighting_id").notNull(),
+    eventId: uuid("event_id").notNull(), // the sighting's event (the foreign key carries it)
     reviewerId: uuid("reviewer_id")
       .notNull()
       .references(() => users.id, { onDelete: "restrict" }),
@@ -463,7 +473,14 @@ export const reviews = pgTable(
     // An undo is a decision of its own that puts back the state and taxon before the decision it names.
     undoesId: bigint("undoes_id", { mode: "number" }).references((): AnyPgColumn => reviews.id),
   },
-  (t) => [index("reviews_sighting_idx").on(t.sightingId, t.decidedAt)],
+  (t) => [
+    index("reviews_sighting_idx").on(t.sightingId, t.decidedAt),
+    foreignKey({
+      name: "reviews_sighting_id_sightings_id_fk",
+      columns: [t.sightingId, t.eventId],
+      foreignColumns: [sightings.id, sightings.eventId],
+    }).onDelete("restrict"),
+  ],
 );
 
 /**
@@ -474,9 +491,8 @@ export const reviews = pgTable(
 export const sightingVersions = pgTable(
   "sighting_versions",
   {
-    sightingId: uuid("sighting_id")
-      .notNull()
-      .references(() => sightings.id, { onDelete: "restrict" }),
+    sightingId: uuid("sighting_id").notNull(),
+    eventId: uuid("event_id").notNull(), // the sighting's event (the foreign key carries it)
     version: integer("version").notNull(), // the sighting's version while it held these values
     sessionId: uuid("session_id"),
     taxonId: uuid("taxon_id").references(() => taxa.id, { onDelete: "restrict" }),
@@ -489,7 +505,14 @@ export const sightingVersions = pgTable(
     notes: text("notes").notNull(),
     replacedAt: timestamp("replaced_at", { withTimezone: true, mode: "date" }).notNull().defaultNow(),
   },
-  (t) => [primaryKey({ columns: [t.sightingId, t.version] })],
+  (t) => [
+    primaryKey({ columns: [t.sightingId, t.version] }),
+    foreignKey({
+      name: "sighting_versions_sighting_id_sightings_id_fk",
+      columns: [t.sightingId, t.eventId],
+      foreignColumns: [sightings.id, sightings.eventId],
+    }).onDelete("restrict"),
+  ],
 );
 
 export const emailOutbox = pgTable(
@@ -675,6 +698,8 @@ export const reviewNotices = pgTable(
   ],
 );
 // ---------------------------------------------------------------- results aggregates (issue 7)
+// Like sightings, every aggregate table keyed by event (all below but result_stamps) is
+// partitioned by HASH (event_id) in 16 partitions (migration 0025_sightings_partitioned).
 // Kept in step with approved sightings by statement-level triggers (migration 0007), so
 // the results page reads a few thousand aggregate rows instead of grouping every sighting.
 // zone_key is the zone, or the nil UUID for a sighting outside every zone.

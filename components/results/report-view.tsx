@@ -70,7 +70,7 @@ export async function ReportView({
     // Sensitive taxa never by zone, restricted ones hidden if the organiser chose so (lib/results/public.ts).
     publicResultsOf(event.id, report.results),
     areaAndZones(event.id),
-    reportOccurrences(report),
+    reportOccurrences({ ...report, eventId: event.id }),
   ]);
   // The same estimate the results page and the live board show (lib/results/live.ts).
   const lead = blockLead(r.event);

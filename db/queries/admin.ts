@@ -114,7 +114,7 @@ export async function photoStorageByOrganisation() {
     FROM organisations o
       LEFT JOIN events e ON e.organisation_id = o.id
       LEFT JOIN sightings s ON s.event_id = e.id
-      LEFT JOIN photos p ON p.sighting_id = s.id
+      LEFT JOIN photos p ON p.sighting_id = s.id AND p.event_id = s.event_id
     GROUP BY o.id, o.name ORDER BY bytes DESC, o.name`);
   return rows;
 }
@@ -207,7 +207,7 @@ export async function auditLog(f: AuditFilters): Promise<{ rows: AuditRow[]; mor
     decisions: sql`
       SELECT 'decisions', r.id::text, r.decided_at, a.email, r.from_state::text || ' → ' || r.to_state::text, s.id::text,
         concat_ws(' ', e.name, nullif(r.reason, ''))
-      FROM reviews r JOIN users a ON a.id = r.reviewer_id JOIN sightings s ON s.id = r.sighting_id JOIN events e ON e.id = s.event_id`,
+      FROM reviews r JOIN users a ON a.id = r.reviewer_id JOIN sightings s ON s.id = r.sighting_id AND s.event_id = r.event_id JOIN events e ON e.id = s.event_id`,
     publications: sql`
       SELECT 'publications', p.id::text, p.published_at, a.email, 'published', e.name, 'version ' || p.version
       FROM reports p JOIN users a ON a.id = p.published_by JOIN events e ON e.id = p.event_id`,

@@ -206,7 +206,7 @@ export async function withdrawnSince(eventId: string, since: Date, limit: number
   const r = await getDb().execute<{ id: string }>(sql`
     SELECT s.id FROM sightings s
     WHERE s.event_id = ${eventId} AND s.updated_at >= ${since.toISOString()}::timestamptz AND s.review_state <> 'approved'
-      AND EXISTS (SELECT 1 FROM reviews r WHERE r.sighting_id = s.id AND r.to_state = 'approved')
+      AND EXISTS (SELECT 1 FROM reviews r WHERE r.sighting_id = s.id AND r.event_id = s.event_id AND r.to_state = 'approved')
     ORDER BY s.updated_at, s.id
     LIMIT ${limit}`);
   return r.rows.map((x) => x.id);

@@ -65,9 +65,10 @@ export async function directCountQuartiles(
  * floor(p·(n−1)) and ceil(p·(n−1)) of the sorted values, lo + f·(hi − lo) with
  * f = p·(n−1) − floor(p·(n−1)), all in float8, so they are the same numbers, not estimates.
  * The k-th value (0-based) is the smallest count whose running total exceeds k.
- * Taxa without any record give no row.
+ * Taxa without any record give no row. With `eventId` (every key of that event), the look-up
+ * names the event as a value, so that it reads one partition of check_count_stats (migration 0025).
  */
-const keptStatsSql = (keys: SQL) => sql`
+const keptStatsSql = (keys: SQL, eventId?: string) => sql`
   SELECT b.event_id, b.taxon_id, b.n,
     ln(b.lo1::float8) + (b.p1 - floor(b.p1)) * (ln(b.hi1::float8) - ln(b.lo1::float8)) AS q1,
     ln(b.lo3::float8) + (b.p3 - floor(b.p3)) * (ln(b.hi3::float8) - ln(b.lo3::float8)) AS q3
@@ -88,7 +89,7 @@ const keptStatsSql = (keys: SQL) => sql`
           FROM ${keys} keys
           CROSS JOIN LATERAL (
             SELECT c.count, sum(c.n) AS k FROM check_count_stats c
-            WHERE c.event_id = keys.event_id AND c.taxon_id = keys.taxon_id
+            WHERE c.event_id = ${eventId ? sql`${eventId}::uuid` : sql`keys.event_id`} AND c.taxon_id = keys.taxon_id
             GROUP BY c.count HAVING sum(c.n) > 0
           ) x
         ) g
@@ -104,7 +105,7 @@ export async function keptCountQuartiles(
   taxonId: string,
 ): Promise<{ n: number; q1: number | null; q3: number | null }> {
   const { rows } = await db.execute<{ n: string; q1: number | null; q3: number | null }>(
-    sql`SELECT n, q1, q3 FROM (${keptStatsSql(sql`(SELECT ${eventId}::uuid AS event_id, ${taxonId}::uuid AS taxon_id)`)}) s`,
+    sql`SELECT n, q1, q3 FROM (${keptStatsSql(sql`(SELECT ${eventId}::uuid AS event_id, ${taxonId}::uuid AS taxon_id)`, eventId)}) s`,
   );
   // No record of the taxon: what count(*) and percentile_cont give over no rows.
   return rows[0] ? { n: Number(rows[0].n), q1: rows[0].q1, q3: rows[0].q3 } : { n: 0, q1: null, q3: null };
@@ -125,31 +126,37 @@ const groupThresholdSql = sql.raw(
  * transaction that stored or changed the sightings. Rows whose marks do not change are
  * not written.
  */
-export async function refreshCheckMarks(tx: Executor, sightingIds: string[]): Promise<void> {
+export async function refreshCheckMarks(tx: Executor, sightingIds: string[], eventId?: string): Promise<void> {
   const ids = [...new Set(sightingIds)];
   if (!ids.length) return;
-  for (let i = 0; i < ids.length; i += 2000) await refreshChunk(tx, ids.slice(i, i + 2000));
+  for (let i = 0; i < ids.length; i += 2000) await refreshChunk(tx, ids.slice(i, i + 2000), eventId);
 }
 
-async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
+async function refreshChunk(tx: Executor, ids: string[], eventId: string | undefined): Promise<void> {
   // One array parameter, not one parameter per id.
   const idArray = sql`${sql.param(ids)}::uuid[]`;
+  // With the event, one partition of sightings (migration 0025); without, a probe of each partition's key.
+  // The event is written as a value in every correlated look-up too (`ev`): the planner prunes
+  // partitions on a value at plan time, but did not prune on the outer row's column at run time.
+  const inEvent = eventId ? sql`s.event_id = ${eventId} AND ` : sql``;
+  const ev = (outer: string) => (eventId ? sql`${eventId}::uuid` : sql.raw(`${outer}.event_id`));
   await tx.execute(sql`
     WITH given AS (
-      SELECT s.* FROM sightings s WHERE s.id = ANY(${idArray})
+      SELECT s.* FROM sightings s WHERE ${inEvent}s.id = ANY(${idArray})
     ),
     -- LATERAL: one index lookup (sightings_duplicate_idx) per given record, never a join over the event.
     partners AS (
-      SELECT p.id FROM given g
+      SELECT p.id, g.event_id FROM given g
       CROSS JOIN LATERAL (
         SELECT o.id FROM sightings o
-        WHERE o.event_id = g.event_id AND o.user_id = g.user_id AND o.taxon_id = g.taxon_id AND o.id <> g.id
+        WHERE o.event_id = ${ev("g")} AND o.user_id = g.user_id AND o.taxon_id = g.taxon_id AND o.id <> g.id
           AND o.observed_at BETWEEN g.observed_at - make_interval(mins => ${DUPLICATE_MINUTES}) AND g.observed_at + make_interval(mins => ${DUPLICATE_MINUTES})
           AND ST_DWithin(o.location::geography, g.location::geography, ${DUPLICATE_METRES})
       ) p
     ),
     target AS (
-      SELECT s.* FROM (SELECT id FROM given UNION SELECT id FROM partners) ids JOIN sightings s ON s.id = ids.id
+      SELECT s.* FROM (SELECT id, event_id FROM given UNION SELECT id, event_id FROM partners) ids
+      JOIN sightings s ON s.event_id = ${ev("ids")} AND s.id = ids.id
     ),
     -- Per taxon in this batch, from the per-count statistics the triggers keep
     -- (check_count_stats: the same numbers as count and percentile_cont over every non-rejected
@@ -157,9 +164,10 @@ async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
     -- since no count at or below it is ever marked (every group threshold is above the floor too).
     taxon_stats AS (${keptStatsSql(
       sql`(SELECT DISTINCT event_id, taxon_id FROM target WHERE taxon_id IS NOT NULL AND count > ${HIGH_COUNT_FLOOR})`,
+      eventId,
     )}),
     computed AS (
-      SELECT s.id, array_remove(ARRAY[
+      SELECT s.id, s.event_id, array_remove(ARRAY[
         CASE WHEN e.area IS NOT NULL AND NOT ST_Covers(e.area, s.location) THEN 'outside_area'::check_mark END,
         CASE WHEN s.observed_at < e.starts_at OR s.observed_at > e.ends_at THEN 'outside_dates'::check_mark END,
         CASE WHEN s.taxon_id IS NOT NULL AND (
@@ -175,7 +183,7 @@ async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
         ) THEN 'photo_missing'::check_mark END,
         CASE WHEN s.taxon_id IS NOT NULL AND EXISTS (
           SELECT 1 FROM sightings o
-          WHERE o.user_id = s.user_id AND o.event_id = s.event_id AND o.taxon_id = s.taxon_id AND o.id <> s.id
+          WHERE o.user_id = s.user_id AND o.event_id = ${ev("s")} AND o.taxon_id = s.taxon_id AND o.id <> s.id
             AND o.review_state <> 'rejected'
             AND o.observed_at BETWEEN s.observed_at - make_interval(mins => ${DUPLICATE_MINUTES}) AND s.observed_at + make_interval(mins => ${DUPLICATE_MINUTES})
             AND ST_DWithin(o.location::geography, s.location::geography, ${DUPLICATE_METRES})
@@ -187,9 +195,9 @@ async function refreshChunk(tx: Executor, ids: string[]): Promise<void> {
       LEFT JOIN taxa t ON t.id = s.taxon_id
       LEFT JOIN taxon_stats st ON st.event_id = s.event_id AND st.taxon_id = s.taxon_id
       CROSS JOIN LATERAL (SELECT EXISTS (SELECT 1 FROM event_species es WHERE es.event_id = s.event_id AND es.taxon_id = s.taxon_id) AS yes) on_list
-      CROSS JOIN LATERAL (SELECT EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id) AS yes) has_photo
+      CROSS JOIN LATERAL (SELECT EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id AND p.event_id = s.event_id) AS yes) has_photo
     )
     UPDATE sightings x SET check_marks = c.marks
     FROM computed c
-    WHERE x.id = c.id AND x.check_marks IS DISTINCT FROM c.marks`);
+    WHERE x.event_id = ${ev("c")} AND x.id = c.id AND x.check_marks IS DISTINCT FROM c.marks`);
 }

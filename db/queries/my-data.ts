@@ -109,18 +109,18 @@ export async function myData(userId: string): Promise<MyData | null> {
              s.session_id, s.notes, s.review_state::text AS review_state, s.created_at,
              (SELECT json_agg(json_build_object('id', p.id, 'contentType', p.content_type, 'sizeBytes', p.size_bytes,
                       'sha256', p.sha256) ORDER BY p.created_at, p.id)
-                FROM photos p WHERE p.sighting_id = s.id) AS photos,
+                FROM photos p WHERE p.sighting_id = s.id AND p.event_id = s.event_id) AS photos,
              (SELECT json_agg(json_build_object('decidedAt', r.decided_at, 'fromState', r.from_state, 'toState', r.to_state,
                       'fromTaxon', ft.scientific_name, 'toTaxon', tt.scientific_name, 'reason', r.reason, 'message', r.message)
                       ORDER BY r.decided_at, r.id)
                 FROM reviews r LEFT JOIN taxa ft ON ft.id = r.from_taxon_id LEFT JOIN taxa tt ON tt.id = r.to_taxon_id
-                WHERE r.sighting_id = s.id) AS decisions
+                WHERE r.sighting_id = s.id AND r.event_id = s.event_id) AS decisions
       FROM sightings s JOIN events e ON e.id = s.event_id LEFT JOIN taxa t ON t.id = s.taxon_id
       LEFT JOIN zones z ON z.id = s.zone_id
       WHERE s.user_id = ${userId} ORDER BY s.observed_at, s.id`),
     db.execute<{ sighting_id: string; decided_at: string; from_state: string; to_state: string; reason: string }>(sql`
       SELECT r.sighting_id, r.decided_at, r.from_state::text AS from_state, r.to_state::text AS to_state, r.reason
-      FROM reviews r JOIN sightings s ON s.id = r.sighting_id
+      FROM reviews r JOIN sightings s ON s.id = r.sighting_id AND s.event_id = r.event_id
       WHERE r.reviewer_id = ${userId} AND s.user_id <> ${userId} ORDER BY r.decided_at, r.id`),
   ]);
   return {

@@ -11,7 +11,7 @@ import { photos, reviews, sightings, taxa } from "../schema";
 const latest = (state: "returned" | "rejected", column: typeof reviews.message | typeof reviews.reason) => sql<
   string | null
 >`(
-  SELECT r.${sql.identifier(column.name)} FROM ${reviews} r WHERE r.sighting_id = ${sightings.id} AND r.to_state = ${state}
+  SELECT r.${sql.identifier(column.name)} FROM ${reviews} r WHERE r.sighting_id = ${sightings.id} AND r.event_id = ${sightings.eventId} AND r.to_state = ${state}
   ORDER BY r.decided_at DESC, r.id DESC LIMIT 1)`;
 
 export async function listMySightings(userId: string, eventId: string): Promise<MySighting[]> {
@@ -34,7 +34,7 @@ export async function listMySightings(userId: string, eventId: string): Promise<
       notes: sightings.notes,
       photoIds: sql<
         string[]
-      >`coalesce((SELECT array_agg(p.id::text ORDER BY p.created_at, p.id) FROM ${photos} p WHERE p.sighting_id = ${sightings.id}), ARRAY[]::text[])`,
+      >`coalesce((SELECT array_agg(p.id::text ORDER BY p.created_at, p.id) FROM ${photos} p WHERE p.sighting_id = ${sightings.id} AND p.event_id = ${sightings.eventId}), ARRAY[]::text[])`,
       question: sql<
         string | null
       >`CASE WHEN ${sightings.reviewState} = 'returned' THEN ${latest("returned", reviews.message)} END`,

@@ -208,6 +208,7 @@ export async function importPaperSheet(
     await refreshCheckMarks(
       tx,
       sightingRows.map((r) => r.row.id),
+      eventId,
     );
   });
   return { problems: [], summary, saved: true };

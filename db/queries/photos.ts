@@ -32,7 +32,7 @@ export async function findPhoto(photoId: string): Promise<PhotoRow | null> {
       sighting: { id: sightings.id, userId: sightings.userId, eventId: sightings.eventId, taxonGroup: taxa.taxonGroup },
     })
     .from(photos)
-    .innerJoin(sightings, eq(sightings.id, photos.sightingId))
+    .innerJoin(sightings, and(eq(sightings.eventId, photos.eventId), eq(sightings.id, photos.sightingId)))
     .leftJoin(taxa, eq(taxa.id, sightings.taxonId))
     .where(eq(photos.id, photoId))
     .limit(1);
@@ -47,7 +47,7 @@ export async function insertPhoto(row: typeof photos.$inferInsert): Promise<bool
       .values(row)
       .onConflictDoNothing({ target: photos.id })
       .returning({ id: photos.id });
-    if (inserted.length) await refreshCheckMarks(tx, [row.sightingId]);
+    if (inserted.length) await refreshCheckMarks(tx, [row.sightingId], row.eventId);
     return inserted.length === 1;
   });
 }

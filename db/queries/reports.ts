@@ -243,9 +243,9 @@ export async function reportDwcContext(
     FROM sightings s
     LEFT JOIN LATERAL (
       SELECT ${PUBLIC_PERSON("u")} AS name FROM reviews r JOIN users u ON u.id = r.reviewer_id
-      WHERE r.sighting_id = s.id AND r.to_state = 'approved' ORDER BY r.decided_at DESC, r.id DESC LIMIT 1
+      WHERE r.sighting_id = s.id AND r.event_id = s.event_id AND r.to_state = 'approved' ORDER BY r.decided_at DESC, r.id DESC LIMIT 1
     ) d ON true
-    WHERE s.id = ANY(${uuidArray(sightingIds)})`)
+    WHERE s.event_id = ${eventId} AND s.id = ANY(${uuidArray(sightingIds)})`)
       ).rows
     : [];
   const sessionIds = [
@@ -339,6 +339,7 @@ export type Occurrence = {
  * generalise or withhold. Taxon and count are those recorded in the report.
  */
 export async function reportOccurrences(report: {
+  eventId: string;
   inputRecords: InputRecord[];
   results: Results;
 }): Promise<Occurrence[]> {
@@ -355,7 +356,7 @@ export async function reportOccurrences(report: {
   }>(sql`
     SELECT s.id, s.observed_at AS "observedAt", ST_X(s.location) AS lon, ST_Y(s.location) AS lat, s.accuracy_m::float8 AS "accuracyM",
       coalesce(u.published_name, 'recorder-' || left(md5(u.id::text), 8)) AS "recordedBy"
-    FROM sightings s JOIN users u ON u.id = s.user_id WHERE s.id = ANY(${sql.raw(`ARRAY[${ids.map((id) => `'${id.replace(/[^0-9a-f-]/gi, "")}'`).join(",")}]::uuid[]`)}) ORDER BY s.id`);
+    FROM sightings s JOIN users u ON u.id = s.user_id WHERE s.event_id = ${report.eventId} AND s.id = ANY(${sql.raw(`ARRAY[${ids.map((id) => `'${id.replace(/[^0-9a-f-]/gi, "")}'`).join(",")}]::uuid[]`)}) ORDER BY s.id`);
   const rec = new Map(report.inputRecords.map((x) => [x[0], x]));
   const taxa = await taxaMeta([...new Set(report.inputRecords.map((x) => x[2]))]); // session records' "" is skipped
   const recorded = new Map(report.results.species.map((s) => [s.id, s.sensitivity]));

@@ -61,7 +61,7 @@ export async function composeDigests(
           ${taxonName("r.from_taxon_id")} AS "fromTaxon", ${taxonName("r.to_taxon_id")} AS "toTaxon",
           (r.from_taxon_id IS DISTINCT FROM r.to_taxon_id) AS "taxonChanged",
           s.count, s.observed_at AS "observedAt", s.description, e.name AS "eventName", e.time_zone AS "timeZone"
-        FROM reviews r JOIN sightings s ON s.id = r.sighting_id JOIN events e ON e.id = s.event_id
+        FROM reviews r JOIN sightings s ON s.id = r.sighting_id AND s.event_id = r.event_id JOIN events e ON e.id = s.event_id
         WHERE r.id = ANY(${ids}::bigint[]) ORDER BY e.name, r.decided_at, r.id`);
       const mail = render(to, items);
       const { rows: outbox } = await tx.execute<{ id: number }>(sql`

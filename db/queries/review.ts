@@ -80,8 +80,10 @@ function filterSql(scope: ReviewScope, f: Omit<QueueFilters, "order">, opts: { w
   if (f.volunteer) parts.push(sql`s.user_id = ${f.volunteer}`);
   if (f.from) parts.push(sql`s.observed_at >= (${f.from}::date::timestamp AT TIME ZONE e.time_zone)`);
   if (f.to) parts.push(sql`s.observed_at < ((${f.to}::date + 1)::timestamp AT TIME ZONE e.time_zone)`);
-  if (f.photo === "yes") parts.push(sql`EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id)`);
-  if (f.photo === "no") parts.push(sql`NOT EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id)`);
+  if (f.photo === "yes")
+    parts.push(sql`EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id AND p.event_id = s.event_id)`);
+  if (f.photo === "no")
+    parts.push(sql`NOT EXISTS (SELECT 1 FROM photos p WHERE p.sighting_id = s.id AND p.event_id = s.event_id)`);
   return sql.join(parts, sql` AND `);
 }
 
@@ -113,7 +115,7 @@ export async function reviewQueue(
       s.description, s.count, s.count_is_estimate AS "countIsEstimate",
       to_char(s.observed_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') AS "observedAt", s.observed_at::text AS "cursorAt",
       z.name AS "zoneName", coalesce(u.name, u.email) AS "volunteerName", s.check_marks::text[] AS "checkMarks",
-      (SELECT count(*)::int FROM photos p WHERE p.sighting_id = s.id) AS "photoCount"
+      (SELECT count(*)::int FROM photos p WHERE p.sighting_id = s.id AND p.event_id = s.event_id) AS "photoCount"
     FROM ${fromSql(scope)}
     JOIN users u ON u.id = s.user_id
     LEFT JOIN zones z ON z.id = s.zone_id
@@ -170,8 +172,11 @@ export async function reviewEventBySlug(slug: string): Promise<ReviewEvent | nul
   return row ? { ...row, startsAt: new Date(row.startsAt), endsAt: new Date(row.endsAt) } : null;
 }
 
-/** Where a sighting is and which group it belongs to, to check a reviewer's scope before showing or deciding it. */
-async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
+/**
+ * Where a sighting is and which group it belongs to, to check a reviewer's scope before showing or deciding it.
+ * Looked up within the desk's event (one partition of sightings): a sighting of another event is not found.
+ */
+async function sightingPlace(db: Executor, eventId: string, sightingId: string, lock: boolean) {
   const { rows } = await db.execute<{
     id: string;
     eventId: string;
@@ -183,7 +188,7 @@ async function sightingPlace(db: Executor, sightingId: string, lock: boolean) {
   }>(sql`
     SELECT s.id, s.event_id AS "eventId", s.user_id AS "userId", s.review_state AS "reviewState", s.version,
       s.taxon_id AS "taxonId", t.taxon_group::text AS "taxonGroup"
-    FROM sightings s LEFT JOIN taxa t ON t.id = s.taxon_id WHERE s.id = ${sightingId}
+    FROM sightings s LEFT JOIN taxa t ON t.id = s.taxon_id WHERE s.event_id = ${eventId} AND s.id = ${sightingId}
     ${lock ? sql`FOR UPDATE OF s` : sql``}`);
   return rows[0] ?? null;
 }
@@ -199,7 +204,7 @@ function inScope(scope: ReviewScope, place: { eventId: string; taxonGroup: Taxon
 
 export async function sightingDetail(scope: ReviewScope, sightingId: string) {
   const db = getDb();
-  const check = inScope(scope, await sightingPlace(db, sightingId, false));
+  const check = inScope(scope, await sightingPlace(db, scope.eventId, sightingId, false));
   if (check !== "ok") return { check } as const;
   const name = (col: SQL) =>
     sql`(SELECT coalesce(max(n.name) FILTER (WHERE n.locale = ${scope.locale}), max(n.name) FILTER (WHERE n.locale = 'en')) FROM taxon_names n WHERE n.taxon_id = ${col})`;
@@ -245,13 +250,13 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
         s.user_id AS "volunteerId", coalesce(u.name, u.email) AS "volunteerName", s.check_marks::text[] AS "checkMarks",
         c.id AS "sessionId", c.kind::text AS "sessionKind", c.started_at AS "sessionStartedAt", c.ended_at AS "sessionEndedAt",
         c.all_species_noted AS "sessionAllSpecies", cz.name AS "sessionZoneName",
-        (SELECT count(*)::int FROM sightings x WHERE x.session_id = c.id) AS "sessionSightings"
+        (SELECT count(*)::int FROM sightings x WHERE x.event_id = s.event_id AND x.session_id = c.id) AS "sessionSightings"
       FROM sightings s JOIN users u ON u.id = s.user_id
       LEFT JOIN taxa t ON t.id = s.taxon_id LEFT JOIN zones z ON z.id = s.zone_id
       LEFT JOIN count_sessions c ON c.id = s.session_id LEFT JOIN zones cz ON cz.id = c.zone_id
-      WHERE s.id = ${sightingId}`),
+      WHERE s.event_id = ${scope.eventId} AND s.id = ${sightingId}`),
     db.execute<{ id: string; contentType: string; sizeBytes: number; width: number | null; height: number | null }>(sql`
-      SELECT id, content_type AS "contentType", size_bytes AS "sizeBytes", width, height FROM photos WHERE sighting_id = ${sightingId} ORDER BY created_at, id`),
+      SELECT id, content_type AS "contentType", size_bytes AS "sizeBytes", width, height FROM photos WHERE sighting_id = ${sightingId} AND event_id = ${scope.eventId} ORDER BY created_at, id`),
     db.execute<{
       id: number;
       decidedAt: string;
@@ -268,7 +273,7 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
         (SELECT coalesce(${name(sql`ft.id`)} || ' (' || ft.scientific_name || ')', ft.scientific_name) FROM taxa ft WHERE ft.id = r.from_taxon_id) AS "fromTaxon",
         (SELECT coalesce(${name(sql`tt.id`)} || ' (' || tt.scientific_name || ')', tt.scientific_name) FROM taxa tt WHERE tt.id = r.to_taxon_id) AS "toTaxon",
         r.reason, r.message
-      FROM reviews r JOIN users u ON u.id = r.reviewer_id WHERE r.sighting_id = ${sightingId} ORDER BY r.decided_at, r.id`),
+      FROM reviews r JOIN users u ON u.id = r.reviewer_id WHERE r.sighting_id = ${sightingId} AND r.event_id = ${scope.eventId} ORDER BY r.decided_at, r.id`),
     // The volunteer's other records within two hours either side, to judge duplicates and context.
     db.execute<{
       id: string;
@@ -284,7 +289,7 @@ export async function sightingDetail(scope: ReviewScope, sightingId: string) {
       FROM sightings s JOIN sightings o ON o.user_id = s.user_id AND o.event_id = s.event_id AND o.id <> s.id
         AND o.observed_at BETWEEN s.observed_at - interval '2 hours' AND s.observed_at + interval '2 hours'
       LEFT JOIN taxa ot ON ot.id = o.taxon_id
-      WHERE s.id = ${sightingId} ORDER BY o.observed_at LIMIT 30`),
+      WHERE s.event_id = ${scope.eventId} AND s.id = ${sightingId} ORDER BY o.observed_at LIMIT 30`),
     db.execute<{ area: string | null; zones: { id: string; name: string; geometry: string }[] | null }>(sql`
       SELECT ST_AsGeoJSON(e.area, 6) AS area,
         (SELECT json_agg(json_build_object('id', z.id, 'name', z.name, 'geometry', ST_AsGeoJSON(z.geom, 6)) ORDER BY z.name) FROM zones z WHERE z.event_id = e.id) AS zones
@@ -341,7 +346,7 @@ async function lockAtVersion(
   | { place: NonNullable<Awaited<ReturnType<typeof sightingPlace>>> }
   | Extract<DecisionResult, { outcome: "not_found" | "forbidden" | "conflict" }>
 > {
-  const place = await sightingPlace(tx, sightingId, true);
+  const place = await sightingPlace(tx, scope.eventId, sightingId, true);
   const check = inScope(scope, place);
   if (check !== "ok") return { outcome: check };
   if (place!.version !== version)
@@ -385,13 +390,13 @@ export async function decide(
     const message = d.message?.trim() ?? "";
     const { rows: updated } = await tx.execute<{ version: number }>(sql`
       UPDATE sightings SET review_state = ${toState}, taxon_id = ${toTaxon}, version = version + 1, updated_at = now()
-      WHERE id = ${sightingId} RETURNING version`);
+      WHERE event_id = ${scope.eventId} AND id = ${sightingId} RETURNING version`);
     const { rows: review } = await tx.execute<{ id: number }>(sql`
-      INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
-      VALUES (${sightingId}, ${reviewerId}, ${p.reviewState}, ${toState}, ${p.taxonId}, ${toTaxon}, ${reason}, ${message})
+      INSERT INTO reviews (sighting_id, event_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
+      VALUES (${sightingId}, ${scope.eventId}, ${reviewerId}, ${p.reviewState}, ${toState}, ${p.taxonId}, ${toTaxon}, ${reason}, ${message})
       RETURNING id::int AS id`);
     await tx.execute(sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${review[0]!.id}, ${p.userId})`);
-    await refreshCheckMarks(tx, [sightingId]);
+    await refreshCheckMarks(tx, [sightingId], scope.eventId);
     return {
       outcome: "ok",
       reviewId: review[0]!.id,
@@ -468,17 +473,18 @@ export async function bulkApprove(
     const ids = rows.map((r) => r.id);
     const idArray = sql`${`{${ids.join(",")}}`}::uuid[]`;
     await tx.execute(
-      sql`UPDATE sightings SET review_state = 'approved', version = version + 1, updated_at = now() WHERE id = ANY(${idArray})`,
+      sql`UPDATE sightings SET review_state = 'approved', version = version + 1, updated_at = now() WHERE event_id = ${scope.eventId} AND id = ANY(${idArray})`,
     );
     await tx.execute(sql`
       WITH added AS (
-        INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
-        SELECT s.id, ${reviewerId}, 'pending', 'approved', s.taxon_id, s.taxon_id, '', '' FROM sightings s WHERE s.id = ANY(${idArray})
+        INSERT INTO reviews (sighting_id, event_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
+        SELECT s.id, s.event_id, ${reviewerId}, 'pending', 'approved', s.taxon_id, s.taxon_id, '', '' FROM sightings s
+        WHERE s.event_id = ${scope.eventId} AND s.id = ANY(${idArray})
         RETURNING id, sighting_id
       )
       INSERT INTO review_notices (review_id, volunteer_id)
-      SELECT a.id, s.user_id FROM added a JOIN sightings s ON s.id = a.sighting_id`);
-    await refreshCheckMarks(tx, ids);
+      SELECT a.id, s.user_id FROM added a JOIN sightings s ON s.event_id = ${scope.eventId} AND s.id = a.sighting_id`);
+    await refreshCheckMarks(tx, ids, scope.eventId);
     return { outcome: "ok", approved: ids.length };
   });
 }
@@ -512,21 +518,21 @@ export async function undoDecision(
       toTaxonId: string | null;
     }>(sql`
       SELECT id::int AS id, from_state AS "fromState", to_state AS "toState", from_taxon_id AS "fromTaxonId", to_taxon_id AS "toTaxonId"
-      FROM reviews WHERE sighting_id = ${sightingId} ORDER BY id DESC LIMIT 1`);
+      FROM reviews WHERE sighting_id = ${sightingId} AND event_id = ${scope.eventId} ORDER BY id DESC LIMIT 1`);
     const last = latest[0];
     if (!last || last.id !== reviewId) {
       const { rows: named } = await tx.execute(
-        sql`SELECT 1 FROM reviews WHERE id = ${reviewId} AND sighting_id = ${sightingId}`,
+        sql`SELECT 1 FROM reviews WHERE id = ${reviewId} AND sighting_id = ${sightingId} AND event_id = ${scope.eventId}`,
       );
       return { outcome: named.length ? "not_last" : "unknown_review" };
     }
     if (last.toState !== p.reviewState || last.toTaxonId !== p.taxonId) return { outcome: "not_last" };
     const { rows: updated } = await tx.execute<{ version: number }>(sql`
       UPDATE sightings SET review_state = ${last.fromState}, taxon_id = ${last.fromTaxonId}, version = version + 1, updated_at = now()
-      WHERE id = ${sightingId} RETURNING version`);
+      WHERE event_id = ${scope.eventId} AND id = ${sightingId} RETURNING version`);
     const { rows: review } = await tx.execute<{ id: number }>(sql`
-      INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message, undoes_id)
-      VALUES (${sightingId}, ${reviewerId}, ${last.toState}, ${last.fromState}, ${last.toTaxonId}, ${last.fromTaxonId}, '', '', ${reviewId})
+      INSERT INTO reviews (sighting_id, event_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message, undoes_id)
+      VALUES (${sightingId}, ${scope.eventId}, ${reviewerId}, ${last.toState}, ${last.fromState}, ${last.toTaxonId}, ${last.fromTaxonId}, '', '', ${reviewId})
       RETURNING id::int AS id`);
     const { rows: withdrawn } = await tx.execute(
       sql`DELETE FROM review_notices WHERE review_id = ${reviewId} AND digest_id IS NULL RETURNING review_id`,
@@ -535,7 +541,7 @@ export async function undoDecision(
       await tx.execute(
         sql`INSERT INTO review_notices (review_id, volunteer_id) VALUES (${review[0]!.id}, ${p.userId})`,
       );
-    await refreshCheckMarks(tx, [sightingId]);
+    await refreshCheckMarks(tx, [sightingId], scope.eventId);
     return {
       outcome: "ok",
       reviewId: review[0]!.id,

@@ -386,7 +386,9 @@ async function storeSightings(
         ${col((r) => r.latitude)}::float8[], ${col((r) => r.accuracyM)}::real[], ${col((r) => r.notes)}::text[])
         WITH ORDINALITY AS r(id, session_id, taxon_id, description, count, estimate, observed_at, lon, lat, accuracy_m, notes, i)
       ORDER BY r.i
-      ON CONFLICT (id) DO NOTHING
+      -- Sightings are partitioned by event (migration 0025): the key is (id, event_id), and a
+      -- resend is found in this event's partition.
+      ON CONFLICT (id, event_id) DO NOTHING
       RETURNING id`);
     return result.rows.map((r) => r.id);
   });
@@ -443,7 +445,7 @@ async function storeSightings(
         withdrawnAt: sightings.withdrawnAt,
       })
       .from(sightings)
-      .where(inArray(sightings.id, ids))
+      .where(and(eq(sightings.eventId, input.eventId), inArray(sightings.id, ids)))
       .for("update");
   const existing = new Map((rest.length ? await readExisting(rest) : []).map((r) => [r.id, r]));
   const claimed = new Set<string>();
@@ -492,9 +494,10 @@ async function storeSightings(
           await sp
             .update(sightings)
             .set({ reviewState: "rejected", withdrawnAt: now, version: row.version + 1, updatedAt: new Date() })
-            .where(eq(sightings.id, rec.id));
+            .where(and(eq(sightings.eventId, input.eventId), eq(sightings.id, rec.id)));
           await sp.insert(reviews).values({
             sightingId: rec.id,
+            eventId: input.eventId,
             reviewerId: input.userId,
             fromState: state,
             toState: "rejected",
@@ -540,6 +543,7 @@ async function storeSightings(
         if (changes.length)
           await sp.insert(sightingVersions).values({
             sightingId: rec.id,
+            eventId: input.eventId,
             version: row.version,
             sessionId: row.sessionId,
             taxonId: row.taxonId,
@@ -554,10 +558,11 @@ async function storeSightings(
         await sp
           .update(sightings)
           .set({ ...f, reviewState: "pending", version: row.version + 1, updatedAt: new Date() })
-          .where(eq(sightings.id, rec.id));
+          .where(and(eq(sightings.eventId, input.eventId), eq(sightings.id, rec.id)));
         const retaxon = row.taxonId !== f.taxonId;
         await sp.insert(reviews).values({
           sightingId: rec.id,
+          eventId: input.eventId,
           reviewerId: input.userId,
           fromState: state,
           toState: "pending",
@@ -576,6 +581,6 @@ async function storeSightings(
     }
   }
   // The reviewers' automatic hints, in the same transaction as the records themselves.
-  await refreshCheckMarks(tx, touched);
+  await refreshCheckMarks(tx, touched, input.eventId);
   return acks;
 }

@@ -1,4 +1,4 @@
-import { eq, sql } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as s from "../schema";
 import {
@@ -274,7 +274,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
     const reviewed = await tx
       .select({ id: s.reviews.sightingId })
       .from(s.reviews)
-      .innerJoin(s.sightings, eq(s.sightings.id, s.reviews.sightingId))
+      .innerJoin(s.sightings, and(eq(s.sightings.eventId, s.reviews.eventId), eq(s.sightings.id, s.reviews.sightingId)))
       .where(eq(s.sightings.eventId, eventId))
       .limit(1);
     if (reviewed.length === 0) {
@@ -297,7 +297,14 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
                 ? "rejected"
                 : "returned";
         if (toState === "pending") continue;
-        const base = { sightingId: row.id, reviewerId: reviewer, decidedAt, fromState: "pending" as const, toState };
+        const base = {
+          sightingId: row.id,
+          eventId,
+          reviewerId: reviewer,
+          decidedAt,
+          fromState: "pending" as const,
+          toState,
+        };
         if (toState === "rejected") reviewRows.push({ ...base, reason: pick(SEED_REJECT_REASONS) });
         else if (toState === "returned")
           reviewRows.push({
@@ -310,7 +317,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
         await tx
           .update(s.sightings)
           .set({ reviewState: toState, version: 2, updatedAt: decidedAt })
-          .where(eq(s.sightings.id, row.id));
+          .where(and(eq(s.sightings.eventId, eventId), eq(s.sightings.id, row.id)));
       }
       for (let i = 0; i < reviewRows.length; i += 200) await tx.insert(s.reviews).values(reviewRows.slice(i, i + 200));
     }
@@ -340,6 +347,7 @@ export async function seedDemo(db: Db, options: { passwordHash?: string } = {}):
       if (inserted.length) {
         await tx.insert(s.reviews).values({
           sightingId: id,
+          eventId,
           reviewerId: people.get("coord-all")!,
           decidedAt: new Date(observedAt.getTime() + 3 * 3_600_000),
           fromState: "pending",

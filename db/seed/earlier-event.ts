@@ -120,6 +120,7 @@ export async function seedEarlierEvent(
   await tx.insert(s.reviews).values(
     sightings.map((x) => ({
       sightingId: x.id!,
+      eventId: x.eventId,
       reviewerId: ids.people.get("coord-all")!,
       decidedAt: new Date(EARLIER_EVENT.endsAt.getTime() + 12 * 3_600_000),
       fromState: "pending" as const,

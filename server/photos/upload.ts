@@ -126,6 +126,7 @@ export async function confirmPhoto(c: Caller, photoId: string): Promise<PhotoCon
   const created = await insertPhoto({
     id,
     sightingId: sighting.id,
+    eventId: c.eventId,
     storageKey: key,
     contentType: facts.type,
     sizeBytes: stored.full.length,

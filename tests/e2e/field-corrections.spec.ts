@@ -155,7 +155,8 @@ test("a question is answered after the event closed, within its review period", 
     const s = rows[0] as { id: string; version: number };
     const coord = (await c.query(`SELECT id FROM users WHERE email = $1`, [DEMO.coordinator])).rows[0].id;
     await c.query(
-      `INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, message) VALUES ($1, $2, 'pending', 'returned', $3)`,
+      `INSERT INTO reviews (sighting_id, event_id, reviewer_id, from_state, to_state, message)
+       SELECT $1, event_id, $2, 'pending', 'returned', $3 FROM sightings WHERE id = $1`,
       [s.id, coord, question],
     );
     await c.query(`UPDATE sightings SET review_state = 'returned', version = version + 1 WHERE id = $1`, [s.id]);

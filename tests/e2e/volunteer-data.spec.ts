@@ -27,9 +27,9 @@ async function makeErin(): Promise<void> {
       ins AS (
         INSERT INTO sightings (id, event_id, user_id, taxon_id, count, observed_at, location, accuracy_m, zone_id, review_state)
         SELECT gen_random_uuid(), src.event_id, u.id, src.taxon_id, 4, src.observed_at, src.location, src.accuracy_m, src.zone_id, 'approved'
-        FROM src, u RETURNING id)
-      INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state)
-      SELECT ins.id, (SELECT id FROM users WHERE email = 'coordinator@example.org'), 'pending', 'approved' FROM ins`);
+        FROM src, u RETURNING id, event_id)
+      INSERT INTO reviews (sighting_id, event_id, reviewer_id, from_state, to_state)
+      SELECT ins.id, ins.event_id, (SELECT id FROM users WHERE email = 'coordinator@example.org'), 'pending', 'approved' FROM ins`);
   });
 }
 

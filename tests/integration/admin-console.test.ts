@@ -174,6 +174,7 @@ describe("admin console", () => {
         .values({
           id,
           sightingId,
+          eventId: f.event.id,
           storageKey: `test/${id}.jpg`,
           contentType: "image/jpeg",
           sizeBytes,

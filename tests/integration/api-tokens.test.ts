@@ -171,8 +171,8 @@ describe("read-only API tokens", () => {
     const id = approvedOpen[1]!;
     // Seeded as approved: the desk's approval on record, then a reviewer rejects it.
     await db()
-      .execute(sql`INSERT INTO reviews (sighting_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
-      VALUES (${id}, ${f.user.id}, 'pending', 'approved', ${f.taxon.id}, ${f.taxon.id}, '', '')`);
+      .execute(sql`INSERT INTO reviews (sighting_id, event_id, reviewer_id, from_state, to_state, from_taxon_id, to_taxon_id, reason, message)
+      VALUES (${id}, ${f.event.id}, ${f.user.id}, 'pending', 'approved', ${f.taxon.id}, ${f.taxon.id}, '', '')`);
     const before = new Date().toISOString();
     const v = (await db().execute<{ version: number }>(sql`SELECT version FROM sightings WHERE id = ${id}`)).rows[0]!
       .version;

@@ -101,6 +101,7 @@ describe("automatic check marks", () => {
       .values({
         id: crypto.randomUUID(),
         sightingId: id,
+        eventId: f.event.id,
         storageKey: `test/${id}.jpg`,
         contentType: "image/jpeg",
         sizeBytes: 1000,

@@ -225,6 +225,7 @@ describe("Darwin Core Archive of a report (Event core, Occurrence extension)", (
       .values(
         [inComplete, onWalk, outside, sensitive].map((x) => ({
           sightingId: x.id,
+          eventId: f.event.id,
           reviewerId: coordinator.id,
           fromState: "pending" as const,
           toState: "approved" as const,

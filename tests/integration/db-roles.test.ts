@@ -127,7 +127,13 @@ describe("the app's database role", () => {
     const [sighting] = await db().insert(schema.sightings).values(sightingValues(f)).returning();
     const [review] = await db()
       .insert(schema.reviews)
-      .values({ sightingId: sighting!.id, reviewerId: f.user.id, fromState: "pending", toState: "approved" })
+      .values({
+        sightingId: sighting!.id,
+        eventId: sighting!.eventId,
+        reviewerId: f.user.id,
+        fromState: "pending",
+        toState: "approved",
+      })
       .returning();
     const update = await app.query("UPDATE reviews SET reason = 'changed' WHERE id = $1", [review!.id]).catch((e) => e);
     expect(String(update.message)).toMatch(/append-only/);

@@ -162,6 +162,10 @@ async function expectUpgradedData(c: Client): Promise<void> {
   expect((await c.query("SELECT to_state, reason FROM reviews WHERE sighting_id = $1", [ids.s1])).rows).toEqual([
     { to_state: "approved", reason: "clear photo" },
   ]);
+  // 0025 (sightings partitioned by event) gave the decision its sighting's event.
+  expect((await c.query("SELECT event_id FROM reviews WHERE sighting_id = $1", [ids.s1])).rows).toEqual([
+    { event_id: ids.event },
+  ]);
   expect((await c.query("SELECT count(*)::int AS n FROM review_notices")).rows[0].n).toBe(1);
 
   // 0007 filled its aggregates from the approved sightings already there (the pending one not).

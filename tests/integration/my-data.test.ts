@@ -74,6 +74,7 @@ beforeAll(async () => {
   for (const id of [ids.approved1, ids.approved2]) {
     await db().insert(s.reviews).values({
       sightingId: id,
+      eventId: f.event.id,
       reviewerId: coordinatorId,
       fromState: "pending",
       toState: "returned",
@@ -81,7 +82,13 @@ beforeAll(async () => {
     });
     await db()
       .insert(s.reviews)
-      .values({ sightingId: id, reviewerId: coordinatorId, fromState: "returned", toState: "approved" });
+      .values({
+        sightingId: id,
+        eventId: f.event.id,
+        reviewerId: coordinatorId,
+        fromState: "returned",
+        toState: "approved",
+      });
     await db()
       .update(s.sightings)
       .set({ reviewState: "approved" })
@@ -216,6 +223,7 @@ describe("a volunteer's own data", () => {
       .insert(s.reviews)
       .values({
         sightingId: ids.pending,
+        eventId: f.event.id,
         reviewerId: coordinatorId,
         fromState: "pending",
         toState: "rejected",

@@ -35,6 +35,7 @@ describe("a volunteer's own sightings", () => {
       .values([
         {
           sightingId: returned.id,
+          eventId: f.event.id,
           reviewerId: coordinator!.id,
           fromState: "pending",
           toState: "returned",
@@ -43,6 +44,7 @@ describe("a volunteer's own sightings", () => {
         },
         {
           sightingId: returned.id,
+          eventId: f.event.id,
           reviewerId: f.user.id,
           fromState: "returned",
           toState: "pending",
@@ -51,6 +53,7 @@ describe("a volunteer's own sightings", () => {
         },
         {
           sightingId: returned.id,
+          eventId: f.event.id,
           reviewerId: coordinator!.id,
           fromState: "pending",
           toState: "returned",
@@ -59,6 +62,7 @@ describe("a volunteer's own sightings", () => {
         },
         {
           sightingId: rejected.id,
+          eventId: f.event.id,
           reviewerId: coordinator!.id,
           fromState: "pending",
           toState: "rejected",

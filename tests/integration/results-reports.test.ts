@@ -182,7 +182,7 @@ describe("reports", () => {
       .where(sql`id = ${pending!.id}`);
     await db()
       .insert(s.reviews)
-      .values({ sightingId: pending!.id, reviewerId: organiserId, fromState: "pending", toState: "approved" });
+      .values({ sightingId: pending!.id, eventId, reviewerId: organiserId, fromState: "pending", toState: "approved" });
     const v2 = await publishReport(eventId, organiserId, { confirmPending: true });
     expect(v2.version).toBe(v1.version + 1);
     const r2 = await getReport(eventId, v2.version);

@@ -297,6 +297,7 @@ describe("the sync data layer", () => {
     await db().update(s.sightings).set({ reviewState: "returned", version: 2 }).where(eq(s.sightings.id, rec.id));
     await db().insert(s.reviews).values({
       sightingId: rec.id,
+      eventId: f.event.id,
       reviewerId: coordinator!.id,
       fromState: "pending",
       toState: "returned",
