@@ -80,15 +80,13 @@ beforeAll(async () => {
       toState: "returned",
       message: "Which side of the pond?",
     });
-    await db()
-      .insert(s.reviews)
-      .values({
-        sightingId: id,
-        eventId: f.event.id,
-        reviewerId: coordinatorId,
-        fromState: "returned",
-        toState: "approved",
-      });
+    await db().insert(s.reviews).values({
+      sightingId: id,
+      eventId: f.event.id,
+      reviewerId: coordinatorId,
+      fromState: "returned",
+      toState: "approved",
+    });
     await db()
       .update(s.sightings)
       .set({ reviewState: "approved" })
