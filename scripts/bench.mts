@@ -1,7 +1,7 @@
 // npm run bench: runs every benchmark part (each also runnable alone), prints one table
 // and writes it to BENCHMARKS.md with the machine's CPU count and the date. Figures, not
 // pass/fail tests: where a figure misses its target, BENCHMARKS.md says why.
-//   npx tsx scripts/bench.mts [part ...]     parts: diversity, results, publish, queue, ingest, lighthouse
+//   npx tsx scripts/bench.mts [part ...]     parts: diversity, results, publish, queue, ingest, lighthouse, scale
 import { spawnSync } from "node:child_process";
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import { cpus } from "node:os";
@@ -14,6 +14,8 @@ const PARTS: { name: string; script: string; args: string[] }[] = [
   { name: "queue", script: "scripts/bench-review-queue.mts", args: [] },
   { name: "ingest", script: "scripts/bench-ingest.mts", args: [] },
   { name: "lighthouse", script: "scripts/bench-lighthouse.mts", args: [] },
+  // Builds its ten-event database once (about 35 minutes here), then reuses it.
+  { name: "scale", script: "scripts/bench-scale.mts", args: ["--publish", "--runs=3"] },
 ];
 
 const wanted = process.argv.slice(2);
