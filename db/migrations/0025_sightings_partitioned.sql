@@ -20,15 +20,16 @@
 --   each other.
 --
 -- Keys: a partitioned table's primary key must hold the partition key, so sightings' key is
--- (id, event_id). id first: a look-up by id alone (publishing's input records, check marks,
--- the desk's detail, resends) is one index probe per partition, 16 small probes, not a scan.
+-- (id, event_id). id first: a look-up by id alone, should one be needed, is one index probe
+-- per partition, 16 small probes, not a scan.
 -- A unique index cannot span partitions, so the id is unique across events because it is a
--- v4 uuid made on the device (collision odds ~1e-37 per pair); sync additionally refuses an id
--- that some other event already holds ("id_taken", as before), by looking the batch's ids up
--- across partitions before inserting (not proof against two simultaneous batches of two events
--- sending the same id, which only a deliberately broken client would do). Within one event the
--- primary key refuses a second row with the same id, so sync's ON CONFLICT (id, event_id)
--- keeps resends idempotent.
+-- v4 uuid made on the device (collision odds ~1e-37 per pair), and
+-- every look-up of a sighting names its event (the desk, decisions, sync, check marks, photos,
+-- reports, a volunteer's own data), and two rows of two events with one id never mix. Within
+-- one event the primary key refuses a second row with the same id, so sync's ON CONFLICT
+-- (id, event_id) keeps resends idempotent, and a resend of another person's id in the same
+-- event is still refused ("id_taken"). An id already used in another event is stored as a
+-- row of this event (before, the global key refused it); only a broken client would send one.
 -- Tables referencing sightings (photos, reviews, sighting_versions) get event_id, filled here
 -- from their sighting, and their foreign keys become (sighting_id, event_id) → sightings
 -- (id, event_id) with the same ON DELETE behaviours (photos cascade, the other two restrict).

@@ -114,6 +114,17 @@ async function taxonCodes(ids: readonly string[], db: Tx): Promise<Map<string, n
   return new Map(r.rows.map((x) => [x.id, Number(x.code)]));
 }
 
+/** Reads at once on the pool, or one after another on one client (see loadResultsInputParts). */
+async function together<T extends readonly unknown[]>(
+  oneClient: boolean,
+  reads: { [K in keyof T]: () => Promise<T[K]> },
+): Promise<T> {
+  if (!oneClient) return (await Promise.all(reads.map((r) => r()))) as unknown as T;
+  const out: unknown[] = [];
+  for (const r of reads) out.push(await r());
+  return out as unknown as T;
+}
+
 /**
  * The results input from the aggregate tables (migrations 0007, 0023, 0024): a few thousand rows
  * however many sightings the event holds. Taxa are ordered by id and complete sessions
@@ -140,7 +151,11 @@ export function loadResultsInputParts(
   const db = options.db ?? getReadDb();
   // Each complete session's taxa as one kept text of taxon codes (migration 0024); every
   // complete session is a row, also when nothing in it is approved (an empty unit).
-  const sessions =
+  // A caller's own client (a transaction) runs one query at a time: its reads go in turn
+  // (pg queues a client's queries and will refuse them at once from pg 9); on the pool they
+  // go at once, each on a connection of its own.
+  const oneClient = options.db !== undefined;
+  const readSessions = () =>
     options.sessions === false
       ? Promise.resolve({ rows: [] as { zoneId: string | null; taxa: string | null }[] })
       : db.execute<{ zoneId: string | null; taxa: string | null }>(sql`
@@ -148,17 +163,19 @@ export function loadResultsInputParts(
       SELECT sz.zone_id AS "zoneId", l.taxa
       FROM sz LEFT JOIN result_session_lists l ON l.event_id = ${eventId} AND l.session_id = sz.id
       ORDER BY sz.id`);
+  const sessionsAtOnce = oneClient ? null : readSessions();
   const counted = (async () => {
-    const [zones, counts, pending] = await Promise.all([
-      eventZones(eventId, db),
-      db.execute<{ zoneId: string; taxonId: string; individuals: number }>(sql`
+    const [zones, counts, pending] = await together(oneClient, [
+      () => eventZones(eventId, db),
+      () =>
+        db.execute<{ zoneId: string; taxonId: string; individuals: number }>(sql`
         SELECT zone_key AS "zoneId", taxon_id AS "taxonId", individuals::float8 AS individuals
         FROM result_taxon_counts WHERE event_id = ${eventId} AND sightings > 0`),
-      options.pending === false ? null : pendingCounts(eventId, db),
+      () => (options.pending === false ? Promise.resolve(null) : pendingCounts(eventId, db)),
     ]);
     const ids = [...new Set(counts.rows.map((c) => c.taxonId))].sort();
     const index = new Map(ids.map((id, i) => [id, i]));
-    const [meta, codes] = await Promise.all([taxaMeta(ids, db, eventId), taxonCodes(ids, db)]);
+    const [meta, codes] = await together(oneClient, [() => taxaMeta(ids, db, eventId), () => taxonCodes(ids, db)]);
     // Taxon code → index into `taxa`.
     const byCode = new Map<number, number>();
     for (const [id, code] of codes) byCode.set(code, index.get(id)!);
@@ -182,6 +199,7 @@ export function loadResultsInputParts(
     }
     return out.sort((a, b) => a - b);
   };
+  const sessions = sessionsAtOnce ?? counted.then(readSessions);
   const full = Promise.all([counted, sessions]).then(([{ input, byCode }, s]) => ({
     ...input,
     sessions: s.rows.map((r) => ({ zoneId: r.zoneId ?? NO_ZONE, taxa: indices(byCode, r.taxa) })),
