@@ -14,22 +14,30 @@
 //
 //   npx tsx scripts/bench-scale.mts [--rebuild] [--runs=N] [--publish] [--measure-only]
 //
-// The db layer imports "server-only", which only resolves under the "react-server" export
-// condition: the script re-runs itself with it (as scripts/bench-results.mts does).
+// The db layer imports "server-only": the script re-runs itself with scripts/no-server-only.cjs
+// (as scripts/bench-publish.mts does; the "react-server" condition would break publishing's
+// translator, which needs React's client build).
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 
 const EVENTS = 10;
 const PER_EVENT = 1_000_000;
 
-if (!process.execArgv.some((a) => a.includes("react-server"))) {
+if (!process.execArgv.some((a) => a.includes("no-server-only"))) {
   const { env } = await import("../lib/env");
   const u = new URL(env().DATABASE_URL);
   u.pathname = `/ecotone_test_bench_scale${process.env.ECOTONE_TEST_SUFFIX ?? ""}`;
   if (process.env.ECOTONE_PG_PORT) u.port = process.env.ECOTONE_PG_PORT;
   const r = spawnSync(
     process.execPath,
-    ["--conditions=react-server", "--import", "tsx", fileURLToPath(import.meta.url), ...process.argv.slice(2)],
+    [
+      "--require",
+      "./scripts/no-server-only.cjs",
+      "--import",
+      "tsx",
+      fileURLToPath(import.meta.url),
+      ...process.argv.slice(2),
+    ],
     { stdio: "inherit", env: { ...process.env, DATABASE_URL: u.toString() } },
   );
   process.exit(r.status ?? 1);
