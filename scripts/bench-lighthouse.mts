@@ -23,6 +23,7 @@ import desktopConfig from "lighthouse/core/config/desktop-config.js";
 import { chromium } from "@playwright/test";
 import { Client } from "pg";
 import { reportRows, type BenchRow } from "./bench-report";
+import { openFieldLogForSaves, saveOneRobin } from "./field-saves";
 
 const root = process.cwd();
 const port = Number(process.env.BENCH_PORT ?? 3190);
@@ -287,34 +288,8 @@ async function measureSaves(cookie: string, rows: BenchRow[]) {
         return { name: c.slice(0, at), value: c.slice(at + 1), url: base };
       }),
     );
-    const page = await context.newPage();
-    await page.goto("/en/field");
-    const pick = page.getByRole("button", { name: /Kestrel Moor Winter Count/ });
-    const heading = page.getByRole("heading", { level: 2, name: "Kestrel Moor Winter Count" });
-    await pick.or(heading).first().waitFor();
-    if (await pick.isVisible()) await pick.click();
-    const add = page.getByRole("button", { name: "Add sighting" });
-    await add.and(page.locator(":enabled")).waitFor({ timeout: 30_000 });
-    const cdp = await context.newCDPSession(page);
-    await cdp.send("Emulation.setCPUThrottlingRate", { rate: 4 });
-    for (let i = 0; i < saves; i++) {
-      await add.click();
-      const form = page.getByRole("form", { name: "New sighting" });
-      await form.getByRole("searchbox", { name: "Species" }).fill("robin");
-      await form
-        .getByRole("list", { name: "Matching species" })
-        .getByRole("button", { name: /European robin/ })
-        .first()
-        .click();
-      await form.getByText(/From the phone:/).waitFor();
-      const save = form.getByRole("button", { name: "Save sighting" });
-      await save.click();
-      // A check mark the phone sees is said once; the same tap again saves.
-      await form.waitFor({ state: "hidden", timeout: 5_000 }).catch(async () => {
-        await save.click();
-        await form.waitFor({ state: "hidden" });
-      });
-    }
+    const page = await openFieldLogForSaves(context);
+    for (let i = 0; i < saves; i++) await saveOneRobin(page);
     const times = await page.evaluate(() =>
       performance.getEntriesByName("ecotone:save-sighting", "measure").map((e) => e.duration),
     );

@@ -11,6 +11,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { readFileSync, writeFileSync } from "node:fs";
 import { chromium } from "@playwright/test";
+import { openFieldLogForSaves, saveOneRobin } from "./field-saves";
 
 const port = Number(process.env.BENCH_PORT ?? 3190);
 const base = `http://127.0.0.1:${port}`;
@@ -102,38 +103,12 @@ await context.addInitScript(() => {
     return tx;
   } as typeof open;
 });
-const page = await context.newPage();
-await page.goto("/en/field");
-const pick = page.getByRole("button", { name: /Kestrel Moor Winter Count/ });
-const heading = page.getByRole("heading", { level: 2, name: "Kestrel Moor Winter Count" });
-await pick.or(heading).first().waitFor();
-if (await pick.isVisible()) await pick.click();
-const add = page.getByRole("button", { name: "Add sighting" });
-await add.and(page.locator(":enabled")).waitFor({ timeout: 30_000 });
-const cdp = await context.newCDPSession(page);
-await cdp.send("Emulation.setCPUThrottlingRate", { rate: 4 });
+const page = await openFieldLogForSaves(context);
 await browser.startTracing(page, {
   path: tracePath,
   categories: ["toplevel", "devtools.timeline", "blink.user_timing", "disabled-by-default-v8.cpu_profiler"],
 });
-for (let i = 0; i < saves; i++) {
-  await add.click();
-  const form = page.getByRole("form", { name: "New sighting" });
-  await form.getByRole("searchbox", { name: "Species" }).fill("robin");
-  await form
-    .getByRole("list", { name: "Matching species" })
-    .getByRole("button", { name: /European robin/ })
-    .first()
-    .click();
-  await form.getByText(/From the phone:/).waitFor();
-  const save = form.getByRole("button", { name: "Save sighting" });
-  await save.click();
-  // A check mark the phone sees is said once; the same tap again saves (the bench does the same).
-  await form.waitFor({ state: "hidden", timeout: 5_000 }).catch(async () => {
-    if (await page.getByText("Save anyway").isVisible()) await save.click({ timeout: 5_000 }).catch(() => {});
-    await form.waitFor({ state: "hidden", timeout: 60_000 });
-  });
-}
+for (let i = 0; i < saves; i++) await saveOneRobin(page);
 await page.waitForTimeout(2_000);
 await browser.stopTracing();
 const inPage = await page.evaluate(() => ({
