@@ -65,8 +65,12 @@ test("a volunteer records and an organiser decides, both in Arabic", async ({ pa
     .getByRole("row")
     .filter({ has: desk.getByRole("cell") });
   await expect(rows.first()).toContainText("Turdus merula", { timeout: 20_000 });
-  await rows.first().click();
-  await expect(desk.getByText("على حافة الطريق")).toBeVisible();
+  // The row's own button opens it; a click that lands before the desk has hydrated opens
+  // nothing, so the click is repeated until the detail shows the note.
+  await expect(async () => {
+    await rows.first().getByRole("button").first().click();
+    await expect(desk.getByText("على حافة الطريق")).toBeVisible({ timeout: 2_000 });
+  }).toPass({ timeout: 20_000 });
   await desk.getByRole("button", { name: new RegExp(`^${d.actions.reject}`) }).click();
   const reject = desk.getByRole("form", { name: d.actions.reject });
   await reject.getByLabel(d.actions.reason).selectOption({ label: d.reasons.misidentified });
